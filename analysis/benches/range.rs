@@ -1,0 +1,168 @@
+//! Benchmark: EOO and AOO on a million generated records, timed against shapely + pyproj.
+//!
+//! Run with `cargo bench -p analysis --bench range`. If `$WRACKLINE_PYTHON` or
+//! `/tmp/venv-analysis/bin/python` exists (with pyproj, shapely and numpy), the same points
+//! are written to a temporary file and `range_reference.py` computes and times the same
+//! figures; the bench prints both, the speed ratio, and whether the answers agree within
+//! 0.1%. Timings are the best of three runs; generating and writing points is not timed.
+
+use std::path::PathBuf;
+use std::process::Command;
+use std::time::{Duration, Instant};
+
+use analysis::LatLon;
+use analysis::range::{AooGrid, aoo, eoo};
+
+const POINTS: usize = 1_000_000;
+const RUNS: usize = 3;
+
+fn main() {
+    let points = coastline_points(POINTS, 0x5eed_2024);
+    let grid = AooGrid::default();
+    let (eoo_km2, eoo_time) = best_of(|| eoo(&points).area_km2);
+    let (cells, aoo_time) = best_of(|| {
+        let result = aoo(&points, &grid).expect("benchmark points lie near the grid centre");
+        (result.occupied_cells, result.min_occupied_cells)
+    });
+    println!("wrackline analysis, {POINTS} points (best of {RUNS}):");
+    println!("  EOO {eoo_km2:.3} km² in {:.1} ms", ms(eoo_time));
+    println!(
+        "  AOO {} cells (min {} over 16 origins) in {:.1} ms",
+        cells.0,
+        cells.1,
+        ms(aoo_time)
+    );
+    println!("  total {:.1} ms", ms(eoo_time + aoo_time));
+    match reference_python() {
+        Some(python) => {
+            compare_with_python(&python, &points, &grid, eoo_km2, cells, eoo_time + aoo_time)
+        }
+        None => println!("no Python with pyproj/shapely found; set WRACKLINE_PYTHON to compare"),
+    }
+}
+
+/// Runs `f` [`RUNS`] times and returns its last result with the shortest time.
+fn best_of<T>(mut f: impl FnMut() -> T) -> (T, Duration) {
+    let mut best = Duration::MAX;
+    let mut result = None;
+    for _ in 0..RUNS {
+        let start = Instant::now();
+        result = Some(std::hint::black_box(f()));
+        best = best.min(start.elapsed());
+    }
+    (result.expect("at least one run"), best)
+}
+
+fn ms(d: Duration) -> f64 {
+    d.as_secs_f64() * 1000.0
+}
+
+/// Records scattered about a wiggly 500 km coastline, like strandings along a shore.
+fn coastline_points(n: usize, seed: u64) -> Vec<LatLon> {
+    let mut random = SplitMix64(seed);
+    (0..n)
+        .map(|_| {
+            let t = random.uniform();
+            let lon = -5.5 + 7.0 * t + 0.03 * random.normal();
+            let lat = 49.8 + 1.2 * (0.5 + 0.4 * (7.0 * t).sin()) + 0.03 * random.normal();
+            LatLon::new(lat, lon).expect("generated points are in range")
+        })
+        .collect()
+}
+
+/// A small seeded generator (Steele, Lea & Flood 2014), so the bench needs no dependency.
+struct SplitMix64(u64);
+
+impl SplitMix64 {
+    fn next(&mut self) -> u64 {
+        self.0 = self.0.wrapping_add(0x9e37_79b9_7f4a_7c15);
+        let mut z = self.0;
+        z = (z ^ (z >> 30)).wrapping_mul(0xbf58_476d_1ce4_e5b9);
+        z = (z ^ (z >> 27)).wrapping_mul(0x94d0_49bb_1331_11eb);
+        z ^ (z >> 31)
+    }
+
+    /// Uniform in [0, 1).
+    fn uniform(&mut self) -> f64 {
+        (self.next() >> 11) as f64 / (1u64 << 53) as f64
+    }
+
+    /// Standard normal by the Box–Muller transform.
+    fn normal(&mut self) -> f64 {
+        let u = 1.0 - self.uniform();
+        let v = self.uniform();
+        (-2.0 * u.ln()).sqrt() * (std::f64::consts::TAU * v).cos()
+    }
+}
+
+fn reference_python() -> Option<PathBuf> {
+    let candidate = std::env::var_os("WRACKLINE_PYTHON")
+        .map(PathBuf::from)
+        .unwrap_or_else(|| PathBuf::from("/tmp/venv-analysis/bin/python"));
+    candidate.exists().then_some(candidate)
+}
+
+fn compare_with_python(
+    python: &PathBuf,
+    points: &[LatLon],
+    grid: &AooGrid,
+    eoo_km2: f64,
+    cells: (usize, usize),
+    rust_time: Duration,
+) {
+    let file =
+        std::env::temp_dir().join(format!("wrackline-bench-points-{}.bin", std::process::id()));
+    let bytes: Vec<u8> = points
+        .iter()
+        .flat_map(|p| [p.lat(), p.lon()])
+        .flat_map(f64::to_le_bytes)
+        .collect();
+    std::fs::write(&file, bytes).expect("writing the points file");
+    let script = concat!(env!("CARGO_MANIFEST_DIR"), "/benches/range_reference.py");
+    let output = Command::new(python)
+        .arg(script)
+        .arg(&file)
+        .args(
+            [
+                grid.centre().lat(),
+                grid.centre().lon(),
+                grid.cell_size_km(),
+            ]
+            .map(|v| v.to_string()),
+        )
+        .output()
+        .expect("running the Python reference");
+    let _ = std::fs::remove_file(&file);
+    if !output.status.success() {
+        println!(
+            "Python reference failed: {}",
+            String::from_utf8_lossy(&output.stderr)
+        );
+        return;
+    }
+    let reference: serde_json::Value =
+        serde_json::from_slice(&output.stdout).expect("reference prints JSON");
+    let number = |key: &str| reference[key].as_f64().expect("numeric field");
+    let python_time = number("eoo_seconds") + number("aoo_seconds");
+    println!("shapely + pyproj ({}), same points:", reference["versions"]);
+    println!(
+        "  EOO {:.3} km² in {:.1} ms",
+        number("eoo_km2"),
+        number("eoo_seconds") * 1000.0
+    );
+    println!(
+        "  AOO {} cells (min {}) in {:.1} ms",
+        number("aoo_cells"),
+        number("aoo_min_cells"),
+        number("aoo_seconds") * 1000.0
+    );
+    println!("  total {:.1} ms", python_time * 1000.0);
+    let within = |ours: f64, theirs: f64| (ours - theirs).abs() <= 1e-3 * theirs.abs();
+    let agree = within(eoo_km2, number("eoo_km2"))
+        && within(cells.0 as f64, number("aoo_cells"))
+        && within(cells.1 as f64, number("aoo_min_cells"));
+    println!(
+        "speed-up {:.1}x; answers agree within 0.1%: {agree}",
+        python_time / rust_time.as_secs_f64()
+    );
+}

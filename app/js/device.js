@@ -1,0 +1,121 @@
+// Browser adapters for the app: the IndexedDB outbox, the position and storage
+// persistence. Kept in plain JavaScript because an IndexedDB transaction closes as
+// soon as its code awaits anything that is not IndexedDB, which a record and its
+// photos must be saved inside. All decisions stay in Rust; this file only stores,
+// fetches and reports.
+
+const DB_NAME = 'wrackline';
+const DB_VERSION = 1;
+
+function request(req) {
+  return new Promise((resolve, reject) => {
+    req.onsuccess = () => resolve(req.result);
+    req.onerror = () => reject(req.error);
+  });
+}
+
+function done(tx) {
+  return new Promise((resolve, reject) => {
+    tx.oncomplete = () => resolve();
+    tx.onerror = () => reject(tx.error);
+    tx.onabort = () => reject(tx.error || new Error('storage transaction aborted'));
+  });
+}
+
+let opened = null;
+function db() {
+  if (!opened) {
+    if (!self.indexedDB) {
+      return Promise.reject(new Error('this browser offers no offline storage (IndexedDB)'));
+    }
+    const req = indexedDB.open(DB_NAME, DB_VERSION);
+    req.onupgradeneeded = () => {
+      const d = req.result;
+      // One row per record: {id, json}; one row per photo: {record_id, position, blob}.
+      d.createObjectStore('entries', { keyPath: 'id' });
+      const photos = d.createObjectStore('photos', { keyPath: ['record_id', 'position'] });
+      photos.createIndex('by_record', 'record_id');
+    };
+    opened = request(req);
+  }
+  return opened;
+}
+
+// Saves an entry and, when `files` is given, replaces its photos, in one transaction.
+export async function saveEntry(id, json, files) {
+  const d = await db();
+  const tx = d.transaction(['entries', 'photos'], 'readwrite');
+  tx.objectStore('entries').put({ id, json });
+  if (files) {
+    const photos = tx.objectStore('photos');
+    photos.delete(IDBKeyRange.bound([id, 0], [id, Number.MAX_SAFE_INTEGER]));
+    files.forEach((blob, position) => photos.put({ record_id: id, position, blob }));
+  }
+  await done(tx);
+}
+
+// Every entry's JSON text.
+export async function listEntries() {
+  const d = await db();
+  const rows = await request(d.transaction('entries').objectStore('entries').getAll());
+  return rows.map((row) => row.json);
+}
+
+// The photos of one record, in order, as Blobs.
+export async function photosOf(id) {
+  const d = await db();
+  const rows = await request(d.transaction('photos').objectStore('photos').index('by_record').getAll(id));
+  rows.sort((a, b) => a.position - b.position);
+  return rows.map((row) => row.blob);
+}
+
+// Removes a draft and its photos.
+export async function deleteEntry(id) {
+  const d = await db();
+  const tx = d.transaction(['entries', 'photos'], 'readwrite');
+  tx.objectStore('entries').delete(id);
+  tx.objectStore('photos').delete(IDBKeyRange.bound([id, 0], [id, Number.MAX_SAFE_INTEGER]));
+  await done(tx);
+}
+
+// Asks the browser not to evict the outbox under storage pressure.
+export async function requestPersistence() {
+  if (navigator.storage && navigator.storage.persist) {
+    return await navigator.storage.persist();
+  }
+  return false;
+}
+
+// {usage, quota} in bytes, or null when the browser does not say.
+export async function storageEstimate() {
+  if (navigator.storage && navigator.storage.estimate) {
+    const { usage, quota } = await navigator.storage.estimate();
+    return { usage: usage || 0, quota: quota || 0 };
+  }
+  return null;
+}
+
+// The device's position: {latitude, longitude, accuracy} (accuracy in metres).
+export function currentPosition() {
+  return new Promise((resolve, reject) => {
+    if (!navigator.geolocation) {
+      reject(new Error('this device offers no position'));
+      return;
+    }
+    navigator.geolocation.getCurrentPosition(
+      (p) => resolve({ latitude: p.coords.latitude, longitude: p.coords.longitude, accuracy: p.coords.accuracy }),
+      (err) => reject(new Error(err.message || 'position unavailable')),
+      { enableHighAccuracy: true, timeout: 20000, maximumAge: 60000 },
+    );
+  });
+}
+
+// Sends one record with its photos; resolves to {status, body} whatever the status,
+// and rejects only when no answer came (no network, connection lost).
+export async function sendRecord(url, json, blobs) {
+  const form = new FormData();
+  form.append('record', json);
+  blobs.forEach((blob, i) => form.append('photo', blob, `photo-${i + 1}.jpg`));
+  const response = await fetch(url, { method: 'POST', body: form });
+  return { status: response.status, body: await response.text() };
+}

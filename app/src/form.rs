@@ -1,0 +1,396 @@
+//! The record form: photos, time, position, what and how big, condition and setting.
+//! Its fields are plain text while typed; [`FormFields::to_submission`] turns them
+//! into a checked [`Submission`] with the same checks the server runs, or into a
+//! list of problems to show.
+
+use chrono::{FixedOffset, NaiveDateTime, TimeZone};
+use leptos::prelude::*;
+use shared_types::{
+    AccuracyM, Condition, Count, HumanSign, Latitude, Length, LengthKind, LengthUnit, LengthValue, Longitude,
+    MeasureMethod, Position, PositionSource, Setting, Sex, Submission, Text,
+};
+use uuid::Uuid;
+use wasm_bindgen::JsCast;
+
+use crate::device;
+use crate::outbox::{self, Entry, SyncState};
+use crate::sync::{self, SyncStatus};
+
+/// The serde code of a plain enum, used as an `<option>` value.
+pub fn code<T: serde::Serialize>(value: &T) -> String {
+    serde_json::to_value(value).ok().and_then(|v| v.as_str().map(str::to_owned)).unwrap_or_default()
+}
+
+fn from_code<T: serde::de::DeserializeOwned>(code: &str) -> Option<T> {
+    serde_json::from_value(serde_json::Value::String(code.to_owned())).ok()
+}
+
+/// What the observer has typed so far, as text.
+#[derive(Debug, Clone, Default)]
+pub struct FormFields {
+    pub when: String,
+    pub latitude: String,
+    pub longitude: String,
+    pub accuracy_m: String,
+    pub position_source: Option<PositionSource>,
+    pub species_guess: String,
+    pub length_value: String,
+    pub length_kind: Option<LengthKind>,
+    pub length_unit: Option<LengthUnit>,
+    pub length_method: Option<MeasureMethod>,
+    pub sex: Option<Sex>,
+    pub count: String,
+    pub condition: Option<Condition>,
+    pub setting: Option<Setting>,
+    pub human_signs: Vec<HumanSign>,
+    pub notes: String,
+    pub observer_name: String,
+}
+
+fn optional_text(label: &str, text: &str, problems: &mut Vec<String>) -> Option<Text> {
+    match Text::parse(text) {
+        Ok(t) if t.as_str().is_empty() => None,
+        Ok(t) => Some(t),
+        Err(err) => {
+            problems.push(format!("{label}: {err}"));
+            None
+        }
+    }
+}
+
+/// The browser's UTC offset at a given local time (daylight saving differs by date).
+fn offset_at(local: &NaiveDateTime) -> FixedOffset {
+    let text = local.format("%Y-%m-%dT%H:%M:%S").to_string();
+    let minutes_behind = js_sys::Date::new(&text.into()).get_timezone_offset();
+    FixedOffset::west_opt((minutes_behind * 60.0) as i32).unwrap_or(FixedOffset::east_opt(0).expect("zero offset"))
+}
+
+impl FormFields {
+    /// A fresh form: now, one animal, nothing else assumed.
+    pub fn fresh(observer_name: String) -> Self {
+        Self { when: local_now_for_input(), count: "1".into(), observer_name, ..Self::default() }
+    }
+
+    /// Checks everything and builds the submission, or lists every problem at once.
+    pub fn to_submission(&self, client_id: Uuid) -> Result<Submission, Vec<String>> {
+        let mut problems = Vec::new();
+        let observed_at = NaiveDateTime::parse_from_str(&self.when, "%Y-%m-%dT%H:%M")
+            .ok()
+            .and_then(|local| offset_at(&local).from_local_datetime(&local).single());
+        if observed_at.is_none() {
+            problems.push("date and time: choose when the animal was seen".into());
+        }
+        let position = self.position(&mut problems);
+        let length = self.length(&mut problems);
+        let count = self.count.trim().parse::<u32>().map_err(|_| "count: a whole number".to_string()).and_then(|n| Count::parse(n).map_err(|e| format!("count: {e}")));
+        let count = count.map_err(|p| problems.push(p)).ok();
+        let condition = self.condition.or_else(|| {
+            problems.push("condition: choose how the animal was found".into());
+            None
+        });
+        let setting = self.setting.or_else(|| {
+            problems.push("where: choose how it came to be seen".into());
+            None
+        });
+        let species_guess = optional_text("species", &self.species_guess, &mut problems);
+        let notes = optional_text("notes", &self.notes, &mut problems);
+        let observer_name = optional_text("your name", &self.observer_name, &mut problems);
+        if !problems.is_empty() {
+            return Err(problems);
+        }
+        Ok(Submission {
+            client_id,
+            observed_at: observed_at.expect("checked above"),
+            position,
+            species_guess,
+            length,
+            sex: self.sex.unwrap_or(Sex::Unknown),
+            count: count.expect("checked above"),
+            condition: condition.expect("checked above"),
+            setting: setting.expect("checked above"),
+            human_signs: self.human_signs.clone(),
+            notes,
+            observer_name,
+        })
+    }
+
+    fn position(&self, problems: &mut Vec<String>) -> Option<Position> {
+        if self.latitude.trim().is_empty() && self.longitude.trim().is_empty() {
+            return None;
+        }
+        let number = |label: &str, text: &str, problems: &mut Vec<String>| match text.trim().parse::<f64>() {
+            Ok(n) => Some(n),
+            Err(_) => {
+                problems.push(format!("{label}: a number in decimal degrees, e.g. 52.4153"));
+                None
+            }
+        };
+        let latitude = number("latitude", &self.latitude, problems).and_then(|n| Latitude::parse(n).map_err(|e| problems.push(e.to_string())).ok());
+        let longitude = number("longitude", &self.longitude, problems).and_then(|n| Longitude::parse(n).map_err(|e| problems.push(e.to_string())).ok());
+        let accuracy_m = match self.accuracy_m.trim() {
+            "" => None,
+            text => text.parse::<f64>().ok().and_then(|n| AccuracyM::parse(n).ok()).or_else(|| {
+                problems.push("accuracy: a positive number of metres".into());
+                None
+            }),
+        };
+        Some(Position {
+            latitude: latitude?,
+            longitude: longitude?,
+            accuracy_m,
+            source: self.position_source.unwrap_or(PositionSource::Typed),
+        })
+    }
+
+    fn length(&self, problems: &mut Vec<String>) -> Option<Length> {
+        let text = self.length_value.trim().replace(',', ".");
+        if text.is_empty() {
+            return None;
+        }
+        let unit = self.length_unit.unwrap_or(LengthUnit::Cm);
+        let value = match text.parse::<f64>().map_err(|_| "a number".to_string()).and_then(|v| LengthValue::parse(v, unit).map_err(|e| e.to_string())) {
+            Ok(value) => value,
+            Err(err) => {
+                problems.push(format!("length: {err}"));
+                return None;
+            }
+        };
+        Some(Length {
+            kind: self.length_kind.unwrap_or(LengthKind::Total),
+            value,
+            method: self.length_method.unwrap_or(MeasureMethod::Measured),
+        })
+    }
+}
+
+/// Now, as a `datetime-local` input wants it.
+fn local_now_for_input() -> String {
+    let now = js_sys::Date::new_0();
+    format!(
+        "{:04}-{:02}-{:02}T{:02}:{:02}",
+        now.get_full_year(),
+        now.get_month() + 1,
+        now.get_date(),
+        now.get_hours(),
+        now.get_minutes()
+    )
+}
+
+/// "UTC+01:00" for the offset the form will use.
+fn offset_label(when: &str) -> String {
+    NaiveDateTime::parse_from_str(when, "%Y-%m-%dT%H:%M")
+        .map(|local| format!("UTC{}", offset_at(&local)))
+        .unwrap_or_default()
+}
+
+const OBSERVER_NAME_KEY: &str = "wrackline.observer-name";
+
+fn remembered_name() -> String {
+    web_sys::window()
+        .and_then(|w| w.local_storage().ok().flatten())
+        .and_then(|s| s.get_item(OBSERVER_NAME_KEY).ok().flatten())
+        .unwrap_or_default()
+}
+
+fn remember_name(name: &str) {
+    if let Some(storage) = web_sys::window().and_then(|w| w.local_storage().ok().flatten()) {
+        let _ = storage.set_item(OBSERVER_NAME_KEY, name);
+    }
+}
+
+/// Fills the position from the device, telling the observer how it went.
+fn locate(fields: RwSignal<FormFields>, note: RwSignal<String>) {
+    note.set("finding your position…".into());
+    leptos::task::spawn_local(async move {
+        match device::current_position().await {
+            Ok(fix) => {
+                fields.update(|f| {
+                    f.latitude = format!("{:.6}", fix.latitude);
+                    f.longitude = format!("{:.6}", fix.longitude);
+                    f.accuracy_m = format!("{:.0}", fix.accuracy.max(1.0));
+                    f.position_source = Some(PositionSource::Device);
+                });
+                note.set(format!("from this device, ±{:.0} m", fix.accuracy));
+            }
+            Err(err) => note.set(format!("no position from the device ({err}); type it, or try again")),
+        }
+    });
+}
+
+/// The form. Saving puts the record (and its photos) in the outbox first; sending
+/// happens afterwards, whatever the signal.
+#[component]
+pub fn RecordForm(entries: RwSignal<Vec<Entry>>, status: RwSignal<SyncStatus>) -> impl IntoView {
+    let fields = RwSignal::new(FormFields::fresh(remembered_name()));
+    let photos = RwSignal::new_local(Vec::<web_sys::File>::new());
+    let client_id = RwSignal::new(Uuid::new_v4());
+    let problems = RwSignal::new(Vec::<String>::new());
+    let position_note = RwSignal::new(String::new());
+    let saved_note = RwSignal::new(String::new());
+    locate(fields, position_note);
+
+    let save = move |state: SyncState| {
+        let submission = match fields.with(|f| f.to_submission(client_id.get())) {
+            Ok(s) => s,
+            Err(list) => {
+                problems.set(list);
+                return;
+            }
+        };
+        problems.set(Vec::new());
+        let files = photos.get();
+        leptos::task::spawn_local(async move {
+            let blobs: Vec<web_sys::Blob> = files.iter().map(|f| f.clone().unchecked_into()).collect();
+            let new_bytes: f64 = blobs.iter().map(|b| b.size()).sum();
+            if let Some(estimate) = device::storage_estimate().await {
+                if estimate.quota > 0.0 && estimate.usage + new_bytes > 0.9 * estimate.quota {
+                    saved_note.set(format!(
+                        "Warning: this phone's storage for wrackline is nearly full ({:.0} of {:.0} MB). Send waiting records soon.",
+                        estimate.usage / 1e6,
+                        estimate.quota / 1e6
+                    ));
+                }
+            }
+            let waiting = state == SyncState::Waiting;
+            let entry = Entry { submission, sync: state, photo_count: blobs.len(), last_error: None };
+            match outbox::save(&entry, Some(&blobs)).await {
+                Ok(()) => {
+                    remember_name(&fields.with_untracked(|f| f.observer_name.clone()));
+                    saved_note.set(if waiting { "Saved on this phone; it will be sent when there is a connection.".into() } else { "Saved as a draft on this phone.".into() });
+                    fields.set(FormFields::fresh(remembered_name()));
+                    photos.set(Vec::new());
+                    client_id.set(Uuid::new_v4());
+                    locate(fields, position_note);
+                    sync::refresh(entries).await;
+                    if waiting {
+                        sync::request(entries, status);
+                    }
+                }
+                // Nothing is cleared: the observer can free space and save again.
+                Err(err) => saved_note.set(format!("Could not save on this phone: {err}. Your form is kept as it is.")),
+            }
+        });
+    };
+
+    let add_photos = move |ev: leptos::ev::Event| {
+        let input: web_sys::HtmlInputElement = event_target(&ev);
+        if let Some(list) = input.files() {
+            let added: Vec<web_sys::File> = (0..list.length()).filter_map(|i| list.item(i)).collect();
+            photos.update(|p| p.extend(added));
+        }
+        input.set_value("");
+    };
+
+    view! {
+        <form class="record-form" on:submit=move |ev| { ev.prevent_default(); save(SyncState::Waiting); }>
+            <h2>"New record"</h2>
+            <fieldset>
+                <legend>"Photos"</legend>
+                <label class="button photo-button">
+                    "Add photo"
+                    <input id="photo-input" type="file" accept="image/*" capture="environment" multiple on:change=add_photos />
+                </label>
+                <ul class="thumbs">
+                    {move || photos.get().into_iter().enumerate().map(|(index, file)| {
+                        let url = web_sys::Url::create_object_url_with_blob(&file).unwrap_or_default();
+                        view! {
+                            <li>
+                                <img src=url alt=format!("photo {}", index + 1) />
+                                <button type="button" class="small" on:click=move |_| photos.update(|p| { if index < p.len() { p.remove(index); } })>"remove"</button>
+                            </li>
+                        }
+                    }).collect_view()}
+                </ul>
+                <p class="hint">{move || format!("{} photo(s)", photos.with(|p| p.len()))}</p>
+            </fieldset>
+
+            <fieldset>
+                <legend>"When"</legend>
+                <input id="when" type="datetime-local" prop:value=move || fields.with(|f| f.when.clone())
+                    on:input=move |ev| fields.update(|f| f.when = event_target_value(&ev)) />
+                <span class="hint">{move || fields.with(|f| offset_label(&f.when))}</span>
+            </fieldset>
+
+            <fieldset>
+                <legend>"Where"</legend>
+                <div class="row">
+                    <label>"Latitude" <input id="latitude" inputmode="decimal" prop:value=move || fields.with(|f| f.latitude.clone())
+                        on:input=move |ev| fields.update(|f| { f.latitude = event_target_value(&ev); f.position_source = Some(PositionSource::Typed); }) /></label>
+                    <label>"Longitude" <input id="longitude" inputmode="decimal" prop:value=move || fields.with(|f| f.longitude.clone())
+                        on:input=move |ev| fields.update(|f| { f.longitude = event_target_value(&ev); f.position_source = Some(PositionSource::Typed); }) /></label>
+                    <label>"± metres" <input id="accuracy" inputmode="decimal" prop:value=move || fields.with(|f| f.accuracy_m.clone())
+                        on:input=move |ev| fields.update(|f| f.accuracy_m = event_target_value(&ev)) /></label>
+                </div>
+                <button type="button" class="small" on:click=move |_| locate(fields, position_note)>"Use my position"</button>
+                <span id="position-note" class="hint">{move || position_note.get()}</span>
+            </fieldset>
+
+            <fieldset>
+                <legend>"What"</legend>
+                <label>"Species (your best guess)"
+                    <input id="species" placeholder="e.g. small-spotted catshark" prop:value=move || fields.with(|f| f.species_guess.clone())
+                        on:input=move |ev| fields.update(|f| f.species_guess = event_target_value(&ev)) /></label>
+                <div class="row">
+                    <label>"Length" <input id="length" inputmode="decimal" prop:value=move || fields.with(|f| f.length_value.clone())
+                        on:input=move |ev| fields.update(|f| f.length_value = event_target_value(&ev)) /></label>
+                    <label>"Unit" <select id="length-unit" prop:value=move || fields.with(|f| code(&f.length_unit.unwrap_or(LengthUnit::Cm))) on:change=move |ev| fields.update(|f| f.length_unit = from_code(&event_target_value(&ev)))>
+                        {LengthUnit::ALL.into_iter().map(|u| view! { <option value=code(&u)>{u.code()}</option> }).collect_view()}
+                    </select></label>
+                </div>
+                <div class="row">
+                    <label>"Which length" <select id="length-kind" prop:value=move || fields.with(|f| code(&f.length_kind.unwrap_or(LengthKind::Total))) on:change=move |ev| fields.update(|f| f.length_kind = from_code(&event_target_value(&ev)))>
+                        {LengthKind::ALL.into_iter().map(|k| view! { <option value=code(&k)>{k.label()}</option> }).collect_view()}
+                    </select></label>
+                    <label>"How" <select id="length-method" prop:value=move || fields.with(|f| code(&f.length_method.unwrap_or(MeasureMethod::Measured))) on:change=move |ev| fields.update(|f| f.length_method = from_code(&event_target_value(&ev)))>
+                        <option value="measured">"measured"</option>
+                        <option value="estimated">"estimated"</option>
+                    </select></label>
+                </div>
+                <div class="row">
+                    <label>"Sex" <select id="sex" prop:value=move || fields.with(|f| code(&f.sex.unwrap_or(Sex::Unknown))) on:change=move |ev| fields.update(|f| f.sex = from_code(&event_target_value(&ev)))>
+                        <option value="unknown">"not known"</option>
+                        <option value="male">"male (claspers seen)"</option>
+                        <option value="female">"female (no claspers)"</option>
+                    </select></label>
+                    <label>"How many" <input id="count" type="number" min="1" prop:value=move || fields.with(|f| f.count.clone())
+                        on:input=move |ev| fields.update(|f| f.count = event_target_value(&ev)) /></label>
+                </div>
+            </fieldset>
+
+            <fieldset>
+                <legend>"State and setting"</legend>
+                <label>"Condition" <select id="condition" prop:value=move || fields.with(|f| f.condition.map(|c| code(&c)).unwrap_or_default()) on:change=move |ev| fields.update(|f| f.condition = from_code(&event_target_value(&ev)))>
+                    <option value="">"choose…"</option>
+                    {Condition::ALL.into_iter().map(|c| view! { <option value=code(&c)>{c.label()}</option> }).collect_view()}
+                </select></label>
+                <label>"How it was seen" <select id="setting" prop:value=move || fields.with(|f| f.setting.map(|s| code(&s)).unwrap_or_default()) on:change=move |ev| fields.update(|f| f.setting = from_code(&event_target_value(&ev)))>
+                    <option value="">"choose…"</option>
+                    {Setting::ALL.into_iter().map(|s| view! { <option value=code(&s)>{s.label()}</option> }).collect_view()}
+                </select></label>
+                <div class="checks">
+                    <span>"Signs of fishing or people:"</span>
+                    {HumanSign::ALL.into_iter().map(|sign| view! {
+                        <label class="check"><input type="checkbox" prop:checked=move || fields.with(|f| f.human_signs.contains(&sign))
+                            on:change=move |ev| {
+                                let on = event_target_checked(&ev);
+                                fields.update(|f| { f.human_signs.retain(|s| *s != sign); if on { f.human_signs.push(sign); } });
+                            } />{sign.label()}</label>
+                    }).collect_view()}
+                </div>
+                <label>"Notes" <textarea id="notes" rows="3" prop:value=move || fields.with(|f| f.notes.clone())
+                    on:input=move |ev| fields.update(|f| f.notes = event_target_value(&ev))></textarea></label>
+                <label>"Your name (shown with your records)" <input id="observer-name" prop:value=move || fields.with(|f| f.observer_name.clone())
+                    on:input=move |ev| fields.update(|f| f.observer_name = event_target_value(&ev)) /></label>
+            </fieldset>
+
+            <ul class="problems" role="alert">
+                {move || problems.get().into_iter().map(|p| view! { <li>{p}</li> }).collect_view()}
+            </ul>
+            <div class="actions">
+                <button id="save-send" type="submit" class="primary">"Save and send"</button>
+                <button id="save-draft" type="button" on:click=move |_| save(SyncState::Draft)>"Keep as draft"</button>
+            </div>
+            <p id="saved-note" class="hint" role="status">{move || saved_note.get()}</p>
+        </form>
+    }
+}

@@ -1,0 +1,25 @@
+//! wrackline's phone app: capture a record with no signal, keep it in an outbox that
+//! survives closing the browser, and send it when a connection appears.
+//!
+//! Modules: [`device`] (browser storage, position, upload, via `js/device.js`),
+//! [`outbox`] (what the phone keeps and each record's sync state), [`sync`] (sending,
+//! retries with backoff), [`form`] (the record form), [`screens`] (the page around it).
+//! The app never decides what the server decides: it shows the server's receipts.
+
+mod device;
+mod form;
+mod outbox;
+mod screens;
+mod sync;
+
+fn main() {
+    console_error_panic_hook_lite();
+    leptos::mount::mount_to_body(screens::App);
+}
+
+/// Sends Rust panics to the browser console, so a failure is visible in a test log.
+fn console_error_panic_hook_lite() {
+    std::panic::set_hook(Box::new(|info| {
+        web_sys::console::error_1(&format!("wrackline panicked: {info}").into());
+    }));
+}

@@ -1,0 +1,176 @@
+//! The page: safety cautions before the first record, the connection and sync status,
+//! the record form, and the records kept on this phone.
+
+use leptos::prelude::*;
+use wasm_bindgen::JsCast;
+use wasm_bindgen::closure::Closure;
+
+use crate::device;
+use crate::form::RecordForm;
+use crate::outbox::{self, Entry, SyncState};
+use crate::sync::{self, SyncStatus};
+
+const SAFETY_KEY: &str = "wrackline.safety-read";
+
+fn local_flag(key: &str) -> bool {
+    web_sys::window()
+        .and_then(|w| w.local_storage().ok().flatten())
+        .and_then(|s| s.get_item(key).ok().flatten())
+        .is_some()
+}
+
+fn set_local_flag(key: &str) {
+    if let Some(storage) = web_sys::window().and_then(|w| w.local_storage().ok().flatten()) {
+        let _ = storage.set_item(key, "yes");
+    }
+}
+
+fn online_now() -> bool {
+    web_sys::window().map(|w| w.navigator().on_line()).unwrap_or(true)
+}
+
+/// Calls `act` whenever the browser says the connection came back or went away.
+fn on_connection_change(act: impl Fn(bool) + 'static) {
+    let Some(window) = web_sys::window() else { return };
+    let act = std::rc::Rc::new(act);
+    for (event, online) in [("online", true), ("offline", false)] {
+        let act = act.clone();
+        let closure = Closure::<dyn Fn()>::new(move || act(online));
+        let _ = window.add_event_listener_with_callback(event, closure.as_ref().unchecked_ref());
+        // The listener lives as long as the page.
+        closure.forget();
+    }
+}
+
+#[component]
+pub fn App() -> impl IntoView {
+    let safety_read = RwSignal::new(local_flag(SAFETY_KEY));
+    let entries = RwSignal::new(Vec::<Entry>::new());
+    let status = RwSignal::new(SyncStatus::default());
+    let online = RwSignal::new(online_now());
+    let storage_problem = RwSignal::new(None::<String>);
+
+    leptos::task::spawn_local(async move {
+        device::request_persistence().await;
+        match outbox::load_all().await {
+            Ok(list) => entries.set(list),
+            Err(err) => storage_problem.set(Some(err)),
+        }
+        if online_now() {
+            sync::request(entries, status);
+        }
+    });
+    on_connection_change(move |is_online| {
+        online.set(is_online);
+        if is_online {
+            sync::request(entries, status);
+        }
+    });
+
+    view! {
+        <header class="top">
+            <h1>"wrackline"</h1>
+            <span id="connection" class=move || if online.get() { "pill online" } else { "pill offline" }>
+                {move || if online.get() { "online" } else { "offline: records wait on this phone" }}
+            </span>
+        </header>
+        <main>
+            {move || storage_problem.get().map(|p| view! {
+                <p class="problems" role="alert">{format!("Offline storage is not working: {p}. Records cannot be kept on this phone.")}</p>
+            })}
+            <Show when=move || safety_read.get() fallback=move || view! { <SafetyCautions on_read=move || { set_local_flag(SAFETY_KEY); safety_read.set(true); } /> }>
+                <RecordForm entries=entries status=status />
+                <Outbox entries=entries status=status />
+                <details class="safety-again"><summary>"Safety reminders"</summary><SafetyText /></details>
+            </Show>
+        </main>
+    }
+}
+
+/// The cautions, in our own words; they defer to local rules and responders.
+#[component]
+fn SafetyText() -> impl IntoView {
+    view! {
+        <ul class="safety">
+            <li>"Keep back from any live animal and keep dogs away. A shark that looks dead can still bite."</li>
+            <li>"Stingray tail spines are venomous, even on a dead animal. If stung: put the wound in water as hot as you can bear (about 45 °C) for at least 30 minutes, and get medical help."</li>
+            <li>"Do not drag or push a live stranded animal back to sea unless you are trained. Call the local stranding responders or the coastguard."</li>
+            <li>"Watch the tide, the waves and your footing. No record is worth being cut off."</li>
+            <li>"Do not eat a stranded animal or take parts of it: it may be unsafe, and for protected species it may be illegal. Wash your hands after touching anything."</li>
+            <li>"Local rules and the directions of responders and authorities come first."</li>
+        </ul>
+    }
+}
+
+#[component]
+fn SafetyCautions(on_read: impl Fn() + 'static) -> impl IntoView {
+    view! {
+        <section class="card safety-card">
+            <h2>"Before your first record"</h2>
+            <SafetyText />
+            <button id="safety-ok" class="primary" on:click=move |_| on_read()>"I have read this"</button>
+        </section>
+    }
+}
+
+fn entry_summary(entry: &Entry) -> String {
+    let sub = &entry.submission;
+    let what = sub.species_guess.as_ref().map(|g| g.as_str().to_owned()).filter(|g| !g.is_empty()).unwrap_or_else(|| "unnamed animal".into());
+    let length = sub.length.map(|l| format!(", {:.0} cm {}", l.value.centimetres(), l.kind.label())).unwrap_or_default();
+    format!("{what}{length} · {} · {} photo(s)", sub.observed_at.format("%Y-%m-%d %H:%M"), entry.photo_count)
+}
+
+#[component]
+fn Outbox(entries: RwSignal<Vec<Entry>>, status: RwSignal<SyncStatus>) -> impl IntoView {
+    let queue = move |entry: Entry| {
+        leptos::task::spawn_local(async move {
+            let mut entry = entry;
+            entry.sync = SyncState::Waiting;
+            if outbox::save(&entry, None).await.is_ok() {
+                sync::refresh(entries).await;
+                sync::request(entries, status);
+            }
+        });
+    };
+    let discard = move |id: String| {
+        leptos::task::spawn_local(async move {
+            if device::delete_entry(&id).await.is_ok() {
+                sync::refresh(entries).await;
+            }
+        });
+    };
+    view! {
+        <section class="card outbox">
+            <div class="row spread">
+                <h2>"On this phone"</h2>
+                <button id="send-now" type="button" on:click=move |_| sync::request(entries, status)>"Send now"</button>
+            </div>
+            <p id="sync-status" class="hint">{move || status.with(|s| match (&s.running, &s.next_retry, &s.last_problem) {
+                (true, _, _) => "sending…".to_owned(),
+                (false, Some(delay), Some(problem)) => format!("{problem}; trying again in {} s", delay.as_secs()),
+                _ => String::new(),
+            })}</p>
+            <ul id="outbox-list">
+                {move || entries.get().into_iter().map(|entry| {
+                    let summary = entry_summary(&entry);
+                    let state = entry.sync.clone();
+                    let id = entry.id();
+                    let is_draft = state == SyncState::Draft;
+                    let draft_entry = entry.clone();
+                    let draft_id = id.clone();
+                    view! {
+                        <li class="outbox-entry" data-client-id=id.clone()>
+                            <span class="summary">{summary}</span>
+                            <span class=state.css_class()>{state.label()}</span>
+                            {entry.last_error.clone().filter(|_| state.wants_sending()).map(|e| view! { <span class="hint">{e}</span> })}
+                            <Show when=move || is_draft>
+                                <button type="button" class="small" on:click={let e = draft_entry.clone(); move |_| queue(e.clone())}>"Send"</button>
+                                <button type="button" class="small" on:click={let id = draft_id.clone(); move |_| discard(id.clone())}>"Discard"</button>
+                            </Show>
+                        </li>
+                    }
+                }).collect_view()}
+            </ul>
+        </section>
+    }
+}

@@ -1,0 +1,56 @@
+//! The demo records: an invented recording network on the Cardigan Bay coast, built
+//! into the binary so `wrackline demo` works from any folder. They go through the same
+//! intake as a phone's submissions. See `demo-records/README.md`.
+
+use chrono::Utc;
+use serde::Deserialize;
+
+use crate::AppState;
+use crate::intake::{self, Upload};
+use crate::store::observations;
+
+const RECORDS_JSON: &str = include_str!("../../demo-records/records.json");
+
+/// The demo photos, by the file names `records.json` uses.
+const PHOTOS: &[(&str, &[u8])] = &[
+    ("catshark.jpg", include_bytes!("../../demo-records/photos/catshark.jpg")),
+    ("ray.jpg", include_bytes!("../../demo-records/photos/ray.jpg")),
+    ("spurdog.jpg", include_bytes!("../../demo-records/photos/spurdog.jpg")),
+    ("tope.jpg", include_bytes!("../../demo-records/photos/tope.jpg")),
+    ("stingray.jpg", include_bytes!("../../demo-records/photos/stingray.jpg")),
+];
+
+#[derive(Deserialize)]
+struct DemoRecord {
+    submission: serde_json::Value,
+    #[serde(default)]
+    photos: Vec<String>,
+}
+
+/// Loads every demo record if the database holds no observations; returns how many.
+pub async fn load_if_empty(state: &AppState) -> anyhow::Result<usize> {
+    if state.store.run(|conn| observations::count_observations(conn)).await? > 0 {
+        return Ok(0);
+    }
+    let records: Vec<DemoRecord> = serde_json::from_str(RECORDS_JSON)?;
+    for (index, record) in records.iter().enumerate() {
+        let photos = record
+            .photos
+            .iter()
+            .map(|name| photo_bytes(name).map(<[u8]>::to_vec))
+            .collect::<anyhow::Result<Vec<_>>>()?;
+        let upload = Upload { record_json: serde_json::to_vec(&record.submission)?, photos };
+        intake::accept(state, upload, Utc::now())
+            .await
+            .map_err(|err| anyhow::anyhow!("demo record {}: {err}", index + 1))?;
+    }
+    Ok(records.len())
+}
+
+fn photo_bytes(name: &str) -> anyhow::Result<&'static [u8]> {
+    PHOTOS
+        .iter()
+        .find(|(file, _)| *file == name)
+        .map(|(_, bytes)| *bytes)
+        .ok_or_else(|| anyhow::anyhow!("demo photo {name} is not built in"))
+}

@@ -1,0 +1,82 @@
+//! Observations: submit one (multipart: a `record` JSON part and `photo` parts), list
+//! them, fetch one by the phone's id.
+
+use axum::Json;
+use axum::extract::{Multipart, Path, State};
+use chrono::Utc;
+use shared_types::{Receipt, RecordView};
+use uuid::Uuid;
+
+use crate::AppState;
+use crate::error::ApiError;
+use crate::intake::{self, IntakeError, Upload};
+use crate::store::observations;
+
+/// `POST /api/observations`. Answers 200 with a receipt only once the record and its
+/// photos are durably stored; a resend of the same record gets the same receipt.
+pub async fn submit(State(state): State<AppState>, multipart: Multipart) -> Result<Json<Receipt>, ApiError> {
+    let upload = read_upload(multipart).await?;
+    let accepted = intake::accept(&state, upload, Utc::now()).await.map_err(intake_error)?;
+    if accepted.replayed {
+        tracing::info!(client_id = %accepted.receipt.client_id, "resend of a stored record");
+    }
+    Ok(Json(accepted.receipt))
+}
+
+async fn read_upload(mut multipart: Multipart) -> Result<Upload, ApiError> {
+    let mut upload = Upload::default();
+    let mut saw_record = false;
+    while let Some(field) = multipart.next_field().await.map_err(multipart_error)? {
+        let name = field.name().unwrap_or_default().to_owned();
+        let bytes = field.bytes().await.map_err(multipart_error)?;
+        match name.as_str() {
+            "record" => {
+                upload.record_json = bytes.to_vec();
+                saw_record = true;
+            }
+            "photo" => upload.photos.push(bytes.to_vec()),
+            other => return Err(ApiError::BadRequest(format!("unexpected form part `{other}`; send `record` and `photo` parts"))),
+        }
+    }
+    if !saw_record {
+        return Err(ApiError::BadRequest("the form has no `record` part with the record's JSON".into()));
+    }
+    Ok(upload)
+}
+
+fn multipart_error(err: axum::extract::multipart::MultipartError) -> ApiError {
+    let status = err.status();
+    if status == axum::http::StatusCode::PAYLOAD_TOO_LARGE {
+        ApiError::TooLarge(format!("the upload is too large: {}", err.body_text()))
+    } else {
+        ApiError::BadRequest(format!("the upload could not be read: {}", err.body_text()))
+    }
+}
+
+fn intake_error(err: IntakeError) -> ApiError {
+    match err {
+        IntakeError::NotJson(_) => ApiError::BadRequest(err.to_string()),
+        IntakeError::Field { field, message } => ApiError::InvalidField { field, message },
+        IntakeError::Photo { .. } => ApiError::UnsupportedMedia(err.to_string()),
+        IntakeError::TooManyPhotos(_) => ApiError::TooLarge(err.to_string()),
+        IntakeError::Conflict(_) => ApiError::Conflict(err.to_string()),
+        IntakeError::Storage(inner) => ApiError::Internal(inner),
+    }
+}
+
+/// `GET /api/observations`: every stored record.
+pub async fn list(State(state): State<AppState>) -> Result<Json<Vec<RecordView>>, ApiError> {
+    Ok(Json(state.store.run(|conn| observations::list_records(conn)).await?))
+}
+
+/// `GET /api/observations/{client_id}`.
+pub async fn get(State(state): State<AppState>, Path(client_id): Path<String>) -> Result<Json<RecordView>, ApiError> {
+    let client_id = Uuid::parse_str(&client_id)
+        .map_err(|_| ApiError::BadRequest(format!("`{client_id}` is not a record id (a UUID)")))?;
+    state
+        .store
+        .run(move |conn| observations::record_by_client_id(conn, client_id))
+        .await?
+        .map(Json)
+        .ok_or_else(|| ApiError::NotFound(format!("no record with id {client_id}")))
+}

@@ -1,0 +1,139 @@
+//! Reads what a photo's EXIF says about when and where it was taken (CIPA DC-008).
+//!
+//! A photo without EXIF, or with EXIF we cannot read, simply has no EXIF facts: that
+//! is never a reason to refuse the record.
+
+use chrono::{DateTime, FixedOffset, NaiveDateTime, TimeZone};
+use exif::{In, Reader, Tag, Value};
+use shared_types::{OffsetSource, PhotoExif};
+
+/// EXIF facts straight from the file, before the record's offset is applied.
+pub fn read(bytes: &[u8]) -> PhotoExif {
+    // Phones and editors write EXIF with small faults (a stray next-IFD pointer, an
+    // odd count); keep what can be read rather than losing the whole block.
+    let result = Reader::new()
+        .continue_on_error(true)
+        .read_from_container(&mut std::io::Cursor::new(bytes))
+        .or_else(|err| err.distill_partial_result(|faults| tracing::debug!(?faults, "EXIF read with faults")));
+    let Ok(exif) = result else {
+        return PhotoExif::default();
+    };
+    let ascii = |tag| exif.get_field(tag, In::PRIMARY).and_then(|f| ascii_value(&f.value));
+    let taken_local = ascii(Tag::DateTimeOriginal).map(|time| match ascii(Tag::SubSecTimeOriginal) {
+        Some(sub) if sub.chars().all(|c| c.is_ascii_digit()) && !sub.is_empty() => format!("{time}.{sub}"),
+        _ => time,
+    });
+    PhotoExif {
+        taken_local,
+        offset: ascii(Tag::OffsetTimeOriginal),
+        latitude: signed_degrees(&exif, Tag::GPSLatitude, Tag::GPSLatitudeRef, "S"),
+        longitude: signed_degrees(&exif, Tag::GPSLongitude, Tag::GPSLongitudeRef, "W"),
+        altitude_m: altitude(&exif),
+        horizontal_error_m: rational(&exif, Tag::GPSHPositioningError),
+        orientation: exif
+            .get_field(Tag::Orientation, In::PRIMARY)
+            .and_then(|f| f.value.get_uint(0))
+            .and_then(|v| u16::try_from(v).ok())
+            .filter(|v| (1..=8).contains(v)),
+        taken_at: None,
+        offset_source: None,
+    }
+}
+
+/// Turns the photo's local time into an instant: with its own OffsetTimeOriginal when
+/// present, otherwise with the record's UTC offset, and says which was used.
+pub fn resolve_time(mut exif: PhotoExif, record_offset: FixedOffset) -> PhotoExif {
+    let Some(local) = exif.taken_local.as_deref().and_then(parse_exif_time) else {
+        return exif;
+    };
+    let (offset, source) = match exif.offset.as_deref().and_then(parse_offset) {
+        Some(own) => (own, OffsetSource::Photo),
+        None => (record_offset, OffsetSource::Record),
+    };
+    exif.taken_at = offset.from_local_datetime(&local).single();
+    exif.offset_source = exif.taken_at.map(|_| source);
+    exif
+}
+
+fn ascii_value(value: &Value) -> Option<String> {
+    match value {
+        Value::Ascii(parts) => parts
+            .first()
+            .map(|bytes| String::from_utf8_lossy(bytes).trim_end_matches('\0').trim().to_owned())
+            .filter(|s| !s.is_empty()),
+        _ => None,
+    }
+}
+
+/// `YYYY:MM:DD HH:MM:SS[.fraction]`, as DateTimeOriginal (+ SubSecTimeOriginal) write it.
+fn parse_exif_time(text: &str) -> Option<NaiveDateTime> {
+    NaiveDateTime::parse_from_str(text, "%Y:%m:%d %H:%M:%S%.f").ok()
+}
+
+/// `±HH:MM`, as OffsetTimeOriginal writes it.
+fn parse_offset(text: &str) -> Option<FixedOffset> {
+    DateTime::parse_from_str(&format!("2000-01-01T00:00:00{text}"), "%Y-%m-%dT%H:%M:%S%:z")
+        .ok()
+        .map(|t| *t.offset())
+}
+
+/// Degrees, minutes, seconds as three RATIONALs, negative for the given reference.
+fn signed_degrees(exif: &exif::Exif, tag: Tag, ref_tag: Tag, negative_ref: &str) -> Option<f64> {
+    let field = exif.get_field(tag, In::PRIMARY)?;
+    let Value::Rational(parts) = &field.value else { return None };
+    if parts.len() < 3 || parts.iter().any(|r| r.denom == 0) {
+        return None;
+    }
+    let degrees = parts[0].to_f64() + parts[1].to_f64() / 60.0 + parts[2].to_f64() / 3600.0;
+    let reference = exif.get_field(ref_tag, In::PRIMARY).and_then(|f| ascii_value(&f.value))?;
+    let signed = if reference.eq_ignore_ascii_case(negative_ref) { -degrees } else { degrees };
+    signed.is_finite().then_some(signed)
+}
+
+fn rational(exif: &exif::Exif, tag: Tag) -> Option<f64> {
+    match &exif.get_field(tag, In::PRIMARY)?.value {
+        Value::Rational(parts) => parts.first().filter(|r| r.denom != 0).map(|r| r.to_f64()),
+        _ => None,
+    }
+}
+
+/// GPSAltitude, negative when GPSAltitudeRef says below sea level (1).
+fn altitude(exif: &exif::Exif) -> Option<f64> {
+    let metres = rational(exif, Tag::GPSAltitude)?;
+    let below = exif.get_field(Tag::GPSAltitudeRef, In::PRIMARY).and_then(|f| f.value.get_uint(0)) == Some(1);
+    Some(if below { -metres } else { metres })
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn offsets_and_times_parse_as_cipa_dc_008_writes_them() {
+        // CIPA DC-008: DateTimeOriginal "YYYY:MM:DD HH:MM:SS"; OffsetTimeOriginal "±HH:MM".
+        assert_eq!(parse_offset("+01:00").unwrap().local_minus_utc(), 3600);
+        assert_eq!(parse_offset("-03:30").unwrap().local_minus_utc(), -12600);
+        assert!(parse_offset("1 hour").is_none());
+        assert!(parse_exif_time("2025:06:01 14:05:09").is_some());
+        assert!(parse_exif_time("2025:06:01 14:05:09.250").is_some());
+        assert!(parse_exif_time("0000:00:00 00:00:00").is_none());
+    }
+
+    #[test]
+    fn the_record_offset_is_used_only_when_the_photo_has_none() {
+        let record = FixedOffset::east_opt(2 * 3600).unwrap();
+        let mut exif = PhotoExif { taken_local: Some("2025:06:01 14:05:09".into()), ..Default::default() };
+        let resolved = resolve_time(exif.clone(), record);
+        assert_eq!(resolved.offset_source, Some(OffsetSource::Record));
+        assert_eq!(resolved.taken_at.unwrap().to_rfc3339(), "2025-06-01T14:05:09+02:00");
+        exif.offset = Some("+01:00".into());
+        let resolved = resolve_time(exif, record);
+        assert_eq!(resolved.offset_source, Some(OffsetSource::Photo));
+        assert_eq!(resolved.taken_at.unwrap().to_rfc3339(), "2025-06-01T14:05:09+01:00");
+    }
+
+    #[test]
+    fn garbage_is_no_exif_rather_than_an_error() {
+        assert_eq!(read(b"not a photo at all"), PhotoExif::default());
+    }
+}

@@ -1,0 +1,14 @@
+//! The `wrackline` binary: parses the command line and hands over to the library.
+
+use clap::Parser as _;
+
+fn main() -> anyhow::Result<()> {
+    tracing_subscriber::fmt()
+        .with_env_filter(
+            tracing_subscriber::EnvFilter::try_from_default_env()
+                .unwrap_or_else(|_| "wrackline_server=info,tower_http=warn".into()),
+        )
+        .with_writer(std::io::stderr)
+        .init();
+    wrackline_server::cli::run(wrackline_server::cli::Cli::parse())
+}

@@ -1,0 +1,41 @@
+//! Applies the numbered SQL files in `migrations/`, in order, once each.
+//!
+//! The files are compiled into the binary, so a deployed server needs no source tree.
+//! SQLite's `user_version` holds how many have been applied. Landed migrations are
+//! append-only: change the schema with a new file, never by editing an old one.
+
+use rusqlite::Connection;
+
+use super::StoreError;
+
+/// Every migration, in the order it must run.
+const MIGRATIONS: &[(&str, &str)] = &[(
+    "0001_initial",
+    include_str!("../../../migrations/0001_initial.sql"),
+)];
+
+pub(super) fn apply(conn: &mut Connection) -> Result<(), StoreError> {
+    let applied: usize = conn.query_row("PRAGMA user_version", [], |row| row.get::<_, i64>(0))? as usize;
+    for (index, (name, sql)) in MIGRATIONS.iter().enumerate().skip(applied) {
+        let tx = conn.transaction()?;
+        tx.execute_batch(sql).map_err(|source| StoreError::Migration { name, source })?;
+        tx.pragma_update(None, "user_version", (index + 1) as i64)?;
+        tx.commit()?;
+        tracing::info!(migration = name, "applied migration");
+    }
+    Ok(())
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn migrations_apply_once_and_record_their_count() {
+        let mut conn = Connection::open_in_memory().unwrap();
+        apply(&mut conn).unwrap();
+        apply(&mut conn).unwrap();
+        let version: i64 = conn.query_row("PRAGMA user_version", [], |row| row.get(0)).unwrap();
+        assert_eq!(version as usize, MIGRATIONS.len());
+    }
+}

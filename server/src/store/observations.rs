@@ -1,0 +1,258 @@
+//! Observations, their photos, lengths and first identification: written in one
+//! transaction, read back as [`RecordView`]s.
+
+use chrono::{DateTime, Utc};
+use rusqlite::{Connection, OptionalExtension, Transaction, params};
+use shared_types::{OffsetSource, PhotoExif, PhotoView, Receipt, RecordView, ReviewState, Submission};
+use uuid::Uuid;
+
+use super::StoreError;
+
+/// A photo whose file is already durably on disk, ready to be linked to a record.
+#[derive(Debug, Clone)]
+pub struct StoredPhoto {
+    pub sha256: String,
+    pub media_type: String,
+    pub byte_len: u64,
+    pub exif: PhotoExif,
+}
+
+/// Everything intake has checked and is ready to store.
+#[derive(Debug, Clone)]
+pub struct NewObservation {
+    pub submission: Submission,
+    /// SHA-256 over the submission and its photos, to tell a retry from a changed resend.
+    pub content_sha256: String,
+    pub photos: Vec<StoredPhoto>,
+}
+
+/// What happened to a submission.
+#[derive(Debug, Clone, PartialEq)]
+pub enum Insertion {
+    Created(Receipt),
+    /// The same client id with the same content was stored before: the earlier receipt.
+    Replayed(Receipt),
+    /// The same client id was stored before with other content.
+    Conflict,
+}
+
+/// Stores one observation, its own organism, lengths, signs, photos and the
+/// observer's guess as the first identification, all or nothing.
+pub fn insert_observation(conn: &mut Connection, new: &NewObservation, now: DateTime<Utc>) -> Result<Insertion, StoreError> {
+    let tx = conn.transaction()?;
+    let client_id = new.submission.client_id.to_string();
+    if let Some((stored_hash, receipt)) = existing_receipt(&tx, &client_id)? {
+        return Ok(if stored_hash == new.content_sha256 { Insertion::Replayed(receipt) } else { Insertion::Conflict });
+    }
+    let received_at = now.to_rfc3339_opts(chrono::SecondsFormat::Millis, true);
+    tx.execute("INSERT INTO organisms (created_at) VALUES (?1)", [&received_at])?;
+    let organism_id = tx.last_insert_rowid();
+    let observation_id = insert_observation_row(&tx, new, organism_id, &received_at)?;
+    insert_details(&tx, observation_id, &new.submission, &received_at)?;
+    for (position, photo) in new.photos.iter().enumerate() {
+        link_photo(&tx, observation_id, position, photo, &received_at)?;
+    }
+    tx.commit()?;
+    Ok(Insertion::Created(Receipt {
+        client_id: new.submission.client_id,
+        observation_id,
+        received_at: parse_utc(&received_at)?,
+        photo_count: new.photos.len(),
+    }))
+}
+
+fn existing_receipt(tx: &Transaction, client_id: &str) -> Result<Option<(String, Receipt)>, StoreError> {
+    let row = tx
+        .query_row(
+            "SELECT o.id, o.content_sha256, o.received_at,
+                    (SELECT COUNT(*) FROM observation_photos p WHERE p.observation_id = o.id)
+             FROM observations o WHERE o.client_id = ?1",
+            [client_id],
+            |row| Ok((row.get::<_, i64>(0)?, row.get::<_, String>(1)?, row.get::<_, String>(2)?, row.get::<_, i64>(3)?)),
+        )
+        .optional()?;
+    row.map(|(observation_id, hash, received_at, photos)| {
+        let client_id = Uuid::parse_str(client_id).map_err(|err| StoreError::Corrupt(err.to_string()))?;
+        let receipt = Receipt { client_id, observation_id, received_at: parse_utc(&received_at)?, photo_count: photos as usize };
+        Ok((hash, receipt))
+    })
+    .transpose()
+}
+
+fn insert_observation_row(tx: &Transaction, new: &NewObservation, organism_id: i64, received_at: &str) -> Result<i64, StoreError> {
+    let sub = &new.submission;
+    let json = serde_json::to_string(sub).map_err(|err| StoreError::Corrupt(err.to_string()))?;
+    let position = sub.position.as_ref();
+    tx.execute(
+        "INSERT INTO observations (client_id, content_sha256, organism_id, observed_at, observed_at_utc,
+            latitude, longitude, accuracy_m, position_source, count, condition, setting, sex, notes,
+            observer_name, review_state, submission_json, received_at)
+         VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, ?12, ?13, ?14, ?15, ?16, ?17, ?18)",
+        params![
+            sub.client_id.to_string(),
+            new.content_sha256,
+            organism_id,
+            sub.observed_at.to_rfc3339(),
+            sub.observed_at.with_timezone(&Utc).to_rfc3339_opts(chrono::SecondsFormat::Secs, true),
+            position.map(|p| p.latitude.get()),
+            position.map(|p| p.longitude.get()),
+            position.and_then(|p| p.accuracy_m).map(|a| a.get()),
+            position.map(|p| code(&p.source)),
+            sub.count.get(),
+            code(&sub.condition),
+            code(&sub.setting),
+            code(&sub.sex),
+            sub.notes.as_ref().map(|n| n.as_str()),
+            sub.observer_name.as_ref().map(|n| n.as_str()),
+            ReviewState::AwaitingReview.code(),
+            json,
+            received_at,
+        ],
+    )?;
+    Ok(tx.last_insert_rowid())
+}
+
+fn insert_details(tx: &Transaction, observation_id: i64, sub: &Submission, received_at: &str) -> Result<(), StoreError> {
+    if let Some(length) = &sub.length {
+        tx.execute(
+            "INSERT INTO measurements (observation_id, kind, value, unit, value_cm, method) VALUES (?1, ?2, ?3, ?4, ?5, ?6)",
+            params![observation_id, code(&length.kind), length.value.value, length.value.unit.code(), length.value.centimetres(), code(&length.method)],
+        )?;
+    }
+    for sign in &sub.human_signs {
+        tx.execute("INSERT INTO human_signs (observation_id, sign) VALUES (?1, ?2)", params![observation_id, code(sign)])?;
+    }
+    if let Some(guess) = sub.species_guess.as_ref().filter(|g| !g.as_str().is_empty()) {
+        tx.execute(
+            "INSERT INTO identifications (observation_id, taxon_name, identified_by, identified_at, basis)
+             VALUES (?1, ?2, ?3, ?4, 'observer guess')",
+            params![observation_id, guess.as_str(), sub.observer_name.as_ref().map(|n| n.as_str()), received_at],
+        )?;
+    }
+    Ok(())
+}
+
+fn link_photo(tx: &Transaction, observation_id: i64, position: usize, photo: &StoredPhoto, received_at: &str) -> Result<(), StoreError> {
+    let exif = &photo.exif;
+    // The same file may already be stored for another record: keep the first row.
+    tx.execute(
+        "INSERT OR IGNORE INTO photos (sha256, media_type, byte_len, exif_taken_local, exif_offset, exif_latitude,
+            exif_longitude, exif_altitude_m, exif_h_error_m, exif_orientation, stored_at)
+         VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11)",
+        params![
+            photo.sha256, photo.media_type, photo.byte_len as i64, exif.taken_local, exif.offset, exif.latitude,
+            exif.longitude, exif.altitude_m, exif.horizontal_error_m, exif.orientation, received_at
+        ],
+    )?;
+    tx.execute(
+        "INSERT OR IGNORE INTO observation_photos (observation_id, photo_sha256, position, exif_taken_at, offset_source)
+         VALUES (?1, ?2, ?3, ?4, ?5)",
+        params![
+            observation_id,
+            photo.sha256,
+            position as i64,
+            exif.taken_at.map(|t| t.to_rfc3339()),
+            exif.offset_source.as_ref().map(code)
+        ],
+    )?;
+    Ok(())
+}
+
+/// All records, oldest observation first.
+pub fn list_records(conn: &Connection) -> Result<Vec<RecordView>, StoreError> {
+    let mut stmt = conn.prepare(
+        "SELECT id, organism_id, received_at, review_state, submission_json FROM observations ORDER BY observed_at_utc, id",
+    )?;
+    let rows = stmt.query_map([], record_row)?.collect::<Result<Vec<_>, _>>()?;
+    rows.into_iter().map(|row| finish_record(conn, row)).collect()
+}
+
+/// One record by the phone's id.
+pub fn record_by_client_id(conn: &Connection, client_id: Uuid) -> Result<Option<RecordView>, StoreError> {
+    let row = conn
+        .query_row(
+            "SELECT id, organism_id, received_at, review_state, submission_json FROM observations WHERE client_id = ?1",
+            [client_id.to_string()],
+            record_row,
+        )
+        .optional()?;
+    row.map(|row| finish_record(conn, row)).transpose()
+}
+
+/// How many observations are stored.
+pub fn count_observations(conn: &Connection) -> Result<i64, StoreError> {
+    Ok(conn.query_row("SELECT COUNT(*) FROM observations", [], |row| row.get(0))?)
+}
+
+/// The media type of a stored photo, if the hash is known.
+pub fn photo_media_type(conn: &Connection, sha256: &str) -> Result<Option<String>, StoreError> {
+    Ok(conn.query_row("SELECT media_type FROM photos WHERE sha256 = ?1", [sha256], |row| row.get(0)).optional()?)
+}
+
+type RecordRow = (i64, i64, String, String, String);
+
+fn record_row(row: &rusqlite::Row) -> rusqlite::Result<RecordRow> {
+    Ok((row.get(0)?, row.get(1)?, row.get(2)?, row.get(3)?, row.get(4)?))
+}
+
+fn finish_record(conn: &Connection, (id, organism_id, received_at, state, json): RecordRow) -> Result<RecordView, StoreError> {
+    let submission: Submission =
+        serde_json::from_str(&json).map_err(|err| StoreError::Corrupt(format!("observation {id}: {err}")))?;
+    Ok(RecordView {
+        observation_id: id,
+        organism_id,
+        received_at: parse_utc(&received_at)?,
+        review_state: ReviewState::from_code(&state)
+            .ok_or_else(|| StoreError::Corrupt(format!("observation {id}: unknown review state {state}")))?,
+        submission,
+        photos: photos_of(conn, id)?,
+    })
+}
+
+fn photos_of(conn: &Connection, observation_id: i64) -> Result<Vec<PhotoView>, StoreError> {
+    let mut stmt = conn.prepare(
+        "SELECT p.sha256, p.media_type, p.byte_len, p.exif_taken_local, p.exif_offset, p.exif_latitude, p.exif_longitude,
+                p.exif_altitude_m, p.exif_h_error_m, p.exif_orientation, op.exif_taken_at, op.offset_source
+         FROM observation_photos op JOIN photos p ON p.sha256 = op.photo_sha256
+         WHERE op.observation_id = ?1 ORDER BY op.position",
+    )?;
+    let rows = stmt.query_map([observation_id], |row| {
+        let taken_at: Option<String> = row.get(10)?;
+        let offset_source: Option<String> = row.get(11)?;
+        Ok(PhotoView {
+            sha256: row.get(0)?,
+            media_type: row.get(1)?,
+            byte_len: row.get::<_, i64>(2)? as u64,
+            exif: PhotoExif {
+                taken_local: row.get(3)?,
+                offset: row.get(4)?,
+                latitude: row.get(5)?,
+                longitude: row.get(6)?,
+                altitude_m: row.get(7)?,
+                horizontal_error_m: row.get(8)?,
+                orientation: row.get(9)?,
+                taken_at: taken_at.and_then(|t| chrono::DateTime::parse_from_rfc3339(&t).ok()),
+                offset_source: offset_source.and_then(|s| from_code::<OffsetSource>(&s)),
+            },
+        })
+    })?;
+    Ok(rows.collect::<Result<Vec<_>, _>>()?)
+}
+
+/// The snake_case name serde gives a plain enum, used as its stored code.
+fn code<T: serde::Serialize>(value: &T) -> String {
+    match serde_json::to_value(value) {
+        Ok(serde_json::Value::String(code)) => code,
+        other => unreachable!("stored enums serialise as strings, got {other:?}"),
+    }
+}
+
+fn from_code<T: serde::de::DeserializeOwned>(code: &str) -> Option<T> {
+    serde_json::from_value(serde_json::Value::String(code.to_owned())).ok()
+}
+
+fn parse_utc(text: &str) -> Result<DateTime<Utc>, StoreError> {
+    DateTime::parse_from_rfc3339(text)
+        .map(|t| t.with_timezone(&Utc))
+        .map_err(|err| StoreError::Corrupt(format!("timestamp {text}: {err}")))
+}

@@ -1,0 +1,32 @@
+//! The `wrackline` binary itself: `export` on a data directory the server wrote.
+
+use std::process::Command;
+
+use crate::helpers::{plain_jpeg, spawn_app, submission};
+
+#[tokio::test]
+async fn export_writes_the_same_records_to_a_file() {
+    let app = spawn_app().await;
+    app.submit(&submission("6f9a4c2e-1d3b-4e5f-8a7b-9c0d1e2f3a4b"), &[plain_jpeg(5)]).await;
+    app.submit(&submission("0b7e6d5c-4b3a-4291-8f7e-6d5c4b3a2910"), &[]).await;
+    let out = app.data_dir.parent().unwrap().join("records.csv");
+    let status = Command::new(env!("CARGO_BIN_EXE_wrackline"))
+        .arg("--data-dir")
+        .arg(&app.data_dir)
+        .args(["export", "--format", "csv", "--out"])
+        .arg(&out)
+        .status()
+        .unwrap();
+    assert!(status.success());
+    let text = std::fs::read_to_string(&out).unwrap();
+    assert_eq!(text.lines().count(), 3, "header and two records:\n{text}");
+    assert!(text.lines().next().unwrap().starts_with("occurrenceID,basisOfRecord,eventDate"));
+}
+
+#[test]
+fn an_unknown_export_format_is_refused_by_name() {
+    let output = Command::new(env!("CARGO_BIN_EXE_wrackline")).args(["export", "--format", "xls"]).output().unwrap();
+    assert!(!output.status.success());
+    let message = String::from_utf8_lossy(&output.stderr);
+    assert!(message.contains("xls") && message.contains("csv"), "{message}");
+}

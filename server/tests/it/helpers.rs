@@ -1,0 +1,102 @@
+//! `spawn_app()`: a freshly migrated database in a temp dir and the server on port 0,
+//! with typed request helpers.
+
+use std::path::{Path, PathBuf};
+
+use reqwest::multipart::{Form, Part};
+use serde_json::{Value, json};
+use wrackline_server::AppState;
+
+pub struct TestApp {
+    pub base: String,
+    pub client: reqwest::Client,
+    pub data_dir: PathBuf,
+    _dir: tempfile::TempDir,
+}
+
+pub async fn spawn_app() -> TestApp {
+    spawn_app_with(None).await
+}
+
+pub async fn spawn_app_with(app_dir: Option<PathBuf>) -> TestApp {
+    let dir = tempfile::tempdir().expect("temp dir");
+    let data_dir = dir.path().join("data");
+    let state = AppState::open(&data_dir, app_dir).expect("open state");
+    let listener = tokio::net::TcpListener::bind("127.0.0.1:0").await.expect("bind");
+    let base = format!("http://{}", listener.local_addr().unwrap());
+    tokio::spawn(async move { axum::serve(listener, wrackline_server::app(state)).await.unwrap() });
+    TestApp { base, client: reqwest::Client::new(), data_dir, _dir: dir }
+}
+
+/// A valid submission; tests change what they need.
+pub fn submission(client_id: &str) -> Value {
+    json!({
+        "client_id": client_id,
+        "observed_at": "2025-06-01T14:10:00+01:00",
+        "position": {"latitude": 52.4153, "longitude": -4.0829, "accuracy_m": 8.0, "source": "device"},
+        "species_guess": "small-spotted catshark",
+        "length": {"kind": "total", "value": 54.0, "unit": "cm", "method": "measured"},
+        "sex": "male",
+        "count": 1,
+        "condition": "fresh_dead",
+        "setting": "beach_stranding",
+        "human_signs": ["hook"],
+        "notes": "on the strandline below the cliff path",
+        "observer_name": "Test Observer"
+    })
+}
+
+pub struct Answer {
+    pub status: u16,
+    pub body: Value,
+}
+
+impl TestApp {
+    /// Posts `record` (as given, so tests can send broken JSON) with photos.
+    pub async fn submit_raw(&self, record: &str, photos: &[Vec<u8>]) -> Answer {
+        let mut form = Form::new().text("record", record.to_owned());
+        for (i, bytes) in photos.iter().enumerate() {
+            form = form.part("photo", Part::bytes(bytes.clone()).file_name(format!("p{i}.jpg")));
+        }
+        let response = self.client.post(format!("{}/api/observations", self.base)).multipart(form).send().await.unwrap();
+        let status = response.status().as_u16();
+        let body = response.json().await.unwrap_or(Value::Null);
+        Answer { status, body }
+    }
+
+    pub async fn submit(&self, record: &Value, photos: &[Vec<u8>]) -> Answer {
+        self.submit_raw(&record.to_string(), photos).await
+    }
+
+    pub async fn records(&self) -> Vec<Value> {
+        let value: Value = self.client.get(format!("{}/api/observations", self.base)).send().await.unwrap().json().await.unwrap();
+        value.as_array().expect("a list").clone()
+    }
+
+    pub async fn get(&self, path: &str) -> reqwest::Response {
+        self.client.get(format!("{}{path}", self.base)).send().await.unwrap()
+    }
+}
+
+/// A small real JPEG (a gradient), encoded by the `image` crate, without EXIF.
+pub fn plain_jpeg(seed: u8) -> Vec<u8> {
+    let img = image::RgbImage::from_fn(64, 48, |x, y| image::Rgb([x as u8 * 4, y as u8 * 5, seed]));
+    let mut bytes = Vec::new();
+    image::codecs::jpeg::JpegEncoder::new_with_quality(&mut bytes, 85).encode_image(&img).unwrap();
+    bytes
+}
+
+/// Writes EXIF tags into a JPEG with exiftool (Debian's libimage-exiftool-perl), the
+/// reference writer, and returns the new bytes.
+pub fn with_exiftool(jpeg: &[u8], tags: &[&str], dir: &Path) -> Vec<u8> {
+    let path = dir.join(format!("exif-{}.jpg", uuid::Uuid::new_v4()));
+    std::fs::write(&path, jpeg).unwrap();
+    let output = std::process::Command::new("exiftool")
+        .arg("-overwrite_original")
+        .args(tags)
+        .arg(&path)
+        .output()
+        .expect("exiftool must be installed for these tests (apt-get install libimage-exiftool-perl); `cargo xtask test` installs it");
+    assert!(output.status.success(), "exiftool failed: {}", String::from_utf8_lossy(&output.stderr));
+    std::fs::read(&path).unwrap()
+}

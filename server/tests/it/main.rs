@@ -1,0 +1,8 @@
+//! The server's integration tests: the real router on a real port, a real SQLite file
+//! in a temporary folder, real HTTP, real JPEGs. One test binary, one module per area.
+
+mod cli;
+mod exif;
+mod helpers;
+mod routes;
+mod submissions;

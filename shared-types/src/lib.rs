@@ -1,0 +1,11 @@
+//! The vocabulary the phone and the server both speak: what an observer submits,
+//! what the server answers, and the checked values inside them.
+//!
+//! Pure Rust: no HTTP, no SQL, no DOM. Everything here runs unchanged natively and in
+//! the browser, so the app and the server validate a record with the same code.
+
+pub mod record;
+pub mod values;
+
+pub use record::*;
+pub use values::*;

@@ -1,0 +1,382 @@
+//! The record as it travels: what the phone submits ([`Submission`]), what the server
+//! answers ([`Receipt`]) and how a stored record is shown ([`RecordView`]).
+//!
+//! A submission is one person's observation. Several observations may later turn out
+//! to be one animal (an organism), and identifications form a history; those live on
+//! the server, and only their current state is shown here.
+
+use chrono::{DateTime, FixedOffset, Utc};
+use serde::{Deserialize, Serialize};
+use uuid::Uuid;
+
+use crate::values::{AccuracyM, Count, Latitude, LengthValue, Longitude, Text};
+
+/// Where a position came from.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(rename_all = "snake_case")]
+pub enum PositionSource {
+    /// The phone's location service, with its reported accuracy.
+    Device,
+    /// Typed by the observer.
+    Typed,
+}
+
+/// A point on the WGS84 ellipsoid with its horizontal uncertainty.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct Position {
+    pub latitude: Latitude,
+    pub longitude: Longitude,
+    /// Radius in metres; `None` when unknown (never zero).
+    pub accuracy_m: Option<AccuracyM>,
+    pub source: PositionSource,
+}
+
+/// Which length was taken. Rays and skates are measured across or along the disc.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(rename_all = "snake_case")]
+pub enum LengthKind {
+    Total,
+    Fork,
+    Precaudal,
+    DiscWidth,
+    DiscLength,
+}
+
+impl LengthKind {
+    pub const ALL: [LengthKind; 5] =
+        [Self::Total, Self::Fork, Self::Precaudal, Self::DiscWidth, Self::DiscLength];
+
+    /// The plain name, as used in exports (measurementType).
+    pub fn label(self) -> &'static str {
+        match self {
+            Self::Total => "total length",
+            Self::Fork => "fork length",
+            Self::Precaudal => "precaudal length",
+            Self::DiscWidth => "disc width",
+            Self::DiscLength => "disc length",
+        }
+    }
+}
+
+/// Whether a length was taken with a tape or judged by eye.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(rename_all = "snake_case")]
+pub enum MeasureMethod {
+    Measured,
+    Estimated,
+}
+
+/// One length of the animal.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct Length {
+    pub kind: LengthKind,
+    #[serde(flatten)]
+    pub value: LengthValue,
+    pub method: MeasureMethod,
+}
+
+/// The state the animal was found in.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(rename_all = "snake_case")]
+pub enum Condition {
+    Alive,
+    FreshDead,
+    Decomposed,
+    RemainsOnly,
+}
+
+impl Condition {
+    pub const ALL: [Condition; 4] = [Self::Alive, Self::FreshDead, Self::Decomposed, Self::RemainsOnly];
+
+    pub fn label(self) -> &'static str {
+        match self {
+            Self::Alive => "alive",
+            Self::FreshDead => "fresh dead",
+            Self::Decomposed => "decomposed",
+            Self::RemainsOnly => "remains only",
+        }
+    }
+
+    /// Darwin Core `vitality`.
+    pub fn vitality(self) -> &'static str {
+        match self {
+            Self::Alive => "alive",
+            _ => "dead",
+        }
+    }
+}
+
+/// How the animal came to be seen.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(rename_all = "snake_case")]
+pub enum Setting {
+    BeachStranding,
+    AnglerCatch,
+    LandingSiteOrMarket,
+    FloatingAtSea,
+    DiscardedBycatch,
+}
+
+impl Setting {
+    pub const ALL: [Setting; 5] = [
+        Self::BeachStranding,
+        Self::AnglerCatch,
+        Self::LandingSiteOrMarket,
+        Self::FloatingAtSea,
+        Self::DiscardedBycatch,
+    ];
+
+    pub fn label(self) -> &'static str {
+        match self {
+            Self::BeachStranding => "beach stranding",
+            Self::AnglerCatch => "angler catch",
+            Self::LandingSiteOrMarket => "landing site or market",
+            Self::FloatingAtSea => "floating at sea",
+            Self::DiscardedBycatch => "discarded bycatch",
+        }
+    }
+}
+
+/// Sex as the observer could tell it. Male sharks and rays carry claspers.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(rename_all = "snake_case")]
+pub enum Sex {
+    /// Claspers seen.
+    Male,
+    /// Looked for claspers and saw none.
+    Female,
+    /// Not looked at, or could not tell.
+    Unknown,
+}
+
+impl Sex {
+    pub const ALL: [Sex; 3] = [Self::Unknown, Self::Male, Self::Female];
+
+    /// Darwin Core `sex` (empty when unknown).
+    pub fn dwc(self) -> &'static str {
+        match self {
+            Self::Male => "male",
+            Self::Female => "female",
+            Self::Unknown => "",
+        }
+    }
+}
+
+/// Signs that people or fishing gear were involved.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, PartialOrd, Ord, Serialize, Deserialize)]
+#[serde(rename_all = "snake_case")]
+pub enum HumanSign {
+    Hook,
+    Line,
+    NetMarks,
+    FinsRemoved,
+    BoatStrike,
+}
+
+impl HumanSign {
+    pub const ALL: [HumanSign; 5] =
+        [Self::Hook, Self::Line, Self::NetMarks, Self::FinsRemoved, Self::BoatStrike];
+
+    pub fn label(self) -> &'static str {
+        match self {
+            Self::Hook => "hook",
+            Self::Line => "line",
+            Self::NetMarks => "net marks",
+            Self::FinsRemoved => "fins removed",
+            Self::BoatStrike => "boat strike",
+        }
+    }
+}
+
+/// What the phone sends for one observation. Photos travel beside it in the same
+/// request, in the order they were taken.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct Submission {
+    /// Made on the phone when the record is first saved; a resend carries the same id,
+    /// so the server can tell a retry from a new record.
+    pub client_id: Uuid,
+    /// When the animal was seen, with the phone's UTC offset at the time.
+    pub observed_at: DateTime<FixedOffset>,
+    pub position: Option<Position>,
+    pub species_guess: Option<Text>,
+    pub length: Option<Length>,
+    pub sex: Sex,
+    pub count: Count,
+    pub condition: Condition,
+    pub setting: Setting,
+    #[serde(default)]
+    pub human_signs: Vec<HumanSign>,
+    pub notes: Option<Text>,
+    /// The name the observer chose to be credited with; may be empty.
+    pub observer_name: Option<Text>,
+}
+
+/// Refusals of a submission that are about the whole record rather than one value.
+#[derive(Debug, Clone, PartialEq, thiserror::Error)]
+pub enum SubmissionProblem {
+    #[error("observed_at {0} is in the future")]
+    InTheFuture(DateTime<FixedOffset>),
+    #[error("human_signs lists {0:?} twice")]
+    RepeatedSign(HumanSign),
+}
+
+/// How far ahead of the server's clock a record may claim to be, for phones whose
+/// clocks run fast (common practice: a few minutes of drift is normal).
+pub const CLOCK_TOLERANCE_MINUTES: i64 = 10;
+
+impl Submission {
+    /// Checks what serde cannot check field by field.
+    pub fn check(&self, now: DateTime<Utc>) -> Result<(), SubmissionProblem> {
+        if self.observed_at.with_timezone(&Utc) > now + chrono::Duration::minutes(CLOCK_TOLERANCE_MINUTES) {
+            return Err(SubmissionProblem::InTheFuture(self.observed_at));
+        }
+        let mut signs = self.human_signs.clone();
+        signs.sort();
+        if let Some(pair) = signs.windows(2).find(|pair| pair[0] == pair[1]) {
+            return Err(SubmissionProblem::RepeatedSign(pair[0]));
+        }
+        Ok(())
+    }
+}
+
+/// What the server answers once a submission and its photos are durably stored. A
+/// resend of the same submission gets the same receipt.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct Receipt {
+    pub client_id: Uuid,
+    /// The server's own number for the observation.
+    pub observation_id: i64,
+    pub received_at: DateTime<Utc>,
+    pub photo_count: usize,
+}
+
+/// Review states of an observation.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(rename_all = "snake_case")]
+pub enum ReviewState {
+    AwaitingReview,
+    DetailsRequested,
+    Confirmed,
+    NotConfirmable,
+    Merged,
+}
+
+impl ReviewState {
+    pub fn label(self) -> &'static str {
+        match self {
+            Self::AwaitingReview => "awaiting review",
+            Self::DetailsRequested => "details requested",
+            Self::Confirmed => "confirmed",
+            Self::NotConfirmable => "not confirmable",
+            Self::Merged => "merged",
+        }
+    }
+
+    pub fn code(self) -> &'static str {
+        match self {
+            Self::AwaitingReview => "awaiting_review",
+            Self::DetailsRequested => "details_requested",
+            Self::Confirmed => "confirmed",
+            Self::NotConfirmable => "not_confirmable",
+            Self::Merged => "merged",
+        }
+    }
+
+    pub fn from_code(code: &str) -> Option<Self> {
+        [Self::AwaitingReview, Self::DetailsRequested, Self::Confirmed, Self::NotConfirmable, Self::Merged]
+            .into_iter()
+            .find(|state| state.code() == code)
+    }
+}
+
+/// Which UTC offset turned a photo's local EXIF time into an instant.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(rename_all = "snake_case")]
+pub enum OffsetSource {
+    /// The photo's own OffsetTimeOriginal tag.
+    Photo,
+    /// The phone's offset at the time of the record (the photo had none).
+    Record,
+}
+
+/// What a photo's EXIF says, kept apart from what the phone said.
+#[derive(Debug, Clone, Default, PartialEq, Serialize, Deserialize)]
+pub struct PhotoExif {
+    /// DateTimeOriginal (+ SubSecTimeOriginal) as written: local time, no zone.
+    pub taken_local: Option<String>,
+    /// OffsetTimeOriginal, e.g. "+01:00".
+    pub offset: Option<String>,
+    /// The instant, when an offset was available.
+    pub taken_at: Option<DateTime<FixedOffset>>,
+    pub offset_source: Option<OffsetSource>,
+    pub latitude: Option<f64>,
+    pub longitude: Option<f64>,
+    pub altitude_m: Option<f64>,
+    /// GPSHPositioningError, metres.
+    pub horizontal_error_m: Option<f64>,
+    pub orientation: Option<u16>,
+}
+
+/// A stored photo as listed with its record.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct PhotoView {
+    /// SHA-256 of the file, hex; also its address under `/photos/`.
+    pub sha256: String,
+    pub media_type: String,
+    pub byte_len: u64,
+    pub exif: PhotoExif,
+}
+
+/// A stored observation as the server shows it.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct RecordView {
+    pub observation_id: i64,
+    pub organism_id: i64,
+    pub received_at: DateTime<Utc>,
+    pub review_state: ReviewState,
+    pub submission: Submission,
+    pub photos: Vec<PhotoView>,
+}
+
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    fn sample() -> &'static str {
+        r#"{"client_id":"2f1c9a3e-55b4-4c61-9a8e-0d5a54c1f0aa",
+            "observed_at":"2026-03-14T09:30:00+01:00",
+            "position":{"latitude":52.41,"longitude":-4.09,"accuracy_m":8,"source":"device"},
+            "species_guess":"thornback ray",
+            "length":{"kind":"disc_width","value":48,"unit":"cm","method":"measured"},
+            "sex":"female","count":1,"condition":"fresh_dead","setting":"beach_stranding",
+            "human_signs":["hook"],"notes":null,"observer_name":"Gwen"}"#
+    }
+
+    #[test]
+    fn a_full_submission_reads_back() {
+        let sub: Submission = serde_json::from_str(sample()).unwrap();
+        assert_eq!(sub.length.unwrap().value.centimetres(), 48.0);
+        assert_eq!(sub.observed_at.offset().local_minus_utc(), 3600);
+        let again: Submission = serde_json::from_str(&serde_json::to_string(&sub).unwrap()).unwrap();
+        assert_eq!(again, sub);
+    }
+
+    #[test]
+    fn a_record_from_the_future_is_refused() {
+        let sub: Submission = serde_json::from_str(sample()).unwrap();
+        let long_ago = DateTime::parse_from_rfc3339("2020-01-01T00:00:00Z").unwrap().with_timezone(&Utc);
+        assert!(matches!(sub.check(long_ago), Err(SubmissionProblem::InTheFuture(_))));
+        assert!(sub.check(DateTime::parse_from_rfc3339("2026-03-14T09:00:00Z").unwrap().with_timezone(&Utc)).is_ok());
+    }
+
+    #[test]
+    fn review_state_codes_round_trip() {
+        for state in [ReviewState::AwaitingReview, ReviewState::Merged, ReviewState::Confirmed] {
+            assert_eq!(ReviewState::from_code(state.code()), Some(state));
+        }
+    }
+}

@@ -1,0 +1,468 @@
+//! The checklist format: the species a key can suggest, the characters an observer
+//! can see, and each species' states, size, range and handling rules. A checklist is
+//! read once from JSON and checked in full, so the rest of the crate can trust it.
+//! The format is described field by field in the crate's README.
+
+use std::collections::{BTreeMap, BTreeSet};
+
+use serde::{Deserialize, Serialize};
+
+use crate::error::ChecklistError;
+use crate::length::LengthKind;
+
+/// A checked checklist. The only way to get one is [`Checklist::from_json`], so every
+/// character, state and area a taxon names is known to exist.
+#[derive(Debug, Clone, Serialize)]
+#[serde(rename_all = "camelCase")]
+pub struct Checklist {
+    metadata: Metadata,
+    areas: Vec<Area>,
+    characters: Vec<Character>,
+    taxa: Vec<Taxon>,
+}
+
+/// What the checklist is, where it applies, and how far its contents can be trusted.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(rename_all = "camelCase", deny_unknown_fields)]
+pub struct Metadata {
+    /// A title for people.
+    pub title: String,
+    /// The region the checklist covers.
+    pub region: String,
+    /// A plain statement of where the data came from and what is invented or illustrative.
+    pub notice: String,
+}
+
+/// A regional area code that taxa's presence lists and records refer to.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(rename_all = "camelCase", deny_unknown_fields)]
+pub struct Area {
+    /// The code used in presence lists and in a record's context.
+    pub code: String,
+    /// A name for people.
+    pub name: String,
+}
+
+/// Something an observer can see and answer about: a question with a fixed list of states.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(rename_all = "camelCase", deny_unknown_fields)]
+pub struct Character {
+    /// The name taxa and answers use.
+    pub name: String,
+    /// The question shown to the observer.
+    pub question: String,
+    /// The possible answers, besides "not sure".
+    pub states: Vec<CharacterState>,
+}
+
+/// One possible answer to a character's question.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(rename_all = "camelCase", deny_unknown_fields)]
+pub struct CharacterState {
+    /// The name taxa and answers use.
+    pub name: String,
+    /// Plain words shown to the observer and used in reasons, e.g. "6 gill slits".
+    pub label: String,
+}
+
+/// Darwin Core `taxonRank` values used by the key, from most to least specific.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, PartialOrd, Ord, Hash, Serialize, Deserialize)]
+#[serde(rename_all = "camelCase")]
+pub enum TaxonRank {
+    /// A species (or a species complex kept as one entry).
+    Species,
+    /// A genus.
+    Genus,
+    /// A family.
+    Family,
+    /// An order.
+    Order,
+    /// A superorder.
+    Superorder,
+}
+
+impl TaxonRank {
+    /// Ranks from most to least specific, the order in which an observer can stop.
+    pub const FROM_SPECIFIC: [TaxonRank; 5] = [
+        TaxonRank::Species,
+        TaxonRank::Genus,
+        TaxonRank::Family,
+        TaxonRank::Order,
+        TaxonRank::Superorder,
+    ];
+}
+
+/// How far a public location must be generalised for this species, following the
+/// categories of Chapman 2020, *Current Best Practices for Generalizing Sensitive
+/// Species Occurrence Data* (GBIF Secretariat).
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(rename_all = "camelCase")]
+pub enum Sensitivity {
+    /// Publish the location as recorded.
+    None,
+    /// Round public coordinates to 0.1 degree (about 10 km).
+    TenthDegree,
+    /// Round public coordinates to 0.01 degree (about 1 km).
+    HundredthDegree,
+    /// Round public coordinates to 0.001 degree (about 100 m).
+    ThousandthDegree,
+    /// Do not publish the location at all.
+    Withhold,
+}
+
+impl Sensitivity {
+    /// The grid, in degrees, to round public coordinates to; `None` both for "publish
+    /// as recorded" and "withhold" (see [`Sensitivity::withholds_location`]).
+    pub fn grid_degrees(self) -> Option<f64> {
+        match self {
+            Sensitivity::TenthDegree => Some(0.1),
+            Sensitivity::HundredthDegree => Some(0.01),
+            Sensitivity::ThousandthDegree => Some(0.001),
+            Sensitivity::None | Sensitivity::Withhold => None,
+        }
+    }
+
+    /// Whether the public location is left out entirely.
+    pub fn withholds_location(self) -> bool {
+        self == Sensitivity::Withhold
+    }
+}
+
+/// The largest known size of a species, with what was measured and who says so.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(rename_all = "camelCase", deny_unknown_fields)]
+pub struct MaxLength {
+    /// The size in centimetres.
+    pub cm: f64,
+    /// `totalLength` for sharks, skates and chimaeras; `discWidth` for rays measured across the disc.
+    pub measure: LengthKind,
+    /// Where the figure comes from.
+    pub source: String,
+}
+
+/// Generation length, which sets the window for trend figures.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(rename_all = "camelCase", deny_unknown_fields)]
+pub struct GenerationLength {
+    /// Years.
+    pub years: f64,
+    /// Where the figure comes from.
+    pub source: String,
+}
+
+/// A straight-line relation between another length and total length for one species,
+/// written as `measure = slope × TL + intercept` (both in centimetres), with its source.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(rename_all = "camelCase", deny_unknown_fields)]
+pub struct LengthConversion {
+    /// The length the equation gives: `forkLength`, `precaudalLength` or `discWidth`.
+    pub measure: LengthKind,
+    /// Slope on total length.
+    pub slope: f64,
+    /// Intercept in centimetres.
+    pub intercept_cm: f64,
+    /// The paper the equation comes from and how it was obtained, or "common practice".
+    pub source: String,
+}
+
+/// One species (or species complex) of the checklist.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(rename_all = "camelCase", deny_unknown_fields)]
+pub struct Taxon {
+    /// Darwin Core `scientificName`, without authorship.
+    pub scientific_name: String,
+    /// Vernacular names, the preferred one first.
+    pub common_names: Vec<String>,
+    /// Darwin Core `taxonRank` of this entry.
+    pub taxon_rank: TaxonRank,
+    /// Genus.
+    pub genus: String,
+    /// Family.
+    pub family: String,
+    /// Order.
+    pub order: String,
+    /// Superorder.
+    pub superorder: String,
+    /// For each character, the states this species can show. A character left out
+    /// means "unknown": every state is allowed and the answer says nothing.
+    pub characters: BTreeMap<String, Vec<String>>,
+    /// The field guide or paper the characters come from, or "from memory".
+    pub character_source: String,
+    /// Largest known size.
+    pub max_length: MaxLength,
+    /// Area codes where the species is known to occur.
+    pub presence: Vec<String>,
+    /// How far public locations are generalised.
+    pub sensitivity: Sensitivity,
+    /// Generation length with its source.
+    pub generation_length: GenerationLength,
+    /// Whether the species is protected or may not be retained where the checklist applies.
+    pub protected: bool,
+    /// Length–length equations for this species, if any.
+    #[serde(default)]
+    pub length_conversions: Vec<LengthConversion>,
+}
+
+impl Taxon {
+    /// The name of the higher taxon at `rank` this species belongs to.
+    pub fn name_at(&self, rank: TaxonRank) -> &str {
+        match rank {
+            TaxonRank::Species => &self.scientific_name,
+            TaxonRank::Genus => &self.genus,
+            TaxonRank::Family => &self.family,
+            TaxonRank::Order => &self.order,
+            TaxonRank::Superorder => &self.superorder,
+        }
+    }
+
+    /// The equation converting `measure` to total length, if the checklist gives one.
+    pub fn conversion_for(&self, measure: LengthKind) -> Option<&LengthConversion> {
+        self.length_conversions
+            .iter()
+            .find(|c| c.measure == measure)
+    }
+}
+
+/// The file as written, before taxa are read one by one (so errors can name the taxon).
+#[derive(Deserialize)]
+#[serde(rename_all = "camelCase", deny_unknown_fields)]
+struct ChecklistFile {
+    metadata: Metadata,
+    areas: Vec<Area>,
+    characters: Vec<Character>,
+    taxa: Vec<serde_json::Value>,
+}
+
+impl Checklist {
+    /// Reads and checks a checklist.
+    ///
+    /// # Errors
+    /// A [`ChecklistError`] naming the taxon (or character) and field at fault when the
+    /// text is not JSON, does not fit the format, or refers to something it does not define.
+    pub fn from_json(json: &str) -> Result<Checklist, ChecklistError> {
+        let file: ChecklistFile = serde_json::from_str(json).map_err(ChecklistError::Format)?;
+        let taxa = file
+            .taxa
+            .into_iter()
+            .enumerate()
+            .map(|(index, value)| read_taxon(index + 1, value))
+            .collect::<Result<Vec<_>, _>>()?;
+        let checklist = Checklist {
+            metadata: file.metadata,
+            areas: file.areas,
+            characters: file.characters,
+            taxa,
+        };
+        checklist.check()?;
+        Ok(checklist)
+    }
+
+    /// What the checklist is and how far it can be trusted.
+    pub fn metadata(&self) -> &Metadata {
+        &self.metadata
+    }
+
+    /// The area codes taxa and records refer to.
+    pub fn areas(&self) -> &[Area] {
+        &self.areas
+    }
+
+    /// The characters, in the order the file gives them.
+    pub fn characters(&self) -> &[Character] {
+        &self.characters
+    }
+
+    /// The taxa, in the order the file gives them.
+    pub fn taxa(&self) -> &[Taxon] {
+        &self.taxa
+    }
+
+    /// The taxon with this scientific name, if listed.
+    pub fn taxon(&self, scientific_name: &str) -> Option<&Taxon> {
+        self.taxa
+            .iter()
+            .find(|t| t.scientific_name == scientific_name)
+    }
+
+    fn check(&self) -> Result<(), ChecklistError> {
+        if self.taxa.is_empty() {
+            return Err(ChecklistError::NoTaxa);
+        }
+        check_characters(&self.characters)?;
+        let area_codes = unique_area_codes(&self.areas)?;
+        let mut names = BTreeSet::new();
+        for taxon in &self.taxa {
+            if !names.insert(taxon.scientific_name.as_str()) {
+                return Err(ChecklistError::DuplicateTaxon(
+                    taxon.scientific_name.clone(),
+                ));
+            }
+            check_taxon_characters(taxon, &self.characters)?;
+            check_taxon_numbers(taxon)?;
+            check_taxon_sources(taxon)?;
+            check_presence(taxon, &area_codes)?;
+        }
+        Ok(())
+    }
+}
+
+fn read_taxon(position: usize, value: serde_json::Value) -> Result<Taxon, ChecklistError> {
+    let scientific_name = value
+        .get("scientificName")
+        .and_then(|name| name.as_str())
+        .unwrap_or("no scientificName")
+        .to_owned();
+    serde_json::from_value(value).map_err(|source| ChecklistError::TaxonFormat {
+        position,
+        scientific_name,
+        source,
+    })
+}
+
+fn check_characters(characters: &[Character]) -> Result<(), ChecklistError> {
+    let mut names = BTreeSet::new();
+    for character in characters {
+        if !names.insert(character.name.as_str()) {
+            return Err(ChecklistError::DuplicateCharacter(character.name.clone()));
+        }
+        if character.states.len() < 2 {
+            return Err(ChecklistError::TooFewStates(character.name.clone()));
+        }
+        if character.states.len() > 64 {
+            return Err(ChecklistError::TooManyStates(character.name.clone()));
+        }
+        let mut states = BTreeSet::new();
+        for state in &character.states {
+            if !states.insert(state.name.as_str()) {
+                return Err(ChecklistError::DuplicateState {
+                    character: character.name.clone(),
+                    state: state.name.clone(),
+                });
+            }
+        }
+    }
+    Ok(())
+}
+
+fn unique_area_codes(areas: &[Area]) -> Result<BTreeSet<&str>, ChecklistError> {
+    let mut codes = BTreeSet::new();
+    for area in areas {
+        if !codes.insert(area.code.as_str()) {
+            return Err(ChecklistError::DuplicateArea(area.code.clone()));
+        }
+    }
+    Ok(codes)
+}
+
+fn check_taxon_characters(taxon: &Taxon, characters: &[Character]) -> Result<(), ChecklistError> {
+    for (name, states) in &taxon.characters {
+        let character = characters.iter().find(|c| &c.name == name).ok_or_else(|| {
+            ChecklistError::UnknownCharacter {
+                species: taxon.scientific_name.clone(),
+                character: name.clone(),
+            }
+        })?;
+        if states.is_empty() {
+            return Err(ChecklistError::NoStates {
+                species: taxon.scientific_name.clone(),
+                character: name.clone(),
+            });
+        }
+        if let Some(state) = states
+            .iter()
+            .find(|s| !character.states.iter().any(|k| &k.name == *s))
+        {
+            return Err(ChecklistError::UnknownState {
+                species: taxon.scientific_name.clone(),
+                character: name.clone(),
+                state: state.clone(),
+            });
+        }
+    }
+    Ok(())
+}
+
+fn check_taxon_numbers(taxon: &Taxon) -> Result<(), ChecklistError> {
+    let species = &taxon.scientific_name;
+    require_positive(species, "maxLength.cm", taxon.max_length.cm)?;
+    require_positive(
+        species,
+        "generationLength.years",
+        taxon.generation_length.years,
+    )?;
+    if !matches!(
+        taxon.max_length.measure,
+        LengthKind::TotalLength | LengthKind::DiscWidth
+    ) {
+        return Err(ChecklistError::MaxLengthMeasure {
+            species: species.clone(),
+            measure: taxon.max_length.measure.code().to_owned(),
+        });
+    }
+    for conversion in &taxon.length_conversions {
+        if !matches!(
+            conversion.measure,
+            LengthKind::ForkLength | LengthKind::PrecaudalLength | LengthKind::DiscWidth
+        ) {
+            return Err(ChecklistError::ConversionMeasure {
+                species: species.clone(),
+                measure: conversion.measure.code().to_owned(),
+            });
+        }
+        require_positive(species, "lengthConversions.slope", conversion.slope)?;
+    }
+    Ok(())
+}
+
+fn require_positive(species: &str, field: &'static str, value: f64) -> Result<(), ChecklistError> {
+    if value.is_finite() && value > 0.0 {
+        Ok(())
+    } else {
+        Err(ChecklistError::NotPositive {
+            species: species.to_owned(),
+            field,
+            value,
+        })
+    }
+}
+
+fn check_taxon_sources(taxon: &Taxon) -> Result<(), ChecklistError> {
+    let sources = [
+        ("characterSource", taxon.character_source.as_str()),
+        ("maxLength.source", taxon.max_length.source.as_str()),
+        (
+            "generationLength.source",
+            taxon.generation_length.source.as_str(),
+        ),
+    ]
+    .into_iter()
+    .chain(
+        taxon
+            .length_conversions
+            .iter()
+            .map(|c| ("lengthConversions.source", c.source.as_str())),
+    );
+    for (field, source) in sources {
+        if source.trim().is_empty() {
+            return Err(ChecklistError::BlankSource {
+                species: taxon.scientific_name.clone(),
+                field,
+            });
+        }
+    }
+    Ok(())
+}
+
+fn check_presence(taxon: &Taxon, area_codes: &BTreeSet<&str>) -> Result<(), ChecklistError> {
+    match taxon
+        .presence
+        .iter()
+        .find(|code| !area_codes.contains(code.as_str()))
+    {
+        Some(code) => Err(ChecklistError::UnknownArea {
+            species: taxon.scientific_name.clone(),
+            area: code.clone(),
+        }),
+        None => Ok(()),
+    }
+}

@@ -1,0 +1,10 @@
+//! Integration tests of the species key: one binary, one module per feature.
+
+mod checklist_format;
+mod higher_taxa;
+mod lengths;
+mod questions;
+mod ranking;
+mod separation;
+mod support;
+mod tidy;

@@ -1,0 +1,61 @@
+//! `cargo xtask <task>`: everything needed to build, demo and test wrackline from a
+//! fresh machine, in plain Rust so that no extra tool has to be installed by hand.
+//!
+//! - `build [--dev]`: the app (wasm + bindings + static files + service worker) into
+//!   `target/app-dist`.
+//! - `demo [ARGS…]`: build everything, then run `wrackline demo` (ARGS go to it).
+//! - `test`: install what the tests need (wasm target, Chromium, exiftool, npm
+//!   packages), build, and run every test: Rust unit and integration tests, then the
+//!   browser tests. `ci` is the same.
+
+mod app;
+mod prerequisites;
+mod run;
+
+use std::path::PathBuf;
+
+use anyhow::{Result, bail};
+
+fn main() -> Result<()> {
+    let mut args = std::env::args().skip(1);
+    let task = args.next().unwrap_or_default();
+    let rest: Vec<String> = args.collect();
+    match task.as_str() {
+        "build" => app::build(profile(&rest)).map(|_| ()),
+        "demo" => demo(&rest),
+        "test" | "ci" => test(),
+        _ => bail!(
+            "usage: cargo xtask <build [--dev] | demo [wrackline demo options] | test | ci>\n  unknown task `{task}`"
+        ),
+    }
+}
+
+fn profile(args: &[String]) -> app::Profile {
+    if args.iter().any(|a| a == "--dev") { app::Profile::Dev } else { app::Profile::Release }
+}
+
+/// The workspace root (xtask lives one folder below it).
+pub fn root() -> PathBuf {
+    PathBuf::from(env!("CARGO_MANIFEST_DIR")).parent().expect("xtask sits inside the workspace").to_owned()
+}
+
+fn demo(args: &[String]) -> Result<()> {
+    prerequisites::wasm_target()?;
+    let dist = app::build(app::Profile::Release)?;
+    run::cargo(&["build", "--release", "-p", "wrackline-server"])?;
+    let binary = root().join("target/release/wrackline");
+    let mut command = std::process::Command::new(binary);
+    command.arg("demo").arg("--app-dir").arg(&dist).args(args);
+    run::exec(command)
+}
+
+fn test() -> Result<()> {
+    let started = std::time::Instant::now();
+    prerequisites::all()?;
+    let dist = app::build(app::Profile::Release)?;
+    run::cargo(&["test", "--workspace", "--exclude", "wrackline-app"])?;
+    run::cargo(&["build", "-p", "wrackline-server"])?;
+    run::browser_tests(&dist, &root().join("target/debug/wrackline"))?;
+    println!("xtask test: every suite passed in {:.0} s", started.elapsed().as_secs_f64());
+    Ok(())
+}
