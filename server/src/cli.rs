@@ -38,6 +38,9 @@ pub struct ServeArgs {
     /// The built app to serve (made by `cargo xtask build`).
     #[arg(long, env = "WRACKLINE_APP_DIR", default_value = "target/app-dist")]
     pub app_dir: PathBuf,
+    /// The species checklist (JSON, see species-key/README.md); the demo checklist if not given.
+    #[arg(long)]
+    pub checklist: Option<PathBuf>,
 }
 
 #[derive(Debug, clap::Args)]
@@ -75,7 +78,7 @@ fn serve(data_dir: &std::path::Path, args: ServeArgs, with_demo: bool) -> anyhow
     if app_dir.is_none() {
         eprintln!("note: no built app at {} (run `cargo xtask build`); serving the API only", args.app_dir.display());
     }
-    let state = AppState::open(data_dir, app_dir)?;
+    let state = AppState::open(data_dir, app_dir, crate::load_checklist(args.checklist.as_deref())?)?;
     let runtime = tokio::runtime::Runtime::new().context("starting the async runtime")?;
     runtime.block_on(async move {
         if with_demo {
@@ -91,7 +94,7 @@ fn serve(data_dir: &std::path::Path, args: ServeArgs, with_demo: bool) -> anyhow
 }
 
 fn export_records(data_dir: &std::path::Path, args: ExportArgs) -> anyhow::Result<()> {
-    let state = AppState::open(data_dir, None)?;
+    let state = AppState::open(data_dir, None, crate::load_checklist(None)?)?;
     let records = state.store.run_here(|conn| observations::list_records(conn))?;
     let ExportFormat::Csv = args.format;
     match &args.out {

@@ -10,6 +10,7 @@ pub mod cli;
 pub mod demo;
 pub mod error;
 pub mod export;
+pub mod flags;
 pub mod handlers;
 pub mod intake;
 pub mod router;
@@ -26,17 +27,33 @@ pub struct AppState {
     pub photos: intake::photos::PhotoFiles,
     /// Where the built app (index.html, wasm, service worker) lives, if it is served.
     pub app_dir: Option<PathBuf>,
+    /// The species checklist the key, the flags and the exports use.
+    pub checklist: std::sync::Arc<species_key::Checklist>,
+}
+
+/// The demo checklist, built in; `--checklist FILE` replaces it.
+pub const DEMO_CHECKLIST: &str = include_str!("../../demo-records/checklist.json");
+
+/// Reads a checklist file, or the built-in demo checklist when `path` is `None`.
+pub fn load_checklist(path: Option<&std::path::Path>) -> anyhow::Result<species_key::Checklist> {
+    use anyhow::Context as _;
+    let text = match path {
+        Some(path) => std::fs::read_to_string(path).with_context(|| format!("reading the checklist {}", path.display()))?,
+        None => DEMO_CHECKLIST.to_owned(),
+    };
+    let origin = path.map_or("the built-in demo checklist".to_owned(), |p| p.display().to_string());
+    species_key::Checklist::from_json(&text).with_context(|| format!("checking {origin}"))
 }
 
 impl AppState {
     /// Opens (and migrates) the database in `data_dir` and the photo folder beside it.
-    pub fn open(data_dir: &std::path::Path, app_dir: Option<PathBuf>) -> anyhow::Result<Self> {
+    pub fn open(data_dir: &std::path::Path, app_dir: Option<PathBuf>, checklist: species_key::Checklist) -> anyhow::Result<Self> {
         use anyhow::Context as _;
         std::fs::create_dir_all(data_dir)
             .with_context(|| format!("creating the data directory {}", data_dir.display()))?;
         let store = store::Store::open(&data_dir.join("wrackline.sqlite3"))?;
         let photos = intake::photos::PhotoFiles::open(&data_dir.join("photos"))?;
-        Ok(Self { store, photos, app_dir })
+        Ok(Self { store, photos, app_dir, checklist: std::sync::Arc::new(checklist) })
     }
 }
 

@@ -212,11 +212,38 @@ pub struct Submission {
     pub notes: Option<Text>,
     /// The name the observer chose to be credited with; may be empty.
     pub observer_name: Option<Text>,
+    /// What the guided key suggested and the observer picked, with the answers given.
+    /// Left out of the JSON when absent, so records made without the key keep the
+    /// same content fingerprint.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub key_choice: Option<KeyChoice>,
+}
+
+/// Ranks an observer may stop the key at (Darwin Core `taxonRank` values).
+pub const KEY_RANKS: [&str; 5] = ["species", "genus", "family", "order", "superorder"];
+
+/// The taxon an observer picked with the guided key.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct KeyChoice {
+    /// Darwin Core `scientificName` of the pick, at `taxon_rank`.
+    pub scientific_name: Text,
+    /// Darwin Core `taxonRank`: one of [`KEY_RANKS`].
+    pub taxon_rank: String,
+    /// The key's probability for the pick when it was made, 0 to 1.
+    pub probability: f64,
+    /// Character → chosen state, or `notSure`.
+    #[serde(default)]
+    pub answers: std::collections::BTreeMap<String, String>,
 }
 
 /// Refusals of a submission that are about the whole record rather than one value.
 #[derive(Debug, Clone, PartialEq, thiserror::Error)]
 pub enum SubmissionProblem {
+    #[error("key_choice.taxon_rank must be one of {KEY_RANKS:?}, got {0}")]
+    UnknownRank(String),
+    #[error("key_choice.probability must be between 0 and 1, got {0}")]
+    BadProbability(f64),
     #[error("observed_at {0} is in the future")]
     InTheFuture(DateTime<FixedOffset>),
     #[error("human_signs lists {0:?} twice")]
@@ -232,6 +259,14 @@ impl Submission {
     pub fn check(&self, now: DateTime<Utc>) -> Result<(), SubmissionProblem> {
         if self.observed_at.with_timezone(&Utc) > now + chrono::Duration::minutes(CLOCK_TOLERANCE_MINUTES) {
             return Err(SubmissionProblem::InTheFuture(self.observed_at));
+        }
+        if let Some(choice) = &self.key_choice {
+            if !KEY_RANKS.contains(&choice.taxon_rank.as_str()) {
+                return Err(SubmissionProblem::UnknownRank(choice.taxon_rank.clone()));
+            }
+            if !(0.0..=1.0).contains(&choice.probability) {
+                return Err(SubmissionProblem::BadProbability(choice.probability));
+            }
         }
         let mut signs = self.human_signs.clone();
         signs.sort();
@@ -330,6 +365,23 @@ pub struct PhotoView {
     pub exif: PhotoExif,
 }
 
+/// Something a reviewer should look at, with the reason in plain words.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct RecordFlag {
+    pub kind: FlagKind,
+    pub reason: String,
+}
+
+/// Kinds of flag raised on arrival.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, PartialOrd, Ord, Serialize, Deserialize)]
+#[serde(rename_all = "snake_case")]
+pub enum FlagKind {
+    /// The length is well over the species' known maximum.
+    Oversize,
+    /// Outside the species' known areas and far from any confirmed record of it.
+    OutOfRange,
+}
+
 /// A stored observation as the server shows it.
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 pub struct RecordView {
@@ -339,6 +391,8 @@ pub struct RecordView {
     pub review_state: ReviewState,
     pub submission: Submission,
     pub photos: Vec<PhotoView>,
+    #[serde(default)]
+    pub flags: Vec<RecordFlag>,
 }
 
 

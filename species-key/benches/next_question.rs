@@ -9,70 +9,10 @@ use std::hint::black_box;
 use std::time::{Duration, Instant};
 
 use species_key::likelihood::{answer_likelihood, entropy_bits};
-use species_key::{Answers, Checklist, Context, Key, LengthKind, Measurement};
+use species_key::{Answers, Context, Key, LengthKind, Measurement};
 
 const SPECIES: usize = 500;
 const CHARACTERS: usize = 15;
-
-/// A small deterministic generator, so every run times the same checklist.
-struct Lcg(u64);
-
-impl Lcg {
-    fn below(&mut self, bound: usize) -> usize {
-        self.0 = self
-            .0
-            .wrapping_mul(6364136223846793005)
-            .wrapping_add(1442695040888963407);
-        ((self.0 >> 33) as usize) % bound
-    }
-}
-
-fn state_count(character: usize) -> usize {
-    2 + character % 7
-}
-
-fn generated_checklist() -> Checklist {
-    let mut random = Lcg(2026);
-    let characters: Vec<serde_json::Value> = (0..CHARACTERS)
-        .map(|c| {
-            let states: Vec<_> = (0..state_count(c))
-                .map(|s| serde_json::json!({ "name": format!("s{s}"), "label": format!("state {s}") }))
-                .collect();
-            serde_json::json!({ "name": format!("c{c}"), "question": format!("character {c}?"), "states": states })
-        })
-        .collect();
-    let taxa: Vec<serde_json::Value> = (0..SPECIES)
-        .map(|i| {
-            let traits: serde_json::Map<String, serde_json::Value> = (0..CHARACTERS)
-                .map(|c| {
-                    let first = random.below(state_count(c));
-                    let mut states = vec![format!("s{first}")];
-                    if random.below(4) == 0 {
-                        states.push(format!("s{}", (first + 1) % state_count(c)));
-                    }
-                    (format!("c{c}"), serde_json::json!(states))
-                })
-                .collect();
-            serde_json::json!({
-                "scientificName": format!("Genus{} species{i}", i / 10),
-                "commonNames": [], "taxonRank": "species",
-                "genus": format!("Genus{}", i / 10), "family": format!("Family{}", i / 50),
-                "order": "Order", "superorder": "Superorder",
-                "characters": traits, "characterSource": "generated for the benchmark",
-                "maxLength": { "cm": 50.0 + (i % 40) as f64 * 10.0, "measure": "totalLength", "source": "generated" },
-                "presence": ["a"], "sensitivity": "none",
-                "generationLength": { "years": 10.0, "source": "generated" }, "protected": false
-            })
-        })
-        .collect();
-    let file = serde_json::json!({
-        "metadata": { "title": "benchmark", "region": "none", "notice": "generated, invented" },
-        "areas": [{ "code": "a", "name": "A" }],
-        "characters": characters,
-        "taxa": taxa
-    });
-    Checklist::from_json(&file.to_string()).expect("generated checklist is valid")
-}
 
 /// The naive choice: for every unanswered character and state, rank again and take
 /// the entropy; weight by the chance of that answer under the current ranking.
@@ -131,7 +71,7 @@ fn median_time(runs: usize, mut task: impl FnMut()) -> Duration {
 }
 
 fn main() {
-    let checklist = generated_checklist();
+    let checklist = species_key::synthetic::checklist(SPECIES, CHARACTERS, 2026);
     let build = median_time(11, || {
         black_box(Key::new(black_box(&checklist)));
     });

@@ -41,6 +41,20 @@ pub struct Area {
     pub code: String,
     /// A name for people.
     pub name: String,
+    /// Optional box that places a record in this area from its position:
+    /// `[west, south, east, north]` in decimal degrees (WGS84). Where boxes overlap, the
+    /// first listed area wins, so list the smaller areas first.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub bounds: Option<[f64; 4]>,
+}
+
+impl Area {
+    /// Whether the point lies inside this area's box (edges included).
+    pub fn contains(&self, latitude: f64, longitude: f64) -> bool {
+        self.bounds.is_some_and(|[west, south, east, north]| {
+            (south..=north).contains(&latitude) && (west..=east).contains(&longitude)
+        })
+    }
 }
 
 /// Something an observer can see and answer about: a question with a fixed list of states.
@@ -267,6 +281,11 @@ impl Checklist {
         &self.areas
     }
 
+    /// The first area whose box holds the point, if any.
+    pub fn area_at(&self, latitude: f64, longitude: f64) -> Option<&Area> {
+        self.areas.iter().find(|area| area.contains(latitude, longitude))
+    }
+
     /// The characters, in the order the file gives them.
     pub fn characters(&self) -> &[Character] {
         &self.characters
@@ -349,6 +368,13 @@ fn unique_area_codes(areas: &[Area]) -> Result<BTreeSet<&str>, ChecklistError> {
     for area in areas {
         if !codes.insert(area.code.as_str()) {
             return Err(ChecklistError::DuplicateArea(area.code.clone()));
+        }
+        if let Some([west, south, east, north]) = area.bounds {
+            let on_globe = (-180.0..=180.0).contains(&west) && (-180.0..=180.0).contains(&east)
+                && (-90.0..=90.0).contains(&south) && (-90.0..=90.0).contains(&north);
+            if !(on_globe && west < east && south < north) {
+                return Err(ChecklistError::BadAreaBounds(area.code.clone()));
+            }
         }
     }
     Ok(codes)

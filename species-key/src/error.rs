@@ -47,6 +47,9 @@ pub enum ChecklistError {
     /// An area code is defined twice.
     #[error("area {0}: defined more than once")]
     DuplicateArea(String),
+    /// An area's box is not `[west, south, east, north]` within the globe.
+    #[error("area {0}: bounds must be [west, south, east, north] in degrees with west < east and south < north")]
+    BadAreaBounds(String),
     /// A taxon uses a character the checklist does not define.
     #[error("{species}: characters.{character} is not a character of this checklist")]
     UnknownCharacter {

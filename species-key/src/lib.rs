@@ -52,6 +52,7 @@ mod higher_taxa;
 mod key;
 pub mod length;
 pub mod likelihood;
+pub mod synthetic;
 mod reasons;
 mod separation;
 

@@ -66,6 +66,8 @@ pub fn parse_submission(json: &[u8], now: DateTime<Utc>) -> Result<Submission, I
         field: match problem {
             shared_types::SubmissionProblem::InTheFuture(_) => "observed_at".into(),
             shared_types::SubmissionProblem::RepeatedSign(_) => "human_signs".into(),
+            shared_types::SubmissionProblem::UnknownRank(_) => "key_choice.taxon_rank".into(),
+            shared_types::SubmissionProblem::BadProbability(_) => "key_choice.probability".into(),
         },
         message: problem.to_string(),
     })?;
@@ -88,7 +90,8 @@ pub async fn accept(state: &AppState, upload: Upload, now: DateTime<Utc>) -> Res
     let stored = tokio::task::spawn_blocking(move || store_photo_files(&photo_files, upload.photos, record_offset))
         .await
         .map_err(|err| anyhow::anyhow!("photo task failed: {err}"))??;
-    let new = NewObservation { content_sha256: content_hash(&submission, &stored), submission, photos: stored };
+    let (flags, guessed_taxon) = arrival_flags(state, &submission).await?;
+    let new = NewObservation { content_sha256: content_hash(&submission, &stored), submission, photos: stored, flags, guessed_taxon };
     let client_id = new.submission.client_id;
     let outcome = state.store.run(move |conn| observations::insert_observation(conn, &new, now)).await.map_err(anyhow::Error::from)?;
     match outcome {
@@ -96,6 +99,18 @@ pub async fn accept(state: &AppState, upload: Upload, now: DateTime<Utc>) -> Res
         Insertion::Replayed(receipt) => Ok(Accepted { receipt, replayed: true }),
         Insertion::Conflict => Err(IntakeError::Conflict(client_id)),
     }
+}
+
+/// Flags for reviewers and the species' scientific name, when the record names a
+/// checklist species.
+async fn arrival_flags(state: &AppState, submission: &Submission) -> Result<(Vec<shared_types::RecordFlag>, Option<String>), IntakeError> {
+    let Some(taxon) = crate::flags::species_of(&state.checklist, submission) else {
+        return Ok((Vec::new(), None));
+    };
+    let name = taxon.scientific_name.clone();
+    let query_name = name.clone();
+    let confirmed = state.store.run(move |conn| observations::confirmed_positions(conn, &query_name)).await.map_err(anyhow::Error::from)?;
+    Ok((crate::flags::raise(&state.checklist, submission, taxon, &confirmed), Some(name)))
 }
 
 fn store_photo_files(

@@ -3,7 +3,7 @@
 
 use chrono::{DateTime, Utc};
 use rusqlite::{Connection, OptionalExtension, Transaction, params};
-use shared_types::{OffsetSource, PhotoExif, PhotoView, Receipt, RecordView, ReviewState, Submission};
+use shared_types::{FlagKind, OffsetSource, PhotoExif, PhotoView, Receipt, RecordFlag, RecordView, ReviewState, Submission};
 use uuid::Uuid;
 
 use super::StoreError;
@@ -24,6 +24,10 @@ pub struct NewObservation {
     /// SHA-256 over the submission and its photos, to tell a retry from a changed resend.
     pub content_sha256: String,
     pub photos: Vec<StoredPhoto>,
+    /// Flags raised on arrival, for reviewers.
+    pub flags: Vec<RecordFlag>,
+    /// The checklist's scientific name for the observer's guess, when it matched one.
+    pub guessed_taxon: Option<String>,
 }
 
 /// What happened to a submission.
@@ -48,9 +52,15 @@ pub fn insert_observation(conn: &mut Connection, new: &NewObservation, now: Date
     tx.execute("INSERT INTO organisms (created_at) VALUES (?1)", [&received_at])?;
     let organism_id = tx.last_insert_rowid();
     let observation_id = insert_observation_row(&tx, new, organism_id, &received_at)?;
-    insert_details(&tx, observation_id, &new.submission, &received_at)?;
+    insert_details(&tx, observation_id, new, &received_at)?;
     for (position, photo) in new.photos.iter().enumerate() {
         link_photo(&tx, observation_id, position, photo, &received_at)?;
+    }
+    for flag in &new.flags {
+        tx.execute(
+            "INSERT OR IGNORE INTO observation_flags (observation_id, kind, reason, raised_at) VALUES (?1, ?2, ?3, ?4)",
+            params![observation_id, code(&flag.kind), flag.reason, received_at],
+        )?;
     }
     tx.commit()?;
     Ok(Insertion::Created(Receipt {
@@ -112,7 +122,8 @@ fn insert_observation_row(tx: &Transaction, new: &NewObservation, organism_id: i
     Ok(tx.last_insert_rowid())
 }
 
-fn insert_details(tx: &Transaction, observation_id: i64, sub: &Submission, received_at: &str) -> Result<(), StoreError> {
+fn insert_details(tx: &Transaction, observation_id: i64, new: &NewObservation, received_at: &str) -> Result<(), StoreError> {
+    let sub = &new.submission;
     if let Some(length) = &sub.length {
         tx.execute(
             "INSERT INTO measurements (observation_id, kind, value, unit, value_cm, method) VALUES (?1, ?2, ?3, ?4, ?5, ?6)",
@@ -122,11 +133,30 @@ fn insert_details(tx: &Transaction, observation_id: i64, sub: &Submission, recei
     for sign in &sub.human_signs {
         tx.execute("INSERT INTO human_signs (observation_id, sign) VALUES (?1, ?2)", params![observation_id, code(sign)])?;
     }
-    if let Some(guess) = sub.species_guess.as_ref().filter(|g| !g.as_str().is_empty()) {
+    let observer = sub.observer_name.as_ref().map(|n| n.as_str());
+    if let Some(choice) = &sub.key_choice {
         tx.execute(
-            "INSERT INTO identifications (observation_id, taxon_name, identified_by, identified_at, basis)
-             VALUES (?1, ?2, ?3, ?4, 'observer guess')",
-            params![observation_id, guess.as_str(), sub.observer_name.as_ref().map(|n| n.as_str()), received_at],
+            "INSERT INTO identifications (observation_id, taxon_name, taxon_rank, identified_by, identified_at, remarks, basis)
+             VALUES (?1, ?2, ?3, ?4, ?5, ?6, 'observer with the guided key')",
+            params![
+                observation_id,
+                choice.scientific_name.as_str(),
+                choice.taxon_rank,
+                observer,
+                received_at,
+                format!("guided key probability {:.2}", choice.probability)
+            ],
+        )?;
+    } else if let Some(guess) = sub.species_guess.as_ref().filter(|g| !g.as_str().is_empty()) {
+        // A guess that names a checklist species is kept under its scientific name.
+        let (name, rank) = match &new.guessed_taxon {
+            Some(name) => (name.as_str(), Some("species")),
+            None => (guess.as_str(), None),
+        };
+        tx.execute(
+            "INSERT INTO identifications (observation_id, taxon_name, taxon_rank, identified_by, identified_at, remarks, basis)
+             VALUES (?1, ?2, ?3, ?4, ?5, ?6, 'observer guess')",
+            params![observation_id, name, rank, observer, received_at, format!("as typed: {}", guess.as_str())],
         )?;
     }
     Ok(())
@@ -206,7 +236,30 @@ fn finish_record(conn: &Connection, (id, organism_id, received_at, state, json):
             .ok_or_else(|| StoreError::Corrupt(format!("observation {id}: unknown review state {state}")))?,
         submission,
         photos: photos_of(conn, id)?,
+        flags: flags_of(conn, id)?,
     })
+}
+
+fn flags_of(conn: &Connection, observation_id: i64) -> Result<Vec<RecordFlag>, StoreError> {
+    let mut stmt = conn.prepare("SELECT kind, reason FROM observation_flags WHERE observation_id = ?1 ORDER BY kind")?;
+    let rows = stmt.query_map([observation_id], |row| Ok((row.get::<_, String>(0)?, row.get::<_, String>(1)?)))?;
+    rows.map(|row| {
+        let (kind, reason) = row?;
+        let kind = from_code::<FlagKind>(&kind).ok_or_else(|| StoreError::Corrupt(format!("observation {observation_id}: unknown flag {kind}")))?;
+        Ok(RecordFlag { kind, reason })
+    })
+    .collect()
+}
+
+/// Positions of confirmed records whose current identification is `scientific_name`.
+pub fn confirmed_positions(conn: &Connection, scientific_name: &str) -> Result<Vec<(f64, f64)>, StoreError> {
+    let mut stmt = conn.prepare(
+        "SELECT o.latitude, o.longitude FROM observations o
+         JOIN identifications i ON i.observation_id = o.id AND i.superseded_by IS NULL
+         WHERE o.review_state = 'confirmed' AND i.taxon_name = ?1 AND o.latitude IS NOT NULL AND o.longitude IS NOT NULL",
+    )?;
+    let rows = stmt.query_map([scientific_name], |row| Ok((row.get(0)?, row.get(1)?)))?;
+    Ok(rows.collect::<Result<Vec<_>, _>>()?)
 }
 
 fn photos_of(conn: &Connection, observation_id: i64) -> Result<Vec<PhotoView>, StoreError> {

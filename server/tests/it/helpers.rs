@@ -21,7 +21,8 @@ pub async fn spawn_app() -> TestApp {
 pub async fn spawn_app_with(app_dir: Option<PathBuf>) -> TestApp {
     let dir = tempfile::tempdir().expect("temp dir");
     let data_dir = dir.path().join("data");
-    let state = AppState::open(&data_dir, app_dir).expect("open state");
+    let checklist = wrackline_server::load_checklist(None).expect("demo checklist");
+    let state = AppState::open(&data_dir, app_dir, checklist).expect("open state");
     let listener = tokio::net::TcpListener::bind("127.0.0.1:0").await.expect("bind");
     let base = format!("http://{}", listener.local_addr().unwrap());
     tokio::spawn(async move { axum::serve(listener, wrackline_server::app(state)).await.unwrap() });

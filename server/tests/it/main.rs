@@ -3,6 +3,7 @@
 
 mod cli;
 mod exif;
+mod flags;
 mod helpers;
 mod routes;
 mod submissions;

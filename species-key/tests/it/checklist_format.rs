@@ -216,3 +216,24 @@ fn a_character_with_one_state_is_refused() {
 fn text_that_is_not_json_is_refused() {
     assert!(Checklist::from_json("{ not json").is_err());
 }
+
+#[test]
+fn a_position_is_placed_in_the_first_area_whose_box_holds_it() {
+    let checklist = demo_checklist();
+    // Aberystwyth harbour (52.41 N, 4.09 W) lies in Cardigan Bay; Douglas, Isle of Man
+    // (54.15 N, 4.48 W) in the Irish Sea; Bergen (60.39 N, 5.32 E) in the North Sea box;
+    // the middle of the North Atlantic in none (positions from memory).
+    let code = |lat: f64, lon: f64| checklist.area_at(lat, lon).map(|a| a.code.clone());
+    assert_eq!(code(52.41, -4.09).as_deref(), Some("cardigan-bay"));
+    assert_eq!(code(54.15, -4.48).as_deref(), Some("irish-sea"));
+    assert_eq!(code(60.39, 5.32).as_deref(), Some("north-sea"));
+    assert_eq!(code(40.0, -40.0), None);
+}
+
+#[test]
+fn an_area_box_the_wrong_way_round_is_refused() {
+    let mut value = tiny_checklist_value();
+    value["areas"][0]["bounds"] = serde_json::json!([-3.0, 52.0, -5.0, 53.0]);
+    let err = Checklist::from_json(&value.to_string()).unwrap_err().to_string();
+    assert!(err.contains("bounds must be [west, south, east, north]"), "{err}");
+}
