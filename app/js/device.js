@@ -119,3 +119,10 @@ export async function sendRecord(url, json, blobs) {
   const response = await fetch(url, { method: 'POST', body: form });
   return { status: response.status, body: await response.text() };
 }
+
+// GETs a URL's text; rejects when no answer came or the status is not 2xx.
+export async function fetchText(url) {
+  const response = await fetch(url);
+  if (!response.ok) throw new Error(`${url} answered ${response.status}`);
+  return await response.text();
+}

@@ -22,6 +22,8 @@ extern "C" {
     fn storage_estimate_js() -> js_sys::Promise;
     #[wasm_bindgen(js_name = currentPosition)]
     fn current_position_js() -> js_sys::Promise;
+    #[wasm_bindgen(js_name = fetchText)]
+    fn fetch_text_js(url: &str) -> js_sys::Promise;
     #[wasm_bindgen(js_name = sendRecord)]
     fn send_record_js(url: &str, json: &str, blobs: js_sys::Array) -> js_sys::Promise;
 }
@@ -105,4 +107,9 @@ pub async fn send_record(url: &str, json: &str, photos: &[web_sys::Blob]) -> Res
     let blobs = photos.iter().map(JsValue::from).collect::<js_sys::Array>();
     let value = wait(send_record_js(url, json, blobs)).await?;
     serde_wasm_bindgen::from_value(value).map_err(|err| err.to_string())
+}
+
+/// The body of a GET, when the server answered 2xx.
+pub async fn fetch_text(url: &str) -> Result<String, String> {
+    wait(fetch_text_js(url)).await?.as_string().ok_or_else(|| "not text".to_owned())
 }

@@ -6,13 +6,14 @@
 use chrono::{FixedOffset, NaiveDateTime, TimeZone};
 use leptos::prelude::*;
 use shared_types::{
-    AccuracyM, Condition, Count, HumanSign, Latitude, Length, LengthKind, LengthUnit, LengthValue, Longitude,
+    AccuracyM, Condition, Count, HumanSign, KeyChoice, Latitude, Length, LengthKind, LengthUnit, LengthValue, Longitude,
     MeasureMethod, Position, PositionSource, Setting, Sex, Submission, Text,
 };
 use uuid::Uuid;
 use wasm_bindgen::JsCast;
 
 use crate::device;
+use crate::key::{self, KeyPanel};
 use crate::outbox::{self, Entry, SyncState};
 use crate::sync::{self, SyncStatus};
 
@@ -45,6 +46,8 @@ pub struct FormFields {
     pub human_signs: Vec<HumanSign>,
     pub notes: String,
     pub observer_name: String,
+    /// The guided key's pick, kept only while the species field still shows it.
+    pub key_choice: Option<KeyChoice>,
 }
 
 fn optional_text(label: &str, text: &str, problems: &mut Vec<String>) -> Option<Text> {
@@ -111,6 +114,7 @@ impl FormFields {
             human_signs: self.human_signs.clone(),
             notes,
             observer_name,
+            key_choice: self.key_choice.clone(),
         })
     }
 
@@ -227,6 +231,9 @@ pub fn RecordForm(entries: RwSignal<Vec<Entry>>, status: RwSignal<SyncStatus>) -
     let problems = RwSignal::new(Vec::<String>::new());
     let position_note = RwSignal::new(String::new());
     let saved_note = RwSignal::new(String::new());
+    let species_key = RwSignal::new(key::initial_key());
+    let key_open = RwSignal::new(false);
+    key::refresh_from_server(species_key);
     locate(fields, position_note);
 
     let save = move |state: SyncState| {
@@ -258,6 +265,7 @@ pub fn RecordForm(entries: RwSignal<Vec<Entry>>, status: RwSignal<SyncStatus>) -
                     remember_name(&fields.with_untracked(|f| f.observer_name.clone()));
                     saved_note.set(if waiting { "Saved on this phone; it will be sent when there is a connection.".into() } else { "Saved as a draft on this phone.".into() });
                     fields.set(FormFields::fresh(remembered_name()));
+                    key_open.set(false);
                     photos.set(Vec::new());
                     client_id.set(Uuid::new_v4());
                     locate(fields, position_note);
@@ -329,7 +337,16 @@ pub fn RecordForm(entries: RwSignal<Vec<Entry>>, status: RwSignal<SyncStatus>) -
                 <legend>"What"</legend>
                 <label>"Species (your best guess)"
                     <input id="species" placeholder="e.g. small-spotted catshark" prop:value=move || fields.with(|f| f.species_guess.clone())
-                        on:input=move |ev| fields.update(|f| f.species_guess = event_target_value(&ev)) /></label>
+                        on:input=move |ev| fields.update(|f| { f.species_guess = event_target_value(&ev); f.key_choice = None; }) /></label>
+                {move || fields.with(|f| f.key_choice.as_ref().map(|c| view! {
+                    <p id="key-choice" class="hint">{format!("Picked with the key: {} ({}, {:.0}%)", c.scientific_name.as_str(), c.taxon_rank, c.probability * 100.0)}</p>
+                }))}
+                <button id="open-key" type="button" class="small" on:click=move |_| key_open.update(|o| *o = !*o)>
+                    {move || if key_open.get() { "Hide the key" } else { "Help me identify" }}
+                </button>
+                <Show when=move || key_open.get()>
+                    <KeyPanel key=species_key fields=fields open=key_open />
+                </Show>
                 <div class="row">
                     <label>"Length" <input id="length" inputmode="decimal" prop:value=move || fields.with(|f| f.length_value.clone())
                         on:input=move |ev| fields.update(|f| f.length_value = event_target_value(&ev)) /></label>

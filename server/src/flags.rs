@@ -8,7 +8,7 @@
 //! estimate; "far" is more than 50 km from every confirmed record.
 
 use geo::{Distance, Geodesic, Point};
-use shared_types::{FlagKind, LengthKind, RecordFlag, Submission};
+use shared_types::{FlagKind, RecordFlag, Submission};
 use species_key::{Checklist, Measurement, Taxon, TaxonRank};
 
 /// A taped length this many times the species' maximum is flagged.
@@ -37,20 +37,10 @@ pub fn raise(checklist: &Checklist, submission: &Submission, taxon: &Taxon, conf
     [oversize(submission, taxon), out_of_range(checklist, submission, taxon, confirmed)].into_iter().flatten().collect()
 }
 
-fn key_length_kind(kind: LengthKind) -> species_key::LengthKind {
-    match kind {
-        LengthKind::Total => species_key::LengthKind::TotalLength,
-        LengthKind::Fork => species_key::LengthKind::ForkLength,
-        LengthKind::Precaudal => species_key::LengthKind::PrecaudalLength,
-        LengthKind::DiscWidth => species_key::LengthKind::DiscWidth,
-        LengthKind::DiscLength => species_key::LengthKind::DiscLength,
-    }
-}
-
 fn oversize(submission: &Submission, taxon: &Taxon) -> Option<RecordFlag> {
     let length = submission.length?;
     let estimated = length.method == shared_types::MeasureMethod::Estimated;
-    let measurement = Measurement { kind: key_length_kind(length.kind), cm: length.value.centimetres(), estimated };
+    let measurement = Measurement { kind: length.kind.key_kind(), cm: length.value.centimetres(), estimated };
     let comparable = species_key::length::comparable_length(&measurement, taxon)?;
     let maximum = taxon.max_length.cm;
     let factor = if estimated { OVERSIZE_ESTIMATED } else { OVERSIZE_MEASURED };

@@ -1,7 +1,8 @@
 //! The vocabulary the phone and the server both speak: what an observer submits,
 //! what the server answers, and the checked values inside them.
 //!
-//! Pure Rust: no HTTP, no SQL, no DOM. Everything here runs unchanged natively and in
+//! The species key (`species-key`) is part of this vocabulary: the length kinds map onto
+//! its own. Pure Rust: no HTTP, no SQL, no DOM. Everything here runs unchanged natively and in
 //! the browser, so the app and the server validate a record with the same code.
 
 pub mod record;

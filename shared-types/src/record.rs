@@ -47,6 +47,17 @@ impl LengthKind {
     pub const ALL: [LengthKind; 5] =
         [Self::Total, Self::Fork, Self::Precaudal, Self::DiscWidth, Self::DiscLength];
 
+    /// The same kind in the species key's terms.
+    pub fn key_kind(self) -> species_key::LengthKind {
+        match self {
+            Self::Total => species_key::LengthKind::TotalLength,
+            Self::Fork => species_key::LengthKind::ForkLength,
+            Self::Precaudal => species_key::LengthKind::PrecaudalLength,
+            Self::DiscWidth => species_key::LengthKind::DiscWidth,
+            Self::DiscLength => species_key::LengthKind::DiscLength,
+        }
+    }
+
     /// The plain name, as used in exports (measurementType).
     pub fn label(self) -> &'static str {
         match self {

@@ -29,7 +29,7 @@ pub fn build(profile: Profile) -> Result<PathBuf> {
         Profile::Release => ("wasm-release", "wasm-release"),
     };
     run::cargo(&["build", "-p", "wrackline-app", "--target", "wasm32-unknown-unknown", "--profile", cargo_profile])?;
-    let wasm = root().join("target/wasm32-unknown-unknown").join(folder).join("wrackline-app.wasm");
+    let wasm = root().join("target/wasm32-unknown-unknown").join(folder).join("wrackline_app.wasm");
     let dist = root().join("target/app-dist");
     if dist.exists() {
         fs::remove_dir_all(&dist).with_context(|| format!("clearing {}", dist.display()))?;

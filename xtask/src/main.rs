@@ -7,6 +7,8 @@
 //! - `test`: install what the tests need (wasm target, Chromium, exiftool, npm
 //!   packages), build, and run every test: Rust unit and integration tests, then the
 //!   browser tests. `ci` is the same.
+//! - `bench`: the benchmarks, each printing ratios against a baseline measured in the
+//!   same run (never timed tests: machines here are shared and noisy).
 
 mod app;
 mod prerequisites;
@@ -24,8 +26,9 @@ fn main() -> Result<()> {
         "build" => app::build(profile(&rest)).map(|_| ()),
         "demo" => demo(&rest),
         "test" | "ci" => test(),
+        "bench" => bench(),
         _ => bail!(
-            "usage: cargo xtask <build [--dev] | demo [wrackline demo options] | test | ci>\n  unknown task `{task}`"
+            "usage: cargo xtask <build [--dev] | demo [wrackline demo options] | test | ci | bench>\n  unknown task `{task}`"
         ),
     }
 }
@@ -58,4 +61,13 @@ fn test() -> Result<()> {
     run::browser_tests(&dist, &root().join("target/debug/wrackline"))?;
     println!("xtask test: every suite passed in {:.0} s", started.elapsed().as_secs_f64());
     Ok(())
+}
+
+fn bench() -> Result<()> {
+    prerequisites::all()?;
+    run::cargo(&["bench", "-p", "species-key", "--bench", "next_question"])?;
+    run::cargo(&["bench", "-p", "analysis", "--bench", "range"])?;
+    let dist = app::build(app::Profile::Release)?;
+    run::cargo(&["build", "--release", "-p", "wrackline-server"])?;
+    run::browser_script("bench_key.mjs", &dist, &root().join("target/release/wrackline"))
 }

@@ -32,17 +32,33 @@ pub fn exec(mut command: Command) -> Result<()> {
     std::process::exit(status.code().unwrap_or(1));
 }
 
-/// The browser tests: node's test runner over `tests/browser`, against the real
-/// server binary and the built app.
-pub fn browser_tests(dist: &Path, server: &Path) -> Result<()> {
-    let folder = root().join("tests/browser");
+/// The browser test files, run in this order.
+const BROWSER_TESTS: &[&str] = &["offline_capture.test.mjs", "species_key.test.mjs"];
+
+/// `node` with what the browser tests and scripts need to find: the real server
+/// binary, the built app and the demo files.
+fn node(dist: &Path, server: &Path) -> Command {
     let mut command = Command::new("node");
     command
-        .arg("--test")
-        .arg("--test-concurrency=1")
-        .arg(folder.join("offline_capture.test.mjs"))
         .env("WRACKLINE_BIN", server)
         .env("WRACKLINE_APP_DIR", dist)
-        .env("WRACKLINE_DEMO_PHOTOS", root().join("demo-records/photos"));
+        .env("WRACKLINE_DEMO_PHOTOS", root().join("demo-records/photos"))
+        .env("WRACKLINE_CHECKLIST", root().join("demo-records/checklist.json"));
+    command
+}
+
+/// The browser tests: node's test runner over `tests/browser`.
+pub fn browser_tests(dist: &Path, server: &Path) -> Result<()> {
+    let folder = root().join("tests/browser");
+    let mut command = node(dist, server);
+    command.arg("--test").arg("--test-concurrency=1");
+    command.args(BROWSER_TESTS.iter().map(|file| folder.join(file)));
+    check(command)
+}
+
+/// One script from `tests/browser` (a benchmark), run to the end.
+pub fn browser_script(file: &str, dist: &Path, server: &Path) -> Result<()> {
+    let mut command = node(dist, server);
+    command.arg(root().join("tests/browser").join(file));
     check(command)
 }

@@ -3,16 +3,23 @@
 //!
 //! Modules: [`device`] (browser storage, position, upload, via `js/device.js`),
 //! [`outbox`] (what the phone keeps and each record's sync state), [`sync`] (sending,
-//! retries with backoff), [`form`] (the record form), [`screens`] (the page around it).
+//! retries with backoff), [`form`] (the record form), [`key`] (the guided species key
+//! and its [`pictures`]), [`screens`] (the page around it).
 //! The app never decides what the server decides: it shows the server's receipts.
 
 mod device;
 mod form;
+mod key;
 mod outbox;
+mod pictures;
 mod screens;
 mod sync;
 
-fn main() {
+pub use key::bench_next_question;
+
+/// Runs when the module is loaded: mounts the app.
+#[wasm_bindgen::prelude::wasm_bindgen(start)]
+pub fn start() {
     console_error_panic_hook_lite();
     leptos::mount::mount_to_body(screens::App);
 }
