@@ -180,6 +180,37 @@ fn ray_tail(spine: bool) -> String {
     svg(&content)
 }
 
+/// A head seen from above, or a ray's disc with its head.
+fn head_from_above(state: &str) -> Option<String> {
+    let head = match state {
+        "pointed" => "M60 4 L84 40 L84 58 L36 58 L36 40 Z",
+        "rounded" => "M36 58 L36 30 Q36 6 60 6 Q84 6 84 30 L84 58 Z",
+        "flatWide" => "M14 30 Q14 14 60 14 Q106 14 106 30 L84 40 L84 58 L36 58 L36 40 Z",
+        "inDisc" => "M60 6 L104 34 L60 56 L16 34 Z",
+        "standsOut" => "M52 18 Q60 4 68 18 L104 38 L60 56 L16 38 Z",
+        "hornFlaps" => "M44 6 L50 20 L70 20 L76 6 L80 22 L110 38 L60 56 L10 38 L40 22 Z",
+        _ => return None,
+    };
+    Some(svg(&format!(r##"<path d="{head}" fill="{BODY}"/><path d="{head}" fill="none" stroke="{MARK}" stroke-width="2"/>"##)))
+}
+
+/// A shark's head from the side: snout length and where the mouth is.
+fn head_from_side(snout_tip: u32, mouth_at_front: bool) -> String {
+    let mouth = if mouth_at_front {
+        format!(r#"<path d="M{snout_tip} 33 L{} 35" stroke="{MARK}" stroke-width="3"/>"#, snout_tip + 14)
+    } else {
+        format!(r#"<path d="M{} 40 Q{} 44 {} 40" stroke="{MARK}" stroke-width="3" fill="none"/>"#, snout_tip + 22, snout_tip + 30, snout_tip + 38)
+    };
+    svg(&format!(
+        r##"<path d="M{snout_tip} 32 Q{} 22 {} 20 L118 16 L118 50 L{} 46 Q{} 42 {snout_tip} 32 Z" fill="{BODY}"/><circle cx="{}" cy="28" r="2.2" fill="#1b2428"/>{mouth}"##,
+        snout_tip + 12,
+        snout_tip + 34,
+        snout_tip + 34,
+        snout_tip + 12,
+        snout_tip + 30,
+    ))
+}
+
 /// The picture for one state of one character, if there is one.
 pub fn picture(character: &str, state: &str) -> Option<String> {
     let with = |side: Side| Some(side_view(side));
@@ -225,6 +256,11 @@ pub fn picture(character: &str, state: &str) -> Option<String> {
             with(Side { tail, highlight: Part::Tail, ..PLAIN_SHARK })
         }
         ("tailSpine", s) => Some(ray_tail(s == "present")),
+        ("headShape", s) => head_from_above(s),
+        ("snout", "long") => Some(head_from_side(2, false)),
+        ("snout", "medium") => Some(head_from_side(14, false)),
+        ("snout", "short") => Some(head_from_side(26, false)),
+        ("mouthPosition", s) => Some(head_from_side(14, s == "atFront")),
         ("markings", s) => markings(s),
         ("colour" | "undersideColour", s) => colour_swatch(s),
         _ => None,
