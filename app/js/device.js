@@ -5,7 +5,7 @@
 // fetches and reports.
 
 const DB_NAME = 'wrackline';
-const DB_VERSION = 1;
+const DB_VERSION = 2;
 
 function request(req) {
   return new Promise((resolve, reject) => {
@@ -29,12 +29,18 @@ function db() {
       return Promise.reject(new Error('this browser offers no offline storage (IndexedDB)'));
     }
     const req = indexedDB.open(DB_NAME, DB_VERSION);
-    req.onupgradeneeded = () => {
+    req.onupgradeneeded = (event) => {
       const d = req.result;
-      // One row per record: {id, json}; one row per photo: {record_id, position, blob}.
-      d.createObjectStore('entries', { keyPath: 'id' });
-      const photos = d.createObjectStore('photos', { keyPath: ['record_id', 'position'] });
-      photos.createIndex('by_record', 'record_id');
+      // Version 1: one row per record {id, json}; one row per photo {record_id, position, blob}.
+      if (event.oldVersion < 1) {
+        d.createObjectStore('entries', { keyPath: 'id' });
+        const photos = d.createObjectStore('photos', { keyPath: ['record_id', 'position'] });
+        photos.createIndex('by_record', 'record_id');
+      }
+      // Version 2: one row per survey walk {id, json}.
+      if (event.oldVersion < 2) {
+        d.createObjectStore('walks', { keyPath: 'id' });
+      }
     };
     opened = request(req);
   }
@@ -125,4 +131,43 @@ export async function fetchText(url) {
   const response = await fetch(url);
   if (!response.ok) throw new Error(`${url} answered ${response.status}`);
   return await response.text();
+}
+
+// Saves a survey walk's JSON.
+export async function saveWalk(id, json) {
+  const d = await db();
+  const tx = d.transaction('walks', 'readwrite');
+  tx.objectStore('walks').put({ id, json });
+  await done(tx);
+}
+
+// Every walk's JSON text.
+export async function listWalks() {
+  const d = await db();
+  const rows = await request(d.transaction('walks').objectStore('walks').getAll());
+  return rows.map((row) => row.json);
+}
+
+// Follows the device's position, calling `onFix({latitude, longitude, accuracy, at})`
+// (at in milliseconds since 1970) or `onError(message)`; returns the id to stop with.
+export function watchPosition(onFix, onError) {
+  if (!navigator.geolocation) {
+    onError('this device offers no position');
+    return -1;
+  }
+  return navigator.geolocation.watchPosition(
+    (p) => onFix({ latitude: p.coords.latitude, longitude: p.coords.longitude, accuracy: p.coords.accuracy, at: p.timestamp }),
+    (err) => onError(err.message || 'position unavailable'),
+    { enableHighAccuracy: true, maximumAge: 5000, timeout: 60000 },
+  );
+}
+
+export function stopWatching(id) {
+  if (id >= 0 && navigator.geolocation) navigator.geolocation.clearWatch(id);
+}
+
+// Sends JSON with `method`; resolves to {status, body}, rejects only when no answer came.
+export async function sendJson(method, url, json) {
+  const response = await fetch(url, { method, headers: { 'content-type': 'application/json' }, body: json });
+  return { status: response.status, body: await response.text() };
 }

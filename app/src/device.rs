@@ -22,6 +22,16 @@ extern "C" {
     fn storage_estimate_js() -> js_sys::Promise;
     #[wasm_bindgen(js_name = currentPosition)]
     fn current_position_js() -> js_sys::Promise;
+    #[wasm_bindgen(js_name = saveWalk)]
+    fn save_walk_js(id: &str, json: &str) -> js_sys::Promise;
+    #[wasm_bindgen(js_name = listWalks)]
+    fn list_walks_js() -> js_sys::Promise;
+    #[wasm_bindgen(js_name = watchPosition)]
+    fn watch_position_js(on_fix: &js_sys::Function, on_error: &js_sys::Function) -> i32;
+    #[wasm_bindgen(js_name = stopWatching)]
+    fn stop_watching_js(id: i32);
+    #[wasm_bindgen(js_name = sendJson)]
+    fn send_json_js(method: &str, url: &str, json: &str) -> js_sys::Promise;
     #[wasm_bindgen(js_name = fetchText)]
     fn fetch_text_js(url: &str) -> js_sys::Promise;
     #[wasm_bindgen(js_name = sendRecord)]
@@ -112,4 +122,48 @@ pub async fn send_record(url: &str, json: &str, photos: &[web_sys::Blob]) -> Res
 /// The body of a GET, when the server answered 2xx.
 pub async fn fetch_text(url: &str) -> Result<String, String> {
     wait(fetch_text_js(url)).await?.as_string().ok_or_else(|| "not text".to_owned())
+}
+
+pub async fn save_walk(id: &str, json: &str) -> Result<(), String> {
+    wait(save_walk_js(id, json)).await.map(|_| ())
+}
+
+pub async fn list_walks() -> Result<Vec<String>, String> {
+    let list: js_sys::Array = wait(list_walks_js()).await?.unchecked_into();
+    Ok(list.iter().filter_map(|v| v.as_string()).collect())
+}
+
+/// A fix from following the position; `at` is milliseconds since 1970.
+#[derive(Debug, Clone, Copy, Deserialize)]
+pub struct TimedFix {
+    pub latitude: f64,
+    pub longitude: f64,
+    pub accuracy: f64,
+    pub at: f64,
+}
+
+/// Follows the position until [`stop_watching`] is called with the returned id.
+pub fn watch_position(on_fix: impl Fn(TimedFix) + 'static, on_error: impl Fn(String) + 'static) -> i32 {
+    let fix = wasm_bindgen::closure::Closure::<dyn Fn(JsValue)>::new(move |value: JsValue| {
+        if let Ok(fix) = serde_wasm_bindgen::from_value::<TimedFix>(value) {
+            on_fix(fix);
+        }
+    });
+    let error = wasm_bindgen::closure::Closure::<dyn Fn(JsValue)>::new(move |value: JsValue| on_error(message(value)));
+    let id = watch_position_js(fix.as_ref().unchecked_ref(), error.as_ref().unchecked_ref());
+    // The browser holds the callbacks until the watch is cleared; a walk is rare
+    // enough that keeping them for the page's life costs nothing.
+    fix.forget();
+    error.forget();
+    id
+}
+
+pub fn stop_watching(id: i32) {
+    stop_watching_js(id);
+}
+
+/// Sends JSON; `Err` means no answer arrived.
+pub async fn send_json(method: &str, url: &str, json: &str) -> Result<Answer, String> {
+    let value = wait(send_json_js(method, url, json)).await?;
+    serde_wasm_bindgen::from_value(value).map_err(|err| err.to_string())
 }

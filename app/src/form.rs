@@ -15,7 +15,8 @@ use wasm_bindgen::JsCast;
 use crate::device;
 use crate::key::{self, KeyPanel};
 use crate::outbox::{self, Entry, SyncState};
-use crate::sync::{self, SyncStatus};
+use crate::sync::{self, Outbox};
+use crate::walks::WalkState;
 
 /// The serde code of a plain enum, used as an `<option>` value.
 pub fn code<T: serde::Serialize>(value: &T) -> String {
@@ -115,6 +116,7 @@ impl FormFields {
             notes,
             observer_name,
             key_choice: self.key_choice.clone(),
+            walk_client_id: None,
         })
     }
 
@@ -224,7 +226,7 @@ fn locate(fields: RwSignal<FormFields>, note: RwSignal<String>) {
 /// The form. Saving puts the record (and its photos) in the outbox first; sending
 /// happens afterwards, whatever the signal.
 #[component]
-pub fn RecordForm(entries: RwSignal<Vec<Entry>>, status: RwSignal<SyncStatus>) -> impl IntoView {
+pub fn RecordForm(outbox: Outbox) -> impl IntoView {
     let fields = RwSignal::new(FormFields::fresh(remembered_name()));
     let photos = RwSignal::new_local(Vec::<web_sys::File>::new());
     let client_id = RwSignal::new(Uuid::new_v4());
@@ -238,7 +240,11 @@ pub fn RecordForm(entries: RwSignal<Vec<Entry>>, status: RwSignal<SyncStatus>) -
 
     let save = move |state: SyncState| {
         let submission = match fields.with(|f| f.to_submission(client_id.get())) {
-            Ok(s) => s,
+            // A record made while a walk goes on belongs to it.
+            Ok(s) => Submission {
+                walk_client_id: outbox.walks.with_untracked(|w| w.iter().find(|e| e.state == WalkState::Walking).map(|e| e.client_id)),
+                ..s
+            },
             Err(list) => {
                 problems.set(list);
                 return;
@@ -259,7 +265,7 @@ pub fn RecordForm(entries: RwSignal<Vec<Entry>>, status: RwSignal<SyncStatus>) -
                 }
             }
             let waiting = state == SyncState::Waiting;
-            let entry = Entry { submission, sync: state, photo_count: blobs.len(), last_error: None };
+            let entry = Entry { submission, sync: state, photo_count: blobs.len(), last_error: None, walk_link_pending: None };
             match outbox::save(&entry, Some(&blobs)).await {
                 Ok(()) => {
                     remember_name(&fields.with_untracked(|f| f.observer_name.clone()));
@@ -269,9 +275,9 @@ pub fn RecordForm(entries: RwSignal<Vec<Entry>>, status: RwSignal<SyncStatus>) -
                     photos.set(Vec::new());
                     client_id.set(Uuid::new_v4());
                     locate(fields, position_note);
-                    sync::refresh(entries).await;
+                    sync::refresh(outbox).await;
                     if waiting {
-                        sync::request(entries, status);
+                        sync::request(outbox);
                     }
                 }
                 // Nothing is cleared: the observer can free space and save again.

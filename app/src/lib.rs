@@ -4,7 +4,8 @@
 //! Modules: [`device`] (browser storage, position, upload, via `js/device.js`),
 //! [`outbox`] (what the phone keeps and each record's sync state), [`sync`] (sending,
 //! retries with backoff), [`form`] (the record form), [`key`] (the guided species key
-//! and its [`pictures`]), [`screens`] (the page around it).
+//! and its [`pictures`]), [`walks`] (survey walks and their tracks),
+//! [`screens`] (the page around it).
 //! The app never decides what the server decides: it shows the server's receipts.
 
 mod device;
@@ -14,6 +15,7 @@ mod outbox;
 mod pictures;
 mod screens;
 mod sync;
+mod walks;
 
 pub use key::bench_next_question;
 

@@ -58,6 +58,9 @@ pub struct Entry {
     /// The last failed attempt's reason, shown while it waits.
     #[serde(default)]
     pub last_error: Option<String>,
+    /// A walk to link this record to, chosen after the record reached the server.
+    #[serde(default)]
+    pub walk_link_pending: Option<uuid::Uuid>,
 }
 
 impl Entry {

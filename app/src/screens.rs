@@ -8,7 +8,8 @@ use wasm_bindgen::closure::Closure;
 use crate::device;
 use crate::form::RecordForm;
 use crate::outbox::{self, Entry, SyncState};
-use crate::sync::{self, SyncStatus};
+use crate::sync::{self, Outbox, SyncStatus};
+use crate::walks::{self, WalkBar, WalkEntry, WalkState};
 
 const SAFETY_KEY: &str = "wrackline.safety-read";
 
@@ -45,25 +46,37 @@ fn on_connection_change(act: impl Fn(bool) + 'static) {
 #[component]
 pub fn App() -> impl IntoView {
     let safety_read = RwSignal::new(local_flag(SAFETY_KEY));
-    let entries = RwSignal::new(Vec::<Entry>::new());
-    let status = RwSignal::new(SyncStatus::default());
+    let outbox = Outbox {
+        entries: RwSignal::new(Vec::<Entry>::new()),
+        walks: RwSignal::new(Vec::<WalkEntry>::new()),
+        status: RwSignal::new(SyncStatus::default()),
+    };
     let online = RwSignal::new(online_now());
     let storage_problem = RwSignal::new(None::<String>);
+    let walk_note = RwSignal::new(String::new());
 
     leptos::task::spawn_local(async move {
         device::request_persistence().await;
-        match outbox::load_all().await {
-            Ok(list) => entries.set(list),
-            Err(err) => storage_problem.set(Some(err)),
+        let loaded = async {
+            outbox.entries.set(outbox::load_all().await?);
+            outbox.walks.set(walks::load_all().await?);
+            Ok::<(), String>(())
+        };
+        if let Err(err) = loaded.await {
+            storage_problem.set(Some(err));
+        }
+        // A walk still going on when the page was closed goes on being followed.
+        if outbox.walks.with_untracked(|w| w.iter().any(|e| e.state == WalkState::Walking)) {
+            walks::follow(outbox, walk_note);
         }
         if online_now() {
-            sync::request(entries, status);
+            sync::request(outbox);
         }
     });
     on_connection_change(move |is_online| {
         online.set(is_online);
         if is_online {
-            sync::request(entries, status);
+            sync::request(outbox);
         }
     });
 
@@ -79,8 +92,9 @@ pub fn App() -> impl IntoView {
                 <p class="problems" role="alert">{format!("Offline storage is not working: {p}. Records cannot be kept on this phone.")}</p>
             })}
             <Show when=move || safety_read.get() fallback=move || view! { <SafetyCautions on_read=move || { set_local_flag(SAFETY_KEY); safety_read.set(true); } /> }>
-                <RecordForm entries=entries status=status />
-                <Outbox entries=entries status=status />
+                <WalkBar outbox=outbox />
+                <RecordForm outbox=outbox />
+                <OnThisPhone outbox=outbox />
                 <details class="safety-again"><summary>"Safety reminders"</summary><SafetyText /></details>
             </Show>
         </main>
@@ -120,30 +134,47 @@ fn entry_summary(entry: &Entry) -> String {
     format!("{what}{length} · {} · {} photo(s)", sub.observed_at.format("%Y-%m-%d %H:%M"), entry.photo_count)
 }
 
+/// Puts a record on a walk: inside the submission while it is still on the phone,
+/// or as a link sent on its own once the server has it.
+fn add_to_walk(mut entry: Entry, walk: uuid::Uuid) -> Entry {
+    if matches!(entry.sync, SyncState::Received { .. }) {
+        entry.walk_link_pending = Some(walk);
+    } else {
+        entry.submission.walk_client_id = Some(walk);
+    }
+    entry
+}
+
 #[component]
-fn Outbox(entries: RwSignal<Vec<Entry>>, status: RwSignal<SyncStatus>) -> impl IntoView {
-    let queue = move |entry: Entry| {
+fn OnThisPhone(outbox: Outbox) -> impl IntoView {
+    let entries = outbox.entries;
+    let status = outbox.status;
+    let save_then_sync = move |entry: Entry| {
         leptos::task::spawn_local(async move {
-            let mut entry = entry;
-            entry.sync = SyncState::Waiting;
             if outbox::save(&entry, None).await.is_ok() {
-                sync::refresh(entries).await;
-                sync::request(entries, status);
+                sync::refresh(outbox).await;
+                sync::request(outbox);
             }
         });
+    };
+    let queue = move |entry: Entry| {
+        let mut entry = entry;
+        entry.sync = SyncState::Waiting;
+        save_then_sync(entry);
     };
     let discard = move |id: String| {
         leptos::task::spawn_local(async move {
             if device::delete_entry(&id).await.is_ok() {
-                sync::refresh(entries).await;
+                sync::refresh(outbox).await;
             }
         });
     };
+    let walk_choices = move || outbox.walks.with(|w| w.iter().map(|e| (e.client_id, e.title())).collect::<Vec<_>>());
     view! {
         <section class="card outbox">
             <div class="row spread">
                 <h2>"On this phone"</h2>
-                <button id="send-now" type="button" on:click=move |_| sync::request(entries, status)>"Send now"</button>
+                <button id="send-now" type="button" on:click=move |_| sync::request(outbox)>"Send now"</button>
             </div>
             <p id="sync-status" class="hint">{move || status.with(|s| match (&s.running, &s.next_retry, &s.last_problem) {
                 (true, _, _) => "sending…".to_owned(),
@@ -158,14 +189,27 @@ fn Outbox(entries: RwSignal<Vec<Entry>>, status: RwSignal<SyncStatus>) -> impl I
                     let is_draft = state == SyncState::Draft;
                     let draft_entry = entry.clone();
                     let draft_id = id.clone();
+                    let on_walk = entry.submission.walk_client_id.or(entry.walk_link_pending).is_some();
+                    let walk_entry = entry.clone();
                     view! {
                         <li class="outbox-entry" data-client-id=id.clone()>
                             <span class="summary">{summary}</span>
                             <span class=state.css_class()>{state.label()}</span>
                             {entry.last_error.clone().filter(|_| state.wants_sending()).map(|e| view! { <span class="hint">{e}</span> })}
+                            {on_walk.then(|| view! { <span class="hint walk-link">"on a survey walk"</span> })}
                             <Show when=move || is_draft>
                                 <button type="button" class="small" on:click={let e = draft_entry.clone(); move |_| queue(e.clone())}>"Send"</button>
                                 <button type="button" class="small" on:click={let id = draft_id.clone(); move |_| discard(id.clone())}>"Discard"</button>
+                            </Show>
+                            <Show when=move || !on_walk && !walk_choices().is_empty()>
+                                <select class="add-to-walk" on:change={let e = walk_entry.clone(); move |ev| {
+                                    if let Ok(walk) = uuid::Uuid::parse_str(&event_target_value(&ev)) {
+                                        save_then_sync(add_to_walk(e.clone(), walk));
+                                    }
+                                }}>
+                                    <option value="">"Add to a walk…"</option>
+                                    {walk_choices().into_iter().map(|(walk, title)| view! { <option value=walk.to_string()>{title}</option> }).collect_view()}
+                                </select>
                             </Show>
                         </li>
                     }

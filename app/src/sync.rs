@@ -14,8 +14,18 @@ use shared_types::Receipt;
 
 use crate::device;
 use crate::outbox::{self, Entry, SyncState};
+use crate::walks::{self, WalkEntry, WalkState};
 
 pub const SUBMIT_URL: &str = "/api/observations";
+pub const WALKS_URL: &str = "/api/walks";
+
+/// What the phone keeps and what the screen shows of it, handed around together.
+#[derive(Clone, Copy)]
+pub struct Outbox {
+    pub entries: RwSignal<Vec<Entry>>,
+    pub walks: RwSignal<Vec<WalkEntry>>,
+    pub status: RwSignal<SyncStatus>,
+}
 
 /// First retry delay; doubled after each failed round up to [`MAX_DELAY`].
 const FIRST_DELAY: Duration = Duration::from_secs(2);
@@ -43,28 +53,29 @@ pub struct SyncStatus {
 }
 
 /// Starts a sync round now unless one is running (then one more follows it).
-pub fn request(entries: RwSignal<Vec<Entry>>, status: RwSignal<SyncStatus>) {
+pub fn request(outbox: Outbox) {
     if RUNNING.get() {
         AGAIN.set(true);
         return;
     }
     RUNNING.set(true);
-    status.update(|s| s.running = true);
+    outbox.status.update(|s| s.running = true);
     leptos::task::spawn_local(async move {
         loop {
             AGAIN.set(false);
-            let problem = round(entries).await;
-            finish_round(problem, entries, status);
+            let problem = round(outbox).await;
+            finish_round(problem, outbox);
             if !AGAIN.get() {
                 break;
             }
         }
         RUNNING.set(false);
-        status.update(|s| s.running = false);
+        outbox.status.update(|s| s.running = false);
     });
 }
 
-fn finish_round(problem: Option<String>, entries: RwSignal<Vec<Entry>>, status: RwSignal<SyncStatus>) {
+fn finish_round(problem: Option<String>, outbox: Outbox) {
+    let status = outbox.status;
     let generation = TIMER_GENERATION.get() + 1;
     TIMER_GENERATION.set(generation);
     match problem {
@@ -86,7 +97,7 @@ fn finish_round(problem: Option<String>, entries: RwSignal<Vec<Entry>>, status: 
             set_timeout(
                 move || {
                     if TIMER_GENERATION.get() == generation {
-                        request(entries, status);
+                        request(outbox);
                     }
                 },
                 delay,
@@ -95,9 +106,17 @@ fn finish_round(problem: Option<String>, entries: RwSignal<Vec<Entry>>, status: 
     }
 }
 
-/// Sends every record that wants sending; returns the first problem that calls for a
-/// retry, if any.
-async fn round(entries: RwSignal<Vec<Entry>>) -> Option<String> {
+/// Sends every walk, record and late walk link that wants sending (walks first, so a
+/// record's walk is usually there before it); returns the first problem that calls for
+/// a retry, if any.
+async fn round(outbox: Outbox) -> Option<String> {
+    let walk_problem = send_walks(outbox).await;
+    let record_problem = send_records(outbox).await;
+    let link_problem = send_links(outbox).await;
+    walk_problem.or(record_problem).or(link_problem)
+}
+
+async fn send_records(outbox: Outbox) -> Option<String> {
     let stored = match outbox::load_all().await {
         Ok(list) => list,
         Err(err) => return Some(err),
@@ -111,14 +130,14 @@ async fn round(entries: RwSignal<Vec<Entry>>) -> Option<String> {
             problem.get_or_insert(err);
             continue;
         }
-        refresh(entries).await;
+        refresh(outbox).await;
         match send(&entry).await {
-            Sent::Received(receipt) => {
+            RecordOutcome::Received(receipt) => {
                 entry.sync = SyncState::Received { receipt };
                 entry.last_error = None;
             }
-            Sent::Refused(reason) => entry.sync = SyncState::Refused { reason },
-            Sent::TryLater(reason) => {
+            RecordOutcome::Refused(reason) => entry.sync = SyncState::Refused { reason },
+            RecordOutcome::TryLater(reason) => {
                 entry.sync = SyncState::Waiting;
                 entry.last_error = Some(reason.clone());
                 problem.get_or_insert(reason);
@@ -127,49 +146,130 @@ async fn round(entries: RwSignal<Vec<Entry>>) -> Option<String> {
         if let Err(err) = outbox::save(&entry, None).await {
             problem.get_or_insert(err);
         }
-        refresh(entries).await;
+        refresh(outbox).await;
     }
     problem
 }
 
-/// Re-reads the outbox into the screen's list.
-pub async fn refresh(entries: RwSignal<Vec<Entry>>) {
+async fn send_walks(outbox: Outbox) -> Option<String> {
+    let stored = match walks::load_all().await {
+        Ok(list) => list,
+        Err(err) => return Some(err),
+    };
+    let mut problem = None;
+    for mut walk in stored.into_iter().filter(|w| w.state.wants_sending()) {
+        let Some(submission) = walk.submission() else { continue };
+        let json = serde_json::to_string(&submission).unwrap_or_default();
+        walk.state = WalkState::Sent;
+        if let Err(err) = walks::save(&walk).await {
+            problem.get_or_insert(err);
+            continue;
+        }
+        match device::send_json("POST", WALKS_URL, &json).await {
+            Err(err) => {
+                walk.state = WalkState::Waiting;
+                walk.last_error = Some(format!("no connection ({err})"));
+                problem.get_or_insert(format!("no connection ({err})"));
+            }
+            Ok(answer) => match classify(answer) {
+                Sent::Received(body) => match serde_json::from_str(&body) {
+                    Ok(receipt) => walk.state = WalkState::Received { receipt },
+                    Err(err) => walk.state = WalkState::Refused { reason: format!("unreadable receipt: {err}") },
+                },
+                Sent::Refused(reason) => walk.state = WalkState::Refused { reason },
+                Sent::TryLater(reason) => {
+                    walk.state = WalkState::Waiting;
+                    problem.get_or_insert(reason);
+                }
+            },
+        }
+        if let Err(err) = walks::save(&walk).await {
+            problem.get_or_insert(err);
+        }
+    }
+    refresh(outbox).await;
+    problem
+}
+
+/// Links made after a record was received: `PUT /api/observations/{id}/walk`.
+async fn send_links(outbox: Outbox) -> Option<String> {
+    let stored = outbox::load_all().await.ok()?;
+    let mut problem = None;
+    for mut entry in stored.into_iter().filter(|e| e.walk_link_pending.is_some()) {
+        let Some(walk) = entry.walk_link_pending else { continue };
+        let url = format!("{SUBMIT_URL}/{}/walk", entry.id());
+        let body = serde_json::json!({ "walk_client_id": walk }).to_string();
+        match device::send_json("PUT", &url, &body).await.map(classify) {
+            Ok(Sent::Received(_)) => entry.walk_link_pending = None,
+            Ok(Sent::Refused(reason)) => {
+                entry.walk_link_pending = None;
+                entry.last_error = Some(format!("could not add to the walk: {reason}"));
+            }
+            Ok(Sent::TryLater(reason)) | Err(reason) => {
+                problem.get_or_insert(reason);
+                continue;
+            }
+        }
+        if let Err(err) = outbox::save(&entry, None).await {
+            problem.get_or_insert(err);
+        }
+    }
+    refresh(outbox).await;
+    problem
+}
+
+/// Re-reads the outbox and walks into the screen's lists.
+pub async fn refresh(outbox: Outbox) {
     if let Ok(list) = outbox::load_all().await {
-        entries.set(list);
+        outbox.entries.set(list);
+    }
+    if let Ok(list) = walks::load_all().await {
+        outbox.walks.set(list);
     }
 }
 
+/// What an answer means for the thing sent.
 enum Sent {
+    /// 2xx, with the body.
+    Received(String),
+    Refused(String),
+    TryLater(String),
+}
+
+/// What became of one record's upload.
+enum RecordOutcome {
     Received(Receipt),
     Refused(String),
     TryLater(String),
 }
 
-async fn send(entry: &Entry) -> Sent {
+async fn send(entry: &Entry) -> RecordOutcome {
     let photos = match device::photos_of(&entry.id()).await {
         Ok(photos) => photos,
-        Err(err) => return Sent::TryLater(format!("photos could not be read: {err}")),
+        Err(err) => return RecordOutcome::TryLater(format!("photos could not be read: {err}")),
     };
     if photos.len() != entry.photo_count {
         // Never send a record short of a photo the observer took.
-        return Sent::TryLater(format!("{} of {} photos found on this phone", photos.len(), entry.photo_count));
+        return RecordOutcome::TryLater(format!("{} of {} photos found on this phone", photos.len(), entry.photo_count));
     }
     let json = match serde_json::to_string(&entry.submission) {
         Ok(json) => json,
-        Err(err) => return Sent::Refused(err.to_string()),
+        Err(err) => return RecordOutcome::Refused(err.to_string()),
     };
-    match device::send_record(SUBMIT_URL, &json, &photos).await {
-        Err(err) => Sent::TryLater(format!("no connection ({err})")),
-        Ok(answer) => classify(answer),
+    match device::send_record(SUBMIT_URL, &json, &photos).await.map(classify) {
+        Err(err) => RecordOutcome::TryLater(format!("no connection ({err})")),
+        Ok(Sent::Received(body)) => match serde_json::from_str::<Receipt>(&body) {
+            Ok(receipt) => RecordOutcome::Received(receipt),
+            Err(err) => RecordOutcome::TryLater(format!("unreadable receipt: {err}")),
+        },
+        Ok(Sent::Refused(reason)) => RecordOutcome::Refused(reason),
+        Ok(Sent::TryLater(reason)) => RecordOutcome::TryLater(reason),
     }
 }
 
 fn classify(answer: device::Answer) -> Sent {
     match answer.status {
-        200..=299 => match serde_json::from_str::<Receipt>(&answer.body) {
-            Ok(receipt) => Sent::Received(receipt),
-            Err(err) => Sent::TryLater(format!("unreadable receipt: {err}")),
-        },
+        200..=299 => Sent::Received(answer.body),
         // Timeouts and rate limits are worth another try; so is any server fault.
         408 | 429 | 500..=599 => Sent::TryLater(format!("server answered {}", answer.status)),
         _ => Sent::Refused(server_message(&answer.body).unwrap_or_else(|| format!("status {}", answer.status))),

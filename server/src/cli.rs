@@ -28,6 +28,17 @@ pub enum Command {
     Demo(ServeArgs),
     /// Write all records to a file or to standard output.
     Export(ExportArgs),
+    /// Survey effort: kilometres and hours walked per stretch per month or year.
+    Effort(EffortArgs),
+}
+
+#[derive(Debug, clap::Args)]
+pub struct EffortArgs {
+    #[arg(long, value_enum, default_value = "year")]
+    pub by: crate::effort::Period,
+    /// Print JSON for scripts instead of a table.
+    #[arg(long)]
+    pub json: bool,
 }
 
 #[derive(Debug, clap::Args)]
@@ -70,6 +81,7 @@ pub fn run(cli: Cli) -> anyhow::Result<()> {
         Command::Serve(args) => serve(&cli.data_dir, args, false),
         Command::Demo(args) => serve(&cli.data_dir, args, true),
         Command::Export(args) => export_records(&cli.data_dir, args),
+        Command::Effort(args) => print_effort(&cli.data_dir, &args),
     }
 }
 
@@ -104,6 +116,27 @@ fn export_records(data_dir: &std::path::Path, args: ExportArgs) -> anyhow::Resul
             eprintln!("wrote {} records to {}", records.len(), path.display());
         }
         None => export::csv::write(&records, &args.base_url, std::io::stdout().lock())?,
+    }
+    Ok(())
+}
+
+fn print_effort(data_dir: &std::path::Path, args: &EffortArgs) -> anyhow::Result<()> {
+    let state = AppState::open(data_dir, None, crate::load_checklist(None)?)?;
+    let walks = state.store.run_here(|conn| crate::store::walks::list_walks(conn))?;
+    let rows = crate::effort::summarise(&walks, args.by);
+    if args.json {
+        println!("{}", serde_json::to_string_pretty(&rows)?);
+        return Ok(());
+    }
+    println!("{:<28} {:<8} {:>6} {:>10} {:>9} {:>8} {:>8}", "stretch", "period", "walks", "all finds", "km", "hours", "records");
+    for row in &rows {
+        println!(
+            "{:<28} {:<8} {:>6} {:>10} {:>9.2} {:>8.2} {:>8}",
+            row.stretch, row.period, row.walks, row.all_finds_walks, row.kilometres, row.hours, row.records
+        );
+    }
+    if rows.is_empty() {
+        println!("(no survey walks yet)");
     }
     Ok(())
 }

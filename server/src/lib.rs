@@ -9,6 +9,7 @@
 pub mod cli;
 pub mod demo;
 pub mod error;
+pub mod effort;
 pub mod export;
 pub mod flags;
 pub mod handlers;

@@ -3,14 +3,14 @@
 use axum::Router;
 use axum::extract::DefaultBodyLimit;
 use axum::http::{HeaderValue, header};
-use axum::routing::{get, post};
+use axum::routing::{get, post, put};
 use tower_http::services::{ServeDir, ServeFile};
 use tower::Layer as _;
 use tower_http::set_header::{SetResponseHeader, SetResponseHeaderLayer};
 
 use crate::AppState;
 use crate::error::ApiError;
-use crate::handlers::{checklist, export, health, observations, photos};
+use crate::handlers::{checklist, export, health, observations, photos, walks};
 use crate::intake::photos::{MAX_PHOTO_BYTES, MAX_PHOTOS_PER_RECORD};
 
 /// The whole HTTP surface. Unknown `/api/` paths are a JSON 404; any other unknown path
@@ -24,9 +24,12 @@ pub fn app(state: AppState) -> Router {
             post(observations::submit).get(observations::list).layer(DefaultBodyLimit::max(upload_limit)),
         )
         .route("/api/observations/{client_id}", get(observations::get))
+        .route("/api/observations/{client_id}/walk", put(walks::link))
+        .route("/api/walks", post(walks::submit).get(walks::list))
+        .route("/api/effort", get(walks::effort))
         .route("/api/export", get(export::export))
         .route("/api/checklist", get(checklist::get))
-        .route("/api/{*rest}", get(api_not_found).post(api_not_found))
+        .route("/api/{*rest}", get(api_not_found).post(api_not_found).put(api_not_found))
         .route("/photos/{sha256}", get(photos::get));
     let router = match &state.app_dir {
         Some(dir) => api.fallback_service(app_files(dir)),

@@ -7,6 +7,8 @@
 
 pub mod record;
 pub mod values;
+pub mod walk;
 
 pub use record::*;
 pub use values::*;
+pub use walk::*;

@@ -228,6 +228,10 @@ pub struct Submission {
     /// same content fingerprint.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub key_choice: Option<KeyChoice>,
+    /// The survey walk this record was made on, if any (the walk's own client id; the
+    /// walk itself may arrive later). Left out when absent, like `key_choice`.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub walk_client_id: Option<Uuid>,
 }
 
 /// Ranks an observer may stop the key at (Darwin Core `taxonRank` values).
@@ -404,6 +408,9 @@ pub struct RecordView {
     pub photos: Vec<PhotoView>,
     #[serde(default)]
     pub flags: Vec<RecordFlag>,
+    /// The walk the record is on: as submitted, or linked after the fact.
+    #[serde(default)]
+    pub walk_client_id: Option<Uuid>,
 }
 
 

@@ -6,3 +6,4 @@ pub mod export;
 pub mod health;
 pub mod observations;
 pub mod photos;
+pub mod walks;

@@ -53,7 +53,8 @@ fn multipart_error(err: axum::extract::multipart::MultipartError) -> ApiError {
     }
 }
 
-fn intake_error(err: IntakeError) -> ApiError {
+/// The HTTP form of an intake refusal.
+pub fn intake_error(err: IntakeError) -> ApiError {
     match err {
         IntakeError::NotJson(_) => ApiError::BadRequest(err.to_string()),
         IntakeError::Field { field, message } => ApiError::InvalidField { field, message },

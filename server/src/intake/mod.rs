@@ -4,6 +4,7 @@
 
 pub mod exif;
 pub mod photos;
+pub mod walks;
 
 use chrono::{DateTime, Utc};
 use sha2::{Digest as _, Sha256};
@@ -45,10 +46,10 @@ pub struct Accepted {
     pub replayed: bool,
 }
 
-/// Reads the submission JSON, naming the field at fault when it does not fit.
-pub fn parse_submission(json: &[u8], now: DateTime<Utc>) -> Result<Submission, IntakeError> {
+/// Reads JSON into `T`, naming the field at fault when it does not fit.
+pub fn parse_json<T: serde::de::DeserializeOwned>(json: &[u8]) -> Result<T, IntakeError> {
     let mut reader = serde_json::Deserializer::from_slice(json);
-    let submission: Submission = serde_path_to_error::deserialize(&mut reader).map_err(|err| {
+    serde_path_to_error::deserialize(&mut reader).map_err(|err| {
         if err.inner().is_syntax() || err.inner().is_eof() {
             return IntakeError::NotJson(err.into_inner().to_string());
         }
@@ -61,7 +62,12 @@ pub fn parse_submission(json: &[u8], now: DateTime<Utc>) -> Result<Submission, I
             (path, None) => path.to_owned(),
         };
         IntakeError::Field { field, message }
-    })?;
+    })
+}
+
+/// Reads and checks a record submission.
+pub fn parse_submission(json: &[u8], now: DateTime<Utc>) -> Result<Submission, IntakeError> {
+    let submission: Submission = parse_json(json)?;
     submission.check(now).map_err(|problem| IntakeError::Field {
         field: match problem {
             shared_types::SubmissionProblem::InTheFuture(_) => "observed_at".into(),

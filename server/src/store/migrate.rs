@@ -12,6 +12,7 @@ use super::StoreError;
 const MIGRATIONS: &[(&str, &str)] = &[
     ("0001_initial", include_str!("../../../migrations/0001_initial.sql")),
     ("0004_observation_flags", include_str!("../../../migrations/0004_observation_flags.sql")),
+    ("0005_walk_details", include_str!("../../../migrations/0005_walk_details.sql")),
 ];
 
 pub(super) fn apply(conn: &mut Connection) -> Result<(), StoreError> {

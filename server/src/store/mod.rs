@@ -8,6 +8,7 @@
 
 mod migrate;
 pub mod observations;
+pub mod walks;
 
 use std::path::Path;
 use std::sync::{Arc, Mutex};

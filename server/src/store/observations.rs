@@ -96,8 +96,8 @@ fn insert_observation_row(tx: &Transaction, new: &NewObservation, organism_id: i
     tx.execute(
         "INSERT INTO observations (client_id, content_sha256, organism_id, observed_at, observed_at_utc,
             latitude, longitude, accuracy_m, position_source, count, condition, setting, sex, notes,
-            observer_name, review_state, submission_json, received_at)
-         VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, ?12, ?13, ?14, ?15, ?16, ?17, ?18)",
+            observer_name, review_state, submission_json, received_at, walk_client_id)
+         VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, ?12, ?13, ?14, ?15, ?16, ?17, ?18, ?19)",
         params![
             sub.client_id.to_string(),
             new.content_sha256,
@@ -117,6 +117,7 @@ fn insert_observation_row(tx: &Transaction, new: &NewObservation, organism_id: i
             ReviewState::AwaitingReview.code(),
             json,
             received_at,
+            sub.walk_client_id.map(|id| id.to_string()),
         ],
     )?;
     Ok(tx.last_insert_rowid())
@@ -191,7 +192,7 @@ fn link_photo(tx: &Transaction, observation_id: i64, position: usize, photo: &St
 /// All records, oldest observation first.
 pub fn list_records(conn: &Connection) -> Result<Vec<RecordView>, StoreError> {
     let mut stmt = conn.prepare(
-        "SELECT id, organism_id, received_at, review_state, submission_json FROM observations ORDER BY observed_at_utc, id",
+        "SELECT id, organism_id, received_at, review_state, submission_json, walk_client_id FROM observations ORDER BY observed_at_utc, id",
     )?;
     let rows = stmt.query_map([], record_row)?.collect::<Result<Vec<_>, _>>()?;
     rows.into_iter().map(|row| finish_record(conn, row)).collect()
@@ -201,7 +202,7 @@ pub fn list_records(conn: &Connection) -> Result<Vec<RecordView>, StoreError> {
 pub fn record_by_client_id(conn: &Connection, client_id: Uuid) -> Result<Option<RecordView>, StoreError> {
     let row = conn
         .query_row(
-            "SELECT id, organism_id, received_at, review_state, submission_json FROM observations WHERE client_id = ?1",
+            "SELECT id, organism_id, received_at, review_state, submission_json, walk_client_id FROM observations WHERE client_id = ?1",
             [client_id.to_string()],
             record_row,
         )
@@ -219,13 +220,13 @@ pub fn photo_media_type(conn: &Connection, sha256: &str) -> Result<Option<String
     Ok(conn.query_row("SELECT media_type FROM photos WHERE sha256 = ?1", [sha256], |row| row.get(0)).optional()?)
 }
 
-type RecordRow = (i64, i64, String, String, String);
+type RecordRow = (i64, i64, String, String, String, Option<String>);
 
 fn record_row(row: &rusqlite::Row) -> rusqlite::Result<RecordRow> {
-    Ok((row.get(0)?, row.get(1)?, row.get(2)?, row.get(3)?, row.get(4)?))
+    Ok((row.get(0)?, row.get(1)?, row.get(2)?, row.get(3)?, row.get(4)?, row.get(5)?))
 }
 
-fn finish_record(conn: &Connection, (id, organism_id, received_at, state, json): RecordRow) -> Result<RecordView, StoreError> {
+fn finish_record(conn: &Connection, (id, organism_id, received_at, state, json, walk): RecordRow) -> Result<RecordView, StoreError> {
     let submission: Submission =
         serde_json::from_str(&json).map_err(|err| StoreError::Corrupt(format!("observation {id}: {err}")))?;
     Ok(RecordView {
@@ -237,6 +238,7 @@ fn finish_record(conn: &Connection, (id, organism_id, received_at, state, json):
         submission,
         photos: photos_of(conn, id)?,
         flags: flags_of(conn, id)?,
+        walk_client_id: walk.map(|w| Uuid::parse_str(&w)).transpose().map_err(|err| StoreError::Corrupt(format!("observation {id}: walk id {err}")))?,
     })
 }
 

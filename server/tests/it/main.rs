@@ -7,3 +7,4 @@ mod flags;
 mod helpers;
 mod routes;
 mod submissions;
+mod walks;

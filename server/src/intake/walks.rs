@@ -1,0 +1,36 @@
+//! Intake of survey walks: read, check, store once by the phone's id.
+
+use chrono::{DateTime, Utc};
+use sha2::{Digest as _, Sha256};
+use shared_types::{WalkProblem, WalkReceipt, WalkSubmission};
+
+use super::{IntakeError, parse_json};
+use crate::AppState;
+use crate::store::walks::{self, WalkInsertion};
+
+fn field_of(problem: &WalkProblem) -> &'static str {
+    match problem {
+        WalkProblem::EndsBeforeStart | WalkProblem::TooLong => "ended_at",
+        WalkProblem::TooManyPoints(_) | WalkProblem::OutOfOrder(_) => "track",
+        WalkProblem::BadDistance(_) | WalkProblem::TrackAndDistance => "typed_distance_m",
+    }
+}
+
+/// Reads and checks a walk.
+pub fn parse_walk(json: &[u8]) -> Result<WalkSubmission, IntakeError> {
+    let walk: WalkSubmission = parse_json(json)?;
+    walk.check().map_err(|problem| IntakeError::Field { field: field_of(&problem).into(), message: problem.to_string() })?;
+    Ok(walk)
+}
+
+/// Stores a walk; a resend gets the first receipt, a changed resend a conflict.
+pub async fn accept_walk(state: &AppState, json: &[u8], now: DateTime<Utc>) -> Result<WalkReceipt, IntakeError> {
+    let walk = parse_walk(json)?;
+    let content = hex::encode(Sha256::digest(serde_json::to_vec(&walk).unwrap_or_default()));
+    let client_id = walk.client_id;
+    let outcome = state.store.run(move |conn| walks::insert_walk(conn, &walk, &content, now)).await.map_err(anyhow::Error::from)?;
+    match outcome {
+        WalkInsertion::Created(receipt) | WalkInsertion::Replayed(receipt) => Ok(receipt),
+        WalkInsertion::Conflict => Err(IntakeError::Conflict(client_id)),
+    }
+}

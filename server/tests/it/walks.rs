@@ -1,0 +1,171 @@
+//! Survey walks: the track's length against GeographicLib, GPS jitter filtered, a walk
+//! with no finds kept, resends idempotent, records linked after the fact, and the
+//! effort summary.
+
+use serde_json::{Value, json};
+
+use crate::helpers::{TestApp, spawn_app, submission};
+
+const WALK: &str = "7a1b2c3d-4e5f-4a6b-8c7d-9e0f1a2b3c4d";
+
+/// 60 fixes 20 s apart walking north along the beach from Borth, with a small
+/// east–west wiggle; about 28 m between fixes.
+fn beach_track() -> Vec<(f64, f64)> {
+    (0..60).map(|i| (52.4890 + i as f64 * 0.00025, -4.0530 + 0.0001 * (i as f64 / 5.0).sin())).collect()
+}
+
+fn track_json(points: &[(f64, f64)], seconds_apart: i64) -> Value {
+    let start = chrono::DateTime::parse_from_rfc3339("2026-04-12T09:00:00+01:00").unwrap();
+    Value::Array(
+        points
+            .iter()
+            .enumerate()
+            .map(|(i, (lat, lon))| {
+                json!({"latitude": lat, "longitude": lon, "accuracy_m": 6.0,
+                       "at": (start + chrono::Duration::seconds(i as i64 * seconds_apart)).to_rfc3339()})
+            })
+            .collect(),
+    )
+}
+
+fn walk(track: Value) -> Value {
+    json!({
+        "client_id": WALK,
+        "started_at": "2026-04-12T09:00:00+01:00",
+        "ended_at": "2026-04-12T09:25:00+01:00",
+        "stretch": "Borth to Ynyslas",
+        "all_finds_reported": true,
+        "track": track,
+        "typed_distance_m": null,
+        "observer_name": "Test Walker"
+    })
+}
+
+async fn post_walk(app: &TestApp, body: &Value) -> (u16, Value) {
+    let response = app.client.post(format!("{}/api/walks", app.base)).json(body).send().await.unwrap();
+    (response.status().as_u16(), response.json().await.unwrap_or(Value::Null))
+}
+
+#[tokio::test]
+async fn the_track_length_agrees_with_geographiclib() {
+    let app = spawn_app().await;
+    let (status, receipt) = post_walk(&app, &walk(track_json(&beach_track(), 20))).await;
+    assert_eq!(status, 200, "{receipt}");
+    // GeographicLib 2.1 (Karney 2013), Geodesic.WGS84.Inverse summed over the same 60
+    // fixes: 1642.265313 m; pyproj 3.7.2 Geod(ellps="WGS84").line_length agrees to 1e-9 m.
+    let length = receipt["effort"]["distance_m"].as_f64().unwrap();
+    assert!((length - 1642.265313).abs() < 1e-3, "{length}");
+    assert_eq!(receipt["effort"]["track"]["kept_points"], 60);
+    assert_eq!(receipt["effort"]["duration_s"], 1500.0);
+}
+
+#[tokio::test]
+async fn standing_still_and_gps_jumps_do_not_add_distance() {
+    let app = spawn_app().await;
+    let mut points = Vec::new();
+    for (i, point) in beach_track().into_iter().enumerate() {
+        points.push(point);
+        if i % 10 == 0 {
+            // A pause: four fixes scattered within about 3 m (1e-5° ≈ 1.1 m).
+            for k in 1..=4 {
+                points.push((point.0 + 2e-5 * (k % 2) as f64, point.1 - 2e-5 * (k % 3) as f64));
+            }
+        }
+        if i == 30 {
+            points.push((52.60, -4.0530)); // a 10 km jump in 20 seconds
+        }
+    }
+    let (status, receipt) = post_walk(&app, &walk(track_json(&points, 20))).await;
+    assert_eq!(status, 200, "{receipt}");
+    let effort = &receipt["effort"];
+    let length = effort["distance_m"].as_f64().unwrap();
+    assert!((length - 1642.265313).abs() / 1642.265313 < 0.01, "within 1% of the clean track: {effort}");
+    assert_eq!(effort["track"]["dropped_jumps"], 1, "{effort}");
+    assert!(effort["track"]["dropped_jitter"].as_u64().unwrap() >= 20, "{effort}");
+}
+
+#[tokio::test]
+async fn a_walk_with_no_finds_is_kept_and_a_resend_is_one_walk() {
+    let app = spawn_app().await;
+    let body = walk(track_json(&beach_track(), 20));
+    let (first, receipt) = post_walk(&app, &body).await;
+    let (again, same) = post_walk(&app, &body).await;
+    assert_eq!((first, again), (200, 200));
+    assert_eq!(receipt, same);
+    let walks: Vec<Value> = app.get("/api/walks").await.json().await.unwrap();
+    assert_eq!(walks.len(), 1);
+    assert_eq!(walks[0]["record_client_ids"], json!([]), "no finds, still data");
+    let mut changed = body.clone();
+    changed["all_finds_reported"] = json!(false);
+    assert_eq!(post_walk(&app, &changed).await.0, 409);
+}
+
+#[tokio::test]
+async fn bad_walks_name_the_field() {
+    let app = spawn_app().await;
+    let cases = [
+        ("ended_at", json!("2026-04-12T08:00:00+01:00"), "ended_at", "ends before it starts"),
+        ("typed_distance_m", json!(-5.0), "typed_distance_m", "between 0 and 100000"),
+        ("all_finds_reported", json!("yes"), "all_finds_reported", "invalid type"),
+    ];
+    for (key, value, field, words) in cases {
+        let mut body = walk(json!([]));
+        body[key] = value;
+        let (status, answer) = post_walk(&app, &body).await;
+        assert_eq!(status, 422, "{answer}");
+        assert_eq!(answer["field"], field);
+        assert!(answer["error"].as_str().unwrap().contains(words), "{answer}");
+    }
+    let mut both = walk(track_json(&beach_track(), 20));
+    both["typed_distance_m"] = json!(1500.0);
+    assert_eq!(post_walk(&app, &both).await.0, 422);
+    assert!(app.get("/api/walks").await.json::<Vec<Value>>().await.unwrap().is_empty());
+}
+
+#[tokio::test]
+async fn records_join_their_walk_when_made_on_it_or_after_the_fact() {
+    let app = spawn_app().await;
+    let on_walk = "11111111-2222-4333-8444-555555555555";
+    let later = "66666666-7777-4888-8999-aaaaaaaaaaaa";
+    let mut record = submission(on_walk);
+    record["walk_client_id"] = json!(WALK);
+    // The record may arrive before its walk.
+    assert_eq!(app.submit(&record, &[]).await.status, 200);
+    assert_eq!(app.submit(&submission(later), &[]).await.status, 200);
+    post_walk(&app, &walk(track_json(&beach_track(), 20))).await;
+
+    let link = |id: &str, walk: &str| {
+        let request = app.client.put(format!("{}/api/observations/{id}/walk", app.base)).json(&json!({"walk_client_id": walk}));
+        async move { request.send().await.unwrap().status().as_u16() }
+    };
+    assert_eq!(link(later, WALK).await, 200);
+    assert_eq!(link(later, WALK).await, 200, "linking again is harmless");
+    assert_eq!(link(later, "00000000-0000-4000-8000-000000000000").await, 409, "not moved to another walk");
+    assert_eq!(link("00000000-0000-4000-8000-00000000abcd", WALK).await, 404);
+
+    let walks: Vec<Value> = app.get("/api/walks").await.json().await.unwrap();
+    assert_eq!(walks[0]["record_client_ids"], json!([on_walk, later]));
+    let view: Value = app.get(&format!("/api/observations/{later}")).await.json().await.unwrap();
+    assert_eq!(view["walk_client_id"], WALK);
+}
+
+#[tokio::test]
+async fn effort_is_summed_per_stretch_and_period() {
+    let app = spawn_app().await;
+    post_walk(&app, &walk(track_json(&beach_track(), 20))).await;
+    let mut typed = walk(json!([]));
+    typed["client_id"] = json!("8b2c3d4e-5f60-4b7c-8d9e-0f1a2b3c4d5e");
+    typed["typed_distance_m"] = json!(2500.0);
+    typed["started_at"] = json!("2026-04-20T14:00:00+01:00");
+    typed["ended_at"] = json!("2026-04-20T15:30:00+01:00");
+    typed["all_finds_reported"] = json!(false);
+    assert_eq!(post_walk(&app, &typed).await.0, 200);
+    let rows: Vec<Value> = app.get("/api/effort?by=month").await.json().await.unwrap();
+    assert_eq!(rows.len(), 1, "{rows:?}");
+    let row = &rows[0];
+    assert_eq!((row["stretch"].as_str(), row["period"].as_str()), (Some("Borth to Ynyslas"), Some("2026-04")));
+    assert_eq!((row["walks"].as_u64(), row["all_finds_walks"].as_u64()), (Some(2), Some(1)));
+    let km = row["kilometres"].as_f64().unwrap();
+    assert!((km - (1.642265313 + 2.5)).abs() < 1e-6, "{km}");
+    assert!((row["hours"].as_f64().unwrap() - (25.0 / 60.0 + 1.5)).abs() < 1e-9);
+}
