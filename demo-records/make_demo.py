@@ -153,3 +153,52 @@ def main():
 
 if __name__ == "__main__":
     main()
+
+
+# Survey walks, from their own random stream so the records above stay as they are.
+STRETCHES = [
+    ("Borth to Ynyslas", 52.4890, -4.0530, 0.0360, 0.0030, 4.2),
+    ("Aberystwyth North to Clarach", 52.4170, -4.0860, 0.0170, 0.0060, 2.1),
+    ("New Quay to Llangrannog", 52.2150, -4.3600, -0.0550, -0.1100, 9.0),
+]
+
+
+def make_walks():
+    rng = random.Random(7)
+    walks = []
+    start = datetime(2024, 11, 3, 9, 0)
+    for i in range(40):
+        name, lat, lon, dlat, dlon, km = rng.choice(STRETCHES)
+        day = start + timedelta(days=rng.randrange(0, 720), minutes=rng.randrange(0, 300))
+        begun = day.replace(tzinfo=offset_for(day))
+        hours = km / rng.uniform(2.5, 4.0)
+        ended = begun + timedelta(hours=hours)
+        walk = {
+            "client_id": str(uuid.UUID(int=rng.getrandbits(128), version=4)),
+            "started_at": begun.isoformat(),
+            "ended_at": ended.replace(microsecond=0).isoformat(),
+            "stretch": name,
+            "all_finds_reported": rng.random() < 0.8,
+            "track": [],
+            "typed_distance_m": round(km * 1000 * rng.uniform(0.9, 1.1)),
+            "observer_name": rng.choice(OBSERVERS),
+        }
+        if i % 5 == 0:
+            # Every fifth walk carries a GPS track: a fix every 30 s along the stretch.
+            steps = int(hours * 120)
+            walk["typed_distance_m"] = None
+            walk["track"] = [
+                {"latitude": round(lat + dlat * k / steps + rng.uniform(-2e-5, 2e-5), 6),
+                 "longitude": round(lon + dlon * k / steps + rng.uniform(-2e-5, 2e-5), 6),
+                 "accuracy_m": rng.choice([4, 6, 8, 12]),
+                 "at": (begun + timedelta(seconds=30 * k)).isoformat()}
+                for k in range(steps + 1)
+            ]
+        walks.append(walk)
+    with open("walks.json", "w") as out:
+        json.dump(walks, out, indent=1)
+        out.write("\n")
+
+
+if __name__ == "__main__":
+    make_walks()

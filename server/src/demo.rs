@@ -10,6 +10,7 @@ use crate::intake::{self, Upload};
 use crate::store::observations;
 
 const RECORDS_JSON: &str = include_str!("../../demo-records/records.json");
+const WALKS_JSON: &str = include_str!("../../demo-records/walks.json");
 
 /// The demo photos, by the file names `records.json` uses.
 const PHOTOS: &[(&str, &[u8])] = &[
@@ -27,7 +28,8 @@ struct DemoRecord {
     photos: Vec<String>,
 }
 
-/// Loads every demo record if the database holds no observations; returns how many.
+/// Loads every demo record and survey walk if the database holds no observations;
+/// returns how many records.
 pub async fn load_if_empty(state: &AppState) -> anyhow::Result<usize> {
     if state.store.run(|conn| observations::count_observations(conn)).await? > 0 {
         return Ok(0);
@@ -43,6 +45,12 @@ pub async fn load_if_empty(state: &AppState) -> anyhow::Result<usize> {
         intake::accept(state, upload, Utc::now())
             .await
             .map_err(|err| anyhow::anyhow!("demo record {}: {err}", index + 1))?;
+    }
+    let walks: Vec<serde_json::Value> = serde_json::from_str(WALKS_JSON)?;
+    for (index, walk) in walks.iter().enumerate() {
+        intake::walks::accept_walk(state, &serde_json::to_vec(walk)?, Utc::now())
+            .await
+            .map_err(|err| anyhow::anyhow!("demo walk {}: {err}", index + 1))?;
     }
     Ok(records.len())
 }

@@ -30,3 +30,31 @@ fn an_unknown_export_format_is_refused_by_name() {
     let message = String::from_utf8_lossy(&output.stderr);
     assert!(message.contains("xls") && message.contains("csv"), "{message}");
 }
+
+#[test]
+fn demo_walks_load_and_effort_sums_them() {
+    // Runs `wrackline demo` long enough to load, then reads the effort back as JSON.
+    let dir = tempfile::tempdir().unwrap();
+    let mut demo = Command::new(env!("CARGO_BIN_EXE_wrackline"))
+        .arg("--data-dir")
+        .arg(dir.path())
+        .args(["demo", "--bind", "127.0.0.1:0", "--app-dir", "/nonexistent"])
+        .stdout(std::process::Stdio::piped())
+        .spawn()
+        .unwrap();
+    let mut stdout = std::io::BufReader::new(demo.stdout.take().unwrap());
+    let mut line = String::new();
+    while !line.contains("listening on") {
+        line.clear();
+        assert!(std::io::BufRead::read_line(&mut stdout, &mut line).unwrap() > 0, "demo stopped before serving");
+    }
+    demo.kill().unwrap();
+    demo.wait().unwrap();
+    let output = Command::new(env!("CARGO_BIN_EXE_wrackline")).arg("--data-dir").arg(dir.path()).args(["effort", "--json"]).output().unwrap();
+    assert!(output.status.success(), "{}", String::from_utf8_lossy(&output.stderr));
+    let rows: serde_json::Value = serde_json::from_slice(&output.stdout).unwrap();
+    let walks: u64 = rows.as_array().unwrap().iter().map(|r| r["walks"].as_u64().unwrap()).sum();
+    assert_eq!(walks, 40, "every demo walk is counted once");
+    let text = Command::new(env!("CARGO_BIN_EXE_wrackline")).arg("--data-dir").arg(dir.path()).arg("effort").output().unwrap();
+    assert!(String::from_utf8_lossy(&text.stdout).contains("Borth to Ynyslas"));
+}
