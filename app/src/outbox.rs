@@ -86,3 +86,12 @@ pub async fn load_all() -> Result<Vec<Entry>, String> {
     entries.sort_by(|a, b| b.submission.observed_at.cmp(&a.submission.observed_at));
     Ok(entries)
 }
+
+/// Changes the stored entry `id` as it is now (not as some earlier copy had it) and
+/// saves it; returns the saved entry, or `None` if there is no such entry.
+pub async fn update(id: &str, change: impl FnOnce(&mut Entry)) -> Result<Option<Entry>, String> {
+    let Some(mut entry) = load_all().await?.into_iter().find(|e| e.id() == id) else { return Ok(None) };
+    change(&mut entry);
+    save(&entry, None).await?;
+    Ok(Some(entry))
+}

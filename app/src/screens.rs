@@ -134,10 +134,11 @@ fn entry_summary(entry: &Entry) -> String {
     format!("{what}{length} · {} · {} photo(s)", sub.observed_at.format("%Y-%m-%d %H:%M"), entry.photo_count)
 }
 
-/// Puts a record on a walk: inside the submission while it is still on the phone,
-/// or as a link sent on its own once the server has it.
+/// Puts a record on a walk: inside the submission while it has not been sent, or as a
+/// link sent on its own once it may have reached the server (changing a sent record's
+/// content would make its resend a conflict).
 fn add_to_walk(mut entry: Entry, walk: uuid::Uuid) -> Entry {
-    if matches!(entry.sync, SyncState::Received { .. }) {
+    if matches!(entry.sync, SyncState::Received { .. } | SyncState::Sent) {
         entry.walk_link_pending = Some(walk);
     } else {
         entry.submission.walk_client_id = Some(walk);
@@ -149,18 +150,22 @@ fn add_to_walk(mut entry: Entry, walk: uuid::Uuid) -> Entry {
 fn OnThisPhone(outbox: Outbox) -> impl IntoView {
     let entries = outbox.entries;
     let status = outbox.status;
-    let save_then_sync = move |entry: Entry| {
+    // Changes an entry as it is stored now, not as the list drew it (the sync loop may
+    // have moved it on since), then saves it and syncs.
+    let change_then_sync = move |id: String, change: Box<dyn FnOnce(Entry) -> Entry>| {
         leptos::task::spawn_local(async move {
-            if outbox::save(&entry, None).await.is_ok() {
+            let Some(current) = outbox::load_all().await.ok().and_then(|all| all.into_iter().find(|e| e.id() == id)) else { return };
+            if outbox::save(&change(current), None).await.is_ok() {
                 sync::refresh(outbox).await;
                 sync::request(outbox);
             }
         });
     };
-    let queue = move |entry: Entry| {
-        let mut entry = entry;
-        entry.sync = SyncState::Waiting;
-        save_then_sync(entry);
+    let queue = move |id: String| {
+        change_then_sync(id, Box::new(|mut entry: Entry| {
+            entry.sync = SyncState::Waiting;
+            entry
+        }));
     };
     let discard = move |id: String| {
         leptos::task::spawn_local(async move {
@@ -187,10 +192,10 @@ fn OnThisPhone(outbox: Outbox) -> impl IntoView {
                     let state = entry.sync.clone();
                     let id = entry.id();
                     let is_draft = state == SyncState::Draft;
-                    let draft_entry = entry.clone();
                     let draft_id = id.clone();
+                    let queue_id = id.clone();
+                    let walk_id = id.clone();
                     let on_walk = entry.submission.walk_client_id.or(entry.walk_link_pending).is_some();
-                    let walk_entry = entry.clone();
                     view! {
                         <li class="outbox-entry" data-client-id=id.clone()>
                             <span class="summary">{summary}</span>
@@ -198,13 +203,13 @@ fn OnThisPhone(outbox: Outbox) -> impl IntoView {
                             {entry.last_error.clone().filter(|_| state.wants_sending()).map(|e| view! { <span class="hint">{e}</span> })}
                             {on_walk.then(|| view! { <span class="hint walk-link">"on a survey walk"</span> })}
                             <Show when=move || is_draft>
-                                <button type="button" class="small" on:click={let e = draft_entry.clone(); move |_| queue(e.clone())}>"Send"</button>
+                                <button type="button" class="small" on:click={let id = queue_id.clone(); move |_| queue(id.clone())}>"Send"</button>
                                 <button type="button" class="small" on:click={let id = draft_id.clone(); move |_| discard(id.clone())}>"Discard"</button>
                             </Show>
                             <Show when=move || !on_walk && !walk_choices().is_empty()>
-                                <select class="add-to-walk" on:change={let e = walk_entry.clone(); move |ev| {
+                                <select class="add-to-walk" on:change={let id = walk_id.clone(); move |ev| {
                                     if let Ok(walk) = uuid::Uuid::parse_str(&event_target_value(&ev)) {
-                                        save_then_sync(add_to_walk(e.clone(), walk));
+                                        change_then_sync(id.clone(), Box::new(move |entry| add_to_walk(entry, walk)));
                                     }
                                 }}>
                                     <option value="">"Add to a walk…"</option>

@@ -124,26 +124,30 @@ async fn send_records(outbox: Outbox) -> Option<String> {
     let mut queue: Vec<Entry> = stored.into_iter().filter(|e| e.sync.wants_sending()).collect();
     queue.sort_by_key(|e| e.submission.observed_at);
     let mut problem = None;
-    for mut entry in queue {
-        entry.sync = SyncState::Sent;
-        if let Err(err) = outbox::save(&entry, None).await {
+    for entry in queue {
+        let id = entry.id();
+        // Only the sync state is touched here, on the entry as stored now, so a change
+        // the observer makes meanwhile (a walk link) is never overwritten.
+        if let Err(err) = outbox::update(&id, |e| e.sync = SyncState::Sent).await {
             problem.get_or_insert(err);
             continue;
         }
         refresh(outbox).await;
-        match send(&entry).await {
+        let outcome = send(&entry).await;
+        let saved = outbox::update(&id, |e| match outcome {
             RecordOutcome::Received(receipt) => {
-                entry.sync = SyncState::Received { receipt };
-                entry.last_error = None;
+                e.sync = SyncState::Received { receipt };
+                e.last_error = None;
             }
-            RecordOutcome::Refused(reason) => entry.sync = SyncState::Refused { reason },
+            RecordOutcome::Refused(reason) => e.sync = SyncState::Refused { reason },
             RecordOutcome::TryLater(reason) => {
-                entry.sync = SyncState::Waiting;
-                entry.last_error = Some(reason.clone());
-                problem.get_or_insert(reason);
+                e.sync = SyncState::Waiting;
+                problem.get_or_insert(reason.clone());
+                e.last_error = Some(reason);
             }
-        }
-        if let Err(err) = outbox::save(&entry, None).await {
+        })
+        .await;
+        if let Err(err) = saved {
             problem.get_or_insert(err);
         }
         refresh(outbox).await;
@@ -195,22 +199,28 @@ async fn send_walks(outbox: Outbox) -> Option<String> {
 async fn send_links(outbox: Outbox) -> Option<String> {
     let stored = outbox::load_all().await.ok()?;
     let mut problem = None;
-    for mut entry in stored.into_iter().filter(|e| e.walk_link_pending.is_some()) {
+    // A link waits until its record is received: the record's own send comes first.
+    let ready = stored.into_iter().filter(|e| e.walk_link_pending.is_some() && matches!(e.sync, SyncState::Received { .. }));
+    for entry in ready {
         let Some(walk) = entry.walk_link_pending else { continue };
         let url = format!("{SUBMIT_URL}/{}/walk", entry.id());
         let body = serde_json::json!({ "walk_client_id": walk }).to_string();
-        match device::send_json("PUT", &url, &body).await.map(classify) {
-            Ok(Sent::Received(_)) => entry.walk_link_pending = None,
-            Ok(Sent::Refused(reason)) => {
-                entry.walk_link_pending = None;
-                entry.last_error = Some(format!("could not add to the walk: {reason}"));
-            }
+        let refused = match device::send_json("PUT", &url, &body).await.map(classify) {
+            Ok(Sent::Received(_)) => None,
+            Ok(Sent::Refused(reason)) => Some(format!("could not add to the walk: {reason}")),
             Ok(Sent::TryLater(reason)) | Err(reason) => {
                 problem.get_or_insert(reason);
                 continue;
             }
-        }
-        if let Err(err) = outbox::save(&entry, None).await {
+        };
+        let saved = outbox::update(&entry.id(), |e| {
+            e.walk_link_pending = None;
+            if refused.is_some() {
+                e.last_error = refused;
+            }
+        })
+        .await;
+        if let Err(err) = saved {
             problem.get_or_insert(err);
         }
     }

@@ -30,6 +30,31 @@ pub enum Command {
     Export(ExportArgs),
     /// Survey effort: kilometres and hours walked per stretch per month or year.
     Effort(EffortArgs),
+    /// People with a sign-in (reviewers and admins).
+    #[command(subcommand)]
+    User(UserCommand),
+}
+
+#[derive(Debug, Subcommand)]
+pub enum UserCommand {
+    /// Add a reviewer or admin. The password is read from WRACKLINE_PASSWORD, or else
+    /// from the first line of standard input.
+    Add {
+        #[arg(long)]
+        username: String,
+        #[arg(long, value_enum)]
+        role: StaffRole,
+        #[arg(long)]
+        display_name: Option<String>,
+    },
+    /// List people with a sign-in.
+    List,
+}
+
+#[derive(Debug, Clone, Copy, ValueEnum)]
+pub enum StaffRole {
+    Reviewer,
+    Admin,
 }
 
 #[derive(Debug, clap::Args)]
@@ -82,6 +107,7 @@ pub fn run(cli: Cli) -> anyhow::Result<()> {
         Command::Demo(args) => serve(&cli.data_dir, args, true),
         Command::Export(args) => export_records(&cli.data_dir, args),
         Command::Effort(args) => print_effort(&cli.data_dir, &args),
+        Command::User(command) => user(&cli.data_dir, command),
     }
 }
 
@@ -96,6 +122,9 @@ fn serve(data_dir: &std::path::Path, args: ServeArgs, with_demo: bool) -> anyhow
         if with_demo {
             let loaded = demo::load_if_empty(&state).await?;
             println!("demo: {loaded} demo records loaded into {}", data_dir.display());
+            for (username, password, role) in demo::ensure_demo_people(&state).await? {
+                println!("demo sign-in ({role}): username {username}, password {password}");
+            }
         }
         let listener = tokio::net::TcpListener::bind(args.bind).await.with_context(|| format!("binding {}", args.bind))?;
         let address = listener.local_addr()?;
@@ -137,6 +166,39 @@ fn print_effort(data_dir: &std::path::Path, args: &EffortArgs) -> anyhow::Result
     }
     if rows.is_empty() {
         println!("(no survey walks yet)");
+    }
+    Ok(())
+}
+
+fn user(data_dir: &std::path::Path, command: UserCommand) -> anyhow::Result<()> {
+    let state = AppState::open(data_dir, None, crate::load_checklist(None)?)?;
+    let runtime = tokio::runtime::Runtime::new().context("starting the async runtime")?;
+    match command {
+        UserCommand::Add { username, role, display_name } => {
+            let password = match std::env::var("WRACKLINE_PASSWORD") {
+                Ok(password) => password,
+                Err(_) => {
+                    let mut line = String::new();
+                    std::io::stdin().read_line(&mut line).context("reading the password from standard input")?;
+                    line.trim_end_matches(['\r', '\n']).to_owned()
+                }
+            };
+            let role = match role {
+                StaffRole::Reviewer => shared_types::Role::Reviewer,
+                StaffRole::Admin => shared_types::Role::Admin,
+            };
+            let display = display_name.unwrap_or_else(|| username.clone());
+            runtime
+                .block_on(crate::handlers::people::add_staff(&state, username.clone(), role, display, password))
+                .map_err(|err| anyhow::anyhow!("{err}"))?;
+            println!("added {username} ({})", role.code());
+        }
+        UserCommand::List => {
+            for person in state.store.run_here(|conn| crate::store::people::list_staff(conn))? {
+                let off = if person.disabled { " (turned off)" } else { "" };
+                println!("{} {} {}{off}", person.username.unwrap_or_default(), person.role.code(), person.display_name.unwrap_or_default());
+            }
+        }
     }
     Ok(())
 }

@@ -42,7 +42,7 @@ pub async fn load_if_empty(state: &AppState) -> anyhow::Result<usize> {
             .map(|name| photo_bytes(name).map(<[u8]>::to_vec))
             .collect::<anyhow::Result<Vec<_>>>()?;
         let upload = Upload { record_json: serde_json::to_vec(&record.submission)?, photos };
-        intake::accept(state, upload, Utc::now())
+        intake::accept(state, upload, None, Utc::now())
             .await
             .map_err(|err| anyhow::anyhow!("demo record {}: {err}", index + 1))?;
     }
@@ -61,4 +61,22 @@ fn photo_bytes(name: &str) -> anyhow::Result<&'static [u8]> {
         .find(|(file, _)| *file == name)
         .map(|(_, bytes)| *bytes)
         .ok_or_else(|| anyhow::anyhow!("demo photo {name} is not built in"))
+}
+
+/// The demo's sign-ins: (username, password, role). Made only by `wrackline demo`,
+/// never by `serve`; the passwords are printed for whoever tries the demo.
+pub const DEMO_PEOPLE: &[(&str, &str, shared_types::Role)] = &[
+    ("demo-reviewer", "demo-reviewer-pass", shared_types::Role::Reviewer),
+    ("demo-admin", "demo-admin-pass", shared_types::Role::Admin),
+];
+
+/// Adds the demo sign-ins unless they exist; returns them for printing.
+pub async fn ensure_demo_people(state: &AppState) -> anyhow::Result<Vec<(&'static str, &'static str, &'static str)>> {
+    for (username, password, role) in DEMO_PEOPLE {
+        match crate::handlers::people::add_staff(state, (*username).to_owned(), *role, format!("Demo {}", role.code()), (*password).to_owned()).await {
+            Ok(_) | Err(crate::error::ApiError::Conflict(_)) => {}
+            Err(err) => anyhow::bail!("adding the demo sign-in {username}: {err}"),
+        }
+    }
+    Ok(DEMO_PEOPLE.iter().map(|(u, p, r)| (*u, *p, r.code())).collect())
 }

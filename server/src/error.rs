@@ -26,6 +26,15 @@ pub enum ApiError {
     TooLarge(String),
     #[error("{0}")]
     UnsupportedMedia(String),
+    /// No identity, or one that is not signed in.
+    #[error("{0}")]
+    Unauthorized(String),
+    /// Signed in, but not allowed to do this.
+    #[error("{0}")]
+    Forbidden(String),
+    /// Too many failed sign-ins; try again later.
+    #[error("{0}")]
+    TooManyRequests(String),
     #[error(transparent)]
     Internal(#[from] anyhow::Error),
 }
@@ -46,6 +55,9 @@ impl ApiError {
             Self::NotFound(_) => StatusCode::NOT_FOUND,
             Self::TooLarge(_) => StatusCode::PAYLOAD_TOO_LARGE,
             Self::UnsupportedMedia(_) => StatusCode::UNSUPPORTED_MEDIA_TYPE,
+            Self::Unauthorized(_) => StatusCode::UNAUTHORIZED,
+            Self::Forbidden(_) => StatusCode::FORBIDDEN,
+            Self::TooManyRequests(_) => StatusCode::TOO_MANY_REQUESTS,
             Self::Internal(_) => StatusCode::INTERNAL_SERVER_ERROR,
         }
     }

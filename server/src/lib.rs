@@ -6,6 +6,7 @@
 //! [`export`], [`demo`] (the work, with no HTTP in it) → [`store`] (the only code that
 //! runs SQL).
 
+pub mod auth;
 pub mod cli;
 pub mod demo;
 pub mod error;
@@ -14,6 +15,7 @@ pub mod export;
 pub mod flags;
 pub mod handlers;
 pub mod intake;
+pub mod review;
 pub mod router;
 pub mod store;
 
@@ -30,6 +32,8 @@ pub struct AppState {
     pub app_dir: Option<PathBuf>,
     /// The species checklist the key, the flags and the exports use.
     pub checklist: std::sync::Arc<species_key::Checklist>,
+    /// Failed sign-ins per username, for the rate limit.
+    pub logins: auth::LoginLimiter,
 }
 
 /// The demo checklist, built in; `--checklist FILE` replaces it.
@@ -54,7 +58,7 @@ impl AppState {
             .with_context(|| format!("creating the data directory {}", data_dir.display()))?;
         let store = store::Store::open(&data_dir.join("wrackline.sqlite3"))?;
         let photos = intake::photos::PhotoFiles::open(&data_dir.join("photos"))?;
-        Ok(Self { store, photos, app_dir, checklist: std::sync::Arc::new(checklist) })
+        Ok(Self { store, photos, app_dir, checklist: std::sync::Arc::new(checklist), logins: auth::LoginLimiter::default() })
     }
 }
 

@@ -10,8 +10,62 @@ use tower_http::set_header::{SetResponseHeader, SetResponseHeaderLayer};
 
 use crate::AppState;
 use crate::error::ApiError;
-use crate::handlers::{checklist, export, health, observations, photos, walks};
+use crate::handlers::{checklist, export, health, mine, observations, people, photos, review, session, walks};
 use crate::intake::photos::{MAX_PHOTO_BYTES, MAX_PHOTOS_PER_RECORD};
+
+/// Who may use a route. Handlers enforce it with the extractors in
+/// `handlers::access`; this table says it in one place, and the access-matrix test
+/// checks every route against every kind of caller from it.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Access {
+    /// Anyone; record and walk ids made on the phone are unguessable UUIDs.
+    Public,
+    /// A phone with its device identity; only its own records.
+    Observer,
+    /// A signed-in reviewer or admin.
+    Reviewer,
+    /// A signed-in admin.
+    Admin,
+}
+
+/// One route: method, path (as in the router) and who may use it.
+#[derive(Debug, Clone, Copy)]
+pub struct RouteSpec {
+    pub method: &'static str,
+    pub path: &'static str,
+    pub access: Access,
+}
+
+const fn route(method: &'static str, path: &'static str, access: Access) -> RouteSpec {
+    RouteSpec { method, path, access }
+}
+
+/// Every route below, with its access. Keep in step with [`app`] (a test reads both).
+pub const ROUTES: &[RouteSpec] = &[
+    route("GET", "/healthz", Access::Public),
+    route("POST", "/api/observations", Access::Public),
+    route("GET", "/api/observations", Access::Reviewer),
+    route("GET", "/api/observations/{client_id}", Access::Reviewer),
+    route("PUT", "/api/observations/{client_id}/walk", Access::Public),
+    route("POST", "/api/walks", Access::Public),
+    route("GET", "/api/walks", Access::Reviewer),
+    route("GET", "/api/effort", Access::Public),
+    route("GET", "/api/export", Access::Public),
+    route("GET", "/api/checklist", Access::Public),
+    route("POST", "/api/session", Access::Public),
+    route("GET", "/api/session", Access::Public),
+    route("DELETE", "/api/session", Access::Public),
+    route("POST", "/api/devices", Access::Public),
+    route("GET", "/api/my/records", Access::Observer),
+    route("POST", "/api/my/records/{client_id}/replies", Access::Observer),
+    route("GET", "/api/review/queue", Access::Reviewer),
+    route("GET", "/api/review/records/{client_id}", Access::Reviewer),
+    route("POST", "/api/review/records/{client_id}/actions", Access::Reviewer),
+    route("GET", "/api/people", Access::Admin),
+    route("POST", "/api/people", Access::Admin),
+    route("PUT", "/api/people/{username}/disabled", Access::Admin),
+    route("GET", "/photos/{sha256}", Access::Public),
+];
 
 /// The whole HTTP surface. Unknown `/api/` paths are a JSON 404; any other unknown path
 /// is the app's `index.html` (status 200), so the app's own links work on reload.
@@ -29,7 +83,16 @@ pub fn app(state: AppState) -> Router {
         .route("/api/effort", get(walks::effort))
         .route("/api/export", get(export::export))
         .route("/api/checklist", get(checklist::get))
-        .route("/api/{*rest}", get(api_not_found).post(api_not_found).put(api_not_found))
+        .route("/api/session", post(session::login).get(session::who).delete(session::logout))
+        .route("/api/devices", post(session::new_device))
+        .route("/api/my/records", get(mine::records))
+        .route("/api/my/records/{client_id}/replies", post(mine::reply).layer(DefaultBodyLimit::max(upload_limit)))
+        .route("/api/review/queue", get(review::queue))
+        .route("/api/review/records/{client_id}", get(review::detail))
+        .route("/api/review/records/{client_id}/actions", post(review::act))
+        .route("/api/people", get(people::list).post(people::add))
+        .route("/api/people/{username}/disabled", put(people::set_disabled))
+        .route("/api/{*rest}", get(api_not_found).post(api_not_found).put(api_not_found).delete(api_not_found))
         .route("/photos/{sha256}", get(photos::get));
     let router = match &state.app_dir {
         Some(dir) => api.fallback_service(app_files(dir)),

@@ -6,9 +6,11 @@
 //! the browser, so the app and the server validate a record with the same code.
 
 pub mod record;
+pub mod review;
 pub mod values;
 pub mod walk;
 
 pub use record::*;
+pub use review::*;
 pub use values::*;
 pub use walk::*;

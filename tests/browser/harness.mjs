@@ -1,6 +1,6 @@
 // Shared pieces of the browser tests: the real wrackline binary on a free port with a
 // fresh data directory, and Debian's Chromium driven by playwright-core.
-import { spawn } from 'node:child_process';
+import { spawn, execFileSync } from 'node:child_process';
 import { mkdtempSync, mkdirSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
@@ -12,9 +12,14 @@ const required = (name) => {
   return value;
 };
 
-// Starts `wrackline serve` on 127.0.0.1:0 and resolves once it prints its address.
+export const REVIEWER = { username: 'browser-reviewer', password: 'browser-reviewer-pass' };
+
+// Starts `wrackline serve` on 127.0.0.1:0 with a reviewer sign-in made by
+// `wrackline user add`, and resolves once it prints its address.
 export async function startServer() {
   const dataDir = mkdtempSync(path.join(tmpdir(), 'wrackline-browser-'));
+  execFileSync(required('WRACKLINE_BIN'), ['--data-dir', dataDir, 'user', 'add', '--username', REVIEWER.username, '--role', 'reviewer'],
+    { env: { ...process.env, WRACKLINE_PASSWORD: REVIEWER.password }, stdio: ['ignore', 'ignore', 'inherit'] });
   const child = spawn(required('WRACKLINE_BIN'), [
     '--data-dir', dataDir, 'serve', '--bind', '127.0.0.1:0', '--app-dir', required('WRACKLINE_APP_DIR'),
   ], { stdio: ['ignore', 'pipe', 'inherit'] });
@@ -28,14 +33,23 @@ export async function startServer() {
     });
     child.on('exit', (code) => { clearTimeout(timer); reject(new Error(`server exited with ${code}: ${seen}`)); });
   });
+  let session = null;
+  // GETs a path as the signed-in reviewer.
+  async function get(pathname) {
+    if (!session) {
+      const login = await fetch(`${url}/api/session`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify(REVIEWER) });
+      if (!login.ok) throw new Error(`reviewer sign-in: ${login.status}`);
+      session = login.headers.get('set-cookie').split(';')[0];
+    }
+    const response = await fetch(`${url}${pathname}`, { headers: { cookie: session } });
+    if (!response.ok) throw new Error(`GET ${pathname}: ${response.status}`);
+    return response.json();
+  }
   return {
     url,
     dataDir,
-    async records() {
-      const response = await fetch(`${url}/api/observations`);
-      if (!response.ok) throw new Error(`listing records: ${response.status}`);
-      return response.json();
-    },
+    get,
+    records: () => get('/api/observations'),
     stop() { child.kill('SIGTERM'); },
   };
 }

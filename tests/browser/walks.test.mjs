@@ -73,7 +73,7 @@ test('a walk made offline reaches the server once, with its route and its record
     await page.click('#send-now');
     await page.waitForTimeout(1000);
 
-    const walks = await (await fetch(`${server.url}/api/walks`)).json();
+    const walks = await server.get('/api/walks');
     assert.equal(walks.length, 1, 'a walk sent twice is one walk');
     const [walk] = walks;
     assert.equal(walk.walk.stretch, 'Borth to Ynyslas');
@@ -90,10 +90,13 @@ test('a walk made offline reaches the server once, with its route and its record
     await page.waitForFunction(() => document.querySelector('.outbox-entry')?.textContent.includes('received by the server'), null, { timeout: 15000 });
     const late = page.locator('.outbox-entry', { hasText: 'spurdog' });
     await late.locator('select.add-to-walk').selectOption({ index: 1 });
-    await page.waitForFunction(async (url) => {
-      const [w] = await (await fetch(`${url}/api/walks`)).json();
-      return w.record_client_ids.length === 3;
-    }, server.url, { timeout: 15000 });
+    for (let tries = 0; ; tries++) {
+      const [w] = await server.get('/api/walks');
+      if (w.record_client_ids.length === 3) break;
+      if (tries >= 30) console.log('STATE', await page.textContent('#outbox-list'), await page.textContent('#sync-status'));
+      assert.ok(tries < 30, `the late link never arrived: ${JSON.stringify(w.record_client_ids)}`);
+      await page.waitForTimeout(500);
+    }
   } finally {
     await context.close();
     server.stop();

@@ -1,9 +1,14 @@
 //! HTTP handlers, grouped by resource. They read the request, call the module that
 //! does the work, and turn its answer into a response; nothing else.
 
+pub mod access;
 pub mod checklist;
 pub mod export;
 pub mod health;
+pub mod mine;
 pub mod observations;
+pub mod people;
 pub mod photos;
+pub mod review;
+pub mod session;
 pub mod walks;

@@ -9,39 +9,38 @@ use uuid::Uuid;
 
 use crate::AppState;
 use crate::error::ApiError;
+use crate::handlers::access::{Caller, Reviewer};
 use crate::intake::{self, IntakeError, Upload};
 use crate::store::observations;
 
 /// `POST /api/observations`. Answers 200 with a receipt only once the record and its
 /// photos are durably stored; a resend of the same record gets the same receipt.
-pub async fn submit(State(state): State<AppState>, multipart: Multipart) -> Result<Json<Receipt>, ApiError> {
-    let upload = read_upload(multipart).await?;
-    let accepted = intake::accept(&state, upload, Utc::now()).await.map_err(intake_error)?;
+/// A phone that shows its device identity has the record put under its observer.
+pub async fn submit(State(state): State<AppState>, caller: Caller, multipart: Multipart) -> Result<Json<Receipt>, ApiError> {
+    let (record_json, photos) = read_parts(multipart, "record").await?;
+    let observer = caller.person.filter(|p| p.role == shared_types::Role::Observer).map(|p| p.id);
+    let accepted = intake::accept(&state, Upload { record_json, photos }, observer, Utc::now()).await.map_err(intake_error)?;
     if accepted.replayed {
         tracing::info!(client_id = %accepted.receipt.client_id, "resend of a stored record");
     }
     Ok(Json(accepted.receipt))
 }
 
-async fn read_upload(mut multipart: Multipart) -> Result<Upload, ApiError> {
-    let mut upload = Upload::default();
-    let mut saw_record = false;
+/// Reads a multipart form of one JSON part called `json_part` and any `photo` parts.
+pub async fn read_parts(mut multipart: Multipart, json_part: &str) -> Result<(Vec<u8>, Vec<Vec<u8>>), ApiError> {
+    let mut json = None;
+    let mut photos = Vec::new();
     while let Some(field) = multipart.next_field().await.map_err(multipart_error)? {
         let name = field.name().unwrap_or_default().to_owned();
         let bytes = field.bytes().await.map_err(multipart_error)?;
         match name.as_str() {
-            "record" => {
-                upload.record_json = bytes.to_vec();
-                saw_record = true;
-            }
-            "photo" => upload.photos.push(bytes.to_vec()),
-            other => return Err(ApiError::BadRequest(format!("unexpected form part `{other}`; send `record` and `photo` parts"))),
+            "photo" => photos.push(bytes.to_vec()),
+            part if part == json_part => json = Some(bytes.to_vec()),
+            other => return Err(ApiError::BadRequest(format!("unexpected form part `{other}`; send `{json_part}` and `photo` parts"))),
         }
     }
-    if !saw_record {
-        return Err(ApiError::BadRequest("the form has no `record` part with the record's JSON".into()));
-    }
-    Ok(upload)
+    let json = json.ok_or_else(|| ApiError::BadRequest(format!("the form has no `{json_part}` part with its JSON")))?;
+    Ok((json, photos))
 }
 
 fn multipart_error(err: axum::extract::multipart::MultipartError) -> ApiError {
@@ -65,13 +64,13 @@ pub fn intake_error(err: IntakeError) -> ApiError {
     }
 }
 
-/// `GET /api/observations`: every stored record.
-pub async fn list(State(state): State<AppState>) -> Result<Json<Vec<RecordView>>, ApiError> {
+/// `GET /api/observations`: every stored record (reviewers: exact places, names).
+pub async fn list(State(state): State<AppState>, Reviewer(_): Reviewer) -> Result<Json<Vec<RecordView>>, ApiError> {
     Ok(Json(state.store.run(|conn| observations::list_records(conn)).await?))
 }
 
 /// `GET /api/observations/{client_id}`.
-pub async fn get(State(state): State<AppState>, Path(client_id): Path<String>) -> Result<Json<RecordView>, ApiError> {
+pub async fn get(State(state): State<AppState>, Reviewer(_): Reviewer, Path(client_id): Path<String>) -> Result<Json<RecordView>, ApiError> {
     let client_id = Uuid::parse_str(&client_id)
         .map_err(|_| ApiError::BadRequest(format!("`{client_id}` is not a record id (a UUID)")))?;
     state

@@ -12,6 +12,7 @@ use uuid::Uuid;
 use crate::AppState;
 use crate::effort::{self, EffortRow, Period};
 use crate::error::ApiError;
+use crate::handlers::access::Reviewer;
 use crate::handlers::observations::intake_error;
 use crate::intake::{parse_json, walks as intake_walks};
 use crate::store::walks::{self, LinkOutcome, StoredWalk};
@@ -21,8 +22,8 @@ pub async fn submit(State(state): State<AppState>, body: Bytes) -> Result<Json<W
     intake_walks::accept_walk(&state, &body, Utc::now()).await.map(Json).map_err(intake_error)
 }
 
-/// `GET /api/walks`.
-pub async fn list(State(state): State<AppState>) -> Result<Json<Vec<StoredWalk>>, ApiError> {
+/// `GET /api/walks` (reviewers: tracks are never public).
+pub async fn list(State(state): State<AppState>, Reviewer(_): Reviewer) -> Result<Json<Vec<StoredWalk>>, ApiError> {
     Ok(Json(state.store.run(|conn| walks::list_walks(conn)).await?))
 }
 

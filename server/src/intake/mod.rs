@@ -85,19 +85,12 @@ fn missing_field(message: &str) -> Option<&str> {
 }
 
 /// Checks, stores and links everything in `upload`.
-pub async fn accept(state: &AppState, upload: Upload, now: DateTime<Utc>) -> Result<Accepted, IntakeError> {
+pub async fn accept(state: &AppState, upload: Upload, observer_id: Option<i64>, now: DateTime<Utc>) -> Result<Accepted, IntakeError> {
     let submission = parse_submission(&upload.record_json, now)?;
-    if upload.photos.len() > MAX_PHOTOS_PER_RECORD {
-        return Err(IntakeError::TooManyPhotos(upload.photos.len()));
-    }
     let record_offset = *submission.observed_at.offset();
-    let photo_files = state.photos.clone();
-    // Hashing, EXIF and file writes are blocking work.
-    let stored = tokio::task::spawn_blocking(move || store_photo_files(&photo_files, upload.photos, record_offset))
-        .await
-        .map_err(|err| anyhow::anyhow!("photo task failed: {err}"))??;
+    let stored = store_photos(state, upload.photos, record_offset).await?;
     let (flags, guessed_taxon) = arrival_flags(state, &submission).await?;
-    let new = NewObservation { content_sha256: content_hash(&submission, &stored), submission, photos: stored, flags, guessed_taxon };
+    let new = NewObservation { content_sha256: content_hash(&submission, &stored), submission, photos: stored, flags, guessed_taxon, observer_id };
     let client_id = new.submission.client_id;
     let outcome = state.store.run(move |conn| observations::insert_observation(conn, &new, now)).await.map_err(anyhow::Error::from)?;
     match outcome {
@@ -105,6 +98,17 @@ pub async fn accept(state: &AppState, upload: Upload, now: DateTime<Utc>) -> Res
         Insertion::Replayed(receipt) => Ok(Accepted { receipt, replayed: true }),
         Insertion::Conflict => Err(IntakeError::Conflict(client_id)),
     }
+}
+
+/// Checks and writes photo files (blocking work, so on the blocking pool).
+pub async fn store_photos(state: &AppState, photos: Vec<Vec<u8>>, record_offset: chrono::FixedOffset) -> Result<Vec<StoredPhoto>, IntakeError> {
+    if photos.len() > MAX_PHOTOS_PER_RECORD {
+        return Err(IntakeError::TooManyPhotos(photos.len()));
+    }
+    let photo_files = state.photos.clone();
+    tokio::task::spawn_blocking(move || store_photo_files(&photo_files, photos, record_offset))
+        .await
+        .map_err(|err| anyhow::anyhow!("photo task failed: {err}"))?
 }
 
 /// Flags for reviewers and the species' scientific name, when the record names a

@@ -8,6 +8,8 @@
 
 mod migrate;
 pub mod observations;
+pub mod people;
+pub mod review;
 pub mod walks;
 
 use std::path::Path;

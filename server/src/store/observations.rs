@@ -28,6 +28,8 @@ pub struct NewObservation {
     pub flags: Vec<RecordFlag>,
     /// The checklist's scientific name for the observer's guess, when it matched one.
     pub guessed_taxon: Option<String>,
+    /// The observer's person id, when the phone sent its device identity.
+    pub observer_id: Option<i64>,
 }
 
 /// What happened to a submission.
@@ -96,8 +98,8 @@ fn insert_observation_row(tx: &Transaction, new: &NewObservation, organism_id: i
     tx.execute(
         "INSERT INTO observations (client_id, content_sha256, organism_id, observed_at, observed_at_utc,
             latitude, longitude, accuracy_m, position_source, count, condition, setting, sex, notes,
-            observer_name, review_state, submission_json, received_at, walk_client_id)
-         VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, ?12, ?13, ?14, ?15, ?16, ?17, ?18, ?19)",
+            observer_name, review_state, submission_json, received_at, walk_client_id, observer_id)
+         VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, ?12, ?13, ?14, ?15, ?16, ?17, ?18, ?19, ?20)",
         params![
             sub.client_id.to_string(),
             new.content_sha256,
@@ -118,6 +120,7 @@ fn insert_observation_row(tx: &Transaction, new: &NewObservation, organism_id: i
             json,
             received_at,
             sub.walk_client_id.map(|id| id.to_string()),
+            new.observer_id,
         ],
     )?;
     Ok(tx.last_insert_rowid())
@@ -163,7 +166,8 @@ fn insert_details(tx: &Transaction, observation_id: i64, new: &NewObservation, r
     Ok(())
 }
 
-fn link_photo(tx: &Transaction, observation_id: i64, position: usize, photo: &StoredPhoto, received_at: &str) -> Result<(), StoreError> {
+/// Stores a photo row (once per file) and links it to an observation at `position`.
+pub(super) fn link_photo(tx: &Transaction, observation_id: i64, position: usize, photo: &StoredPhoto, received_at: &str) -> Result<(), StoreError> {
     let exif = &photo.exif;
     // The same file may already be stored for another record: keep the first row.
     tx.execute(

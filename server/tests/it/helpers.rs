@@ -11,8 +11,26 @@ pub struct TestApp {
     pub base: String,
     pub client: reqwest::Client,
     pub data_dir: PathBuf,
+    /// A signed-in reviewer, for reading records back.
+    pub reviewer: Staff,
     _dir: tempfile::TempDir,
 }
+
+/// A signed-in reviewer or admin: the session cookie and its CSRF token.
+#[derive(Clone)]
+pub struct Staff {
+    pub cookie: String,
+    pub csrf: String,
+}
+
+impl Staff {
+    /// Adds the session's headers to a request.
+    pub fn sign(&self, request: reqwest::RequestBuilder) -> reqwest::RequestBuilder {
+        request.header("cookie", &self.cookie).header("x-csrf-token", &self.csrf)
+    }
+}
+
+pub const REVIEWER_PASSWORD: &str = "test-reviewer-pass";
 
 pub async fn spawn_app() -> TestApp {
     spawn_app_with(None).await
@@ -23,10 +41,29 @@ pub async fn spawn_app_with(app_dir: Option<PathBuf>) -> TestApp {
     let data_dir = dir.path().join("data");
     let checklist = wrackline_server::load_checklist(None).expect("demo checklist");
     let state = AppState::open(&data_dir, app_dir, checklist).expect("open state");
+    for (username, role) in [("test-reviewer", shared_types::Role::Reviewer), ("test-admin", shared_types::Role::Admin)] {
+        wrackline_server::handlers::people::add_staff(&state, username.into(), role, format!("Test {}", role.code()), REVIEWER_PASSWORD.into())
+            .await
+            .expect("add staff");
+    }
     let listener = tokio::net::TcpListener::bind("127.0.0.1:0").await.expect("bind");
     let base = format!("http://{}", listener.local_addr().unwrap());
     tokio::spawn(async move { axum::serve(listener, wrackline_server::app(state)).await.unwrap() });
-    TestApp { base, client: reqwest::Client::new(), data_dir, _dir: dir }
+    let client = reqwest::Client::new();
+    let reviewer = sign_in(&client, &base, "test-reviewer", REVIEWER_PASSWORD).await.expect("reviewer signs in");
+    TestApp { base, client, data_dir, reviewer, _dir: dir }
+}
+
+/// Signs in over HTTP, or says what the server answered.
+pub async fn sign_in(client: &reqwest::Client, base: &str, username: &str, password: &str) -> Result<Staff, (u16, Value)> {
+    let response = client.post(format!("{base}/api/session")).json(&json!({"username": username, "password": password})).send().await.unwrap();
+    let status = response.status().as_u16();
+    let cookie = response.headers().get("set-cookie").and_then(|v| v.to_str().ok()).map(|v| v.split(';').next().unwrap_or_default().to_owned());
+    let body: Value = response.json().await.unwrap_or(Value::Null);
+    match (status, cookie) {
+        (200, Some(cookie)) => Ok(Staff { cookie, csrf: body["csrf_token"].as_str().unwrap_or_default().to_owned() }),
+        _ => Err((status, body)),
+    }
 }
 
 /// A valid submission; tests change what they need.
@@ -69,13 +106,32 @@ impl TestApp {
         self.submit_raw(&record.to_string(), photos).await
     }
 
+    /// Every record, as the signed-in reviewer sees them.
     pub async fn records(&self) -> Vec<Value> {
-        let value: Value = self.client.get(format!("{}/api/observations", self.base)).send().await.unwrap().json().await.unwrap();
+        let value: Value = self.get("/api/observations").await.json().await.unwrap();
         value.as_array().expect("a list").clone()
     }
 
+    /// A GET as the signed-in reviewer.
     pub async fn get(&self, path: &str) -> reqwest::Response {
-        self.client.get(format!("{}{path}", self.base)).send().await.unwrap()
+        self.reviewer.sign(self.client.get(format!("{}{path}", self.base))).send().await.unwrap()
+    }
+
+    /// A new phone identity.
+    pub async fn new_device(&self) -> String {
+        let body: Value = self.client.post(format!("{}/api/devices", self.base)).json(&json!({"display_name": "Test Phone"})).send().await.unwrap().json().await.unwrap();
+        body["token"].as_str().expect("a token").to_owned()
+    }
+
+    /// Submits as a phone with its device identity.
+    pub async fn submit_as(&self, token: &str, record: &Value, photos: &[Vec<u8>]) -> Answer {
+        let mut form = Form::new().text("record", record.to_string());
+        for (i, bytes) in photos.iter().enumerate() {
+            form = form.part("photo", Part::bytes(bytes.clone()).file_name(format!("p{i}.jpg")));
+        }
+        let response = self.client.post(format!("{}/api/observations", self.base)).bearer_auth(token).multipart(form).send().await.unwrap();
+        let status = response.status().as_u16();
+        Answer { status, body: response.json().await.unwrap_or(Value::Null) }
     }
 }
 

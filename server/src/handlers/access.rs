@@ -1,0 +1,107 @@
+//! Who is calling, and what they may do. Every handler that needs an identity takes
+//! one of these extractors, which run before the body is read, so a request without
+//! the right identity is refused (401/403) whatever it carries.
+//!
+//! - A phone shows its device identity as `Authorization: Bearer <token>` (observers).
+//! - Reviewers and admins carry the `wrackline_session` cookie (HttpOnly, SameSite=Strict),
+//!   and every state-changing request made with it must carry the session's CSRF token in
+//!   `X-CSRF-Token`; a bearer token cannot be sent by another site, so it needs none.
+
+use axum::extract::FromRequestParts;
+use axum::http::request::Parts;
+use axum::http::{Method, header};
+use chrono::Utc;
+use shared_types::Role;
+
+use crate::AppState;
+use crate::auth::token_sha256;
+use crate::error::ApiError;
+use crate::store::people::{self, Person};
+
+pub const SESSION_COOKIE: &str = "wrackline_session";
+
+/// Whoever is calling, if anyone.
+#[derive(Debug, Clone)]
+pub struct Caller {
+    pub person: Option<Person>,
+    /// The session token's hash, when the caller came with the cookie.
+    pub session_sha256: Option<String>,
+}
+
+fn bearer(parts: &Parts) -> Option<String> {
+    let value = parts.headers.get(header::AUTHORIZATION)?.to_str().ok()?;
+    value.strip_prefix("Bearer ").map(|t| t.trim().to_owned())
+}
+
+/// The value of one cookie from the `Cookie` header.
+pub fn cookie(parts: &Parts, name: &str) -> Option<String> {
+    parts.headers.get_all(header::COOKIE).iter().filter_map(|v| v.to_str().ok()).flat_map(|v| v.split(';')).find_map(|pair| {
+        let (key, value) = pair.trim().split_once('=')?;
+        (key == name).then(|| value.to_owned())
+    })
+}
+
+impl FromRequestParts<AppState> for Caller {
+    type Rejection = ApiError;
+
+    async fn from_request_parts(parts: &mut Parts, state: &AppState) -> Result<Self, Self::Rejection> {
+        if let Some(token) = bearer(parts) {
+            let hash = token_sha256(&token);
+            let person = state.store.run(move |conn| people::person_by_device(conn, &hash)).await?;
+            let person = person.ok_or_else(|| ApiError::Unauthorized("this device identity is not known here; ask for a new one".into()))?;
+            return Ok(Caller { person: Some(person), session_sha256: None });
+        }
+        let Some(token) = cookie(parts, SESSION_COOKIE) else {
+            return Ok(Caller { person: None, session_sha256: None });
+        };
+        let hash = token_sha256(&token);
+        let lookup = hash.clone();
+        let found = state.store.run(move |conn| people::session(conn, &lookup, Utc::now())).await?;
+        let Some((person, csrf)) = found else {
+            return Err(ApiError::Unauthorized("your sign-in has ended; sign in again".into()));
+        };
+        if person.disabled {
+            return Err(ApiError::Forbidden("this sign-in has been turned off".into()));
+        }
+        let changes_state = !matches!(parts.method, Method::GET | Method::HEAD | Method::OPTIONS);
+        let sent = parts.headers.get("x-csrf-token").and_then(|v| v.to_str().ok());
+        if changes_state && sent != Some(csrf.as_str()) {
+            return Err(ApiError::Forbidden("missing or wrong X-CSRF-Token for this sign-in".into()));
+        }
+        Ok(Caller { person: Some(person), session_sha256: Some(hash) })
+    }
+}
+
+async fn person_with(parts: &mut Parts, state: &AppState, allowed: &[Role], what: &str) -> Result<Person, ApiError> {
+    let caller = Caller::from_request_parts(parts, state).await?;
+    let person = caller.person.ok_or_else(|| ApiError::Unauthorized(format!("sign in first: {what}")))?;
+    if allowed.contains(&person.role) { Ok(person) } else { Err(ApiError::Forbidden(format!("not allowed: {what}"))) }
+}
+
+/// A phone with its device identity.
+pub struct Observer(pub Person);
+/// A signed-in reviewer or admin.
+pub struct Reviewer(pub Person);
+/// A signed-in admin.
+pub struct Admin(pub Person);
+
+impl FromRequestParts<AppState> for Observer {
+    type Rejection = ApiError;
+    async fn from_request_parts(parts: &mut Parts, state: &AppState) -> Result<Self, Self::Rejection> {
+        person_with(parts, state, &[Role::Observer], "this needs the phone's own identity").await.map(Observer)
+    }
+}
+
+impl FromRequestParts<AppState> for Reviewer {
+    type Rejection = ApiError;
+    async fn from_request_parts(parts: &mut Parts, state: &AppState) -> Result<Self, Self::Rejection> {
+        person_with(parts, state, &[Role::Reviewer, Role::Admin], "reviewers only").await.map(Reviewer)
+    }
+}
+
+impl FromRequestParts<AppState> for Admin {
+    type Rejection = ApiError;
+    async fn from_request_parts(parts: &mut Parts, state: &AppState) -> Result<Self, Self::Rejection> {
+        person_with(parts, state, &[Role::Admin], "admins only").await.map(Admin)
+    }
+}

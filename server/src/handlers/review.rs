@@ -1,0 +1,128 @@
+//! The review queue, the record view for reviewers, and review actions.
+
+use axum::Json;
+use axum::body::Bytes;
+use axum::extract::{Path, Query, State};
+use chrono::Utc;
+use serde::Deserialize;
+use shared_types::{FlagKind, QueueItem, ReviewAction, ReviewDetail, ReviewState};
+use uuid::Uuid;
+
+use crate::AppState;
+use crate::error::ApiError;
+use crate::handlers::access::Reviewer;
+use crate::handlers::observations::intake_error;
+use crate::intake::parse_json;
+use crate::review;
+use crate::store::{observations, review as review_store};
+
+fn record_id(text: &str) -> Result<Uuid, ApiError> {
+    Uuid::parse_str(text).map_err(|_| ApiError::BadRequest(format!("`{text}` is not a record id (a UUID)")))
+}
+
+/// Queue filters; all optional.
+#[derive(Debug, Default, Deserialize)]
+pub struct QueueFilter {
+    /// A review state code; default: awaiting review and details requested.
+    state: Option<String>,
+    /// A taxon name at any rank (matched against the checklist's higher taxa too).
+    taxon: Option<String>,
+    /// A flag kind code (oversize, out_of_range).
+    flag: Option<String>,
+    /// Observed on or after / before, `YYYY-MM-DD`.
+    from: Option<String>,
+    to: Option<String>,
+    /// A checklist area code.
+    area: Option<String>,
+}
+
+/// `GET /api/review/queue`.
+pub async fn queue(State(state): State<AppState>, Reviewer(_): Reviewer, Query(filter): Query<QueueFilter>) -> Result<Json<Vec<QueueItem>>, ApiError> {
+    let states = match filter.state.as_deref() {
+        None => vec![ReviewState::AwaitingReview, ReviewState::DetailsRequested],
+        Some("any") => Vec::new(),
+        Some(code) => vec![ReviewState::from_code(code).ok_or_else(|| ApiError::BadRequest(format!("unknown review state `{code}`")))?],
+    };
+    let flag = filter
+        .flag
+        .as_deref()
+        .map(|code| serde_json::from_value::<FlagKind>(serde_json::Value::String(code.to_owned())).map_err(|_| ApiError::BadRequest(format!("unknown flag `{code}`; use oversize or out_of_range"))))
+        .transpose()?;
+    let rows = state
+        .store
+        .run(move |conn| {
+            review_store::records_in_states(conn, &states)?
+                .into_iter()
+                .filter_map(|id| observations::record_by_client_id(conn, id).transpose())
+                .map(|record| {
+                    let record = record?;
+                    let taxon = review_store::current_taxon(conn, record.observation_id)?;
+                    Ok((record, taxon))
+                })
+                .collect::<Result<Vec<_>, crate::store::StoreError>>()
+        })
+        .await?;
+    let checklist = state.checklist.clone();
+    let mut items: Vec<_> = rows
+        .into_iter()
+        .filter(|(record, taxon)| matches_filter(record, taxon.as_deref(), &filter, flag, &checklist))
+        .map(|(record, taxon)| {
+            let (score, reasons) = review::priority(&record, taxon.as_deref(), &checklist);
+            (score, record, reasons, taxon)
+        })
+        .collect();
+    review::order(&mut items);
+    Ok(Json(items.into_iter().map(|(_, record, priority_reasons, current_taxon)| QueueItem { record, current_taxon, priority_reasons }).collect()))
+}
+
+fn matches_filter(record: &shared_types::RecordView, taxon: Option<&str>, filter: &QueueFilter, flag: Option<FlagKind>, checklist: &species_key::Checklist) -> bool {
+    let day = record.submission.observed_at.format("%Y-%m-%d").to_string();
+    let taxon_ok = filter.taxon.as_deref().is_none_or(|wanted| {
+        taxon.is_some_and(|name| {
+            name.eq_ignore_ascii_case(wanted)
+                || checklist.taxon(name).is_some_and(|t| [&t.genus, &t.family, &t.order, &t.superorder].iter().any(|h| h.eq_ignore_ascii_case(wanted)))
+        })
+    });
+    let area_ok = filter.area.as_deref().is_none_or(|code| {
+        record.submission.position.is_some_and(|p| checklist.area_at(p.latitude.get(), p.longitude.get()).is_some_and(|a| a.code == code))
+    });
+    taxon_ok
+        && area_ok
+        && flag.is_none_or(|kind| record.flags.iter().any(|f| f.kind == kind))
+        && filter.from.as_deref().is_none_or(|from| day.as_str() >= from)
+        && filter.to.as_deref().is_none_or(|to| day.as_str() <= to)
+}
+
+/// `GET /api/review/records/{client_id}`.
+pub async fn detail(State(state): State<AppState>, Reviewer(_): Reviewer, Path(client_id): Path<String>) -> Result<Json<ReviewDetail>, ApiError> {
+    let id = record_id(&client_id)?;
+    let found = state
+        .store
+        .run(move |conn| {
+            let Some(record) = observations::record_by_client_id(conn, id)? else { return Ok(None) };
+            let observation = record.observation_id;
+            let taxon = review_store::current_taxon(conn, observation)?;
+            Ok(Some((record, taxon, review_store::identifications(conn, observation)?, review_store::messages(conn, observation)?, review_store::events(conn, observation)?)))
+        })
+        .await?;
+    let (record, taxon, identifications, messages, events) = found.ok_or_else(|| ApiError::NotFound(format!("no record with id {id}")))?;
+    let (_, priority_reasons) = review::priority(&record, taxon.as_deref(), &state.checklist);
+    Ok(Json(ReviewDetail { record, identifications, messages, events, priority_reasons }))
+}
+
+/// `POST /api/review/records/{client_id}/actions`: confirm, ask for details, or mark
+/// not confirmable. Answers with the new state.
+pub async fn act(State(state): State<AppState>, Reviewer(reviewer): Reviewer, Path(client_id): Path<String>, body: Bytes) -> Result<Json<serde_json::Value>, ApiError> {
+    let id = record_id(&client_id)?;
+    let action: ReviewAction = parse_json(&body).map_err(intake_error)?;
+    let person = reviewer.id;
+    let outcome = state
+        .store
+        .run(move |conn| review_store::apply(conn, id, person, Utc::now(), |current| review::decide(current, &action)))
+        .await?;
+    match outcome {
+        None => Err(ApiError::NotFound(format!("no record with id {id}"))),
+        Some(Err(refused)) => Err(ApiError::Conflict(refused.to_string())),
+        Some(Ok(new_state)) => Ok(Json(serde_json::json!({"client_id": id, "review_state": new_state}))),
+    }
+}
