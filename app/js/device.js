@@ -5,7 +5,7 @@
 // fetches and reports.
 
 const DB_NAME = 'wrackline';
-const DB_VERSION = 2;
+const DB_VERSION = 3;
 
 function request(req) {
   return new Promise((resolve, reject) => {
@@ -41,17 +41,23 @@ function db() {
       if (event.oldVersion < 2) {
         d.createObjectStore('walks', { keyPath: 'id' });
       }
+      // Version 3: one row per reply to a reviewer {id, json}; its photos go in
+      // 'photos' under the reply's id.
+      if (event.oldVersion < 3) {
+        d.createObjectStore('replies', { keyPath: 'id' });
+      }
     };
     opened = request(req);
   }
   return opened;
 }
 
-// Saves an entry and, when `files` is given, replaces its photos, in one transaction.
-export async function saveEntry(id, json, files) {
+// Saves an entry of `store` ('entries' or 'replies') and, when `files` is given,
+// replaces its photos, in one transaction.
+export async function saveEntry(id, json, files, store = 'entries') {
   const d = await db();
-  const tx = d.transaction(['entries', 'photos'], 'readwrite');
-  tx.objectStore('entries').put({ id, json });
+  const tx = d.transaction([store, 'photos'], 'readwrite');
+  tx.objectStore(store).put({ id, json });
   if (files) {
     const photos = tx.objectStore('photos');
     photos.delete(IDBKeyRange.bound([id, 0], [id, Number.MAX_SAFE_INTEGER]));
@@ -60,10 +66,10 @@ export async function saveEntry(id, json, files) {
   await done(tx);
 }
 
-// Every entry's JSON text.
-export async function listEntries() {
+// Every entry's JSON text, of `store` ('entries' or 'replies').
+export async function listEntries(store = 'entries') {
   const d = await db();
-  const rows = await request(d.transaction('entries').objectStore('entries').getAll());
+  const rows = await request(d.transaction(store).objectStore(store).getAll());
   return rows.map((row) => row.json);
 }
 
@@ -118,11 +124,13 @@ export function currentPosition() {
 
 // Sends one record with its photos; resolves to {status, body} whatever the status,
 // and rejects only when no answer came (no network, connection lost).
-export async function sendRecord(url, json, blobs) {
+// `part` names the JSON part ('record', or 'reply'); `headers` may carry the device
+// identity.
+export async function sendRecord(url, json, blobs, part = 'record', headers = {}) {
   const form = new FormData();
-  form.append('record', json);
+  form.append(part, json);
   blobs.forEach((blob, i) => form.append('photo', blob, `photo-${i + 1}.jpg`));
-  const response = await fetch(url, { method: 'POST', body: form });
+  const response = await fetch(url, { method: 'POST', body: form, headers });
   return { status: response.status, body: await response.text() };
 }
 
@@ -167,7 +175,13 @@ export function stopWatching(id) {
 }
 
 // Sends JSON with `method`; resolves to {status, body}, rejects only when no answer came.
-export async function sendJson(method, url, json) {
-  const response = await fetch(url, { method, headers: { 'content-type': 'application/json' }, body: json });
+// `json` may be null for a request without a body; `headers` adds to the defaults.
+export async function sendJson(method, url, json, headers = {}) {
+  const init = { method, headers: { ...headers }, credentials: 'same-origin' };
+  if (json !== null && json !== undefined) {
+    init.body = json;
+    init.headers['content-type'] = 'application/json';
+  }
+  const response = await fetch(url, init);
   return { status: response.status, body: await response.text() };
 }

@@ -9,9 +9,9 @@ use wasm_bindgen_futures::JsFuture;
 #[wasm_bindgen(module = "/js/device.js")]
 extern "C" {
     #[wasm_bindgen(js_name = saveEntry)]
-    fn save_entry_js(id: &str, json: &str, files: JsValue) -> js_sys::Promise;
+    fn save_entry_js(id: &str, json: &str, files: JsValue, store: &str) -> js_sys::Promise;
     #[wasm_bindgen(js_name = listEntries)]
-    fn list_entries_js() -> js_sys::Promise;
+    fn list_entries_js(store: &str) -> js_sys::Promise;
     #[wasm_bindgen(js_name = photosOf)]
     fn photos_of_js(id: &str) -> js_sys::Promise;
     #[wasm_bindgen(js_name = deleteEntry)]
@@ -31,11 +31,11 @@ extern "C" {
     #[wasm_bindgen(js_name = stopWatching)]
     fn stop_watching_js(id: i32);
     #[wasm_bindgen(js_name = sendJson)]
-    fn send_json_js(method: &str, url: &str, json: &str) -> js_sys::Promise;
+    fn send_json_js(method: &str, url: &str, json: JsValue, headers: JsValue) -> js_sys::Promise;
     #[wasm_bindgen(js_name = fetchText)]
     fn fetch_text_js(url: &str) -> js_sys::Promise;
     #[wasm_bindgen(js_name = sendRecord)]
-    fn send_record_js(url: &str, json: &str, blobs: js_sys::Array) -> js_sys::Promise;
+    fn send_record_js(url: &str, json: &str, blobs: js_sys::Array, part: &str, headers: JsValue) -> js_sys::Promise;
 }
 
 /// A browser error, as text to show.
@@ -50,19 +50,44 @@ async fn wait(promise: js_sys::Promise) -> Result<JsValue, String> {
     JsFuture::from(promise).await.map_err(message)
 }
 
-/// Saves an entry's JSON; with `photos`, replaces its photos in the same transaction.
-pub async fn save_entry(id: &str, json: &str, photos: Option<&[web_sys::Blob]>) -> Result<(), String> {
+/// Where outbox rows live in IndexedDB.
+#[derive(Debug, Clone, Copy)]
+pub enum Store {
+    Records,
+    Replies,
+}
+
+impl Store {
+    fn name(self) -> &'static str {
+        match self {
+            Store::Records => "entries",
+            Store::Replies => "replies",
+        }
+    }
+}
+
+/// Saves a row's JSON; with `photos`, replaces its photos in the same transaction.
+pub async fn save_entry(store: Store, id: &str, json: &str, photos: Option<&[web_sys::Blob]>) -> Result<(), String> {
     let files = match photos {
         Some(list) => list.iter().map(JsValue::from).collect::<js_sys::Array>().into(),
         None => JsValue::NULL,
     };
-    wait(save_entry_js(id, json, files)).await.map(|_| ())
+    wait(save_entry_js(id, json, files, store.name())).await.map(|_| ())
 }
 
-/// Every stored entry's JSON text.
-pub async fn list_entries() -> Result<Vec<String>, String> {
-    let list: js_sys::Array = wait(list_entries_js()).await?.unchecked_into();
+/// Every stored row's JSON text.
+pub async fn list_entries(store: Store) -> Result<Vec<String>, String> {
+    let list: js_sys::Array = wait(list_entries_js(store.name())).await?.unchecked_into();
     Ok(list.iter().filter_map(|v| v.as_string()).collect())
+}
+
+/// Request headers, e.g. the device identity or the CSRF token.
+fn headers(pairs: &[(&str, &str)]) -> JsValue {
+    let object = js_sys::Object::new();
+    for (name, value) in pairs {
+        let _ = js_sys::Reflect::set(&object, &(*name).into(), &(*value).into());
+    }
+    object.into()
 }
 
 pub async fn photos_of(id: &str) -> Result<Vec<web_sys::Blob>, String> {
@@ -112,10 +137,10 @@ pub struct Answer {
     pub body: String,
 }
 
-/// Posts a record and its photos. `Err` means no answer arrived at all.
-pub async fn send_record(url: &str, json: &str, photos: &[web_sys::Blob]) -> Result<Answer, String> {
+/// Posts JSON (as form part `part`) and photos. `Err` means no answer arrived at all.
+pub async fn send_form(url: &str, part: &str, json: &str, photos: &[web_sys::Blob], header_pairs: &[(&str, &str)]) -> Result<Answer, String> {
     let blobs = photos.iter().map(JsValue::from).collect::<js_sys::Array>();
-    let value = wait(send_record_js(url, json, blobs)).await?;
+    let value = wait(send_record_js(url, json, blobs, part, headers(header_pairs))).await?;
     serde_wasm_bindgen::from_value(value).map_err(|err| err.to_string())
 }
 
@@ -162,8 +187,9 @@ pub fn stop_watching(id: i32) {
     stop_watching_js(id);
 }
 
-/// Sends JSON; `Err` means no answer arrived.
-pub async fn send_json(method: &str, url: &str, json: &str) -> Result<Answer, String> {
-    let value = wait(send_json_js(method, url, json)).await?;
+/// Sends a request with an optional JSON body; `Err` means no answer arrived.
+pub async fn send_json(method: &str, url: &str, json: Option<&str>, header_pairs: &[(&str, &str)]) -> Result<Answer, String> {
+    let body = json.map_or(JsValue::NULL, JsValue::from);
+    let value = wait(send_json_js(method, url, body, headers(header_pairs))).await?;
     serde_wasm_bindgen::from_value(value).map_err(|err| err.to_string())
 }

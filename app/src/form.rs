@@ -13,6 +13,7 @@ use uuid::Uuid;
 use wasm_bindgen::JsCast;
 
 use crate::device;
+use crate::identity;
 use crate::key::{self, KeyPanel};
 use crate::outbox::{self, Entry, SyncState};
 use crate::sync::{self, Outbox};
@@ -189,21 +190,6 @@ fn offset_label(when: &str) -> String {
         .unwrap_or_default()
 }
 
-const OBSERVER_NAME_KEY: &str = "wrackline.observer-name";
-
-fn remembered_name() -> String {
-    web_sys::window()
-        .and_then(|w| w.local_storage().ok().flatten())
-        .and_then(|s| s.get_item(OBSERVER_NAME_KEY).ok().flatten())
-        .unwrap_or_default()
-}
-
-fn remember_name(name: &str) {
-    if let Some(storage) = web_sys::window().and_then(|w| w.local_storage().ok().flatten()) {
-        let _ = storage.set_item(OBSERVER_NAME_KEY, name);
-    }
-}
-
 /// Fills the position from the device, telling the observer how it went.
 fn locate(fields: RwSignal<FormFields>, note: RwSignal<String>) {
     note.set("finding your position…".into());
@@ -227,7 +213,7 @@ fn locate(fields: RwSignal<FormFields>, note: RwSignal<String>) {
 /// happens afterwards, whatever the signal.
 #[component]
 pub fn RecordForm(outbox: Outbox) -> impl IntoView {
-    let fields = RwSignal::new(FormFields::fresh(remembered_name()));
+    let fields = RwSignal::new(FormFields::fresh(identity::observer_name()));
     let photos = RwSignal::new_local(Vec::<web_sys::File>::new());
     let client_id = RwSignal::new(Uuid::new_v4());
     let problems = RwSignal::new(Vec::<String>::new());
@@ -268,9 +254,9 @@ pub fn RecordForm(outbox: Outbox) -> impl IntoView {
             let entry = Entry { submission, sync: state, photo_count: blobs.len(), last_error: None, walk_link_pending: None };
             match outbox::save(&entry, Some(&blobs)).await {
                 Ok(()) => {
-                    remember_name(&fields.with_untracked(|f| f.observer_name.clone()));
+                    identity::remember_observer_name(&fields.with_untracked(|f| f.observer_name.clone()));
                     saved_note.set(if waiting { "Saved on this phone; it will be sent when there is a connection.".into() } else { "Saved as a draft on this phone.".into() });
-                    fields.set(FormFields::fresh(remembered_name()));
+                    fields.set(FormFields::fresh(identity::observer_name()));
                     key_open.set(false);
                     photos.set(Vec::new());
                     client_id.set(Uuid::new_v4());

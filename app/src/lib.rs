@@ -4,15 +4,19 @@
 //! Modules: [`device`] (browser storage, position, upload, via `js/device.js`),
 //! [`outbox`] (what the phone keeps and each record's sync state), [`sync`] (sending,
 //! retries with backoff), [`form`] (the record form), [`key`] (the guided species key
-//! and its [`pictures`]), [`walks`] (survey walks and their tracks),
-//! [`screens`] (the page around it).
+//! and its [`pictures`]), [`walks`] (survey walks and their tracks), [`identity`] (the phone's
+//! device identity), [`mine`] (the observer's records and answers to reviewers),
+//! [`review`] (the reviewers' screens), [`screens`] (the page around it).
 //! The app never decides what the server decides: it shows the server's receipts.
 
 mod device;
 mod form;
+mod identity;
 mod key;
+mod mine;
 mod outbox;
 mod pictures;
+mod review;
 mod screens;
 mod sync;
 mod walks;

@@ -72,14 +72,14 @@ impl Entry {
 /// Saves an entry; with `photos`, its photos too, in one transaction.
 pub async fn save(entry: &Entry, photos: Option<&[web_sys::Blob]>) -> Result<(), String> {
     let json = serde_json::to_string(entry).map_err(|err| err.to_string())?;
-    device::save_entry(&entry.id(), &json, photos).await
+    device::save_entry(device::Store::Records, &entry.id(), &json, photos).await
 }
 
 /// Every entry, newest observation first. Entries that cannot be read are reported,
 /// not dropped silently.
 pub async fn load_all() -> Result<Vec<Entry>, String> {
     let mut entries = Vec::new();
-    for json in device::list_entries().await? {
+    for json in device::list_entries(device::Store::Records).await? {
         let entry: Entry = serde_json::from_str(&json).map_err(|err| format!("a stored record could not be read: {err}"))?;
         entries.push(entry);
     }

@@ -30,6 +30,18 @@ fn online_now() -> bool {
     web_sys::window().map(|w| w.navigator().on_line()).unwrap_or(true)
 }
 
+fn current_hash() -> String {
+    web_sys::window().and_then(|w| w.location().hash().ok()).unwrap_or_default()
+}
+
+/// Calls `act` whenever the address's `#…` part changes (the reviewers' screens).
+fn on_hash_change(act: impl Fn() + 'static) {
+    let Some(window) = web_sys::window() else { return };
+    let closure = Closure::<dyn Fn()>::new(act);
+    let _ = window.add_event_listener_with_callback("hashchange", closure.as_ref().unchecked_ref());
+    closure.forget();
+}
+
 /// Calls `act` whenever the browser says the connection came back or went away.
 fn on_connection_change(act: impl Fn(bool) + 'static) {
     let Some(window) = web_sys::window() else { return };
@@ -49,6 +61,8 @@ pub fn App() -> impl IntoView {
     let outbox = Outbox {
         entries: RwSignal::new(Vec::<Entry>::new()),
         walks: RwSignal::new(Vec::<WalkEntry>::new()),
+        replies: RwSignal::new(Vec::new()),
+        my_records: RwSignal::new(crate::mine::cached_records()),
         status: RwSignal::new(SyncStatus::default()),
     };
     let online = RwSignal::new(online_now());
@@ -60,6 +74,7 @@ pub fn App() -> impl IntoView {
         let loaded = async {
             outbox.entries.set(outbox::load_all().await?);
             outbox.walks.set(walks::load_all().await?);
+            outbox.replies.set(crate::mine::load_replies().await?);
             Ok::<(), String>(())
         };
         if let Err(err) = loaded.await {
@@ -80,9 +95,13 @@ pub fn App() -> impl IntoView {
         }
     });
 
+    let screen = RwSignal::new(current_hash());
+    on_hash_change(move || screen.set(current_hash()));
+
     view! {
         <header class="top">
-            <h1>"wrackline"</h1>
+            <h1><a href="#">"wrackline"</a></h1>
+            <a class="pill review-link" href="#review">"Review"</a>
             <span id="connection" class=move || if online.get() { "pill online" } else { "pill offline" }>
                 {move || if online.get() { "online" } else { "offline: records wait on this phone" }}
             </span>
@@ -91,11 +110,17 @@ pub fn App() -> impl IntoView {
             {move || storage_problem.get().map(|p| view! {
                 <p class="problems" role="alert">{format!("Offline storage is not working: {p}. Records cannot be kept on this phone.")}</p>
             })}
+            <Show when=move || screen.get() == "#review">
+                <crate::review::ReviewScreen />
+            </Show>
+            <Show when=move || screen.get() != "#review">
             <Show when=move || safety_read.get() fallback=move || view! { <SafetyCautions on_read=move || { set_local_flag(SAFETY_KEY); safety_read.set(true); } /> }>
                 <WalkBar outbox=outbox />
                 <RecordForm outbox=outbox />
                 <OnThisPhone outbox=outbox />
+                <crate::mine::MyRecords outbox=outbox />
                 <details class="safety-again"><summary>"Safety reminders"</summary><SafetyText /></details>
+            </Show>
             </Show>
         </main>
     }

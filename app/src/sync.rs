@@ -14,6 +14,8 @@ use shared_types::Receipt;
 
 use crate::device;
 use crate::outbox::{self, Entry, SyncState};
+use crate::identity;
+use crate::mine::{self, ReplyEntry};
 use crate::walks::{self, WalkEntry, WalkState};
 
 pub const SUBMIT_URL: &str = "/api/observations";
@@ -24,6 +26,9 @@ pub const WALKS_URL: &str = "/api/walks";
 pub struct Outbox {
     pub entries: RwSignal<Vec<Entry>>,
     pub walks: RwSignal<Vec<WalkEntry>>,
+    pub replies: RwSignal<Vec<ReplyEntry>>,
+    /// The observer's records as the server last described them.
+    pub my_records: RwSignal<Vec<shared_types::MyRecord>>,
     pub status: RwSignal<SyncStatus>,
 }
 
@@ -110,13 +115,27 @@ fn finish_round(problem: Option<String>, outbox: Outbox) {
 /// record's walk is usually there before it); returns the first problem that calls for
 /// a retry, if any.
 async fn round(outbox: Outbox) -> Option<String> {
+    // Without its identity the phone sends nothing, so that every record is its own.
+    let token = match identity::ensure_token().await {
+        Ok(token) => token,
+        Err(err) => return Some(format!("no connection ({err})")),
+    };
     let walk_problem = send_walks(outbox).await;
-    let record_problem = send_records(outbox).await;
+    let record_problem = send_records(outbox, &token).await;
     let link_problem = send_links(outbox).await;
-    walk_problem.or(record_problem).or(link_problem)
+    let reply_problem = mine::send_replies(&token).await;
+    let fetch_problem = match mine::fetch_records(&token).await {
+        Ok(records) => {
+            outbox.my_records.set(records);
+            None
+        }
+        Err(err) => Some(err),
+    };
+    refresh(outbox).await;
+    walk_problem.or(record_problem).or(link_problem).or(reply_problem).or(fetch_problem)
 }
 
-async fn send_records(outbox: Outbox) -> Option<String> {
+async fn send_records(outbox: Outbox, token: &str) -> Option<String> {
     let stored = match outbox::load_all().await {
         Ok(list) => list,
         Err(err) => return Some(err),
@@ -133,7 +152,7 @@ async fn send_records(outbox: Outbox) -> Option<String> {
             continue;
         }
         refresh(outbox).await;
-        let outcome = send(&entry).await;
+        let outcome = send(&entry, token).await;
         let saved = outbox::update(&id, |e| match outcome {
             RecordOutcome::Received(receipt) => {
                 e.sync = SyncState::Received { receipt };
@@ -169,7 +188,7 @@ async fn send_walks(outbox: Outbox) -> Option<String> {
             problem.get_or_insert(err);
             continue;
         }
-        match device::send_json("POST", WALKS_URL, &json).await {
+        match device::send_json("POST", WALKS_URL, Some(&json), &[]).await {
             Err(err) => {
                 walk.state = WalkState::Waiting;
                 walk.last_error = Some(format!("no connection ({err})"));
@@ -205,7 +224,7 @@ async fn send_links(outbox: Outbox) -> Option<String> {
         let Some(walk) = entry.walk_link_pending else { continue };
         let url = format!("{SUBMIT_URL}/{}/walk", entry.id());
         let body = serde_json::json!({ "walk_client_id": walk }).to_string();
-        let refused = match device::send_json("PUT", &url, &body).await.map(classify) {
+        let refused = match device::send_json("PUT", &url, Some(&body), &[]).await.map(classify) {
             Ok(Sent::Received(_)) => None,
             Ok(Sent::Refused(reason)) => Some(format!("could not add to the walk: {reason}")),
             Ok(Sent::TryLater(reason)) | Err(reason) => {
@@ -236,6 +255,9 @@ pub async fn refresh(outbox: Outbox) {
     if let Ok(list) = walks::load_all().await {
         outbox.walks.set(list);
     }
+    if let Ok(list) = mine::load_replies().await {
+        outbox.replies.set(list);
+    }
 }
 
 /// What an answer means for the thing sent.
@@ -253,7 +275,7 @@ enum RecordOutcome {
     TryLater(String),
 }
 
-async fn send(entry: &Entry) -> RecordOutcome {
+async fn send(entry: &Entry, token: &str) -> RecordOutcome {
     let photos = match device::photos_of(&entry.id()).await {
         Ok(photos) => photos,
         Err(err) => return RecordOutcome::TryLater(format!("photos could not be read: {err}")),
@@ -266,7 +288,8 @@ async fn send(entry: &Entry) -> RecordOutcome {
         Ok(json) => json,
         Err(err) => return RecordOutcome::Refused(err.to_string()),
     };
-    match device::send_record(SUBMIT_URL, &json, &photos).await.map(classify) {
+    let auth = identity::bearer(token);
+    match device::send_form(SUBMIT_URL, "record", &json, &photos, &[("authorization", &auth)]).await.map(classify) {
         Err(err) => RecordOutcome::TryLater(format!("no connection ({err})")),
         Ok(Sent::Received(body)) => match serde_json::from_str::<Receipt>(&body) {
             Ok(receipt) => RecordOutcome::Received(receipt),

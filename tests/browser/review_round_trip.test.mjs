@@ -1,0 +1,87 @@
+// The review round trip across two browsers: an observer's phone records a find
+// offline; a reviewer at a desk signs in and asks for detail; the question reaches the
+// phone on its next sync; the observer answers offline with a new photo; the answer
+// reaches the queue; the reviewer confirms; the phone shows "confirmed".
+import { test, before, after } from 'node:test';
+import assert from 'node:assert/strict';
+import { startServer, launchBrowser, demoPhoto, REVIEWER } from './harness.mjs';
+
+let browser;
+before(async () => { browser = await launchBrowser(); });
+after(async () => { await browser?.close(); });
+
+const QUESTION = 'Can you photograph the underside of the head?';
+
+test('a question reaches the phone, the answer with a photo reaches the reviewer, the phone sees confirmed', async () => {
+  const server = await startServer();
+  const phone = await browser.newContext({
+    viewport: { width: 390, height: 844 },
+    geolocation: { latitude: 52.4153, longitude: -4.0829, accuracy: 7 },
+    permissions: ['geolocation'],
+  });
+  const desk = await browser.newContext({ viewport: { width: 1100, height: 900 } });
+  try {
+    const observer = await phone.newPage();
+    await observer.goto(server.url);
+    await observer.click('#safety-ok');
+    await observer.waitForFunction(() => navigator.serviceWorker?.controller, null, { timeout: 15000 });
+    await phone.setOffline(true);
+    await observer.fill('#species', 'nursehound');
+    await observer.selectOption('#condition', 'fresh_dead');
+    await observer.selectOption('#setting', 'angler_catch');
+    await observer.setInputFiles('#photo-input', demoPhoto('catshark.jpg'));
+    await observer.waitForSelector('.thumbs img');
+    await observer.click('#save-send');
+    await observer.waitForSelector('.outbox-entry');
+    await phone.setOffline(false);
+    await observer.waitForFunction(() => document.querySelector('.outbox-entry')?.textContent.includes('received by the server'), null, { timeout: 20000 });
+
+    const reviewer = await desk.newPage();
+    await reviewer.goto(`${server.url}/#review`);
+    await reviewer.fill('#username', REVIEWER.username);
+    await reviewer.fill('#password', REVIEWER.password);
+    await reviewer.click('#sign-in button[type=submit]');
+    await reviewer.click('.queue-item button.link');
+    await reviewer.waitForSelector('#record-review[data-state="awaiting_review"]');
+    await reviewer.fill('#review-message', QUESTION);
+    await reviewer.click('#ask-details');
+    await reviewer.waitForSelector('#record-review[data-state="details_requested"]');
+
+    await observer.click('#send-now');
+    await observer.waitForFunction((q) => document.querySelector('#my-records')?.textContent.includes(q), QUESTION, { timeout: 15000 });
+    assert.match(await observer.textContent('#my-records'), /details requested/);
+
+    await phone.setOffline(true);
+    await observer.click('.my-record .answer summary');
+    await observer.fill('.my-record .answer-text', 'Here is the underside.');
+    await observer.setInputFiles('.my-record .answer-photo', demoPhoto('spurdog.jpg'));
+    await observer.click('.my-record .send-answer');
+    await observer.waitForSelector('.answer-waiting');
+    await observer.reload();
+    await observer.waitForSelector('.answer-waiting', { timeout: 10000 });
+    await phone.setOffline(false);
+    await observer.waitForFunction(() => !document.querySelector('.answer-waiting'), null, { timeout: 20000 });
+
+    await reviewer.click('text=← Back to the queue');
+    await reviewer.click('.queue-item button.link');
+    await reviewer.waitForSelector('#record-review[data-state="awaiting_review"]');
+    assert.equal(await reviewer.$$eval('.review-photo', (imgs) => imgs.length), 2, 'the new photo is with the record');
+    assert.match(await reviewer.textContent('.messages'), /Here is the underside/);
+    await reviewer.fill('#confirm-name', 'Scyliorhinus stellaris');
+    await reviewer.click('#confirm');
+    await reviewer.waitForSelector('#record-review[data-state="confirmed"]');
+
+    await observer.click('#send-now');
+    await observer.waitForFunction(() => document.querySelector('.my-record .review-state')?.textContent === 'confirmed', null, { timeout: 15000 });
+    assert.match(await observer.textContent('.my-record'), /Scyliorhinus stellaris/);
+
+    const [record] = await server.records();
+    assert.equal(record.review_state, 'confirmed');
+    const detail = await server.get(`/api/review/records/${record.submission.client_id}`);
+    assert.deepEqual(detail.events.map((e) => e.action), ['request_details', 'observer_reply', 'confirm']);
+  } finally {
+    await phone.close();
+    await desk.close();
+    server.stop();
+  }
+});
