@@ -281,3 +281,86 @@ fn RecordReview(client_id: String, back: impl Fn() + Copy + 'static) -> impl Int
         </fieldset>
     }
 }
+
+/// A person with a sign-in, as the admin screen lists them.
+#[derive(Debug, Clone, PartialEq, serde::Deserialize)]
+struct StaffPerson {
+    username: Option<String>,
+    role: Role,
+    display_name: Option<String>,
+    disabled: bool,
+}
+
+/// `#people`: the admin's screen to add reviewers and admins and turn sign-ins off.
+#[component]
+pub fn PeopleScreen() -> impl IntoView {
+    let people = RwSignal::new(Vec::<StaffPerson>::new());
+    let problem = RwSignal::new(String::new());
+    let form = RwSignal::new((String::new(), String::new(), String::new(), "reviewer".to_owned()));
+    let reload = move || {
+        leptos::task::spawn_local(async move {
+            match call("GET", "/api/people", None).await.and_then(|b| serde_json::from_str::<Vec<StaffPerson>>(&b).map_err(|e| e.to_string())) {
+                Ok(list) => people.set(list),
+                Err(err) => problem.set(format!("{err} (sign in as an admin under Review first)")),
+            }
+        });
+    };
+    reload();
+    let add = move |_| {
+        let (username, display_name, password, role) = form.get_untracked();
+        let body = serde_json::json!({"username": username, "display_name": display_name, "password": password, "role": role}).to_string();
+        leptos::task::spawn_local(async move {
+            match call("POST", "/api/people", Some(body)).await {
+                Ok(_) => {
+                    form.set((String::new(), String::new(), String::new(), "reviewer".into()));
+                    problem.set(String::new());
+                    reload();
+                }
+                Err(err) => problem.set(err),
+            }
+        });
+    };
+    let toggle = move |username: String, disabled: bool| {
+        let body = serde_json::json!({ "disabled": disabled }).to_string();
+        leptos::task::spawn_local(async move {
+            match call("PUT", &format!("/api/people/{username}/disabled"), Some(body)).await {
+                Ok(_) => reload(),
+                Err(err) => problem.set(err),
+            }
+        });
+    };
+    view! {
+        <section class="card people">
+            <h2>"People"</h2>
+            <p class="hint">"Observers need no sign-in: their phone gets its own identity. Contacts never leave the server."</p>
+            <p class="problems" role="alert">{move || problem.get()}</p>
+            <ul id="people-list">
+                {move || people.get().into_iter().map(|p| {
+                    let name = p.username.clone().unwrap_or_default();
+                    let turn_to = !p.disabled;
+                    view! {
+                        <li>{format!("{name} · {} · {}{}", p.role.code(), p.display_name.clone().unwrap_or_default(), if p.disabled { " · turned off" } else { "" })}" "
+                            <button type="button" class="small" on:click=move |_| toggle(name.clone(), turn_to)>{if p.disabled { "Turn on" } else { "Turn off" }}</button>
+                        </li>
+                    }
+                }).collect_view()}
+            </ul>
+            <fieldset>
+                <legend>"Add a person"</legend>
+                <div class="row">
+                    <label>"Username" <input id="new-username" prop:value=move || form.with(|f| f.0.clone()) on:input=move |ev| form.update(|f| f.0 = event_target_value(&ev)) /></label>
+                    <label>"Name shown" <input id="new-display-name" prop:value=move || form.with(|f| f.1.clone()) on:input=move |ev| form.update(|f| f.1 = event_target_value(&ev)) /></label>
+                </div>
+                <div class="row">
+                    <label>"Password (10+ characters)" <input id="new-password" type="password" autocomplete="new-password" prop:value=move || form.with(|f| f.2.clone()) on:input=move |ev| form.update(|f| f.2 = event_target_value(&ev)) /></label>
+                    <label>"Role" <select id="new-role" on:change=move |ev| form.update(|f| f.3 = event_target_value(&ev))>
+                        <option value="reviewer">"reviewer"</option>
+                        <option value="admin">"admin"</option>
+                    </select></label>
+                </div>
+                <button id="add-person" type="button" class="primary" on:click=add>"Add"</button>
+            </fieldset>
+            <a href="#review">"← Review"</a>
+        </section>
+    }
+}

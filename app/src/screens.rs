@@ -113,7 +113,10 @@ pub fn App() -> impl IntoView {
             <Show when=move || screen.get() == "#review">
                 <crate::review::ReviewScreen />
             </Show>
-            <Show when=move || screen.get() != "#review">
+            <Show when=move || screen.get() == "#people">
+                <crate::review::PeopleScreen />
+            </Show>
+            <Show when=move || screen.get() != "#review" && screen.get() != "#people">
             <Show when=move || safety_read.get() fallback=move || view! { <SafetyCautions on_read=move || { set_local_flag(SAFETY_KEY); safety_read.set(true); } /> }>
                 <WalkBar outbox=outbox />
                 <RecordForm outbox=outbox />

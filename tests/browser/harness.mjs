@@ -13,13 +13,16 @@ const required = (name) => {
 };
 
 export const REVIEWER = { username: 'browser-reviewer', password: 'browser-reviewer-pass' };
+export const ADMIN = { username: 'browser-admin', password: 'browser-admin-pass' };
 
 // Starts `wrackline serve` on 127.0.0.1:0 with a reviewer sign-in made by
 // `wrackline user add`, and resolves once it prints its address.
 export async function startServer() {
   const dataDir = mkdtempSync(path.join(tmpdir(), 'wrackline-browser-'));
-  execFileSync(required('WRACKLINE_BIN'), ['--data-dir', dataDir, 'user', 'add', '--username', REVIEWER.username, '--role', 'reviewer'],
-    { env: { ...process.env, WRACKLINE_PASSWORD: REVIEWER.password }, stdio: ['ignore', 'ignore', 'inherit'] });
+  for (const [person, role] of [[REVIEWER, 'reviewer'], [ADMIN, 'admin']]) {
+    execFileSync(required('WRACKLINE_BIN'), ['--data-dir', dataDir, 'user', 'add', '--username', person.username, '--role', role],
+      { env: { ...process.env, WRACKLINE_PASSWORD: person.password }, stdio: ['ignore', 'ignore', 'inherit'] });
+  }
   const child = spawn(required('WRACKLINE_BIN'), [
     '--data-dir', dataDir, 'serve', '--bind', '127.0.0.1:0', '--app-dir', required('WRACKLINE_APP_DIR'),
   ], { stdio: ['ignore', 'pipe', 'inherit'] });

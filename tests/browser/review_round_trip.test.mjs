@@ -4,7 +4,7 @@
 // reaches the queue; the reviewer confirms; the phone shows "confirmed".
 import { test, before, after } from 'node:test';
 import assert from 'node:assert/strict';
-import { startServer, launchBrowser, demoPhoto, REVIEWER } from './harness.mjs';
+import { startServer, launchBrowser, demoPhoto, REVIEWER, ADMIN } from './harness.mjs';
 
 let browser;
 before(async () => { browser = await launchBrowser(); });
@@ -81,6 +81,34 @@ test('a question reaches the phone, the answer with a photo reaches the reviewer
     assert.deepEqual(detail.events.map((e) => e.action), ['request_details', 'observer_reply', 'confirm']);
   } finally {
     await phone.close();
+    await desk.close();
+    server.stop();
+  }
+});
+
+test('an admin adds a reviewer on the people screen, who can then sign in; a reviewer cannot open it', async () => {
+  const server = await startServer();
+  const desk = await browser.newContext();
+  try {
+    const page = await desk.newPage();
+    await page.goto(`${server.url}/#review`);
+    await page.fill('#username', ADMIN.username);
+    await page.fill('#password', ADMIN.password);
+    await page.click('#sign-in button[type=submit]');
+    await page.click('a[href="#people"]');
+    await page.fill('#new-username', 'gwen');
+    await page.fill('#new-display-name', 'Gwen');
+    await page.fill('#new-password', 'short');
+    await page.click('#add-person');
+    await page.waitForFunction(() => /at least 10 characters/.test(document.querySelector('.people .problems')?.textContent));
+    await page.fill('#new-password', 'a long enough password');
+    await page.click('#add-person');
+    await page.waitForFunction(() => /gwen · reviewer · Gwen/.test(document.querySelector('#people-list')?.textContent));
+    const login = await fetch(`${server.url}/api/session`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ username: 'gwen', password: 'a long enough password' }) });
+    assert.equal(login.status, 200);
+    const people = await fetch(`${server.url}/api/people`, { headers: { cookie: login.headers.get('set-cookie').split(';')[0] } });
+    assert.equal(people.status, 403, 'a reviewer cannot manage people');
+  } finally {
     await desk.close();
     server.stop();
   }
