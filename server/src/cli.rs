@@ -8,7 +8,7 @@ use anyhow::Context as _;
 use clap::{Parser, Subcommand, ValueEnum};
 
 use crate::store::observations;
-use crate::{AppState, demo, export};
+use crate::{AppState, commands, demo, export};
 
 #[derive(Debug, Parser)]
 #[command(name = "wrackline", version, about = "Records of sharks and rays found stranded or landed: capture, review, export.")]
@@ -28,6 +28,10 @@ pub enum Command {
     Demo(ServeArgs),
     /// Write all records to a file or to standard output.
     Export(ExportArgs),
+    /// Range figures (records, sites, EOO, AOO) per taxon and period.
+    Range(commands::range::RangeArgs),
+    /// The effort-corrected yearly trend over the assessment window.
+    Trend(commands::trend::TrendArgs),
 }
 
 #[derive(Debug, clap::Args)]
@@ -67,6 +71,8 @@ pub fn run(cli: Cli) -> anyhow::Result<()> {
         Command::Serve(args) => serve(&cli.data_dir, args, false),
         Command::Demo(args) => serve(&cli.data_dir, args, true),
         Command::Export(args) => export_records(&cli.data_dir, args),
+        Command::Range(args) => commands::range::run(&cli.data_dir, args),
+        Command::Trend(args) => commands::trend::run(&cli.data_dir, args),
     }
 }
 

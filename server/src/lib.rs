@@ -6,7 +6,9 @@
 //! [`export`], [`demo`] (the work, with no HTTP in it) → [`store`] (the only code that
 //! runs SQL).
 
+pub mod assess;
 pub mod cli;
+pub mod commands;
 pub mod demo;
 pub mod error;
 pub mod export;

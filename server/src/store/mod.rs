@@ -8,6 +8,7 @@
 
 mod migrate;
 pub mod observations;
+pub mod occurrences;
 
 use std::path::Path;
 use std::sync::{Arc, Mutex};

@@ -1,6 +1,7 @@
 //! The server's integration tests: the real router on a real port, a real SQLite file
 //! in a temporary folder, real HTTP, real JPEGs. One test binary, one module per area.
 
+mod assess_cli;
 mod cli;
 mod exif;
 mod helpers;

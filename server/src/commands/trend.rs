@@ -1,0 +1,37 @@
+//! `wrackline trend`: the effort-corrected yearly trend over the assessment window.
+
+use std::path::Path;
+
+use super::{RecordSource, print};
+use crate::assess::trend::{generation_length, read_year_counts, render_text, stored_year_counts, trend_report};
+
+#[derive(Debug, clap::Args)]
+pub struct TrendArgs {
+    #[command(flatten)]
+    pub source: RecordSource,
+    /// Generation length in years (default: the checklist's for --taxon).
+    #[arg(long)]
+    pub generation_length: Option<f64>,
+}
+
+pub fn run(data_dir: &Path, args: TrendArgs) -> anyhow::Result<()> {
+    let names = crate::assess::taxa::TaxonIndex::load(args.source.checklist.as_deref())?;
+    let taxon = args.source.taxon.as_deref().map(|n| names.filter(n)).unwrap_or(None);
+    if let (Some(name), None) = (&args.source.taxon, &taxon) {
+        anyhow::bail!("`{name}` is not a species, genus, family, order or superorder on the checklist");
+    }
+    let generation = generation_length(args.generation_length, taxon.as_ref(), &names)?;
+    let (years, used, notes) = match &args.source.from_file {
+        Some(path) => (read_year_counts(path)?, format!("yearly counts and effort in {}", path.display()), Vec::new()),
+        None => {
+            let loaded = args.source.load(data_dir)?;
+            let years = stored_year_counts(&loaded.records, taxon.as_ref(), &names);
+            let note = "no survey effort is stored yet, so every year has effort 1: these are raw yearly counts of records, \
+                        not encounter rates, and a change in how many people look shows up as a trend"
+                .to_owned();
+            (years, loaded.records_used, vec![note])
+        }
+    };
+    let report = trend_report(years, generation, used, notes)?;
+    print(args.source.json, &report, || render_text(&report))
+}
