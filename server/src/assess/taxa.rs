@@ -46,6 +46,12 @@ impl TaxonIndex {
         Self::new(checklist)
     }
 
+    /// The bundled checklist, read once and shared (for the HTTP handlers).
+    pub fn shared() -> &'static Self {
+        static SHARED: std::sync::OnceLock<TaxonIndex> = std::sync::OnceLock::new();
+        SHARED.get_or_init(Self::bundled)
+    }
+
     /// A checklist file, or the bundled one when `path` is `None`.
     pub fn load(path: Option<&Path>) -> Result<Self, ChecklistLoadError> {
         let Some(path) = path else { return Ok(Self::bundled()) };

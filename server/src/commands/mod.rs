@@ -1,6 +1,7 @@
 //! The assessors' subcommands of `wrackline`: `range`, `trend` and `export`. Each has its
 //! clap arguments and a `run` that opens what it needs and calls the library.
 
+pub mod export;
 pub mod range;
 pub mod trend;
 
