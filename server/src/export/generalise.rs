@@ -78,3 +78,62 @@ fn cell_diagonal_m((lat, lon): (f64, f64), step: f64) -> f64 {
     let north_east = Point::new(lon + half, (lat + half).min(90.0));
     Geodesic.distance(south_west, north_east)
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    /// Degree lengths on WGS84 at latitude φ (from memory; good to about 1 m per degree):
+    /// meridian 111132.954 − 559.822 cos 2φ, parallel 111412.84 cos φ − 93.5 cos 3φ.
+    fn approximate_diagonal_m(lat: f64, step: f64) -> f64 {
+        let phi = lat.to_radians();
+        let north = (111_132.954 - 559.822 * (2.0 * phi).cos()) * step;
+        let east = (111_412.84 * phi.cos() - 93.5 * (3.0 * phi).cos()) * step;
+        north.hypot(east)
+    }
+
+    #[test]
+    fn sensitive_positions_are_generalised_as_chapman_2020_recommends() {
+        use Sensitivity::{HundredthDegree, TenthDegree, ThousandthDegree, Withhold};
+        // (category, recorded position, recorded uncertainty, published position) — Chapman 2020 (GBIF).
+        let cases = [
+            (TenthDegree, (52.4321, -4.0876), Some(8.0), Some((52.4, -4.1))),
+            (TenthDegree, (52.35, -4.05), None, Some((52.4, -4.1))),
+            (HundredthDegree, (52.4321, -4.0876), Some(8.0), Some((52.43, -4.09))),
+            (ThousandthDegree, (52.4321, -4.0876), Some(8.0), Some((52.432, -4.088))),
+            (TenthDegree, (-33.8568, 151.2153), Some(30.0), Some((-33.9, 151.2))),
+            (Withhold, (52.4321, -4.0876), Some(8.0), None),
+        ];
+        for (category, recorded, uncertainty, published) in cases {
+            let place = public_place(Some(recorded), uncertainty, category);
+            assert_eq!(place.position, published, "{category:?} {recorded:?}");
+            assert!(place.generalizations.is_some() && place.withheld.is_some(), "{category:?}: recorded in dataGeneralizations and informationWithheld");
+            assert!(place.hide_media_and_remarks);
+            match (published, category.grid_degrees()) {
+                (Some((lat, _)), Some(step)) => {
+                    let expected = uncertainty.unwrap_or(0.0) + approximate_diagonal_m(lat, step);
+                    let got = place.uncertainty_m.unwrap();
+                    assert!((got - expected).abs() < expected * 0.002 + 1.0, "{category:?}: {got} m, expected about {expected} m");
+                }
+                _ => assert_eq!(place.uncertainty_m, None, "withheld: no uncertainty"),
+            }
+        }
+    }
+
+    #[test]
+    fn cell_diagonals_at_the_equator_match_the_published_figures() {
+        // Chapman 2020 (GBIF), via a summary: about 15.7 km, 1.57 km and 157 m at the equator.
+        for (step, published) in [(0.1, 15_700.0), (0.01, 1_570.0), (0.001, 157.0)] {
+            let diagonal = cell_diagonal_m((0.0, 0.0), step);
+            assert!((diagonal - published).abs() < published * 0.005, "{step}°: {diagonal} m");
+        }
+    }
+
+    #[test]
+    fn species_that_are_not_sensitive_keep_their_position() {
+        let place = public_place(Some((52.4321, -4.0876)), Some(8.0), Sensitivity::None);
+        assert_eq!(place, as_recorded(Some((52.4321, -4.0876)), Some(8.0)));
+        let no_position = public_place(None, None, Sensitivity::TenthDegree);
+        assert_eq!(no_position.position, None);
+    }
+}

@@ -4,6 +4,8 @@
 mod assess_cli;
 mod cli;
 mod exif;
+mod exports;
 mod helpers;
+mod python;
 mod routes;
 mod submissions;
