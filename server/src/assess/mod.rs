@@ -5,13 +5,16 @@
 //! - [`taxa`]: which checklist taxon a name stands for.
 //! - [`range`]: records, sites, EOO and AOO per taxon and period, side by side.
 //! - [`trend`]: effort-corrected yearly trends over the assessment window.
+//! - [`map`], [`chart`]: the range map and the trend chart as SVG.
 //! - [`dates`], [`meta`]: dates and periods; reading an archive's `meta.xml`.
 //!
 //! Every figure is an input to an assessment, not a listing decision; the reports carry
 //! that caution with them.
 
+pub mod chart;
 pub mod dates;
 pub mod input;
+pub mod map;
 pub mod meta;
 pub mod range;
 pub mod taxa;

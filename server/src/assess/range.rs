@@ -40,6 +40,9 @@ pub struct PeriodRange {
     pub sites: usize,
     /// `None` when the period has no record with a position.
     pub figures: Option<RangeSummary>,
+    /// The positions that went in (for maps; not part of the JSON).
+    #[serde(skip)]
+    pub points: Vec<LatLon>,
 }
 
 /// From one period to the next.
@@ -158,7 +161,7 @@ fn period_range(period: &Period, records: &[&PointRecord], grid: &AooGrid) -> Re
     let sites: BTreeSet<(i64, i64)> =
         points.iter().map(|p| ((p.lat() / SITE_DEGREES).round() as i64, (p.lon() / SITE_DEGREES).round() as i64)).collect();
     let figures = if points.is_empty() { None } else { Some(summary(&points, grid)?) };
-    Ok(PeriodRange { period: period.label.clone(), records: records.len(), sites: sites.len(), figures })
+    Ok(PeriodRange { period: period.label.clone(), records: records.len(), sites: sites.len(), figures, points })
 }
 
 fn change(earlier: &PeriodRange, later: &PeriodRange) -> PeriodChange {

@@ -1,8 +1,11 @@
 //! `wrackline trend`: the effort-corrected yearly trend over the assessment window.
 
-use std::path::Path;
+use std::path::{Path, PathBuf};
+
+use anyhow::Context as _;
 
 use super::{RecordSource, print};
+use crate::assess::chart::trend_chart;
 use crate::assess::trend::{generation_length, read_year_counts, render_text, stored_year_counts, trend_report};
 
 #[derive(Debug, clap::Args)]
@@ -12,6 +15,9 @@ pub struct TrendArgs {
     /// Generation length in years (default: the checklist's for --taxon).
     #[arg(long)]
     pub generation_length: Option<f64>,
+    /// Also draw the trend chart (SVG) to this file.
+    #[arg(long, value_name = "FILE")]
+    pub svg: Option<PathBuf>,
 }
 
 pub fn run(data_dir: &Path, args: TrendArgs) -> anyhow::Result<()> {
@@ -33,5 +39,10 @@ pub fn run(data_dir: &Path, args: TrendArgs) -> anyhow::Result<()> {
         }
     };
     let report = trend_report(years, generation, used, notes)?;
+    if let Some(path) = &args.svg {
+        let title = taxon.as_ref().map(|t| t.name.clone()).unwrap_or_else(|| "Yearly trend".into());
+        std::fs::write(path, trend_chart(&title, &report.years, &report.trend)).with_context(|| format!("writing {}", path.display()))?;
+        eprintln!("trend chart written to {}", path.display());
+    }
     print(args.source.json, &report, || render_text(&report))
 }

@@ -6,6 +6,7 @@ mod cli;
 mod exif;
 mod exports;
 mod helpers;
+mod pictures;
 mod python;
 mod routes;
 mod submissions;
