@@ -10,7 +10,7 @@ use tower_http::set_header::{SetResponseHeader, SetResponseHeaderLayer};
 
 use crate::AppState;
 use crate::error::ApiError;
-use crate::handlers::{export, health, observations, photos};
+use crate::handlers::{assess, export, health, observations, photos};
 use crate::intake::photos::{MAX_PHOTO_BYTES, MAX_PHOTOS_PER_RECORD};
 
 /// The whole HTTP surface. Unknown `/api/` paths are a JSON 404; any other unknown path
@@ -25,6 +25,8 @@ pub fn app(state: AppState) -> Router {
         )
         .route("/api/observations/{client_id}", get(observations::get))
         .route("/api/export", get(export::export))
+        .route("/api/range", get(assess::range))
+        .route("/api/trend", get(assess::trend))
         .route("/api/{*rest}", get(api_not_found).post(api_not_found))
         .route("/photos/{sha256}", get(photos::get));
     let router = match &state.app_dir {

@@ -110,6 +110,10 @@ pub fn read_year_counts(path: &Path) -> Result<Vec<YearCount>, InputError> {
     Ok(rows)
 }
 
+/// Said with every trend on stored records until survey walks are stored.
+pub const NO_EFFORT_NOTE: &str = "no survey effort is stored yet, so every year has effort 1: these are raw yearly \
+counts of records, not encounter rates, and a change in how many people look shows up as a trend";
+
 /// Yearly counts of the stored records of `taxon`, every year from the first to the last
 /// record (a year with no record is a count of 0), each with effort 1.
 ///

@@ -6,7 +6,7 @@ use anyhow::Context as _;
 
 use super::{RecordSource, print};
 use crate::assess::chart::trend_chart;
-use crate::assess::trend::{generation_length, read_year_counts, render_text, stored_year_counts, trend_report};
+use crate::assess::trend::{NO_EFFORT_NOTE, generation_length, read_year_counts, render_text, stored_year_counts, trend_report};
 
 #[derive(Debug, clap::Args)]
 pub struct TrendArgs {
@@ -32,10 +32,7 @@ pub fn run(data_dir: &Path, args: TrendArgs) -> anyhow::Result<()> {
         None => {
             let loaded = args.source.load(data_dir)?;
             let years = stored_year_counts(&loaded.records, taxon.as_ref(), &names);
-            let note = "no survey effort is stored yet, so every year has effort 1: these are raw yearly counts of records, \
-                        not encounter rates, and a change in how many people look shows up as a trend"
-                .to_owned();
-            (years, loaded.records_used, vec![note])
+            (years, loaded.records_used, vec![NO_EFFORT_NOTE.to_owned()])
         }
     };
     let report = trend_report(years, generation, used, notes)?;

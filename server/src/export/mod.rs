@@ -3,9 +3,7 @@
 //!
 //! Every format is streamed: organisms are read one at a time from SQLite
 //! ([`crate::store::occurrences::for_each`]), turned into an [`Occurrence`] and written at
-//! once, so memory stays flat however many records there are. A Darwin Core Archive
-//! makes two passes (occurrences, then their lengths), because a zip holds one file
-//! after another.
+//! once, so memory stays flat however many records there are.
 //!
 //! Public exports generalise sensitive species ([`generalise`]); full exports are for
 //! assessors. Observer contacts are never read, so they cannot leave the server.
@@ -86,8 +84,7 @@ pub enum ExportError {
 /// How many organisms `request` will read (for a progress bar; the taxon filter may
 /// leave some of them out).
 pub fn rows_to_read(conn: &Connection, request: &ExportRequest) -> Result<u64, StoreError> {
-    let per_pass = occurrences::count(conn, &request.filter)?;
-    Ok(if request.format == Format::Dwca { 2 * per_pass } else { per_pass })
+    occurrences::count(conn, &request.filter)
 }
 
 /// Writes the export to `out`; `progress` is called once for every row read.

@@ -9,6 +9,7 @@
 mod migrate;
 pub mod observations;
 pub mod occurrences;
+pub mod synthetic;
 
 use std::path::Path;
 use std::sync::{Arc, Mutex};

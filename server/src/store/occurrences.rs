@@ -74,27 +74,38 @@ pub struct OccurrenceRow {
     pub photo_hashes: Vec<String>,
 }
 
+// One observation per organism is read: its first (lowest id). The span and photos of the
+// other observations are looked up (see `merged_details`) only for organisms that have more
+// than one, so the common case costs a few index probes per row and no temporary b-trees.
 const SELECT: &str = "
-SELECT o.organism_id, o.id, o.client_id, o.observed_at,
-       (SELECT MIN(x.observed_at_utc) FROM observations x WHERE x.organism_id = o.organism_id),
-       (SELECT MAX(x.observed_at_utc) FROM observations x WHERE x.organism_id = o.organism_id),
-       (SELECT COUNT(*) FROM observations x WHERE x.organism_id = o.organism_id),
+SELECT o.organism_id, o.id, o.client_id, o.observed_at, o.observed_at_utc, o.observed_at_utc,
+       (SELECT COUNT(*) FROM observations c WHERE c.organism_id = o.organism_id),
        o.latitude, o.longitude, o.accuracy_m, o.count, o.condition, o.setting, o.sex, o.notes,
        o.observer_name, o.review_state,
        i.taxon_name, i.taxon_rank, i.identified_by, i.identified_at, i.basis, i.remarks,
        m.kind, m.value, m.unit, m.value_cm, m.method,
        (SELECT group_concat(s.sign, ' ') FROM human_signs s WHERE s.observation_id = o.id),
-       (SELECT group_concat(op.photo_sha256, ' ') FROM
-           (SELECT op.photo_sha256 FROM observation_photos op JOIN observations x ON x.id = op.observation_id
-            WHERE x.organism_id = o.organism_id ORDER BY x.observed_at_utc, x.id, op.position) op)
+       (SELECT group_concat(op.photo_sha256, ' ' ORDER BY op.position) FROM observation_photos op WHERE op.observation_id = o.id)
 FROM observations o
 LEFT JOIN identifications i ON i.id = (
-    SELECT j.id FROM identifications j WHERE j.observation_id = o.id AND j.superseded_by IS NULL
-    ORDER BY j.identified_at DESC, j.id DESC LIMIT 1)
+    SELECT MAX(j.id) FROM identifications j WHERE j.observation_id = o.id AND j.superseded_by IS NULL)
 LEFT JOIN measurements m ON m.id = (SELECT MIN(k.id) FROM measurements k WHERE k.observation_id = o.id)
 WHERE o.id = (SELECT MIN(r.id) FROM observations r WHERE r.organism_id = o.organism_id)";
 
-/// Calls `each` with every organism that passes `filter`, in organism order, and returns
+/// The time span and the photos of all observations of an organism that has several.
+fn merged_details(conn: &Connection, row: &mut OccurrenceRow) -> Result<(), StoreError> {
+    let mut span = conn.prepare_cached("SELECT MIN(observed_at_utc), MAX(observed_at_utc) FROM observations WHERE organism_id = ?1")?;
+    (row.first_utc, row.last_utc) = span.query_row([row.organism_id], |r| Ok((r.get(0)?, r.get(1)?)))?;
+    let mut photos = conn.prepare_cached(
+        "SELECT op.photo_sha256 FROM observation_photos op JOIN observations x ON x.id = op.observation_id
+         WHERE x.organism_id = ?1 ORDER BY x.observed_at_utc, x.id, op.position",
+    )?;
+    row.photo_hashes = photos.query_map([row.organism_id], |r| r.get(0))?.collect::<Result<_, _>>()?;
+    Ok(())
+}
+
+/// Calls `each` with every organism that passes `filter`, in the order of their first
+/// observations, and returns
 /// how many there were. An error from `each` stops the walk and is returned.
 pub fn for_each<E: From<StoreError>>(
     conn: &Connection,
@@ -102,13 +113,17 @@ pub fn for_each<E: From<StoreError>>(
     mut each: impl FnMut(OccurrenceRow) -> Result<(), E>,
 ) -> Result<u64, E> {
     let (conditions, values) = where_clause(filter);
-    let sql = format!("{SELECT}{conditions} ORDER BY o.organism_id");
+    let sql = format!("{SELECT}{conditions} ORDER BY o.id");
     let mut stmt = conn.prepare(&sql).map_err(StoreError::from)?;
     let params: Vec<&dyn ToSql> = values.iter().map(|v| v.as_ref() as &dyn ToSql).collect();
     let mut rows = stmt.query(params.as_slice()).map_err(StoreError::from)?;
     let mut seen = 0;
     while let Some(row) = rows.next().map_err(StoreError::from)? {
-        each(read_row(row)?)?;
+        let mut occurrence = read_row(row)?;
+        if occurrence.observation_count > 1 {
+            merged_details(conn, &mut occurrence)?;
+        }
+        each(occurrence)?;
         seen += 1;
     }
     Ok(seen)

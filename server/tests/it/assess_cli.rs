@@ -158,3 +158,24 @@ async fn stored_records_count_only_in_the_chosen_review_state() {
     let text = wrackline(&app.data_dir, &["range", "--state", "any"]);
     assert!(String::from_utf8_lossy(&text.stdout).contains("Records used: stored records in any review state"));
 }
+
+#[tokio::test]
+async fn range_and_trend_over_http_give_the_figures_the_command_line_gives() {
+    let app = spawn_app().await;
+    for (i, year) in [2021, 2022, 2023, 2024].iter().enumerate() {
+        let mut record = submission(&format!("9a1f0c52-8a47-4c1e-9a55-2b6f3c1d0f0{i}"));
+        record["observed_at"] = format!("{year}-06-01T14:10:00+01:00").into();
+        record["position"]["latitude"] = (52.2 + 0.05 * i as f64).into();
+        assert_eq!(app.submit(&record, &[]).await.status, 200);
+    }
+    let over_http: Value = app.get("/api/range?state=any&taxon=Scyliorhinidae").await.json().await.unwrap();
+    let from_cli = json_of(&wrackline(&app.data_dir, &["range", "--state", "any", "--taxon", "Scyliorhinidae", "--json"]));
+    assert_eq!(over_http, from_cli);
+    let trend = app.get("/api/trend?state=any&taxon=small-spotted%20catshark").await;
+    assert_eq!(trend.status(), 200);
+    let trend: Value = trend.json().await.unwrap();
+    assert_eq!(trend["trend"]["window_years"], 24.0, "max(10, 3 × 8 years from the checklist)");
+    assert!(trend["notes"][0].as_str().unwrap().contains("raw yearly counts"));
+    let refused = app.get("/api/range?period=2019-2015").await;
+    assert_eq!(refused.status(), 400);
+}

@@ -229,3 +229,26 @@ async fn range_reads_an_exported_archive_back() {
     let taxa: Vec<&str> = report["taxa"].as_array().unwrap().iter().map(|t| t["taxon"].as_str().unwrap()).collect();
     assert_eq!(taxa, ["Scyliorhinus canicula", "Squatina squatina"], "the unmatched record has no scientificName");
 }
+
+#[tokio::test]
+async fn two_reports_of_one_animal_are_one_occurrence_with_the_interval_and_both_photos() {
+    let app = spawn_app().await;
+    let (first, second) = ("1b2c3d4e-0000-4000-8000-0000000000a1", "1b2c3d4e-0000-4000-8000-0000000000a2");
+    assert_eq!(app.submit(&submission(first), &[plain_jpeg(7)]).await.status, 200);
+    let mut later = submission(second);
+    later["observed_at"] = json!("2025-06-03T09:00:00+01:00");
+    assert_eq!(app.submit(&later, &[plain_jpeg(8)]).await.status, 200);
+    {
+        // What a reviewer's merge will do (a later issue): both observations, one organism.
+        let conn = rusqlite::Connection::open(app.data_dir.join("wrackline.sqlite3")).unwrap();
+        conn.execute("UPDATE observations SET organism_id = (SELECT MIN(organism_id) FROM observations)", []).unwrap();
+    }
+    let dir = tempfile::tempdir().unwrap();
+    let zip = download(&app, "format=dwca", dir.path(), "merged.zip").await;
+    let archive = run_script("read_dwca.py", &[&zip, &terms_extract()]);
+    assert_eq!(archive["rows"].as_array().unwrap().len(), 1, "one row per organism after merges");
+    let animal = row(&archive, first);
+    // ISO 8601 interval `start/end` (TDWG eventDate), in UTC.
+    assert_eq!(term(animal, "eventDate"), "2025-06-01T13:10:00Z/2025-06-03T08:00:00Z");
+    assert_eq!(term(animal, "associatedMedia").split(" | ").count(), 2, "the photos of both reports");
+}
