@@ -51,7 +51,7 @@ impl Extent {
     }
 
     /// SVG x, y inside a panel (y grows downwards).
-    fn to_panel(&self, [x, y]: [f64; 2]) -> (f64, f64) {
+    fn to_panel(self, [x, y]: [f64; 2]) -> (f64, f64) {
         ((x - self.west) * self.scale(), (self.north - y) * self.scale())
     }
 }

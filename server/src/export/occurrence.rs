@@ -36,6 +36,7 @@ pub struct ExportSummary {
     pub records: u64,
     pub generalised: u64,
     pub withheld: u64,
+    /// Lengths written to the archive's MeasurementOrFact extension (archives only).
     pub measurements: u64,
     /// Identifications the checklist does not list, with their counts (at most
     /// [`MAX_NAMES_SHOWN`] names; the rest are counted in `other_unmatched`).
@@ -53,6 +54,9 @@ impl ExportSummary {
             "{} records; {} with generalised coordinates and {} with the location withheld (sensitive species, Chapman 2020, GBIF).",
             self.records, self.generalised, self.withheld
         )];
+        if self.measurements > 0 {
+            notes.push(format!("{} lengths, in the MeasurementOrFact extension.", self.measurements));
+        }
         let unmatched: u64 = self.unmatched.values().sum::<u64>() + self.other_unmatched;
         if unmatched > 0 {
             let names: Vec<String> = self.unmatched.iter().map(|(n, c)| format!("{n} ({c})")).collect();
@@ -91,10 +95,10 @@ impl Builder<'_> {
     pub fn build(&mut self, row: &OccurrenceRow) -> Option<Occurrence> {
         let guess = row.identification.as_ref().map(|i| i.taxon_name.as_str());
         let taxon = guess.and_then(|g| self.names.resolve(g));
-        if let Some(filter) = self.taxon {
-            if !taxon.is_some_and(|t| filter.contains(t)) {
-                return None;
-            }
+        if let Some(filter) = self.taxon
+            && !taxon.is_some_and(|t| filter.contains(t))
+        {
+            return None;
         }
         let position = row.latitude.zip(row.longitude);
         let place = match (self.audience, taxon) {
