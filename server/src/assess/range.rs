@@ -198,7 +198,11 @@ pub fn render_text(report: &RangeReport) -> String {
         out.push_str(&format!("Names not on the checklist (kept as written): {}.\n", names.join(", ")));
     }
     if report.taxa.is_empty() {
-        out.push_str("\nNo records to compute figures from.\n");
+        out.push_str("\nNo records to compute figures from.");
+        if report.records_read == 0 && report.records_used.starts_with("stored") {
+            out.push_str(" Records stay `awaiting review` until reviewers confirm them; `--state any` uses every stored record.");
+        }
+        out.push('\n');
     }
     for taxon in &report.taxa {
         out.push_str(&render_taxon(taxon));

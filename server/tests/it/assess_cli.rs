@@ -179,3 +179,52 @@ async fn range_and_trend_over_http_give_the_figures_the_command_line_gives() {
     let refused = app.get("/api/range?period=2019-2015").await;
     assert_eq!(refused.status(), 400);
 }
+
+/// A Darwin Core Archive as another system might write it: comma-separated and quoted,
+/// one header line, the species name as a constant `default` (TDWG Darwin Core Text Guide).
+fn archive_from_elsewhere(dir: &Path, rows: &str) -> std::path::PathBuf {
+    use std::io::Write as _;
+    let meta = r#"<?xml version="1.0" encoding="UTF-8"?>
+<archive xmlns="http://rs.tdwg.org/dwc/text/">
+  <core rowType="http://rs.tdwg.org/dwc/terms/Occurrence" fieldsTerminatedBy="," fieldsEnclosedBy="&quot;" ignoreHeaderLines="1" encoding="UTF-8">
+    <files><location>data/points.csv</location></files>
+    <id index="0"/>
+    <field index="1" term="http://rs.tdwg.org/dwc/terms/eventDate"/>
+    <field index="2" term="http://rs.tdwg.org/dwc/terms/decimalLongitude"/>
+    <field index="3" term="http://rs.tdwg.org/dwc/terms/decimalLatitude"/>
+    <field term="http://rs.tdwg.org/dwc/terms/scientificName" default="Dasyatis pastinaca"/>
+  </core>
+</archive>"#;
+    let path = dir.join("elsewhere.zip");
+    let mut zip = zip::ZipWriter::new(std::fs::File::create(&path).unwrap());
+    let options = zip::write::SimpleFileOptions::default();
+    zip.start_file("meta.xml", options).unwrap();
+    zip.write_all(meta.as_bytes()).unwrap();
+    zip.start_file("data/points.csv", options).unwrap();
+    zip.write_all(rows.as_bytes()).unwrap();
+    zip.finish().unwrap();
+    path
+}
+
+#[test]
+fn range_reads_an_archive_from_elsewhere_through_its_meta_xml() {
+    let dir = tempfile::tempdir().unwrap();
+    let rows = "id,date,lon,lat\n\"a, first\",2021-05-01,-4.10,52.40\nb,2021-06-01,-4.30,52.20\nc,2022,-4.60,52.10\n";
+    let zip = archive_from_elsewhere(dir.path(), rows);
+    let report = json_of(&wrackline(dir.path(), &["range", "--from", zip.to_str().unwrap(), "--json"]));
+    let group = &report["taxa"][0];
+    assert_eq!(group["taxon"], "Dasyatis pastinaca", "the constant from meta.xml");
+    assert_eq!(group["periods"][0]["records"], 3);
+    let hull = group["periods"][0]["figures"]["eoo"]["hull"].as_array().unwrap();
+    assert!(hull.iter().any(|c| c["lat"] == 52.4 && c["lon"] == -4.1), "columns mapped by index, not by position in the file");
+}
+
+#[test]
+fn a_bad_cell_in_an_archive_is_named_by_its_file_line_and_column() {
+    let dir = tempfile::tempdir().unwrap();
+    let zip = archive_from_elsewhere(dir.path(), "id,date,lon,lat\na,2021-05-01,-4.10,52.40\nb,sometime,-4.30,52.20\n");
+    let output = wrackline(dir.path(), &["range", "--from", zip.to_str().unwrap()]);
+    assert!(!output.status.success());
+    let message = String::from_utf8_lossy(&output.stderr);
+    assert!(message.contains("elsewhere.zip:data/points.csv, line 3, column 2 (eventDate)"), "{message}");
+}
