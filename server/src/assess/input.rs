@@ -38,8 +38,6 @@ pub enum InputError {
     File { file: String, message: String },
     #[error("{file}, line {line}, column {column} ({header}): {message}")]
     Cell { file: String, line: u64, column: usize, header: String, message: String },
-    #[error(transparent)]
-    Store(#[from] StoreError),
 }
 
 /// The Darwin Core terms a file must or may carry.
