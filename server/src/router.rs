@@ -26,7 +26,9 @@ pub fn app(state: AppState) -> Router {
         .route("/api/observations/{client_id}", get(observations::get))
         .route("/api/export", get(export::export))
         .route("/api/range", get(assess::range))
+        .route("/api/range/map.svg", get(assess::range_map))
         .route("/api/trend", get(assess::trend))
+        .route("/api/trend/chart.svg", get(assess::trend_chart))
         .route("/api/{*rest}", get(api_not_found).post(api_not_found))
         .route("/photos/{sha256}", get(photos::get));
     let router = match &state.app_dir {

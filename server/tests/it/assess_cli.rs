@@ -228,3 +228,21 @@ fn a_bad_cell_in_an_archive_is_named_by_its_file_line_and_column() {
     let message = String::from_utf8_lossy(&output.stderr);
     assert!(message.contains("elsewhere.zip:data/points.csv, line 3, column 2 (eventDate)"), "{message}");
 }
+
+#[tokio::test]
+async fn the_map_and_the_chart_are_served_as_svg() {
+    let app = spawn_app().await;
+    for (i, year) in [2021, 2022, 2023, 2024].iter().enumerate() {
+        let mut record = submission(&format!("9a1f0c52-8a47-4c1e-9a55-2b6f3c1d0a0{i}"));
+        record["observed_at"] = format!("{year}-06-01T14:10:00+01:00").into();
+        record["position"]["latitude"] = (52.2 + 0.05 * i as f64).into();
+        assert_eq!(app.submit(&record, &[]).await.status, 200);
+    }
+    for path in ["/api/range/map.svg?state=any", "/api/trend/chart.svg?state=any&taxon=Scyliorhinus%20canicula"] {
+        let response = app.get(path).await;
+        assert_eq!(response.status(), 200, "{path}");
+        assert_eq!(response.headers()["content-type"], "image/svg+xml");
+        assert!(response.text().await.unwrap().starts_with("<svg"), "{path}");
+    }
+    assert_eq!(app.get("/api/range/map.svg").await.status(), 404, "nothing confirmed yet to map");
+}
