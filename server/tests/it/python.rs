@@ -13,17 +13,15 @@ fn workspace() -> PathBuf {
 
 /// The Python that has the reference packages.
 pub fn python() -> PathBuf {
-    if let Some(path) = std::env::var_os("WRACKLINE_PYTHON") {
-        return PathBuf::from(path);
-    }
-    let venv = workspace().join("target/venv/bin/python");
+    let python = std::env::var_os("WRACKLINE_PYTHON").map(PathBuf::from).unwrap_or_else(|| workspace().join("target/venv/bin/python"));
     assert!(
-        venv.exists(),
-        "these tests need python-dwca-reader and shapely from PyPI: run `cargo xtask test` (it makes target/venv), \
-         or make a venv yourself (`python3 -m venv target/venv && target/venv/bin/pip install python-dwca-reader==0.17.1 shapely`) \
-         or set WRACKLINE_PYTHON to a Python that has them"
+        python.exists(),
+        "{} does not exist. These tests need python-dwca-reader and shapely from PyPI: run `cargo xtask test` \
+         (it makes target/venv), or make a venv yourself (`python3 -m venv target/venv && \
+         target/venv/bin/pip install python-dwca-reader==0.17.1 shapely==2.2.0`), or set WRACKLINE_PYTHON to a Python that has them",
+        python.display()
     );
-    venv
+    python
 }
 
 /// Runs one of `server/tests/python/*.py` and reads the JSON it prints.
