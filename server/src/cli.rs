@@ -1,5 +1,5 @@
 //! The `wrackline` command line. Scripts and later work rely on these names:
-//! `serve`, `demo`, `export`, each taking `--data-dir`.
+//! `serve`, `demo`, `export`, `range`, `trend`, each taking `--data-dir`.
 
 use std::net::SocketAddr;
 use std::path::PathBuf;
@@ -7,8 +7,7 @@ use std::path::PathBuf;
 use anyhow::Context as _;
 use clap::{Parser, Subcommand, ValueEnum};
 
-use crate::store::observations;
-use crate::{AppState, demo, export};
+use crate::{AppState, commands, demo};
 
 #[derive(Debug, Parser)]
 #[command(name = "wrackline", version, about = "Records of sharks and rays found stranded or landed: capture, review, export.")]
@@ -27,7 +26,11 @@ pub enum Command {
     /// Load the demo records into the data directory if it holds none, then serve.
     Demo(ServeArgs),
     /// Write all records to a file or to standard output.
-    Export(ExportArgs),
+    Export(commands::export::ExportArgs),
+    /// Range figures (records, sites, EOO, AOO) per taxon and period.
+    Range(commands::range::RangeArgs),
+    /// The effort-corrected yearly trend over the assessment window.
+    Trend(commands::trend::TrendArgs),
     /// Survey effort: kilometres and hours walked per stretch per month or year.
     Effort(EffortArgs),
     /// People with a sign-in (reviewers and admins).
@@ -79,23 +82,6 @@ pub struct ServeArgs {
     pub checklist: Option<PathBuf>,
 }
 
-#[derive(Debug, clap::Args)]
-pub struct ExportArgs {
-    #[arg(long, value_enum)]
-    pub format: ExportFormat,
-    /// Write here instead of standard output.
-    #[arg(long)]
-    pub out: Option<PathBuf>,
-    /// The address photo links in the export point at.
-    #[arg(long, default_value = "http://127.0.0.1:8080")]
-    pub base_url: String,
-}
-
-#[derive(Debug, Clone, Copy, ValueEnum)]
-pub enum ExportFormat {
-    Csv,
-}
-
 fn default_data_dir() -> PathBuf {
     dirs::data_dir().unwrap_or_else(|| PathBuf::from(".")).join("wrackline")
 }
@@ -105,7 +91,9 @@ pub fn run(cli: Cli) -> anyhow::Result<()> {
     match cli.command {
         Command::Serve(args) => serve(&cli.data_dir, args, false),
         Command::Demo(args) => serve(&cli.data_dir, args, true),
-        Command::Export(args) => export_records(&cli.data_dir, args),
+        Command::Export(args) => commands::export::run(&cli.data_dir, args),
+        Command::Range(args) => commands::range::run(&cli.data_dir, args),
+        Command::Trend(args) => commands::trend::run(&cli.data_dir, args),
         Command::Effort(args) => print_effort(&cli.data_dir, &args),
         Command::User(command) => user(&cli.data_dir, command),
     }
@@ -132,21 +120,6 @@ fn serve(data_dir: &std::path::Path, args: ServeArgs, with_demo: bool) -> anyhow
         println!("data directory: {}", data_dir.display());
         crate::serve(listener, state).await
     })
-}
-
-fn export_records(data_dir: &std::path::Path, args: ExportArgs) -> anyhow::Result<()> {
-    let state = AppState::open(data_dir, None, crate::load_checklist(None)?)?;
-    let records = state.store.run_here(|conn| observations::list_records(conn))?;
-    let ExportFormat::Csv = args.format;
-    match &args.out {
-        Some(path) => {
-            let file = std::fs::File::create(path).with_context(|| format!("creating {}", path.display()))?;
-            export::csv::write(&records, &args.base_url, std::io::BufWriter::new(file))?;
-            eprintln!("wrote {} records to {}", records.len(), path.display());
-        }
-        None => export::csv::write(&records, &args.base_url, std::io::stdout().lock())?,
-    }
-    Ok(())
 }
 
 fn print_effort(data_dir: &std::path::Path, args: &EffortArgs) -> anyhow::Result<()> {

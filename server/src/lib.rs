@@ -6,8 +6,10 @@
 //! [`export`], [`demo`] (the work, with no HTTP in it) → [`store`] (the only code that
 //! runs SQL).
 
+pub mod assess;
 pub mod auth;
 pub mod cli;
+pub mod commands;
 pub mod demo;
 pub mod error;
 pub mod effort;

@@ -10,7 +10,7 @@ use tower_http::set_header::{SetResponseHeader, SetResponseHeaderLayer};
 
 use crate::AppState;
 use crate::error::ApiError;
-use crate::handlers::{checklist, export, health, mine, observations, people, photos, review, session, walks};
+use crate::handlers::{assess, checklist, export, health, mine, observations, people, photos, review, session, walks};
 use crate::intake::photos::{MAX_PHOTO_BYTES, MAX_PHOTOS_PER_RECORD};
 
 /// Who may use a route. Handlers enforce it with the extractors in
@@ -52,6 +52,10 @@ pub const ROUTES: &[RouteSpec] = &[
     route("GET", "/api/effort", Access::Public),
     route("GET", "/api/export", Access::Public),
     route("GET", "/api/checklist", Access::Public),
+    route("GET", "/api/range", Access::Public),
+    route("GET", "/api/range/map.svg", Access::Public),
+    route("GET", "/api/trend", Access::Public),
+    route("GET", "/api/trend/chart.svg", Access::Public),
     route("POST", "/api/session", Access::Public),
     route("GET", "/api/session", Access::Public),
     route("DELETE", "/api/session", Access::Public),
@@ -92,6 +96,10 @@ pub fn app(state: AppState) -> Router {
         .route("/api/review/records/{client_id}/actions", post(review::act))
         .route("/api/people", get(people::list).post(people::add))
         .route("/api/people/{username}/disabled", put(people::set_disabled))
+        .route("/api/range", get(assess::range))
+        .route("/api/range/map.svg", get(assess::range_map))
+        .route("/api/trend", get(assess::trend))
+        .route("/api/trend/chart.svg", get(assess::trend_chart))
         .route("/api/{*rest}", get(api_not_found).post(api_not_found).put(api_not_found).delete(api_not_found))
         .route("/photos/{sha256}", get(photos::get));
     let router = match &state.app_dir {

@@ -5,7 +5,7 @@
 //!   `target/app-dist`.
 //! - `demo [ARGS…]`: build everything, then run `wrackline demo` (ARGS go to it).
 //! - `test`: install what the tests need (wasm target, Chromium, exiftool, npm
-//!   packages), build, and run every test: Rust unit and integration tests, then the
+//!   packages, a Python venv in target/venv), build, and run every test: Rust unit and integration tests, then the
 //!   browser tests. `ci` is the same.
 //! - `bench`: the benchmarks, each printing ratios against a baseline measured in the
 //!   same run (never timed tests: machines here are shared and noisy).
@@ -55,8 +55,9 @@ fn demo(args: &[String]) -> Result<()> {
 fn test() -> Result<()> {
     let started = std::time::Instant::now();
     prerequisites::all()?;
+    let python = prerequisites::python_venv()?;
     let dist = app::build(app::Profile::Release)?;
-    run::cargo(&["test", "--workspace", "--exclude", "wrackline-app"])?;
+    run::cargo_with_env(&["test", "--workspace", "--exclude", "wrackline-app"], &[("WRACKLINE_PYTHON", &python)])?;
     run::cargo(&["build", "-p", "wrackline-server"])?;
     run::browser_tests(&dist, &root().join("target/debug/wrackline"))?;
     println!("xtask test: every suite passed in {:.0} s", started.elapsed().as_secs_f64());

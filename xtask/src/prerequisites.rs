@@ -1,6 +1,6 @@
 //! What the tests need beyond the Rust toolchain, installed when missing: the wasm
 //! target (rustup), Chromium and exiftool (Debian packages, when running as root), and
-//! the browser-test npm packages. When something cannot be installed here, the error
+//! the browser-test npm packages, and a Python virtualenv with the reference readers. When something cannot be installed here, the error
 //! says what is missing and the command that installs it.
 
 use std::path::Path;
@@ -15,6 +15,7 @@ pub fn all() -> Result<()> {
     debian_packages()?;
     npm_packages()
 }
+
 
 /// Adds the wasm32 target unless its standard library is already there.
 pub fn wasm_target() -> Result<()> {
@@ -46,7 +47,13 @@ fn is_root() -> bool {
 
 /// Chromium for the browser tests, exiftool to write reference EXIF.
 fn debian_packages() -> Result<()> {
-    let wanted = [("chromium", "chromium"), ("exiftool", "libimage-exiftool-perl"), ("node", "nodejs"), ("npm", "npm")];
+    let wanted = [
+        ("chromium", "chromium"),
+        ("exiftool", "libimage-exiftool-perl"),
+        ("node", "nodejs"),
+        ("npm", "npm"),
+        ("python3", "python3"),
+    ];
     let missing: Vec<&str> = wanted.iter().filter(|(program, _)| !on_path(program)).map(|(_, package)| *package).collect();
     if missing.is_empty() {
         return Ok(());
@@ -72,4 +79,46 @@ fn npm_packages() -> Result<()> {
     let mut command = Command::new("npm");
     command.args(["ci", "--no-audit", "--no-fund", "--prefix"]).arg(&folder);
     run::check(command).context("installing the browser-test packages; try: npm ci --prefix tests/browser")
+}
+
+/// The Python packages the export tests read archives and GeoJSON back with.
+const PYTHON_PACKAGES: &[&str] = &["python-dwca-reader==0.17.1", "shapely==2.2.0"];
+
+/// A virtualenv in `target/venv` with the reference Python packages; returns its Python,
+/// which `test` passes to the Rust tests as `WRACKLINE_PYTHON`.
+pub fn python_venv() -> Result<std::path::PathBuf> {
+    let venv = root().join("target/venv");
+    let python = venv.join("bin/python");
+    let marker = venv.join("wrackline-packages.txt");
+    let wanted = PYTHON_PACKAGES.join("\n");
+    if std::fs::read_to_string(&marker).is_ok_and(|have| have == wanted) {
+        return Ok(python);
+    }
+    if !python.exists() {
+        make_venv(&venv)?;
+    }
+    let mut pip = Command::new(&python);
+    pip.args(["-m", "pip", "install", "--quiet", "--disable-pip-version-check"]).args(PYTHON_PACKAGES);
+    run::check(pip).with_context(|| format!("installing {} into {}", PYTHON_PACKAGES.join(" "), venv.display()))?;
+    std::fs::write(&marker, wanted)?;
+    Ok(python)
+}
+
+fn make_venv(venv: &Path) -> Result<()> {
+    let attempt = || {
+        let mut command = Command::new("python3");
+        command.args(["-m", "venv"]).arg(venv);
+        run::check(command)
+    };
+    if attempt().is_ok() {
+        return Ok(());
+    }
+    if !is_root() {
+        bail!("could not make a Python virtualenv at {}; install python3 and python3-venv (sudo apt-get install -y python3 python3-venv)", venv.display());
+    }
+    let mut command = Command::new("apt-get");
+    command.args(["install", "-y", "--no-install-recommends", "python3", "python3-venv"]).env("DEBIAN_FRONTEND", "noninteractive");
+    run::check(command).context("installing python3-venv; try: apt-get install -y python3 python3-venv")?;
+    let _ = std::fs::remove_dir_all(venv);
+    attempt().context("making the Python virtualenv after installing python3-venv")
 }

@@ -20,8 +20,16 @@ pub fn check(mut command: Command) -> Result<()> {
 }
 
 pub fn cargo(args: &[&str]) -> Result<()> {
+    cargo_with_env(args, &[])
+}
+
+/// `cargo` with extra environment variables (e.g. `WRACKLINE_PYTHON` for the tests).
+pub fn cargo_with_env(args: &[&str], env: &[(&str, &Path)]) -> Result<()> {
     let mut command = Command::new(std::env::var("CARGO").unwrap_or_else(|_| "cargo".into()));
     command.args(args);
+    for (name, value) in env {
+        command.env(name, value);
+    }
     check(command)
 }
 

@@ -1,4 +1,128 @@
 //! Exports of stored records, with no HTTP in them: the command line and the HTTP
-//! handlers call the same functions.
+//! handlers call [`write_export`].
+//!
+//! Every format is streamed: organisms are read one at a time from SQLite
+//! ([`crate::store::occurrences::for_each`]), turned into an [`Occurrence`] and written at
+//! once, so memory stays flat however many records there are.
+//!
+//! Public exports generalise sensitive species ([`generalise`]); full exports are for
+//! assessors. Observer contacts are never read, so they cannot leave the server.
 
 pub mod csv;
+pub mod dwca;
+pub mod generalise;
+pub mod geojson;
+pub mod occurrence;
+pub mod terms;
+
+use std::io::Write;
+
+use rusqlite::Connection;
+
+pub use occurrence::{Audience, ExportSummary, Occurrence};
+
+use crate::assess::taxa::{TaxonFilter, TaxonIndex};
+use crate::store::StoreError;
+use crate::store::occurrences::{self, RowFilter};
+use occurrence::Builder;
+
+/// The formats an export can take.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Format {
+    Csv,
+    Dwca,
+    Geojson,
+}
+
+impl Format {
+    /// Reads `csv`, `dwca` or `geojson`.
+    pub fn parse(text: &str) -> Option<Self> {
+        match text.to_ascii_lowercase().as_str() {
+            "csv" => Some(Self::Csv),
+            "dwca" => Some(Self::Dwca),
+            "geojson" => Some(Self::Geojson),
+            _ => None,
+        }
+    }
+
+    /// The media type and file name to serve it under.
+    pub fn media_type_and_file(self) -> (&'static str, &'static str) {
+        match self {
+            Self::Csv => ("text/csv; charset=utf-8", "wrackline-records.csv"),
+            Self::Dwca => ("application/zip", "wrackline-dwca.zip"),
+            Self::Geojson => ("application/geo+json", "wrackline-records.geojson"),
+        }
+    }
+}
+
+/// What to export and for whom.
+#[derive(Debug, Clone)]
+pub struct ExportRequest {
+    pub format: Format,
+    pub audience: Audience,
+    pub filter: RowFilter,
+    pub taxon: Option<TaxonFilter>,
+    /// Photo links in the export point under this address.
+    pub base_url: String,
+}
+
+/// Why an export stopped.
+#[derive(Debug, thiserror::Error)]
+pub enum ExportError {
+    #[error(transparent)]
+    Store(#[from] StoreError),
+    #[error("writing the export: {0}")]
+    Io(#[from] std::io::Error),
+    #[error("writing the archive: {0}")]
+    Zip(#[from] zip::result::ZipError),
+    #[error("writing CSV: {0}")]
+    Csv(#[from] ::csv::Error),
+    #[error("writing JSON: {0}")]
+    Json(#[from] serde_json::Error),
+}
+
+/// How many organisms `request` will read (for a progress bar; the taxon filter may
+/// leave some of them out).
+pub fn rows_to_read(conn: &Connection, request: &ExportRequest) -> Result<u64, StoreError> {
+    occurrences::count(conn, &request.filter)
+}
+
+/// Writes the export to `out`; `progress` is called once for every row read.
+pub fn write_export<W: Write>(
+    conn: &Connection,
+    names: &TaxonIndex,
+    request: &ExportRequest,
+    out: W,
+    progress: &mut dyn FnMut(),
+) -> Result<ExportSummary, ExportError> {
+    match request.format {
+        Format::Csv => csv::write(conn, names, request, out, progress),
+        Format::Geojson => geojson::write(conn, names, request, out, progress),
+        Format::Dwca => dwca::write(conn, names, request, out, progress),
+    }
+}
+
+/// Walks the organisms of `request` once, handing each kept occurrence to `each`.
+fn each_occurrence(
+    conn: &Connection,
+    names: &TaxonIndex,
+    request: &ExportRequest,
+    progress: &mut dyn FnMut(),
+    mut each: impl FnMut(&Occurrence) -> Result<(), ExportError>,
+) -> Result<ExportSummary, ExportError> {
+    let mut builder = Builder {
+        names,
+        audience: request.audience,
+        taxon: request.taxon.as_ref(),
+        base_url: &request.base_url,
+        summary: ExportSummary::default(),
+    };
+    occurrences::for_each(conn, &request.filter, |row| -> Result<(), ExportError> {
+        progress();
+        match builder.build(&row) {
+            Some(occurrence) => each(&occurrence),
+            None => Ok(()),
+        }
+    })?;
+    Ok(builder.summary)
+}

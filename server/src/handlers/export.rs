@@ -1,35 +1,134 @@
-//! `GET /api/export?format=csv`: the same export the command line writes.
+//! `GET /api/export?format=csv|dwca|geojson`: the same exports the command line writes,
+//! streamed to the client as they are made.
+//!
+//! Only the public form is served: sensitive species are generalised. Full exports need
+//! a signed-in assessor, and sign-in arrives with a later issue; until then they are
+//! made with `wrackline export --full` on the server itself.
+//!
+//! Filters: `taxon` (a checklist name), `from` and `to` (YYYY-MM-DD, UTC days), `bbox`
+//! (`SOUTH,WEST,NORTH,EAST`), `state` (review-state codes separated by commas, or `any`;
+//! default any).
 
+use std::io::Write;
+
+use axum::body::{Body, Bytes};
 use axum::extract::{Query, State};
 use axum::http::{HeaderMap, header};
 use axum::response::{IntoResponse, Response};
+use chrono::NaiveDate;
 use serde::Deserialize;
+use tokio::sync::mpsc;
 
 use crate::AppState;
+use crate::assess::parse_states;
+use crate::assess::taxa::TaxonIndex;
+use crate::commands::export::{day_bounds, parse_bbox};
 use crate::error::ApiError;
-use crate::export;
-use crate::store::observations;
+use crate::export::{self, Audience, ExportRequest, Format};
+use crate::store::occurrences::RowFilter;
 
 #[derive(Deserialize)]
 pub struct ExportQuery {
     format: String,
+    taxon: Option<String>,
+    from: Option<String>,
+    to: Option<String>,
+    bbox: Option<String>,
+    state: Option<String>,
 }
 
 pub async fn export(State(state): State<AppState>, headers: HeaderMap, Query(query): Query<ExportQuery>) -> Result<Response, ApiError> {
-    if query.format != "csv" {
-        return Err(ApiError::BadRequest(format!("unknown export format `{}`; available: csv", query.format)));
-    }
     let host = headers.get(header::HOST).and_then(|h| h.to_str().ok()).unwrap_or("127.0.0.1:8080");
-    let base_url = format!("http://{host}");
-    let records = state.store.run(|conn| observations::list_records(conn)).await?;
-    let mut body = Vec::new();
-    export::csv::write(&records, &base_url, &mut body).map_err(ApiError::Internal)?;
+    let request = read_request(&query, format!("http://{host}"))?;
+    let (media_type, file_name) = request.format.media_type_and_file();
+    let (sender, receiver) = mpsc::channel::<Result<Bytes, std::io::Error>>(8);
+    let store = state.store.clone();
+    tokio::spawn(async move {
+        let failed = sender.clone();
+        let outcome = store
+            .run(move |conn| {
+                let mut out = ChannelWriter { sender, buffer: Vec::with_capacity(CHUNK) };
+                let result = export::write_export(conn, TaxonIndex::shared(), &request, &mut out, &mut || {}).and_then(|summary| {
+                    out.flush()?;
+                    Ok(summary)
+                });
+                Ok(result)
+            })
+            .await;
+        let problem = match outcome {
+            Ok(Ok(_)) => return,
+            Ok(Err(err)) => err.to_string(),
+            Err(err) => err.to_string(),
+        };
+        tracing::error!(error = %problem, "export stopped part way");
+        let _ = failed.send(Err(std::io::Error::other("the export stopped part way"))).await;
+    });
+    let stream = futures_util::stream::unfold(receiver, |mut receiver| async move { receiver.recv().await.map(|chunk| (chunk, receiver)) });
     Ok((
-        [
-            (header::CONTENT_TYPE, "text/csv; charset=utf-8"),
-            (header::CONTENT_DISPOSITION, "attachment; filename=\"wrackline-records.csv\""),
-        ],
-        body,
+        [(header::CONTENT_TYPE, media_type.to_owned()), (header::CONTENT_DISPOSITION, format!("attachment; filename=\"{file_name}\""))],
+        Body::from_stream(stream),
     )
         .into_response())
+}
+
+fn read_request(query: &ExportQuery, base_url: String) -> Result<ExportRequest, ApiError> {
+    let bad = |message: String| ApiError::BadRequest(message);
+    let format = Format::parse(&query.format)
+        .ok_or_else(|| bad(format!("unknown export format `{}`; available: csv, dwca, geojson", query.format)))?;
+    let taxon = query
+        .taxon
+        .as_deref()
+        .map(|name| TaxonIndex::shared().filter(name).ok_or_else(|| bad(format!("`{name}` is not a taxon on the checklist"))))
+        .transpose()?;
+    let day = |text: &Option<String>, what: &str| {
+        text.as_deref()
+            .map(|t| t.parse::<NaiveDate>().map_err(|_| bad(format!("{what} `{t}` is not a date (YYYY-MM-DD)"))))
+            .transpose()
+    };
+    let (from_utc, until_utc) = day_bounds(day(&query.from, "from")?, day(&query.to, "to")?);
+    let bbox = query.bbox.as_deref().map(parse_bbox).transpose().map_err(|m| bad(format!("bbox: {m}")))?;
+    let states: Vec<String> = query.state.as_deref().unwrap_or("any").split(',').map(str::to_owned).collect();
+    let states = parse_states(&states).map_err(bad)?;
+    Ok(ExportRequest {
+        format,
+        audience: Audience::Public,
+        filter: RowFilter { states, from_utc, until_utc, bbox },
+        taxon,
+        base_url,
+    })
+}
+
+const CHUNK: usize = 64 * 1024;
+
+/// Hands the export to the response body in chunks; blocks (on the blocking pool) when
+/// the client reads slower than the export is written, so memory stays bounded.
+struct ChannelWriter {
+    sender: mpsc::Sender<Result<Bytes, std::io::Error>>,
+    buffer: Vec<u8>,
+}
+
+impl ChannelWriter {
+    fn send(&mut self) -> std::io::Result<()> {
+        if self.buffer.is_empty() {
+            return Ok(());
+        }
+        let chunk = Bytes::from(std::mem::replace(&mut self.buffer, Vec::with_capacity(CHUNK)));
+        self.sender
+            .blocking_send(Ok(chunk))
+            .map_err(|_| std::io::Error::new(std::io::ErrorKind::BrokenPipe, "the client stopped reading"))
+    }
+}
+
+impl Write for ChannelWriter {
+    fn write(&mut self, bytes: &[u8]) -> std::io::Result<usize> {
+        self.buffer.extend_from_slice(bytes);
+        if self.buffer.len() >= CHUNK {
+            self.send()?;
+        }
+        Ok(bytes.len())
+    }
+
+    fn flush(&mut self) -> std::io::Result<()> {
+        self.send()
+    }
 }

@@ -2,6 +2,7 @@
 //! does the work, and turn its answer into a response; nothing else.
 
 pub mod access;
+pub mod assess;
 pub mod checklist;
 pub mod export;
 pub mod health;

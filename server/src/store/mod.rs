@@ -8,8 +8,10 @@
 
 mod migrate;
 pub mod observations;
+pub mod occurrences;
 pub mod people;
 pub mod review;
+pub mod synthetic;
 pub mod walks;
 
 use std::path::Path;

@@ -2,10 +2,14 @@
 //! in a temporary folder, real HTTP, real JPEGs. One test binary, one module per area.
 
 mod access;
+mod assess_cli;
 mod cli;
 mod exif;
+mod exports;
 mod flags;
 mod helpers;
+mod pictures;
+mod python;
 mod review;
 mod routes;
 mod submissions;

@@ -1,0 +1,289 @@
+//! Records read for range and trend figures: from the database, from a CSV file, or from
+//! a Darwin Core Archive made elsewhere.
+//!
+//! Every reader gives the same [`PointRecord`]s, so the figures do not care where the
+//! records came from. Errors name the file, the line and the column at fault.
+
+use std::fs::File;
+use std::io::Read;
+use std::path::Path;
+
+use analysis::LatLon;
+use shared_types::ReviewState;
+
+use super::dates::DateSpan;
+use super::meta::{ArchiveTable, read_meta};
+use crate::store::StoreError;
+use crate::store::occurrences::{self, OccurrenceRow, RowFilter};
+
+/// One record as the figures need it.
+#[derive(Debug, Clone, PartialEq)]
+pub struct PointRecord {
+    /// The name as written (a scientific name, or an observer's guess).
+    pub name: Option<String>,
+    /// Where; `None` when the record has no position.
+    pub position: Option<LatLon>,
+    /// When; `None` when the record has no date.
+    pub when: Option<DateSpan>,
+    /// How many animals the record is of (1 when the source does not say).
+    pub count: u64,
+}
+
+/// Why records could not be read.
+#[derive(Debug, thiserror::Error)]
+pub enum InputError {
+    #[error("{file}: {source}")]
+    Open { file: String, source: std::io::Error },
+    #[error("{file}: {message}")]
+    File { file: String, message: String },
+    #[error("{file}, line {line}, column {column} ({header}): {message}")]
+    Cell { file: String, line: u64, column: usize, header: String, message: String },
+}
+
+/// The Darwin Core terms a file must or may carry.
+const LATITUDE: &str = "decimalLatitude";
+const LONGITUDE: &str = "decimalLongitude";
+const NAME: &str = "scientificName";
+const DATE: &str = "eventDate";
+const COUNT: &str = "individualCount";
+
+/// Reads a CSV file with a header row, or a Darwin Core Archive (a zip with `meta.xml`).
+pub fn read_file(path: &Path) -> Result<Vec<PointRecord>, InputError> {
+    let shown = path.display().to_string();
+    let mut file = File::open(path).map_err(|source| InputError::Open { file: shown.clone(), source })?;
+    let mut magic = [0u8; 4];
+    let read = file.read(&mut magic).map_err(|source| InputError::Open { file: shown.clone(), source })?;
+    if read == 4 && &magic == b"PK\x03\x04" {
+        read_archive(path, &shown)
+    } else {
+        let file = File::open(path).map_err(|source| InputError::Open { file: shown.clone(), source })?;
+        let reader = csv::ReaderBuilder::new().has_headers(true).flexible(false).from_reader(file);
+        read_table(reader, &shown, &Columns::from_header)
+    }
+}
+
+/// Stored organisms whose review state passes `states` (`None`: any state).
+pub fn read_store(conn: &rusqlite::Connection, states: Option<Vec<ReviewState>>) -> Result<Vec<PointRecord>, StoreError> {
+    let filter = RowFilter { states, ..RowFilter::default() };
+    let mut records = Vec::new();
+    occurrences::for_each(conn, &filter, |row: OccurrenceRow| -> Result<(), StoreError> {
+        records.push(stored_point(&row));
+        Ok(())
+    })?;
+    Ok(records)
+}
+
+fn stored_point(row: &OccurrenceRow) -> PointRecord {
+    let position = match (row.latitude, row.longitude) {
+        (Some(lat), Some(lon)) => LatLon::new(lat, lon).ok(),
+        _ => None,
+    };
+    // The observer's own calendar day, from the offset the phone recorded.
+    let when = row.observed_at.get(..10).and_then(|day| DateSpan::parse(day).ok());
+    PointRecord {
+        name: row.identification.as_ref().map(|i| i.taxon_name.clone()),
+        position,
+        when,
+        count: row.count.max(0) as u64,
+    }
+}
+
+/// Where each wanted term sits in a row, or the constant it always has.
+struct Columns {
+    names: Vec<String>,
+    latitude: Source,
+    longitude: Source,
+    name: Option<Source>,
+    date: Option<Source>,
+    count: Option<Source>,
+}
+
+#[derive(Clone)]
+enum Source {
+    Index(usize),
+    Constant(String),
+}
+
+impl Columns {
+    fn from_header(header: &csv::StringRecord, file: &str) -> Result<Self, InputError> {
+        let names: Vec<String> = header.iter().map(|h| h.trim().trim_start_matches('\u{feff}').to_owned()).collect();
+        let find = |term: &str| names.iter().position(|n| n == term).map(Source::Index);
+        let need = |term: &str| {
+            find(term).ok_or_else(|| InputError::File {
+                file: file.to_owned(),
+                message: format!("line 1 (the header) has no `{term}` column; the columns are: {}", names.join(", ")),
+            })
+        };
+        Ok(Self { latitude: need(LATITUDE)?, longitude: need(LONGITUDE)?, name: find(NAME), date: find(DATE), count: find(COUNT), names })
+    }
+
+    fn from_table(table: &ArchiveTable, file: &str) -> Result<Self, InputError> {
+        let find = |term: &str| table.source_of(term);
+        let need = |term: &str| {
+            find(term).ok_or_else(|| InputError::File {
+                file: file.to_owned(),
+                message: format!("meta.xml maps no field of {} to the Darwin Core term `{term}`", table.location),
+            })
+        };
+        Ok(Self {
+            latitude: need(LATITUDE)?.into(),
+            longitude: need(LONGITUDE)?.into(),
+            name: find(NAME).map(Into::into),
+            date: find(DATE).map(Into::into),
+            count: find(COUNT).map(Into::into),
+            names: table.column_names(),
+        })
+    }
+}
+
+impl From<super::meta::FieldSource> for Source {
+    fn from(source: super::meta::FieldSource) -> Self {
+        match source {
+            super::meta::FieldSource::Index(i) => Source::Index(i),
+            super::meta::FieldSource::Constant(c) => Source::Constant(c),
+        }
+    }
+}
+
+/// One row being read, able to say where a bad cell is.
+struct Cells<'a> {
+    row: &'a csv::StringRecord,
+    file: &'a str,
+    columns: &'a Columns,
+}
+
+impl Cells<'_> {
+    fn text(&self, source: &Source) -> Option<String> {
+        let value = match source {
+            Source::Index(i) => self.row.get(*i)?.trim().to_owned(),
+            Source::Constant(c) => c.clone(),
+        };
+        (!value.is_empty()).then_some(value)
+    }
+
+    fn error(&self, source: &Source, message: String) -> InputError {
+        let line = self.row.position().map(|p| p.line()).unwrap_or(0);
+        let (column, header) = match source {
+            Source::Index(i) => (i + 1, self.columns.names.get(*i).cloned().unwrap_or_default()),
+            Source::Constant(_) => (0, "a default in meta.xml".to_owned()),
+        };
+        InputError::Cell { file: self.file.to_owned(), line, column, header, message }
+    }
+
+    fn number(&self, source: &Source) -> Result<Option<f64>, InputError> {
+        self.text(source)
+            .map(|t| t.parse::<f64>().ok().filter(|v| v.is_finite()).ok_or_else(|| self.error(source, format!("`{t}` is not a number"))))
+            .transpose()
+    }
+
+    fn point(&self) -> Result<PointRecord, InputError> {
+        let c = self.columns;
+        let position = match (self.number(&c.latitude)?, self.number(&c.longitude)?) {
+            (Some(lat), Some(lon)) => Some(LatLon::new(lat, lon).map_err(|err| {
+                let source = if (-90.0..=90.0).contains(&lat) { &c.longitude } else { &c.latitude };
+                self.error(source, err.to_string())
+            })?),
+            (None, None) => None,
+            (Some(_), None) => return Err(self.error(&c.longitude, "a latitude is given but no longitude".into())),
+            (None, Some(_)) => return Err(self.error(&c.latitude, "a longitude is given but no latitude".into())),
+        };
+        let when = match &c.date {
+            Some(source) => self.text(source).map(|t| DateSpan::parse(&t).map_err(|m| self.error(source, m))).transpose()?,
+            None => None,
+        };
+        let count = match &c.count {
+            Some(source) => match self.text(source) {
+                Some(t) => t.parse::<u64>().map_err(|_| self.error(source, format!("`{t}` is not a whole number of animals")))?,
+                None => 1,
+            },
+            None => 1,
+        };
+        Ok(PointRecord { name: c.name.as_ref().and_then(|s| self.text(s)), position, when, count })
+    }
+}
+
+fn read_table<R: Read>(
+    mut reader: csv::Reader<R>,
+    file: &str,
+    columns_of: &dyn Fn(&csv::StringRecord, &str) -> Result<Columns, InputError>,
+) -> Result<Vec<PointRecord>, InputError> {
+    let header = reader.headers().map_err(|err| csv_error(file, err))?.clone();
+    let columns = columns_of(&header, file)?;
+    read_rows(reader, file, &columns)
+}
+
+fn read_rows<R: Read>(mut reader: csv::Reader<R>, file: &str, columns: &Columns) -> Result<Vec<PointRecord>, InputError> {
+    let mut records = Vec::new();
+    let mut row = csv::StringRecord::new();
+    while reader.read_record(&mut row).map_err(|err| csv_error(file, err))? {
+        records.push(Cells { row: &row, file, columns }.point()?);
+    }
+    Ok(records)
+}
+
+fn csv_error(file: &str, err: csv::Error) -> InputError {
+    let line = err.position().map(|p| p.line());
+    let message = match err.kind() {
+        csv::ErrorKind::UnequalLengths { expected_len, len, .. } => format!("this row has {len} fields but the header has {expected_len}"),
+        csv::ErrorKind::Utf8 { .. } => "the text is not UTF-8".to_owned(),
+        _ => err.to_string(),
+    };
+    match line {
+        Some(line) => InputError::File { file: file.to_owned(), message: format!("line {line}: {message}") },
+        None => InputError::File { file: file.to_owned(), message },
+    }
+}
+
+fn read_archive(path: &Path, shown: &str) -> Result<Vec<PointRecord>, InputError> {
+    let file = File::open(path).map_err(|source| InputError::Open { file: shown.to_owned(), source })?;
+    let bad = |message: String| InputError::File { file: shown.to_owned(), message };
+    let mut archive = zip::ZipArchive::new(file).map_err(|err| bad(format!("not a readable zip archive: {err}")))?;
+    let mut meta = String::new();
+    archive
+        .by_name("meta.xml")
+        .map_err(|_| bad("this zip has no meta.xml, so it is not a Darwin Core Archive".into()))?
+        .read_to_string(&mut meta)
+        .map_err(|err| bad(format!("meta.xml could not be read: {err}")))?;
+    let tables = read_meta(&meta).map_err(|message| bad(format!("meta.xml: {message}")))?;
+    let table = tables
+        .into_iter()
+        .find(|t| t.row_type.ends_with("/Occurrence"))
+        .ok_or_else(|| bad("meta.xml describes no Occurrence file (rowType …/dwc/terms/Occurrence)".into()))?;
+    let inner = format!("{shown}:{}", table.location);
+    let entry = archive.by_name(&table.location).map_err(|_| bad(format!("meta.xml names {} but the zip has no such file", table.location)))?;
+    let mut builder = csv::ReaderBuilder::new();
+    builder.has_headers(false).flexible(true).delimiter(table.delimiter);
+    match table.quote {
+        Some(q) => builder.quote(q),
+        None => builder.quoting(false),
+    };
+    let mut reader = builder.from_reader(entry);
+    let columns = Columns::from_table(&table, &inner)?;
+    let mut skip = csv::StringRecord::new();
+    for _ in 0..table.header_lines {
+        reader.read_record(&mut skip).map_err(|err| csv_error(&inner, err))?;
+    }
+    read_rows(reader, &inner, &columns)
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    fn read_csv_text(text: &str) -> Result<Vec<PointRecord>, InputError> {
+        let reader = csv::ReaderBuilder::new().from_reader(text.as_bytes());
+        read_table(reader, "test.csv", &Columns::from_header)
+    }
+
+    #[test]
+    fn a_bad_latitude_is_named_by_line_and_column() {
+        let err = read_csv_text("scientificName,decimalLatitude,decimalLongitude\nRaja clavata,52.1,-4.2\nRaja clavata,95,-4.2\n").unwrap_err();
+        assert_eq!(err.to_string(), "test.csv, line 3, column 2 (decimalLatitude): latitude must be between -90 and 90 degrees, got 95");
+    }
+
+    #[test]
+    fn a_file_without_a_longitude_column_says_which_columns_it_has() {
+        let err = read_csv_text("scientificName,decimalLatitude\nRaja clavata,52.1\n").unwrap_err();
+        assert!(err.to_string().contains("no `decimalLongitude` column; the columns are: scientificName, decimalLatitude"), "{err}");
+    }
+}

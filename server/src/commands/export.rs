@@ -1,0 +1,126 @@
+//! `wrackline export`: every record, or a filtered selection, as CSV, GeoJSON or a Darwin
+//! Core Archive, written as it is read, with a progress bar on standard error.
+
+use std::io::Write;
+use std::path::{Path, PathBuf};
+
+use anyhow::Context as _;
+use chrono::NaiveDate;
+use clap::ValueEnum;
+
+use crate::AppState;
+use crate::assess::taxa::TaxonIndex;
+use crate::assess::{describe_states, parse_states};
+use crate::export::{self, Audience, ExportRequest, Format};
+use crate::store::occurrences::RowFilter;
+
+#[derive(Debug, Clone, Copy, ValueEnum)]
+pub enum ExportFormat {
+    Csv,
+    Dwca,
+    Geojson,
+}
+
+#[derive(Debug, clap::Args)]
+pub struct ExportArgs {
+    #[arg(long, value_enum)]
+    pub format: ExportFormat,
+    /// Write here instead of standard output.
+    #[arg(long)]
+    pub out: Option<PathBuf>,
+    /// The address photo links in the export point at.
+    #[arg(long, default_value = "http://127.0.0.1:8080")]
+    pub base_url: String,
+    /// Positions as recorded, sensitive species included: for assessors only, never to publish.
+    #[arg(long)]
+    pub full: bool,
+    /// Only records in these review states (repeatable; default any state).
+    #[arg(long = "state", default_value = "any")]
+    pub states: Vec<String>,
+    /// Only this species or higher taxon (a checklist name).
+    #[arg(long)]
+    pub taxon: Option<String>,
+    /// Only records observed on or after this day (UTC, YYYY-MM-DD).
+    #[arg(long)]
+    pub from_date: Option<NaiveDate>,
+    /// Only records observed on or before this day (UTC, YYYY-MM-DD).
+    #[arg(long)]
+    pub to_date: Option<NaiveDate>,
+    /// Only records inside SOUTH,WEST,NORTH,EAST (decimal degrees).
+    #[arg(long, value_parser = parse_bbox, allow_hyphen_values = true)]
+    pub bbox: Option<[f64; 4]>,
+    /// The species checklist (default: the bundled demo checklist).
+    #[arg(long)]
+    pub checklist: Option<PathBuf>,
+}
+
+/// Reads `SOUTH,WEST,NORTH,EAST`.
+pub fn parse_bbox(text: &str) -> Result<[f64; 4], String> {
+    let values: Vec<f64> = text
+        .split(',')
+        .map(|v| v.trim().parse::<f64>().map_err(|_| format!("`{v}` is not a number")))
+        .collect::<Result<_, _>>()?;
+    let [south, west, north, east] = values[..] else {
+        return Err(format!("`{text}` is not SOUTH,WEST,NORTH,EAST (four numbers)"));
+    };
+    if !(-90.0..=90.0).contains(&south) || !(-90.0..=90.0).contains(&north) || south > north {
+        return Err(format!("`{text}`: latitudes must lie in -90..90 with SOUTH ≤ NORTH"));
+    }
+    if !(-180.0..=180.0).contains(&west) || !(-180.0..=180.0).contains(&east) || west > east {
+        return Err(format!("`{text}`: longitudes must lie in -180..180 with WEST ≤ EAST"));
+    }
+    Ok([south, west, north, east])
+}
+
+/// UTC bounds for the store: from the start of `from`, until the start of the day after `to`.
+pub fn day_bounds(from: Option<NaiveDate>, to: Option<NaiveDate>) -> (Option<String>, Option<String>) {
+    let start = |d: NaiveDate| format!("{d}T00:00:00Z");
+    (from.map(start), to.and_then(|d| d.succ_opt()).map(start))
+}
+
+pub fn run(data_dir: &Path, args: ExportArgs) -> anyhow::Result<()> {
+    let names = TaxonIndex::load(args.checklist.as_deref())?;
+    let taxon = args
+        .taxon
+        .as_deref()
+        .map(|n| names.filter(n).with_context(|| format!("`{n}` is not a species, genus, family, order or superorder on the checklist")))
+        .transpose()?;
+    let states = parse_states(&args.states).map_err(anyhow::Error::msg)?;
+    let (from_utc, until_utc) = day_bounds(args.from_date, args.to_date);
+    let request = ExportRequest {
+        format: match args.format {
+            ExportFormat::Csv => Format::Csv,
+            ExportFormat::Dwca => Format::Dwca,
+            ExportFormat::Geojson => Format::Geojson,
+        },
+        audience: if args.full { Audience::Full } else { Audience::Public },
+        filter: RowFilter { states: states.clone(), from_utc, until_utc, bbox: args.bbox },
+        taxon,
+        base_url: args.base_url.clone(),
+    };
+    let out: Box<dyn Write> = match &args.out {
+        Some(path) => {
+            let file = std::fs::File::create(path).with_context(|| format!("creating {}", path.display()))?;
+            Box::new(std::io::BufWriter::with_capacity(1 << 16, file))
+        }
+        None => Box::new(std::io::BufWriter::new(std::io::stdout().lock())),
+    };
+    let state = AppState::open(data_dir, None, crate::load_checklist(None)?)?;
+    let summary = state.store.run_here(|conn| {
+        let total = export::rows_to_read(conn, &request)?;
+        let bar = indicatif::ProgressBar::with_draw_target(Some(total), indicatif::ProgressDrawTarget::stderr());
+        let result = export::write_export(conn, &names, &request, out, &mut || bar.inc(1));
+        bar.finish_and_clear();
+        Ok(result)
+    })??;
+    let mut err = std::io::stderr().lock();
+    let target = args.out.as_ref().map(|p| p.display().to_string()).unwrap_or_else(|| "standard output".into());
+    writeln!(err, "wrote {} records ({}) to {target}", summary.records, describe_states(&states))?;
+    if !args.full {
+        writeln!(err, "public export: sensitive species generalised (use --full for assessors' positions as recorded)")?;
+    }
+    for note in summary.notes() {
+        writeln!(err, "{note}")?;
+    }
+    Ok(())
+}

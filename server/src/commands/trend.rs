@@ -1,0 +1,45 @@
+//! `wrackline trend`: the effort-corrected yearly trend over the assessment window.
+
+use std::path::{Path, PathBuf};
+
+use anyhow::Context as _;
+
+use super::{RecordSource, print};
+use crate::assess::chart::trend_chart;
+use crate::assess::trend::{NO_EFFORT_NOTE, generation_length, read_year_counts, render_text, stored_year_counts, trend_report};
+
+#[derive(Debug, clap::Args)]
+pub struct TrendArgs {
+    #[command(flatten)]
+    pub source: RecordSource,
+    /// Generation length in years (default: the checklist's for --taxon).
+    #[arg(long)]
+    pub generation_length: Option<f64>,
+    /// Also draw the trend chart (SVG) to this file.
+    #[arg(long, value_name = "FILE")]
+    pub svg: Option<PathBuf>,
+}
+
+pub fn run(data_dir: &Path, args: TrendArgs) -> anyhow::Result<()> {
+    let names = crate::assess::taxa::TaxonIndex::load(args.source.checklist.as_deref())?;
+    let taxon = args.source.taxon.as_deref().map(|n| names.filter(n)).unwrap_or(None);
+    if let (Some(name), None) = (&args.source.taxon, &taxon) {
+        anyhow::bail!("`{name}` is not a species, genus, family, order or superorder on the checklist");
+    }
+    let generation = generation_length(args.generation_length, taxon.as_ref(), &names)?;
+    let (years, used, notes) = match &args.source.from_file {
+        Some(path) => (read_year_counts(path)?, format!("yearly counts and effort in {}", path.display()), Vec::new()),
+        None => {
+            let loaded = args.source.load(data_dir)?;
+            let years = stored_year_counts(&loaded.records, taxon.as_ref(), &names);
+            (years, loaded.records_used, vec![NO_EFFORT_NOTE.to_owned()])
+        }
+    };
+    let report = trend_report(years, generation, used, notes)?;
+    if let Some(path) = &args.svg {
+        let title = taxon.as_ref().map(|t| t.name.clone()).unwrap_or_else(|| "Yearly trend".into());
+        std::fs::write(path, trend_chart(&title, &report.years, &report.trend)).with_context(|| format!("writing {}", path.display()))?;
+        eprintln!("trend chart written to {}", path.display());
+    }
+    print(args.source.json, &report, || render_text(&report))
+}

@@ -1,0 +1,61 @@
+//! The Darwin Core terms wrackline writes, in column order, and the tables of an archive.
+//!
+//! Term names and IRIs are those of the TDWG Darwin Core term list
+//! (`http://rs.tdwg.org/dwc/terms/<term>`). A [`Table`] is one file of a Darwin Core
+//! Archive; the archive writer takes a core table and any extensions, so an Event core for
+//! survey walks (with Occurrence as an extension) can be added beside today's Occurrence core.
+
+/// The namespace of every Darwin Core term.
+pub const DWC: &str = "http://rs.tdwg.org/dwc/terms/";
+
+/// Occurrence terms, in column order; the first is the row's id.
+pub const OCCURRENCE_TERMS: &[&str] = &[
+    "occurrenceID",
+    "basisOfRecord",
+    "eventDate",
+    "decimalLatitude",
+    "decimalLongitude",
+    "geodeticDatum",
+    "coordinateUncertaintyInMeters",
+    "kingdom",
+    "scientificName",
+    "taxonRank",
+    "verbatimIdentification",
+    "identifiedBy",
+    "dateIdentified",
+    "identificationRemarks",
+    "identificationVerificationStatus",
+    "individualCount",
+    "sex",
+    "vitality",
+    "occurrenceStatus",
+    "recordedBy",
+    "occurrenceRemarks",
+    "associatedMedia",
+    "organismID",
+    "dataGeneralizations",
+    "informationWithheld",
+];
+
+/// MeasurementOrFact terms after the core id column.
+pub const MEASUREMENT_TERMS: &[&str] =
+    &["measurementID", "measurementType", "measurementValue", "measurementUnit", "measurementMethod", "measurementRemarks"];
+
+/// One data file of an archive.
+#[derive(Debug, Clone, Copy)]
+pub struct Table {
+    /// The class IRI of its rows, e.g. `http://rs.tdwg.org/dwc/terms/Occurrence`.
+    pub row_type: &'static str,
+    /// The file name inside the zip.
+    pub file: &'static str,
+    /// Term names of the columns after the id (or core id) column.
+    pub terms: &'static [&'static str],
+}
+
+/// Occurrences as the core: column 0 is `occurrenceID`, which is also the row id.
+pub const OCCURRENCE_CORE: Table =
+    Table { row_type: "http://rs.tdwg.org/dwc/terms/Occurrence", file: "occurrence.txt", terms: OCCURRENCE_TERMS };
+
+/// Lengths: column 0 is the occurrence's id (the core id).
+pub const MEASUREMENT_EXTENSION: Table =
+    Table { row_type: "http://rs.tdwg.org/dwc/terms/MeasurementOrFact", file: "measurementorfact.txt", terms: MEASUREMENT_TERMS };

@@ -1,0 +1,103 @@
+//! `GET /api/range` and `GET /api/trend`: the command line's range and trend figures on
+//! the stored records, as JSON for the app and for scripts; `GET /api/range/map.svg` and
+//! `GET /api/trend/chart.svg` draw them, for the app to show.
+//!
+//! Query: `taxon` (a checklist name), `state` (review-state codes separated by commas, or
+//! `any`; default `confirmed`), for range `period` (e.g. `2015-2019`, repeatable as
+//! `period=2015-2019,2020-2024`), for trend `generation_length` (years; default the
+//! checklist's for the taxon).
+
+use analysis::range::AooGrid;
+use axum::Json;
+use axum::extract::{Query, State};
+use axum::http::header;
+use axum::response::{IntoResponse, Response};
+use serde::Deserialize;
+
+use crate::AppState;
+use crate::assess::chart;
+use crate::assess::dates::Period;
+use crate::assess::map::taxon_map;
+use crate::assess::input::read_store;
+use crate::assess::range::{RangeOptions, RangeReport, range_report};
+use crate::assess::taxa::{TaxonFilter, TaxonIndex};
+use crate::assess::trend::{TrendReport, generation_length, stored_year_counts, trend_report};
+use crate::assess::{describe_states, parse_states};
+use crate::error::ApiError;
+
+#[derive(Deserialize)]
+pub struct FigureQuery {
+    taxon: Option<String>,
+    state: Option<String>,
+    period: Option<String>,
+    generation_length: Option<f64>,
+}
+
+fn taxon_of(query: &FigureQuery) -> Result<Option<TaxonFilter>, ApiError> {
+    query
+        .taxon
+        .as_deref()
+        .map(|name| TaxonIndex::shared().filter(name).ok_or_else(|| ApiError::BadRequest(format!("`{name}` is not a taxon on the checklist"))))
+        .transpose()
+}
+
+async fn stored_records(state: &AppState, query: &FigureQuery) -> Result<(Vec<crate::assess::input::PointRecord>, String), ApiError> {
+    let values: Vec<String> = query.state.as_deref().unwrap_or("confirmed").split(',').map(str::to_owned).collect();
+    let states = parse_states(&values).map_err(ApiError::BadRequest)?;
+    let used = describe_states(&states);
+    let records = state.store.run(move |conn| read_store(conn, states)).await?;
+    Ok((records, used))
+}
+
+pub async fn range(State(state): State<AppState>, Query(query): Query<FigureQuery>) -> Result<Json<RangeReport>, ApiError> {
+    Ok(Json(range_of(&state, &query).await?))
+}
+
+/// `GET /api/range/map.svg`: the map of one taxon (give `taxon` when the records hold several).
+pub async fn range_map(State(state): State<AppState>, Query(query): Query<FigureQuery>) -> Result<Response, ApiError> {
+    let report = range_of(&state, &query).await?;
+    let taxon = match report.taxa.as_slice() {
+        [one] => one,
+        [] => return Err(ApiError::NotFound(format!("no records to map ({})", report.records_used))),
+        _ => return Err(ApiError::BadRequest("the records hold several taxa; choose one with `taxon`".into())),
+    };
+    Ok(svg(taxon_map(taxon, &AooGrid::default())))
+}
+
+/// `GET /api/trend/chart.svg`: the trend chart.
+pub async fn trend_chart(State(state): State<AppState>, Query(query): Query<FigureQuery>) -> Result<Response, ApiError> {
+    let report = trend_of(&state, &query).await?;
+    let title = query.taxon.clone().unwrap_or_else(|| "Yearly trend".into());
+    Ok(svg(chart::trend_chart(&title, &report.years, &report.trend)))
+}
+
+fn svg(document: String) -> Response {
+    ([(header::CONTENT_TYPE, "image/svg+xml")], document).into_response()
+}
+
+async fn range_of(state: &AppState, query: &FigureQuery) -> Result<RangeReport, ApiError> {
+    let taxon = taxon_of(query)?;
+    let periods = query
+        .period
+        .as_deref()
+        .map(|p| p.split(',').map(|one| Period::parse_years(one).map_err(ApiError::BadRequest)).collect::<Result<Vec<_>, _>>())
+        .transpose()?
+        .unwrap_or_default();
+    let (records, records_used) = stored_records(state, query).await?;
+    let options = RangeOptions { taxon, periods, grid: AooGrid::default(), records_used };
+    range_report(&records, TaxonIndex::shared(), &options).map_err(|err| ApiError::BadRequest(err.to_string()))
+}
+
+pub async fn trend(State(state): State<AppState>, Query(query): Query<FigureQuery>) -> Result<Json<TrendReport>, ApiError> {
+    Ok(Json(trend_of(&state, &query).await?))
+}
+
+async fn trend_of(state: &AppState, query: &FigureQuery) -> Result<TrendReport, ApiError> {
+    let taxon = taxon_of(query)?;
+    let names = TaxonIndex::shared();
+    let generation = generation_length(query.generation_length, taxon.as_ref(), names).map_err(|err| ApiError::BadRequest(err.to_string()))?;
+    let (records, records_used) = stored_records(state, query).await?;
+    let years = stored_year_counts(&records, taxon.as_ref(), names);
+    let notes = vec![crate::assess::trend::NO_EFFORT_NOTE.to_owned()];
+    trend_report(years, generation, records_used, notes).map_err(|err| ApiError::BadRequest(err.to_string()))
+}

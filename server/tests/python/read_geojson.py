@@ -1,0 +1,36 @@
+"""Reads a GeoJSON file with Python's json module and shapely.geometry.shape (PyPI), and
+prints each feature's geometry type, x (longitude) and y (latitude) as shapely sees them,
+for wrackline's export tests.
+
+Usage: python read_geojson.py FILE.geojson
+"""
+
+import json
+import sys
+
+from shapely.geometry import shape
+
+
+def main(path):
+    with open(path, encoding="utf-8") as handle:
+        collection = json.load(handle)
+    features = []
+    for feature in collection["features"]:
+        geometry = feature["geometry"]
+        if geometry is None:
+            features.append({"id": feature["id"], "geometry": None, "properties": feature["properties"]})
+            continue
+        point = shape(geometry)
+        features.append({
+            "id": feature["id"],
+            "geometry": point.geom_type,
+            "valid": point.is_valid,
+            "x": point.x,
+            "y": point.y,
+            "properties": feature["properties"],
+        })
+    print(json.dumps({"type": collection["type"], "notes": collection.get("notes"), "features": features}))
+
+
+if __name__ == "__main__":
+    main(sys.argv[1])
