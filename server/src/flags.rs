@@ -11,6 +11,8 @@ use geo::{Distance, Geodesic, Point};
 use shared_types::{FlagKind, RecordFlag, Submission};
 use species_key::{Checklist, Measurement, Taxon, TaxonRank};
 
+use crate::assess::taxa::TaxonIndex;
+
 /// A taped length this many times the species' maximum is flagged.
 pub const OVERSIZE_MEASURED: f64 = 1.2;
 /// An estimated length this many times the species' maximum is flagged.
@@ -19,16 +21,13 @@ pub const OVERSIZE_ESTIMATED: f64 = 1.5;
 pub const CONFIRMED_NEARBY_KM: f64 = 50.0;
 
 /// The checklist species a record names: the key's pick at species rank, else the
-/// observer's guess matched to a scientific or common name (ignoring case).
-pub fn species_of<'c>(checklist: &'c Checklist, submission: &Submission) -> Option<&'c Taxon> {
+/// observer's guess matched to a scientific or common name (the same matching the
+/// exports use, `assess::taxa`).
+pub fn species_of<'c>(taxa: &'c TaxonIndex, submission: &Submission) -> Option<&'c Taxon> {
     if let Some(choice) = &submission.key_choice {
-        return (choice.taxon_rank == "species").then(|| checklist.taxon(choice.scientific_name.as_str())).flatten();
+        return (choice.taxon_rank == "species").then(|| taxa.checklist().taxon(choice.scientific_name.as_str())).flatten();
     }
-    let guess = submission.species_guess.as_ref()?.as_str().trim().to_lowercase();
-    checklist.taxa().iter().find(|taxon| {
-        taxon.taxon_rank == TaxonRank::Species
-            && (taxon.scientific_name.to_lowercase() == guess || taxon.common_names.iter().any(|n| n.to_lowercase() == guess))
-    })
+    taxa.resolve(submission.species_guess.as_ref()?.as_str()).filter(|taxon| taxon.taxon_rank == TaxonRank::Species)
 }
 
 /// Every flag the record earns. `confirmed` are (latitude, longitude) of confirmed

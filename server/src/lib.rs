@@ -32,8 +32,9 @@ pub struct AppState {
     pub photos: intake::photos::PhotoFiles,
     /// Where the built app (index.html, wasm, service worker) lives, if it is served.
     pub app_dir: Option<PathBuf>,
-    /// The species checklist the key, the flags and the exports use.
-    pub checklist: std::sync::Arc<species_key::Checklist>,
+    /// The species checklist the key, the flags, review and the exports use, indexed by
+    /// every scientific and common name.
+    pub taxa: std::sync::Arc<assess::taxa::TaxonIndex>,
     /// Failed sign-ins per username, for the rate limit.
     pub logins: auth::LoginLimiter,
 }
@@ -53,6 +54,11 @@ pub fn load_checklist(path: Option<&std::path::Path>) -> anyhow::Result<species_
 }
 
 impl AppState {
+    /// The checklist in use.
+    pub fn checklist(&self) -> &species_key::Checklist {
+        self.taxa.checklist()
+    }
+
     /// Opens (and migrates) the database in `data_dir` and the photo folder beside it.
     pub fn open(data_dir: &std::path::Path, app_dir: Option<PathBuf>, checklist: species_key::Checklist) -> anyhow::Result<Self> {
         use anyhow::Context as _;
@@ -60,7 +66,8 @@ impl AppState {
             .with_context(|| format!("creating the data directory {}", data_dir.display()))?;
         let store = store::Store::open(&data_dir.join("wrackline.sqlite3"))?;
         let photos = intake::photos::PhotoFiles::open(&data_dir.join("photos"))?;
-        Ok(Self { store, photos, app_dir, checklist: std::sync::Arc::new(checklist), logins: auth::LoginLimiter::default() })
+        let taxa = std::sync::Arc::new(assess::taxa::TaxonIndex::new(checklist));
+        Ok(Self { store, photos, app_dir, taxa, logins: auth::LoginLimiter::default() })
     }
 }
 

@@ -11,9 +11,6 @@ use std::path::Path;
 
 use species_key::{Checklist, Taxon, TaxonRank};
 
-/// The demo checklist, built in so that a fresh data directory has one.
-const BUNDLED_CHECKLIST: &str = include_str!("../../../demo-records/checklist.json");
-
 /// Why a checklist could not be loaded.
 #[derive(Debug, thiserror::Error)]
 pub enum ChecklistLoadError {
@@ -40,28 +37,20 @@ pub struct TaxonFilter {
 }
 
 impl TaxonIndex {
-    /// The bundled demo checklist.
-    pub fn bundled() -> Self {
-        let checklist = Checklist::from_json(BUNDLED_CHECKLIST).expect("the bundled checklist is checked by its own tests");
-        Self::new(checklist)
-    }
-
-    /// The bundled checklist, read once and shared (for the HTTP handlers).
-    pub fn shared() -> &'static Self {
-        static SHARED: std::sync::OnceLock<TaxonIndex> = std::sync::OnceLock::new();
-        SHARED.get_or_init(Self::bundled)
-    }
-
-    /// A checklist file, or the bundled one when `path` is `None`.
+    /// A checklist file, or the built-in demo checklist when `path` is `None`.
     pub fn load(path: Option<&Path>) -> Result<Self, ChecklistLoadError> {
-        let Some(path) = path else { return Ok(Self::bundled()) };
+        let Some(path) = path else {
+            let checklist = Checklist::from_json(crate::DEMO_CHECKLIST).expect("the built-in checklist is checked by its own tests");
+            return Ok(Self::new(checklist));
+        };
         let shown = path.display().to_string();
         let text = std::fs::read_to_string(path).map_err(|source| ChecklistLoadError::Read { path: shown.clone(), source })?;
         let checklist = Checklist::from_json(&text).map_err(|source| ChecklistLoadError::Invalid { path: shown, source })?;
         Ok(Self::new(checklist))
     }
 
-    fn new(checklist: Checklist) -> Self {
+    /// Indexes every scientific and common name of `checklist`.
+    pub fn new(checklist: Checklist) -> Self {
         let mut by_name = HashMap::new();
         for (index, taxon) in checklist.taxa().iter().enumerate() {
             by_name.entry(fold(&taxon.scientific_name)).or_insert(index);
@@ -117,7 +106,7 @@ mod tests {
 
     #[test]
     fn common_and_scientific_names_match_whatever_their_case() {
-        let index = TaxonIndex::bundled();
+        let index = TaxonIndex::load(None).unwrap();
         assert_eq!(index.resolve("Thornback Ray").unwrap().scientific_name, "Raja clavata");
         assert_eq!(index.resolve("  raja CLAVATA ").unwrap().scientific_name, "Raja clavata");
         assert!(index.resolve("thornback").is_none());
@@ -125,7 +114,7 @@ mod tests {
 
     #[test]
     fn a_family_filter_takes_in_its_species() {
-        let index = TaxonIndex::bundled();
+        let index = TaxonIndex::load(None).unwrap();
         let filter = index.filter("rajidae").unwrap();
         assert_eq!((filter.name.as_str(), filter.rank), ("Rajidae", TaxonRank::Family));
         assert!(filter.contains(index.resolve("blonde ray").unwrap()));

@@ -20,7 +20,7 @@ use crate::assess::dates::Period;
 use crate::assess::map::taxon_map;
 use crate::assess::input::read_store;
 use crate::assess::range::{RangeOptions, RangeReport, range_report};
-use crate::assess::taxa::{TaxonFilter, TaxonIndex};
+use crate::assess::taxa::TaxonFilter;
 use crate::assess::trend::{TrendReport, generation_length, stored_year_counts, trend_report};
 use crate::assess::{describe_states, parse_states};
 use crate::error::ApiError;
@@ -33,11 +33,11 @@ pub struct FigureQuery {
     generation_length: Option<f64>,
 }
 
-fn taxon_of(query: &FigureQuery) -> Result<Option<TaxonFilter>, ApiError> {
+fn taxon_of(state: &AppState, query: &FigureQuery) -> Result<Option<TaxonFilter>, ApiError> {
     query
         .taxon
         .as_deref()
-        .map(|name| TaxonIndex::shared().filter(name).ok_or_else(|| ApiError::BadRequest(format!("`{name}` is not a taxon on the checklist"))))
+        .map(|name| state.taxa.filter(name).ok_or_else(|| ApiError::BadRequest(format!("`{name}` is not a taxon on the checklist"))))
         .transpose()
 }
 
@@ -76,7 +76,7 @@ fn svg(document: String) -> Response {
 }
 
 async fn range_of(state: &AppState, query: &FigureQuery) -> Result<RangeReport, ApiError> {
-    let taxon = taxon_of(query)?;
+    let taxon = taxon_of(state, query)?;
     let periods = query
         .period
         .as_deref()
@@ -85,7 +85,7 @@ async fn range_of(state: &AppState, query: &FigureQuery) -> Result<RangeReport, 
         .unwrap_or_default();
     let (records, records_used) = stored_records(state, query).await?;
     let options = RangeOptions { taxon, periods, grid: AooGrid::default(), records_used };
-    range_report(&records, TaxonIndex::shared(), &options).map_err(|err| ApiError::BadRequest(err.to_string()))
+    range_report(&records, &state.taxa, &options).map_err(|err| ApiError::BadRequest(err.to_string()))
 }
 
 pub async fn trend(State(state): State<AppState>, Query(query): Query<FigureQuery>) -> Result<Json<TrendReport>, ApiError> {
@@ -93,8 +93,8 @@ pub async fn trend(State(state): State<AppState>, Query(query): Query<FigureQuer
 }
 
 async fn trend_of(state: &AppState, query: &FigureQuery) -> Result<TrendReport, ApiError> {
-    let taxon = taxon_of(query)?;
-    let names = TaxonIndex::shared();
+    let taxon = taxon_of(state, query)?;
+    let names = &*state.taxa;
     let generation = generation_length(query.generation_length, taxon.as_ref(), names).map_err(|err| ApiError::BadRequest(err.to_string()))?;
     let (records, records_used) = stored_records(state, query).await?;
     let years = stored_year_counts(&records, taxon.as_ref(), names);

@@ -7,5 +7,5 @@ use axum::extract::State;
 use crate::AppState;
 
 pub async fn get(State(state): State<AppState>) -> Json<species_key::Checklist> {
-    Json(species_key::Checklist::clone(&state.checklist))
+    Json(species_key::Checklist::clone(state.checklist()))
 }

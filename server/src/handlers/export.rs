@@ -39,16 +39,17 @@ pub struct ExportQuery {
 
 pub async fn export(State(state): State<AppState>, headers: HeaderMap, Query(query): Query<ExportQuery>) -> Result<Response, ApiError> {
     let host = headers.get(header::HOST).and_then(|h| h.to_str().ok()).unwrap_or("127.0.0.1:8080");
-    let request = read_request(&query, format!("http://{host}"))?;
+    let request = read_request(&query, format!("http://{host}"), &state.taxa)?;
     let (media_type, file_name) = request.format.media_type_and_file();
     let (sender, receiver) = mpsc::channel::<Result<Bytes, std::io::Error>>(8);
     let store = state.store.clone();
+    let taxa = state.taxa.clone();
     tokio::spawn(async move {
         let failed = sender.clone();
         let outcome = store
             .run(move |conn| {
                 let mut out = ChannelWriter { sender, buffer: Vec::with_capacity(CHUNK) };
-                let result = export::write_export(conn, TaxonIndex::shared(), &request, &mut out, &mut || {}).and_then(|summary| {
+                let result = export::write_export(conn, &taxa, &request, &mut out, &mut || {}).and_then(|summary| {
                     out.flush()?;
                     Ok(summary)
                 });
@@ -71,14 +72,14 @@ pub async fn export(State(state): State<AppState>, headers: HeaderMap, Query(que
         .into_response())
 }
 
-fn read_request(query: &ExportQuery, base_url: String) -> Result<ExportRequest, ApiError> {
+fn read_request(query: &ExportQuery, base_url: String, taxa: &TaxonIndex) -> Result<ExportRequest, ApiError> {
     let bad = |message: String| ApiError::BadRequest(message);
     let format = Format::parse(&query.format)
         .ok_or_else(|| bad(format!("unknown export format `{}`; available: csv, dwca, geojson", query.format)))?;
     let taxon = query
         .taxon
         .as_deref()
-        .map(|name| TaxonIndex::shared().filter(name).ok_or_else(|| bad(format!("`{name}` is not a taxon on the checklist"))))
+        .map(|name| taxa.filter(name).ok_or_else(|| bad(format!("`{name}` is not a taxon on the checklist"))))
         .transpose()?;
     let day = |text: &Option<String>, what: &str| {
         text.as_deref()

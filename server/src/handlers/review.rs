@@ -62,12 +62,13 @@ pub async fn queue(State(state): State<AppState>, Reviewer(_): Reviewer, Query(f
                 .collect::<Result<Vec<_>, crate::store::StoreError>>()
         })
         .await?;
-    let checklist = state.checklist.clone();
+    let taxa = state.taxa.clone();
+    let checklist = taxa.checklist();
     let mut items: Vec<_> = rows
         .into_iter()
-        .filter(|(record, taxon)| matches_filter(record, taxon.as_deref(), &filter, flag, &checklist))
+        .filter(|(record, taxon)| matches_filter(record, taxon.as_deref(), &filter, flag, checklist))
         .map(|(record, taxon)| {
-            let (score, reasons) = review::priority(&record, taxon.as_deref(), &checklist);
+            let (score, reasons) = review::priority(&record, taxon.as_deref(), checklist);
             (score, record, reasons, taxon)
         })
         .collect();
@@ -106,7 +107,7 @@ pub async fn detail(State(state): State<AppState>, Reviewer(_): Reviewer, Path(c
         })
         .await?;
     let (record, taxon, identifications, messages, events) = found.ok_or_else(|| ApiError::NotFound(format!("no record with id {id}")))?;
-    let (_, priority_reasons) = review::priority(&record, taxon.as_deref(), &state.checklist);
+    let (_, priority_reasons) = review::priority(&record, taxon.as_deref(), state.checklist());
     Ok(Json(ReviewDetail { record, identifications, messages, events, priority_reasons }))
 }
 

@@ -114,13 +114,13 @@ pub async fn store_photos(state: &AppState, photos: Vec<Vec<u8>>, record_offset:
 /// Flags for reviewers and the species' scientific name, when the record names a
 /// checklist species.
 async fn arrival_flags(state: &AppState, submission: &Submission) -> Result<(Vec<shared_types::RecordFlag>, Option<String>), IntakeError> {
-    let Some(taxon) = crate::flags::species_of(&state.checklist, submission) else {
+    let Some(taxon) = crate::flags::species_of(&state.taxa, submission) else {
         return Ok((Vec::new(), None));
     };
     let name = taxon.scientific_name.clone();
     let query_name = name.clone();
     let confirmed = state.store.run(move |conn| observations::confirmed_positions(conn, &query_name)).await.map_err(anyhow::Error::from)?;
-    Ok((crate::flags::raise(&state.checklist, submission, taxon, &confirmed), Some(name)))
+    Ok((crate::flags::raise(state.checklist(), submission, taxon, &confirmed), Some(name)))
 }
 
 fn store_photo_files(
