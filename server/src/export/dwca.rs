@@ -1,6 +1,8 @@
 //! A Darwin Core Archive (TDWG Darwin Core Text Guide): a zip holding the occurrence
 //! core, the MeasurementOrFact extension for lengths, `meta.xml` describing both, and
-//! `eml.xml` with what the GBIF metadata profile requires.
+//! `eml.xml` with what the GBIF metadata profile requires. When there are survey walks,
+//! the core is the Event table instead, with occurrences (and absences) as its extension
+//! ([`super::events`]).
 //!
 //! Data files are tab-separated with one header line and no quoting; tabs and line
 //! breaks inside values become spaces. The zip is written as a stream (no seeking), so
@@ -14,7 +16,8 @@ use chrono::Utc;
 use rusqlite::Connection;
 use zip::write::SimpleFileOptions;
 
-use super::terms::{DWC, MEASUREMENT_EXTENSION, OCCURRENCE_CORE, Table};
+use super::events::{self, Found};
+use super::terms::{DWC, EVENT_CORE, EVENT_MEASUREMENT_EXTENSION, MEASUREMENT_EXTENSION, OCCURRENCE_CORE, OCCURRENCE_EXTENSION, Table};
 use super::{ExportError, ExportRequest, ExportSummary, Occurrence, each_occurrence};
 use crate::assess::taxa::TaxonIndex;
 use crate::export::csv::method;
@@ -29,8 +32,12 @@ pub fn write<W: Write>(
     out: W,
     progress: &mut dyn FnMut(),
 ) -> Result<ExportSummary, ExportError> {
+    let walks = walks_in(conn, request)?;
+    if !walks.is_empty() {
+        return write_with_events(conn, names, request, &walks, out, progress);
+    }
     let mut zip = zip::ZipWriter::new_stream(out);
-    let options = SimpleFileOptions::default().compression_method(zip::CompressionMethod::Deflated).compression_level(Some(COMPRESSION_LEVEL));
+    let options = zip_options();
     zip.start_file(OCCURRENCE_CORE.file, options)?;
     write_line(&mut zip, OCCURRENCE_CORE.terms.iter().copied())?;
     // Lengths wait in an unnamed temporary file (on disk, so memory stays flat) while the
@@ -53,6 +60,89 @@ pub fn write<W: Write>(
     std::io::copy(&mut lengths, &mut zip)?;
     zip.start_file("meta.xml", options)?;
     zip.write_all(meta_xml(&OCCURRENCE_CORE, &[&MEASUREMENT_EXTENSION]).as_bytes())?;
+    zip.start_file("eml.xml", options)?;
+    zip.write_all(eml_xml(&summary, request).as_bytes())?;
+    zip.finish()?.flush()?;
+    Ok(summary)
+}
+
+fn zip_options() -> SimpleFileOptions {
+    SimpleFileOptions::default().compression_method(zip::CompressionMethod::Deflated).compression_level(Some(COMPRESSION_LEVEL))
+}
+
+/// The walks whose start falls in the request's time filter.
+fn walks_in(conn: &Connection, request: &ExportRequest) -> Result<Vec<crate::store::walks::StoredWalk>, ExportError> {
+    let filter = &request.filter;
+    let start = |w: &crate::store::walks::StoredWalk| w.walk.started_at.with_timezone(&Utc).format("%Y-%m-%dT%H:%M:%SZ").to_string();
+    Ok(crate::store::walks::list_walks(conn)?
+        .into_iter()
+        .filter(|w| filter.from_utc.as_ref().is_none_or(|from| start(w) >= *from) && filter.until_utc.as_ref().is_none_or(|until| start(w) < *until))
+        .collect())
+}
+
+/// The event-core archive: walk events first, then (in the one pass over the records)
+/// an incidental event for each record made outside a walk; occurrences, absences and
+/// lengths wait in temporary files and follow the events into the zip.
+fn write_with_events<W: Write>(
+    conn: &Connection,
+    names: &TaxonIndex,
+    request: &ExportRequest,
+    walks: &[crate::store::walks::StoredWalk],
+    out: W,
+    progress: &mut dyn FnMut(),
+) -> Result<ExportSummary, ExportError> {
+    let mut zip = zip::ZipWriter::new_stream(out);
+    let options = zip_options();
+    zip.start_file(EVENT_CORE.file, options)?;
+    write_line(&mut zip, EVENT_CORE.terms.iter().copied())?;
+    let mut found: std::collections::HashMap<String, Found> = std::collections::HashMap::new();
+    for walk in walks {
+        write_line(&mut zip, events::walk_event(walk, request.audience).iter().map(String::as_str))?;
+        found.insert(walk.walk.client_id.to_string(), Found::default());
+    }
+    let mut occurrences = std::io::BufWriter::new(tempfile::tempfile()?);
+    write_line(&mut occurrences, std::iter::once("coreid").chain(OCCURRENCE_EXTENSION.terms.iter().copied()))?;
+    let mut lengths = std::io::BufWriter::new(tempfile::tempfile()?);
+    write_line(&mut lengths, std::iter::once("coreid").chain(EVENT_MEASUREMENT_EXTENSION.terms.iter().copied()))?;
+    let mut measurements = 0;
+    let mut summary = each_occurrence(conn, names, request, progress, |o| {
+        let occurrence_id = &o.dwc[0];
+        let on_walk = o.walk_client_id.as_ref().and_then(|w| found.get_mut(w).map(|f| (w, f)));
+        let core_id = match on_walk {
+            Some((walk, found)) => {
+                found.add(o.group);
+                events::walk_event_id(walk)
+            }
+            None => {
+                write_line(&mut zip, events::incidental_event(occurrence_id, &o.event_date).iter().map(String::as_str))?;
+                events::incidental_event_id(occurrence_id)
+            }
+        };
+        write_line(&mut occurrences, std::iter::once(core_id.as_str()).chain(o.dwc.iter().map(String::as_str)))?;
+        if let Some(row) = measurement_row(o) {
+            measurements += 1;
+            write_line(&mut lengths, std::iter::once(core_id.as_str()).chain(row.iter().map(String::as_str)))?;
+        }
+        Ok(())
+    })?;
+    for walk in walks {
+        let walk_found = found.get(&walk.walk.client_id.to_string()).copied().unwrap_or_default();
+        let event_id = events::walk_event_id(&walk.walk.client_id.to_string());
+        for absence in events::absences(walk, walk_found) {
+            summary.absences += 1;
+            write_line(&mut occurrences, std::iter::once(event_id.as_str()).chain(absence.iter().map(String::as_str)))?;
+        }
+    }
+    summary.measurements = measurements;
+    summary.events = walks.len() as u64;
+    for (table, file) in [(&OCCURRENCE_EXTENSION, occurrences), (&EVENT_MEASUREMENT_EXTENSION, lengths)] {
+        let mut file = file.into_inner().map_err(|err| err.into_error())?;
+        file.seek(std::io::SeekFrom::Start(0))?;
+        zip.start_file(table.file, options)?;
+        std::io::copy(&mut file, &mut zip)?;
+    }
+    zip.start_file("meta.xml", options)?;
+    zip.write_all(meta_xml(&EVENT_CORE, &[&OCCURRENCE_EXTENSION, &EVENT_MEASUREMENT_EXTENSION]).as_bytes())?;
     zip.start_file("eml.xml", options)?;
     zip.write_all(eml_xml(&summary, request).as_bytes())?;
     zip.finish()?.flush()?;

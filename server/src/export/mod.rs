@@ -10,6 +10,7 @@
 
 pub mod csv;
 pub mod dwca;
+pub mod events;
 pub mod generalise;
 pub mod geojson;
 pub mod occurrence;

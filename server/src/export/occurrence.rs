@@ -28,6 +28,12 @@ pub struct Occurrence {
     pub setting: &'static str,
     pub human_signs: String,
     pub review_state: &'static str,
+    /// The survey walk the record was made on, if any (its client id).
+    pub walk_client_id: Option<String>,
+    /// The walk target group the taxon belongs to; `None` when it cannot be placed.
+    pub group: Option<super::events::TargetGroup>,
+    /// Darwin Core `eventDate`, as in `dwc`.
+    pub event_date: String,
 }
 
 /// What an export did, for the command line and the archive's metadata.
@@ -42,6 +48,10 @@ pub struct ExportSummary {
     /// [`MAX_NAMES_SHOWN`] names; the rest are counted in `other_unmatched`).
     pub unmatched: BTreeMap<String, u64>,
     pub other_unmatched: u64,
+    /// Survey walks written as events (archives with walks only).
+    pub events: u64,
+    /// Absences written for target groups not found on all-finds walks.
+    pub absences: u64,
 }
 
 /// How many distinct unmatched names a summary keeps, so memory stays flat.
@@ -56,6 +66,12 @@ impl ExportSummary {
         )];
         if self.measurements > 0 {
             notes.push(format!("{} lengths, in the MeasurementOrFact extension.", self.measurements));
+        }
+        if self.events > 0 {
+            notes.push(format!(
+                "{} survey walks as events (effort in sampleSizeValue, kilometres), with {} absences (occurrenceStatus notDetected, individualCount 0) for groups not found on walks where every find was reported.",
+                self.events, self.absences
+            ));
         }
         let unmatched: u64 = self.unmatched.values().sum::<u64>() + self.other_unmatched;
         if unmatched > 0 {
@@ -169,6 +185,9 @@ impl Builder<'_> {
             setting: row.setting.label(),
             human_signs: row.human_signs.iter().map(|s| s.label()).collect::<Vec<_>>().join(" | "),
             review_state: row.review_state.label(),
+            walk_client_id: row.walk_client_id.clone(),
+            group: taxon.and_then(super::events::group_of),
+            event_date: event_date(row),
         }
     }
 }

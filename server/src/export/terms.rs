@@ -59,3 +59,17 @@ pub const OCCURRENCE_CORE: Table =
 /// Lengths: column 0 is the occurrence's id (the core id).
 pub const MEASUREMENT_EXTENSION: Table =
     Table { row_type: "http://rs.tdwg.org/dwc/terms/MeasurementOrFact", file: "measurementorfact.txt", terms: MEASUREMENT_TERMS };
+
+/// Survey walks (and incidental records) as the core, when an archive has walks.
+pub const EVENT_CORE: Table = Table { row_type: "http://rs.tdwg.org/dwc/terms/Event", file: "event.txt", terms: super::events::EVENT_TERMS };
+
+/// Occurrences as an extension of their event: column 0 is the event's id.
+pub const OCCURRENCE_EXTENSION: Table = Table { row_type: "http://rs.tdwg.org/dwc/terms/Occurrence", file: "occurrence.txt", terms: OCCURRENCE_TERMS };
+
+/// MeasurementOrFact terms with the occurrence they measure, for an event-core archive.
+pub const EVENT_MEASUREMENT_TERMS: &[&str] =
+    &["occurrenceID", "measurementID", "measurementType", "measurementValue", "measurementUnit", "measurementMethod", "measurementRemarks"];
+
+/// Lengths in an event-core archive: column 0 is the event's id, `occurrenceID` names the animal.
+pub const EVENT_MEASUREMENT_EXTENSION: Table =
+    Table { row_type: "http://rs.tdwg.org/dwc/terms/MeasurementOrFact", file: "measurementorfact.txt", terms: EVENT_MEASUREMENT_TERMS };

@@ -74,6 +74,8 @@ pub struct OccurrenceRow {
     pub photo_hashes: Vec<String>,
     /// The observer's own words for what it was, as typed.
     pub species_guess: Option<String>,
+    /// The survey walk the (first) observation was made on.
+    pub walk_client_id: Option<String>,
 }
 
 // One observation per organism is read: its first (lowest id). The span and photos of the
@@ -88,7 +90,7 @@ SELECT o.organism_id, o.id, o.client_id, o.observed_at, o.observed_at_utc, o.obs
        m.kind, m.value, m.unit, m.value_cm, m.method,
        (SELECT group_concat(s.sign, ' ') FROM human_signs s WHERE s.observation_id = o.id),
        (SELECT group_concat(op.photo_sha256, ' ' ORDER BY op.position) FROM observation_photos op WHERE op.observation_id = o.id),
-       json_extract(o.submission_json, '$.species_guess')
+       json_extract(o.submission_json, '$.species_guess'), o.walk_client_id
 FROM observations o
 LEFT JOIN identifications i ON i.id = (
     SELECT MAX(j.id) FROM identifications j WHERE j.observation_id = o.id AND j.superseded_by IS NULL)
@@ -223,6 +225,7 @@ fn read_row(row: &Row) -> Result<OccurrenceRow, StoreError> {
         human_signs,
         photo_hashes: split(row.get(29)?),
         species_guess: row.get(30)?,
+        walk_client_id: row.get(31)?,
     })
 }
 

@@ -252,3 +252,82 @@ async fn two_reports_of_one_animal_are_one_occurrence_with_the_interval_and_both
     assert_eq!(term(animal, "eventDate"), "2025-06-01T13:10:00Z/2025-06-03T08:00:00Z");
     assert_eq!(term(animal, "associatedMedia").split(" | ").count(), 2, "the photos of both reports");
 }
+
+/// Posts a walk (typed distance, or a two-fix track when `track` is true).
+async fn post_walk(app: &TestApp, id: &str, all_finds: bool, track: bool) {
+    let track = if track {
+        json!([
+            {"latitude": 52.48912, "longitude": -4.05331, "accuracy_m": 5.0, "at": "2026-04-12T09:00:00+01:00"},
+            {"latitude": 52.49012, "longitude": -4.05331, "accuracy_m": 5.0, "at": "2026-04-12T09:02:00+01:00"}
+        ])
+    } else {
+        json!([])
+    };
+    let distance = if track.as_array().unwrap().is_empty() { json!(3200.0) } else { Value::Null };
+    let walk = json!({
+        "client_id": id, "started_at": "2026-04-12T09:00:00+01:00", "ended_at": "2026-04-12T10:30:00+01:00",
+        "stretch": "Borth to Ynyslas", "all_finds_reported": all_finds, "track": track,
+        "typed_distance_m": distance, "observer_name": "Test Walker"
+    });
+    let response = app.client.post(format!("{}/api/walks", app.base)).json(&walk).send().await.unwrap();
+    assert_eq!(response.status(), 200, "{}", response.text().await.unwrap());
+}
+
+fn extension_rows<'a>(event: &'a Value) -> Vec<&'a Value> {
+    event["extensions"].as_array().unwrap().iter().filter(|e| e["rowtype"] == format!("{DWC}Occurrence")).collect()
+}
+
+fn ext_term<'a>(row: &'a Value, name: &str) -> &'a str {
+    row["data"][format!("{DWC}{name}")].as_str().unwrap_or_default()
+}
+
+#[tokio::test]
+async fn walks_export_as_events_with_absences_for_groups_not_found() {
+    const EMPTY_WALK: &str = "aaaaaaaa-0000-4000-8000-000000000001";
+    const WALK_WITH_CATSHARK: &str = "aaaaaaaa-0000-4000-8000-000000000002";
+    const CASUAL_WALK: &str = "aaaaaaaa-0000-4000-8000-000000000003";
+    let app = spawn_app().await;
+    post_walk(&app, EMPTY_WALK, true, true).await;
+    post_walk(&app, WALK_WITH_CATSHARK, true, false).await;
+    post_walk(&app, CASUAL_WALK, false, false).await;
+    let mut on_walk = submission(CATSHARK);
+    on_walk["walk_client_id"] = json!(WALK_WITH_CATSHARK);
+    assert_eq!(app.submit(&on_walk, &[]).await.status, 200);
+    assert_eq!(app.submit(&submission(UNKNOWN), &[]).await.status, 200, "a record made outside any walk");
+
+    let dir = tempfile::tempdir().unwrap();
+    let archive = run_script("read_dwca.py", &[&download(&app, "format=dwca", dir.path(), "events.zip").await, &terms_extract()]);
+    // TDWG Darwin Core Text Guide: sampling-event data have the Event core with
+    // Occurrence (and MeasurementOrFact) as extensions.
+    assert_eq!(archive["core_row_type"], format!("{DWC}Event"));
+    assert_eq!(archive["unknown_terms"], json!([]), "every term is in the TDWG term list");
+    assert_eq!(archive["orphaned_extension_rows"]["occurrence.txt"], 0);
+    assert_eq!(archive["rows"].as_array().unwrap().len(), 4, "three walks and one incidental record");
+
+    let empty = row(&archive, EMPTY_WALK);
+    assert!(term(empty, "samplingProtocol").contains("every shark, ray, skate and egg case found was reported"));
+    assert_eq!(term(empty, "sampleSizeUnit"), "kilometres");
+    // Two fixes 0.001° of latitude apart near 52.5°N: about 111.3 m (common practice: 1° of latitude ≈ 111.3 km there).
+    assert!((term(empty, "sampleSizeValue").parse::<f64>().unwrap() - 0.111).abs() < 0.001, "{}", term(empty, "sampleSizeValue"));
+    assert_eq!(term(empty, "eventDate"), "2026-04-12T09:00:00+01:00/2026-04-12T10:30:00+01:00", "ISO 8601 interval");
+    assert_eq!(term(empty, "decimalLatitude"), "52.5", "a public start is rounded to 0.1°");
+    assert!(term(empty, "informationWithheld").contains("track"));
+    let absences = extension_rows(empty);
+    let mut groups: Vec<&str> = absences.iter().map(|a| ext_term(a, "scientificName")).collect();
+    groups.sort();
+    assert_eq!(groups, ["Batoidea", "Selachimorpha"]);
+    for absence in &absences {
+        // TDWG occurrenceStatus vocabulary (2026): notDetected; Text Guide: individualCount 0.
+        assert_eq!((ext_term(absence, "occurrenceStatus"), ext_term(absence, "individualCount")), ("notDetected", "0"));
+    }
+
+    let with_catshark = extension_rows(row(&archive, WALK_WITH_CATSHARK));
+    let statuses: Vec<(&str, &str)> = with_catshark.iter().map(|o| (ext_term(o, "scientificName"), ext_term(o, "occurrenceStatus"))).collect();
+    assert_eq!(statuses.len(), 2, "{statuses:?}");
+    assert!(statuses.contains(&("Scyliorhinus canicula", "detected")));
+    assert!(statuses.contains(&("Batoidea", "notDetected")), "no shark absence where a shark was found");
+
+    assert!(extension_rows(row(&archive, CASUAL_WALK)).is_empty(), "no absences without the every-find promise");
+    let incidental = archive["rows"].as_array().unwrap().iter().find(|r| r["id"].as_str().unwrap().ends_with("#event")).unwrap();
+    assert_eq!(term(incidental, "samplingProtocol"), "incidental record");
+}
