@@ -27,6 +27,8 @@ pub struct PointRecord {
     pub when: Option<DateSpan>,
     /// How many animals the record is of (1 when the source does not say).
     pub count: u64,
+    /// The survey walk it was found on (stored records only).
+    pub walk_client_id: Option<String>,
 }
 
 /// Why records could not be read.
@@ -85,6 +87,7 @@ fn stored_point(row: &OccurrenceRow) -> PointRecord {
         position,
         when,
         count: row.count.max(0) as u64,
+        walk_client_id: row.walk_client_id.clone(),
     }
 }
 
@@ -198,7 +201,7 @@ impl Cells<'_> {
             },
             None => 1,
         };
-        Ok(PointRecord { name: c.name.as_ref().and_then(|s| self.text(s)), position, when, count })
+        Ok(PointRecord { name: c.name.as_ref().and_then(|s| self.text(s)), position, when, count, walk_client_id: None })
     }
 }
 

@@ -11,6 +11,7 @@ use std::fs::File;
 use std::path::Path;
 
 use analysis::trend::{TrendSummary, YearCount, yearly_trend};
+use chrono::Datelike as _;
 use serde::Serialize;
 
 use super::input::{InputError, PointRecord};
@@ -110,15 +111,15 @@ pub fn read_year_counts(path: &Path) -> Result<Vec<YearCount>, InputError> {
     Ok(rows)
 }
 
-/// Said with every trend on stored records until survey walks are stored.
-pub const NO_EFFORT_NOTE: &str = "no survey effort is stored yet, so every year has effort 1: these are raw yearly \
-counts of records, not encounter rates, and a change in how many people look shows up as a trend";
+/// Said with a trend on stored records when there are no all-finds survey walks.
+pub const NO_EFFORT_NOTE: &str = "no survey walk on which every find was reported is stored, so every year has effort 1: \
+these are raw yearly counts of records, not encounter rates, and a change in how many people look shows up as a trend";
 
 /// Yearly counts of the stored records of `taxon`, every year from the first to the last
 /// record (a year with no record is a count of 0), each with effort 1.
 ///
-/// Survey walks are not stored yet, so there is no effort to divide by: these are raw
-/// yearly counts, and the report says so.
+/// Used when there are no all-finds survey walks to divide by: these are raw yearly
+/// counts, and the report says so.
 pub fn stored_year_counts(records: &[PointRecord], taxon: Option<&TaxonFilter>, names: &TaxonIndex) -> Vec<YearCount> {
     let mut by_year: BTreeMap<i32, u64> = BTreeMap::new();
     for record in records {
@@ -133,6 +134,71 @@ pub fn stored_year_counts(records: &[PointRecord], taxon: Option<&TaxonFilter>, 
     }
     let (Some(&first), Some(&last)) = (by_year.keys().next(), by_year.keys().last()) else { return Vec::new() };
     (first..=last).map(|year| YearCount { year, count: by_year.get(&year).copied().unwrap_or(0), effort: 1.0 }).collect()
+}
+
+/// How walking effort is measured for encounter rates.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Default, clap::ValueEnum, serde::Deserialize)]
+#[serde(rename_all = "snake_case")]
+pub enum EffortUnit {
+    /// Records per kilometre walked.
+    #[default]
+    Km,
+    /// Records per hour walked.
+    Hours,
+}
+
+/// Yearly encounter rates from survey walks on which every find was reported: the
+/// count is the taxon's records made on those walks, the effort the kilometres (or
+/// hours) walked on them, every year in which such walks were made — a year of walks
+/// with no find is a count of 0, which is what makes the rate mean something. `None`
+/// when there is no such walk. Returns the rows and a note saying what they are.
+pub fn walk_year_counts(
+    records: &[PointRecord],
+    walks: &[crate::store::walks::StoredWalk],
+    taxon: Option<&TaxonFilter>,
+    names: &TaxonIndex,
+    unit: EffortUnit,
+) -> Option<(Vec<YearCount>, String)> {
+    let surveyed: BTreeMap<String, i32> =
+        walks.iter().filter(|w| w.walk.all_finds_reported).map(|w| (w.walk.client_id.to_string(), w.walk.started_at.year())).collect();
+    if surveyed.is_empty() {
+        return None;
+    }
+    let mut effort: BTreeMap<i32, f64> = BTreeMap::new();
+    for walk in walks.iter().filter(|w| w.walk.all_finds_reported) {
+        let figures = walk.walk.effort();
+        let amount = match unit {
+            EffortUnit::Km => figures.distance_m / 1000.0,
+            EffortUnit::Hours => figures.duration_s / 3600.0,
+        };
+        *effort.entry(walk.walk.started_at.year()).or_insert(0.0) += amount;
+    }
+    let mut counts: BTreeMap<i32, u64> = BTreeMap::new();
+    for record in records {
+        let Some(year) = record.walk_client_id.as_ref().and_then(|w| surveyed.get(w)) else { continue };
+        let wanted = match (taxon, record.name.as_deref().and_then(|n| names.resolve(n))) {
+            (None, _) => true,
+            (Some(filter), Some(t)) => filter.contains(t),
+            (Some(_), None) => false,
+        };
+        if wanted {
+            *counts.entry(*year).or_insert(0) += record.count;
+        }
+    }
+    let rows: Vec<YearCount> = effort
+        .into_iter()
+        .filter(|(_, amount)| *amount > 0.0)
+        .map(|(year, amount)| YearCount { year, count: counts.get(&year).copied().unwrap_or(0), effort: amount })
+        .collect();
+    let per = match unit {
+        EffortUnit::Km => "kilometre",
+        EffortUnit::Hours => "hour",
+    };
+    let note = format!(
+        "encounter rates per {per} walked, from {} survey walks on which every find was reported; records made outside such walks are not counted",
+        surveyed.len()
+    );
+    Some((rows, note))
 }
 
 /// Fits the trend and wraps it with what went in.
@@ -150,9 +216,11 @@ pub fn render_text(report: &TrendReport) -> String {
     }
     out.push_str(&format!("{:>6} {:>8} {:>12} {:>12}\n", "year", "count", "effort", "rate"));
     for y in &report.years {
-        out.push_str(&format!("{:>6} {:>8} {:>12} {:>12.4}\n", y.year, y.count, y.effort, y.count as f64 / y.effort));
+        out.push_str(&format!("{:>6} {:>8} {:>12.2} {:>12.4}\n", y.year, y.count, y.effort, y.count as f64 / y.effort));
     }
-    let percent = |x: f64| format!("{:+.1}%", 100.0 * x);
+    // Beyond ±10,000% a percentage says nothing a person can use (it comes from
+    // extrapolating a short series); say so instead of printing a 20-digit number.
+    let percent = |x: f64| if (100.0 * x).abs() > 10_000.0 { format!("{}10,000%", if x > 0.0 { "over +" } else { "below −" }) } else { format!("{:+.1}%", 100.0 * x) };
     out.push_str(&format!(
         "\nPoisson log-linear model with log(effort) offset: Pearson dispersion {:.2} ({:?} errors).\n",
         t.fit.dispersion.unwrap_or(f64::NAN),

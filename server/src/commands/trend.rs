@@ -6,7 +6,7 @@ use anyhow::Context as _;
 
 use super::{RecordSource, print};
 use crate::assess::chart::trend_chart;
-use crate::assess::trend::{NO_EFFORT_NOTE, generation_length, read_year_counts, render_text, stored_year_counts, trend_report};
+use crate::assess::trend::{EffortUnit, NO_EFFORT_NOTE, generation_length, read_year_counts, render_text, stored_year_counts, trend_report, walk_year_counts};
 
 #[derive(Debug, clap::Args)]
 pub struct TrendArgs {
@@ -18,6 +18,10 @@ pub struct TrendArgs {
     /// Also draw the trend chart (SVG) to this file.
     #[arg(long, value_name = "FILE")]
     pub svg: Option<PathBuf>,
+    /// On stored records: encounter rates per kilometre or per hour walked on survey walks
+    /// where every find was reported.
+    #[arg(long, value_enum, default_value = "km")]
+    pub effort: EffortUnit,
 }
 
 pub fn run(data_dir: &Path, args: TrendArgs) -> anyhow::Result<()> {
@@ -31,8 +35,12 @@ pub fn run(data_dir: &Path, args: TrendArgs) -> anyhow::Result<()> {
         Some(path) => (read_year_counts(path)?, format!("yearly counts and effort in {}", path.display()), Vec::new()),
         None => {
             let loaded = args.source.load(data_dir)?;
-            let years = stored_year_counts(&loaded.records, taxon.as_ref(), &names);
-            (years, loaded.records_used, vec![NO_EFFORT_NOTE.to_owned()])
+            let state = crate::AppState::open(data_dir, None, crate::load_checklist(None)?)?;
+            let walks = state.store.run_here(|conn| crate::store::walks::list_walks(conn))?;
+            match walk_year_counts(&loaded.records, &walks, taxon.as_ref(), &names, args.effort) {
+                Some((years, note)) => (years, loaded.records_used, vec![note]),
+                None => (stored_year_counts(&loaded.records, taxon.as_ref(), &names), loaded.records_used, vec![NO_EFFORT_NOTE.to_owned()]),
+            }
         }
     };
     let report = trend_report(years, generation, used, notes)?;

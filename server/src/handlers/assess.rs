@@ -21,7 +21,7 @@ use crate::assess::map::taxon_map;
 use crate::assess::input::read_store;
 use crate::assess::range::{RangeOptions, RangeReport, range_report};
 use crate::assess::taxa::TaxonFilter;
-use crate::assess::trend::{TrendReport, generation_length, stored_year_counts, trend_report};
+use crate::assess::trend::{EffortUnit, TrendReport, generation_length, stored_year_counts, trend_report, walk_year_counts};
 use crate::assess::{describe_states, parse_states};
 use crate::error::ApiError;
 
@@ -31,6 +31,8 @@ pub struct FigureQuery {
     state: Option<String>,
     period: Option<String>,
     generation_length: Option<f64>,
+    /// `km` (default) or `hours`: the walking effort encounter rates are per.
+    effort: Option<EffortUnit>,
 }
 
 fn taxon_of(state: &AppState, query: &FigureQuery) -> Result<Option<TaxonFilter>, ApiError> {
@@ -97,7 +99,11 @@ async fn trend_of(state: &AppState, query: &FigureQuery) -> Result<TrendReport, 
     let names = &*state.taxa;
     let generation = generation_length(query.generation_length, taxon.as_ref(), names).map_err(|err| ApiError::BadRequest(err.to_string()))?;
     let (records, records_used) = stored_records(state, query).await?;
-    let years = stored_year_counts(&records, taxon.as_ref(), names);
-    let notes = vec![crate::assess::trend::NO_EFFORT_NOTE.to_owned()];
+    let walks = state.store.run(|conn| crate::store::walks::list_walks(conn)).await?;
+    let unit = query.effort.unwrap_or_default();
+    let (years, notes) = match walk_year_counts(&records, &walks, taxon.as_ref(), names, unit) {
+        Some((years, note)) => (years, vec![note]),
+        None => (stored_year_counts(&records, taxon.as_ref(), names), vec![crate::assess::trend::NO_EFFORT_NOTE.to_owned()]),
+    };
     trend_report(years, generation, records_used, notes).map_err(|err| ApiError::BadRequest(err.to_string()))
 }

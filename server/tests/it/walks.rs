@@ -169,3 +169,47 @@ async fn effort_is_summed_per_stretch_and_period() {
     assert!((km - (1.642265313 + 2.5)).abs() < 1e-6, "{km}");
     assert!((row["hours"].as_f64().unwrap() - (25.0 / 60.0 + 1.5)).abs() < 1e-9);
 }
+
+#[tokio::test]
+async fn trends_on_stored_records_are_encounter_rates_per_kilometre_of_all_finds_walks() {
+    let app = spawn_app().await;
+    // (walk id, year, km, all finds, records on it)
+    let plan = [
+        ("9a000000-0000-4000-8000-000000000001", 2024, 2000.0, true, 2),
+        ("9a000000-0000-4000-8000-000000000002", 2025, 4000.0, true, 1),
+        ("9a000000-0000-4000-8000-000000000003", 2026, 4000.0, true, 0),
+        ("9a000000-0000-4000-8000-000000000004", 2026, 9000.0, false, 3),
+    ];
+    let mut n = 0;
+    for (id, year, metres, all_finds, records) in plan {
+        let mut body = walk(json!([]));
+        body["client_id"] = json!(id);
+        body["started_at"] = json!(format!("{year}-05-01T09:00:00+01:00"));
+        body["ended_at"] = json!(format!("{year}-05-01T11:00:00+01:00"));
+        body["typed_distance_m"] = json!(metres);
+        body["all_finds_reported"] = json!(all_finds);
+        assert_eq!(post_walk(&app, &body).await.0, 200);
+        for _ in 0..records {
+            n += 1;
+            let mut record = submission(&format!("9b000000-0000-4000-8000-{n:012}"));
+            record["observed_at"] = json!(format!("{year}-05-01T10:00:00+01:00"));
+            record["walk_client_id"] = json!(id);
+            assert_eq!(app.submit(&record, &[]).await.status, 200);
+        }
+    }
+    let mut outside = submission("9c000000-0000-4000-8000-000000000001");
+    outside["observed_at"] = json!("2025-07-01T10:00:00+01:00");
+    app.submit(&outside, &[]).await;
+
+    let report: Value = app.get("/api/trend?state=any&generation_length=8").await.json().await.unwrap();
+    let years: Vec<(i64, u64, f64)> = report["years"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .map(|y| (y["year"].as_i64().unwrap(), y["count"].as_u64().unwrap(), y["effort"].as_f64().unwrap()))
+        .collect();
+    assert_eq!(years, [(2024, 2, 2.0), (2025, 1, 4.0), (2026, 0, 4.0)], "{report}");
+    assert!(report["notes"].to_string().contains("encounter rates per kilometre"), "{}", report["notes"]);
+    let hours: Value = app.get("/api/trend?state=any&generation_length=8&effort=hours").await.json().await.unwrap();
+    assert_eq!(hours["years"][0]["effort"], 2.0, "two hours walked in 2024");
+}
