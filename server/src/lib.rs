@@ -11,6 +11,7 @@ pub mod auth;
 pub mod cli;
 pub mod commands;
 pub mod demo;
+pub mod duplicates;
 pub mod error;
 pub mod effort;
 pub mod export;
@@ -37,6 +38,10 @@ pub struct AppState {
     pub taxa: std::sync::Arc<assess::taxa::TaxonIndex>,
     /// Failed sign-ins per username, for the rate limit.
     pub logins: auth::LoginLimiter,
+    /// Positions of stored records, for finding duplicates. A `std` mutex held only
+    /// for a query plus an insert, never across an `.await`, so that two arrivals of one
+    /// animal always see each other.
+    pub duplicates: std::sync::Arc<std::sync::Mutex<duplicates::Index>>,
 }
 
 /// The demo checklist, built in; `--checklist FILE` replaces it.
@@ -67,7 +72,9 @@ impl AppState {
         let store = store::Store::open(&data_dir.join("wrackline.sqlite3"))?;
         let photos = intake::photos::PhotoFiles::open(&data_dir.join("photos"))?;
         let taxa = std::sync::Arc::new(assess::taxa::TaxonIndex::new(checklist));
-        Ok(Self { store, photos, app_dir, taxa, logins: auth::LoginLimiter::default() })
+        let positions = store.run_here(|conn| store::duplicates::all_positions(conn))?;
+        let duplicates = std::sync::Arc::new(std::sync::Mutex::new(duplicates::Index::build(positions)));
+        Ok(Self { store, photos, app_dir, taxa, logins: auth::LoginLimiter::default(), duplicates })
     }
 }
 

@@ -71,7 +71,7 @@ pub fn decide(current: ReviewState, action: &ReviewAction) -> Result<Change, Act
 }
 
 /// A record's place in the queue: a sort key (higher first) and the reasons in words.
-pub fn priority(record: &RecordView, current_taxon: Option<&str>, checklist: &Checklist) -> (u32, Vec<String>) {
+pub fn priority(record: &RecordView, current_taxon: Option<&str>, checklist: &Checklist, possible_duplicate: bool) -> (u32, Vec<String>) {
     let mut score = 0;
     let mut reasons = Vec::new();
     if let Some(taxon) = current_taxon.and_then(|name| checklist.taxon(name)) {
@@ -87,6 +87,10 @@ pub fn priority(record: &RecordView, current_taxon: Option<&str>, checklist: &Ch
     for flag in &record.flags {
         score += 100;
         reasons.push(flag.reason.clone());
+    }
+    if possible_duplicate {
+        score += 100;
+        reasons.push("possibly the same animal as another report: compare them".into());
     }
     (score, reasons)
 }

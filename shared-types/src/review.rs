@@ -135,6 +135,31 @@ pub struct ReviewDetail {
     pub messages: Vec<Message>,
     pub events: Vec<ReviewEvent>,
     pub priority_reasons: Vec<String>,
+    /// Other reports that may be the same animal, best first.
+    #[serde(default)]
+    pub duplicates: Vec<DuplicateView>,
+}
+
+/// Another report that may show the same animal, for the reviewer to compare.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct DuplicateView {
+    pub other: RecordView,
+    pub score: f64,
+    pub reasons: Vec<String>,
+    /// Geodesic distance between the two positions, metres.
+    pub distance_m: Option<f64>,
+    pub gap_hours: f64,
+    /// "same animal" or "different animals", once decided.
+    pub decision: Option<String>,
+    /// The merge joining them, while it stands (it can be undone).
+    pub merge_id: Option<i64>,
+}
+
+/// A reviewer's decision on a pair (`POST /api/review/records/{id}/duplicates/{other}`).
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct PairDecision {
+    pub same_animal: bool,
 }
 
 /// An observer's own record as their phone shows it.

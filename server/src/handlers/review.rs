@@ -14,7 +14,7 @@ use crate::handlers::access::Reviewer;
 use crate::handlers::observations::intake_error;
 use crate::intake::parse_json;
 use crate::review;
-use crate::store::{observations, review as review_store};
+use crate::store::{duplicates as duplicates_store, observations, review as review_store};
 
 fn record_id(text: &str) -> Result<Uuid, ApiError> {
     Uuid::parse_str(text).map_err(|_| ApiError::BadRequest(format!("`{text}` is not a record id (a UUID)")))
@@ -51,13 +51,15 @@ pub async fn queue(State(state): State<AppState>, Reviewer(_): Reviewer, Query(f
     let rows = state
         .store
         .run(move |conn| {
+            let undecided = duplicates_store::undecided(conn)?;
             review_store::records_in_states(conn, &states)?
                 .into_iter()
                 .filter_map(|id| observations::record_by_client_id(conn, id).transpose())
                 .map(|record| {
                     let record = record?;
                     let taxon = review_store::current_taxon(conn, record.observation_id)?;
-                    Ok((record, taxon))
+                    let possible = undecided.contains(&record.observation_id);
+                    Ok((record, taxon, possible))
                 })
                 .collect::<Result<Vec<_>, crate::store::StoreError>>()
         })
@@ -66,9 +68,9 @@ pub async fn queue(State(state): State<AppState>, Reviewer(_): Reviewer, Query(f
     let checklist = taxa.checklist();
     let mut items: Vec<_> = rows
         .into_iter()
-        .filter(|(record, taxon)| matches_filter(record, taxon.as_deref(), &filter, flag, checklist))
-        .map(|(record, taxon)| {
-            let (score, reasons) = review::priority(&record, taxon.as_deref(), checklist);
+        .filter(|(record, taxon, _)| matches_filter(record, taxon.as_deref(), &filter, flag, checklist))
+        .map(|(record, taxon, possible)| {
+            let (score, reasons) = review::priority(&record, taxon.as_deref(), checklist, possible);
             (score, record, reasons, taxon)
         })
         .collect();
@@ -103,12 +105,66 @@ pub async fn detail(State(state): State<AppState>, Reviewer(_): Reviewer, Path(c
             let Some(record) = observations::record_by_client_id(conn, id)? else { return Ok(None) };
             let observation = record.observation_id;
             let taxon = review_store::current_taxon(conn, observation)?;
-            Ok(Some((record, taxon, review_store::identifications(conn, observation)?, review_store::messages(conn, observation)?, review_store::events(conn, observation)?)))
+            let duplicates = duplicate_views(conn, &record)?;
+            let possible = !duplicates.is_empty() && duplicates.iter().any(|d| d.decision.is_none());
+            Ok(Some((record, taxon, review_store::identifications(conn, observation)?, review_store::messages(conn, observation)?, review_store::events(conn, observation)?, duplicates, possible)))
         })
         .await?;
-    let (record, taxon, identifications, messages, events) = found.ok_or_else(|| ApiError::NotFound(format!("no record with id {id}")))?;
-    let (_, priority_reasons) = review::priority(&record, taxon.as_deref(), state.checklist());
-    Ok(Json(ReviewDetail { record, identifications, messages, events, priority_reasons }))
+    let (record, taxon, identifications, messages, events, duplicates, possible) = found.ok_or_else(|| ApiError::NotFound(format!("no record with id {id}")))?;
+    let (_, priority_reasons) = review::priority(&record, taxon.as_deref(), state.checklist(), possible);
+    Ok(Json(ReviewDetail { record, identifications, messages, events, priority_reasons, duplicates }))
+}
+
+fn duplicate_views(conn: &rusqlite::Connection, record: &shared_types::RecordView) -> Result<Vec<shared_types::DuplicateView>, crate::store::StoreError> {
+    let mut views = Vec::new();
+    for candidate in duplicates_store::candidates_of(conn, record.observation_id)? {
+        let Some(other) = observations::record_by_observation_id(conn, candidate.other)? else { continue };
+        let here = record.submission.position.map(|p| (p.latitude.get(), p.longitude.get()));
+        let there = other.submission.position.map(|p| (p.latitude.get(), p.longitude.get()));
+        let gap_hours = (other.submission.observed_at - record.submission.observed_at).num_seconds().abs() as f64 / 3600.0;
+        views.push(shared_types::DuplicateView {
+            distance_m: here.zip(there).map(|(a, b)| crate::duplicates::geodesic_m(a, b)),
+            gap_hours,
+            other,
+            score: candidate.score,
+            reasons: candidate.reasons,
+            decision: candidate.decision,
+            merge_id: candidate.merge_id,
+        });
+    }
+    Ok(views)
+}
+
+/// `POST /api/review/records/{client_id}/duplicates/{other_client_id}`: the same animal
+/// (merge) or different animals (never suggested again).
+pub async fn decide_pair(State(state): State<AppState>, Reviewer(reviewer): Reviewer, Path((client_id, other_id)): Path<(String, String)>, body: Bytes) -> Result<Json<serde_json::Value>, ApiError> {
+    let (a, b) = (record_id(&client_id)?, record_id(&other_id)?);
+    let decision: shared_types::PairDecision = parse_json(&body).map_err(intake_error)?;
+    let person = reviewer.id;
+    let outcome = state
+        .store
+        .run(move |conn| {
+            let ids = (review_store::observation_of(conn, a)?, review_store::observation_of(conn, b)?);
+            let (Some((x, _, _)), Some((y, _, _))) = ids else { return Ok(None) };
+            duplicates_store::decide(conn, x, y, decision.same_animal, person, Utc::now()).map(Some)
+        })
+        .await?;
+    match outcome {
+        None => Err(ApiError::NotFound("no such record".into())),
+        Some(duplicates_store::Decided::Refused) => Err(ApiError::Conflict("one of these records is merged already, or they are the same record".into())),
+        Some(duplicates_store::Decided::KeptApart) => Ok(Json(serde_json::json!({"decision": "different animals"}))),
+        Some(duplicates_store::Decided::Merged { merge_id }) => Ok(Json(serde_json::json!({"decision": "same animal", "merge_id": merge_id}))),
+    }
+}
+
+/// `POST /api/review/merges/{merge_id}/undo`: puts both records back exactly as they were.
+pub async fn undo_merge(State(state): State<AppState>, Reviewer(reviewer): Reviewer, Path(merge_id): Path<i64>) -> Result<Json<serde_json::Value>, ApiError> {
+    let person = reviewer.id;
+    let undone = state.store.run(move |conn| duplicates_store::undo_merge(conn, merge_id, person, Utc::now())).await?;
+    if !undone {
+        return Err(ApiError::NotFound(format!("no standing merge {merge_id}")));
+    }
+    Ok(Json(serde_json::json!({"merge_id": merge_id, "undone": true})))
 }
 
 /// `POST /api/review/records/{client_id}/actions`: confirm, ask for details, or mark

@@ -94,10 +94,40 @@ pub async fn accept(state: &AppState, upload: Upload, observer_id: Option<i64>, 
     let client_id = new.submission.client_id;
     let outcome = state.store.run(move |conn| observations::insert_observation(conn, &new, now)).await.map_err(anyhow::Error::from)?;
     match outcome {
-        Insertion::Created(receipt) => Ok(Accepted { receipt, replayed: false }),
+        Insertion::Created(receipt) => {
+            find_duplicates(state, receipt.observation_id, Utc::now()).await?;
+            Ok(Accepted { receipt, replayed: false })
+        }
         Insertion::Replayed(receipt) => Ok(Accepted { receipt, replayed: true }),
         Insertion::Conflict => Err(IntakeError::Conflict(client_id)),
     }
+}
+
+/// Looks for other reports of the same animal among stored records and keeps the
+/// candidates for reviewers. The index lock covers the query and the insert together,
+/// so of two arrivals of one animal the second always finds the first.
+async fn find_duplicates(state: &AppState, observation_id: i64, now: DateTime<Utc>) -> Result<(), IntakeError> {
+    let names = state.taxa.clone();
+    let index = state.duplicates.clone();
+    state
+        .store
+        .run(move |conn| {
+            let Some(new) = crate::store::duplicates::raw_records(conn, &[observation_id])?.pop() else { return Ok(()) };
+            let Some(position) = new.position else { return Ok(()) };
+            let near = {
+                let mut index = index.lock().unwrap_or_else(|p| p.into_inner());
+                let near = index.near(position, crate::duplicates::SEARCH_RADIUS_M);
+                index.insert(observation_id, position);
+                near
+            };
+            let Some(new) = crate::duplicates::from_raw(&new, &names) else { return Ok(()) };
+            let others: Vec<_> = crate::store::duplicates::raw_records(conn, &near)?.iter().filter_map(|r| crate::duplicates::from_raw(r, &names)).collect();
+            let found: Vec<_> = crate::duplicates::candidates(&new, &others).into_iter().map(|(id, c)| (id, c.score, c.reasons)).collect();
+            crate::store::duplicates::save_candidates(conn, observation_id, &found, now)
+        })
+        .await
+        .map_err(anyhow::Error::from)?;
+    Ok(())
 }
 
 /// Checks and writes photo files (blocking work, so on the blocking pool).

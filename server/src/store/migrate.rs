@@ -14,6 +14,7 @@ const MIGRATIONS: &[(&str, &str)] = &[
     ("0004_observation_flags", include_str!("../../../migrations/0004_observation_flags.sql")),
     ("0005_walk_details", include_str!("../../../migrations/0005_walk_details.sql")),
     ("0006_people_and_review", include_str!("../../../migrations/0006_people_and_review.sql")),
+    ("0007_duplicates", include_str!("../../../migrations/0007_duplicates.sql")),
 ];
 
 pub(super) fn apply(conn: &mut Connection) -> Result<(), StoreError> {

@@ -9,6 +9,7 @@
 mod migrate;
 pub mod observations;
 pub mod occurrences;
+pub mod duplicates;
 pub mod people;
 pub mod review;
 pub mod synthetic;

@@ -214,6 +214,18 @@ pub fn record_by_client_id(conn: &Connection, client_id: Uuid) -> Result<Option<
     row.map(|row| finish_record(conn, row)).transpose()
 }
 
+/// One record by the server's number for it.
+pub fn record_by_observation_id(conn: &Connection, id: i64) -> Result<Option<RecordView>, StoreError> {
+    let row = conn
+        .query_row(
+            "SELECT id, organism_id, received_at, review_state, submission_json, walk_client_id FROM observations WHERE id = ?1",
+            [id],
+            record_row,
+        )
+        .optional()?;
+    row.map(|row| finish_record(conn, row)).transpose()
+}
+
 /// How many observations are stored.
 pub fn count_observations(conn: &Connection) -> Result<i64, StoreError> {
     Ok(conn.query_row("SELECT COUNT(*) FROM observations", [], |row| row.get(0))?)

@@ -89,7 +89,7 @@ async fn staff(app: &TestApp, who: Who) -> Option<Staff> {
 }
 
 async fn call(app: &TestApp, callers: &Callers, method: &str, path: &str, who: Who) -> u16 {
-    let url = format!("{}{}", app.base, path.replace("{client_id}", RECORD).replace("{username}", "nobody-here").replace("{sha256}", &"0".repeat(64)));
+    let url = format!("{}{}", app.base, path.replace("{client_id}", RECORD).replace("{username}", "nobody-here").replace("{sha256}", &"0".repeat(64)).replace("{other_client_id}", "0b7e6d5c-4b3a-4291-8f7e-6d5c4b3a2910").replace("{merge_id}", "1"));
     let method = reqwest::Method::from_bytes(method.as_bytes()).unwrap();
     let mut request = app.client.request(method, url).header("content-type", "application/json").body("{}");
     match who {

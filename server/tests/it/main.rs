@@ -4,6 +4,7 @@
 mod access;
 mod assess_cli;
 mod cli;
+mod duplicates;
 mod exif;
 mod exports;
 mod flags;
