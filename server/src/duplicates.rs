@@ -22,13 +22,14 @@
 //! candidate keeps its reasons in words. Thresholds are wrackline's own (common practice
 //! for plausibility windows), checked by the table in the tests.
 //!
-//! Candidates are found through an R-tree ([`Index`]) of unit-sphere points, so a query is
-//! a small neighbourhood search wherever on Earth the records are.
+//! Candidates are found through an R-tree ([`Index`]) over place and time: unit-sphere
+//! points (so distances follow the globe, with no seam at the antimeridian) plus the day,
+//! so a query is a small box of space and time wherever on Earth the records are.
 
 use chrono::{DateTime, Utc};
 use geo::{Distance, Geodesic, Point};
 use rstar::primitives::GeomWithData;
-use rstar::RTree;
+use rstar::{AABB, RTree};
 use serde::Serialize;
 use shared_types::{Condition, LengthKind, Setting};
 
@@ -41,8 +42,7 @@ pub const LENGTH_TOLERANCE_ESTIMATED: f64 = 0.30;
 pub const CANDIDATE_SCORE: f64 = 0.5;
 /// Uncertainty assumed for a position given without one (common practice for phone fixes).
 pub const UNKNOWN_UNCERTAINTY_M: f64 = 100.0;
-/// The widest search around a record; no allowed gap is larger.
-pub const SEARCH_RADIUS_M: f64 = 20_000.0;
+
 const EARTH_RADIUS_M: f64 = 6_371_008.8;
 
 /// What the scoring needs of one record.
@@ -96,6 +96,11 @@ pub fn score(a: &DupRecord, b: &DupRecord) -> Option<Candidate> {
     }
     let mut reasons = Vec::new();
     let is_carcass = carcass(a.setting) || carcass(b.setting);
+    // Time first: it is the cheapest way to rule a pair out.
+    let window = if is_carcass { WINDOW_CARCASS_H } else { WINDOW_LANDED_H };
+    if gap_hours > window {
+        return None;
+    }
     // Place.
     let (p, q) = (a.position?, b.position?);
     let distance = geodesic_m(p, q);
@@ -105,11 +110,7 @@ pub fn score(a: &DupRecord, b: &DupRecord) -> Option<Candidate> {
         return None;
     }
     reasons.push(format!("{distance:.0} m apart, within the {allowed:.0} m the uncertainties and drift allow"));
-    // Time and condition.
-    let window = if is_carcass { WINDOW_CARCASS_H } else { WINDOW_LANDED_H };
-    if gap_hours > window {
-        return None;
-    }
+    // Condition.
     let (earlier, later) = if a.at <= b.at { (a, b) } else { (b, a) };
     if freshness(later.condition) < freshness(earlier.condition) {
         return None;
@@ -192,20 +193,61 @@ fn unit_vector((lat, lon): (f64, f64)) -> [f64; 3] {
     [lat.cos() * lon.cos(), lat.cos() * lon.sin(), lat.sin()]
 }
 
-/// The spatial index of stored records' positions.
+/// The index of stored records over place and time, with the largest uncertainty among
+/// them, so a search box is exactly as large as the widest pair [`score`] may accept.
 #[derive(Default)]
 pub struct Index {
-    tree: RTree<GeomWithData<[f64; 3], i64>>,
+    tree: RTree<GeomWithData<[f64; 4], i64>>,
+    max_uncertainty_m: f64,
+}
+
+/// A stored record for the index: id, (latitude, longitude), uncertainty in metres if
+/// known, and when it was seen.
+pub type IndexedPoint = (i64, (f64, f64), Option<f64>, DateTime<Utc>);
+
+fn uncertainty_or_default(u: Option<f64>) -> f64 {
+    u.unwrap_or(UNKNOWN_UNCERTAINTY_M)
+}
+
+fn days(at: DateTime<Utc>) -> f64 {
+    at.timestamp() as f64 / 86_400.0
+}
+
+fn point((lat, lon): (f64, f64), at: DateTime<Utc>) -> [f64; 4] {
+    let [x, y, z] = unit_vector((lat, lon));
+    [x, y, z, days(at)]
 }
 
 impl Index {
     /// Builds the index at once (bulk loading is much faster than one by one).
-    pub fn build(points: impl IntoIterator<Item = (i64, (f64, f64))>) -> Self {
-        Self { tree: RTree::bulk_load(points.into_iter().map(|(id, p)| GeomWithData::new(unit_vector(p), id)).collect()) }
+    pub fn build(points: impl IntoIterator<Item = IndexedPoint>) -> Self {
+        let mut max_uncertainty_m: f64 = 0.0;
+        let entries = points
+            .into_iter()
+            .map(|(id, p, u, at)| {
+                max_uncertainty_m = max_uncertainty_m.max(uncertainty_or_default(u));
+                GeomWithData::new(point(p, at), id)
+            })
+            .collect();
+        Self { tree: RTree::bulk_load(entries), max_uncertainty_m }
     }
 
-    pub fn insert(&mut self, id: i64, position: (f64, f64)) {
-        self.tree.insert(GeomWithData::new(unit_vector(position), id));
+    pub fn insert(&mut self, id: i64, position: (f64, f64), uncertainty_m: Option<f64>, at: DateTime<Utc>) {
+        self.max_uncertainty_m = self.max_uncertainty_m.max(uncertainty_or_default(uncertainty_m));
+        self.tree.insert(GeomWithData::new(point(position, at), id));
+    }
+
+    /// Every stored record [`score`] could accept beside a new one: within the largest
+    /// allowed gap (both uncertainties and the carcass drift) and the longest time window.
+    /// (A record with the very same photo is a candidate at any distance; those are found
+    /// by hash, not here.)
+    pub fn possible_pairs(&self, position: (f64, f64), uncertainty_m: Option<f64>, at: DateTime<Utc>) -> Vec<i64> {
+        let reach = (uncertainty_or_default(uncertainty_m).powi(2) + self.max_uncertainty_m.powi(2)).sqrt() + DRIFT_CARCASS_M;
+        let chord = 2.0 * (reach / (2.0 * EARTH_RADIUS_M)).sin();
+        let [x, y, z, t] = point(position, at);
+        let window = WINDOW_CARCASS_H / 24.0;
+        let corners = ([x - chord, y - chord, z - chord, t - window], [x + chord, y + chord, z + chord, t + window]);
+        self.tree.locate_in_envelope(&AABB::from_corners(corners.0, corners.1)).map(|p| p.data).collect()
     }
 
     pub fn len(&self) -> usize {
@@ -216,17 +258,12 @@ impl Index {
         self.tree.size() == 0
     }
 
-    /// Ids of records within `radius_m` of `position` (by chord, a hair shorter than the arc).
-    pub fn near(&self, position: (f64, f64), radius_m: f64) -> Vec<i64> {
-        let chord = 2.0 * (radius_m / (2.0 * EARTH_RADIUS_M)).sin();
-        self.tree.locate_within_distance(unit_vector(position), chord * chord).map(|p| p.data).collect()
-    }
 }
 
 /// Candidates for `new` among `others` (already narrowed by the index), best first.
-pub fn candidates(new: &DupRecord, others: &[DupRecord]) -> Vec<(i64, Candidate)> {
+pub fn candidates<'a>(new: &DupRecord, others: impl IntoIterator<Item = &'a DupRecord>) -> Vec<(i64, Candidate)> {
     let mut found: Vec<(i64, Candidate)> = others
-        .iter()
+        .into_iter()
         .filter(|o| o.observation_id != new.observation_id)
         .filter_map(|o| score(new, o).map(|c| (o.observation_id, c)))
         .collect();
@@ -324,11 +361,29 @@ mod tests {
     }
 
     #[test]
-    fn the_index_finds_neighbours_across_the_antimeridian() {
-        let index = Index::build([(1, (0.0, 179.9999)), (2, (0.0, -179.9999)), (3, (0.0, 170.0))]);
-        let mut near = index.near((0.0, 179.9999), 1_000.0);
+    fn the_index_finds_neighbours_across_the_antimeridian_and_only_in_the_time_window() {
+        let index = Index::build([
+            (1, (0.0, 179.9999), None, at(0.0)),
+            (2, (0.0, -179.9999), None, at(1.0)),
+            (3, (0.0, 170.0), None, at(0.0)),
+            (4, (0.0, 179.9999), None, at(24.0 * 30.0)),
+        ]);
+        let mut near = index.possible_pairs((0.0, 179.9999), None, at(0.0));
         near.sort();
-        // 0.0002° of longitude at the equator is about 22 m (common practice).
+        // 0.0002° of longitude at the equator is about 22 m (common practice); record 4
+        // is a month later.
         assert_eq!(near, [1, 2]);
+    }
+
+    #[test]
+    fn the_search_reaches_as_far_as_a_pair_may_be_apart() {
+        // Two records 2,300 m apart with ±300 m each: allowed 424 + 2,000 = 2,424 m.
+        let a = DupRecord { uncertainty_m: Some(300.0), ..ray(1) };
+        let mut b = DupRecord { uncertainty_m: Some(300.0), ..ray(2) };
+        north(&mut b, 2_300.0);
+        b.at = at(1.0);
+        assert!(score(&a, &b).is_some());
+        let index = Index::build([(2, b.position.unwrap(), b.uncertainty_m, b.at)]);
+        assert_eq!(index.possible_pairs(a.position.unwrap(), a.uncertainty_m, a.at), [2]);
     }
 }

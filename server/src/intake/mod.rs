@@ -113,14 +113,16 @@ async fn find_duplicates(state: &AppState, observation_id: i64, now: DateTime<Ut
         .store
         .run(move |conn| {
             let Some(new) = crate::store::duplicates::raw_records(conn, &[observation_id])?.pop() else { return Ok(()) };
+            let Some(new) = crate::duplicates::from_raw(&new, &names) else { return Ok(()) };
             let Some(position) = new.position else { return Ok(()) };
-            let near = {
+            let mut near = {
                 let mut index = index.lock().unwrap_or_else(|p| p.into_inner());
-                let near = index.near(position, crate::duplicates::SEARCH_RADIUS_M);
-                index.insert(observation_id, position);
+                let near = index.possible_pairs(position, new.uncertainty_m, new.at);
+                index.insert(observation_id, position, new.uncertainty_m, new.at);
                 near
             };
-            let Some(new) = crate::duplicates::from_raw(&new, &names) else { return Ok(()) };
+            // The same photo file is a candidate at any distance and time.
+            near.extend(crate::store::duplicates::sharing_a_photo(conn, observation_id)?);
             let others: Vec<_> = crate::store::duplicates::raw_records(conn, &near)?.iter().filter_map(|r| crate::duplicates::from_raw(r, &names)).collect();
             let found: Vec<_> = crate::duplicates::candidates(&new, &others).into_iter().map(|(id, c)| (id, c.score, c.reasons)).collect();
             crate::store::duplicates::save_candidates(conn, observation_id, &found, now)

@@ -68,14 +68,15 @@ pub fn raw_records(conn: &Connection, ids: &[i64]) -> Result<Vec<RawDup>, StoreE
 }
 
 /// Every record with a position (its own or its photo's), for building the index.
-pub fn all_positions(conn: &Connection) -> Result<Vec<(i64, (f64, f64))>, StoreError> {
+pub fn all_positions(conn: &Connection) -> Result<Vec<crate::duplicates::IndexedPoint>, StoreError> {
     let mut stmt = conn.prepare(&format!("{RAW} WHERE o.review_state != 'merged'"))?;
     let rows = stmt.query_map([], raw_row)?;
     let mut out = Vec::new();
     for raw in rows {
         let raw = raw?;
+        let at = chrono::DateTime::parse_from_rfc3339(&raw.at_utc).map_err(|err| StoreError::Corrupt(format!("observation {}: {err}", raw.observation_id)))?;
         if let Some(position) = raw.position {
-            out.push((raw.observation_id, position));
+            out.push((raw.observation_id, position, raw.accuracy_m, at.with_timezone(&Utc)));
         }
     }
     Ok(out)
@@ -220,4 +221,14 @@ pub fn undo_merge(conn: &mut Connection, merge_id: i64, person: i64, now: DateTi
     log_event(&tx, kept, person, "undo_merge", &kept_state, &kept_state, &format!("merge {merge_id} undone: record {merged} is its own animal again"), &at)?;
     tx.commit()?;
     Ok(true)
+}
+
+/// Other records holding one of this record's photo files.
+pub fn sharing_a_photo(conn: &Connection, observation: i64) -> Result<Vec<i64>, StoreError> {
+    let mut stmt = conn.prepare(
+        "SELECT DISTINCT other.observation_id FROM observation_photos mine JOIN observation_photos other
+         ON other.photo_sha256 = mine.photo_sha256 AND other.observation_id != mine.observation_id WHERE mine.observation_id = ?1",
+    )?;
+    let ids = stmt.query_map([observation], |row| row.get(0))?;
+    Ok(ids.collect::<Result<Vec<_>, _>>()?)
 }
