@@ -163,8 +163,11 @@ fn time_and_place(label: &str, when: Option<String>, lat: Option<f64>, lon: Opti
 fn RecordReview(client_id: String, back: impl Fn() + Copy + 'static) -> impl IntoView {
     let detail = RwSignal::new(None::<ReviewDetail>);
     let problem = RwSignal::new(String::new());
+    // Bumping `reloads` fetches the record again (after every decision).
+    let reloads = RwSignal::new(0u32);
     let id = client_id.clone();
-    let load = move || {
+    Effect::new(move |_| {
+        reloads.track();
         let id = id.clone();
         leptos::task::spawn_local(async move {
             match call("GET", &format!("/api/review/records/{id}"), None).await.and_then(|b| serde_json::from_str::<ReviewDetail>(&b).map_err(|e| e.to_string())) {
@@ -172,8 +175,8 @@ fn RecordReview(client_id: String, back: impl Fn() + Copy + 'static) -> impl Int
                 Err(err) => problem.set(err),
             }
         });
-    };
-    load();
+    });
+    let load = move || reloads.update(|n| *n = n.wrapping_add(1));
     let species = RwSignal::new(String::new());
     let rank = RwSignal::new("species".to_owned());
     let remark = RwSignal::new(String::new());
@@ -181,7 +184,6 @@ fn RecordReview(client_id: String, back: impl Fn() + Copy + 'static) -> impl Int
     let act_id = client_id.clone();
     let act = move |action: serde_json::Value| {
         let id = act_id.clone();
-        let load = load.clone();
         leptos::task::spawn_local(async move {
             match call("POST", &format!("/api/review/records/{id}/actions"), Some(action.to_string())).await {
                 Ok(_) => {
@@ -251,6 +253,7 @@ fn RecordReview(client_id: String, back: impl Fn() + Copy + 'static) -> impl Int
                     {key_answers}
                     <h4>"Flags and priority"</h4>
                     <ul class="flags">{d.priority_reasons.iter().map(|r| view! { <li>{r.clone()}</li> }).collect_view()}</ul>
+                    <DuplicatesOf detail=d.clone() reloads=reloads problem=problem />
                     <h4>"Identifications"</h4>
                     <ol class="identifications">{d.identifications.iter().map(|i| view! {
                         <li class=if i.current { "current" } else { "superseded" }>{format!("{} ({}) by {} on {} [{}]{}", i.taxon_name, i.taxon_rank.clone().unwrap_or_else(|| "rank not given".into()),
@@ -363,4 +366,70 @@ pub fn PeopleScreen() -> impl IntoView {
             <a href="#review">"← Review"</a>
         </section>
     }
+}
+
+/// Other reports that may be the same animal, beside this one: photos, distance, time
+/// gap, lengths and the reasons; and the decision — same animal (merge), different
+/// animals, or undo a merge.
+#[component]
+fn DuplicatesOf(detail: ReviewDetail, reloads: RwSignal<u32>, problem: RwSignal<String>) -> impl IntoView {
+    let reload = move || reloads.update(|n| *n = n.wrapping_add(1));
+    if detail.duplicates.is_empty() {
+        return view! { <p class="hint">"No other report looks like the same animal."</p> }.into_any();
+    }
+    let this_id = detail.record.submission.client_id.to_string();
+    let length_of = |r: &shared_types::RecordView| r.submission.length.map(|l| format!("{:.0} cm {}", l.value.centimetres(), l.kind.label())).unwrap_or_else(|| "no length".into());
+    let here_length = length_of(&detail.record);
+    let items = detail.duplicates.into_iter().map(|dup| {
+        let other_id = dup.other.submission.client_id.to_string();
+        let photos = dup.other.photos.iter().map(|p| view! { <img class="review-photo small" src=format!("/photos/{}", p.sha256) alt="photo of the other report" /> }).collect_view();
+        let decide = {
+            let (this_id, other_id) = (this_id.clone(), other_id.clone());
+            move |same: bool| {
+                let (this_id, other_id) = (this_id.clone(), other_id.clone());
+                leptos::task::spawn_local(async move {
+                    let body = serde_json::json!({ "same_animal": same }).to_string();
+                    match call("POST", &format!("/api/review/records/{this_id}/duplicates/{other_id}"), Some(body)).await {
+                        Ok(_) => reload(),
+                        Err(err) => problem.set(err),
+                    }
+                });
+            }
+        };
+        let undo = dup.merge_id.map(|merge| {
+            move |_| {
+                leptos::task::spawn_local(async move {
+                    match call("POST", &format!("/api/review/merges/{merge}/undo"), None).await {
+                        Ok(_) => reload(),
+                        Err(err) => problem.set(err),
+                    }
+                });
+            }
+        });
+        let same = decide.clone();
+        let apart = decide;
+        let undecided = dup.decision.is_none();
+        view! {
+            <li class="duplicate" data-other=other_id>
+                <p><b>{format!("score {:.2}", dup.score)}</b>{format!(" · {} · {:.1} h apart · {} here, {} there",
+                    dup.distance_m.map(|d| format!("{d:.0} m apart")).unwrap_or_else(|| "distance unknown".into()), dup.gap_hours, here_length, length_of(&dup.other))}</p>
+                <p>{format!("{} on {} · {}", dup.other.submission.species_guess.as_ref().map(|g| g.as_str().to_owned()).unwrap_or_else(|| "unnamed".into()),
+                    dup.other.submission.observed_at.format("%Y-%m-%d %H:%M"), dup.other.review_state.label())}</p>
+                <div class="photos">{photos}</div>
+                <ul class="reasons">{dup.reasons.iter().map(|r| view! { <li>{r.clone()}</li> }).collect_view()}</ul>
+                {dup.decision.clone().map(|d| view! { <p class="decision">{format!("Decided: {d}")}</p> })}
+                {undecided.then(|| view! {
+                    <div class="actions">
+                        <button type="button" class="same-animal" on:click=move |_| same(true)>"Same animal"</button>
+                        <button type="button" class="different-animals" on:click=move |_| apart(false)>"Different animals"</button>
+                    </div>
+                })}
+                {undo.map(|undo| view! { <button type="button" class="undo-merge small" on:click=undo>"Undo the merge"</button> })}
+            </li>
+        }
+    }).collect_view();
+    view! {
+        <h4>"Possibly the same animal"</h4>
+        <ul class="duplicates">{items}</ul>
+    }.into_any()
 }

@@ -113,3 +113,51 @@ test('an admin adds a reviewer on the people screen, who can then sign in; a rev
     server.stop();
   }
 });
+
+// Sends a record straight to the API, as a phone would.
+async function send(server, record) {
+  const form = new FormData();
+  form.append('record', JSON.stringify(record));
+  const response = await fetch(`${server.url}/api/observations`, { method: 'POST', body: form });
+  assert.equal(response.status, 200, await response.text());
+}
+
+function carcass(clientId, day, north) {
+  return {
+    client_id: clientId, observed_at: `2025-06-0${1 + day}T09:00:00+01:00`,
+    position: { latitude: 52.489 + north / 111300, longitude: -4.053, accuracy_m: 10, source: 'device' },
+    species_guess: 'thornback ray', length: { kind: 'disc_width', value: 50, unit: 'cm', method: 'measured' },
+    sex: 'unknown', count: 1, condition: day === 0 ? 'fresh_dead' : 'decomposed', setting: 'beach_stranding',
+    human_signs: [], notes: null, observer_name: `Walker ${day + 1}`,
+  };
+}
+
+test('a reviewer sees two reports of one carcass side by side, merges them, and undoes it', async () => {
+  const server = await startServer();
+  const desk = await browser.newContext({ viewport: { width: 1100, height: 900 } });
+  try {
+    await send(server, carcass('e0000000-0000-4000-8000-000000000001', 0, 0));
+    await send(server, carcass('e0000000-0000-4000-8000-000000000002', 1, 300));
+    const page = await desk.newPage();
+    await page.goto(`${server.url}/#review`);
+    await page.fill('#username', REVIEWER.username);
+    await page.fill('#password', REVIEWER.password);
+    await page.click('#sign-in button[type=submit]');
+    await page.waitForSelector('.queue-item');
+    assert.match(await page.textContent('#queue'), /possibly the same animal/);
+    await page.click('.queue-item[data-client-id="e0000000-0000-4000-8000-000000000002"] button.link');
+    await page.waitForSelector('.duplicate');
+    assert.match(await page.textContent('.duplicate'), /300 m apart · 24\.0 h apart/);
+    await page.click('.duplicate .same-animal');
+    await page.waitForSelector('#record-review[data-state="merged"]');
+    await page.waitForSelector('.undo-merge');
+    const csv = await (await fetch(`${server.url}/api/export?format=csv`)).text();
+    assert.equal(csv.trim().split('\n').length, 2, 'the export counts the animal once');
+    await page.click('.undo-merge');
+    await page.waitForSelector('#record-review[data-state="awaiting_review"]');
+    assert.match(await page.textContent('.duplicate'), /Decided: different animals/);
+  } finally {
+    await desk.close();
+    server.stop();
+  }
+});
