@@ -11,10 +11,10 @@ use super::StoreError;
 /// Every migration, in the order it must run.
 const MIGRATIONS: &[(&str, &str)] = &[
     ("0001_initial", include_str!("../../../migrations/0001_initial.sql")),
-    ("0004_observation_flags", include_str!("../../../migrations/0004_observation_flags.sql")),
-    ("0005_walk_details", include_str!("../../../migrations/0005_walk_details.sql")),
-    ("0006_people_and_review", include_str!("../../../migrations/0006_people_and_review.sql")),
-    ("0007_duplicates", include_str!("../../../migrations/0007_duplicates.sql")),
+    ("0005_observation_flags", include_str!("../../../migrations/0005_observation_flags.sql")),
+    ("0006_walk_details", include_str!("../../../migrations/0006_walk_details.sql")),
+    ("0007_people_and_review", include_str!("../../../migrations/0007_people_and_review.sql")),
+    ("0008_duplicates", include_str!("../../../migrations/0008_duplicates.sql")),
 ];
 
 pub(super) fn apply(conn: &mut Connection) -> Result<(), StoreError> {
