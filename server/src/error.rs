@@ -26,6 +26,9 @@ pub enum ApiError {
     TooLarge(String),
     #[error("{0}")]
     UnsupportedMedia(String),
+    /// Well-formed request, content that cannot be used (a photo whose pixels do not decode).
+    #[error("{0}")]
+    Unprocessable(String),
     #[error(transparent)]
     Internal(#[from] anyhow::Error),
 }
@@ -46,6 +49,7 @@ impl ApiError {
             Self::NotFound(_) => StatusCode::NOT_FOUND,
             Self::TooLarge(_) => StatusCode::PAYLOAD_TOO_LARGE,
             Self::UnsupportedMedia(_) => StatusCode::UNSUPPORTED_MEDIA_TYPE,
+            Self::Unprocessable(_) => StatusCode::UNPROCESSABLE_ENTITY,
             Self::Internal(_) => StatusCode::INTERNAL_SERVER_ERROR,
         }
     }

@@ -26,7 +26,10 @@ pub fn app(state: AppState) -> Router {
         .route("/api/observations/{client_id}", get(observations::get))
         .route("/api/export", get(export::export))
         .route("/api/{*rest}", get(api_not_found).post(api_not_found))
-        .route("/photos/{sha256}", get(photos::get));
+        .route("/photos/{sha256}", get(photos::display))
+        .route("/photos/{sha256}/thumb", get(photos::thumb))
+        // Reviewers only (the original carries GPS): see handlers/photos.rs.
+        .route("/photos/{sha256}/original", get(photos::original));
     let router = match &state.app_dir {
         Some(dir) => api.fallback_service(app_files(dir)),
         None => api,

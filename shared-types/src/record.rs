@@ -320,13 +320,26 @@ pub struct PhotoExif {
     pub orientation: Option<u16>,
 }
 
-/// A stored photo as listed with its record.
+/// A stored photo as listed with its record. `/photos/{sha256}` is its display copy,
+/// `/photos/{sha256}/thumb` its thumbnail (neither carries EXIF), and
+/// `/photos/{sha256}/original` the file as received (reviewers only).
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 pub struct PhotoView {
-    /// SHA-256 of the file, hex; also its address under `/photos/`.
+    /// SHA-256 of the original file, hex.
     pub sha256: String,
+    /// Media type of the original.
     pub media_type: String,
     pub byte_len: u64,
+    /// Pixel size of the original as stored (before orientation); absent for photos
+    /// stored before sizes were kept.
+    #[serde(default)]
+    pub width: Option<u32>,
+    #[serde(default)]
+    pub height: Option<u32>,
+    /// 64-bit DCT perceptual hash of the upright image, 16 hex digits: near-duplicates
+    /// differ in few bits.
+    #[serde(default)]
+    pub phash: Option<String>,
     pub exif: PhotoExif,
 }
 

@@ -3,6 +3,7 @@
 //! so a retry rewrites nothing) before the one database transaction that links them.
 
 pub mod exif;
+pub mod images;
 pub mod photos;
 
 use chrono::{DateTime, Utc};
@@ -11,7 +12,8 @@ use shared_types::{Receipt, Submission};
 
 use crate::AppState;
 use crate::store::observations::{self, Insertion, NewObservation, StoredPhoto};
-use photos::{MAX_PHOTO_BYTES, MAX_PHOTOS_PER_RECORD, PhotoFormat};
+use images::ImageProblem;
+use photos::{MAX_PHOTO_BYTES, MAX_PHOTOS_PER_RECORD, PhotoFormat, Rendition};
 
 /// The raw parts of one submission.
 #[derive(Debug, Default)]
@@ -27,14 +29,27 @@ pub enum IntakeError {
     NotJson(String),
     #[error("{field}: {message}")]
     Field { field: String, message: String },
-    #[error("photo {number}: {message}")]
-    Photo { number: usize, message: String },
+    #[error("photo {number}: {problem}")]
+    Photo { number: usize, problem: PhotoProblem },
     #[error("a record may carry at most {MAX_PHOTOS_PER_RECORD} photos, this one has {0}")]
     TooManyPhotos(usize),
     #[error("record {0} was already received with different content; a changed record needs a new id")]
     Conflict(uuid::Uuid),
     #[error(transparent)]
     Storage(#[from] anyhow::Error),
+}
+
+/// What is wrong with one photo. Each is found before anything is stored.
+#[derive(Debug, Clone, PartialEq, thiserror::Error)]
+pub enum PhotoProblem {
+    #[error("the file is empty")]
+    Empty,
+    #[error("{0} bytes is over the limit of {MAX_PHOTO_BYTES} bytes")]
+    TooManyBytes(usize),
+    #[error("not a JPEG or PNG image (checked by its first bytes); send the photo as JPEG")]
+    NotAnImage,
+    #[error("{0}")]
+    Image(#[from] ImageProblem),
 }
 
 /// The result of a successful intake.
@@ -98,41 +113,59 @@ pub async fn accept(state: &AppState, upload: Upload, now: DateTime<Utc>) -> Res
     }
 }
 
+/// Checks and decodes every photo first, so a bad one refuses the record before any
+/// file is written; then writes each original and its derivatives durably.
 fn store_photo_files(
     files: &photos::PhotoFiles,
     photos: Vec<Vec<u8>>,
     record_offset: chrono::FixedOffset,
 ) -> Result<Vec<StoredPhoto>, IntakeError> {
-    let checked = photos
-        .iter()
-        .enumerate()
-        .map(|(index, bytes)| check_photo(index + 1, bytes))
-        .collect::<Result<Vec<_>, _>>()?;
-    checked
+    let prepared = photos
         .into_iter()
-        .zip(photos)
-        .map(|(format, bytes)| {
-            let sha256 = photos::sha256_hex(&bytes);
-            files.put(&sha256, &bytes)?;
-            Ok(StoredPhoto {
-                media_type: format.media_type().to_owned(),
-                byte_len: bytes.len() as u64,
-                exif: exif::resolve_time(exif::read(&bytes), record_offset),
-                sha256,
-            })
+        .enumerate()
+        .map(|(index, bytes)| prepare_photo(bytes, record_offset).map_err(|problem| IntakeError::Photo { number: index + 1, problem }))
+        .collect::<Result<Vec<_>, _>>()?;
+    prepared
+        .into_iter()
+        .map(|(bytes, derived, stored)| {
+            files.put(&stored.sha256, Rendition::Original, &bytes)?;
+            files.put(&stored.sha256, Rendition::Display, &derived.display_jpeg)?;
+            files.put(&stored.sha256, Rendition::Thumb, &derived.thumb_jpeg)?;
+            Ok(stored)
         })
         .collect()
 }
 
-fn check_photo(number: usize, bytes: &[u8]) -> Result<PhotoFormat, IntakeError> {
-    let refuse = |message: String| IntakeError::Photo { number, message };
+/// Everything intake learns from one photo's bytes, without storing anything.
+fn prepare_photo(
+    bytes: Vec<u8>,
+    record_offset: chrono::FixedOffset,
+) -> Result<(Vec<u8>, images::Derivatives, StoredPhoto), PhotoProblem> {
+    let format = check_photo(&bytes)?;
+    let exif = exif::resolve_time(exif::read(&bytes), record_offset);
+    let derived = images::derive(&bytes, format, exif.orientation)?;
+    let stored = StoredPhoto {
+        sha256: photos::sha256_hex(&bytes),
+        media_type: format.media_type().to_owned(),
+        byte_len: bytes.len() as u64,
+        width: derived.width,
+        height: derived.height,
+        phash: derived.phash.clone(),
+        exif,
+    };
+    Ok((bytes, derived, stored))
+}
+
+/// The checks made before any decoding: not empty, not too many bytes, a known format
+/// by its magic bytes. The pixel-dimension check follows in `images::decode`.
+pub fn check_photo(bytes: &[u8]) -> Result<PhotoFormat, PhotoProblem> {
     if bytes.is_empty() {
-        return Err(refuse("the file is empty".into()));
+        return Err(PhotoProblem::Empty);
     }
     if bytes.len() > MAX_PHOTO_BYTES {
-        return Err(refuse(format!("{} bytes is over the limit of {MAX_PHOTO_BYTES} bytes", bytes.len())));
+        return Err(PhotoProblem::TooManyBytes(bytes.len()));
     }
-    PhotoFormat::sniff(bytes).ok_or_else(|| refuse("not a JPEG or PNG image (checked by its first bytes)".into()))
+    PhotoFormat::sniff(bytes).ok_or(PhotoProblem::NotAnImage)
 }
 
 /// The fingerprint of a submission's content: its canonical JSON and its photos'

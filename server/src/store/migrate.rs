@@ -9,10 +9,10 @@ use rusqlite::Connection;
 use super::StoreError;
 
 /// Every migration, in the order it must run.
-const MIGRATIONS: &[(&str, &str)] = &[(
-    "0001_initial",
-    include_str!("../../../migrations/0001_initial.sql"),
-)];
+const MIGRATIONS: &[(&str, &str)] = &[
+    ("0001_initial", include_str!("../../../migrations/0001_initial.sql")),
+    ("0002_photo_derivatives", include_str!("../../../migrations/0002_photo_derivatives.sql")),
+];
 
 pub(super) fn apply(conn: &mut Connection) -> Result<(), StoreError> {
     let applied: usize = conn.query_row("PRAGMA user_version", [], |row| row.get::<_, i64>(0))? as usize;

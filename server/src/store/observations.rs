@@ -14,6 +14,11 @@ pub struct StoredPhoto {
     pub sha256: String,
     pub media_type: String,
     pub byte_len: u64,
+    /// Pixel size as stored (before orientation).
+    pub width: u32,
+    pub height: u32,
+    /// See `intake::images::perceptual_hash`.
+    pub phash: String,
     pub exif: PhotoExif,
 }
 
@@ -137,11 +142,12 @@ fn link_photo(tx: &Transaction, observation_id: i64, position: usize, photo: &St
     // The same file may already be stored for another record: keep the first row.
     tx.execute(
         "INSERT OR IGNORE INTO photos (sha256, media_type, byte_len, exif_taken_local, exif_offset, exif_latitude,
-            exif_longitude, exif_altitude_m, exif_h_error_m, exif_orientation, stored_at)
-         VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11)",
+            exif_longitude, exif_altitude_m, exif_h_error_m, exif_orientation, stored_at, width, height, phash)
+         VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, ?12, ?13, ?14)",
         params![
             photo.sha256, photo.media_type, photo.byte_len as i64, exif.taken_local, exif.offset, exif.latitude,
-            exif.longitude, exif.altitude_m, exif.horizontal_error_m, exif.orientation, received_at
+            exif.longitude, exif.altitude_m, exif.horizontal_error_m, exif.orientation, received_at, photo.width,
+            photo.height, photo.phash
         ],
     )?;
     tx.execute(
@@ -184,9 +190,23 @@ pub fn count_observations(conn: &Connection) -> Result<i64, StoreError> {
     Ok(conn.query_row("SELECT COUNT(*) FROM observations", [], |row| row.get(0))?)
 }
 
-/// The media type of a stored photo, if the hash is known.
-pub fn photo_media_type(conn: &Connection, sha256: &str) -> Result<Option<String>, StoreError> {
-    Ok(conn.query_row("SELECT media_type FROM photos WHERE sha256 = ?1", [sha256], |row| row.get(0)).optional()?)
+/// The media type and EXIF Orientation of a stored photo, if the hash is known.
+pub fn photo_file_facts(conn: &Connection, sha256: &str) -> Result<Option<(String, Option<u16>)>, StoreError> {
+    Ok(conn
+        .query_row("SELECT media_type, exif_orientation FROM photos WHERE sha256 = ?1", [sha256], |row| {
+            Ok((row.get(0)?, row.get(1)?))
+        })
+        .optional()?)
+}
+
+/// Records the size and perceptual hash of a photo whose derivatives were made again
+/// (photos stored before migration 0002 have none).
+pub fn set_photo_pixels(conn: &Connection, sha256: &str, width: u32, height: u32, phash: &str) -> Result<(), StoreError> {
+    conn.execute(
+        "UPDATE photos SET width = ?2, height = ?3, phash = ?4 WHERE sha256 = ?1 AND phash IS NULL",
+        params![sha256, width, height, phash],
+    )?;
+    Ok(())
 }
 
 type RecordRow = (i64, i64, String, String, String);
@@ -212,7 +232,8 @@ fn finish_record(conn: &Connection, (id, organism_id, received_at, state, json):
 fn photos_of(conn: &Connection, observation_id: i64) -> Result<Vec<PhotoView>, StoreError> {
     let mut stmt = conn.prepare(
         "SELECT p.sha256, p.media_type, p.byte_len, p.exif_taken_local, p.exif_offset, p.exif_latitude, p.exif_longitude,
-                p.exif_altitude_m, p.exif_h_error_m, p.exif_orientation, op.exif_taken_at, op.offset_source
+                p.exif_altitude_m, p.exif_h_error_m, p.exif_orientation, op.exif_taken_at, op.offset_source,
+                p.width, p.height, p.phash
          FROM observation_photos op JOIN photos p ON p.sha256 = op.photo_sha256
          WHERE op.observation_id = ?1 ORDER BY op.position",
     )?;
@@ -223,6 +244,9 @@ fn photos_of(conn: &Connection, observation_id: i64) -> Result<Vec<PhotoView>, S
             sha256: row.get(0)?,
             media_type: row.get(1)?,
             byte_len: row.get::<_, i64>(2)? as u64,
+            width: row.get(12)?,
+            height: row.get(13)?,
+            phash: row.get(14)?,
             exif: PhotoExif {
                 taken_local: row.get(3)?,
                 offset: row.get(4)?,

@@ -2,7 +2,9 @@
 //! in a temporary folder, real HTTP, real JPEGs. One test binary, one module per area.
 
 mod cli;
+mod derivatives;
 mod exif;
 mod helpers;
+mod hostile;
 mod routes;
 mod submissions;
