@@ -25,6 +25,7 @@ pub fn app(state: AppState) -> Router {
         )
         .route("/api/observations/{client_id}", get(observations::get))
         .route("/api/export", get(export::export))
+        .route("/api/photos/{sha256}/similar", get(photos::similar))
         .route("/api/{*rest}", get(api_not_found).post(api_not_found))
         .route("/photos/{sha256}", get(photos::display))
         .route("/photos/{sha256}/thumb", get(photos::thumb))

@@ -343,6 +343,16 @@ pub struct PhotoView {
     pub exif: PhotoExif,
 }
 
+/// A stored photo that looks like another (perceptual hashes close), for duplicate review.
+#[derive(Debug, Clone, PartialEq, Eq, Serialize, Deserialize)]
+pub struct SimilarPhoto {
+    pub sha256: String,
+    /// Differing bits between the two 64-bit perceptual hashes (0 = alike).
+    pub distance_bits: u32,
+    /// Observations that carry this photo.
+    pub observation_ids: Vec<i64>,
+}
+
 /// A stored observation as the server shows it.
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 pub struct RecordView {

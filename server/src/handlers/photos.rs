@@ -2,7 +2,8 @@
 //!
 //! - `GET /photos/{sha256}` — the display copy (long edge ≤ 1280 px, upright, JPEG, no EXIF);
 //! - `GET /photos/{sha256}/thumb` — the thumbnail (long edge ≤ 320 px, the same);
-//! - `GET /photos/{sha256}/original` — the file exactly as received, EXIF and GPS included.
+//! - `GET /photos/{sha256}/original` — the file exactly as received, EXIF and GPS included;
+//! - `GET /api/photos/{sha256}/similar` — other stored photos whose perceptual hash is near.
 //!
 //! REVIEWERS ONLY: the original carries the observer's exact position and camera
 //! details. Roles and sign-in arrive with the review-queue issue; until then this route
@@ -12,6 +13,7 @@
 //! Derivatives are made at intake. A photo stored before they existed (or whose
 //! derivative file went missing) gets them made again from the original on first request.
 
+use axum::Json;
 use axum::body::Body;
 use axum::extract::{Path, State};
 use axum::http::header;
@@ -22,6 +24,7 @@ use crate::error::ApiError;
 use crate::intake::images;
 use crate::intake::photos::{PhotoFormat, Rendition};
 use crate::store::observations;
+use shared_types::SimilarPhoto;
 
 /// `GET /photos/{sha256}`: the display copy.
 pub async fn display(state: State<AppState>, sha256: Path<String>) -> Result<Response, ApiError> {
@@ -36,6 +39,17 @@ pub async fn thumb(state: State<AppState>, sha256: Path<String>) -> Result<Respo
 /// `GET /photos/{sha256}/original`: the original, for reviewers only (see the module note).
 pub async fn original(state: State<AppState>, sha256: Path<String>) -> Result<Response, ApiError> {
     serve(state, sha256, Rendition::Original).await
+}
+
+/// `GET /api/photos/{sha256}/similar`: near duplicates by perceptual hash, nearest first.
+pub async fn similar(State(state): State<AppState>, Path(sha256): Path<String>) -> Result<Json<Vec<SimilarPhoto>>, ApiError> {
+    let key = sha256.clone();
+    state
+        .store
+        .run(move |conn| observations::similar_photos(conn, &key, images::NEAR_DUPLICATE_BITS))
+        .await?
+        .map(Json)
+        .ok_or_else(|| ApiError::NotFound(format!("no photo {sha256} with a perceptual hash")))
 }
 
 async fn serve(State(state): State<AppState>, Path(sha256): Path<String>, rendition: Rendition) -> Result<Response, ApiError> {

@@ -109,7 +109,9 @@ pub fn orientation_of(value: Option<u16>) -> Orientation {
 }
 
 /// The 64-bit DCT perceptual hash ("pHash": 32 × 32 greyscale, 2-D DCT, the 8 × 8
-/// lowest frequencies compared with their mean), as 16 hex digits.
+/// lowest frequencies compared with their median, as image_hasher 3.1 documents
+/// "Median + DCT" to be the basis of pHash), as 16 hex digits. The median (not the
+/// mean, which the DC term drags up) makes about half the bits ones on any picture.
 ///
 /// Chosen over a difference hash because it survives what happens to a photo passed
 /// around — re-encoding, resizing, mild brightness or contrast changes — with fewer
@@ -118,9 +120,15 @@ pub fn orientation_of(value: Option<u16>) -> Orientation {
 /// and without an Orientation tag hashes alike. Rotated or cropped copies are not near:
 /// that is for a reviewer's eye.
 pub fn perceptual_hash(image: &DynamicImage) -> String {
-    let hasher = HasherConfig::new().hash_size(8, 8).hash_alg(HashAlg::Mean).preproc_dct().to_hasher();
+    let hasher = HasherConfig::new().hash_size(8, 8).hash_alg(HashAlg::Median).preproc_dct().to_hasher();
     hex::encode(hasher.hash_image(image).as_bytes())
 }
+
+/// Hashes at most this many bits apart are listed as near duplicates. For a 64-bit
+/// pHash, 10 or fewer differing bits is the usual "same picture" cut (from memory,
+/// common practice); the test in `tests/it/similar.rs` shows a half-size re-encoded copy
+/// well inside it and other photos well outside.
+pub const NEAR_DUPLICATE_BITS: u32 = 10;
 
 /// Bits that differ between two hashes from [`perceptual_hash`]; `None` if either is
 /// not 16 hex digits.

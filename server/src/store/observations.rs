@@ -3,10 +3,11 @@
 
 use chrono::{DateTime, Utc};
 use rusqlite::{Connection, OptionalExtension, Transaction, params};
-use shared_types::{OffsetSource, PhotoExif, PhotoView, Receipt, RecordView, ReviewState, Submission};
+use shared_types::{OffsetSource, PhotoExif, PhotoView, Receipt, RecordView, ReviewState, SimilarPhoto, Submission};
 use uuid::Uuid;
 
 use super::StoreError;
+use crate::intake::images::hash_distance;
 
 /// A photo whose file is already durably on disk, ready to be linked to a record.
 #[derive(Debug, Clone)]
@@ -279,4 +280,31 @@ fn parse_utc(text: &str) -> Result<DateTime<Utc>, StoreError> {
     DateTime::parse_from_rfc3339(text)
         .map(|t| t.with_timezone(&Utc))
         .map_err(|err| StoreError::Corrupt(format!("timestamp {text}: {err}")))
+}
+
+/// Stored photos whose perceptual hash is within `max_bits` of this photo's, nearest
+/// first, with the observations each belongs to. A linear scan: fine for the tens of
+/// thousands of photos a regional network gathers; an index (BK-tree) can come later.
+pub fn similar_photos(conn: &Connection, sha256: &str, max_bits: u32) -> Result<Option<Vec<SimilarPhoto>>, StoreError> {
+    let Some(Some(own)) = conn
+        .query_row("SELECT phash FROM photos WHERE sha256 = ?1", [sha256], |row| row.get::<_, Option<String>>(0))
+        .optional()?
+    else {
+        return Ok(None);
+    };
+    let mut stmt = conn.prepare(
+        "SELECT p.sha256, p.phash, group_concat(op.observation_id) FROM photos p
+         LEFT JOIN observation_photos op ON op.photo_sha256 = p.sha256
+         WHERE p.phash IS NOT NULL AND p.sha256 <> ?1 GROUP BY p.sha256",
+    )?;
+    let rows = stmt.query_map([sha256], |row| Ok((row.get::<_, String>(0)?, row.get::<_, String>(1)?, row.get::<_, Option<String>>(2)?)))?;
+    let mut near = Vec::new();
+    for row in rows {
+        let (other, phash, observations) = row?;
+        let Some(distance_bits) = hash_distance(&own, &phash).filter(|d| *d <= max_bits) else { continue };
+        let observation_ids = observations.unwrap_or_default().split(',').filter_map(|id| id.parse().ok()).collect();
+        near.push(SimilarPhoto { sha256: other, distance_bits, observation_ids });
+    }
+    near.sort_by(|a, b| a.distance_bits.cmp(&b.distance_bits).then_with(|| a.sha256.cmp(&b.sha256)));
+    Ok(Some(near))
 }

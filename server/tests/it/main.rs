@@ -7,4 +7,5 @@ mod exif;
 mod helpers;
 mod hostile;
 mod routes;
+mod similar;
 mod submissions;
