@@ -320,6 +320,36 @@ pub struct PhotoExif {
     pub orientation: Option<u16>,
 }
 
+/// A question the server raises about a photo, for the reviewer.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, PartialOrd, Ord, Serialize, Deserialize)]
+#[serde(rename_all = "snake_case")]
+pub enum PhotoFlag {
+    /// The photo's EXIF time is long before the record's time: an old photo reused?
+    TakenLongBeforeRecord,
+    /// The photo's EXIF position is far from the record's: a photo from elsewhere?
+    TakenFarFromRecord,
+}
+
+impl PhotoFlag {
+    pub fn label(self) -> &'static str {
+        match self {
+            Self::TakenLongBeforeRecord => "photo taken long before the record",
+            Self::TakenFarFromRecord => "photo taken far from the record's place",
+        }
+    }
+}
+
+/// A photo compared with the record it came with (the same photo in two records is
+/// compared with each).
+#[derive(Debug, Clone, Default, PartialEq, Serialize, Deserialize)]
+pub struct PhotoCheck {
+    /// Record time minus the photo's EXIF time, seconds (negative: photo after record).
+    pub seconds_before_record: Option<f64>,
+    /// Geodesic distance (WGS84) from the record's position to the photo's, metres.
+    pub metres_from_record: Option<f64>,
+    pub flags: Vec<PhotoFlag>,
+}
+
 /// A stored photo as listed with its record. `/photos/{sha256}` is its display copy,
 /// `/photos/{sha256}/thumb` its thumbnail (neither carries EXIF), and
 /// `/photos/{sha256}/original` the file as received (reviewers only).
@@ -341,6 +371,9 @@ pub struct PhotoView {
     #[serde(default)]
     pub phash: Option<String>,
     pub exif: PhotoExif,
+    /// The photo's EXIF against this record's time and place; absent before migration 0003.
+    #[serde(default)]
+    pub check: PhotoCheck,
 }
 
 /// A stored photo that looks like another (perceptual hashes close), for duplicate review.

@@ -3,6 +3,7 @@
 //! so a retry rewrites nothing) before the one database transaction that links them.
 
 pub mod exif;
+pub mod flags;
 pub mod images;
 pub mod photos;
 
@@ -100,9 +101,12 @@ pub async fn accept(state: &AppState, upload: Upload, now: DateTime<Utc>) -> Res
     let record_offset = *submission.observed_at.offset();
     let photo_files = state.photos.clone();
     // Hashing, EXIF and file writes are blocking work.
-    let stored = tokio::task::spawn_blocking(move || store_photo_files(&photo_files, upload.photos, record_offset))
+    let mut stored = tokio::task::spawn_blocking(move || store_photo_files(&photo_files, upload.photos, record_offset))
         .await
         .map_err(|err| anyhow::anyhow!("photo task failed: {err}"))??;
+    for photo in &mut stored {
+        photo.check = flags::compare(&submission, &photo.exif);
+    }
     let new = NewObservation { content_sha256: content_hash(&submission, &stored), submission, photos: stored };
     let client_id = new.submission.client_id;
     let outcome = state.store.run(move |conn| observations::insert_observation(conn, &new, now)).await.map_err(anyhow::Error::from)?;
@@ -152,6 +156,7 @@ fn prepare_photo(
         height: derived.height,
         phash: derived.phash.clone(),
         exif,
+        check: shared_types::PhotoCheck::default(),
     };
     Ok((bytes, derived, stored))
 }

@@ -12,6 +12,7 @@ use super::StoreError;
 const MIGRATIONS: &[(&str, &str)] = &[
     ("0001_initial", include_str!("../../../migrations/0001_initial.sql")),
     ("0002_photo_derivatives", include_str!("../../../migrations/0002_photo_derivatives.sql")),
+    ("0003_photo_flags", include_str!("../../../migrations/0003_photo_flags.sql")),
 ];
 
 pub(super) fn apply(conn: &mut Connection) -> Result<(), StoreError> {

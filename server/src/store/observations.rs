@@ -3,7 +3,7 @@
 
 use chrono::{DateTime, Utc};
 use rusqlite::{Connection, OptionalExtension, Transaction, params};
-use shared_types::{OffsetSource, PhotoExif, PhotoView, Receipt, RecordView, ReviewState, SimilarPhoto, Submission};
+use shared_types::{OffsetSource, PhotoCheck, PhotoExif, PhotoFlag, PhotoView, Receipt, RecordView, ReviewState, SimilarPhoto, Submission};
 use uuid::Uuid;
 
 use super::StoreError;
@@ -21,6 +21,8 @@ pub struct StoredPhoto {
     /// See `intake::images::perceptual_hash`.
     pub phash: String,
     pub exif: PhotoExif,
+    /// The photo against this record (see `intake::flags`).
+    pub check: PhotoCheck,
 }
 
 /// Everything intake has checked and is ready to store.
@@ -152,16 +154,25 @@ fn link_photo(tx: &Transaction, observation_id: i64, position: usize, photo: &St
         ],
     )?;
     tx.execute(
-        "INSERT OR IGNORE INTO observation_photos (observation_id, photo_sha256, position, exif_taken_at, offset_source)
-         VALUES (?1, ?2, ?3, ?4, ?5)",
+        "INSERT OR IGNORE INTO observation_photos (observation_id, photo_sha256, position, exif_taken_at, offset_source,
+            seconds_before_record, metres_from_record)
+         VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7)",
         params![
             observation_id,
             photo.sha256,
             position as i64,
             exif.taken_at.map(|t| t.to_rfc3339()),
-            exif.offset_source.as_ref().map(code)
+            exif.offset_source.as_ref().map(code),
+            photo.check.seconds_before_record,
+            photo.check.metres_from_record,
         ],
     )?;
+    for flag in &photo.check.flags {
+        tx.execute(
+            "INSERT OR IGNORE INTO photo_flags (observation_id, photo_sha256, flag) VALUES (?1, ?2, ?3)",
+            params![observation_id, photo.sha256, code(flag)],
+        )?;
+    }
     Ok(())
 }
 
@@ -234,7 +245,9 @@ fn photos_of(conn: &Connection, observation_id: i64) -> Result<Vec<PhotoView>, S
     let mut stmt = conn.prepare(
         "SELECT p.sha256, p.media_type, p.byte_len, p.exif_taken_local, p.exif_offset, p.exif_latitude, p.exif_longitude,
                 p.exif_altitude_m, p.exif_h_error_m, p.exif_orientation, op.exif_taken_at, op.offset_source,
-                p.width, p.height, p.phash
+                p.width, p.height, p.phash, op.seconds_before_record, op.metres_from_record,
+                (SELECT group_concat(f.flag) FROM photo_flags f
+                 WHERE f.observation_id = op.observation_id AND f.photo_sha256 = op.photo_sha256)
          FROM observation_photos op JOIN photos p ON p.sha256 = op.photo_sha256
          WHERE op.observation_id = ?1 ORDER BY op.position",
     )?;
@@ -248,6 +261,11 @@ fn photos_of(conn: &Connection, observation_id: i64) -> Result<Vec<PhotoView>, S
             width: row.get(12)?,
             height: row.get(13)?,
             phash: row.get(14)?,
+            check: PhotoCheck {
+                seconds_before_record: row.get(15)?,
+                metres_from_record: row.get(16)?,
+                flags: flags_from(row.get::<_, Option<String>>(17)?),
+            },
             exif: PhotoExif {
                 taken_local: row.get(3)?,
                 offset: row.get(4)?,
@@ -262,6 +280,13 @@ fn photos_of(conn: &Connection, observation_id: i64) -> Result<Vec<PhotoView>, S
         })
     })?;
     Ok(rows.collect::<Result<Vec<_>, _>>()?)
+}
+
+/// Flags stored as codes, comma-joined by the query; unknown codes are skipped.
+fn flags_from(joined: Option<String>) -> Vec<PhotoFlag> {
+    let mut flags: Vec<PhotoFlag> = joined.unwrap_or_default().split(',').filter_map(from_code).collect();
+    flags.sort();
+    flags
 }
 
 /// The snake_case name serde gives a plain enum, used as its stored code.

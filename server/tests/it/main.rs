@@ -4,6 +4,7 @@
 mod cli;
 mod derivatives;
 mod exif;
+mod flags;
 mod helpers;
 mod hostile;
 mod routes;
