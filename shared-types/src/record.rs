@@ -19,6 +19,8 @@ pub enum PositionSource {
     Device,
     /// Typed by the observer.
     Typed,
+    /// The first photo's EXIF GPS, filled in because the device had no fix.
+    Photo,
 }
 
 /// A point on the WGS84 ellipsoid with its horizontal uncertainty.
@@ -212,6 +214,11 @@ pub struct Submission {
     pub notes: Option<Text>,
     /// The name the observer chose to be credited with; may be empty.
     pub observer_name: Option<Text>,
+    /// What the phone read from each original photo's EXIF, in photo order, before it
+    /// made the upload copy (which carries no EXIF). Empty from phones that did not read
+    /// it; left out of the JSON when empty, so older records hash as before.
+    #[serde(default, skip_serializing_if = "Vec::is_empty")]
+    pub photo_exif: Vec<PhotoExif>,
 }
 
 /// Refusals of a submission that are about the whole record rather than one value.
@@ -339,10 +346,23 @@ impl PhotoFlag {
     }
 }
 
+/// Who read the EXIF facts a comparison used.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(rename_all = "snake_case")]
+pub enum ExifReading {
+    /// The server, from the file it received.
+    ReceivedFile,
+    /// The phone, from the original before it made the upload copy.
+    Phone,
+}
+
 /// A photo compared with the record it came with (the same photo in two records is
 /// compared with each).
 #[derive(Debug, Clone, Default, PartialEq, Serialize, Deserialize)]
 pub struct PhotoCheck {
+    /// Whose EXIF reading was compared: the server's of the file it received, or (when
+    /// that file had no time or place, as upload copies do) the phone's of the original.
+    pub reading: Option<ExifReading>,
     /// Record time minus the photo's EXIF time, seconds (negative: photo after record).
     pub seconds_before_record: Option<f64>,
     /// Geodesic distance (WGS84) from the record's position to the photo's, metres.
@@ -370,7 +390,12 @@ pub struct PhotoView {
     /// differ in few bits.
     #[serde(default)]
     pub phash: Option<String>,
+    /// The server's reading of the file it received.
     pub exif: PhotoExif,
+    /// The phone's reading of the original, as the phone sent it (with the instant
+    /// resolved by the server), when it sent one.
+    #[serde(default)]
+    pub phone_exif: Option<PhotoExif>,
     /// The photo's EXIF against this record's time and place; absent before migration 0003.
     #[serde(default)]
     pub check: PhotoCheck,

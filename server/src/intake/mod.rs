@@ -2,12 +2,12 @@
 //! names what is wrong. Nothing is half-stored: photo files are written (by content,
 //! so a retry rewrites nothing) before the one database transaction that links them.
 
-pub mod exif;
 pub mod flags;
 pub mod images;
 pub mod photos;
 
 use chrono::{DateTime, Utc};
+pub use shared_types::exif;
 use sha2::{Digest as _, Sha256};
 use shared_types::{Receipt, Submission};
 
@@ -98,14 +98,21 @@ pub async fn accept(state: &AppState, upload: Upload, now: DateTime<Utc>) -> Res
     if upload.photos.len() > MAX_PHOTOS_PER_RECORD {
         return Err(IntakeError::TooManyPhotos(upload.photos.len()));
     }
+    if submission.photo_exif.len() > upload.photos.len() {
+        return Err(IntakeError::Field {
+            field: "photo_exif".into(),
+            message: format!("lists EXIF for {} photos but {} came with the record", submission.photo_exif.len(), upload.photos.len()),
+        });
+    }
     let record_offset = *submission.observed_at.offset();
     let photo_files = state.photos.clone();
     // Hashing, EXIF and file writes are blocking work.
     let mut stored = tokio::task::spawn_blocking(move || store_photo_files(&photo_files, upload.photos, record_offset))
         .await
         .map_err(|err| anyhow::anyhow!("photo task failed: {err}"))??;
-    for photo in &mut stored {
-        photo.check = flags::compare(&submission, &photo.exif);
+    for (index, photo) in stored.iter_mut().enumerate() {
+        photo.phone_exif = submission.photo_exif.get(index).map(|phone| phone_reading(phone, record_offset));
+        photo.check = flags::compare(&submission, &photo.exif, photo.phone_exif.as_ref());
     }
     let new = NewObservation { content_sha256: content_hash(&submission, &stored), submission, photos: stored };
     let client_id = new.submission.client_id;
@@ -156,9 +163,17 @@ fn prepare_photo(
         height: derived.height,
         phash: derived.phash.clone(),
         exif,
+        phone_exif: None,
         check: shared_types::PhotoCheck::default(),
     };
     Ok((bytes, derived, stored))
+}
+
+/// The phone's reading as sent, with the instant worked out here from its local time
+/// and offset (the server decides, with the same rule as for its own reading).
+fn phone_reading(phone: &shared_types::PhotoExif, record_offset: chrono::FixedOffset) -> shared_types::PhotoExif {
+    let sent = shared_types::PhotoExif { taken_at: None, offset_source: None, ..phone.clone() };
+    exif::resolve_time(sent, record_offset)
 }
 
 /// The checks made before any decoding: not empty, not too many bytes, a known format

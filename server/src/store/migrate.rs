@@ -13,6 +13,7 @@ const MIGRATIONS: &[(&str, &str)] = &[
     ("0001_initial", include_str!("../../../migrations/0001_initial.sql")),
     ("0002_photo_derivatives", include_str!("../../../migrations/0002_photo_derivatives.sql")),
     ("0003_photo_flags", include_str!("../../../migrations/0003_photo_flags.sql")),
+    ("0004_phone_exif", include_str!("../../../migrations/0004_phone_exif.sql")),
 ];
 
 pub(super) fn apply(conn: &mut Connection) -> Result<(), StoreError> {

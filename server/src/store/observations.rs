@@ -21,6 +21,8 @@ pub struct StoredPhoto {
     /// See `intake::images::perceptual_hash`.
     pub phash: String,
     pub exif: PhotoExif,
+    /// What the phone read from the original, when it sent that.
+    pub phone_exif: Option<PhotoExif>,
     /// The photo against this record (see `intake::flags`).
     pub check: PhotoCheck,
 }
@@ -142,6 +144,7 @@ fn insert_details(tx: &Transaction, observation_id: i64, sub: &Submission, recei
 
 fn link_photo(tx: &Transaction, observation_id: i64, position: usize, photo: &StoredPhoto, received_at: &str) -> Result<(), StoreError> {
     let exif = &photo.exif;
+    let phone_json = photo.phone_exif.as_ref().map(serde_json::to_string).transpose().map_err(|err| StoreError::Corrupt(err.to_string()))?;
     // The same file may already be stored for another record: keep the first row.
     tx.execute(
         "INSERT OR IGNORE INTO photos (sha256, media_type, byte_len, exif_taken_local, exif_offset, exif_latitude,
@@ -155,8 +158,8 @@ fn link_photo(tx: &Transaction, observation_id: i64, position: usize, photo: &St
     )?;
     tx.execute(
         "INSERT OR IGNORE INTO observation_photos (observation_id, photo_sha256, position, exif_taken_at, offset_source,
-            seconds_before_record, metres_from_record)
-         VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7)",
+            seconds_before_record, metres_from_record, exif_reading, phone_exif_json)
+         VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9)",
         params![
             observation_id,
             photo.sha256,
@@ -165,6 +168,8 @@ fn link_photo(tx: &Transaction, observation_id: i64, position: usize, photo: &St
             exif.offset_source.as_ref().map(code),
             photo.check.seconds_before_record,
             photo.check.metres_from_record,
+            photo.check.reading.as_ref().map(code),
+            phone_json,
         ],
     )?;
     for flag in &photo.check.flags {
@@ -247,7 +252,8 @@ fn photos_of(conn: &Connection, observation_id: i64) -> Result<Vec<PhotoView>, S
                 p.exif_altitude_m, p.exif_h_error_m, p.exif_orientation, op.exif_taken_at, op.offset_source,
                 p.width, p.height, p.phash, op.seconds_before_record, op.metres_from_record,
                 (SELECT group_concat(f.flag) FROM photo_flags f
-                 WHERE f.observation_id = op.observation_id AND f.photo_sha256 = op.photo_sha256)
+                 WHERE f.observation_id = op.observation_id AND f.photo_sha256 = op.photo_sha256),
+                op.exif_reading, op.phone_exif_json
          FROM observation_photos op JOIN photos p ON p.sha256 = op.photo_sha256
          WHERE op.observation_id = ?1 ORDER BY op.position",
     )?;
@@ -261,7 +267,9 @@ fn photos_of(conn: &Connection, observation_id: i64) -> Result<Vec<PhotoView>, S
             width: row.get(12)?,
             height: row.get(13)?,
             phash: row.get(14)?,
+            phone_exif: row.get::<_, Option<String>>(19)?.and_then(|json| serde_json::from_str(&json).ok()),
             check: PhotoCheck {
+                reading: row.get::<_, Option<String>>(18)?.and_then(|c| from_code(&c)),
                 seconds_before_record: row.get(15)?,
                 metres_from_record: row.get(16)?,
                 flags: flags_from(row.get::<_, Option<String>>(17)?),

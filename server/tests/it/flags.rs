@@ -58,3 +58,41 @@ async fn a_photo_without_exif_has_nothing_to_compare() {
     assert!(check["seconds_before_record"].is_null() && check["metres_from_record"].is_null(), "{check}");
     assert_eq!(check["flags"], serde_json::json!([]));
 }
+
+#[tokio::test]
+async fn the_phones_reading_is_kept_apart_and_used_when_the_file_has_no_exif() {
+    let app = spawn_app().await;
+    let mut record = submission("5e4d3c2b-1a09-4f8e-8d7c-6b5a49382716");
+    // What a phone sends for an upload copy made from an original it read (CIPA DC-008 fields).
+    record["photo_exif"] = serde_json::json!([{
+        "taken_local": "2025:05:29 14:10:00.5", "offset": "+01:00", "taken_at": "1999-01-01T00:00:00Z",
+        "offset_source": "record", "latitude": 52.46, "longitude": -4.0829, "altitude_m": 2.0,
+        "horizontal_error_m": 5.0, "orientation": 6
+    }]);
+    let answer = app.submit(&record, &[plain_jpeg(9)]).await;
+    assert_eq!(answer.status, 200, "{}", answer.body);
+    let photo = &app.records().await[0]["photos"][0];
+    assert!(photo["exif"]["taken_at"].is_null(), "the server's own reading of the copy is empty: {photo}");
+    // The server works out the instant itself, ignoring the phone's claim.
+    assert_eq!(photo["phone_exif"]["taken_at"], "2025-05-29T14:10:00.500+01:00");
+    assert_eq!(photo["phone_exif"]["offset_source"], "photo");
+    assert_eq!(photo["check"]["reading"], "phone");
+    assert_eq!(photo["check"]["flags"], serde_json::json!(["taken_long_before_record", "taken_far_from_record"]));
+}
+
+#[tokio::test]
+async fn the_files_own_reading_wins_and_says_so() {
+    let check = check_of(&["-DateTimeOriginal=2025:06:01 14:00:00"]).await;
+    assert_eq!(check["reading"], "received_file");
+}
+
+#[tokio::test]
+async fn more_phone_readings_than_photos_is_refused() {
+    let app = spawn_app().await;
+    let mut record = submission("5e4d3c2b-1a09-4f8e-8d7c-6b5a49382716");
+    record["photo_exif"] = serde_json::json!([{}, {}]);
+    let answer = app.submit(&record, &[plain_jpeg(9)]).await;
+    assert_eq!(answer.status, 422, "{}", answer.body);
+    assert_eq!(answer.body["field"], "photo_exif");
+    assert!(app.records().await.is_empty());
+}
