@@ -3,12 +3,14 @@
 //!
 //! Modules: [`device`] (browser storage, position, upload, via `js/device.js`),
 //! [`outbox`] (what the phone keeps and each record's sync state), [`sync`] (sending,
-//! retries with backoff), [`form`] (the record form), [`screens`] (the page around it).
+//! retries with backoff), [`form`] (the record form), [`photos`] (EXIF read on the phone,
+//! the upload copy), [`screens`] (the page around it).
 //! The app never decides what the server decides: it shows the server's receipts.
 
 mod device;
 mod form;
 mod outbox;
+mod photos;
 mod screens;
 mod sync;
 

@@ -41,6 +41,7 @@ pub fn browser_tests(dist: &Path, server: &Path) -> Result<()> {
         .arg("--test")
         .arg("--test-concurrency=1")
         .arg(folder.join("offline_capture.test.mjs"))
+        .arg(folder.join("photos.test.mjs"))
         .env("WRACKLINE_BIN", server)
         .env("WRACKLINE_APP_DIR", dist)
         .env("WRACKLINE_DEMO_PHOTOS", root().join("demo-records/photos"));
