@@ -6,7 +6,9 @@
 //! - `demo [ARGS…]`: build everything, then run `wrackline demo` (ARGS go to it).
 //! - `test`: install what the tests need (wasm target, Chromium, exiftool, npm
 //!   packages), build, and run every test: Rust unit and integration tests, then the
-//!   browser tests. `ci` is the same.
+//!   browser tests, then the intake fuzz loop for 15 s. `ci` is the same.
+//! - `fuzz [--seconds N] [--seed N]`: the intake fuzz loop (`server/examples/fuzz_intake.rs`).
+//! - `bench`: server photo intake per second and the phone's 12 MP upload-copy time.
 
 mod app;
 mod prerequisites;
@@ -24,8 +26,10 @@ fn main() -> Result<()> {
         "build" => app::build(profile(&rest)).map(|_| ()),
         "demo" => demo(&rest),
         "test" | "ci" => test(),
+        "fuzz" => fuzz(&rest),
+        "bench" => bench(),
         _ => bail!(
-            "usage: cargo xtask <build [--dev] | demo [wrackline demo options] | test | ci>\n  unknown task `{task}`"
+            "usage: cargo xtask <build [--dev] | demo [wrackline demo options] | test | ci | fuzz [--seconds N] [--seed N] | bench>\n  unknown task `{task}`"
         ),
     }
 }
@@ -56,6 +60,23 @@ fn test() -> Result<()> {
     run::cargo(&["test", "--workspace", "--exclude", "wrackline-app"])?;
     run::cargo(&["build", "-p", "wrackline-server"])?;
     run::browser_tests(&dist, &root().join("target/debug/wrackline"))?;
+    fuzz(&["--seconds".into(), "15".into()])?;
     println!("xtask test: every suite passed in {:.0} s", started.elapsed().as_secs_f64());
     Ok(())
+}
+
+/// The intake fuzz loop; it exits non-zero on a finding (saved in `target/fuzz-findings/`).
+fn fuzz(args: &[String]) -> Result<()> {
+    let mut cargo_args = vec!["run", "-p", "wrackline-server", "--example", "fuzz_intake", "--"];
+    cargo_args.extend(args.iter().map(String::as_str));
+    run::cargo(&cargo_args)
+}
+
+/// Benchmarks, not timed tests: they print numbers and pass whatever they are.
+fn bench() -> Result<()> {
+    prerequisites::all()?;
+    run::cargo(&["bench", "-p", "wrackline-server", "--bench", "intake"])?;
+    let dist = app::build(app::Profile::Release)?;
+    run::cargo(&["build", "-p", "wrackline-server"])?;
+    run::browser_bench(&dist, &root().join("target/debug/wrackline"))
 }

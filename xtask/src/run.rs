@@ -47,3 +47,14 @@ pub fn browser_tests(dist: &Path, server: &Path) -> Result<()> {
         .env("WRACKLINE_DEMO_PHOTOS", root().join("demo-records/photos"));
     check(command)
 }
+
+/// The phone-side benchmark: the 12 MP upload copy in headless Chromium.
+pub fn browser_bench(dist: &Path, server: &Path) -> Result<()> {
+    let mut command = Command::new("node");
+    command
+        .arg(root().join("tests/browser/bench_prepare.mjs"))
+        .env("WRACKLINE_BIN", server)
+        .env("WRACKLINE_APP_DIR", dist)
+        .env("WRACKLINE_DEMO_PHOTOS", root().join("demo-records/photos"));
+    check(command)
+}

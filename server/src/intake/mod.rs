@@ -147,8 +147,9 @@ fn store_photo_files(
         .collect()
 }
 
-/// Everything intake learns from one photo's bytes, without storing anything.
-fn prepare_photo(
+/// Everything intake learns from one photo's bytes, without storing anything. Public for
+/// the fuzz loop (`server/examples/fuzz_intake.rs`), which drives exactly this.
+pub fn prepare_photo(
     bytes: Vec<u8>,
     record_offset: chrono::FixedOffset,
 ) -> Result<(Vec<u8>, images::Derivatives, StoredPhoto), PhotoProblem> {
