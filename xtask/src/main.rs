@@ -76,7 +76,8 @@ fn fuzz(args: &[String]) -> Result<()> {
 fn bench() -> Result<()> {
     prerequisites::all()?;
     run::cargo(&["bench", "-p", "wrackline-server", "--bench", "intake"])?;
+    let bench_wasm = app::build_bench_wasm()?;
     let dist = app::build(app::Profile::Release)?;
     run::cargo(&["build", "-p", "wrackline-server"])?;
-    run::browser_bench(&dist, &root().join("target/debug/wrackline"))
+    run::browser_bench(&dist, &bench_wasm, &root().join("target/debug/wrackline"))
 }

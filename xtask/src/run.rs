@@ -49,10 +49,11 @@ pub fn browser_tests(dist: &Path, server: &Path) -> Result<()> {
 }
 
 /// The phone-side benchmark: the 12 MP upload copy in headless Chromium.
-pub fn browser_bench(dist: &Path, server: &Path) -> Result<()> {
+pub fn browser_bench(dist: &Path, bench_wasm: &Path, server: &Path) -> Result<()> {
     let mut command = Command::new("node");
     command
         .arg(root().join("tests/browser/bench_prepare.mjs"))
+        .env("WRACKLINE_BENCH_WASM", bench_wasm)
         .env("WRACKLINE_BIN", server)
         .env("WRACKLINE_APP_DIR", dist)
         .env("WRACKLINE_DEMO_PHOTOS", root().join("demo-records/photos"));
