@@ -57,7 +57,7 @@ fn test() -> Result<()> {
     let started = std::time::Instant::now();
     prerequisites::all()?;
     let dist = app::build(app::Profile::Release)?;
-    run::cargo(&["test", "--workspace", "--exclude", "wrackline-app"])?;
+    run::cargo(&["test", "--workspace", "--exclude", "wrackline-app", "--exclude", "upload-copy-bench"])?;
     run::cargo(&["build", "-p", "wrackline-server"])?;
     run::browser_tests(&dist, &root().join("target/debug/wrackline"))?;
     fuzz(&["--seconds".into(), "15".into()])?;
