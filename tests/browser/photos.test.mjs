@@ -120,3 +120,55 @@ test('a HEIC photo the browser cannot open is refused with what to do', async ()
     server.stop();
   }
 });
+
+// The browser says wrackline's storage is all but used up (navigator.storage.estimate),
+// as a phone with a full outbox would.
+async function phoneWithStorage(usage, quota) {
+  const context = await phoneWithoutFix();
+  await context.addInitScript(([u, q]) => {
+    navigator.storage.estimate = async () => ({ usage: u, quota: q });
+  }, [usage, quota]);
+  return context;
+}
+
+async function fillAndSave(page) {
+  await page.setInputFiles('#photo-input', demoPhoto('ray.jpg'));
+  await page.waitForSelector('.photo-says', { timeout: 10000 });
+  await page.fill('#species', 'thornback ray');
+  await page.selectOption('#condition', 'decomposed');
+  await page.selectOption('#setting', 'beach_stranding');
+  await page.click('#save-send');
+}
+
+test('a record that would not fit in the phone\'s storage is not saved, and the form and photo are kept', async () => {
+  const server = await startServer();
+  const context = await phoneWithStorage(99.9e6, 100e6);
+  try {
+    const page = await openApp(context, server);
+    await fillAndSave(page);
+    await page.waitForFunction(() => document.querySelector('#saved-note')?.textContent.startsWith('Not saved'), null, { timeout: 10000 });
+    assert.match(await page.textContent('#saved-note'), /storage for wrackline is full .* Your form is kept as it is\./);
+    assert.equal(await page.$$eval('.thumbs li', (items) => items.length), 1, 'the photo is still on the form');
+    assert.equal(await page.inputValue('#species'), 'thornback ray');
+    assert.equal(await page.$$eval('.outbox-entry', (items) => items.length), 0);
+    assert.equal((await server.records()).length, 0);
+  } finally {
+    await context.close();
+    server.stop();
+  }
+});
+
+test('nearly full storage saves the record and warns', async () => {
+  const server = await startServer();
+  const context = await phoneWithStorage(85e6, 100e6);
+  try {
+    const page = await openApp(context, server);
+    await fillAndSave(page);
+    await page.waitForFunction(() => document.querySelector('#saved-note')?.textContent.includes('nearly full'), null, { timeout: 10000 });
+    await page.waitForFunction(() => document.querySelector('.outbox-entry')?.textContent.includes('received by the server'), null, { timeout: 20000 });
+    assert.equal((await server.records()).length, 1);
+  } finally {
+    await context.close();
+    server.stop();
+  }
+});
