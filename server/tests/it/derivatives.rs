@@ -37,7 +37,7 @@ async fn derivatives_are_smaller_upright_and_carry_no_exif_while_the_original_ke
     // Orientation 6: the camera was turned; the stored 2000 × 1500 is shown 1500 × 2000 (CIPA DC-008).
     let tags: Vec<&str> = GPS_AND_TIME.iter().copied().chain(["-Orientation#=6"]).collect();
     let original = with_exiftool(&sized_jpeg(2000, 1500), &tags, &scratch);
-    let answer = app.submit(&submission(ID), &[original.clone()]).await;
+    let answer = app.submit(&submission(ID), std::slice::from_ref(&original)).await;
     assert_eq!(answer.status, 200, "{}", answer.body);
     let photo = &app.records().await[0]["photos"][0];
     assert_eq!((photo["width"].as_u64(), photo["height"].as_u64()), (Some(2000), Some(1500)));

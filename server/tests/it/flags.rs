@@ -8,7 +8,7 @@ use crate::helpers::{plain_jpeg, spawn_app, submission, with_exiftool};
 
 async fn check_of(tags: &[&str]) -> serde_json::Value {
     let app = spawn_app().await;
-    let jpeg = with_exiftool(&plain_jpeg(9), tags, &app.data_dir.parent().unwrap().to_owned());
+    let jpeg = with_exiftool(&plain_jpeg(9), tags, app.data_dir.parent().unwrap());
     let answer = app.submit(&submission("5e4d3c2b-1a09-4f8e-8d7c-6b5a49382716"), &[jpeg]).await;
     assert_eq!(answer.status, 200, "a flag is never a refusal: {}", answer.body);
     app.records().await[0]["photos"][0]["check"].clone()
