@@ -172,3 +172,38 @@ test('nearly full storage saves the record and warns', async () => {
     server.stop();
   }
 });
+
+test('a large photo is sent as a copy with its long edge at 2048 px', async () => {
+  const server = await startServer();
+  const context = await phoneWithoutFix();
+  try {
+    const page = await openApp(context, server);
+    // A 3000 × 2000 JPEG made by the page's own canvas.
+    const base64 = await page.evaluate(async () => {
+      const canvas = new OffscreenCanvas(3000, 2000);
+      const context2d = canvas.getContext('2d');
+      context2d.fillStyle = '#c9b48a';
+      context2d.fillRect(0, 0, 3000, 2000);
+      context2d.fillStyle = '#334';
+      context2d.fillRect(400, 700, 2000, 500);
+      const bytes = new Uint8Array(await (await canvas.convertToBlob({ type: 'image/jpeg', quality: 0.9 })).arrayBuffer());
+      let text = '';
+      for (let i = 0; i < bytes.length; i += 0x8000) text += String.fromCharCode(...bytes.subarray(i, i + 0x8000));
+      return btoa(text);
+    });
+    await page.setInputFiles('#photo-input', { name: 'large.jpg', mimeType: 'image/jpeg', buffer: Buffer.from(base64, 'base64') });
+    await page.waitForSelector('.photo-says', { timeout: 10000 });
+    await page.fill('#latitude', '52.4153');
+    await page.fill('#longitude', '-4.0829');
+    await page.selectOption('#condition', 'fresh_dead');
+    await page.selectOption('#setting', 'beach_stranding');
+    await page.click('#save-send');
+    await page.waitForFunction(() => document.querySelector('.outbox-entry')?.textContent.includes('received by the server'), null, { timeout: 20000 });
+    const [record] = await server.records();
+    assert.deepEqual([record.photos[0].width, record.photos[0].height], [2048, 1365]);
+    assert.equal(record.photos[0].media_type, 'image/jpeg');
+  } finally {
+    await context.close();
+    server.stop();
+  }
+});
