@@ -56,6 +56,37 @@ fn rate(photos: &[Vec<u8>], threads: usize, work: impl Fn(usize, &[u8]) + Sync) 
     photos.len() as f64 / started.elapsed().as_secs_f64()
 }
 
+/// Where one photo's intake time goes, one thread, milliseconds (median of 9).
+fn stages(jpeg: &[u8]) {
+    let time = |work: &dyn Fn()| {
+        let mut runs: Vec<f64> = (0..9)
+            .map(|_| {
+                let started = Instant::now();
+                work();
+                started.elapsed().as_secs_f64() * 1000.0
+            })
+            .collect();
+        runs.sort_by(f64::total_cmp);
+        runs[4]
+    };
+    let decoded = image::load_from_memory_with_format(jpeg, image::ImageFormat::Jpeg).expect("decode");
+    let display = decoded.resize(1280, 1280, image::imageops::FilterType::Triangle);
+    let encode = |image: &DynamicImage| {
+        let mut out = Vec::new();
+        image::codecs::jpeg::JpegEncoder::new_with_quality(&mut out, 82).encode_image(&DynamicImage::ImageRgb8(image.to_rgb8())).expect("encode");
+    };
+    println!(
+        "  one photo, one thread (ms): EXIF {:.1} · decode {:.1} · rotate 90° {:.1} · resize to 1280 {:.1} · encode 1280 {:.1} · resize to 320 {:.1} · pHash {:.1}",
+        time(&|| drop(std::hint::black_box(shared_types::exif::read(jpeg)))),
+        time(&|| drop(std::hint::black_box(image::load_from_memory_with_format(jpeg, image::ImageFormat::Jpeg)))),
+        time(&|| drop(std::hint::black_box(decoded.rotate90()))),
+        time(&|| drop(std::hint::black_box(decoded.resize(1280, 1280, image::imageops::FilterType::Triangle)))),
+        time(&|| encode(&display)),
+        time(&|| drop(std::hint::black_box(display.resize(320, 320, image::imageops::FilterType::Triangle)))),
+        time(&|| drop(std::hint::black_box(wrackline_server::intake::images::perceptual_hash(&display)))),
+    );
+}
+
 fn main() {
     let dir = tempfile::tempdir().expect("temp dir");
     let threads = std::thread::available_parallelism().map_or(2, |n| n.get());
@@ -67,6 +98,9 @@ fn main() {
     let baseline = rate(&photos, threads, |_, bytes| {
         std::hint::black_box(photos::sha256_hex(bytes));
     });
+    let no_writes = rate(&photos, threads, |_, bytes| {
+        std::hint::black_box(intake::prepare_photo(bytes.to_vec(), FixedOffset::east_opt(3600).expect("offset")).expect("a good photo"));
+    });
     let files = photos::PhotoFiles::open(&dir.path().join("photos")).expect("photo folder");
     let offset = FixedOffset::east_opt(3600).expect("offset");
     let full = rate(&photos, threads, |_, bytes| {
@@ -76,8 +110,11 @@ fn main() {
         files.put(&stored.sha256, photos::Rendition::Thumb, &derived.thumb_jpeg).expect("write");
     });
     println!("  baseline, SHA-256 only:                           {baseline:8.1} photos/s");
+    println!("  the same without the file writes:                 {no_writes:8.1} photos/s");
     println!("  intake (hash + EXIF + checks + decode + derivatives + pHash + fsync'd writes): {full:8.1} photos/s");
     println!("  ratio intake / baseline:                          {:8.4}", full / baseline);
+
+    stages(&photos[0]);
 
     let twelve = photo_like(4000, 3000, 7);
     let runs = 5;
