@@ -58,6 +58,8 @@ async fn hostile_files_are_refused_cleanly_or_accepted_harmlessly() {
         ("JPEG declaring 20 000 × 4 000 (too long a side)", jpeg_declaring(&jpeg, 20_000, 4_000), Expect::Refused(413, "16384 px a side")),
         ("EXIF IFD loop (IFD0 points to itself)", with_app1(&jpeg, &tiff_ifd_loop()), Expect::Accepted),
         ("EXIF with huge declared counts", with_app1(&jpeg, &tiff_huge_counts()), Expect::Accepted),
+        ("PNG chunk declaring 2 GiB of data", png_with_huge_chunk(), Expect::Refused(422, "could not be")),
+        ("JPEG segment declaring more bytes than the file", jpeg_with_long_segment(&jpeg), Expect::Refused(422, "could not be")),
         ("polyglot: JPEG with a ZIP appended", [jpeg.clone(), zip_with_html()].concat(), Expect::Accepted),
         ("polyglot: HTML that starts like a PNG", [&png_declaring(16, 16)[..33], b"<html><body>hi</body></html>"].concat(), Expect::Refused(422, "could not be")),
     ];
@@ -110,6 +112,22 @@ fn png_declaring(width: u32, height: u32) -> Vec<u8> {
     png.extend(chunk(b"IDAT", &[0x78, 0x9C, 0x63, 0x00, 0x00, 0x00, 0x01, 0x00, 0x01]));
     png.extend(chunk(b"IEND", &[]));
     png
+}
+
+/// A 16 × 16 PNG whose IDAT chunk claims 0x7FFF_FFFF bytes (the PNG maximum) and holds 9.
+fn png_with_huge_chunk() -> Vec<u8> {
+    let mut png = png_declaring(16, 16);
+    let idat = png.windows(4).position(|w| w == b"IDAT").expect("an IDAT chunk") - 4;
+    png[idat..idat + 4].copy_from_slice(&0x7FFF_FFFFu32.to_be_bytes());
+    png
+}
+
+/// The JPEG with an APP2 segment right after SOI whose length field claims 65 535 bytes
+/// and whose data stops after 16 (JPEG, ITU-T T.81 B.1.1.4).
+fn jpeg_with_long_segment(jpeg: &[u8]) -> Vec<u8> {
+    let mut segment = vec![0xFF, 0xE2, 0xFF, 0xFF];
+    segment.extend([0x41; 16]);
+    [&jpeg[..2], &segment[..]].concat()
 }
 
 fn chunk(kind: &[u8; 4], data: &[u8]) -> Vec<u8> {
