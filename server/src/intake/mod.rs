@@ -106,7 +106,7 @@ pub async fn accept(state: &AppState, upload: Upload, now: DateTime<Utc>) -> Res
     }
     let record_offset = *submission.observed_at.offset();
     let photo_files = state.photos.clone();
-    // Hashing, EXIF and file writes are blocking work.
+    // Hashing, EXIF, decoding, derivatives and file writes are blocking work.
     let mut stored = tokio::task::spawn_blocking(move || store_photo_files(&photo_files, upload.photos, record_offset))
         .await
         .map_err(|err| anyhow::anyhow!("photo task failed: {err}"))??;
@@ -179,7 +179,7 @@ fn phone_reading(phone: &shared_types::PhotoExif, record_offset: chrono::FixedOf
 
 /// The checks made before any decoding: not empty, not too many bytes, a known format
 /// by its magic bytes. The pixel-dimension check follows in `images::decode`.
-pub fn check_photo(bytes: &[u8]) -> Result<PhotoFormat, PhotoProblem> {
+fn check_photo(bytes: &[u8]) -> Result<PhotoFormat, PhotoProblem> {
     if bytes.is_empty() {
         return Err(PhotoProblem::Empty);
     }
