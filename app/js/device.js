@@ -185,3 +185,37 @@ export async function sendJson(method, url, json, headers = {}) {
   const response = await fetch(url, init);
   return { status: response.status, body: await response.text() };
 }
+
+// The bytes of a picked file, for reading its EXIF before anything re-encodes it.
+export async function readBytes(file) {
+  return new Uint8Array(await file.arrayBuffer());
+}
+
+// Makes the upload copy of a photo with the browser's own decoder: upright (the
+// decoder applies the EXIF Orientation, `imageOrientation: 'from-image'`), long edge at
+// most `longEdge` px, re-encoded as JPEG. The canvas writes no EXIF, so the copy carries
+// no GPS; the phone sends what it read from the original as data instead. Rejects with
+// {undecodable: true} when this browser cannot decode the format (HEIC in Chromium).
+export async function prepareUpload(file, longEdge, quality) {
+  let bitmap;
+  try {
+    bitmap = await createImageBitmap(file, { imageOrientation: 'from-image' });
+  } catch (err) {
+    const error = new Error(`this browser cannot read this photo (${err.message})`);
+    error.undecodable = true;
+    throw error;
+  }
+  try {
+    const scale = Math.min(1, longEdge / Math.max(bitmap.width, bitmap.height));
+    const width = Math.max(1, Math.round(bitmap.width * scale));
+    const height = Math.max(1, Math.round(bitmap.height * scale));
+    const canvas = new OffscreenCanvas(width, height);
+    const context = canvas.getContext('2d');
+    context.imageSmoothingQuality = 'high';
+    context.drawImage(bitmap, 0, 0, width, height);
+    const blob = await canvas.convertToBlob({ type: 'image/jpeg', quality });
+    return { blob };
+  } finally {
+    bitmap.close();
+  }
+}

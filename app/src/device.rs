@@ -1,5 +1,6 @@
 //! Typed Rust calls over `js/device.js`: the outbox in IndexedDB, the device's
-//! position, storage persistence and the upload itself. Errors come back as the
+//! position, storage persistence, a photo's bytes and its upload copy, and the upload
+//! itself. Errors come back as the
 //! browser's own message.
 
 use serde::Deserialize;
@@ -36,6 +37,10 @@ extern "C" {
     fn fetch_text_js(url: &str) -> js_sys::Promise;
     #[wasm_bindgen(js_name = sendRecord)]
     fn send_record_js(url: &str, json: &str, blobs: js_sys::Array, part: &str, headers: JsValue) -> js_sys::Promise;
+    #[wasm_bindgen(js_name = readBytes)]
+    fn read_bytes_js(file: &web_sys::Blob) -> js_sys::Promise;
+    #[wasm_bindgen(js_name = prepareUpload)]
+    fn prepare_upload_js(file: &web_sys::Blob, long_edge: u32, quality: f64) -> js_sys::Promise;
 }
 
 /// A browser error, as text to show.
@@ -192,4 +197,34 @@ pub async fn send_json(method: &str, url: &str, json: Option<&str>, header_pairs
     let body = json.map_or(JsValue::NULL, JsValue::from);
     let value = wait(send_json_js(method, url, body, headers(header_pairs))).await?;
     serde_wasm_bindgen::from_value(value).map_err(|err| err.to_string())
+}
+
+/// A picked file's bytes.
+pub async fn read_bytes(file: &web_sys::Blob) -> Result<Vec<u8>, String> {
+    let array: js_sys::Uint8Array = wait(read_bytes_js(file)).await?.unchecked_into();
+    Ok(array.to_vec())
+}
+
+/// The upload copy of a photo, made by the browser's decoder and canvas.
+pub struct UploadCopy {
+    pub blob: web_sys::Blob,
+}
+
+/// Why an upload copy could not be made.
+pub enum PrepareError {
+    /// The browser cannot decode this format (HEIC in most browsers but Safari).
+    Undecodable(String),
+    Other(String),
+}
+
+pub async fn prepare_upload(file: &web_sys::Blob, long_edge: u32, quality: f64) -> Result<UploadCopy, PrepareError> {
+    let value = JsFuture::from(prepare_upload_js(file, long_edge, quality)).await.map_err(|err| {
+        let undecodable = js_sys::Reflect::get(&err, &"undecodable".into()).ok().and_then(|v| v.as_bool()).unwrap_or(false);
+        if undecodable { PrepareError::Undecodable(message(err)) } else { PrepareError::Other(message(err)) }
+    })?;
+    let blob = js_sys::Reflect::get(&value, &"blob".into())
+        .ok()
+        .filter(|b| b.is_instance_of::<web_sys::Blob>())
+        .ok_or_else(|| PrepareError::Other("no upload copy came back".into()))?;
+    Ok(UploadCopy { blob: blob.unchecked_into() })
 }

@@ -10,12 +10,12 @@ use shared_types::{
     MeasureMethod, Position, PositionSource, Setting, Sex, Submission, Text,
 };
 use uuid::Uuid;
-use wasm_bindgen::JsCast;
 
 use crate::device;
 use crate::identity;
 use crate::key::{self, KeyPanel};
 use crate::outbox::{self, Entry, SyncState};
+use crate::photos::{self, PickedPhoto};
 use crate::sync::{self, Outbox};
 use crate::walks::WalkState;
 
@@ -64,7 +64,7 @@ fn optional_text(label: &str, text: &str, problems: &mut Vec<String>) -> Option<
 }
 
 /// The browser's UTC offset at a given local time (daylight saving differs by date).
-fn offset_at(local: &NaiveDateTime) -> FixedOffset {
+pub fn offset_at(local: &NaiveDateTime) -> FixedOffset {
     let text = local.format("%Y-%m-%dT%H:%M:%S").to_string();
     let minutes_behind = js_sys::Date::new(&text.into()).get_timezone_offset();
     FixedOffset::west_opt((minutes_behind * 60.0) as i32).unwrap_or(FixedOffset::east_opt(0).expect("zero offset"))
@@ -118,6 +118,7 @@ impl FormFields {
             observer_name,
             key_choice: self.key_choice.clone(),
             walk_client_id: None,
+            photo_exif: Vec::new(),
         })
     }
 
@@ -190,6 +191,63 @@ fn offset_label(when: &str) -> String {
         .unwrap_or_default()
 }
 
+/// Above this share of the browser's storage quota the observer is warned to send.
+const STORAGE_WARN_SHARE: f64 = 0.8;
+/// Above this share a new record is not saved (the browser would refuse part-way); the
+/// form is kept and the observer is told what to do.
+const STORAGE_FULL_SHARE: f64 = 0.97;
+
+/// Whether `new_bytes` more fit; `Err` is the sentence to show. `Ok(Some)` is a warning.
+async fn storage_room(new_bytes: f64) -> Result<Option<String>, String> {
+    let Some(estimate) = device::storage_estimate().await.filter(|e| e.quota > 0.0) else {
+        return Ok(None);
+    };
+    let after = estimate.usage + new_bytes;
+    let megabytes = |b: f64| b / 1e6;
+    if after > STORAGE_FULL_SHARE * estimate.quota {
+        return Err(format!(
+            "Not saved: this phone's storage for wrackline is full ({:.0} of {:.0} MB with this record). \
+             Send waiting records or free space on the phone, then save again. Your form is kept as it is.",
+            megabytes(after),
+            megabytes(estimate.quota)
+        ));
+    }
+    Ok((after > STORAGE_WARN_SHARE * estimate.quota).then(|| {
+        format!(
+            " Warning: this phone's storage for wrackline is nearly full ({:.0} of {:.0} MB). Send waiting records soon.",
+            megabytes(after),
+            megabytes(estimate.quota)
+        )
+    }))
+}
+
+/// Fills the position from the first photo's EXIF GPS when the form has none (the
+/// device gave no fix); says so beside the position.
+fn prefill_from_photo(fields: RwSignal<FormFields>, note: RwSignal<String>, first: &PickedPhoto) {
+    let (Some(lat), Some(lon)) = (first.exif.latitude, first.exif.longitude) else { return };
+    let empty = fields.with_untracked(|f| f.latitude.trim().is_empty() && f.longitude.trim().is_empty());
+    if !empty {
+        return;
+    }
+    fields.update(|f| {
+        f.latitude = format!("{lat:.6}");
+        f.longitude = format!("{lon:.6}");
+        f.accuracy_m = first.exif.horizontal_error_m.filter(|e| *e >= 1.0).map(|e| format!("{e:.0}")).unwrap_or_default();
+        f.position_source = Some(PositionSource::Photo);
+    });
+    note.set("from the first photo's GPS (this device gave no position)".into());
+}
+
+/// "this device says: 2025-06-01 14:10 (UTC+01:00) · 52.41530, -4.08290 ±9 m": the
+/// record's time and the device's own fix, to set beside what each photo says.
+fn device_says(fields: &FormFields) -> String {
+    let place = match (fields.latitude.trim(), fields.longitude.trim(), fields.position_source) {
+        (lat, lon, Some(PositionSource::Device)) if !lat.is_empty() && !lon.is_empty() => format!("{lat}, {lon} ±{} m", fields.accuracy_m),
+        _ => "no position".to_owned(),
+    };
+    format!("this device says: {} ({}) · {place}", fields.when.replace('T', " "), offset_label(&fields.when))
+}
+
 /// Fills the position from the device, telling the observer how it went.
 fn locate(fields: RwSignal<FormFields>, note: RwSignal<String>) {
     note.set("finding your position…".into());
@@ -214,7 +272,8 @@ fn locate(fields: RwSignal<FormFields>, note: RwSignal<String>) {
 #[component]
 pub fn RecordForm(outbox: Outbox) -> impl IntoView {
     let fields = RwSignal::new(FormFields::fresh(identity::observer_name()));
-    let photos = RwSignal::new_local(Vec::<web_sys::File>::new());
+    let photos = RwSignal::new_local(Vec::<PickedPhoto>::new());
+    let photo_note = RwSignal::new(String::new());
     let client_id = RwSignal::new(Uuid::new_v4());
     let problems = RwSignal::new(Vec::<String>::new());
     let position_note = RwSignal::new(String::new());
@@ -237,28 +296,30 @@ pub fn RecordForm(outbox: Outbox) -> impl IntoView {
             }
         };
         problems.set(Vec::new());
-        let files = photos.get();
+        let picked = photos.get();
         leptos::task::spawn_local(async move {
-            let blobs: Vec<web_sys::Blob> = files.iter().map(|f| f.clone().unchecked_into()).collect();
+            let mut submission = submission;
+            submission.photo_exif = picked.iter().map(|p| p.exif.clone()).collect();
+            let blobs: Vec<web_sys::Blob> = picked.iter().map(|p| p.upload.clone()).collect();
             let new_bytes: f64 = blobs.iter().map(|b| b.size()).sum();
-            if let Some(estimate) = device::storage_estimate().await {
-                if estimate.quota > 0.0 && estimate.usage + new_bytes > 0.9 * estimate.quota {
-                    saved_note.set(format!(
-                        "Warning: this phone's storage for wrackline is nearly full ({:.0} of {:.0} MB). Send waiting records soon.",
-                        estimate.usage / 1e6,
-                        estimate.quota / 1e6
-                    ));
+            let warning = match storage_room(new_bytes).await {
+                Ok(warning) => warning.unwrap_or_default(),
+                Err(full) => {
+                    saved_note.set(full);
+                    return;
                 }
-            }
+            };
             let waiting = state == SyncState::Waiting;
             let entry = Entry { submission, sync: state, photo_count: blobs.len(), last_error: None, walk_link_pending: None };
             match outbox::save(&entry, Some(&blobs)).await {
                 Ok(()) => {
                     identity::remember_observer_name(&fields.with_untracked(|f| f.observer_name.clone()));
-                    saved_note.set(if waiting { "Saved on this phone; it will be sent when there is a connection.".into() } else { "Saved as a draft on this phone.".into() });
+                    let saved = if waiting { "Saved on this phone; it will be sent when there is a connection." } else { "Saved as a draft on this phone." };
+                    saved_note.set(format!("{saved}{warning}"));
                     fields.set(FormFields::fresh(identity::observer_name()));
                     key_open.set(false);
                     photos.set(Vec::new());
+                    photo_note.set(String::new());
                     client_id.set(Uuid::new_v4());
                     locate(fields, position_note);
                     sync::refresh(outbox).await;
@@ -274,11 +335,22 @@ pub fn RecordForm(outbox: Outbox) -> impl IntoView {
 
     let add_photos = move |ev: leptos::ev::Event| {
         let input: web_sys::HtmlInputElement = event_target(&ev);
-        if let Some(list) = input.files() {
-            let added: Vec<web_sys::File> = (0..list.length()).filter_map(|i| list.item(i)).collect();
-            photos.update(|p| p.extend(added));
-        }
+        let added: Vec<web_sys::File> = input.files().map(|list| (0..list.length()).filter_map(|i| list.item(i)).collect()).unwrap_or_default();
         input.set_value("");
+        leptos::task::spawn_local(async move {
+            let mut refused = Vec::new();
+            for file in added {
+                photo_note.set(format!("preparing “{}”…", file.name()));
+                match photos::pick(file).await {
+                    Ok(picked) => photos.update(|p| p.push(picked)),
+                    Err(problem) => refused.push(problem),
+                }
+            }
+            photo_note.set(refused.join(" "));
+            if let Some(first) = photos.with_untracked(|p| p.first().cloned()) {
+                prefill_from_photo(fields, position_note, &first);
+            }
+        });
     };
 
     view! {
@@ -291,17 +363,19 @@ pub fn RecordForm(outbox: Outbox) -> impl IntoView {
                     <input id="photo-input" type="file" accept="image/*" capture="environment" multiple on:change=add_photos />
                 </label>
                 <ul class="thumbs">
-                    {move || photos.get().into_iter().enumerate().map(|(index, file)| {
-                        let url = web_sys::Url::create_object_url_with_blob(&file).unwrap_or_default();
+                    {move || photos.get().into_iter().enumerate().map(|(index, photo)| {
                         view! {
-                            <li>
-                                <img src=url alt=format!("photo {}", index + 1) />
+                            <li class="photo">
+                                <img src=photo.preview_url.clone() alt=format!("photo {}: {}", index + 1, photo.name) />
+                                <span class="photo-says hint">{photos::photo_says(&photo.exif)}</span>
                                 <button type="button" class="small" on:click=move |_| photos.update(|p| { if index < p.len() { p.remove(index); } })>"remove"</button>
                             </li>
                         }
                     }).collect_view()}
                 </ul>
                 <p class="hint">{move || format!("{} photo(s)", photos.with(|p| p.len()))}</p>
+                <p id="device-says" class="hint">{move || fields.with(device_says)}</p>
+                <p id="photo-note" class="problems" role="alert">{move || photo_note.get()}</p>
             </fieldset>
 
             <fieldset>

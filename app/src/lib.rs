@@ -3,10 +3,11 @@
 //!
 //! Modules: [`device`] (browser storage, position, upload, via `js/device.js`),
 //! [`outbox`] (what the phone keeps and each record's sync state), [`sync`] (sending,
-//! retries with backoff), [`form`] (the record form), [`key`] (the guided species key
-//! and its [`pictures`]), [`walks`] (survey walks and their tracks), [`identity`] (the phone's
-//! device identity), [`mine`] (the observer's records and answers to reviewers),
-//! [`review`] (the reviewers' screens), [`screens`] (the page around it).
+//! retries with backoff), [`form`] (the record form), [`photos`] (EXIF read on the phone,
+//! the upload copy), [`key`] (the guided species key and its [`pictures`]), [`walks`]
+//! (survey walks and their tracks), [`identity`] (the phone's device identity), [`mine`]
+//! (the observer's records and answers to reviewers), [`review`] (the reviewers'
+//! screens), [`screens`] (the page around it).
 //! The app never decides what the server decides: it shows the server's receipts.
 
 mod device;
@@ -15,6 +16,7 @@ mod identity;
 mod key;
 mod mine;
 mod outbox;
+mod photos;
 mod pictures;
 mod review;
 mod screens;

@@ -221,8 +221,9 @@ fn RecordReview(client_id: String, back: impl Fn() + Copy + 'static) -> impl Int
             }
             let position = sub.position;
             let photos = d.record.photos.iter().map(|p| {
+                // The display copy on the page; a tap opens the original, full size.
                 let url = format!("/photos/{}", p.sha256);
-                let link = url.clone();
+                let link = format!("/photos/{}/original", p.sha256);
                 view! { <a href=link target="_blank"><img class="review-photo" src=url alt="photo of the record" /></a> }
             }).collect_view();
             let exif_rows = d.record.photos.iter().enumerate().map(|(i, p)| {

@@ -35,6 +35,9 @@ pub enum ApiError {
     /// Too many failed sign-ins; try again later.
     #[error("{0}")]
     TooManyRequests(String),
+    /// Well-formed request, content that cannot be used (a photo whose pixels do not decode).
+    #[error("{0}")]
+    Unprocessable(String),
     #[error(transparent)]
     Internal(#[from] anyhow::Error),
 }
@@ -58,6 +61,7 @@ impl ApiError {
             Self::Unauthorized(_) => StatusCode::UNAUTHORIZED,
             Self::Forbidden(_) => StatusCode::FORBIDDEN,
             Self::TooManyRequests(_) => StatusCode::TOO_MANY_REQUESTS,
+            Self::Unprocessable(_) => StatusCode::UNPROCESSABLE_ENTITY,
             Self::Internal(_) => StatusCode::INTERNAL_SERVER_ERROR,
         }
     }

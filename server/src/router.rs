@@ -70,7 +70,10 @@ pub const ROUTES: &[RouteSpec] = &[
     route("GET", "/api/people", Access::Admin),
     route("POST", "/api/people", Access::Admin),
     route("PUT", "/api/people/{username}/disabled", Access::Admin),
+    route("GET", "/api/photos/{sha256}/similar", Access::Reviewer),
     route("GET", "/photos/{sha256}", Access::Public),
+    route("GET", "/photos/{sha256}/thumb", Access::Public),
+    route("GET", "/photos/{sha256}/original", Access::Reviewer),
 ];
 
 /// The whole HTTP surface. Unknown `/api/` paths are a JSON 404; any other unknown path
@@ -104,8 +107,12 @@ pub fn app(state: AppState) -> Router {
         .route("/api/range/map.svg", get(assess::range_map))
         .route("/api/trend", get(assess::trend))
         .route("/api/trend/chart.svg", get(assess::trend_chart))
+        .route("/api/photos/{sha256}/similar", get(photos::similar))
         .route("/api/{*rest}", get(api_not_found).post(api_not_found).put(api_not_found).delete(api_not_found))
-        .route("/photos/{sha256}", get(photos::get));
+        .route("/photos/{sha256}", get(photos::display))
+        .route("/photos/{sha256}/thumb", get(photos::thumb))
+        // Reviewers only: the original carries the photo's GPS and other EXIF.
+        .route("/photos/{sha256}/original", get(photos::original));
     let router = match &state.app_dir {
         Some(dir) => api.fallback_service(app_files(dir)),
         None => api,

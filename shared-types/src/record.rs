@@ -19,6 +19,8 @@ pub enum PositionSource {
     Device,
     /// Typed by the observer.
     Typed,
+    /// The first photo's EXIF GPS, filled in because the device had no fix.
+    Photo,
 }
 
 /// A point on the WGS84 ellipsoid with its horizontal uncertainty.
@@ -223,6 +225,11 @@ pub struct Submission {
     pub notes: Option<Text>,
     /// The name the observer chose to be credited with; may be empty.
     pub observer_name: Option<Text>,
+    /// What the phone read from each original photo's EXIF, in photo order, before it
+    /// made the upload copy (which carries no EXIF). Empty from phones that did not read
+    /// it; left out of the JSON when empty, so older records hash as before.
+    #[serde(default, skip_serializing_if = "Vec::is_empty")]
+    pub photo_exif: Vec<PhotoExif>,
     /// What the guided key suggested and the observer picked, with the answers given.
     /// Left out of the JSON when absent, so records made without the key keep the
     /// same content fingerprint.
@@ -370,14 +377,88 @@ pub struct PhotoExif {
     pub orientation: Option<u16>,
 }
 
-/// A stored photo as listed with its record.
+/// A question the server raises about a photo, for the reviewer.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, PartialOrd, Ord, Serialize, Deserialize)]
+#[serde(rename_all = "snake_case")]
+pub enum PhotoFlag {
+    /// The photo's EXIF time is long before the record's time: an old photo reused?
+    TakenLongBeforeRecord,
+    /// The photo's EXIF position is far from the record's: a photo from elsewhere?
+    TakenFarFromRecord,
+}
+
+impl PhotoFlag {
+    pub fn label(self) -> &'static str {
+        match self {
+            Self::TakenLongBeforeRecord => "photo taken long before the record",
+            Self::TakenFarFromRecord => "photo taken far from the record's place",
+        }
+    }
+}
+
+/// Who read the EXIF facts a comparison used.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(rename_all = "snake_case")]
+pub enum ExifReading {
+    /// The server, from the file it received.
+    ReceivedFile,
+    /// The phone, from the original before it made the upload copy.
+    Phone,
+}
+
+/// A photo compared with the record it came with (the same photo in two records is
+/// compared with each).
+#[derive(Debug, Clone, Default, PartialEq, Serialize, Deserialize)]
+pub struct PhotoCheck {
+    /// Whose EXIF reading was compared: the server's of the file it received, or (when
+    /// that file had no time or place, as upload copies do) the phone's of the original.
+    pub reading: Option<ExifReading>,
+    /// Record time minus the photo's EXIF time, seconds (negative: photo after record).
+    pub seconds_before_record: Option<f64>,
+    /// Geodesic distance (WGS84) from the record's position to the photo's, metres.
+    pub metres_from_record: Option<f64>,
+    pub flags: Vec<PhotoFlag>,
+}
+
+/// A stored photo as listed with its record. `/photos/{sha256}` is its display copy,
+/// `/photos/{sha256}/thumb` its thumbnail (neither carries EXIF), and
+/// `/photos/{sha256}/original` the file as received (reviewers only).
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 pub struct PhotoView {
-    /// SHA-256 of the file, hex; also its address under `/photos/`.
+    /// SHA-256 of the original file, hex.
     pub sha256: String,
+    /// Media type of the original.
     pub media_type: String,
     pub byte_len: u64,
+    /// Pixel size of the original as stored (before orientation); absent for photos
+    /// stored before sizes were kept.
+    #[serde(default)]
+    pub width: Option<u32>,
+    #[serde(default)]
+    pub height: Option<u32>,
+    /// 64-bit DCT perceptual hash of the upright image, 16 hex digits: near-duplicates
+    /// differ in few bits.
+    #[serde(default)]
+    pub phash: Option<String>,
+    /// The server's reading of the file it received.
     pub exif: PhotoExif,
+    /// The phone's reading of the original, as the phone sent it (with the instant
+    /// resolved by the server), when it sent one.
+    #[serde(default)]
+    pub phone_exif: Option<PhotoExif>,
+    /// The photo's EXIF against this record's time and place; absent before migration 0003.
+    #[serde(default)]
+    pub check: PhotoCheck,
+}
+
+/// A stored photo that looks like another (perceptual hashes close), for duplicate review.
+#[derive(Debug, Clone, PartialEq, Eq, Serialize, Deserialize)]
+pub struct SimilarPhoto {
+    pub sha256: String,
+    /// Differing bits between the two 64-bit perceptual hashes (0 = alike).
+    pub distance_bits: u32,
+    /// Observations that carry this photo.
+    pub observation_ids: Vec<i64>,
 }
 
 /// Something a reviewer should look at, with the reason in plain words.

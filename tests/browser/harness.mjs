@@ -37,8 +37,8 @@ export async function startServer() {
     child.on('exit', (code) => { clearTimeout(timer); reject(new Error(`server exited with ${code}: ${seen}`)); });
   });
   let session = null;
-  // GETs a path as the signed-in reviewer.
-  async function get(pathname) {
+  // GETs a path as the signed-in reviewer; the raw response.
+  async function fetchSigned(pathname) {
     if (!session) {
       const login = await fetch(`${url}/api/session`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify(REVIEWER) });
       if (!login.ok) throw new Error(`reviewer sign-in: ${login.status}`);
@@ -46,12 +46,14 @@ export async function startServer() {
     }
     const response = await fetch(`${url}${pathname}`, { headers: { cookie: session } });
     if (!response.ok) throw new Error(`GET ${pathname}: ${response.status}`);
-    return response.json();
+    return response;
   }
+  const get = async (pathname) => (await fetchSigned(pathname)).json();
   return {
     url,
     dataDir,
     get,
+    fetchSigned,
     records: () => get('/api/observations'),
     stop() { child.kill('SIGTERM'); },
   };

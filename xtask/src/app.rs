@@ -48,6 +48,25 @@ pub fn build(profile: Profile) -> Result<PathBuf> {
     Ok(dist)
 }
 
+/// Builds the wasm benchmark crate (`tests/upload-copy-bench`) with its bindings into
+/// `target/bench-wasm`, for `tests/browser/bench_prepare.mjs`.
+pub fn build_bench_wasm() -> Result<PathBuf> {
+    prerequisites::wasm_target()?;
+    check_bindgen_version()?;
+    run::cargo(&["build", "-p", "upload-copy-bench", "--target", "wasm32-unknown-unknown", "--profile", "wasm-release"])?;
+    let wasm = root().join("target/wasm32-unknown-unknown/wasm-release/upload_copy_bench.wasm");
+    let out = root().join("target/bench-wasm");
+    fs::create_dir_all(&out)?;
+    wasm_bindgen_cli_support::Bindgen::new()
+        .input_path(&wasm)
+        .web(true)?
+        .out_name("upload_copy_bench")
+        .typescript(false)
+        .generate(&out)
+        .context("generating the benchmark's wasm bindings")?;
+    Ok(out)
+}
+
 fn check_bindgen_version() -> Result<()> {
     let lock = fs::read_to_string(root().join("Cargo.lock")).context("reading Cargo.lock")?;
     let locked = lock

@@ -5,8 +5,10 @@
 //!   `target/app-dist`.
 //! - `demo [ARGS…]`: build everything, then run `wrackline demo` (ARGS go to it).
 //! - `test`: install what the tests need (wasm target, Chromium, exiftool, npm
-//!   packages, a Python venv in target/venv), build, and run every test: Rust unit and integration tests, then the
-//!   browser tests. `ci` is the same.
+//!   packages, a Python venv in target/venv), build, and run every test: Rust unit and
+//!   integration tests, then the browser tests, then the intake fuzz loop for 15 s. `ci`
+//!   is the same.
+//! - `fuzz [--seconds N] [--seed N]`: the intake fuzz loop (`server/examples/fuzz_intake.rs`).
 //! - `bench`: the benchmarks, each printing ratios against a baseline measured in the
 //!   same run (never timed tests: machines here are shared and noisy).
 
@@ -26,9 +28,10 @@ fn main() -> Result<()> {
         "build" => app::build(profile(&rest)).map(|_| ()),
         "demo" => demo(&rest),
         "test" | "ci" => test(),
+        "fuzz" => fuzz(&rest),
         "bench" => bench(),
         _ => bail!(
-            "usage: cargo xtask <build [--dev] | demo [wrackline demo options] | test | ci | bench>\n  unknown task `{task}`"
+            "usage: cargo xtask <build [--dev] | demo [wrackline demo options] | test | ci | fuzz [--seconds N] [--seed N] | bench>\n  unknown task `{task}`"
         ),
     }
 }
@@ -57,18 +60,33 @@ fn test() -> Result<()> {
     prerequisites::all()?;
     let python = prerequisites::python_venv()?;
     let dist = app::build(app::Profile::Release)?;
-    run::cargo_with_env(&["test", "--workspace", "--exclude", "wrackline-app"], &[("WRACKLINE_PYTHON", &python)])?;
+    run::cargo_with_env(&["test", "--workspace", "--exclude", "wrackline-app", "--exclude", "upload-copy-bench"], &[("WRACKLINE_PYTHON", &python)])?;
     run::cargo(&["build", "-p", "wrackline-server"])?;
     run::browser_tests(&dist, &root().join("target/debug/wrackline"))?;
+    fuzz(&["--seconds".into(), "15".into()])?;
     println!("xtask test: every suite passed in {:.0} s", started.elapsed().as_secs_f64());
     Ok(())
 }
 
+/// The intake fuzz loop; it exits non-zero on a finding (saved in `target/fuzz-findings/`).
+fn fuzz(args: &[String]) -> Result<()> {
+    let mut cargo_args = vec!["run", "-p", "wrackline-server", "--example", "fuzz_intake", "--"];
+    cargo_args.extend(args.iter().map(String::as_str));
+    run::cargo(&cargo_args)
+}
+
+/// Benchmarks, not timed tests: they print numbers and pass whatever they are.
 fn bench() -> Result<()> {
     prerequisites::all()?;
     run::cargo(&["bench", "-p", "species-key", "--bench", "next_question"])?;
     run::cargo(&["bench", "-p", "analysis", "--bench", "range"])?;
+    run::cargo(&["bench", "-p", "wrackline-server", "--bench", "intake"])?;
+    run::cargo(&["bench", "-p", "wrackline-server", "--bench", "duplicates"])?;
+    run::cargo(&["bench", "-p", "wrackline-server", "--bench", "export"])?;
+    let bench_wasm = app::build_bench_wasm()?;
     let dist = app::build(app::Profile::Release)?;
     run::cargo(&["build", "--release", "-p", "wrackline-server"])?;
-    run::browser_script("bench_key.mjs", &dist, &root().join("target/release/wrackline"))
+    let server = root().join("target/release/wrackline");
+    run::browser_script("bench_key.mjs", &dist, &server)?;
+    run::browser_bench(&dist, &bench_wasm, &server)
 }

@@ -41,7 +41,7 @@ pub fn exec(mut command: Command) -> Result<()> {
 }
 
 /// The browser test files, run in this order.
-const BROWSER_TESTS: &[&str] = &["offline_capture.test.mjs", "species_key.test.mjs", "walks.test.mjs", "review_round_trip.test.mjs"];
+const BROWSER_TESTS: &[&str] = &["offline_capture.test.mjs", "photos.test.mjs", "species_key.test.mjs", "walks.test.mjs", "review_round_trip.test.mjs"];
 
 /// `node` with what the browser tests and scripts need to find: the real server
 /// binary, the built app and the demo files.
@@ -68,5 +68,12 @@ pub fn browser_tests(dist: &Path, server: &Path) -> Result<()> {
 pub fn browser_script(file: &str, dist: &Path, server: &Path) -> Result<()> {
     let mut command = node(dist, server);
     command.arg(root().join("tests/browser").join(file));
+    check(command)
+}
+
+/// The phone-side benchmark: the 12 MP upload copy in headless Chromium.
+pub fn browser_bench(dist: &Path, bench_wasm: &Path, server: &Path) -> Result<()> {
+    let mut command = node(dist, server);
+    command.arg(root().join("tests/browser/bench_prepare.mjs")).env("WRACKLINE_BENCH_WASM", bench_wasm);
     check(command)
 }

@@ -10,7 +10,8 @@ use uuid::Uuid;
 use crate::AppState;
 use crate::error::ApiError;
 use crate::handlers::access::{Caller, Reviewer};
-use crate::intake::{self, IntakeError, Upload};
+use crate::intake::images::ImageProblem;
+use crate::intake::{self, IntakeError, PhotoProblem, Upload};
 use crate::store::observations;
 
 /// `POST /api/observations`. Answers 200 with a receipt only once the record and its
@@ -57,7 +58,13 @@ pub fn intake_error(err: IntakeError) -> ApiError {
     match err {
         IntakeError::NotJson(_) => ApiError::BadRequest(err.to_string()),
         IntakeError::Field { field, message } => ApiError::InvalidField { field, message },
-        IntakeError::Photo { .. } => ApiError::UnsupportedMedia(err.to_string()),
+        IntakeError::Photo { ref problem, .. } => match problem {
+            PhotoProblem::Empty | PhotoProblem::NotAnImage => ApiError::UnsupportedMedia(err.to_string()),
+            PhotoProblem::TooManyBytes(_) | PhotoProblem::Image(ImageProblem::TooManyPixels { .. }) => {
+                ApiError::TooLarge(err.to_string())
+            }
+            PhotoProblem::Image(_) => ApiError::Unprocessable(err.to_string()),
+        },
         IntakeError::TooManyPhotos(_) => ApiError::TooLarge(err.to_string()),
         IntakeError::Conflict(_) => ApiError::Conflict(err.to_string()),
         IntakeError::Storage(inner) => ApiError::Internal(inner),

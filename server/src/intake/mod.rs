@@ -2,17 +2,20 @@
 //! names what is wrong. Nothing is half-stored: photo files are written (by content,
 //! so a retry rewrites nothing) before the one database transaction that links them.
 
-pub mod exif;
+pub mod photo_checks;
+pub mod images;
 pub mod photos;
 pub mod walks;
 
 use chrono::{DateTime, Utc};
+pub use shared_types::exif;
 use sha2::{Digest as _, Sha256};
 use shared_types::{Receipt, Submission};
 
 use crate::AppState;
 use crate::store::observations::{self, Insertion, NewObservation, StoredPhoto};
-use photos::{MAX_PHOTO_BYTES, MAX_PHOTOS_PER_RECORD, PhotoFormat};
+use images::ImageProblem;
+use photos::{MAX_PHOTO_BYTES, MAX_PHOTOS_PER_RECORD, PhotoFormat, Rendition};
 
 /// The raw parts of one submission.
 #[derive(Debug, Default)]
@@ -28,14 +31,27 @@ pub enum IntakeError {
     NotJson(String),
     #[error("{field}: {message}")]
     Field { field: String, message: String },
-    #[error("photo {number}: {message}")]
-    Photo { number: usize, message: String },
+    #[error("photo {number}: {problem}")]
+    Photo { number: usize, problem: PhotoProblem },
     #[error("a record may carry at most {MAX_PHOTOS_PER_RECORD} photos, this one has {0}")]
     TooManyPhotos(usize),
     #[error("record {0} was already received with different content; a changed record needs a new id")]
     Conflict(uuid::Uuid),
     #[error(transparent)]
     Storage(#[from] anyhow::Error),
+}
+
+/// What is wrong with one photo. Each is found before anything is stored.
+#[derive(Debug, Clone, PartialEq, thiserror::Error)]
+pub enum PhotoProblem {
+    #[error("the file is empty")]
+    Empty,
+    #[error("{0} bytes is over the limit of {MAX_PHOTO_BYTES} bytes")]
+    TooManyBytes(usize),
+    #[error("not a JPEG or PNG image (checked by its first bytes); send the photo as JPEG")]
+    NotAnImage,
+    #[error("{0}")]
+    Image(#[from] ImageProblem),
 }
 
 /// The result of a successful intake.
@@ -87,8 +103,18 @@ fn missing_field(message: &str) -> Option<&str> {
 /// Checks, stores and links everything in `upload`.
 pub async fn accept(state: &AppState, upload: Upload, observer_id: Option<i64>, now: DateTime<Utc>) -> Result<Accepted, IntakeError> {
     let submission = parse_submission(&upload.record_json, now)?;
+    if submission.photo_exif.len() > upload.photos.len() {
+        return Err(IntakeError::Field {
+            field: "photo_exif".into(),
+            message: format!("lists EXIF for {} photos but {} came with the record", submission.photo_exif.len(), upload.photos.len()),
+        });
+    }
     let record_offset = *submission.observed_at.offset();
-    let stored = store_photos(state, upload.photos, record_offset).await?;
+    let mut stored = store_photos(state, upload.photos, record_offset).await?;
+    for (index, photo) in stored.iter_mut().enumerate() {
+        photo.phone_exif = submission.photo_exif.get(index).map(|phone| phone_reading(phone, record_offset));
+        photo.check = photo_checks::compare(&submission, &photo.exif, photo.phone_exif.as_ref());
+    }
     let (flags, guessed_taxon) = arrival_flags(state, &submission).await?;
     let new = NewObservation { content_sha256: content_hash(&submission, &stored), submission, photos: stored, flags, guessed_taxon, observer_id };
     let client_id = new.submission.client_id;
@@ -132,7 +158,8 @@ async fn find_duplicates(state: &AppState, observation_id: i64, now: DateTime<Ut
     Ok(())
 }
 
-/// Checks and writes photo files (blocking work, so on the blocking pool).
+/// Checks and writes photo files; hashing, EXIF, decoding, derivatives and file writes
+/// are blocking work, so on the blocking pool.
 pub async fn store_photos(state: &AppState, photos: Vec<Vec<u8>>, record_offset: chrono::FixedOffset) -> Result<Vec<StoredPhoto>, IntakeError> {
     if photos.len() > MAX_PHOTOS_PER_RECORD {
         return Err(IntakeError::TooManyPhotos(photos.len()));
@@ -155,41 +182,69 @@ async fn arrival_flags(state: &AppState, submission: &Submission) -> Result<(Vec
     Ok((crate::flags::raise(state.checklist(), submission, taxon, &confirmed), Some(name)))
 }
 
+/// Checks and decodes every photo first, so a bad one refuses the record before any
+/// file is written; then writes each original and its derivatives durably.
 fn store_photo_files(
     files: &photos::PhotoFiles,
     photos: Vec<Vec<u8>>,
     record_offset: chrono::FixedOffset,
 ) -> Result<Vec<StoredPhoto>, IntakeError> {
-    let checked = photos
-        .iter()
-        .enumerate()
-        .map(|(index, bytes)| check_photo(index + 1, bytes))
-        .collect::<Result<Vec<_>, _>>()?;
-    checked
+    let prepared = photos
         .into_iter()
-        .zip(photos)
-        .map(|(format, bytes)| {
-            let sha256 = photos::sha256_hex(&bytes);
-            files.put(&sha256, &bytes)?;
-            Ok(StoredPhoto {
-                media_type: format.media_type().to_owned(),
-                byte_len: bytes.len() as u64,
-                exif: exif::resolve_time(exif::read(&bytes), record_offset),
-                sha256,
-            })
+        .enumerate()
+        .map(|(index, bytes)| prepare_photo(bytes, record_offset).map_err(|problem| IntakeError::Photo { number: index + 1, problem }))
+        .collect::<Result<Vec<_>, _>>()?;
+    prepared
+        .into_iter()
+        .map(|(bytes, derived, stored)| {
+            files.put(&stored.sha256, Rendition::Original, &bytes)?;
+            files.put(&stored.sha256, Rendition::Display, &derived.display_jpeg)?;
+            files.put(&stored.sha256, Rendition::Thumb, &derived.thumb_jpeg)?;
+            Ok(stored)
         })
         .collect()
 }
 
-fn check_photo(number: usize, bytes: &[u8]) -> Result<PhotoFormat, IntakeError> {
-    let refuse = |message: String| IntakeError::Photo { number, message };
+/// Everything intake learns from one photo's bytes, without storing anything. Public for
+/// the fuzz loop (`server/examples/fuzz_intake.rs`), which drives exactly this.
+pub fn prepare_photo(
+    bytes: Vec<u8>,
+    record_offset: chrono::FixedOffset,
+) -> Result<(Vec<u8>, images::Derivatives, StoredPhoto), PhotoProblem> {
+    let format = check_photo(&bytes)?;
+    let exif = exif::resolve_time(exif::read(&bytes), record_offset);
+    let derived = images::derive(&bytes, format, exif.orientation)?;
+    let stored = StoredPhoto {
+        sha256: photos::sha256_hex(&bytes),
+        media_type: format.media_type().to_owned(),
+        byte_len: bytes.len() as u64,
+        width: derived.width,
+        height: derived.height,
+        phash: derived.phash.clone(),
+        exif,
+        phone_exif: None,
+        check: shared_types::PhotoCheck::default(),
+    };
+    Ok((bytes, derived, stored))
+}
+
+/// The phone's reading as sent, with the instant worked out here from its local time
+/// and offset (the server decides, with the same rule as for its own reading).
+fn phone_reading(phone: &shared_types::PhotoExif, record_offset: chrono::FixedOffset) -> shared_types::PhotoExif {
+    let sent = shared_types::PhotoExif { taken_at: None, offset_source: None, ..phone.clone() };
+    exif::resolve_time(sent, record_offset)
+}
+
+/// The checks made before any decoding: not empty, not too many bytes, a known format
+/// by its magic bytes. The pixel-dimension check follows in `images::decode`.
+fn check_photo(bytes: &[u8]) -> Result<PhotoFormat, PhotoProblem> {
     if bytes.is_empty() {
-        return Err(refuse("the file is empty".into()));
+        return Err(PhotoProblem::Empty);
     }
     if bytes.len() > MAX_PHOTO_BYTES {
-        return Err(refuse(format!("{} bytes is over the limit of {MAX_PHOTO_BYTES} bytes", bytes.len())));
+        return Err(PhotoProblem::TooManyBytes(bytes.len()));
     }
-    PhotoFormat::sniff(bytes).ok_or_else(|| refuse("not a JPEG or PNG image (checked by its first bytes)".into()))
+    PhotoFormat::sniff(bytes).ok_or(PhotoProblem::NotAnImage)
 }
 
 /// The fingerprint of a submission's content: its canonical JSON and its photos'

@@ -1,7 +1,7 @@
 //! Photo files on disk, stored once by content: the file name is the SHA-256 of the
 //! bytes, so the same photo sent twice (or attached to two records) is one file.
 //!
-//! A file is written to a temporary name, synced, then renamed into place and the
+//! Each photo has its original and two derivatives (a `Rendition`). A file is written to a temporary name, synced, then renamed into place and the
 //! folder synced, so a photo the server has acknowledged survives a power cut.
 
 use std::fs::{self, File};
@@ -49,6 +49,25 @@ pub fn sha256_hex(bytes: &[u8]) -> String {
     hex::encode(Sha256::digest(bytes))
 }
 
+/// The copies kept of each photo: the original as received (reviewers only) and the
+/// two derivatives made from it (see `intake::images`), stored beside it.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Rendition {
+    Original,
+    Display,
+    Thumb,
+}
+
+impl Rendition {
+    fn suffix(self) -> &'static str {
+        match self {
+            Self::Original => "",
+            Self::Display => ".display.jpg",
+            Self::Thumb => ".thumb.jpg",
+        }
+    }
+}
+
 /// The folder photos live in.
 #[derive(Debug, Clone)]
 pub struct PhotoFiles {
@@ -61,15 +80,16 @@ impl PhotoFiles {
         Ok(Self { root: root.to_owned() })
     }
 
-    /// Where the file with this hash lives (two-level fan-out keeps folders small).
-    pub fn path_of(&self, sha256: &str) -> Option<PathBuf> {
+    /// Where a rendition of the photo with this hash lives (two-level fan-out keeps folders
+    /// small); `None` unless the hash is 64 lower-case hex digits.
+    pub fn path_of(&self, sha256: &str, rendition: Rendition) -> Option<PathBuf> {
         let valid = sha256.len() == 64 && sha256.bytes().all(|b| b.is_ascii_hexdigit() && !b.is_ascii_uppercase());
-        valid.then(|| self.root.join(&sha256[..2]).join(sha256))
+        valid.then(|| self.root.join(&sha256[..2]).join(format!("{sha256}{}", rendition.suffix())))
     }
 
-    /// Writes the bytes durably under their hash, unless that file exists already.
-    pub fn put(&self, sha256: &str, bytes: &[u8]) -> anyhow::Result<()> {
-        let target = self.path_of(sha256).context("photo hash is not 64 lower-case hex digits")?;
+    /// Writes the bytes durably as this rendition of the photo, unless that file exists already.
+    pub fn put(&self, sha256: &str, rendition: Rendition, bytes: &[u8]) -> anyhow::Result<()> {
+        let target = self.path_of(sha256, rendition).context("photo hash is not 64 lower-case hex digits")?;
         if target.exists() {
             return Ok(());
         }
@@ -78,7 +98,7 @@ impl PhotoFiles {
         // A unique temporary name, so two uploads of the same photo never share one.
         static NEXT: AtomicU64 = AtomicU64::new(0);
         let unique = NEXT.fetch_add(1, Ordering::Relaxed);
-        let temp = self.root.join("tmp").join(format!("{sha256}.{}.{unique}", std::process::id()));
+        let temp = self.root.join("tmp").join(format!("{sha256}{}.{}.{unique}", rendition.suffix(), std::process::id()));
         let mut file = File::create(&temp).with_context(|| format!("creating {}", temp.display()))?;
         file.write_all(bytes)?;
         file.sync_all()?;

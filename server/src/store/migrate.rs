@@ -11,6 +11,9 @@ use super::StoreError;
 /// Every migration, in the order it must run.
 const MIGRATIONS: &[(&str, &str)] = &[
     ("0001_initial", include_str!("../../../migrations/0001_initial.sql")),
+    ("0002_photo_derivatives", include_str!("../../../migrations/0002_photo_derivatives.sql")),
+    ("0003_photo_flags", include_str!("../../../migrations/0003_photo_flags.sql")),
+    ("0004_phone_exif", include_str!("../../../migrations/0004_phone_exif.sql")),
     ("0005_observation_flags", include_str!("../../../migrations/0005_observation_flags.sql")),
     ("0006_walk_details", include_str!("../../../migrations/0006_walk_details.sql")),
     ("0007_people_and_review", include_str!("../../../migrations/0007_people_and_review.sql")),

@@ -3,10 +3,11 @@
 
 use chrono::{DateTime, Utc};
 use rusqlite::{Connection, OptionalExtension, Transaction, params};
-use shared_types::{FlagKind, OffsetSource, PhotoExif, PhotoView, Receipt, RecordFlag, RecordView, ReviewState, Submission};
+use shared_types::{FlagKind, OffsetSource, PhotoCheck, PhotoExif, PhotoFlag, PhotoView, Receipt, RecordFlag, RecordView, ReviewState, SimilarPhoto, Submission};
 use uuid::Uuid;
 
 use super::StoreError;
+use crate::intake::images::hash_distance;
 
 /// A photo whose file is already durably on disk, ready to be linked to a record.
 #[derive(Debug, Clone)]
@@ -14,7 +15,16 @@ pub struct StoredPhoto {
     pub sha256: String,
     pub media_type: String,
     pub byte_len: u64,
+    /// Pixel size as stored (before orientation).
+    pub width: u32,
+    pub height: u32,
+    /// See `intake::images::perceptual_hash`.
+    pub phash: String,
     pub exif: PhotoExif,
+    /// What the phone read from the original, when it sent that.
+    pub phone_exif: Option<PhotoExif>,
+    /// The photo against this record (see `intake::photo_checks`).
+    pub check: PhotoCheck,
 }
 
 /// Everything intake has checked and is ready to store.
@@ -169,27 +179,40 @@ fn insert_details(tx: &Transaction, observation_id: i64, new: &NewObservation, r
 /// Stores a photo row (once per file) and links it to an observation at `position`.
 pub(super) fn link_photo(tx: &Transaction, observation_id: i64, position: usize, photo: &StoredPhoto, received_at: &str) -> Result<(), StoreError> {
     let exif = &photo.exif;
+    let phone_json = photo.phone_exif.as_ref().map(serde_json::to_string).transpose().map_err(|err| StoreError::Corrupt(err.to_string()))?;
     // The same file may already be stored for another record: keep the first row.
     tx.execute(
         "INSERT OR IGNORE INTO photos (sha256, media_type, byte_len, exif_taken_local, exif_offset, exif_latitude,
-            exif_longitude, exif_altitude_m, exif_h_error_m, exif_orientation, stored_at)
-         VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11)",
+            exif_longitude, exif_altitude_m, exif_h_error_m, exif_orientation, stored_at, width, height, phash)
+         VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, ?12, ?13, ?14)",
         params![
             photo.sha256, photo.media_type, photo.byte_len as i64, exif.taken_local, exif.offset, exif.latitude,
-            exif.longitude, exif.altitude_m, exif.horizontal_error_m, exif.orientation, received_at
+            exif.longitude, exif.altitude_m, exif.horizontal_error_m, exif.orientation, received_at, photo.width,
+            photo.height, photo.phash
         ],
     )?;
     tx.execute(
-        "INSERT OR IGNORE INTO observation_photos (observation_id, photo_sha256, position, exif_taken_at, offset_source)
-         VALUES (?1, ?2, ?3, ?4, ?5)",
+        "INSERT OR IGNORE INTO observation_photos (observation_id, photo_sha256, position, exif_taken_at, offset_source,
+            seconds_before_record, metres_from_record, exif_reading, phone_exif_json)
+         VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9)",
         params![
             observation_id,
             photo.sha256,
             position as i64,
             exif.taken_at.map(|t| t.to_rfc3339()),
-            exif.offset_source.as_ref().map(code)
+            exif.offset_source.as_ref().map(code),
+            photo.check.seconds_before_record,
+            photo.check.metres_from_record,
+            photo.check.reading.as_ref().map(code),
+            phone_json,
         ],
     )?;
+    for flag in &photo.check.flags {
+        tx.execute(
+            "INSERT OR IGNORE INTO photo_flags (observation_id, photo_sha256, flag) VALUES (?1, ?2, ?3)",
+            params![observation_id, photo.sha256, code(flag)],
+        )?;
+    }
     Ok(())
 }
 
@@ -231,9 +254,23 @@ pub fn count_observations(conn: &Connection) -> Result<i64, StoreError> {
     Ok(conn.query_row("SELECT COUNT(*) FROM observations", [], |row| row.get(0))?)
 }
 
-/// The media type of a stored photo, if the hash is known.
-pub fn photo_media_type(conn: &Connection, sha256: &str) -> Result<Option<String>, StoreError> {
-    Ok(conn.query_row("SELECT media_type FROM photos WHERE sha256 = ?1", [sha256], |row| row.get(0)).optional()?)
+/// The media type and EXIF Orientation of a stored photo, if the hash is known.
+pub fn photo_file_facts(conn: &Connection, sha256: &str) -> Result<Option<(String, Option<u16>)>, StoreError> {
+    Ok(conn
+        .query_row("SELECT media_type, exif_orientation FROM photos WHERE sha256 = ?1", [sha256], |row| {
+            Ok((row.get(0)?, row.get(1)?))
+        })
+        .optional()?)
+}
+
+/// Records the size and perceptual hash of a photo whose derivatives were made again
+/// (photos stored before migration 0002 have none).
+pub fn set_photo_pixels(conn: &Connection, sha256: &str, width: u32, height: u32, phash: &str) -> Result<(), StoreError> {
+    conn.execute(
+        "UPDATE photos SET width = ?2, height = ?3, phash = ?4 WHERE sha256 = ?1 AND phash IS NULL",
+        params![sha256, width, height, phash],
+    )?;
+    Ok(())
 }
 
 type RecordRow = (i64, i64, String, String, String, Option<String>);
@@ -283,7 +320,11 @@ pub fn confirmed_positions(conn: &Connection, scientific_name: &str) -> Result<V
 fn photos_of(conn: &Connection, observation_id: i64) -> Result<Vec<PhotoView>, StoreError> {
     let mut stmt = conn.prepare(
         "SELECT p.sha256, p.media_type, p.byte_len, p.exif_taken_local, p.exif_offset, p.exif_latitude, p.exif_longitude,
-                p.exif_altitude_m, p.exif_h_error_m, p.exif_orientation, op.exif_taken_at, op.offset_source
+                p.exif_altitude_m, p.exif_h_error_m, p.exif_orientation, op.exif_taken_at, op.offset_source,
+                p.width, p.height, p.phash, op.seconds_before_record, op.metres_from_record,
+                (SELECT group_concat(f.flag) FROM photo_flags f
+                 WHERE f.observation_id = op.observation_id AND f.photo_sha256 = op.photo_sha256),
+                op.exif_reading, op.phone_exif_json
          FROM observation_photos op JOIN photos p ON p.sha256 = op.photo_sha256
          WHERE op.observation_id = ?1 ORDER BY op.position",
     )?;
@@ -294,6 +335,16 @@ fn photos_of(conn: &Connection, observation_id: i64) -> Result<Vec<PhotoView>, S
             sha256: row.get(0)?,
             media_type: row.get(1)?,
             byte_len: row.get::<_, i64>(2)? as u64,
+            width: row.get(12)?,
+            height: row.get(13)?,
+            phash: row.get(14)?,
+            phone_exif: row.get::<_, Option<String>>(19)?.and_then(|json| serde_json::from_str(&json).ok()),
+            check: PhotoCheck {
+                reading: row.get::<_, Option<String>>(18)?.and_then(|c| from_code(&c)),
+                seconds_before_record: row.get(15)?,
+                metres_from_record: row.get(16)?,
+                flags: flags_from(row.get::<_, Option<String>>(17)?),
+            },
             exif: PhotoExif {
                 taken_local: row.get(3)?,
                 offset: row.get(4)?,
@@ -308,6 +359,13 @@ fn photos_of(conn: &Connection, observation_id: i64) -> Result<Vec<PhotoView>, S
         })
     })?;
     Ok(rows.collect::<Result<Vec<_>, _>>()?)
+}
+
+/// Flags stored as codes, comma-joined by the query; unknown codes are skipped.
+fn flags_from(joined: Option<String>) -> Vec<PhotoFlag> {
+    let mut flags: Vec<PhotoFlag> = joined.unwrap_or_default().split(',').filter_map(from_code).collect();
+    flags.sort();
+    flags
 }
 
 /// The snake_case name serde gives a plain enum, used as its stored code.
@@ -326,4 +384,31 @@ fn parse_utc(text: &str) -> Result<DateTime<Utc>, StoreError> {
     DateTime::parse_from_rfc3339(text)
         .map(|t| t.with_timezone(&Utc))
         .map_err(|err| StoreError::Corrupt(format!("timestamp {text}: {err}")))
+}
+
+/// Stored photos whose perceptual hash is within `max_bits` of this photo's, nearest
+/// first, with the observations each belongs to. A linear scan: fine for the tens of
+/// thousands of photos a regional network gathers; an index (BK-tree) can come later.
+pub fn similar_photos(conn: &Connection, sha256: &str, max_bits: u32) -> Result<Option<Vec<SimilarPhoto>>, StoreError> {
+    let Some(Some(own)) = conn
+        .query_row("SELECT phash FROM photos WHERE sha256 = ?1", [sha256], |row| row.get::<_, Option<String>>(0))
+        .optional()?
+    else {
+        return Ok(None);
+    };
+    let mut stmt = conn.prepare(
+        "SELECT p.sha256, p.phash, group_concat(op.observation_id) FROM photos p
+         LEFT JOIN observation_photos op ON op.photo_sha256 = p.sha256
+         WHERE p.phash IS NOT NULL AND p.sha256 <> ?1 GROUP BY p.sha256",
+    )?;
+    let rows = stmt.query_map([sha256], |row| Ok((row.get::<_, String>(0)?, row.get::<_, String>(1)?, row.get::<_, Option<String>>(2)?)))?;
+    let mut near = Vec::new();
+    for row in rows {
+        let (other, phash, observations) = row?;
+        let Some(distance_bits) = hash_distance(&own, &phash).filter(|d| *d <= max_bits) else { continue };
+        let observation_ids = observations.unwrap_or_default().split(',').filter_map(|id| id.parse().ok()).collect();
+        near.push(SimilarPhoto { sha256: other, distance_bits, observation_ids });
+    }
+    near.sort_by(|a, b| a.distance_bits.cmp(&b.distance_bits).then_with(|| a.sha256.cmp(&b.sha256)));
+    Ok(Some(near))
 }

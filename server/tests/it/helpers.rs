@@ -157,3 +157,32 @@ pub fn with_exiftool(jpeg: &[u8], tags: &[&str], dir: &Path) -> Vec<u8> {
     assert!(output.status.success(), "exiftool failed: {}", String::from_utf8_lossy(&output.stderr));
     std::fs::read(&path).unwrap()
 }
+
+/// A real JPEG of the given size with detail everywhere (so it compresses like a photo,
+/// not like a flat colour), encoded by the `image` crate, without EXIF.
+pub fn sized_jpeg(width: u32, height: u32) -> Vec<u8> {
+    let img = image::RgbImage::from_fn(width, height, |x, y| {
+        let wave = ((x * 7 + y * 3) % 64) as u8;
+        image::Rgb([(x % 251) as u8 ^ wave, (y % 241) as u8, ((x + y) % 239) as u8])
+    });
+    let mut bytes = Vec::new();
+    image::codecs::jpeg::JpegEncoder::new_with_quality(&mut bytes, 85).encode_image(&img).unwrap();
+    bytes
+}
+
+/// Every tag exiftool (the reference reader) finds in `bytes`, as `group:tag` names
+/// (`-G1`), with file-system and composite pseudo-tags left out.
+pub fn exiftool_tags(bytes: &[u8], dir: &Path) -> Vec<String> {
+    let path = dir.join(format!("read-{}.jpg", uuid::Uuid::new_v4()));
+    std::fs::write(&path, bytes).unwrap();
+    let output = std::process::Command::new("exiftool").args(["-json", "-G1", "-a", "-u"]).arg(&path).output().expect("exiftool");
+    assert!(output.status.success(), "exiftool failed: {}", String::from_utf8_lossy(&output.stderr));
+    let parsed: Value = serde_json::from_slice(&output.stdout).unwrap();
+    parsed[0]
+        .as_object()
+        .unwrap()
+        .keys()
+        .filter(|key| !["SourceFile", "ExifTool:", "System:", "File:", "Composite:"].iter().any(|skip| key.starts_with(skip)))
+        .cloned()
+        .collect()
+}

@@ -21,9 +21,12 @@ async fn a_record_with_a_photo_makes_the_round_trip() {
     assert_eq!(record["submission"], submission(ID));
     assert_eq!(record["review_state"], "awaiting_review");
     let sha = record["photos"][0]["sha256"].as_str().unwrap();
-    let photo = app.get(&format!("/photos/{sha}")).await;
-    assert_eq!(photo.status(), 200);
-    assert_eq!(photo.bytes().await.unwrap().to_vec(), plain_jpeg(1));
+    let original = app.get(&format!("/photos/{sha}/original")).await;
+    assert_eq!(original.status(), 200);
+    assert_eq!(original.bytes().await.unwrap().to_vec(), plain_jpeg(1));
+    let display = app.get(&format!("/photos/{sha}")).await;
+    assert_eq!(display.status(), 200);
+    assert_eq!(display.headers()["content-type"], "image/jpeg");
 }
 
 #[tokio::test]
@@ -147,7 +150,7 @@ async fn one_photo_in_two_records_is_stored_once() {
     let records = app.records().await;
     assert_eq!(records[0]["photos"][0]["sha256"], records[1]["photos"][0]["sha256"]);
     let files = walk(&app.data_dir.join("photos")).into_iter().filter(|p| !p.starts_with(app.data_dir.join("photos/tmp"))).count();
-    assert_eq!(files, 1);
+    assert_eq!(files, 3, "one original, one display copy, one thumbnail");
 }
 
 fn walk(dir: &std::path::Path) -> Vec<std::path::PathBuf> {

@@ -1,11 +1,13 @@
 //! Reads what a photo's EXIF says about when and where it was taken (CIPA DC-008).
 //!
-//! A photo without EXIF, or with EXIF we cannot read, simply has no EXIF facts: that
-//! is never a reason to refuse the record.
+//! Shared because both sides read it: the phone from the original before it makes the
+//! upload copy (which carries no EXIF), the server from the file it receives. A photo
+//! without EXIF, or with EXIF that cannot be read, simply has no EXIF facts: that is
+//! never a reason to refuse the record.
 
 use chrono::{DateTime, FixedOffset, NaiveDateTime, TimeZone};
 use exif::{In, Reader, Tag, Value};
-use shared_types::{OffsetSource, PhotoExif};
+use crate::record::{OffsetSource, PhotoExif};
 
 /// EXIF facts straight from the file, before the record's offset is applied.
 pub fn read(bytes: &[u8]) -> PhotoExif {
@@ -14,7 +16,7 @@ pub fn read(bytes: &[u8]) -> PhotoExif {
     let result = Reader::new()
         .continue_on_error(true)
         .read_from_container(&mut std::io::Cursor::new(bytes))
-        .or_else(|err| err.distill_partial_result(|faults| tracing::debug!(?faults, "EXIF read with faults")));
+        .or_else(|err| err.distill_partial_result(|_faults| ()));
     let Ok(exif) = result else {
         return PhotoExif::default();
     };
