@@ -3,6 +3,7 @@
 //! into a checked [`Submission`] with the same checks the server runs, or into a
 //! list of problems to show.
 
+pub use shared_types::codes::{code, from_code};
 use chrono::{FixedOffset, NaiveDateTime, TimeZone};
 use leptos::prelude::*;
 use shared_types::{
@@ -19,14 +20,7 @@ use crate::photos::{self, PickedPhoto};
 use crate::sync::{self, Outbox};
 use crate::walks::WalkState;
 
-/// The serde code of a plain enum, used as an `<option>` value.
-pub fn code<T: serde::Serialize>(value: &T) -> String {
-    serde_json::to_value(value).ok().and_then(|v| v.as_str().map(str::to_owned)).unwrap_or_default()
-}
 
-fn from_code<T: serde::de::DeserializeOwned>(code: &str) -> Option<T> {
-    serde_json::from_value(serde_json::Value::String(code.to_owned())).ok()
-}
 
 /// What the observer has typed so far, as text.
 #[derive(Debug, Clone, Default)]

@@ -39,6 +39,7 @@ fn record(id: i64, random: &mut Lcg) -> DupRecord {
         taxon: Some(vec![["Raja clavata", "Scyliorhinus canicula", "Squalus acanthias"][(random.unit() * 3.0) as usize % 3].to_owned()]),
         length: Some((LengthKind::Total, 40.0 + 60.0 * random.unit(), false)),
         photo_hashes: Vec::new(),
+        photo_phashes: Vec::new(),
     }
 }
 

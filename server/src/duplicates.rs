@@ -18,7 +18,10 @@
 //!
 //! The same photo file (SHA-256) in both is decisive on its own: a candidate whatever
 //! else, with score 1. Otherwise score = 0.35 place + 0.35 time + 0.15 species + 0.15
-//! length (each 0–1), and a pair is a candidate at [`CANDIDATE_SCORE`] or more. Every
+//! length (each 0–1), plus [`PHOTOS_ALIKE_BONUS`] when two of their photos look alike
+//! (perceptual hashes within `intake::images::NEAR_DUPLICATE_BITS`), and a pair is a
+//! candidate at [`CANDIDATE_SCORE`] or more. Photos that look alike never override a
+//! contradiction: the hash sees layout, not species. Every
 //! candidate keeps its reasons in words. Thresholds are wrackline's own (common practice
 //! for plausibility windows), checked by the table in the tests.
 //!
@@ -26,6 +29,7 @@
 //! points (so distances follow the globe, with no seam at the antimeridian) plus the day,
 //! so a query is a small box of space and time wherever on Earth the records are.
 
+use shared_types::codes::from_code;
 use chrono::{DateTime, Utc};
 use geo::{Distance, Geodesic, Point};
 use rstar::primitives::GeomWithData;
@@ -40,6 +44,7 @@ pub const WINDOW_LANDED_H: f64 = 12.0;
 pub const LENGTH_TOLERANCE_MEASURED: f64 = 0.15;
 pub const LENGTH_TOLERANCE_ESTIMATED: f64 = 0.30;
 pub const CANDIDATE_SCORE: f64 = 0.5;
+pub const PHOTOS_ALIKE_BONUS: f64 = 0.2;
 /// Uncertainty assumed for a position given without one (common practice for phone fixes).
 pub const UNKNOWN_UNCERTAINTY_M: f64 = 100.0;
 
@@ -59,6 +64,8 @@ pub struct DupRecord {
     pub taxon: Option<Vec<String>>,
     pub length: Option<(LengthKind, f64, bool)>,
     pub photo_hashes: Vec<String>,
+    /// Perceptual hashes of its photos.
+    pub photo_phashes: Vec<String>,
 }
 
 /// A likely pair, with why.
@@ -145,13 +152,19 @@ pub fn score(a: &DupRecord, b: &DupRecord) -> Option<Candidate> {
         }
         _ => 0.5,
     };
-    let total = 0.35 * (1.0 - distance / allowed) + 0.35 * (1.0 - gap_hours / window) + 0.15 * species + 0.15 * length;
+    let mut total = 0.35 * (1.0 - distance / allowed) + 0.35 * (1.0 - gap_hours / window) + 0.15 * species + 0.15 * length;
+    let nearest_photos = a
+        .photo_phashes
+        .iter()
+        .flat_map(|x| b.photo_phashes.iter().filter_map(move |y| crate::intake::images::hash_distance(x, y)))
+        .min();
+    if let Some(bits) = nearest_photos.filter(|bits| *bits <= crate::intake::images::NEAR_DUPLICATE_BITS) {
+        total += PHOTOS_ALIKE_BONUS;
+        reasons.push(format!("two of their photos look alike (perceptual hashes {bits} bits apart)"));
+    }
     (total >= CANDIDATE_SCORE).then_some(Candidate { score: (total * 1000.0).round() / 1000.0, reasons, distance_m, gap_hours })
 }
 
-fn from_code<T: serde::de::DeserializeOwned>(code: &str) -> Option<T> {
-    serde_json::from_value(serde_json::Value::String(code.to_owned())).ok()
-}
 
 /// A stored record as scoring sees it; `None` when its stored codes do not read.
 pub fn from_raw(raw: &crate::store::duplicates::RawDup, names: &crate::assess::taxa::TaxonIndex) -> Option<DupRecord> {
@@ -183,6 +196,7 @@ pub fn from_raw(raw: &crate::store::duplicates::RawDup, names: &crate::assess::t
         taxon,
         length,
         photo_hashes: raw.photo_hashes.clone(),
+        photo_phashes: raw.photo_phashes.clone(),
     })
 }
 
@@ -291,6 +305,7 @@ mod tests {
             taxon: Some(vec!["Raja clavata".into(), "Raja".into(), "Rajidae".into()]),
             length: Some((LengthKind::DiscWidth, 50.0, false)),
             photo_hashes: vec![],
+            photo_phashes: vec![],
         }
     }
 
@@ -345,6 +360,27 @@ mod tests {
         b.at = at(1.0);
         north(&mut b, 200.0);
         assert!(score(&a, &b).is_none(), "350 m is past the 214 m allowed");
+    }
+
+    #[test]
+    fn photos_that_look_alike_lift_a_pair_over_the_line_but_never_a_contradiction() {
+        // Near both windows' edges the score alone falls short (see the landed-fish test).
+        let mut a = ray(1);
+        a.setting = Setting::LandingSiteOrMarket;
+        let mut b = a.clone();
+        b.observation_id = 2;
+        b.at = at(11.0);
+        north(&mut b, 150.0);
+        assert!(score(&a, &b).is_none());
+        a.photo_phashes = vec!["f0f0f0f0f0f0f0f0".into()];
+        b.photo_phashes = vec!["f0f0f0f0f0f0f0f3".into()]; // 2 bits apart
+        let lifted = score(&a, &b).expect("photos alike lift it");
+        assert!(lifted.reasons.iter().any(|r| r.contains("2 bits apart")), "{lifted:?}");
+        b.photo_phashes = vec!["0f0f0f0f0f0f0f0f".into()]; // 64 bits apart
+        assert!(score(&a, &b).is_none());
+        b.photo_phashes = vec!["f0f0f0f0f0f0f0f3".into()];
+        b.taxon = Some(vec!["Squalus acanthias".into()]);
+        assert!(score(&a, &b).is_none(), "another species still contradicts");
     }
 
     #[test]

@@ -6,6 +6,7 @@
 //! the browser, so the app and the server validate a record with the same code.
 
 pub mod exif;
+pub mod codes;
 pub mod record;
 pub mod review;
 pub mod values;

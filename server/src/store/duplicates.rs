@@ -20,6 +20,8 @@ pub struct RawDup {
     pub taxon_name: Option<String>,
     pub length: Option<(String, f64, String)>,
     pub photo_hashes: Vec<String>,
+    /// Perceptual hashes of its photos (16 hex digits each).
+    pub photo_phashes: Vec<String>,
 }
 
 const RAW: &str = "
@@ -31,7 +33,9 @@ SELECT o.id, o.observed_at_utc,
        o.accuracy_m, o.setting, o.condition,
        (SELECT i.taxon_name FROM identifications i WHERE i.observation_id = o.id AND i.superseded_by IS NULL ORDER BY i.id DESC LIMIT 1),
        m.kind, m.value_cm, m.method,
-       (SELECT group_concat(op.photo_sha256, ' ') FROM observation_photos op WHERE op.observation_id = o.id)
+       (SELECT group_concat(op.photo_sha256, ' ') FROM observation_photos op WHERE op.observation_id = o.id),
+       (SELECT group_concat(p.phash, ' ') FROM observation_photos op JOIN photos p ON p.sha256 = op.photo_sha256
+        WHERE op.observation_id = o.id AND p.phash IS NOT NULL)
 FROM observations o LEFT JOIN measurements m ON m.id = (SELECT MIN(k.id) FROM measurements k WHERE k.observation_id = o.id)";
 
 fn raw_row(row: &rusqlite::Row) -> rusqlite::Result<RawDup> {
@@ -39,6 +43,7 @@ fn raw_row(row: &rusqlite::Row) -> rusqlite::Result<RawDup> {
     let lon: Option<f64> = row.get(3)?;
     let kind: Option<String> = row.get(8)?;
     let hashes: Option<String> = row.get(11)?;
+    let phashes: Option<String> = row.get(12)?;
     Ok(RawDup {
         observation_id: row.get(0)?,
         at_utc: row.get(1)?,
@@ -52,6 +57,7 @@ fn raw_row(row: &rusqlite::Row) -> rusqlite::Result<RawDup> {
             None => None,
         },
         photo_hashes: hashes.map(|h| h.split(' ').map(str::to_owned).collect()).unwrap_or_default(),
+        photo_phashes: phashes.map(|h| h.split(' ').map(str::to_owned).collect()).unwrap_or_default(),
     })
 }
 

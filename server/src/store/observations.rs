@@ -1,6 +1,7 @@
 //! Observations, their photos, lengths and first identification: written in one
 //! transaction, read back as [`RecordView`]s.
 
+use shared_types::codes::{code, from_code};
 use chrono::{DateTime, Utc};
 use rusqlite::{Connection, OptionalExtension, Transaction, params};
 use shared_types::{FlagKind, OffsetSource, PhotoCheck, PhotoExif, PhotoFlag, PhotoView, Receipt, RecordFlag, RecordView, ReviewState, SimilarPhoto, Submission};
@@ -368,17 +369,7 @@ fn flags_from(joined: Option<String>) -> Vec<PhotoFlag> {
     flags
 }
 
-/// The snake_case name serde gives a plain enum, used as its stored code.
-fn code<T: serde::Serialize>(value: &T) -> String {
-    match serde_json::to_value(value) {
-        Ok(serde_json::Value::String(code)) => code,
-        other => unreachable!("stored enums serialise as strings, got {other:?}"),
-    }
-}
 
-fn from_code<T: serde::de::DeserializeOwned>(code: &str) -> Option<T> {
-    serde_json::from_value(serde_json::Value::String(code.to_owned())).ok()
-}
 
 fn parse_utc(text: &str) -> Result<DateTime<Utc>, StoreError> {
     DateTime::parse_from_rfc3339(text)

@@ -5,6 +5,7 @@
 //! handed to a callback as SQLite steps through them, so however many records are
 //! stored, only one row is in memory. Observer contacts are never selected.
 
+use shared_types::codes::from_code;
 use rusqlite::{Connection, Row, ToSql};
 use shared_types::{Condition, HumanSign, LengthKind, MeasureMethod, ReviewState, Setting, Sex};
 
@@ -233,6 +234,3 @@ fn split(list: Option<String>) -> Vec<String> {
     list.map(|l| l.split(' ').filter(|s| !s.is_empty()).map(str::to_owned).collect()).unwrap_or_default()
 }
 
-fn from_code<T: serde::de::DeserializeOwned>(code: &str) -> Option<T> {
-    serde_json::from_value(serde_json::Value::String(code.to_owned())).ok()
-}
