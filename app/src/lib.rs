@@ -7,10 +7,11 @@
 //! the upload copy), [`key`] (the guided species key and its [`pictures`]), [`walks`]
 //! (survey walks and their tracks), [`identity`] (the phone's device identity), [`mine`]
 //! (the observer's records and answers to reviewers), [`review`] (the reviewers'
-//! screens), [`screens`] (the page around it).
+//! screens), [`figures`] (range and trend figures), [`screens`] (the page around it).
 //! The app never decides what the server decides: it shows the server's receipts.
 
 mod device;
+mod figures;
 mod form;
 mod identity;
 mod key;

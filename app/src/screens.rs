@@ -101,6 +101,7 @@ pub fn App() -> impl IntoView {
     view! {
         <header class="top">
             <h1><a href="#">"wrackline"</a></h1>
+            <a class="pill review-link" href="#figures">"Figures"</a>
             <a class="pill review-link" href="#review">"Review"</a>
             <span id="connection" class=move || if online.get() { "pill online" } else { "pill offline" }>
                 {move || if online.get() { "online" } else { "offline: records wait on this phone" }}
@@ -116,7 +117,10 @@ pub fn App() -> impl IntoView {
             <Show when=move || screen.get() == "#people">
                 <crate::review::PeopleScreen />
             </Show>
-            <Show when=move || screen.get() != "#review" && screen.get() != "#people">
+            <Show when=move || screen.get() == "#figures">
+                <crate::figures::FiguresScreen />
+            </Show>
+            <Show when=move || !["#review", "#people", "#figures"].contains(&screen.get().as_str())>
             <Show when=move || safety_read.get() fallback=move || view! { <SafetyCautions on_read=move || { set_local_flag(SAFETY_KEY); safety_read.set(true); } /> }>
                 <WalkBar outbox=outbox />
                 <RecordForm outbox=outbox />

@@ -44,7 +44,12 @@ pub enum TrendInputError {
     Trend(#[from] analysis::trend::TrendError),
     #[error("{0}")]
     Generation(String),
+    #[error("a trend needs counts from at least {MIN_TREND_YEARS} years; these records cover {0}")]
+    TooFewYears(usize),
 }
+
+/// The fewest years a trend is fitted over (two points always fit a line exactly).
+pub const MIN_TREND_YEARS: usize = 3;
 
 /// The generation length to use: the one given, or the checklist's for `taxon`.
 pub fn generation_length(given: Option<f64>, taxon: Option<&TaxonFilter>, names: &TaxonIndex) -> Result<GenerationLength, TrendInputError> {
@@ -203,6 +208,9 @@ pub fn walk_year_counts(
 
 /// Fits the trend and wraps it with what went in.
 pub fn trend_report(years: Vec<YearCount>, generation: GenerationLength, records_used: String, notes: Vec<String>) -> Result<TrendReport, TrendInputError> {
+    if years.len() < MIN_TREND_YEARS {
+        return Err(TrendInputError::TooFewYears(years.len()));
+    }
     let trend = yearly_trend(&years, generation.years)?;
     Ok(TrendReport { records_used, generation_length: generation, years, trend, notes })
 }

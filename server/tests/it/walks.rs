@@ -213,3 +213,13 @@ async fn trends_on_stored_records_are_encounter_rates_per_kilometre_of_all_finds
     let hours: Value = app.get("/api/trend?state=any&generation_length=8&effort=hours").await.json().await.unwrap();
     assert_eq!(hours["years"][0]["effort"], 2.0, "two hours walked in 2024");
 }
+
+#[tokio::test]
+async fn a_trend_from_fewer_than_three_years_is_refused_in_plain_words() {
+    let app = spawn_app().await;
+    assert_eq!(post_walk(&app, &walk(track_json(&beach_track(), 20))).await.0, 200);
+    let response = app.get("/api/trend?state=any&generation_length=8").await;
+    assert_eq!(response.status(), 400);
+    let body: Value = response.json().await.unwrap();
+    assert_eq!(body["error"], "a trend needs counts from at least 3 years; these records cover 1");
+}
