@@ -176,6 +176,8 @@ impl Builder<'_> {
             format!("organism-{}", row.organism_id),
             place.generalizations.clone().unwrap_or_default(),
             place.withheld.clone().unwrap_or_default(),
+            // Darwin Core: the other reports of this organism, "relationship: id", " | " between.
+            row.other_reports.iter().map(|id| format!("same organism: urn:uuid:{id}")).collect::<Vec<_>>().join(" | "),
         ];
         Occurrence {
             dwc,

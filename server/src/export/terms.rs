@@ -35,6 +35,7 @@ pub const OCCURRENCE_TERMS: &[&str] = &[
     "organismID",
     "dataGeneralizations",
     "informationWithheld",
+    "associatedOccurrences",
 ];
 
 /// MeasurementOrFact terms after the core id column.

@@ -77,6 +77,8 @@ pub struct OccurrenceRow {
     pub species_guess: Option<String>,
     /// The survey walk the (first) observation was made on.
     pub walk_client_id: Option<String>,
+    /// Client ids of the other reports of this organism (after a merge).
+    pub other_reports: Vec<String>,
 }
 
 // One observation per organism is read: its first (lowest id). The span and photos of the
@@ -107,6 +109,8 @@ fn merged_details(conn: &Connection, row: &mut OccurrenceRow) -> Result<(), Stor
          WHERE x.organism_id = ?1 ORDER BY x.observed_at_utc, x.id, op.position",
     )?;
     row.photo_hashes = photos.query_map([row.organism_id], |r| r.get(0))?.collect::<Result<_, _>>()?;
+    let mut others = conn.prepare_cached("SELECT client_id FROM observations WHERE organism_id = ?1 AND id != ?2 ORDER BY observed_at_utc, id")?;
+    row.other_reports = others.query_map([row.organism_id, row.observation_id], |r| r.get(0))?.collect::<Result<_, _>>()?;
     Ok(())
 }
 
@@ -227,6 +231,7 @@ fn read_row(row: &Row) -> Result<OccurrenceRow, StoreError> {
         photo_hashes: split(row.get(29)?),
         species_guess: row.get(30)?,
         walk_client_id: row.get(31)?,
+        other_reports: Vec::new(),
     })
 }
 

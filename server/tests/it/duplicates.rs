@@ -110,6 +110,8 @@ async fn a_merge_makes_one_animal_and_undoing_it_restores_every_row() {
     let csv = app.get("/api/export?format=csv").await.text().await.unwrap();
     assert_eq!(csv.lines().count(), 2, "header and one animal:\n{csv}");
     assert!(csv.contains("2025-06-01T08:00:00Z/2025-06-02T08:00:00Z"), "{csv}");
+    // TDWG Darwin Core associatedOccurrences: the other report of the same organism.
+    assert!(csv.contains(&format!("same organism: urn:uuid:{SECOND}")), "{csv}");
     assert!(counts(&app).iter().zip(&counts_before).all(|(after, before)| after >= before), "nothing deleted by a merge");
     assert_eq!(decide(&app, SECOND, FIRST, true).await.0, 409, "a merged record is not merged twice");
 
