@@ -24,6 +24,7 @@ use crate::assess::parse_states;
 use crate::assess::taxa::TaxonIndex;
 use crate::commands::export::{day_bounds, parse_bbox};
 use crate::error::ApiError;
+use crate::handlers::access::Caller;
 use crate::export::{self, Audience, ExportRequest, Format};
 use crate::store::occurrences::RowFilter;
 
@@ -35,11 +36,23 @@ pub struct ExportQuery {
     to: Option<String>,
     bbox: Option<String>,
     state: Option<String>,
+    /// `full` for positions as recorded (signed-in reviewers and admins only);
+    /// anything else, or nothing, is the public form.
+    audience: Option<String>,
 }
 
-pub async fn export(State(state): State<AppState>, headers: HeaderMap, Query(query): Query<ExportQuery>) -> Result<Response, ApiError> {
+/// `GET /api/export`: public for anyone; `audience=full` only for a signed-in reviewer
+/// or admin (sensitive species as recorded).
+pub async fn export(State(state): State<AppState>, caller: Caller, headers: HeaderMap, Query(query): Query<ExportQuery>) -> Result<Response, ApiError> {
     let host = headers.get(header::HOST).and_then(|h| h.to_str().ok()).unwrap_or("127.0.0.1:8080");
-    let request = read_request(&query, format!("http://{host}"), &state.taxa)?;
+    let mut request = read_request(&query, format!("http://{host}"), &state.taxa)?;
+    if query.audience.as_deref() == Some("full") {
+        let staff = caller.person.as_ref().is_some_and(|p| matches!(p.role, shared_types::Role::Reviewer | shared_types::Role::Admin));
+        if !staff {
+            return Err(ApiError::Forbidden("full exports are for signed-in reviewers and admins; the public export generalises sensitive species".into()));
+        }
+        request.audience = Audience::Full;
+    }
     let (media_type, file_name) = request.format.media_type_and_file();
     let (sender, receiver) = mpsc::channel::<Result<Bytes, std::io::Error>>(8);
     let store = state.store.clone();

@@ -331,3 +331,14 @@ async fn walks_export_as_events_with_absences_for_groups_not_found() {
     let incidental = archive["rows"].as_array().unwrap().iter().find(|r| r["id"].as_str().unwrap().ends_with("#event")).unwrap();
     assert_eq!(term(incidental, "samplingProtocol"), "incidental record");
 }
+
+#[tokio::test]
+async fn a_full_export_over_http_is_for_signed_in_reviewers_only() {
+    let app = app_with_records().await;
+    let anonymous = app.client.get(format!("{}/api/export?format=csv&audience=full", app.base)).send().await.unwrap();
+    assert_eq!(anonymous.status(), 403);
+    let full = app.get("/api/export?format=csv&audience=full").await.text().await.unwrap();
+    assert!(full.contains("52.346700"), "the sensitive angelshark as recorded:\n{full}");
+    let public = app.get("/api/export?format=csv").await.text().await.unwrap();
+    assert!(!public.contains("52.346700"), "the public form stays generalised for everyone");
+}
