@@ -238,6 +238,7 @@ fn RecordReview(client_id: String, back: impl Fn() + Copy + 'static) -> impl Int
                 <article id="record-review" data-state=d.record.review_state.code()>
                     <h3>{format!("{} · {}", sub.species_guess.as_ref().map(|g| g.as_str().to_owned()).unwrap_or_else(|| "unnamed".into()), d.record.review_state.label())}</h3>
                     <div class="photos">{photos}</div>
+                    <img class="place-map" src=format!("/api/review/records/{}/map.svg", sub.client_id) alt="map of where the record and its photos were made" />
                     <table class="when-where">
                         <tr><th></th><th>"when"</th><th>"where"</th><th></th></tr>
                         {time_and_place("device", Some(sub.observed_at.to_rfc3339()), position.map(|p| p.latitude.get()), position.map(|p| p.longitude.get()),

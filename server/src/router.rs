@@ -65,6 +65,7 @@ pub const ROUTES: &[RouteSpec] = &[
     route("GET", "/api/review/queue", Access::Reviewer),
     route("GET", "/api/review/records/{client_id}", Access::Reviewer),
     route("POST", "/api/review/records/{client_id}/actions", Access::Reviewer),
+    route("GET", "/api/review/records/{client_id}/map.svg", Access::Reviewer),
     route("POST", "/api/review/records/{client_id}/duplicates/{other_client_id}", Access::Reviewer),
     route("POST", "/api/review/merges/{merge_id}/undo", Access::Reviewer),
     route("GET", "/api/people", Access::Admin),
@@ -99,6 +100,7 @@ pub fn app(state: AppState) -> Router {
         .route("/api/review/queue", get(review::queue))
         .route("/api/review/records/{client_id}", get(review::detail))
         .route("/api/review/records/{client_id}/actions", post(review::act))
+        .route("/api/review/records/{client_id}/map.svg", get(review::place_map))
         .route("/api/review/records/{client_id}/duplicates/{other_client_id}", post(review::decide_pair))
         .route("/api/review/merges/{merge_id}/undo", post(review::undo_merge))
         .route("/api/people", get(people::list).post(people::add))

@@ -32,6 +32,11 @@ struct Extent {
 
 impl Extent {
     fn around(points: &[[f64; 2]]) -> Option<Self> {
+        Self::around_at_least(points, 20_000.0)
+    }
+
+    /// Square bounds around the points, at least `min_side_m` across, plus a margin.
+    fn around_at_least(points: &[[f64; 2]], min_side_m: f64) -> Option<Self> {
         let first = points.first()?;
         let mut e = Extent { west: first[0], south: first[1], east: first[0], north: first[1] };
         for p in points {
@@ -40,8 +45,8 @@ impl Extent {
             e.south = e.south.min(p[1]);
             e.north = e.north.max(p[1]);
         }
-        // At least 20 km across, plus a margin, and square so panels match.
-        let side = (e.east - e.west).max(e.north - e.south).max(20_000.0) * 1.2;
+        // At least the given size across, plus a margin, and square so panels match.
+        let side = (e.east - e.west).max(e.north - e.south).max(min_side_m) * 1.2;
         let (cx, cy) = ((e.west + e.east) / 2.0, (e.south + e.north) / 2.0);
         Some(Extent { west: cx - side / 2.0, east: cx + side / 2.0, south: cy - side / 2.0, north: cy + side / 2.0 })
     }
@@ -167,6 +172,11 @@ fn scale_bar(extent: &Extent) -> String {
 
 /// The coastline as one SVG path in panel coordinates; rings wholly outside the extent are left out.
 fn coastline_path(grid: &AooGrid, extent: &Extent) -> String {
+    coastline_path_at(grid, extent, extent.scale())
+}
+
+/// The coastline as one SVG path at `scale` pixels per metre from the extent's north-west corner.
+fn coastline_path_at(grid: &AooGrid, extent: &Extent, scale: f64) -> String {
     let Ok(collection) = serde_json::from_str::<serde_json::Value>(COASTLINE) else { return String::new() };
     let mut path = String::new();
     let polygons = collection["features"][0]["geometry"]["coordinates"].as_array().cloned().unwrap_or_default();
@@ -181,12 +191,70 @@ fn coastline_path(grid: &AooGrid, extent: &Extent) -> String {
             continue;
         }
         for (i, p) in projected.iter().enumerate() {
-            let (x, y) = extent.to_panel(*p);
+            let (x, y) = ((p[0] - extent.west) * scale, (extent.north - p[1]) * scale);
             let _ = write!(path, "{}{x:.1} {y:.1}", if i == 0 { "M" } else { "L" });
         }
         path.push('Z');
     }
     path
+}
+
+/// One thing to mark on a record's map.
+#[derive(Debug, Clone)]
+pub struct MapPoint {
+    pub label: String,
+    pub position: LatLon,
+    /// Drawn as a circle of this radius, in metres.
+    pub uncertainty_m: Option<f64>,
+    pub colour: &'static str,
+}
+
+/// A small map of one record for reviewers: where the phone put it (with its
+/// uncertainty), where its photos say they were taken, and other reports that may be the
+/// same animal, over the coastline, with a legend.
+pub fn place_map(title: &str, points: &[MapPoint], grid: &AooGrid) -> String {
+    const SIDE: f64 = 320.0;
+    let projected: Vec<(&MapPoint, [f64; 2])> = points.iter().filter_map(|p| grid.project(p.position).ok().map(|xy| (p, xy))).collect();
+    let xy: Vec<[f64; 2]> = projected.iter().map(|(_, xy)| *xy).collect();
+    let extent = Extent::around_at_least(&xy, 3_000.0).unwrap_or(Extent { west: -1_500.0, south: -1_500.0, east: 1_500.0, north: 1_500.0 });
+    let scale = SIDE / (extent.east - extent.west);
+    let legend_height = 18.0 * points.len() as f64 + 12.0;
+    let mut svg = format!(
+        "<svg xmlns=\"http://www.w3.org/2000/svg\" width=\"{SIDE}\" height=\"{h:.0}\" viewBox=\"0 0 {SIDE} {h:.0}\" font-family=\"system-ui, sans-serif\" font-size=\"11\">\n\
+         <title>{}</title>\n<clipPath id=\"place\"><rect width=\"{SIDE}\" height=\"{SIDE}\"/></clipPath>\n\
+         <rect width=\"{SIDE}\" height=\"{SIDE}\" fill=\"#e6eff3\" stroke=\"#9fb3bf\"/>\n<g clip-path=\"url(#place)\">\n\
+         <path d=\"{}\" fill=\"#dcd6c4\" stroke=\"#a39c86\" stroke-width=\"0.6\" fill-rule=\"evenodd\"/>\n",
+        escape(title),
+        coastline_path_at(grid, &extent, scale),
+        h = SIDE + legend_height,
+    );
+    for (point, xy) in &projected {
+        let (px, py) = ((xy[0] - extent.west) * scale, (extent.north - xy[1]) * scale);
+        if let Some(radius) = point.uncertainty_m {
+            let _ = writeln!(svg, "<circle cx=\"{px:.1}\" cy=\"{py:.1}\" r=\"{:.1}\" fill=\"{}\" fill-opacity=\"0.15\" stroke=\"{}\"/>", radius * scale, point.colour, point.colour);
+        }
+        let _ = writeln!(svg, "<circle cx=\"{px:.1}\" cy=\"{py:.1}\" r=\"4\" fill=\"{}\" stroke=\"#fff\" stroke-width=\"1.2\"/>", point.colour);
+    }
+    svg.push_str("</g>\n");
+    svg.push_str(&scale_bar_at(&extent, scale, SIDE));
+    for (i, point) in points.iter().enumerate() {
+        let y = SIDE + 18.0 * (i as f64 + 1.0);
+        let _ = writeln!(svg, "<circle cx=\"10\" cy=\"{:.0}\" r=\"4\" fill=\"{}\"/><text x=\"20\" y=\"{:.0}\" fill=\"#1f2a36\">{}</text>", y - 4.0, point.colour, y, escape(&point.label));
+    }
+    svg.push_str("</svg>\n");
+    svg
+}
+
+fn scale_bar_at(extent: &Extent, scale: f64, side: f64) -> String {
+    let width_m = extent.east - extent.west;
+    let bar_m = [100.0, 200.0, 500.0, 1_000.0, 2_000.0, 5_000.0, 10_000.0].into_iter().rev().find(|m| *m <= width_m / 4.0).unwrap_or(100.0);
+    let length = bar_m * scale;
+    let label = if bar_m >= 1_000.0 { format!("{:.0} km", bar_m / 1000.0) } else { format!("{bar_m:.0} m") };
+    format!(
+        "<g transform=\"translate(10,{:.0})\"><line x1=\"0\" x2=\"{length:.1}\" y1=\"0\" y2=\"0\" stroke=\"#1f2a36\" stroke-width=\"2\"/><text x=\"{:.1}\" y=\"-3\" fill=\"#1f2a36\">{label}</text></g>\n",
+        side - 10.0,
+        length + 6.0
+    )
 }
 
 /// Escapes text for SVG.

@@ -183,3 +183,40 @@ pub async fn act(State(state): State<AppState>, Reviewer(reviewer): Reviewer, Pa
         Some(Ok(new_state)) => Ok(Json(serde_json::json!({"client_id": id, "review_state": new_state}))),
     }
 }
+
+/// `GET /api/review/records/{client_id}/map.svg`: a small map of the record — where the
+/// phone put it (with its uncertainty), where its photos were taken, and the other reports
+/// that may be the same animal.
+pub async fn place_map(State(state): State<AppState>, Reviewer(_): Reviewer, Path(client_id): Path<String>) -> Result<axum::response::Response, ApiError> {
+    use axum::response::IntoResponse as _;
+    use crate::assess::map::{MapPoint, place_map};
+    let id = record_id(&client_id)?;
+    let found = state
+        .store
+        .run(move |conn| {
+            let Some(record) = observations::record_by_client_id(conn, id)? else { return Ok(None) };
+            let duplicates = duplicate_views(conn, &record)?;
+            Ok(Some((record, duplicates)))
+        })
+        .await?;
+    let (record, duplicates) = found.ok_or_else(|| ApiError::NotFound(format!("no record with id {id}")))?;
+    let at = |lat: f64, lon: f64| analysis::LatLon::new(lat, lon).ok();
+    let mut points = Vec::new();
+    if let Some(p) = record.submission.position {
+        if let Some(position) = at(p.latitude.get(), p.longitude.get()) {
+            points.push(MapPoint { label: "this record (phone)".into(), position, uncertainty_m: p.accuracy_m.map(|a| a.get()), colour: "#1c3b57" });
+        }
+    }
+    for (i, photo) in record.photos.iter().enumerate() {
+        if let Some(position) = photo.exif.latitude.zip(photo.exif.longitude).and_then(|(lat, lon)| at(lat, lon)) {
+            points.push(MapPoint { label: format!("photo {} (its own GPS)", i + 1), position, uncertainty_m: photo.exif.horizontal_error_m, colour: "#e07a1f" });
+        }
+    }
+    for dup in &duplicates {
+        if let Some(p) = dup.other.submission.position.and_then(|p| at(p.latitude.get(), p.longitude.get())) {
+            points.push(MapPoint { label: format!("possibly the same animal ({})", dup.other.submission.observed_at.format("%Y-%m-%d")), position: p, uncertainty_m: None, colour: "#7a3e9d" });
+        }
+    }
+    let svg = place_map("where this record was made", &points, &analysis::range::AooGrid::default());
+    Ok(([(axum::http::header::CONTENT_TYPE, "image/svg+xml")], svg).into_response())
+}

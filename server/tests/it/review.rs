@@ -118,3 +118,19 @@ async fn a_question_reaches_the_observer_and_their_answer_with_a_photo_reaches_t
     assert_eq!(seen[0]["record"]["review_state"], "confirmed");
     assert_eq!(seen[0]["current_taxon"], "Scyliorhinus canicula");
 }
+
+#[tokio::test]
+async fn the_record_map_shows_the_phone_the_photo_and_a_possible_duplicate() {
+    let app = spawn_app().await;
+    let dir = tempfile::tempdir().unwrap();
+    // A photo whose own GPS (written by exiftool) is 300 m from the phone's position.
+    let photo = crate::helpers::with_exiftool(&plain_jpeg(8), &["-GPSLatitude=52.4180", "-GPSLatitudeRef=N", "-GPSLongitude=4.0829", "-GPSLongitudeRef=W"], dir.path());
+    app.submit(&record(OLD_CATSHARK, "small-spotted catshark", 50.0, "2025-01-10T10:00:00Z"), &[photo]).await;
+    app.submit(&record(BIG_CATSHARK, "small-spotted catshark", 52.0, "2025-01-10T12:00:00Z"), &[]).await;
+    let response = app.get(&format!("/api/review/records/{OLD_CATSHARK}/map.svg")).await;
+    assert_eq!(response.status(), 200);
+    assert_eq!(response.headers()["content-type"], "image/svg+xml");
+    let svg = response.text().await.unwrap();
+    assert!(svg.contains("this record (phone)") && svg.contains("photo 1 (its own GPS)") && svg.contains("possibly the same animal"), "{svg}");
+    assert!(svg.contains("<path d=\"M"), "the coastline is drawn");
+}
