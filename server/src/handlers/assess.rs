@@ -24,6 +24,7 @@ use crate::assess::taxa::TaxonFilter;
 use crate::assess::trend::{EffortUnit, TrendReport, generation_length, stored_year_counts, trend_report, walk_year_counts};
 use crate::assess::{describe_states, parse_states};
 use crate::error::ApiError;
+use crate::handlers::access::Caller;
 
 #[derive(Deserialize)]
 pub struct FigureQuery {
@@ -51,13 +52,38 @@ async fn stored_records(state: &AppState, query: &FigureQuery) -> Result<(Vec<cr
     Ok((records, used))
 }
 
-pub async fn range(State(state): State<AppState>, Query(query): Query<FigureQuery>) -> Result<Json<RangeReport>, ApiError> {
-    Ok(Json(range_of(&state, &query).await?))
+/// Whether the caller may see where a sensitive species was: signed-in reviewers and admins.
+fn sees_sensitive_places(caller: &Caller) -> bool {
+    caller.person.as_ref().is_some_and(|p| matches!(p.role, shared_types::Role::Reviewer | shared_types::Role::Admin))
+}
+
+/// Whether a taxon's public locations are generalised (Chapman 2020 categories in the checklist).
+fn sensitive(state: &AppState, name: &str) -> bool {
+    state.taxa.resolve(name).is_some_and(|t| t.sensitivity != species_key::Sensitivity::None)
+}
+
+/// `GET /api/range`: figures for everyone; for a sensitive species the hull's corners
+/// (exact record positions) only for signed-in reviewers.
+pub async fn range(State(state): State<AppState>, caller: Caller, Query(query): Query<FigureQuery>) -> Result<Json<RangeReport>, ApiError> {
+    let mut report = range_of(&state, &query).await?;
+    if !sees_sensitive_places(&caller) {
+        for taxon in report.taxa.iter_mut().filter(|t| sensitive(&state, &t.taxon)) {
+            for figures in taxon.periods.iter_mut().filter_map(|p| p.figures.as_mut()) {
+                figures.eoo.hull.clear();
+            }
+        }
+    }
+    Ok(Json(report))
 }
 
 /// `GET /api/range/map.svg`: the map of one taxon (give `taxon` when the records hold several).
-pub async fn range_map(State(state): State<AppState>, Query(query): Query<FigureQuery>) -> Result<Response, ApiError> {
+pub async fn range_map(State(state): State<AppState>, caller: Caller, Query(query): Query<FigureQuery>) -> Result<Response, ApiError> {
     let report = range_of(&state, &query).await?;
+    if !sees_sensitive_places(&caller) && report.taxa.iter().any(|t| sensitive(&state, &t.taxon)) {
+        return Err(ApiError::Forbidden(
+            "this is a sensitive species: its map shows where records are, so it is for signed-in reviewers (Chapman 2020)".into(),
+        ));
+    }
     let taxon = match report.taxa.as_slice() {
         [one] => one,
         [] => return Err(ApiError::NotFound(format!("no records to map ({})", report.records_used))),

@@ -342,3 +342,25 @@ async fn a_full_export_over_http_is_for_signed_in_reviewers_only() {
     let public = app.get("/api/export?format=csv").await.text().await.unwrap();
     assert!(!public.contains("52.346700"), "the public form stays generalised for everyone");
 }
+
+#[tokio::test]
+async fn where_a_sensitive_species_was_is_shown_to_signed_in_reviewers_only() {
+    let app = spawn_app().await;
+    // The angelshark is "tenthDegree" in the demo checklist (Chapman 2020 category).
+    for (i, (lat, lon)) in [(52.41, -4.09), (52.24, -4.26), (52.13, -4.55)].iter().enumerate() {
+        let mut angel = submission(&format!("1b2c3d4e-0000-4000-8000-00000000010{i}"));
+        angel["species_guess"] = json!("angelshark");
+        angel["position"] = json!({"latitude": lat, "longitude": lon, "accuracy_m": 10.0, "source": "device"});
+        assert_eq!(app.submit(&angel, &[]).await.status, 200);
+    }
+    let query = "taxon=Squatina%20squatina&state=any";
+    let public: Value = app.client.get(format!("{}/api/range?{query}", app.base)).send().await.unwrap().json().await.unwrap();
+    let figures = &public["taxa"][0]["periods"][0]["figures"];
+    assert!(figures["eoo_km2"].as_f64().unwrap() > 0.0, "the figures are public: {figures}");
+    assert_eq!(figures["eoo"]["hull"], json!([]), "the hull's corners are record positions");
+    let map = app.client.get(format!("{}/api/range/map.svg?{query}", app.base)).send().await.unwrap();
+    assert_eq!(map.status(), 403);
+    let reviewer: Value = app.get(&format!("/api/range?{query}")).await.json().await.unwrap();
+    assert_eq!(reviewer["taxa"][0]["periods"][0]["figures"]["eoo"]["hull"].as_array().unwrap().len(), 3);
+    assert_eq!(app.get(&format!("/api/range/map.svg?{query}")).await.status(), 200);
+}
