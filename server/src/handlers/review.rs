@@ -202,10 +202,10 @@ pub async fn place_map(State(state): State<AppState>, Reviewer(_): Reviewer, Pat
     let (record, duplicates) = found.ok_or_else(|| ApiError::NotFound(format!("no record with id {id}")))?;
     let at = |lat: f64, lon: f64| analysis::LatLon::new(lat, lon).ok();
     let mut points = Vec::new();
-    if let Some(p) = record.submission.position {
-        if let Some(position) = at(p.latitude.get(), p.longitude.get()) {
-            points.push(MapPoint { label: "this record (phone)".into(), position, uncertainty_m: p.accuracy_m.map(|a| a.get()), colour: "#1c3b57" });
-        }
+    if let Some(p) = record.submission.position
+        && let Some(position) = at(p.latitude.get(), p.longitude.get())
+    {
+        points.push(MapPoint { label: "this record (phone)".into(), position, uncertainty_m: p.accuracy_m.map(|a| a.get()), colour: "#1c3b57" });
     }
     for (i, photo) in record.photos.iter().enumerate() {
         if let Some(position) = photo.exif.latitude.zip(photo.exif.longitude).and_then(|(lat, lon)| at(lat, lon)) {

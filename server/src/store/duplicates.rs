@@ -7,6 +7,7 @@ use rusqlite::{Connection, OptionalExtension, Transaction, params};
 use shared_types::ReviewState;
 
 use super::StoreError;
+use super::review::{AuditRow, audit};
 
 /// What duplicate scoring needs of one stored record, before names are looked up.
 #[derive(Debug, Clone)]
@@ -156,12 +157,8 @@ pub enum Decided {
     Refused,
 }
 
-fn log_event(tx: &Transaction, observation: i64, person: i64, action: &str, from: &str, to: &str, detail: &str, at: &str) -> Result<(), StoreError> {
-    tx.execute(
-        "INSERT INTO review_events (observation_id, person_id, action, from_state, to_state, detail, at) VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7)",
-        params![observation, person, action, from, to, detail, at],
-    )?;
-    Ok(())
+fn log_event(tx: &Transaction, observation_id: i64, person: i64, action: &str, (from_state, to_state): (&str, &str), detail: &str, at: &str) -> Result<(), StoreError> {
+    audit(tx, AuditRow { observation_id, person_id: Some(person), action, from_state, to_state, detail: Some(detail), at })
 }
 
 /// Records a reviewer's decision on a pair. "Same animal" merges the later report into
@@ -182,7 +179,7 @@ pub fn decide(conn: &mut Connection, x: i64, y: i64, same: bool, person: i64, no
     )?;
     if !same {
         for (id, state) in [(a, &first.0), (b, &second.0)] {
-            log_event(&tx, id, person, "different_animals", state, state, &format!("kept apart from record {}", if id == a { b } else { a }), &at)?;
+            log_event(&tx, id, person, "different_animals", (state, state), &format!("kept apart from record {}", if id == a { b } else { a }), &at)?;
         }
         tx.commit()?;
         return Ok(Decided::KeptApart);
@@ -195,8 +192,8 @@ pub fn decide(conn: &mut Connection, x: i64, y: i64, same: bool, person: i64, no
     )?;
     let merge_id = tx.last_insert_rowid();
     tx.execute("UPDATE observations SET organism_id = ?1, review_state = 'merged' WHERE id = ?2", params![kept_row.1, merged])?;
-    log_event(&tx, merged, person, "merge", &merged_row.0, ReviewState::Merged.code(), &format!("the same animal as record {kept} (merge {merge_id})"), &at)?;
-    log_event(&tx, kept, person, "merge", &kept_row.0, &kept_row.0, &format!("record {merged} joined this animal (merge {merge_id})"), &at)?;
+    log_event(&tx, merged, person, "merge", (&merged_row.0, ReviewState::Merged.code()), &format!("the same animal as record {kept} (merge {merge_id})"), &at)?;
+    log_event(&tx, kept, person, "merge", (&kept_row.0, &kept_row.0), &format!("record {merged} joined this animal (merge {merge_id})"), &at)?;
     tx.commit()?;
     Ok(Decided::Merged { merge_id })
 }
@@ -222,9 +219,9 @@ pub fn undo_merge(conn: &mut Connection, merge_id: i64, person: i64, now: DateTi
         "INSERT INTO duplicate_decisions (observation_a, observation_b, decision, person_id, at) VALUES (?1, ?2, 'different animals', ?3, ?4)",
         params![a, b, person, at],
     )?;
-    log_event(&tx, merged, person, "undo_merge", ReviewState::Merged.code(), &state, &format!("merge {merge_id} undone"), &at)?;
+    log_event(&tx, merged, person, "undo_merge", (ReviewState::Merged.code(), &state), &format!("merge {merge_id} undone"), &at)?;
     let kept_state: String = tx.query_row("SELECT review_state FROM observations WHERE id = ?1", [kept], |r| r.get(0))?;
-    log_event(&tx, kept, person, "undo_merge", &kept_state, &kept_state, &format!("merge {merge_id} undone: record {merged} is its own animal again"), &at)?;
+    log_event(&tx, kept, person, "undo_merge", (&kept_state, &kept_state), &format!("merge {merge_id} undone: record {merged} is its own animal again"), &at)?;
     tx.commit()?;
     Ok(true)
 }

@@ -19,11 +19,14 @@ pub struct Person {
 
 const PERSON_COLUMNS: &str = "id, role, username, display_name, disabled";
 
-fn person_row(row: &rusqlite::Row) -> rusqlite::Result<(i64, String, Option<String>, Option<String>, bool)> {
+/// id, role, username, display name, disabled — as read, before the role is checked.
+type PersonRow = (i64, String, Option<String>, Option<String>, bool);
+
+fn person_row(row: &rusqlite::Row) -> rusqlite::Result<PersonRow> {
     Ok((row.get(0)?, row.get(1)?, row.get(2)?, row.get(3)?, row.get(4)?))
 }
 
-fn to_person((id, role, username, display_name, disabled): (i64, String, Option<String>, Option<String>, bool)) -> Result<Person, StoreError> {
+fn to_person((id, role, username, display_name, disabled): PersonRow) -> Result<Person, StoreError> {
     let role = Role::from_code(&role).ok_or_else(|| StoreError::Corrupt(format!("person {id}: unknown role {role}")))?;
     Ok(Person { id, role, username, display_name, disabled })
 }

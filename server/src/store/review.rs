@@ -149,14 +149,30 @@ fn supersede_identification(tx: &Transaction, observation_id: i64, person_id: i6
     Ok(())
 }
 
+/// One row of the audit trail.
+pub(super) struct AuditRow<'a> {
+    pub observation_id: i64,
+    pub person_id: Option<i64>,
+    pub action: &'a str,
+    pub from_state: &'a str,
+    pub to_state: &'a str,
+    pub detail: Option<&'a str>,
+    pub at: &'a str,
+}
+
+/// Writes one audit row; every review action and merge goes through here.
+pub(super) fn audit(tx: &Transaction, row: AuditRow) -> Result<(), StoreError> {
+    tx.execute(
+        "INSERT INTO review_events (observation_id, person_id, action, from_state, to_state, detail, at) VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7)",
+        params![row.observation_id, row.person_id, row.action, row.from_state, row.to_state, row.detail, row.at],
+    )?;
+    Ok(())
+}
+
 #[allow(clippy::too_many_arguments)]
 fn set_state(tx: &Transaction, observation_id: i64, person_id: Option<i64>, from: ReviewState, to: ReviewState, action: &str, detail: Option<&str>, at: &str) -> Result<(), StoreError> {
     tx.execute("UPDATE observations SET review_state = ?1 WHERE id = ?2", params![to.code(), observation_id])?;
-    tx.execute(
-        "INSERT INTO review_events (observation_id, person_id, action, from_state, to_state, detail, at) VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7)",
-        params![observation_id, person_id, action, from.code(), to.code(), detail, at],
-    )?;
-    Ok(())
+    audit(tx, AuditRow { observation_id, person_id, action, from_state: from.code(), to_state: to.code(), detail, at })
 }
 
 /// The client ids of one observer's records, newest first.
