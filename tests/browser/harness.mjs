@@ -78,3 +78,19 @@ export function screenshotPath(name) {
 export function demoPhoto(name) {
   return path.join(required('WRACKLINE_DEMO_PHOTOS'), name);
 }
+
+// A phone in Chromium at `position` (latitude, longitude, accuracy in metres).
+export function phone(browser, { latitude, longitude, accuracy }) {
+  return browser.newContext({ viewport: { width: 390, height: 844 }, geolocation: { latitude, longitude, accuracy }, permissions: ['geolocation'] });
+}
+
+// Opens the app on `context`, reads the safety cautions away and waits until the
+// service worker controls the page (so the app opens offline from here on).
+export async function openOnPhone(context, server) {
+  const page = await context.newPage();
+  page.on('pageerror', (err) => console.error('page error:', err.message));
+  await page.goto(server.url);
+  await page.click('#safety-ok', { timeout: 15000 });
+  await page.waitForFunction(() => navigator.serviceWorker?.controller, null, { timeout: 15000 });
+  return page;
+}

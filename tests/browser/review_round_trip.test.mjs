@@ -4,7 +4,7 @@
 // reaches the queue; the reviewer confirms; the phone shows "confirmed".
 import { test, before, after } from 'node:test';
 import assert from 'node:assert/strict';
-import { startServer, launchBrowser, demoPhoto, REVIEWER, ADMIN } from './harness.mjs';
+import { startServer, launchBrowser, demoPhoto, REVIEWER, ADMIN, phone, openOnPhone } from './harness.mjs';
 
 let browser;
 before(async () => { browser = await launchBrowser(); });
@@ -14,18 +14,11 @@ const QUESTION = 'Can you photograph the underside of the head?';
 
 test('a question reaches the phone, the answer with a photo reaches the reviewer, the phone sees confirmed', async () => {
   const server = await startServer();
-  const phone = await browser.newContext({
-    viewport: { width: 390, height: 844 },
-    geolocation: { latitude: 52.4153, longitude: -4.0829, accuracy: 7 },
-    permissions: ['geolocation'],
-  });
+  const handset = await phone(browser, { latitude: 52.4153, longitude: -4.0829, accuracy: 7 });
   const desk = await browser.newContext({ viewport: { width: 1100, height: 900 } });
   try {
-    const observer = await phone.newPage();
-    await observer.goto(server.url);
-    await observer.click('#safety-ok');
-    await observer.waitForFunction(() => navigator.serviceWorker?.controller, null, { timeout: 15000 });
-    await phone.setOffline(true);
+    const observer = await openOnPhone(handset, server);
+    await handset.setOffline(true);
     await observer.fill('#species', 'nursehound');
     await observer.selectOption('#condition', 'fresh_dead');
     await observer.selectOption('#setting', 'angler_catch');
@@ -33,7 +26,7 @@ test('a question reaches the phone, the answer with a photo reaches the reviewer
     await observer.waitForSelector('.thumbs img');
     await observer.click('#save-send');
     await observer.waitForSelector('.outbox-entry');
-    await phone.setOffline(false);
+    await handset.setOffline(false);
     await observer.waitForFunction(() => document.querySelector('.outbox-entry')?.textContent.includes('received by the server'), null, { timeout: 20000 });
 
     const reviewer = await desk.newPage();
@@ -51,7 +44,7 @@ test('a question reaches the phone, the answer with a photo reaches the reviewer
     await observer.waitForFunction((q) => document.querySelector('#my-records')?.textContent.includes(q), QUESTION, { timeout: 15000 });
     assert.match(await observer.textContent('#my-records'), /details requested/);
 
-    await phone.setOffline(true);
+    await handset.setOffline(true);
     await observer.click('.my-record .answer summary');
     await observer.fill('.my-record .answer-text', 'Here is the underside.');
     await observer.setInputFiles('.my-record .answer-photo', demoPhoto('spurdog.jpg'));
@@ -59,7 +52,7 @@ test('a question reaches the phone, the answer with a photo reaches the reviewer
     await observer.waitForSelector('.answer-waiting');
     await observer.reload();
     await observer.waitForSelector('.answer-waiting', { timeout: 10000 });
-    await phone.setOffline(false);
+    await handset.setOffline(false);
     await observer.waitForFunction(() => !document.querySelector('.answer-waiting'), null, { timeout: 20000 });
 
     await reviewer.click('text=← Back to the queue');
@@ -80,7 +73,7 @@ test('a question reaches the phone, the answer with a photo reaches the reviewer
     const detail = await server.get(`/api/review/records/${record.submission.client_id}`);
     assert.deepEqual(detail.events.map((e) => e.action), ['request_details', 'observer_reply', 'confirm']);
   } finally {
-    await phone.close();
+    await handset.close();
     await desk.close();
     server.stop();
   }

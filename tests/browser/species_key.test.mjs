@@ -4,7 +4,7 @@
 import { test, before, after } from 'node:test';
 import assert from 'node:assert/strict';
 import { readFileSync } from 'node:fs';
-import { startServer, launchBrowser, screenshotPath, demoPhoto } from './harness.mjs';
+import { startServer, launchBrowser, screenshotPath, demoPhoto, phone, openOnPhone } from './harness.mjs';
 
 const checklist = JSON.parse(readFileSync(process.env.WRACKLINE_CHECKLIST, 'utf8'));
 const stingray = checklist.taxa.find((t) => t.scientificName === 'Dasyatis pastinaca');
@@ -19,17 +19,9 @@ async function topCandidate(page) {
 
 test('the key works offline, narrows to the animal and sends the pick with the record', async () => {
   const server = await startServer();
-  const context = await browser.newContext({
-    viewport: { width: 390, height: 844 },
-    geolocation: { latitude: 52.4153, longitude: -4.0829, accuracy: 12 },
-    permissions: ['geolocation'],
-  });
+  const context = await phone(browser, { latitude: 52.4153, longitude: -4.0829, accuracy: 12 });
   try {
-    const page = await context.newPage();
-    page.on('pageerror', (err) => console.error('page error:', err.message));
-    await page.goto(server.url);
-    await page.click('#safety-ok');
-    await page.waitForFunction(() => navigator.serviceWorker?.controller, null, { timeout: 15000 });
+    const page = await openOnPhone(context, server);
     await context.setOffline(true);
     await page.reload();
     await page.waitForSelector('#open-key');

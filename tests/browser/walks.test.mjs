@@ -5,7 +5,7 @@
 // both records on it — and a record sent later can still be added to it.
 import { test, before, after } from 'node:test';
 import assert from 'node:assert/strict';
-import { startServer, launchBrowser } from './harness.mjs';
+import { startServer, launchBrowser, phone, openOnPhone } from './harness.mjs';
 
 let browser;
 before(async () => { browser = await launchBrowser(); });
@@ -27,17 +27,9 @@ async function record(page, species) {
 
 test('a walk made offline reaches the server once, with its route and its records', async () => {
   const server = await startServer();
-  const context = await browser.newContext({
-    viewport: { width: 390, height: 844 },
-    geolocation: { latitude: ROUTE[0][0], longitude: ROUTE[0][1], accuracy: 6 },
-    permissions: ['geolocation'],
-  });
+  const context = await phone(browser, { latitude: ROUTE[0][0], longitude: ROUTE[0][1], accuracy: 6 });
   try {
-    const page = await context.newPage();
-    page.on('pageerror', (err) => console.error('page error:', err.message));
-    await page.goto(server.url);
-    await page.click('#safety-ok');
-    await page.waitForFunction(() => navigator.serviceWorker?.controller, null, { timeout: 15000 });
+    const page = await openOnPhone(context, server);
     await context.setOffline(true);
 
     await record(page, 'thornback ray');
