@@ -191,31 +191,94 @@ export async function readBytes(file) {
   return new Uint8Array(await file.arrayBuffer());
 }
 
-// Makes the upload copy of a photo with the browser's own decoder: upright (the
-// decoder applies the EXIF Orientation, `imageOrientation: 'from-image'`), long edge at
-// most `longEdge` px, re-encoded as JPEG. The canvas writes no EXIF, so the copy carries
-// no GPS; the phone sends what it read from the original as data instead. Rejects with
-// {undecodable: true} when this browser cannot decode the format (HEIC in Chromium).
+// Makes the upload copy of a photo with the browser's own decoder: upright, long edge
+// at most `longEdge` px, re-encoded as JPEG. The canvas writes no EXIF, so the copy
+// carries no GPS; the phone sends what it read from the original as data instead.
+// Resolves to {blob, sha256} (sha256: hex of the copy, or null where the browser
+// cannot hash). Rejects with {undecodable: true} when this browser cannot decode the
+// format (HEIC in Chromium), and with {noCanvas: true} when it has no canvas that can
+// save a picture.
+//
+// Routes, fastest first, so older phones still prepare photos: decoding with
+// createImageBitmap (`imageOrientation: 'from-image'` applies the EXIF Orientation),
+// else an <img> (browsers apply the Orientation to images themselves); drawing on an
+// OffscreenCanvas (`convertToBlob`), else on a <canvas> element (`toBlob`) — iOS
+// Safari before 16.4 has no OffscreenCanvas.
 export async function prepareUpload(file, longEdge, quality) {
-  let bitmap;
+  const picture = await decodeUpright(file);
   try {
-    bitmap = await createImageBitmap(file, { imageOrientation: 'from-image' });
-  } catch (err) {
-    const error = new Error(`this browser cannot read this photo (${err.message})`);
-    error.undecodable = true;
-    throw error;
+    const scale = Math.min(1, longEdge / Math.max(picture.width, picture.height));
+    const width = Math.max(1, Math.round(picture.width * scale));
+    const height = Math.max(1, Math.round(picture.height * scale));
+    const surface = drawingSurface(width, height);
+    surface.context.imageSmoothingQuality = 'high';
+    surface.context.drawImage(picture.image, 0, 0, width, height);
+    const blob = await surface.encode('image/jpeg', quality);
+    return { blob, sha256: await sha256Hex(blob) };
+  } finally {
+    picture.release();
   }
+}
+
+function undecodable(err) {
+  const error = new Error(`this browser cannot read this photo (${err && err.message ? err.message : 'not a picture it knows'})`);
+  error.undecodable = true;
+  return error;
+}
+
+// The picture, upright, as something a canvas can draw: {image, width, height, release}.
+async function decodeUpright(file) {
+  if (typeof self.createImageBitmap === 'function') {
+    let bitmap;
+    try {
+      bitmap = await createImageBitmap(file, { imageOrientation: 'from-image' });
+    } catch (err) {
+      throw undecodable(err);
+    }
+    return { image: bitmap, width: bitmap.width, height: bitmap.height, release: () => bitmap.close() };
+  }
+  const url = URL.createObjectURL(file);
+  const image = new Image();
   try {
-    const scale = Math.min(1, longEdge / Math.max(bitmap.width, bitmap.height));
-    const width = Math.max(1, Math.round(bitmap.width * scale));
-    const height = Math.max(1, Math.round(bitmap.height * scale));
+    image.src = url;
+    await image.decode();
+  } catch (err) {
+    URL.revokeObjectURL(url);
+    throw undecodable(err);
+  }
+  return { image, width: image.naturalWidth, height: image.naturalHeight, release: () => URL.revokeObjectURL(url) };
+}
+
+// A 2-D canvas of the given size and how to save it: {context, encode(type, quality)}.
+function drawingSurface(width, height) {
+  if (typeof self.OffscreenCanvas === 'function') {
     const canvas = new OffscreenCanvas(width, height);
     const context = canvas.getContext('2d');
-    context.imageSmoothingQuality = 'high';
-    context.drawImage(bitmap, 0, 0, width, height);
-    const blob = await canvas.convertToBlob({ type: 'image/jpeg', quality });
-    return { blob };
-  } finally {
-    bitmap.close();
+    if (context && typeof canvas.convertToBlob === 'function') {
+      return { context, encode: (type, quality) => canvas.convertToBlob({ type, quality }) };
+    }
   }
+  if (typeof document !== 'undefined') {
+    const canvas = document.createElement('canvas');
+    canvas.width = width;
+    canvas.height = height;
+    const context = canvas.getContext('2d');
+    if (context && typeof canvas.toBlob === 'function') {
+      const encode = (type, quality) => new Promise((resolve, reject) => {
+        canvas.toBlob((blob) => (blob ? resolve(blob) : reject(new Error('the canvas could not save the picture'))), type, quality);
+      });
+      return { context, encode };
+    }
+  }
+  const error = new Error('neither OffscreenCanvas nor canvas.toBlob is available');
+  error.noCanvas = true;
+  throw error;
+}
+
+// SHA-256 of a Blob as lower-case hex, or null where the browser offers no hashing
+// (crypto.subtle exists only on secure pages).
+async function sha256Hex(blob) {
+  if (!self.crypto || !crypto.subtle) return null;
+  const digest = new Uint8Array(await crypto.subtle.digest('SHA-256', await blob.arrayBuffer()));
+  return Array.from(digest, (b) => b.toString(16).padStart(2, '0')).join('');
 }

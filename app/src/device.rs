@@ -208,23 +208,34 @@ pub async fn read_bytes(file: &web_sys::Blob) -> Result<Vec<u8>, String> {
 /// The upload copy of a photo, made by the browser's decoder and canvas.
 pub struct UploadCopy {
     pub blob: web_sys::Blob,
+    /// SHA-256 of the copy, hex; `None` where the browser offers no hashing.
+    pub sha256: Option<String>,
 }
 
 /// Why an upload copy could not be made.
 pub enum PrepareError {
     /// The browser cannot decode this format (HEIC in most browsers but Safari).
     Undecodable(String),
+    /// The browser has no canvas that can save a picture (very old browsers).
+    NoCanvas(String),
     Other(String),
 }
 
 pub async fn prepare_upload(file: &web_sys::Blob, long_edge: u32, quality: f64) -> Result<UploadCopy, PrepareError> {
     let value = JsFuture::from(prepare_upload_js(file, long_edge, quality)).await.map_err(|err| {
-        let undecodable = js_sys::Reflect::get(&err, &"undecodable".into()).ok().and_then(|v| v.as_bool()).unwrap_or(false);
-        if undecodable { PrepareError::Undecodable(message(err)) } else { PrepareError::Other(message(err)) }
+        let flag = |name: &str| js_sys::Reflect::get(&err, &name.into()).ok().and_then(|v| v.as_bool()).unwrap_or(false);
+        if flag("undecodable") {
+            PrepareError::Undecodable(message(err))
+        } else if flag("noCanvas") {
+            PrepareError::NoCanvas(message(err))
+        } else {
+            PrepareError::Other(message(err))
+        }
     })?;
     let blob = js_sys::Reflect::get(&value, &"blob".into())
         .ok()
         .filter(|b| b.is_instance_of::<web_sys::Blob>())
         .ok_or_else(|| PrepareError::Other("no upload copy came back".into()))?;
-    Ok(UploadCopy { blob: blob.unchecked_into() })
+    let sha256 = js_sys::Reflect::get(&value, &"sha256".into()).ok().and_then(|v| v.as_string());
+    Ok(UploadCopy { blob: blob.unchecked_into(), sha256 })
 }

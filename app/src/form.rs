@@ -30,6 +30,9 @@ pub struct FormFields {
     pub longitude: String,
     pub accuracy_m: String,
     pub position_source: Option<PositionSource>,
+    /// The preview URL of the photo whose GPS filled the position, while
+    /// `position_source` is `Photo`: removing that photo clears the position.
+    pub position_photo: Option<String>,
     pub species_guess: String,
     pub length_value: String,
     pub length_kind: Option<LengthKind>,
@@ -228,8 +231,39 @@ fn prefill_from_photo(fields: RwSignal<FormFields>, note: RwSignal<String>, firs
         f.longitude = format!("{lon:.6}");
         f.accuracy_m = first.exif.horizontal_error_m.filter(|e| *e >= 1.0).map(|e| format!("{e:.0}")).unwrap_or_default();
         f.position_source = Some(PositionSource::Photo);
+        f.position_photo = Some(first.preview_url.clone());
     });
     note.set("from the first photo's GPS (this device gave no position)".into());
+}
+
+/// Takes a photo off the form. A position its GPS filled goes with it (and the next
+/// first photo's GPS, if any, fills it again); a position from the device or typed
+/// by the observer stays.
+fn remove_photo(photos: RwSignal<Vec<PickedPhoto>, LocalStorage>, fields: RwSignal<FormFields>, note: RwSignal<String>, index: usize) {
+    let Some(removed) = photos.try_update(|p| (index < p.len()).then(|| p.remove(index))).flatten() else { return };
+    let filled_by_it = fields.with_untracked(|f| {
+        f.position_source == Some(PositionSource::Photo) && f.position_photo.as_deref() == Some(removed.preview_url.as_str())
+    });
+    if filled_by_it {
+        fields.update(|f| {
+            f.latitude.clear();
+            f.longitude.clear();
+            f.accuracy_m.clear();
+            f.position_source = None;
+            f.position_photo = None;
+        });
+        note.set("the position came from the removed photo and was cleared; use my position or type it".into());
+        if let Some(first) = photos.with_untracked(|p| p.first().cloned()) {
+            prefill_from_photo(fields, note, &first);
+        }
+    }
+    let _ = web_sys::Url::revoke_object_url(&removed.preview_url);
+}
+
+/// True when `picked` is a photo already on the form: the same upload copy, as the
+/// same photo picked twice makes (the server would keep it once).
+fn already_added(photos: &[PickedPhoto], picked: &PickedPhoto) -> bool {
+    picked.upload_sha256.is_some() && photos.iter().any(|p| p.upload_sha256 == picked.upload_sha256)
 }
 
 /// "this device says: 2025-06-01 14:10 (UTC+01:00) · 52.41530, -4.08290 ±9 m": the
@@ -336,6 +370,10 @@ pub fn RecordForm(outbox: Outbox) -> impl IntoView {
             for file in added {
                 photo_note.set(format!("preparing “{}”…", file.name()));
                 match photos::pick(file).await {
+                    Ok(picked) if photos.with_untracked(|p| already_added(p, &picked)) => {
+                        refused.push(format!("“{}”: this photo is already added.", picked.name));
+                        let _ = web_sys::Url::revoke_object_url(&picked.preview_url);
+                    }
                     Ok(picked) => photos.update(|p| p.push(picked)),
                     Err(problem) => refused.push(problem),
                 }
@@ -362,7 +400,7 @@ pub fn RecordForm(outbox: Outbox) -> impl IntoView {
                             <li class="photo">
                                 <img src=photo.preview_url.clone() alt=format!("photo {}: {}", index + 1, photo.name) />
                                 <span class="photo-says hint">{photos::photo_says(&photo.exif)}</span>
-                                <button type="button" class="small" on:click=move |_| photos.update(|p| { if index < p.len() { p.remove(index); } })>"remove"</button>
+                                <button type="button" class="small remove-photo" on:click=move |_| remove_photo(photos, fields, position_note, index)>"remove"</button>
                             </li>
                         }
                     }).collect_view()}

@@ -7,7 +7,8 @@
 //! the upload copy), [`key`] (the guided species key and its [`pictures`]), [`walks`]
 //! (survey walks and their tracks), [`identity`] (the phone's device identity), [`mine`]
 //! (the observer's records and answers to reviewers), [`review`] (the reviewers'
-//! screens), [`figures`] (range and trend figures), [`screens`] (the page around it).
+//! screens), [`figures`] (range and trend figures), [`screens`] (the page around it),
+//! [`readable`] (times and photo readings as people read them).
 //! The app never decides what the server decides: it shows the server's receipts.
 
 mod device;
@@ -19,6 +20,7 @@ mod mine;
 mod outbox;
 mod photos;
 mod pictures;
+mod readable;
 mod review;
 mod screens;
 mod sync;

@@ -24,32 +24,57 @@ pub struct PickedPhoto {
     pub name: String,
     /// The upload copy.
     pub upload: web_sys::Blob,
+    /// SHA-256 of the upload copy, hex, when the browser can hash (the server keys
+    /// photos by it): the same photo picked twice makes the same copy.
+    pub upload_sha256: Option<String>,
     /// What the original's EXIF said, the instant resolved with this device's offset
-    /// when the photo had none of its own.
+    /// at the photo's local time when the photo had none of its own.
     pub exif: PhotoExif,
     /// An object URL of the upload copy, for the thumbnail.
     pub preview_url: String,
 }
 
+/// How much of a picked file is read for its EXIF first. A JPEG's EXIF is its APP1
+/// segment, at most 64 KiB, near the start (CIPA DC-008 §4.5.4); a quarter megabyte
+/// leaves room for the segments some cameras put before it, and spares copying a
+/// whole 5–12 MB photo into wasm.
+const EXIF_HEAD_BYTES: f64 = 256.0 * 1024.0;
+
 /// Reads and prepares one picked file; the error is a sentence for the observer.
 pub async fn pick(file: web_sys::File) -> Result<PickedPhoto, String> {
     let name = file.name();
-    let bytes = device::read_bytes(&file).await.map_err(|err| format!("“{name}” could not be read: {err}"))?;
-    let read = exif::read(&bytes);
-    drop(bytes);
-    let offset = read
-        .taken_local
-        .as_deref()
-        .and_then(|t| NaiveDateTime::parse_from_str(t, "%Y:%m:%d %H:%M:%S%.f").ok())
-        .map(|local| offset_at(&local))
-        .unwrap_or_else(|| offset_at(&chrono::Local::now().naive_local()));
-    let exif = exif::resolve_time(read, offset);
+    let exif = with_device_offset(read_exif(&file).await.map_err(|err| format!("“{name}” could not be read: {err}"))?);
     let copy = device::prepare_upload(&file, UPLOAD_LONG_EDGE, UPLOAD_QUALITY).await.map_err(|err| match err {
         PrepareError::Undecodable(detail) => cannot_open(&name, &file.type_(), &detail),
+        PrepareError::NoCanvas(detail) => cannot_prepare(&name, &detail),
         PrepareError::Other(detail) => format!("“{name}” could not be prepared for sending: {detail}"),
     })?;
     let preview_url = web_sys::Url::create_object_url_with_blob(&copy.blob).unwrap_or_default();
-    Ok(PickedPhoto { name, upload: copy.blob, exif, preview_url })
+    Ok(PickedPhoto { name, upload: copy.blob, upload_sha256: copy.sha256, exif, preview_url })
+}
+
+/// The original's EXIF, read from its start when it is found there (JPEG), else from
+/// the whole file (PNG and others may keep it anywhere).
+async fn read_exif(file: &web_sys::File) -> Result<PhotoExif, String> {
+    if file.size() > EXIF_HEAD_BYTES {
+        let head = file.slice_with_f64_and_f64(0.0, EXIF_HEAD_BYTES).map_err(|_| "its start could not be read".to_owned())?;
+        if let Some(found) = exif::read_if_present(&device::read_bytes(&head).await?) {
+            return Ok(found);
+        }
+    }
+    Ok(exif::read(&device::read_bytes(file).await?))
+}
+
+/// Resolves the photo's time. A photo with no offset of its own (no
+/// OffsetTimeOriginal) gets this device's UTC offset at the photo's local time, which
+/// travels with the reading (`device_offset`): a photo taken before a daylight-saving
+/// change and recorded after it keeps the offset it was taken under.
+fn with_device_offset(mut read: PhotoExif) -> PhotoExif {
+    let local = read.taken_local.as_deref().and_then(|t| NaiveDateTime::parse_from_str(t, "%Y:%m:%d %H:%M:%S%.f").ok());
+    if let (None, Some(local)) = (&read.offset, local) {
+        read.device_offset = Some(offset_at(&local).to_string());
+    }
+    exif::resolve_time(read, offset_at(&chrono::Local::now().naive_local()))
 }
 
 /// What to tell the observer when the browser cannot open a photo.
@@ -67,11 +92,21 @@ fn cannot_open(name: &str, media_type: &str, detail: &str) -> String {
     }
 }
 
+/// What to tell the observer when this browser has no way to make the upload copy
+/// (no OffscreenCanvas and no canvas that can save a picture: very old browsers).
+fn cannot_prepare(name: &str, detail: &str) -> String {
+    format!(
+        "“{name}” could not be prepared for sending: this browser is too old to resize photos ({detail}). \
+         Update the phone's software (on an iPhone: Settings › General › Software Update) or open wrackline \
+         in an up-to-date browser, then add the photo again."
+    )
+}
+
 /// "photo says: 2025-06-01 14:05:09 (+01:00, its own) · 52.41530, -4.08290 ±7 m".
 pub fn photo_says(exif: &PhotoExif) -> String {
     let when = match (&exif.taken_at, &exif.offset_source) {
         (Some(at), Some(shared_types::OffsetSource::Photo)) => format!("{} ({}, its own offset)", at.format("%Y-%m-%d %H:%M:%S"), at.offset()),
-        (Some(at), _) => format!("{} ({}, this phone's offset)", at.format("%Y-%m-%d %H:%M:%S"), at.offset()),
+        (Some(at), _) => format!("{} ({}, this phone's offset on that date)", at.format("%Y-%m-%d %H:%M:%S"), at.offset()),
         (None, _) => "no time".to_owned(),
     };
     let place = match (exif.latitude, exif.longitude) {

@@ -227,8 +227,8 @@ fn RecordReview(client_id: String, back: impl Fn() + Copy + 'static) -> impl Int
                 view! { <a href=link target="_blank"><img class="review-photo" src=url alt="photo of the record" /></a> }
             }).collect_view();
             let exif_rows = d.record.photos.iter().enumerate().map(|(i, p)| {
-                let source = p.exif.offset_source.map(|s| format!("offset from the {}", if matches!(s, shared_types::OffsetSource::Photo) { "photo" } else { "record" }));
-                time_and_place(&format!("photo {}", i + 1), p.exif.taken_at.map(|t| t.to_rfc3339()), p.exif.latitude, p.exif.longitude, source)
+                let (when, lat, lon, source) = crate::readable::photo_facts(p);
+                time_and_place(&format!("photo {}", i + 1), when, lat, lon, source)
             }).collect_view();
             let key_answers = sub.key_choice.as_ref().map(|k| view! {
                 <p>{format!("Guided key: {} ({}, {:.0}%) from answers: {}", k.scientific_name.as_str(), k.taxon_rank, k.probability * 100.0,
@@ -241,7 +241,7 @@ fn RecordReview(client_id: String, back: impl Fn() + Copy + 'static) -> impl Int
                     <img class="place-map" src=format!("/api/review/records/{}/map.svg", sub.client_id) alt="map of where the record and its photos were made" />
                     <table class="when-where">
                         <tr><th></th><th>"when"</th><th>"where"</th><th></th></tr>
-                        {time_and_place("device", Some(sub.observed_at.to_rfc3339()), position.map(|p| p.latitude.get()), position.map(|p| p.longitude.get()),
+                        {time_and_place("device", Some(crate::readable::time(&sub.observed_at)), position.map(|p| p.latitude.get()), position.map(|p| p.longitude.get()),
                             position.and_then(|p| p.accuracy_m).map(|a| format!("±{:.0} m", a.get())))}
                         {exif_rows}
                     </table>

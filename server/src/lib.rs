@@ -42,6 +42,9 @@ pub struct AppState {
     /// for a query plus an insert, never across an `.await`, so that two arrivals of one
     /// animal always see each other.
     pub duplicates: std::sync::Arc<std::sync::Mutex<duplicates::Index>>,
+    /// Turns for decoding photos (one per core), so parallel uploads cannot take all
+    /// the memory; see `intake::gate`.
+    pub decode_gate: intake::gate::DecodeGate,
 }
 
 /// The demo checklist, built in; `--checklist FILE` replaces it.
@@ -74,7 +77,8 @@ impl AppState {
         let taxa = std::sync::Arc::new(assess::taxa::TaxonIndex::new(checklist));
         let positions = store.run_here(|conn| store::duplicates::all_positions(conn))?;
         let duplicates = std::sync::Arc::new(std::sync::Mutex::new(duplicates::Index::build(positions)));
-        Ok(Self { store, photos, app_dir, taxa, logins: auth::LoginLimiter::default(), duplicates })
+        let decode_gate = intake::gate::DecodeGate::sized_to_cores();
+        Ok(Self { store, photos, app_dir, taxa, logins: auth::LoginLimiter::default(), duplicates, decode_gate })
     }
 }
 

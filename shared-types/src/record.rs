@@ -355,7 +355,11 @@ impl ReviewState {
 pub enum OffsetSource {
     /// The photo's own OffsetTimeOriginal tag.
     Photo,
-    /// The phone's offset at the time of the record (the photo had none).
+    /// The phone's UTC offset at the photo's local time, which the phone sent with its
+    /// reading (the photo had no offset of its own). Across a daylight-saving change
+    /// this is not the record's offset.
+    Device,
+    /// The record's UTC offset (the photo had none and the phone sent none).
     Record,
 }
 
@@ -375,6 +379,11 @@ pub struct PhotoExif {
     /// GPSHPositioningError, metres.
     pub horizontal_error_m: Option<f64>,
     pub orientation: Option<u16>,
+    /// The phone's UTC offset at the photo's local time, e.g. "+00:00", which the phone
+    /// used because the photo had no OffsetTimeOriginal. Sent by the phone, never read
+    /// from a file; left out of the JSON when absent, so older records hash as before.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub device_offset: Option<String>,
 }
 
 /// A question the server raises about a photo, for the reviewer.
@@ -410,9 +419,12 @@ pub enum ExifReading {
 /// compared with each).
 #[derive(Debug, Clone, Default, PartialEq, Serialize, Deserialize)]
 pub struct PhotoCheck {
-    /// Whose EXIF reading was compared: the server's of the file it received, or (when
-    /// that file had no time or place, as upload copies do) the phone's of the original.
-    pub reading: Option<ExifReading>,
+    /// Whose EXIF time was compared: the server's reading of the file it received, or
+    /// (when that file had no time, as upload copies do) the phone's of the original.
+    pub time_reading: Option<ExifReading>,
+    /// Whose EXIF position was compared, chosen the same way on its own: a file with a
+    /// time but no GPS still has its position from the phone's reading.
+    pub place_reading: Option<ExifReading>,
     /// Record time minus the photo's EXIF time, seconds (negative: photo after record).
     pub seconds_before_record: Option<f64>,
     /// Geodesic distance (WGS84) from the record's position to the photo's, metres.

@@ -16,21 +16,27 @@ export const REVIEWER = { username: 'browser-reviewer', password: 'browser-revie
 export const ADMIN = { username: 'browser-admin', password: 'browser-admin-pass' };
 
 // Starts `wrackline serve` on 127.0.0.1:0 with a reviewer sign-in made by
-// `wrackline user add`, and resolves once it prints its address.
-export async function startServer() {
+// `wrackline user add`, and resolves once it prints its address. With `{ demo: true }`
+// it runs `wrackline demo` instead: the demo records and walks loaded, and the demo
+// sign-ins it prints kept in `demoPeople` ({reviewer, admin} as {username, password}).
+export async function startServer({ demo = false } = {}) {
   const dataDir = mkdtempSync(path.join(tmpdir(), 'wrackline-browser-'));
   for (const [person, role] of [[REVIEWER, 'reviewer'], [ADMIN, 'admin']]) {
     execFileSync(required('WRACKLINE_BIN'), ['--data-dir', dataDir, 'user', 'add', '--username', person.username, '--role', role],
       { env: { ...process.env, WRACKLINE_PASSWORD: person.password }, stdio: ['ignore', 'ignore', 'inherit'] });
   }
   const child = spawn(required('WRACKLINE_BIN'), [
-    '--data-dir', dataDir, 'serve', '--bind', '127.0.0.1:0', '--app-dir', required('WRACKLINE_APP_DIR'),
+    '--data-dir', dataDir, demo ? 'demo' : 'serve', '--bind', '127.0.0.1:0', '--app-dir', required('WRACKLINE_APP_DIR'),
   ], { stdio: ['ignore', 'pipe', 'inherit'] });
+  const demoPeople = {};
   const url = await new Promise((resolve, reject) => {
     let seen = '';
-    const timer = setTimeout(() => reject(new Error(`server did not start: ${seen}`)), 20000);
+    const timer = setTimeout(() => reject(new Error(`server did not start: ${seen}`)), demo ? 90000 : 20000);
     child.stdout.on('data', (chunk) => {
       seen += chunk;
+      for (const [, role, username, password] of seen.matchAll(/demo sign-in \((\w+)\): username (\S+), password (\S+)/g)) {
+        demoPeople[role] = { username, password };
+      }
       const match = seen.match(/listening on (http:\/\/127\.0\.0\.1:\d+)/);
       if (match) { clearTimeout(timer); resolve(match[1]); }
     });
@@ -52,6 +58,7 @@ export async function startServer() {
   return {
     url,
     dataDir,
+    demoPeople,
     get,
     fetchSigned,
     records: () => get('/api/observations'),

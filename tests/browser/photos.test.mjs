@@ -4,7 +4,11 @@
 // prefill the position when the device has no fix; the upload copy is upright and
 // carries no EXIF (read back with exiftool); the phone's reading arrives as data and
 // the server keeps it apart from its own. A HEIC file the browser cannot open is
-// refused with words that say what to do.
+// refused with words that say what to do; so is a photo on a browser too old to
+// resize it, while one without OffscreenCanvas (iOS Safari before 16.4) still prepares
+// it. A photo taken before a daylight-saving change keeps the phone's offset of that
+// date. Removing a photo takes the position it filled with it; the same photo is not
+// added twice.
 import { test, before, after } from 'node:test';
 import assert from 'node:assert/strict';
 import { execFileSync } from 'node:child_process';
@@ -35,9 +39,10 @@ function exiftoolTags(bytes) {
   return Object.keys(found).filter((k) => !/^(SourceFile|ExifTool|System|File|Composite):?/.test(k));
 }
 
-// A phone whose location service gives no fix.
-async function phoneWithoutFix() {
-  const context = await browser.newContext({ viewport: { width: 390, height: 844 } });
+// A phone whose location service gives no fix (`options` adds to the context's, e.g.
+// its time zone).
+async function phoneWithoutFix(options = {}) {
+  const context = await browser.newContext({ viewport: { width: 390, height: 844 }, ...options });
   await context.addInitScript(() => Object.defineProperty(navigator, 'geolocation', {
     value: { getCurrentPosition: (_ok, fail) => fail({ message: 'no fix' }) },
   }));
@@ -91,7 +96,8 @@ test('a photo\'s EXIF is read on the phone, shown, prefills the position and tra
     assert.deepEqual([photo.width, photo.height], [720, 960]);
     assert.equal(photo.exif.latitude, null, 'the upload copy carries no GPS');
     assert.equal(photo.phone_exif.taken_at, '2025-06-01T09:30:00.250+01:00');
-    assert.equal(photo.check.reading, 'phone');
+    assert.equal(photo.check.time_reading, 'phone');
+    assert.equal(photo.check.place_reading, 'phone');
     assert.ok(photo.check.flags.includes('taken_long_before_record'), JSON.stringify(photo.check));
     assert.ok(photo.check.metres_from_record < 0.1, 'the record took its position from the photo');
 
@@ -202,6 +208,133 @@ test('a large photo is sent as a copy with its long edge at 2048 px', async () =
     const [record] = await server.records();
     assert.deepEqual([record.photos[0].width, record.photos[0].height], [2048, 1365]);
     assert.equal(record.photos[0].media_type, 'image/jpeg');
+  } finally {
+    await context.close();
+    server.stop();
+  }
+});
+
+async function sendForm(page) {
+  await page.fill('#species', 'small-spotted catshark');
+  await page.selectOption('#condition', 'fresh_dead');
+  await page.selectOption('#setting', 'beach_stranding');
+  await page.click('#save-send');
+  await page.waitForFunction(() => document.querySelector('.outbox-entry')?.textContent.includes('received by the server'), null, { timeout: 20000 });
+}
+
+// Browsers without these: OffscreenCanvas (iOS Safari before 16.4), and also
+// createImageBitmap (iOS Safari before 15).
+for (const missing of [['OffscreenCanvas'], ['OffscreenCanvas', 'createImageBitmap']]) {
+  test(`a phone without ${missing.join(' or ')} still prepares an upright copy`, async () => {
+    const server = await startServer();
+    const context = await phoneWithoutFix();
+    await context.addInitScript((names) => { for (const name of names) delete self[name]; }, missing);
+    try {
+      const page = await openApp(context, server);
+      assert.deepEqual(await page.evaluate((names) => names.filter((name) => name in self), missing), [], 'the browser lacks them');
+      await page.setInputFiles('#photo-input', photoWithExif(['-Orientation#=6']));
+      await page.waitForSelector('.thumbs img', { timeout: 10000 });
+      assert.equal(await page.textContent('#photo-note'), '');
+      await sendForm(page);
+      const [record] = await server.records();
+      // Orientation 6 (CIPA DC-008: rotate 90° clockwise): the 960 × 720 drawing arrives 720 × 960.
+      assert.deepEqual([record.photos[0].width, record.photos[0].height], [720, 960]);
+      assert.equal(record.photos[0].media_type, 'image/jpeg');
+    } finally {
+      await context.close();
+      server.stop();
+    }
+  });
+}
+
+test('a browser with no way to resize a photo says so in plain words and adds nothing', async () => {
+  const server = await startServer();
+  const context = await phoneWithoutFix();
+  await context.addInitScript(() => { delete self.OffscreenCanvas; delete HTMLCanvasElement.prototype.toBlob; });
+  try {
+    const page = await openApp(context, server);
+    await page.setInputFiles('#photo-input', demoPhoto('ray.jpg'));
+    await page.waitForFunction(() => document.querySelector('#photo-note')?.textContent.includes('too old'), null, { timeout: 10000 });
+    assert.match(await page.textContent('#photo-note'), /“ray\.jpg” could not be prepared for sending: this browser is too old to resize photos .* Update the phone's software .* then add the photo again\./);
+    assert.equal(await page.$$eval('.thumbs li', (items) => items.length), 0);
+  } finally {
+    await context.close();
+    server.stop();
+  }
+});
+
+test('a photo taken before the clocks changed keeps the phone\'s offset of that date', async () => {
+  // London: GMT (+00:00) until 01:00 UTC on Sunday 30 March 2025, then BST (+01:00)
+  // (UK daylight saving starts the last Sunday of March, from memory; the tz database
+  // in Chromium agrees). The photo has no OffsetTimeOriginal; the record is made after.
+  const server = await startServer();
+  const context = await phoneWithoutFix({ timezoneId: 'Europe/London' });
+  try {
+    const page = await openApp(context, server);
+    await page.setInputFiles('#photo-input', photoWithExif(['-DateTimeOriginal=2025:03:29 14:00:00']));
+    await page.waitForSelector('.photo-says', { timeout: 10000 });
+    assert.equal(await page.textContent('.photo-says'), "photo says: 2025-03-29 14:00:00 (+00:00, this phone's offset on that date) · no position");
+    await page.fill('#when', '2025-03-31T10:00');
+    await page.fill('#latitude', '52.4153');
+    await page.fill('#longitude', '-4.0829');
+    await sendForm(page);
+    const [record] = await server.records();
+    assert.equal(record.submission.observed_at, '2025-03-31T10:00:00+01:00');
+    const photo = record.photos[0];
+    assert.equal(photo.phone_exif.device_offset, '+00:00');
+    assert.equal(photo.phone_exif.offset_source, 'device');
+    // The instant the phone showed, not one an hour off with the record's +01:00.
+    assert.equal(photo.phone_exif.taken_at, '2025-03-29T14:00:00Z', 'RFC 3339 writes +00:00 as Z');
+    assert.equal(photo.check.seconds_before_record, 43 * 3600);
+  } finally {
+    await context.close();
+    server.stop();
+  }
+});
+
+test('removing the photo whose GPS filled the position clears it; a typed position stays', async () => {
+  const server = await startServer();
+  const context = await phoneWithoutFix();
+  try {
+    const page = await openApp(context, server);
+    const withGps = ['-GPSLatitude=52.4601', '-GPSLatitudeRef=N', '-GPSLongitude=4.0829', '-GPSLongitudeRef=W'];
+    await page.setInputFiles('#photo-input', photoWithExif(withGps));
+    await page.waitForSelector('.photo-says', { timeout: 10000 });
+    assert.equal(await page.inputValue('#latitude'), '52.460100');
+    await page.click('.remove-photo');
+    await page.waitForFunction(() => document.querySelectorAll('.thumbs li').length === 0);
+    assert.deepEqual([await page.inputValue('#latitude'), await page.inputValue('#longitude')], ['', '']);
+    assert.match(await page.textContent('#position-note'), /removed photo/);
+
+    await page.setInputFiles('#photo-input', photoWithExif(withGps));
+    await page.waitForSelector('.photo-says', { timeout: 10000 });
+    await page.fill('#latitude', '52.4700');
+    await page.click('.remove-photo');
+    await page.waitForFunction(() => document.querySelectorAll('.thumbs li').length === 0);
+    assert.equal(await page.inputValue('#latitude'), '52.4700', 'a position the observer typed is theirs');
+  } finally {
+    await context.close();
+    server.stop();
+  }
+});
+
+test('the same photo picked twice is added once, and said so', async () => {
+  const server = await startServer();
+  const context = await phoneWithoutFix();
+  try {
+    const page = await openApp(context, server);
+    await page.setInputFiles('#photo-input', demoPhoto('ray.jpg'));
+    await page.waitForSelector('.thumbs img', { timeout: 10000 });
+    await page.setInputFiles('#photo-input', demoPhoto('ray.jpg'));
+    await page.waitForFunction(() => document.querySelector('#photo-note')?.textContent.includes('already added'), null, { timeout: 10000 });
+    assert.equal(await page.textContent('#photo-note'), '“ray.jpg”: this photo is already added.');
+    assert.equal(await page.$$eval('.thumbs li', (items) => items.length), 1);
+    await page.fill('#latitude', '52.4153');
+    await page.fill('#longitude', '-4.0829');
+    await sendForm(page);
+    assert.match(await page.textContent('.outbox-entry'), /1 photo\(s\)/);
+    const [record] = await server.records();
+    assert.equal(record.photos.length, 1);
   } finally {
     await context.close();
     server.stop();

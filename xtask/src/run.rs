@@ -40,8 +40,21 @@ pub fn exec(mut command: Command) -> Result<()> {
     std::process::exit(status.code().unwrap_or(1));
 }
 
-/// The browser test files, run in this order.
-const BROWSER_TESTS: &[&str] = &["offline_capture.test.mjs", "photos.test.mjs", "species_key.test.mjs", "walks.test.mjs", "review_round_trip.test.mjs", "figures.test.mjs"];
+/// Every browser test file: each `*.test.mjs` in `tests/browser`, in name order, so a
+/// new test file cannot be left out of the run.
+fn browser_test_files(folder: &Path) -> Result<Vec<std::path::PathBuf>> {
+    let mut files: Vec<_> = std::fs::read_dir(folder)
+        .with_context(|| format!("listing {}", folder.display()))?
+        .map(|entry| entry.map(|e| e.path()))
+        .collect::<Result<_, _>>()
+        .with_context(|| format!("listing {}", folder.display()))?;
+    files.retain(|path| path.file_name().and_then(|n| n.to_str()).is_some_and(|n| n.ends_with(".test.mjs")));
+    files.sort();
+    if files.is_empty() {
+        bail!("no *.test.mjs files in {}", folder.display());
+    }
+    Ok(files)
+}
 
 /// `node` with what the browser tests and scripts need to find: the real server
 /// binary, the built app and the demo files.
@@ -60,7 +73,7 @@ pub fn browser_tests(dist: &Path, server: &Path) -> Result<()> {
     let folder = root().join("tests/browser");
     let mut command = node(dist, server);
     command.arg("--test").arg("--test-concurrency=1");
-    command.args(BROWSER_TESTS.iter().map(|file| folder.join(file)));
+    command.args(browser_test_files(&folder)?);
     check(command)
 }
 

@@ -80,7 +80,8 @@ async fn serve(State(state): State<AppState>, Path(sha256): Path<String>, rendit
 async fn remake_derivatives(state: &AppState, sha256: &str, orientation: Option<u16>) -> Result<(), ApiError> {
     let files = state.photos.clone();
     let key = sha256.to_owned();
-    let derived = tokio::task::spawn_blocking(move || -> anyhow::Result<images::Derivatives> {
+    // Remaking decodes the original: it waits for a turn like any upload.
+    let derived = state.decode_gate.run(move || -> anyhow::Result<images::Derivatives> {
         let original = files.path_of(&key, Rendition::Original).ok_or_else(|| anyhow::anyhow!("bad photo hash {key}"))?;
         let bytes = std::fs::read(&original).map_err(|err| anyhow::anyhow!("reading {}: {err}", original.display()))?;
         let format = PhotoFormat::sniff(&bytes).ok_or_else(|| anyhow::anyhow!("stored photo {key} is not an image"))?;
@@ -90,7 +91,7 @@ async fn remake_derivatives(state: &AppState, sha256: &str, orientation: Option<
         Ok(derived)
     })
     .await
-    .map_err(|err| anyhow::anyhow!("derivative task failed: {err}"))??;
+    .map_err(anyhow::Error::from)??;
     let key = sha256.to_owned();
     state.store.run(move |conn| observations::set_photo_pixels(conn, &key, derived.width, derived.height, &derived.phash)).await?;
     Ok(())

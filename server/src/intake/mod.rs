@@ -2,8 +2,9 @@
 //! names what is wrong. Nothing is half-stored: photo files are written (by content,
 //! so a retry rewrites nothing) before the one database transaction that links them.
 
-pub mod photo_checks;
+pub mod gate;
 pub mod images;
+pub mod photo_checks;
 pub mod photos;
 pub mod walks;
 
@@ -46,7 +47,7 @@ pub enum IntakeError {
 pub enum PhotoProblem {
     #[error("the file is empty")]
     Empty,
-    #[error("{0} bytes is over the limit of {MAX_PHOTO_BYTES} bytes")]
+    #[error("{0} bytes is over the limit of {mib} MiB ({MAX_PHOTO_BYTES} bytes) for one photo", mib = MAX_PHOTO_BYTES >> 20)]
     TooManyBytes(usize),
     #[error("not a JPEG or PNG image (checked by its first bytes); send the photo as JPEG")]
     NotAnImage,
@@ -112,7 +113,9 @@ pub async fn accept(state: &AppState, upload: Upload, observer_id: Option<i64>, 
     let record_offset = *submission.observed_at.offset();
     let mut stored = store_photos(state, upload.photos, record_offset).await?;
     for (index, photo) in stored.iter_mut().enumerate() {
-        photo.phone_exif = submission.photo_exif.get(index).map(|phone| phone_reading(phone, record_offset));
+        let phone = submission.photo_exif.get(index);
+        photo.phone_exif = phone.map(|phone| phone_reading(phone, record_offset));
+        photo.exif = with_device_offset(std::mem::take(&mut photo.exif), phone, record_offset);
         photo.check = photo_checks::compare(&submission, &photo.exif, photo.phone_exif.as_ref());
     }
     let (flags, guessed_taxon) = arrival_flags(state, &submission).await?;
@@ -158,14 +161,24 @@ async fn find_duplicates(state: &AppState, observation_id: i64, now: DateTime<Ut
     Ok(())
 }
 
-/// Checks and writes photo files; hashing, EXIF, decoding, derivatives and file writes
-/// are blocking work, so on the blocking pool.
+/// Checks and writes photo files. The cheap checks (count, bytes, magic) run on every
+/// photo first; then each is decoded in turn through the server's decode gate (hashing,
+/// EXIF, decoding and derivatives are blocking work); only when all have passed are the
+/// files written, so a bad photo refuses the record before any file is stored.
 pub async fn store_photos(state: &AppState, photos: Vec<Vec<u8>>, record_offset: chrono::FixedOffset) -> Result<Vec<StoredPhoto>, IntakeError> {
     if photos.len() > MAX_PHOTOS_PER_RECORD {
         return Err(IntakeError::TooManyPhotos(photos.len()));
     }
+    for (index, bytes) in photos.iter().enumerate() {
+        check_photo(bytes).map_err(|problem| IntakeError::Photo { number: index + 1, problem })?;
+    }
+    let mut prepared = Vec::with_capacity(photos.len());
+    for (index, bytes) in photos.into_iter().enumerate() {
+        let one = state.decode_gate.run(move || prepare_photo(bytes, record_offset)).await.map_err(anyhow::Error::from)?;
+        prepared.push(one.map_err(|problem| IntakeError::Photo { number: index + 1, problem })?);
+    }
     let photo_files = state.photos.clone();
-    tokio::task::spawn_blocking(move || store_photo_files(&photo_files, photos, record_offset))
+    tokio::task::spawn_blocking(move || write_photo_files(&photo_files, prepared))
         .await
         .map_err(|err| anyhow::anyhow!("photo task failed: {err}"))?
 }
@@ -182,18 +195,8 @@ async fn arrival_flags(state: &AppState, submission: &Submission) -> Result<(Vec
     Ok((crate::flags::raise(state.checklist(), submission, taxon, &confirmed), Some(name)))
 }
 
-/// Checks and decodes every photo first, so a bad one refuses the record before any
-/// file is written; then writes each original and its derivatives durably.
-fn store_photo_files(
-    files: &photos::PhotoFiles,
-    photos: Vec<Vec<u8>>,
-    record_offset: chrono::FixedOffset,
-) -> Result<Vec<StoredPhoto>, IntakeError> {
-    let prepared = photos
-        .into_iter()
-        .enumerate()
-        .map(|(index, bytes)| prepare_photo(bytes, record_offset).map_err(|problem| IntakeError::Photo { number: index + 1, problem }))
-        .collect::<Result<Vec<_>, _>>()?;
+/// Writes each checked photo's original and derivatives durably.
+fn write_photo_files(files: &photos::PhotoFiles, prepared: Vec<(Vec<u8>, images::Derivatives, StoredPhoto)>) -> Result<Vec<StoredPhoto>, IntakeError> {
     prepared
         .into_iter()
         .map(|(bytes, derived, stored)| {
@@ -229,10 +232,25 @@ pub fn prepare_photo(
 }
 
 /// The phone's reading as sent, with the instant worked out here from its local time
-/// and offset (the server decides, with the same rule as for its own reading).
+/// and offset (the server decides, with the same rule as for its own reading): the
+/// photo's own offset, else the offset the phone had at the photo's local time, else
+/// the record's.
 fn phone_reading(phone: &shared_types::PhotoExif, record_offset: chrono::FixedOffset) -> shared_types::PhotoExif {
     let sent = shared_types::PhotoExif { taken_at: None, offset_source: None, ..phone.clone() };
     exif::resolve_time(sent, record_offset)
+}
+
+/// The server's reading of a received file whose EXIF time has no offset of its own,
+/// resolved again with the offset the phone had at that photo's local time — when the
+/// phone read the same local time from its original, so the offset belongs to it.
+fn with_device_offset(received: shared_types::PhotoExif, phone: Option<&shared_types::PhotoExif>, record_offset: chrono::FixedOffset) -> shared_types::PhotoExif {
+    let Some(phone) = phone.filter(|p| p.device_offset.is_some() && p.taken_local.is_some() && p.taken_local == received.taken_local) else {
+        return received;
+    };
+    let again = shared_types::PhotoExif { taken_at: None, offset_source: None, device_offset: phone.device_offset.clone(), ..received };
+    let resolved = exif::resolve_time(again, record_offset);
+    // The offset is kept with the reading as its instant; the files' table is shared by records.
+    shared_types::PhotoExif { device_offset: None, ..resolved }
 }
 
 /// The checks made before any decoding: not empty, not too many bytes, a known format

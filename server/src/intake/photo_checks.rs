@@ -3,7 +3,7 @@
 //! record, or far from where the record says, is flagged for the reviewer. A flag is
 //! a question for review, never a refusal.
 
-use chrono::Utc;
+use chrono::{DateTime, FixedOffset, Utc};
 use geo::{Distance as _, Geodesic, Point};
 use shared_types::{ExifReading, PhotoCheck, PhotoExif, PhotoFlag, Submission};
 
@@ -17,32 +17,48 @@ pub const TAKEN_BEFORE_LIMIT_HOURS: i64 = 24;
 /// GPSHPositioningError), is flagged. 1 km is a short walk along a strandline.
 pub const FAR_LIMIT_M: f64 = 1000.0;
 
-/// Which reading to compare: the server's own of the received file when it says when or
-/// where, else the phone's of the original (an upload copy carries no EXIF).
-pub fn choose<'a>(received: &'a PhotoExif, phone: Option<&'a PhotoExif>) -> Option<(ExifReading, &'a PhotoExif)> {
-    let says_something = |exif: &PhotoExif| exif.taken_at.is_some() || (exif.latitude.is_some() && exif.longitude.is_some());
-    if says_something(received) {
-        Some((ExifReading::ReceivedFile, received))
-    } else {
-        phone.filter(|p| says_something(p)).map(|p| (ExifReading::Phone, p))
-    }
+/// When the photo was taken, and whose reading said so: the server's own reading of the
+/// received file when it has a time, else the phone's reading of the original (an
+/// upload copy carries no EXIF).
+pub fn time_of(received: &PhotoExif, phone: Option<&PhotoExif>) -> Option<(ExifReading, DateTime<FixedOffset>)> {
+    let from = |reading, exif: &PhotoExif| exif.taken_at.map(|at| (reading, at));
+    from(ExifReading::ReceivedFile, received).or_else(|| phone.and_then(|p| from(ExifReading::Phone, p)))
 }
 
-/// Time gap and distance between a photo and its record, and the flags they raise.
-/// Values are absent when neither reading says (no EXIF time, no position).
-pub fn compare(record: &Submission, received: &PhotoExif, phone: Option<&PhotoExif>) -> PhotoCheck {
-    let Some((reading, exif)) = choose(received, phone) else {
-        return PhotoCheck::default();
+/// Where the photo was taken (latitude, longitude and GPSHPositioningError), and whose
+/// reading said so, chosen the same way as the time but on its own: a file with a time
+/// and no GPS does not hide the phone's GPS. Only coordinates that exist are taken.
+pub fn place_of(received: &PhotoExif, phone: Option<&PhotoExif>) -> Option<(ExifReading, Place)> {
+    let from = |reading, exif: &PhotoExif| match (exif.latitude, exif.longitude) {
+        (Some(lat), Some(lon)) if (-90.0..=90.0).contains(&lat) && (-180.0..=180.0).contains(&lon) => {
+            Some((reading, Place { latitude: lat, longitude: lon, error_m: exif.horizontal_error_m }))
+        }
+        _ => None,
     };
-    let seconds_before_record = exif
-        .taken_at
-        .map(|taken| (record.observed_at.with_timezone(&Utc) - taken.with_timezone(&Utc)).num_milliseconds() as f64 / 1000.0);
+    from(ExifReading::ReceivedFile, received).or_else(|| phone.and_then(|p| from(ExifReading::Phone, p)))
+}
+
+/// A photo's EXIF position.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Place {
+    pub latitude: f64,
+    pub longitude: f64,
+    /// GPSHPositioningError, metres.
+    pub error_m: Option<f64>,
+}
+
+/// Time gap and distance between a photo and its record, the flags they raise, and
+/// whose reading gave each. Values are absent when neither reading says.
+pub fn compare(record: &Submission, received: &PhotoExif, phone: Option<&PhotoExif>) -> PhotoCheck {
+    let time = time_of(received, phone);
+    let place = place_of(received, phone);
+    let seconds_before_record = time
+        .map(|(_, taken)| (record.observed_at.with_timezone(&Utc) - taken.with_timezone(&Utc)).num_milliseconds() as f64 / 1000.0);
     let position = record.position.as_ref();
-    let metres_from_record = match (position, exif.latitude, exif.longitude) {
-        // The phone's reading is what the phone says: take only coordinates that exist.
-        (Some(place), Some(lat), Some(lon)) if (-90.0..=90.0).contains(&lat) && (-180.0..=180.0).contains(&lon) => Some(Geodesic.distance(
-            Point::new(place.longitude.get(), place.latitude.get()),
-            Point::new(lon, lat),
+    let metres_from_record = match (position, place) {
+        (Some(at), Some((_, photo))) => Some(Geodesic.distance(
+            Point::new(at.longitude.get(), at.latitude.get()),
+            Point::new(photo.longitude, photo.latitude),
         )),
         _ => None,
     };
@@ -52,9 +68,15 @@ pub fn compare(record: &Submission, received: &PhotoExif, phone: Option<&PhotoEx
     }
     let allowance = FAR_LIMIT_M
         + position.and_then(|p| p.accuracy_m).map_or(0.0, |a| a.get())
-        + exif.horizontal_error_m.filter(|e| e.is_finite() && *e >= 0.0).unwrap_or(0.0);
+        + place.and_then(|(_, p)| p.error_m).filter(|e| e.is_finite() && *e >= 0.0).unwrap_or(0.0);
     if metres_from_record.is_some_and(|m| m > allowance) {
         flags.push(PhotoFlag::TakenFarFromRecord);
     }
-    PhotoCheck { reading: Some(reading), seconds_before_record, metres_from_record, flags }
+    PhotoCheck {
+        time_reading: time.map(|(reading, _)| reading),
+        place_reading: place.map(|(reading, _)| reading),
+        seconds_before_record,
+        metres_from_record,
+        flags,
+    }
 }

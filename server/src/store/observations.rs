@@ -80,8 +80,14 @@ pub fn insert_observation(conn: &mut Connection, new: &NewObservation, now: Date
         client_id: new.submission.client_id,
         observation_id,
         received_at: parse_utc(&received_at)?,
-        photo_count: new.photos.len(),
+        photo_count: distinct_photos(&new.photos),
     }))
+}
+
+/// How many photos a record holds: the same file sent twice in one record is one photo
+/// (kept at its first position), on the first receipt and on a resend's alike.
+fn distinct_photos(photos: &[StoredPhoto]) -> usize {
+    photos.iter().map(|p| p.sha256.as_str()).collect::<std::collections::HashSet<_>>().len()
 }
 
 fn existing_receipt(tx: &Transaction, client_id: &str) -> Result<Option<(String, Receipt)>, StoreError> {
@@ -178,6 +184,9 @@ fn insert_details(tx: &Transaction, observation_id: i64, new: &NewObservation, r
 }
 
 /// Stores a photo row (once per file) and links it to an observation at `position`.
+/// The link is keyed by record and file, so the same file twice in one record is one
+/// link at its first position: the server accepts such a record (an older phone may
+/// send it) rather than refuse evidence, and the phone refuses to add a photo twice.
 pub(super) fn link_photo(tx: &Transaction, observation_id: i64, position: usize, photo: &StoredPhoto, received_at: &str) -> Result<(), StoreError> {
     let exif = &photo.exif;
     let phone_json = photo.phone_exif.as_ref().map(serde_json::to_string).transpose().map_err(|err| StoreError::Corrupt(err.to_string()))?;
@@ -194,8 +203,8 @@ pub(super) fn link_photo(tx: &Transaction, observation_id: i64, position: usize,
     )?;
     tx.execute(
         "INSERT OR IGNORE INTO observation_photos (observation_id, photo_sha256, position, exif_taken_at, offset_source,
-            seconds_before_record, metres_from_record, exif_reading, phone_exif_json)
-         VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9)",
+            seconds_before_record, metres_from_record, time_reading, place_reading, phone_exif_json)
+         VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10)",
         params![
             observation_id,
             photo.sha256,
@@ -204,7 +213,8 @@ pub(super) fn link_photo(tx: &Transaction, observation_id: i64, position: usize,
             exif.offset_source.as_ref().map(code),
             photo.check.seconds_before_record,
             photo.check.metres_from_record,
-            photo.check.reading.as_ref().map(code),
+            photo.check.time_reading.as_ref().map(code),
+            photo.check.place_reading.as_ref().map(code),
             phone_json,
         ],
     )?;
@@ -325,7 +335,7 @@ fn photos_of(conn: &Connection, observation_id: i64) -> Result<Vec<PhotoView>, S
                 p.width, p.height, p.phash, op.seconds_before_record, op.metres_from_record,
                 (SELECT group_concat(f.flag) FROM photo_flags f
                  WHERE f.observation_id = op.observation_id AND f.photo_sha256 = op.photo_sha256),
-                op.exif_reading, op.phone_exif_json
+                op.time_reading, op.phone_exif_json, op.place_reading
          FROM observation_photos op JOIN photos p ON p.sha256 = op.photo_sha256
          WHERE op.observation_id = ?1 ORDER BY op.position",
     )?;
@@ -341,7 +351,8 @@ fn photos_of(conn: &Connection, observation_id: i64) -> Result<Vec<PhotoView>, S
             phash: row.get(14)?,
             phone_exif: row.get::<_, Option<String>>(19)?.and_then(|json| serde_json::from_str(&json).ok()),
             check: PhotoCheck {
-                reading: row.get::<_, Option<String>>(18)?.and_then(|c| from_code(&c)),
+                time_reading: row.get::<_, Option<String>>(18)?.and_then(|c| from_code(&c)),
+                place_reading: row.get::<_, Option<String>>(20)?.and_then(|c| from_code(&c)),
                 seconds_before_record: row.get(15)?,
                 metres_from_record: row.get(16)?,
                 flags: flags_from(row.get::<_, Option<String>>(17)?),
@@ -356,6 +367,7 @@ fn photos_of(conn: &Connection, observation_id: i64) -> Result<Vec<PhotoView>, S
                 orientation: row.get(9)?,
                 taken_at: taken_at.and_then(|t| chrono::DateTime::parse_from_rfc3339(&t).ok()),
                 offset_source: offset_source.and_then(|s| from_code::<OffsetSource>(&s)),
+                device_offset: None,
             },
         })
     })?;

@@ -13,6 +13,8 @@ pub struct TestApp {
     pub data_dir: PathBuf,
     /// A signed-in reviewer, for reading records back.
     pub reviewer: Staff,
+    /// The server's photo decode gate, to count decodes running at once.
+    pub decode_gate: wrackline_server::intake::gate::DecodeGate,
     _dir: tempfile::TempDir,
 }
 
@@ -37,10 +39,23 @@ pub async fn spawn_app() -> TestApp {
 }
 
 pub async fn spawn_app_with(app_dir: Option<PathBuf>) -> TestApp {
+    spawn(app_dir, None).await
+}
+
+/// The server with room for `turns` photo decodes at once (the default is one per core).
+pub async fn spawn_app_with_decode_turns(turns: usize) -> TestApp {
+    spawn(None, Some(turns)).await
+}
+
+async fn spawn(app_dir: Option<PathBuf>, decode_turns: Option<usize>) -> TestApp {
     let dir = tempfile::tempdir().expect("temp dir");
     let data_dir = dir.path().join("data");
     let checklist = wrackline_server::load_checklist(None).expect("demo checklist");
-    let state = AppState::open(&data_dir, app_dir, checklist).expect("open state");
+    let mut state = AppState::open(&data_dir, app_dir, checklist).expect("open state");
+    if let Some(turns) = decode_turns {
+        state.decode_gate = wrackline_server::intake::gate::DecodeGate::new(turns);
+    }
+    let decode_gate = state.decode_gate.clone();
     for (username, role) in [("test-reviewer", shared_types::Role::Reviewer), ("test-admin", shared_types::Role::Admin)] {
         wrackline_server::handlers::people::add_staff(&state, username.into(), role, format!("Test {}", role.code()), REVIEWER_PASSWORD.into())
             .await
@@ -51,7 +66,7 @@ pub async fn spawn_app_with(app_dir: Option<PathBuf>) -> TestApp {
     tokio::spawn(async move { axum::serve(listener, wrackline_server::app(state)).await.unwrap() });
     let client = reqwest::Client::new();
     let reviewer = sign_in(&client, &base, "test-reviewer", REVIEWER_PASSWORD).await.expect("reviewer signs in");
-    TestApp { base, client, data_dir, reviewer, _dir: dir }
+    TestApp { base, client, data_dir, reviewer, decode_gate, _dir: dir }
 }
 
 /// Signs in over HTTP, or says what the server answered.

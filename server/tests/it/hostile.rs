@@ -68,6 +68,48 @@ async fn hostile_files_are_refused_cleanly_or_accepted_harmlessly() {
     }
 }
 
+/// Photo files stored (originals and derivatives), the scratch folder left out.
+fn stored_files(app: &TestApp) -> usize {
+    let root = app.data_dir.join("photos");
+    std::fs::read_dir(&root)
+        .unwrap()
+        .flatten()
+        .filter(|e| e.file_name() != "tmp")
+        .map(|e| std::fs::read_dir(e.path()).map_or(0, |d| d.count()))
+        .sum()
+}
+
+/// A record over a size limit is refused with 413 and a message naming the limit; nothing
+/// of it is stored and the server goes on serving.
+async fn check_over_limit(app: &TestApp, name: &str, photos: &[Vec<u8>], words: &str) {
+    let before = app.records().await.len();
+    let answer = app.submit(&submission(&uuid::Uuid::new_v4().to_string()), photos).await;
+    assert_eq!(answer.status, 413, "{name}: {}", answer.body);
+    let message = answer.body["error"].as_str().unwrap_or_default();
+    assert!(message.contains(words), "{name}: {message:?} should say {words:?}");
+    assert_eq!(app.records().await.len(), before, "{name}: a refused record must store nothing");
+    assert_eq!(stored_files(app), 0, "{name}: no photo file may be written");
+    assert_eq!(app.get("/healthz").await.status(), 200, "{name}: the server must still be serving");
+}
+
+#[tokio::test]
+async fn a_photo_one_byte_over_the_limit_and_a_record_with_one_photo_too_many_are_refused() {
+    let app = spawn_app().await;
+    let mut over = sized_jpeg(400, 300);
+    over.resize(25 * 1024 * 1024 + 1, 0);
+    check_over_limit(&app, "one byte over 25 MiB", &[over], "photo 1: 26214401 bytes is over the limit of 25 MiB (26214400 bytes)").await;
+    let thirteen: Vec<Vec<u8>> = (0..13).map(|i| plain_jpeg(i as u8)).collect();
+    check_over_limit(&app, "13 photos", &thirteen, "at most 12 photos, this one has 13").await;
+    // The limits themselves pass: exactly 25 MiB is not refused for its size, 12 photos are fine.
+    let mut exactly = sized_jpeg(400, 300);
+    exactly.resize(25 * 1024 * 1024, 0);
+    let twelve: Vec<Vec<u8>> = (0..12).map(|i| plain_jpeg(i as u8)).collect();
+    for (name, photos) in [("exactly 25 MiB", vec![exactly]), ("12 photos", twelve)] {
+        let answer = app.submit(&submission(&uuid::Uuid::new_v4().to_string()), &photos).await;
+        assert_eq!(answer.status, 200, "{name}: {}", answer.body);
+    }
+}
+
 #[tokio::test]
 async fn a_faulty_exif_block_gives_no_exif_facts() {
     let app = spawn_app().await;

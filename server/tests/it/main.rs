@@ -4,6 +4,7 @@
 mod access;
 mod assess_cli;
 mod cli;
+mod decode_gate;
 mod derivatives;
 mod duplicates;
 mod exif;

@@ -160,3 +160,20 @@ fn walk(dir: &std::path::Path) -> Vec<std::path::PathBuf> {
         .flat_map(|e| if e.path().is_dir() { walk(&e.path()) } else { vec![e.path()] })
         .collect()
 }
+
+#[tokio::test]
+async fn the_same_photo_twice_in_one_record_is_one_photo_and_the_resend_gets_the_same_receipt() {
+    // The rule (DEVELOPERS.md): a file sent twice in one record is kept once, at its
+    // first position; the server accepts the record rather than refuse evidence.
+    let app = spawn_app().await;
+    let photos = [plain_jpeg(5), plain_jpeg(6), plain_jpeg(5)];
+    let first = app.submit(&submission(ID), &photos).await;
+    assert_eq!(first.status, 200, "{}", first.body);
+    assert_eq!(first.body["photo_count"], 2, "two different files");
+    let again = app.submit(&submission(ID), &photos).await;
+    assert_eq!(first.body, again.body, "a resend gets the same receipt");
+    let record = &app.records().await[0];
+    let shas: Vec<&str> = record["photos"].as_array().unwrap().iter().map(|p| p["sha256"].as_str().unwrap()).collect();
+    assert_eq!(shas.len(), 2);
+    assert_ne!(shas[0], shas[1]);
+}
