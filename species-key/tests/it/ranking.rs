@@ -479,6 +479,30 @@ fn answers_to_unknown_characters_or_states_are_errors() {
 }
 
 #[test]
+fn answers_a_changed_checklist_no_longer_knows_are_set_aside_with_the_reason() {
+    let key = demo_key();
+    let given = answers(&[("gillSlits", "six"), ("fins", "two"), ("tailSpine", "many")])
+        .with_not_sure("colour")
+        .with_not_sure("mood");
+    let (usable, dropped) = key.usable_answers(&given);
+    assert_eq!(usable, answers(&[("gillSlits", "six")]).with_not_sure("colour"));
+    assert_eq!(
+        dropped,
+        vec![
+            AnswerError::UnknownCharacter("fins".into()),
+            AnswerError::UnknownCharacter("mood".into()),
+            AnswerError::UnknownState { character: "tailSpine".into(), state: "many".into() },
+        ]
+    );
+    // What is left ranks as the same answers given alone.
+    let context = Context::default();
+    assert_eq!(
+        key.rank(&usable, &context).unwrap(),
+        key.rank(&answers(&[("gillSlits", "six")]).with_not_sure("colour"), &context).unwrap()
+    );
+}
+
+#[test]
 fn answers_round_trip_through_json_for_drafts() {
     let given = answers(&[("gillSlits", "six")]).with_not_sure("colour");
     let json = serde_json::to_string(&given).unwrap();
