@@ -57,3 +57,24 @@ async fn nearby_counts_confirmed_records_per_species_and_never_says_where() {
     let (status, missing) = nearby(&app, "lon=-4.26").await;
     assert_eq!((status, missing["field"].as_str()), (422, Some("lat")));
 }
+
+#[tokio::test]
+async fn a_pick_stopped_at_a_genus_is_exported_at_that_rank_and_generalised_like_its_species() {
+    let app = spawn_app().await;
+    // "The key says Dipturus": both its species are "tenthDegree" in the demo checklist
+    // (Chapman 2020), so the public export rounds the genus-rank record to 0.1° too.
+    let mut record = submission("2c000000-0000-4000-8000-000000000010");
+    record["species_guess"] = json!("genus Dipturus");
+    record["position"] = json!({"latitude": 52.3467, "longitude": -4.2611, "accuracy_m": 10.0, "source": "device"});
+    record["key_choice"] = json!({"scientific_name": "Dipturus", "taxon_rank": "genus", "probability": 0.93, "answers": {"bodyForm": "rayLike"}});
+    assert_eq!(app.submit(&record, &[]).await.status, 200);
+    let public: Value = app.client.get(format!("{}/api/export?format=geojson&state=any", app.base)).send().await.unwrap().json().await.unwrap();
+    let feature = &public["features"][0];
+    assert_eq!((feature["properties"]["scientificName"].as_str(), feature["properties"]["taxonRank"].as_str()), (Some("Dipturus"), Some("genus")));
+    assert_eq!(feature["geometry"]["coordinates"], json!([-4.3, 52.3]), "RFC 7946 lon, lat; rounded as its species are");
+    let skates: Value = app.client.get(format!("{}/api/export?format=geojson&state=any&taxon=Rajidae", app.base)).send().await.unwrap().json().await.unwrap();
+    assert_eq!(skates["features"].as_array().unwrap().len(), 1, "a genus record is in its family");
+    let one_species: Value =
+        app.client.get(format!("{}/api/export?format=geojson&state=any&taxon=Dipturus%20batis", app.base)).send().await.unwrap().json().await.unwrap();
+    assert_eq!(one_species["features"].as_array().unwrap().len(), 0, "but not in one of its species");
+}
