@@ -62,9 +62,10 @@ fn answers_lead_to_the_expected_species() {
     // Six gill slits: sixgill; seven: sevengill (hexanchid gill counts, from memory).
     check(&[("gillSlits", "six")], "Hexanchus griseus");
     check(&[("gillSlits", "seven")], "Heptranchias perlo");
-    // One covered gill opening and a shark-ish body: the only chimaera listed.
-    check(&[("bodyForm", "chimaeraLike")], "Chimaera monstrosa");
-    check(&[("gillSlits", "one")], "Chimaera monstrosa");
+    // One covered gill opening and a shark-ish body: a chimaera; the anal fin tells the
+    // rabbitfish (separate anal fin) from Hydrolagus (none), from memory.
+    check(&[("bodyForm", "chimaeraLike"), ("analFin", "present")], "Chimaera monstrosa");
+    check(&[("gillSlits", "one"), ("analFin", "absent")], "Hydrolagus mirabilis");
     // A flat shark with side gill slits is the angelshark.
     check(&[("bodyForm", "flatShark")], "Squatina squatina");
     // Devil rays have the horn-like cephalic fins.
