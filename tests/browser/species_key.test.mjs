@@ -197,3 +197,34 @@ test('confirmed records nearby raise a species, and the phone keeps them for fli
     server.stop();
   }
 });
+
+test('answers a refreshed checklist no longer asks are set aside with a note, and the list stays', async () => {
+  const server = await startServer();
+  // No service worker here, so the page's own requests can be held back and changed.
+  const context = await browser.newContext({ viewport: { width: 390, height: 844 }, serviceWorkers: 'block' });
+  let release;
+  const dropped = new Promise((resolve) => { release = resolve; });
+  await context.route('**/api/checklist', async (route) => {
+    const character = await dropped;
+    const changed = structuredClone(checklist);
+    changed.characters = changed.characters.filter((c) => c.name !== character);
+    for (const t of changed.taxa) delete t.characters[character];
+    await route.fulfill({ json: changed });
+  });
+  try {
+    const page = await context.newPage();
+    await page.goto(server.url);
+    await page.click('#safety-ok', { timeout: 15000 });
+    await page.click('#open-key');
+    await page.waitForSelector('.key-question');
+    const character = await page.$eval('.key-question', (q) => q.dataset.character);
+    await page.click(`.key-question .state-choice[data-state="${stingray.characters[character][0]}"]`);
+    release(character); // the server's checklist arrives without the character just answered
+    await page.waitForSelector('.set-aside', { timeout: 10000 });
+    assert.match(await page.textContent('.set-aside'), new RegExp(`your answer about ${character} \\(the checklist no longer asks it\\)`));
+    assert.ok((await page.$$('.candidate')).length > 0, 'the candidates are still listed');
+  } finally {
+    await context.close();
+    server.stop();
+  }
+});
