@@ -2,21 +2,24 @@
 //! survives closing the browser, and send it when a connection appears.
 //!
 //! Modules: [`device`] (browser storage, position, upload, via `js/device.js`),
+//! [`nearby`] (confirmed records near the record, for the key's prior, kept per area),
 //! [`outbox`] (what the phone keeps and each record's sync state), [`sync`] (sending,
 //! retries with backoff), [`form`] (the record form), [`photos`] (EXIF read on the phone,
 //! the upload copy), [`key`] (the guided species key and its [`pictures`]), [`walks`]
 //! (survey walks and their tracks), [`identity`] (the phone's device identity), [`mine`]
 //! (the observer's records and answers to reviewers), [`review`] (the reviewers'
-//! screens), [`figures`] (range and trend figures), [`screens`] (the page around it),
-//! [`readable`] (times and photo readings as people read them).
+//! screens), [`figures`] (range and trend figures), [`exports`] (downloads of the records),
+//! [`screens`] (the page around it), [`readable`] (times and photo readings as people read them).
 //! The app never decides what the server decides: it shows the server's receipts.
 
 mod device;
+mod exports;
 mod figures;
 mod form;
 mod identity;
 mod key;
 mod mine;
+mod nearby;
 mod outbox;
 mod photos;
 mod pictures;

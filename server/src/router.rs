@@ -52,6 +52,7 @@ pub const ROUTES: &[RouteSpec] = &[
     route("GET", "/api/effort", Access::Public),
     route("GET", "/api/export", Access::Public),
     route("GET", "/api/checklist", Access::Public),
+    route("GET", "/api/checklist/nearby", Access::Public),
     route("GET", "/api/range", Access::Public),
     route("GET", "/api/range/map.svg", Access::Public),
     route("GET", "/api/trend", Access::Public),
@@ -93,6 +94,7 @@ pub fn app(state: AppState) -> Router {
         .route("/api/effort", get(walks::effort))
         .route("/api/export", get(export::export))
         .route("/api/checklist", get(checklist::get))
+        .route("/api/checklist/nearby", get(checklist::nearby))
         .route("/api/session", post(session::login).get(session::who).delete(session::logout))
         .route("/api/devices", post(session::new_device))
         .route("/api/my/records", get(mine::records))

@@ -319,6 +319,30 @@ impl Key {
         }
     }
 
+    /// Splits `answers` into those this key's checklist knows and those it does not (a
+    /// character or state it has dropped, say after the checklist was refreshed while
+    /// the observer was answering), so a caller can go on with the first and tell the
+    /// observer about the second instead of failing.
+    pub fn usable_answers(&self, answers: &Answers) -> (Answers, Vec<AnswerError>) {
+        let characters = self.checklist.characters();
+        let mut usable = Answers::new();
+        let mut dropped = Vec::new();
+        for (name, answer) in answers.iter() {
+            let known = match characters.iter().find(|c| c.name == name) {
+                None => Err(AnswerError::UnknownCharacter(name.to_owned())),
+                Some(character) => match answer {
+                    Answer::NotSure => Ok(()),
+                    Answer::State(state) => state_position(character, state).map(|_| ()),
+                },
+            };
+            match known {
+                Ok(()) => usable.set(name, answer.clone()),
+                Err(error) => dropped.push(error),
+            }
+        }
+        (usable, dropped)
+    }
+
     /// Matches answers to the checklist's characters, in character order.
     pub(crate) fn match_answers(&self, answers: &Answers) -> Result<Vec<Given>, AnswerError> {
         let characters = self.checklist.characters();

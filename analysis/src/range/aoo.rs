@@ -11,12 +11,27 @@
 //!
 //! The shifts: the origin moves east and north by 0, ¼, ½ and ¾ of a cell (0, 0.5, 1 and
 //! 1.5 km for 2 km cells), 16 origins in all, of which the unshifted one is the fixed grid.
+//!
+//! Records far from Europe need a grid centred elsewhere (the projection refuses points
+//! more than 90° of arc from its centre and stretches cells well before that).
+//! [`AooGrid::near`] is the documented rule: the default grid while every position lies
+//! within [`FAR_FROM_DEFAULT_DEGREES`] of 52° N, 10° E; otherwise a grid centred on the
+//! positions' mean (the mean of their unit vectors) rounded to whole multiples of
+//! [`CENTRE_STEP_DEGREES`], so that adding a few records rarely moves it.
 
 use serde::Serialize;
 use thiserror::Error;
 
 use super::laea::Laea;
 use crate::coordinates::LatLon;
+
+/// Positions further than this (degrees of arc) from the default centre make
+/// [`AooGrid::near`] centre the grid on them instead.
+pub const FAR_FROM_DEFAULT_DEGREES: f64 = 60.0;
+/// [`AooGrid::near`] rounds the centre it chooses to whole multiples of this (degrees).
+pub const CENTRE_STEP_DEGREES: f64 = 5.0;
+/// Farthest latitude [`AooGrid::near`] puts a centre at (inside the ±80° the grid allows).
+const RULE_MAX_LATITUDE: f64 = 75.0;
 
 /// The number of origin shifts along each axis; each shift is a quarter of a cell.
 const SHIFTS_PER_AXIS: i32 = 4;
@@ -88,6 +103,25 @@ impl AooGrid {
             })
     }
 
+    /// The default grid's cell size centred by the documented rule for `positions`
+    /// (see the module notes): `None` when the default grid already fits them (or there
+    /// are none), else the grid centred on their mean rounded to whole 5° steps. Positions
+    /// spread so evenly round the globe that they have no mean direction keep the default,
+    /// and counting them will say which record lies too far.
+    pub fn near(positions: &[LatLon]) -> Option<AooGrid> {
+        let default = AooGrid::default();
+        if positions.iter().all(|p| arc_degrees(*p, default.centre) <= FAR_FROM_DEFAULT_DEGREES) {
+            return None;
+        }
+        let mean = mean_direction(positions)?;
+        let step = |value: f64| (value / CENTRE_STEP_DEGREES).round() * CENTRE_STEP_DEGREES;
+        let lat = step(mean.lat()).clamp(-RULE_MAX_LATITUDE, RULE_MAX_LATITUDE);
+        let lon = step(mean.lon());
+        let lon = if lon > 180.0 { lon - 360.0 } else if lon <= -180.0 { lon + 360.0 } else { lon };
+        let centre = LatLon::new(lat, lon).ok()?;
+        AooGrid::new(default.cell_size_km, centre).ok()
+    }
+
     /// A PROJ string describing the same projection, for checking against other tools.
     pub fn proj_string(&self) -> String {
         format!(
@@ -107,6 +141,31 @@ impl Default for AooGrid {
             centre,
         }
     }
+}
+
+fn unit_vector(p: LatLon) -> [f64; 3] {
+    let (lat, lon) = (p.lat().to_radians(), p.lon().to_radians());
+    [lat.cos() * lon.cos(), lat.cos() * lon.sin(), lat.sin()]
+}
+
+/// Great-circle angle between two positions on the sphere, in degrees (geodetic
+/// latitudes used as they are: ample for choosing a grid centre).
+fn arc_degrees(a: LatLon, b: LatLon) -> f64 {
+    let (u, v) = (unit_vector(a), unit_vector(b));
+    let dot: f64 = u.iter().zip(&v).map(|(x, y)| x * y).sum();
+    dot.clamp(-1.0, 1.0).acos().to_degrees()
+}
+
+/// The direction of the sum of the positions' unit vectors; `None` when they cancel out.
+fn mean_direction(positions: &[LatLon]) -> Option<LatLon> {
+    let sum = positions.iter().map(|p| unit_vector(*p)).fold([0.0; 3], |s, u| [s[0] + u[0], s[1] + u[1], s[2] + u[2]]);
+    let norm = (sum[0] * sum[0] + sum[1] * sum[1] + sum[2] * sum[2]).sqrt();
+    if norm < 1e-9 {
+        return None;
+    }
+    let lat = (sum[2] / norm).clamp(-1.0, 1.0).asin().to_degrees();
+    let lon = sum[1].atan2(sum[0]).to_degrees();
+    LatLon::new(lat, lon).ok()
 }
 
 /// The area of occupancy of a set of records.

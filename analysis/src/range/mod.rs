@@ -10,7 +10,7 @@ mod laea;
 
 use serde::Serialize;
 
-pub use aoo::{Aoo, AooError, AooGrid, aoo};
+pub use aoo::{Aoo, AooError, AooGrid, CENTRE_STEP_DEGREES, FAR_FROM_DEFAULT_DEGREES, aoo};
 pub use eoo::{Eoo, LongitudeFrame, eoo, polygon_area_km2};
 
 use crate::coordinates::LatLon;

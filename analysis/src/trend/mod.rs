@@ -19,7 +19,7 @@ pub use glm::{Coefficient, Design, GlmFit, poisson_glm};
 pub use mann_kendall::{MannKendall, mann_kendall, mann_kendall_with_times};
 
 use crate::criteria::{CriterionA, criterion_a};
-use crate::normal::Z_95;
+use crate::normal::{Z_95, t_95};
 
 /// Pearson dispersion above which standard errors are scaled (quasi-Poisson).
 ///
@@ -148,13 +148,37 @@ pub struct Change {
 }
 
 impl Change {
-    /// The change `exp(years × slope) − 1` with a normal interval on the slope.
-    fn over(years: f64, slope: f64, std_error: f64) -> Self {
+    /// The change `exp(years × slope) − 1` with the interval slope ± quantile × error.
+    fn over(years: f64, slope: f64, std_error: f64, quantile: f64) -> Self {
         let change = |b: f64| (years * b).exp() - 1.0;
         Self {
             estimate: change(slope),
-            lower: change(slope - Z_95 * std_error),
-            upper: change(slope + Z_95 * std_error),
+            lower: change(slope - quantile * std_error),
+            upper: change(slope + quantile * std_error),
+        }
+    }
+}
+
+/// The distribution the 95% intervals take their quantile from.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct IntervalBasis {
+    /// `normal` with Poisson errors (the scale is known), `t` with scaled errors (the
+    /// dispersion is estimated, so Student's t with the residual degrees of freedom, as
+    /// statsmodels does with `use_t=True`).
+    pub distribution: String,
+    /// Degrees of freedom of the t distribution; `None` for the normal.
+    pub degrees_of_freedom: Option<usize>,
+    /// The 97.5% quantile used: 1.96 for the normal, larger for t on few years.
+    pub quantile: f64,
+}
+
+impl IntervalBasis {
+    fn for_model(model: ErrorModel, df_residual: usize) -> Self {
+        match model {
+            ErrorModel::Poisson => Self { distribution: "normal".into(), degrees_of_freedom: None, quantile: Z_95 },
+            ErrorModel::QuasiPoisson => {
+                Self { distribution: "t".into(), degrees_of_freedom: Some(df_residual), quantile: t_95(df_residual) }
+            }
         }
     }
 }
@@ -185,6 +209,8 @@ pub struct TrendSummary {
     pub slope_per_year: f64,
     /// Standard error of the slope under `error_model`.
     pub slope_std_error: f64,
+    /// Where the intervals' quantile comes from (normal, or t when the dispersion is estimated).
+    pub interval: IntervalBasis,
     /// Change in the encounter rate per year.
     pub annual_change: Change,
     /// The assessment window in years: max(10, 3 × generation length).
@@ -215,8 +241,9 @@ pub fn yearly_trend(
         _ => (ErrorModel::Poisson, slope.std_error),
     };
     let slope_per_year = slope.estimate;
+    let interval = IntervalBasis::for_model(error_model, fit.df_residual);
     let window_years = assessment_window_years(generation_length_years);
-    let window_change = Change::over(window_years, slope_per_year, slope_std_error);
+    let window_change = Change::over(window_years, slope_per_year, slope_std_error, interval.quantile);
     let (first_year, last_year) = (data[0].year, data[data.len() - 1].year);
     let years_covered = f64::from(last_year - first_year);
     let mann_kendall = rate_mann_kendall(&data)?;
@@ -229,7 +256,8 @@ pub fn yearly_trend(
         error_model,
         slope_per_year,
         slope_std_error,
-        annual_change: Change::over(1.0, slope_per_year, slope_std_error),
+        annual_change: Change::over(1.0, slope_per_year, slope_std_error, interval.quantile),
+        interval,
         window_years,
         window_change,
         window_exceeds_data: window_years > years_covered,
@@ -301,8 +329,10 @@ fn trend_text(s: &TrendSummary) -> String {
     let errors = match s.error_model {
         ErrorModel::Poisson => "Poisson errors".to_string(),
         ErrorModel::QuasiPoisson => format!(
-            "errors scaled for overdispersion (Pearson dispersion {:.2} > {OVERDISPERSION_THRESHOLD})",
-            s.fit.dispersion.unwrap_or(1.0)
+            "errors scaled for overdispersion (Pearson dispersion {:.2} > {OVERDISPERSION_THRESHOLD}), \
+             interval from Student's t with {} degrees of freedom",
+            s.fit.dispersion.unwrap_or(1.0),
+            s.fit.df_residual
         ),
     };
     let extrapolation = if s.window_exceeds_data {

@@ -140,3 +140,23 @@ fn no_records_occupy_no_cells() {
         (0, 0, 0.0)
     );
 }
+
+#[test]
+fn the_default_grid_rule_centres_far_records_on_them_as_documented() {
+    // Reference: range.json "rule_centre" (the rule as the README writes it, computed in
+    // numpy) and the cell counts pyproj + numpy give on that grid.
+    for set in fixtures::range().sets {
+        let points = set.lat_lons();
+        let centre = AooGrid::near(&points).map(|g| [g.centre().lat(), g.centre().lon()]);
+        let expected = (set.rule_centre != [52.0, 10.0]).then_some(set.rule_centre);
+        assert_eq!(centre, expected, "{}", set.name);
+        let grid = AooGrid::near(&points).map_or(AooGrid::new(set.cell_size_km, LatLon::new(52.0, 10.0).unwrap()).unwrap(), |g| {
+            AooGrid::new(set.cell_size_km, g.centre()).unwrap()
+        });
+        let result = aoo(&points, &grid).unwrap();
+        let fixed = set.aoo_cells_by_shift_rule_grid.iter().find(|c| c.east_quarters == 0 && c.north_quarters == 0).unwrap();
+        assert_eq!(result.occupied_cells, fixed.cells, "{} on the rule's grid", set.name);
+        let min = set.aoo_cells_by_shift_rule_grid.iter().map(|c| c.cells).min().unwrap();
+        assert_eq!(result.min_occupied_cells, min, "{} minimum on the rule's grid", set.name);
+    }
+}

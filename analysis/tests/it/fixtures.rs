@@ -25,6 +25,10 @@ pub struct PointSet {
     pub eoo_km2: f64,
     pub hull_corners: usize,
     pub aoo_cells_by_shift: Vec<ShiftCount>,
+    /// The centre the documented default-grid rule gives for these points.
+    pub rule_centre: [f64; 2],
+    /// Cell counts on the grid centred there.
+    pub aoo_cells_by_shift_rule_grid: Vec<ShiftCount>,
 }
 
 #[derive(Deserialize)]
@@ -98,6 +102,10 @@ pub struct FitReference {
     pub params: Vec<f64>,
     pub bse: Vec<f64>,
     pub bse_scaled_pearson: Vec<f64>,
+    /// 95% intervals per coefficient with the Poisson scale (normal quantile).
+    pub conf_int_95: Vec<[f64; 2]>,
+    /// 95% intervals with the Pearson scale and Student's t on the residual df (use_t=True).
+    pub conf_int_95_scaled_t: Vec<[f64; 2]>,
     pub deviance: f64,
     pub pearson_chi2: f64,
     pub df_resid: usize,

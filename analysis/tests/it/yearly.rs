@@ -53,16 +53,37 @@ fn slope_and_its_error_match_statsmodels_with_the_documented_error_model() {
             expected,
             1e-7,
         );
-        let upper = (s.fit.params[1] + 1.959963984540054 * se).exp() - 1.0;
-        assert_close(
-            &format!("{} annual upper", s.name),
-            result.annual_change.upper,
-            upper,
-            1e-6,
-        );
+        // statsmodels' conf_int: normal with the Poisson scale, Student's t on the
+        // residual degrees of freedom with the estimated (Pearson) scale and use_t=True.
+        let [lower, upper] = match model {
+            ErrorModel::Poisson => s.fit.conf_int_95[1],
+            ErrorModel::QuasiPoisson => s.fit.conf_int_95_scaled_t[1],
+        };
+        for (what, got, slope) in [
+            ("lower", result.annual_change.lower, lower),
+            ("upper", result.annual_change.upper, upper),
+        ] {
+            assert_close(&format!("{} annual {what}", s.name), got, slope.exp() - 1.0, 1e-6);
+        }
         models.push(result.error_model);
     }
     assert!(models.contains(&ErrorModel::Poisson) && models.contains(&ErrorModel::QuasiPoisson));
+}
+
+#[test]
+fn five_overdispersed_years_get_the_wider_t_interval() {
+    // statsmodels GLM(scale="X2", use_t=True).conf_int(): t with 3 residual degrees of
+    // freedom (5 years, 2 coefficients), quantile 3.182 against the normal's 1.960.
+    let series = fixtures::trend().yearly.into_iter().find(|s| s.name == "walks_overdispersed_five_years").unwrap();
+    let result = yearly_trend(&years_of(&series), 5.0).unwrap();
+    assert_eq!(result.error_model, ErrorModel::QuasiPoisson);
+    assert_eq!((result.interval.distribution.as_str(), result.interval.degrees_of_freedom), ("t", Some(3)));
+    let [lower, upper] = series.fit.conf_int_95_scaled_t[1];
+    assert_close("slope interval half-width", result.interval.quantile * result.slope_std_error, (upper - lower) / 2.0, 1e-7);
+    assert_close("annual lower", result.annual_change.lower, lower.exp() - 1.0, 1e-7);
+    let normal_upper = (series.fit.params[1] + 1.959963984540054 * result.slope_std_error).exp() - 1.0;
+    assert!(result.annual_change.upper > normal_upper + 1e-3, "wider than the normal interval");
+    assert!(result.text.contains("Student's t with 3 degrees of freedom"), "{}", result.text);
 }
 
 #[test]

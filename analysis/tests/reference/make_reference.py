@@ -9,8 +9,10 @@ and the Lambert azimuthal equal-area projection), statsmodels (Poisson GLM) and 
 Regenerate (from the repository root):
 
     python3 -m venv /tmp/venv-analysis
-    /tmp/venv-analysis/bin/pip install pyproj shapely statsmodels geographiclib numpy
+    /tmp/venv-analysis/bin/pip install pyproj shapely statsmodels scipy geographiclib numpy
     /tmp/venv-analysis/bin/python analysis/tests/reference/make_reference.py
+
+(or into target/venv, which `cargo xtask test` makes for the export tests).
 
 The grid conventions mirror the crate's documented method, not its code: cells are
 floor((x - shift) / cell) in the projection's metres, shifts are 0, 1/4, 1/2 and 3/4 of a
@@ -148,6 +150,25 @@ def square_corner_set():
     return ("square_corners", np.array(lat), np.array(lon), DEFAULT_CENTRE, 2.0)
 
 
+def rule_centre(lats, lons):
+    """The crate's documented default-grid rule (its README and aoo.rs notes), not its code:
+    the default centre while every point is within 60 degrees of arc of it, else the mean of
+    the points' unit vectors rounded to whole 5 degrees (latitude within +-75)."""
+    phi, lam = np.radians(lats), np.radians(lons)
+    u = np.column_stack([np.cos(phi) * np.cos(lam), np.cos(phi) * np.sin(lam), np.sin(phi)])
+    p0, l0 = np.radians(DEFAULT_CENTRE)
+    c = np.array([math.cos(p0) * math.cos(l0), math.cos(p0) * math.sin(l0), math.sin(p0)])
+    if np.degrees(np.arccos(np.clip(u @ c, -1, 1))).max() <= 60.0:
+        return list(DEFAULT_CENTRE)
+    s = u.sum(axis=0)
+    lat = math.degrees(math.asin(s[2] / np.linalg.norm(s)))
+    lon = math.degrees(math.atan2(s[1], s[0]))
+    lat = min(max(round(lat / 5.0) * 5.0, -75.0), 75.0)
+    lon = round(lon / 5.0) * 5.0
+    lon = lon - 360.0 if lon > 180.0 else lon + 360.0 if lon <= -180.0 else lon
+    return [lat, lon]
+
+
 def range_fixture():
     out = []
     for name, lat, lon, centre, cell_km in generated_sets() + [square_corner_set()]:
@@ -163,6 +184,8 @@ def range_fixture():
             "eoo_km2": eoo_km2,
             "hull_corners": hull_corners,
             "aoo_cells_by_shift": counts,
+            "rule_centre": rule_centre(lat, lon),
+            "aoo_cells_by_shift_rule_grid": aoo_reference(lat, lon, rule_centre(lat, lon), cell_km),
         })
     return out
 
@@ -187,10 +210,15 @@ def poisson_fit(exog, counts, offsets):
     model = sm.GLM(counts, exog, family=sm.families.Poisson(), offset=offsets)
     fit = model.fit(tol=1e-12)
     scaled = model.fit(scale="X2", tol=1e-12)
+    # With the dispersion estimated, intervals come from Student's t on the residual
+    # degrees of freedom (use_t=True); with the Poisson scale fixed at 1, from the normal.
+    scaled_t = model.fit(scale="X2", tol=1e-12, use_t=True)
     return {
         "params": fit.params.tolist(),
         "bse": fit.bse.tolist(),
         "bse_scaled_pearson": scaled.bse.tolist(),
+        "conf_int_95": fit.conf_int(alpha=0.05).tolist(),
+        "conf_int_95_scaled_t": scaled_t.conf_int(alpha=0.05).tolist(),
         "deviance": float(fit.deviance),
         "pearson_chi2": float(fit.pearson_chi2),
         "df_resid": int(fit.df_resid),
@@ -208,8 +236,8 @@ def dobson_fixture():
     return {"rows": rows, "deaths": deaths, "person_years": person_years, **fit}
 
 
-def yearly_series(rng, name, slope, overdispersion):
-    years = np.arange(2005, 2025)
+def yearly_series(rng, name, slope, overdispersion, first_year=2005):
+    years = np.arange(first_year, 2025)
     effort = np.round(rng.uniform(20, 80, len(years)), 1)
     rate = np.exp(-1.0 + slope * (years - years.mean()))
     mean = effort * rate
@@ -278,7 +306,10 @@ def main():
         "dobson": dobson_fixture(),
         "yearly": [yearly_series(rng, "walks_poisson", -0.04, False),
                    yearly_series(rng, "walks_overdispersed", -0.06, True),
-                   yearly_series(rng, "walks_poisson_rising", 0.03, False)],
+                   yearly_series(rng, "walks_poisson_rising", 0.03, False),
+                   # Five years, as a new network has: its own seed, so the sets above
+                   # keep their values.
+                   yearly_series(np.random.default_rng(2024), "walks_overdispersed_five_years", -0.08, True, 2020)],
         "general_design": general_design(rng),
         "mann_kendall": mann_kendall_series(rng),
     })

@@ -18,8 +18,6 @@ const LEFT: f64 = 64.0;
 const RIGHT: f64 = 24.0;
 const TOP: f64 = 56.0;
 const BOTTOM: f64 = 96.0;
-/// The two-sided 95% point of the standard normal.
-const Z_95: f64 = 1.959_963_984_540_054;
 
 /// The fitted line and its band: (year, rate, lower, upper) at many points along the years.
 pub fn fitted_band(years: &[YearCount], trend: &TrendSummary) -> Vec<(f64, f64, f64, f64)> {
@@ -28,13 +26,15 @@ pub fn fitted_band(years: &[YearCount], trend: &TrendSummary) -> Vec<(f64, f64, 
     let (a, b) = (trend.fit.coefficients[0].estimate, trend.fit.coefficients[1].estimate);
     let (first, last) = (f64::from(trend.first_year), f64::from(trend.last_year));
     let steps = 60;
+    // The same quantile as the trend's intervals: normal, or t when the dispersion is estimated.
+    let q = trend.interval.quantile;
     (0..=steps)
         .map(|i| {
             let year = first + (last - first) * f64::from(i) / f64::from(steps);
             let x = year - mean_year;
             let eta = a + b * x;
             let se = (v00 + 2.0 * x * v01 + x * x * v11).max(0.0).sqrt();
-            (year, eta.exp(), (eta - Z_95 * se).exp(), (eta + Z_95 * se).exp())
+            (year, eta.exp(), (eta - q * se).exp(), (eta + q * se).exp())
         })
         .collect()
 }

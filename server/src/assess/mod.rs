@@ -7,6 +7,7 @@
 //! - [`trend`]: effort-corrected yearly trends over the assessment window.
 //! - [`map`], [`chart`]: the range map and the trend chart as SVG.
 //! - [`dates`], [`meta`]: dates and periods; reading an archive's `meta.xml`.
+//! - [`nearby`]: confirmed records near a place per species, for the guided key's prior.
 //!
 //! Every figure is an input to an assessment, not a listing decision; the reports carry
 //! that caution with them.
@@ -16,6 +17,7 @@ pub mod dates;
 pub mod input;
 pub mod map;
 pub mod meta;
+pub mod nearby;
 pub mod range;
 pub mod taxa;
 pub mod trend;

@@ -8,7 +8,7 @@ use std::collections::{BTreeMap, BTreeSet};
 
 use analysis::LatLon;
 use analysis::criteria::{ASSESSMENT_CAUTION, RECORDING_CAUTION};
-use analysis::range::{AooGrid, RangeSummary, summary};
+use analysis::range::{AooGrid, CENTRE_STEP_DEGREES, FAR_FROM_DEFAULT_DEGREES, RangeSummary, summary};
 use serde::Serialize;
 
 use super::dates::Period;
@@ -26,8 +26,10 @@ pub struct RangeOptions {
     pub taxon: Option<TaxonFilter>,
     /// The periods, side by side; empty means every record, whatever its date.
     pub periods: Vec<Period>,
-    /// The grid AOO is counted on.
+    /// The grid AOO is counted on (see [`choose_grid`]).
     pub grid: AooGrid,
+    /// Why that grid, in words.
+    pub grid_choice: String,
     /// Which records were read, in words (e.g. "stored records in review state confirmed").
     pub records_used: String,
 }
@@ -83,12 +85,83 @@ pub struct LeftOut {
 #[derive(Debug, Clone, Serialize)]
 pub struct RangeReport {
     pub records_used: String,
+    /// The grid AOO was counted on (cell size and projection centre), for every taxon and period.
+    pub grid: AooGrid,
+    /// Why that grid, in words.
+    pub grid_choice: String,
     pub records_read: usize,
     pub left_out: LeftOut,
     /// Names written on records that the checklist does not list, with how many records.
     pub names_not_on_checklist: BTreeMap<String, usize>,
     pub taxa: Vec<TaxonRange>,
     pub cautions: Vec<String>,
+}
+
+/// Where the positions that decide a grid's centre come from.
+pub enum GridBasis<'a> {
+    /// Stored records: the checklist's areas decide, never the records, so the grid stays
+    /// the same for a deployment and periods and later reports compare.
+    Stored(&'a species_key::Checklist),
+    /// Records from a file: their own positions.
+    File(&'a [PointRecord]),
+}
+
+/// The grid AOO is counted on, and why: the centre asked for (`--grid-centre`,
+/// `grid_centre=`); else the rule of `AooGrid::near` (the default grid centred on
+/// 52° N, 10° E while every position lies within 60° of arc of it; else centred on the
+/// positions' mean rounded to 5°) applied to the checklist's area boxes for stored
+/// records and to the records themselves for a file.
+pub fn choose_grid(given: Option<LatLon>, basis: GridBasis<'_>) -> Result<(AooGrid, String), RangeError> {
+    let default = AooGrid::default();
+    if let Some(centre) = given {
+        let grid = AooGrid::new(default.cell_size_km(), centre)?;
+        return Ok((grid, format!("AOO grid centred on {}°, {}° as asked.", centre.lat(), centre.lon())));
+    }
+    let (positions, whose): (Vec<LatLon>, &str) = match basis {
+        GridBasis::Stored(checklist) => (area_positions(checklist), "the checklist's areas lie"),
+        GridBasis::File(records) => (records.iter().filter_map(|r| r.position).collect(), "these records lie"),
+    };
+    Ok(match AooGrid::near(&positions) {
+        None => (
+            default,
+            format!(
+                "AOO grid: the fixed default, centred on {}° N, {}° E (the centre of the European equal-area grid, \
+                 EPSG:3035), used while every position lies within {FAR_FROM_DEFAULT_DEGREES}° of arc of it.",
+                default.centre().lat(),
+                default.centre().lon()
+            ),
+        ),
+        Some(grid) => (
+            grid,
+            format!(
+                "AOO grid centred on {}°, {}°: {whose} more than {FAR_FROM_DEFAULT_DEGREES}° of arc from the default centre \
+                 (52° N, 10° E), so the grid is centred on their mean position rounded to whole {CENTRE_STEP_DEGREES}°.",
+                grid.centre().lat(),
+                grid.centre().lon()
+            ),
+        ),
+    })
+}
+
+/// Corners and centres of the checklist's area boxes.
+fn area_positions(checklist: &species_key::Checklist) -> Vec<LatLon> {
+    checklist
+        .areas()
+        .iter()
+        .filter_map(|a| a.bounds)
+        .flat_map(|[west, south, east, north]| {
+            [(south, west), (south, east), (north, west), (north, east), ((south + north) / 2.0, (west + east) / 2.0)]
+        })
+        .filter_map(|(lat, lon)| LatLon::new(lat, lon).ok())
+        .collect()
+}
+
+/// Reads `LAT,LON` in decimal degrees (a grid centre), naming what is wrong.
+pub fn parse_centre(text: &str) -> Result<LatLon, String> {
+    let bad = || format!("`{text}` is not LAT,LON in decimal degrees (e.g. -17,179)");
+    let (lat, lon) = text.split_once(',').ok_or_else(bad)?;
+    let (lat, lon) = (lat.trim().parse::<f64>().map_err(|_| bad())?, lon.trim().parse::<f64>().map_err(|_| bad())?);
+    LatLon::new(lat, lon).map_err(|err| format!("`{text}`: {err}"))
 }
 
 /// Why figures could not be computed.
@@ -143,6 +216,8 @@ pub fn range_report(records: &[PointRecord], names: &TaxonIndex, options: &Range
     }
     Ok(RangeReport {
         records_used: options.records_used.clone(),
+        grid: options.grid,
+        grid_choice: options.grid_choice.clone(),
         records_read: records.len(),
         left_out,
         names_not_on_checklist: not_listed,
@@ -188,6 +263,7 @@ fn change(earlier: &PeriodRange, later: &PeriodRange) -> PeriodChange {
 pub fn render_text(report: &RangeReport) -> String {
     let mut out = String::new();
     out.push_str(&format!("Records used: {} ({} read).\n", report.records_used, report.records_read));
+    out.push_str(&format!("{}\n", report.grid_choice));
     let l = &report.left_out;
     out.push_str(&format!(
         "Left out: {} without a position, {} without a name, {} of other taxa, {} outside every period.\n",

@@ -29,10 +29,29 @@ pub struct GenerationLength {
 pub struct TrendReport {
     pub records_used: String,
     pub generation_length: GenerationLength,
+    /// What the model was fitted to: counts with their effort (encounter rates from
+    /// all-finds survey walks when there are any).
     pub years: Vec<YearCount>,
+    /// Animals in the taxon's records per calendar year, whatever effort lay behind them
+    /// (for `--from`, the file's counts): always reported beside the encounter rates.
+    pub yearly_counts: Vec<YearTotal>,
     pub trend: TrendSummary,
     /// Notes on the data behind the figures (e.g. that effort is not known).
     pub notes: Vec<String>,
+}
+
+/// One calendar year's count of animals in records, with no effort attached.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
+pub struct YearTotal {
+    pub year: i32,
+    pub count: u64,
+}
+
+impl YearTotal {
+    /// The counts of `rows`, their effort left aside.
+    pub fn of(rows: &[YearCount]) -> Vec<YearTotal> {
+        rows.iter().map(|r| YearTotal { year: r.year, count: r.count }).collect()
+    }
 }
 
 /// Why a trend could not be computed.
@@ -207,12 +226,36 @@ pub fn walk_year_counts(
 }
 
 /// Fits the trend and wraps it with what went in.
-pub fn trend_report(years: Vec<YearCount>, generation: GenerationLength, records_used: String, notes: Vec<String>) -> Result<TrendReport, TrendInputError> {
+pub fn trend_report(
+    years: Vec<YearCount>,
+    yearly_counts: Vec<YearTotal>,
+    generation: GenerationLength,
+    records_used: String,
+    notes: Vec<String>,
+) -> Result<TrendReport, TrendInputError> {
     if years.len() < MIN_TREND_YEARS {
         return Err(TrendInputError::TooFewYears(years.len()));
     }
     let trend = yearly_trend(&years, generation.years)?;
-    Ok(TrendReport { records_used, generation_length: generation, years, trend, notes })
+    Ok(TrendReport { records_used, generation_length: generation, years, yearly_counts, trend, notes })
+}
+
+/// What the trend is fitted to on stored records — encounter rates from all-finds walks
+/// when there are any, else the raw yearly counts — and the raw yearly counts, which are
+/// reported either way. Returns (fitted rows, yearly counts, notes).
+pub fn stored_trend_input(
+    records: &[PointRecord],
+    walks: &[crate::store::walks::StoredWalk],
+    taxon: Option<&TaxonFilter>,
+    names: &TaxonIndex,
+    unit: EffortUnit,
+) -> (Vec<YearCount>, Vec<YearTotal>, Vec<String>) {
+    let raw = stored_year_counts(records, taxon, names);
+    let counts = YearTotal::of(&raw);
+    match walk_year_counts(records, walks, taxon, names, unit) {
+        Some((rates, note)) => (rates, counts, vec![note]),
+        None => (raw, counts, vec![NO_EFFORT_NOTE.to_owned()]),
+    }
 }
 
 /// The report as plain text for a terminal.
@@ -226,6 +269,8 @@ pub fn render_text(report: &TrendReport) -> String {
     for y in &report.years {
         out.push_str(&format!("{:>6} {:>8} {:>12.2} {:>12.4}\n", y.year, y.count, y.effort, y.count as f64 / y.effort));
     }
+    let counts: Vec<String> = report.yearly_counts.iter().map(|y| format!("{} {}", y.year, y.count)).collect();
+    out.push_str(&format!("Animals recorded per year, whatever the effort: {}.\n", if counts.is_empty() { "none".into() } else { counts.join(", ") }));
     // Beyond ±10,000% a percentage says nothing a person can use (it comes from
     // extrapolating a short series); say so instead of printing a 20-digit number.
     let percent = |x: f64| if (100.0 * x).abs() > 10_000.0 { format!("{}10,000%", if x > 0.0 { "over +" } else { "below −" }) } else { format!("{:+.1}%", 100.0 * x) };

@@ -2,14 +2,13 @@
 
 use std::path::{Path, PathBuf};
 
-use analysis::range::AooGrid;
 use anyhow::Context as _;
 use chrono::NaiveDate;
 
 use super::{RecordSource, print};
 use crate::assess::dates::Period;
 use crate::assess::map::taxon_map;
-use crate::assess::range::{RangeOptions, range_report, render_text};
+use crate::assess::range::{GridBasis, RangeOptions, choose_grid, parse_centre, range_report, render_text};
 
 #[derive(Debug, clap::Args)]
 pub struct RangeArgs {
@@ -24,6 +23,11 @@ pub struct RangeArgs {
     /// Only records on or before this day (YYYY-MM-DD).
     #[arg(long)]
     pub to_date: Option<NaiveDate>,
+    /// Centre of the AOO grid's equal-area projection, LAT,LON in degrees (e.g. -17,179).
+    /// Default: 52,10 while every position lies within 60° of arc of it; else the records'
+    /// mean rounded to 5° (for stored records, the checklist's areas' mean, so it stays fixed).
+    #[arg(long, value_name = "LAT,LON", value_parser = parse_centre, allow_hyphen_values = true)]
+    pub grid_centre: Option<analysis::LatLon>,
     /// Also draw a map (SVG) of each taxon: FILE, or FILE-<taxon>.svg when there are several.
     #[arg(long, value_name = "FILE")]
     pub svg: Option<PathBuf>,
@@ -39,7 +43,12 @@ pub fn run(data_dir: &Path, args: RangeArgs) -> anyhow::Result<()> {
     if args.from_date.is_some() || args.to_date.is_some() {
         periods.push(Period::between(args.from_date, args.to_date));
     }
-    let options = RangeOptions { taxon: loaded.taxon, periods, grid: AooGrid::default(), records_used: loaded.records_used };
+    let basis = match args.source.from_file {
+        Some(_) => GridBasis::File(&loaded.records),
+        None => GridBasis::Stored(loaded.names.checklist()),
+    };
+    let (grid, grid_choice) = choose_grid(args.grid_centre, basis).context("choosing the AOO grid")?;
+    let options = RangeOptions { taxon: loaded.taxon, periods, grid, grid_choice, records_used: loaded.records_used };
     let report = range_report(&loaded.records, &loaded.names, &options).context("computing range figures")?;
     if let Some(path) = &args.svg {
         for taxon in &report.taxa {

@@ -6,7 +6,7 @@ use anyhow::Context as _;
 
 use super::{RecordSource, print};
 use crate::assess::chart::trend_chart;
-use crate::assess::trend::{EffortUnit, NO_EFFORT_NOTE, generation_length, read_year_counts, render_text, stored_year_counts, trend_report, walk_year_counts};
+use crate::assess::trend::{EffortUnit, YearTotal, generation_length, read_year_counts, render_text, stored_trend_input, trend_report};
 
 #[derive(Debug, clap::Args)]
 pub struct TrendArgs {
@@ -31,19 +31,21 @@ pub fn run(data_dir: &Path, args: TrendArgs) -> anyhow::Result<()> {
         anyhow::bail!("`{name}` is not a species, genus, family, order or superorder on the checklist");
     }
     let generation = generation_length(args.generation_length, taxon.as_ref(), &names)?;
-    let (years, used, notes) = match &args.source.from_file {
-        Some(path) => (read_year_counts(path)?, format!("yearly counts and effort in {}", path.display()), Vec::new()),
+    let (years, counts, used, notes) = match &args.source.from_file {
+        Some(path) => {
+            let years = read_year_counts(path)?;
+            let counts = YearTotal::of(&years);
+            (years, counts, format!("yearly counts and effort in {}", path.display()), Vec::new())
+        }
         None => {
             let loaded = args.source.load(data_dir)?;
             let state = crate::AppState::open(data_dir, None, crate::load_checklist(None)?)?;
             let walks = state.store.run_here(|conn| crate::store::walks::list_walks(conn))?;
-            match walk_year_counts(&loaded.records, &walks, taxon.as_ref(), &names, args.effort) {
-                Some((years, note)) => (years, loaded.records_used, vec![note]),
-                None => (stored_year_counts(&loaded.records, taxon.as_ref(), &names), loaded.records_used, vec![NO_EFFORT_NOTE.to_owned()]),
-            }
+            let (years, counts, notes) = stored_trend_input(&loaded.records, &walks, taxon.as_ref(), &names, args.effort);
+            (years, counts, loaded.records_used, notes)
         }
     };
-    let report = trend_report(years, generation, used, notes)?;
+    let report = trend_report(years, counts, generation, used, notes)?;
     if let Some(path) = &args.svg {
         let title = taxon.as_ref().map(|t| t.name.clone()).unwrap_or_else(|| "Yearly trend".into());
         std::fs::write(path, trend_chart(&title, &report.years, &report.trend)).with_context(|| format!("writing {}", path.display()))?;

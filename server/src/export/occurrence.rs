@@ -111,18 +111,30 @@ impl Builder<'_> {
     pub fn build(&mut self, row: &OccurrenceRow) -> Option<Occurrence> {
         let guess = row.identification.as_ref().map(|i| i.taxon_name.as_str());
         let taxon = guess.and_then(|g| self.names.resolve(g));
-        if let Some(filter) = self.taxon
-            && !taxon.is_some_and(|t| filter.contains(t))
-        {
-            return None;
+        // An identification stopped at a genus, family, order or superorder of the checklist.
+        let higher = if taxon.is_none() { guess.and_then(|g| self.names.filter(g)) } else { None };
+        let members = |h: &TaxonFilter| self.names.checklist().taxa().iter().filter(|t| h.contains(t)).collect::<Vec<_>>();
+        let higher_members = higher.as_ref().map(members).unwrap_or_default();
+        if let Some(filter) = self.taxon {
+            let wanted = match (taxon, &higher) {
+                (Some(t), _) => filter.contains(t),
+                (None, Some(h)) => h.rank <= filter.rank && higher_members.first().is_some_and(|t| filter.contains(t)),
+                (None, None) => false,
+            };
+            if !wanted {
+                return None;
+            }
         }
         let position = row.latitude.zip(row.longitude);
-        let place = match (self.audience, taxon) {
-            (Audience::Public, Some(t)) => public_place(position, row.accuracy_m, t.sensitivity),
+        // A higher taxon is generalised as its most sensitive species would be.
+        let sensitivity = taxon.map(|t| t.sensitivity).or_else(|| higher.as_ref().map(|_| strictest(&higher_members)));
+        let place = match (self.audience, sensitivity) {
+            (Audience::Public, Some(sensitivity)) => public_place(position, row.accuracy_m, sensitivity),
             _ => as_recorded(position, row.accuracy_m),
         };
-        self.count(guess, taxon.is_some(), &place);
-        Some(self.occurrence(row, taxon, place))
+        self.count(guess, taxon.is_some() || higher.is_some(), &place);
+        let named = taxon.map(|t| (t.scientific_name.as_str(), t.taxon_rank)).or(higher.as_ref().map(|h| (h.name.as_str(), h.rank)));
+        Some(self.occurrence(row, taxon.or(higher_members.first().copied()), named, place))
     }
 
     fn count(&mut self, guess: Option<&str>, matched: bool, place: &PublicPlace) {
@@ -135,7 +147,9 @@ impl Builder<'_> {
         }
     }
 
-    fn occurrence(&self, row: &OccurrenceRow, taxon: Option<&species_key::Taxon>, place: PublicPlace) -> Occurrence {
+    /// `taxon` places the record in a walk target group (for a higher taxon, one of its
+    /// species); `named` is the checklist name and rank it is identified to.
+    fn occurrence(&self, row: &OccurrenceRow, taxon: Option<&species_key::Taxon>, named: Option<(&str, species_key::TaxonRank)>, place: PublicPlace) -> Occurrence {
         let identification = row.identification.as_ref();
         let text = |v: Option<&str>| v.unwrap_or_default().to_owned();
         let media: Vec<String> = row.photo_hashes.iter().map(|h| format!("{}/photos/{h}", self.base_url)).collect();
@@ -144,7 +158,7 @@ impl Builder<'_> {
             None => (String::new(), String::new()),
         };
         let remarks = if place.hide_media_and_remarks { String::new() } else { text(row.notes.as_deref()) };
-        let identification_remarks = match (identification, taxon) {
+        let identification_remarks = match (identification, named) {
             (Some(i), Some(_)) => i.remarks.clone().unwrap_or_else(|| i.basis.clone()),
             (Some(i), None) => format!("{}; the name is not on the checklist, so the location is not generalised", i.basis),
             (None, _) => String::new(),
@@ -158,8 +172,8 @@ impl Builder<'_> {
             if place.position.is_some() { "EPSG:4326".into() } else { String::new() },
             place.uncertainty_m.map(|u| format!("{:.0}", u.ceil())).unwrap_or_default(),
             "Animalia".into(),
-            taxon.map(|t| t.scientific_name.clone()).unwrap_or_default(),
-            taxon.map(|t| rank_code(t.taxon_rank).to_owned()).unwrap_or_default(),
+            named.map(|(name, _)| name.to_owned()).unwrap_or_default(),
+            named.map(|(_, rank)| rank_code(rank).to_owned()).unwrap_or_default(),
             text(row.species_guess.as_deref().or(identification.map(|i| i.taxon_name.as_str()))),
             text(identification.and_then(|i| i.identified_by.as_deref())),
             text(identification.map(|i| i.identified_at.as_str())),
@@ -202,6 +216,19 @@ fn event_date(row: &OccurrenceRow) -> String {
     } else {
         row.observed_at.clone()
     }
+}
+
+/// The strictest generalisation among `members` (withholding, then the coarsest grid).
+fn strictest(members: &[&species_key::Taxon]) -> species_key::Sensitivity {
+    use species_key::Sensitivity;
+    let strictness = |s: Sensitivity| match s {
+        Sensitivity::None => 0,
+        Sensitivity::ThousandthDegree => 1,
+        Sensitivity::HundredthDegree => 2,
+        Sensitivity::TenthDegree => 3,
+        Sensitivity::Withhold => 4,
+    };
+    members.iter().map(|t| t.sensitivity).max_by_key(|s| strictness(*s)).unwrap_or(Sensitivity::None)
 }
 
 fn rank_code(rank: species_key::TaxonRank) -> &'static str {

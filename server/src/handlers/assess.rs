@@ -4,10 +4,10 @@
 //!
 //! Query: `taxon` (a checklist name), `state` (review-state codes separated by commas, or
 //! `any`; default `confirmed`), for range `period` (e.g. `2015-2019`, repeatable as
-//! `period=2015-2019,2020-2024`), for trend `generation_length` (years; default the
-//! checklist's for the taxon).
+//! `period=2015-2019,2020-2024`) and `grid_centre` (`LAT,LON` of the AOO grid; default the
+//! documented rule), for trend `generation_length` (years; default the checklist's for the
+//! taxon).
 
-use analysis::range::AooGrid;
 use axum::Json;
 use axum::extract::{Query, State};
 use axum::http::header;
@@ -19,9 +19,9 @@ use crate::assess::chart;
 use crate::assess::dates::Period;
 use crate::assess::map::taxon_map;
 use crate::assess::input::read_store;
-use crate::assess::range::{RangeOptions, RangeReport, range_report};
+use crate::assess::range::{GridBasis, RangeOptions, RangeReport, choose_grid, parse_centre, range_report};
 use crate::assess::taxa::TaxonFilter;
-use crate::assess::trend::{EffortUnit, TrendReport, generation_length, stored_year_counts, trend_report, walk_year_counts};
+use crate::assess::trend::{EffortUnit, TrendReport, generation_length, stored_trend_input, trend_report};
 use crate::assess::{describe_states, parse_states};
 use crate::error::ApiError;
 use crate::handlers::access::Caller;
@@ -31,6 +31,8 @@ pub struct FigureQuery {
     taxon: Option<String>,
     state: Option<String>,
     period: Option<String>,
+    /// `LAT,LON`: the AOO grid's centre (default: the documented rule, see `assess::range::choose_grid`).
+    grid_centre: Option<String>,
     generation_length: Option<f64>,
     /// `km` (default) or `hours`: the walking effort encounter rates are per.
     effort: Option<EffortUnit>,
@@ -57,9 +59,15 @@ fn sees_sensitive_places(caller: &Caller) -> bool {
     caller.person.as_ref().is_some_and(|p| matches!(p.role, shared_types::Role::Reviewer | shared_types::Role::Admin))
 }
 
-/// Whether a taxon's public locations are generalised (Chapman 2020 categories in the checklist).
+/// Whether a taxon's public locations are generalised (Chapman 2020 categories in the
+/// checklist). A genus, family, order or superorder is sensitive when any of its species
+/// is: its hull and map would show where that species was.
 fn sensitive(state: &AppState, name: &str) -> bool {
-    state.taxa.resolve(name).is_some_and(|t| t.sensitivity != species_key::Sensitivity::None)
+    let generalised = |t: &species_key::Taxon| t.sensitivity != species_key::Sensitivity::None;
+    match state.taxa.filter(name) {
+        Some(filter) => state.taxa.checklist().taxa().iter().filter(|t| filter.contains(t)).any(generalised),
+        None => false,
+    }
 }
 
 /// `GET /api/range`: figures for everyone; for a sensitive species the hull's corners
@@ -89,7 +97,7 @@ pub async fn range_map(State(state): State<AppState>, caller: Caller, Query(quer
         [] => return Err(ApiError::NotFound(format!("no records to map ({})", report.records_used))),
         _ => return Err(ApiError::BadRequest("the records hold several taxa; choose one with `taxon`".into())),
     };
-    Ok(svg(taxon_map(taxon, &AooGrid::default())))
+    Ok(svg(taxon_map(taxon, &report.grid)))
 }
 
 /// `GET /api/trend/chart.svg`: the trend chart.
@@ -112,7 +120,9 @@ async fn range_of(state: &AppState, query: &FigureQuery) -> Result<RangeReport, 
         .transpose()?
         .unwrap_or_default();
     let (records, records_used) = stored_records(state, query).await?;
-    let options = RangeOptions { taxon, periods, grid: AooGrid::default(), records_used };
+    let given = query.grid_centre.as_deref().map(parse_centre).transpose().map_err(|message| ApiError::InvalidField { field: "grid_centre".into(), message })?;
+    let (grid, grid_choice) = choose_grid(given, GridBasis::Stored(state.checklist())).map_err(|err| ApiError::BadRequest(err.to_string()))?;
+    let options = RangeOptions { taxon, periods, grid, grid_choice, records_used };
     range_report(&records, &state.taxa, &options).map_err(|err| ApiError::BadRequest(err.to_string()))
 }
 
@@ -127,9 +137,6 @@ async fn trend_of(state: &AppState, query: &FigureQuery) -> Result<TrendReport, 
     let (records, records_used) = stored_records(state, query).await?;
     let walks = state.store.run(|conn| crate::store::walks::list_walks(conn)).await?;
     let unit = query.effort.unwrap_or_default();
-    let (years, notes) = match walk_year_counts(&records, &walks, taxon.as_ref(), names, unit) {
-        Some((years, note)) => (years, vec![note]),
-        None => (stored_year_counts(&records, taxon.as_ref(), names), vec![crate::assess::trend::NO_EFFORT_NOTE.to_owned()]),
-    };
-    trend_report(years, generation, records_used, notes).map_err(|err| ApiError::BadRequest(err.to_string()))
+    let (years, counts, notes) = stored_trend_input(&records, &walks, taxon.as_ref(), names, unit);
+    trend_report(years, counts, generation, records_used, notes).map_err(|err| ApiError::BadRequest(err.to_string()))
 }

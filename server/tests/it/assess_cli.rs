@@ -246,3 +246,92 @@ async fn the_map_and_the_chart_are_served_as_svg() {
     }
     assert_eq!(app.get("/api/range/map.svg").await.status(), 404, "nothing confirmed yet to map");
 }
+
+#[tokio::test]
+async fn a_family_with_a_sensitive_species_keeps_its_places_for_reviewers() {
+    let app = spawn_app().await;
+    // The blue skate is "tenthDegree" in the demo checklist (Chapman 2020 category), so
+    // its family, order and superorder show where it was only to signed-in reviewers.
+    for (i, (lat, lon)) in [(52.41, -4.09), (52.24, -4.26), (52.13, -4.55)].iter().enumerate() {
+        let mut skate = submission(&format!("5e000000-0000-4000-8000-00000000000{i}"));
+        skate["species_guess"] = "Dipturus batis".into();
+        skate["position"] = serde_json::json!({"latitude": lat, "longitude": lon, "accuracy_m": 10.0, "source": "device"});
+        assert_eq!(app.submit(&skate, &[]).await.status, 200);
+    }
+    let anonymous = |path: String| app.client.get(format!("{}{path}", app.base)).send();
+    for taxon in ["Rajidae", "Dipturus", "Rajiformes", "Batoidea"] {
+        let query = format!("taxon={taxon}&state=any");
+        let public: Value = anonymous(format!("/api/range?{query}")).await.unwrap().json().await.unwrap();
+        let figures = &public["taxa"][0]["periods"][0]["figures"];
+        assert!(figures["eoo_km2"].as_f64().unwrap() > 0.0, "{taxon}: the figures stay public");
+        assert_eq!(figures["eoo"]["hull"], serde_json::json!([]), "{taxon}: the hull's corners are record positions");
+        assert_eq!(anonymous(format!("/api/range/map.svg?{query}")).await.unwrap().status(), 403, "{taxon}: the map");
+        let reviewer: Value = app.get(&format!("/api/range?{query}")).await.json().await.unwrap();
+        assert_eq!(reviewer["taxa"][0]["periods"][0]["figures"]["eoo"]["hull"].as_array().unwrap().len(), 3, "{taxon}");
+    }
+}
+
+/// One point set of the analysis crate's reference fixture (pyproj + shapely, see
+/// `analysis/tests/reference/make_reference.py`).
+fn reference_set(name: &str) -> Value {
+    let path = concat!(env!("CARGO_MANIFEST_DIR"), "/../analysis/tests/reference/range.json");
+    let fixture: Value = serde_json::from_str(&std::fs::read_to_string(path).unwrap()).unwrap();
+    fixture["sets"].as_array().unwrap().iter().find(|s| s["name"] == name).cloned().unwrap()
+}
+
+fn fixed_and_least(counts: &Value) -> (u64, u64) {
+    let counts = counts.as_array().unwrap();
+    let fixed = counts.iter().find(|c| c["east_quarters"] == 0 && c["north_quarters"] == 0).unwrap()["cells"].as_u64().unwrap();
+    (fixed, counts.iter().map(|c| c["cells"].as_u64().unwrap()).min().unwrap())
+}
+
+#[test]
+fn range_from_records_across_the_antimeridian_centres_its_grid_on_them() {
+    let dir = tempfile::tempdir().unwrap();
+    let set = reference_set("antimeridian_pacific");
+    let mut csv = String::from("scientificName,decimalLatitude,decimalLongitude,eventDate\n");
+    for point in set["points"].as_array().unwrap() {
+        csv.push_str(&format!("Raja clavata,{},{},2020-05-01\n", point[0], point[1]));
+    }
+    let file = write(dir.path(), "pacific.csv", &csv);
+    let from = file.to_str().unwrap();
+    let eoo_reference = set["eoo_km2"].as_f64().unwrap();
+
+    // The documented rule: far from 52° N 10° E, so centred on the records' mean rounded to 5°.
+    let report = json_of(&wrackline(dir.path(), &["range", "--from", from, "--json"]));
+    assert_eq!(report["grid"]["centre"], serde_json::json!({"lat": set["rule_centre"][0], "lon": set["rule_centre"][1]}), "{}", report["grid_choice"]);
+    assert!(report["grid_choice"].as_str().unwrap().contains("these records lie more than 60° of arc"), "{}", report["grid_choice"]);
+    let figures = &report["taxa"][0]["periods"][0]["figures"];
+    // EOO: shapely hull + pyproj geodesic area in the [0, 360) frame (range.json).
+    assert!((figures["eoo_km2"].as_f64().unwrap() - eoo_reference).abs() < 1e-6 * eoo_reference, "{}", figures["eoo_km2"]);
+    let (fixed, least) = fixed_and_least(&set["aoo_cells_by_shift_rule_grid"]);
+    assert_eq!((figures["aoo"]["occupied_cells"].as_u64(), figures["aoo"]["min_occupied_cells"].as_u64()), (Some(fixed), Some(least)));
+    assert!(figures["method"].as_str().unwrap().contains("centred on -15°, 180°"), "{}", figures["method"]);
+
+    // A centre given on the command line, the one the reference counted cells on.
+    let given = json_of(&wrackline(dir.path(), &["range", "--from", from, "--grid-centre", "-17,179", "--json"]));
+    assert_eq!(given["grid"]["centre"], serde_json::json!({"lat": -17.0, "lon": 179.0}));
+    let figures = &given["taxa"][0]["periods"][0]["figures"];
+    let (fixed, least) = fixed_and_least(&set["aoo_cells_by_shift"]);
+    assert_eq!((figures["aoo"]["occupied_cells"].as_u64(), figures["aoo"]["min_occupied_cells"].as_u64()), (Some(fixed), Some(least)));
+    assert_eq!(figures["aoo"]["area_km2"].as_f64(), Some(fixed as f64 * 4.0));
+
+    let refused = wrackline(dir.path(), &["range", "--from", from, "--grid-centre", "north"]);
+    assert!(!refused.status.success());
+    assert!(String::from_utf8_lossy(&refused.stderr).contains("`north` is not LAT,LON"), "{}", String::from_utf8_lossy(&refused.stderr));
+}
+
+#[tokio::test]
+async fn stored_records_keep_the_fixed_grid_and_take_a_centre_over_http() {
+    let app = spawn_app().await;
+    assert_eq!(app.submit(&submission("6d000000-0000-4000-8000-000000000001"), &[]).await.status, 200);
+    let report: Value = app.get("/api/range?state=any").await.json().await.unwrap();
+    assert_eq!(report["grid"]["centre"], serde_json::json!({"lat": 52.0, "lon": 10.0}), "the demo checklist's areas are near the default");
+    assert!(report["grid_choice"].as_str().unwrap().contains("fixed default"), "{}", report["grid_choice"]);
+    let moved: Value = app.get("/api/range?state=any&grid_centre=52.4,-4.1").await.json().await.unwrap();
+    assert_eq!(moved["grid"]["centre"], serde_json::json!({"lat": 52.4, "lon": -4.1}));
+    assert!(moved["taxa"][0]["periods"][0]["figures"]["method"].as_str().unwrap().contains("centred on 52.4°, -4.1°"));
+    let refused = app.get("/api/range?grid_centre=95,0").await;
+    assert_eq!(refused.status(), 422);
+    assert_eq!(refused.json::<Value>().await.unwrap()["field"], "grid_centre");
+}

@@ -12,6 +12,7 @@ mod exports;
 mod flags;
 mod helpers;
 mod hostile;
+mod key_priors;
 mod photo_flags;
 mod pictures;
 mod python;

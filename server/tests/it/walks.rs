@@ -210,6 +210,11 @@ async fn trends_on_stored_records_are_encounter_rates_per_kilometre_of_all_finds
         .collect();
     assert_eq!(years, [(2024, 2, 2.0), (2025, 1, 4.0), (2026, 0, 4.0)], "{report}");
     assert!(report["notes"].to_string().contains("encounter rates per kilometre"), "{}", report["notes"]);
+    // Beside the rates, the animals recorded each year whatever the effort: 2025 has one
+    // on a walk and one outside, 2026 three on a walk where not every find was reported.
+    let counts: Vec<(i64, u64)> =
+        report["yearly_counts"].as_array().unwrap().iter().map(|y| (y["year"].as_i64().unwrap(), y["count"].as_u64().unwrap())).collect();
+    assert_eq!(counts, [(2024, 2), (2025, 2), (2026, 3)], "{report}");
     let hours: Value = app.get("/api/trend?state=any&generation_length=8&effort=hours").await.json().await.unwrap();
     assert_eq!(hours["years"][0]["effort"], 2.0, "two hours walked in 2024");
 }

@@ -62,9 +62,10 @@ fn answers_lead_to_the_expected_species() {
     // Six gill slits: sixgill; seven: sevengill (hexanchid gill counts, from memory).
     check(&[("gillSlits", "six")], "Hexanchus griseus");
     check(&[("gillSlits", "seven")], "Heptranchias perlo");
-    // One covered gill opening and a shark-ish body: the only chimaera listed.
-    check(&[("bodyForm", "chimaeraLike")], "Chimaera monstrosa");
-    check(&[("gillSlits", "one")], "Chimaera monstrosa");
+    // One covered gill opening and a shark-ish body: a chimaera; the anal fin tells the
+    // rabbitfish (separate anal fin) from Hydrolagus (none), from memory.
+    check(&[("bodyForm", "chimaeraLike"), ("analFin", "present")], "Chimaera monstrosa");
+    check(&[("gillSlits", "one"), ("analFin", "absent")], "Hydrolagus mirabilis");
     // A flat shark with side gill slits is the angelshark.
     check(&[("bodyForm", "flatShark")], "Squatina squatina");
     // Devil rays have the horn-like cephalic fins.
@@ -475,6 +476,30 @@ fn answers_to_unknown_characters_or_states_are_errors() {
             character: "gillSlits".into(),
             state: "eight".into()
         }
+    );
+}
+
+#[test]
+fn answers_a_changed_checklist_no_longer_knows_are_set_aside_with_the_reason() {
+    let key = demo_key();
+    let given = answers(&[("gillSlits", "six"), ("fins", "two"), ("tailSpine", "many")])
+        .with_not_sure("colour")
+        .with_not_sure("mood");
+    let (usable, dropped) = key.usable_answers(&given);
+    assert_eq!(usable, answers(&[("gillSlits", "six")]).with_not_sure("colour"));
+    assert_eq!(
+        dropped,
+        vec![
+            AnswerError::UnknownCharacter("fins".into()),
+            AnswerError::UnknownCharacter("mood".into()),
+            AnswerError::UnknownState { character: "tailSpine".into(), state: "many".into() },
+        ]
+    );
+    // What is left ranks as the same answers given alone.
+    let context = Context::default();
+    assert_eq!(
+        key.rank(&usable, &context).unwrap(),
+        key.rank(&answers(&[("gillSlits", "six")]).with_not_sure("colour"), &context).unwrap()
     );
 }
 
