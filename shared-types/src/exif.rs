@@ -39,6 +39,7 @@ pub fn read(bytes: &[u8]) -> PhotoExif {
             .filter(|v| (1..=8).contains(v)),
         taken_at: None,
         offset_source: None,
+        original_sha256: None,
     }
 }
 

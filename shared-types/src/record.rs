@@ -375,6 +375,11 @@ pub struct PhotoExif {
     /// GPSHPositioningError, metres.
     pub horizontal_error_m: Option<f64>,
     pub orientation: Option<u16>,
+    /// SHA-256 of the original file the phone read (the phone's reading only; the server
+    /// names the file it received by its own hash). Left out of the JSON when absent, so
+    /// records sent before phones computed it keep their content fingerprint.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub original_sha256: Option<crate::Sha256Hex>,
 }
 
 /// A question the server raises about a photo, for the reviewer.
