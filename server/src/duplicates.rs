@@ -474,14 +474,14 @@ fn photo_says(photo: &crate::store::duplicates::RawPhoto) -> Option<PhotoSays> {
             Some(PhotoSays {
                 at: exif.taken_at.map(|t| t.with_timezone(&Utc)),
                 position: valid_position(exif.latitude, exif.longitude),
-                error_m: exif.horizontal_error_m,
+                error_m: exif.horizontal_error_m.filter(|e| e.is_finite() && *e >= 0.0),
                 reading: "the phone's reading of the original",
             })
         }
         "received_file" => Some(PhotoSays {
             at: photo.file_taken_at.as_deref().and_then(|t| DateTime::parse_from_rfc3339(t).ok()).map(|t| t.with_timezone(&Utc)),
             position: valid_position(photo.file_position.map(|p| p.0), photo.file_position.map(|p| p.1)),
-            error_m: photo.file_error_m,
+            error_m: photo.file_error_m.filter(|e| e.is_finite() && *e >= 0.0),
             reading: "the EXIF of the file received",
         }),
         _ => None,

@@ -86,7 +86,11 @@ fn duplicate_index(store: &store::Store, taxa: &assess::taxa::TaxonIndex) -> any
     let index = std::sync::Mutex::new(duplicates::Index::build(points));
     let now = chrono::Utc::now();
     for id in store.run_here(|conn| store::duplicates::unsearched(conn))? {
-        store.run_here(|conn| intake::search_duplicates(conn, &index, taxa, id, now))?;
+        // A search that fails again is tried again at the next start or resend; the server
+        // still starts.
+        if let Err(err) = store.run_here(|conn| intake::search_duplicates(conn, &index, taxa, id, now)) {
+            tracing::warn!(observation = id, error = %err, "search for duplicates failed at start-up");
+        }
     }
     Ok(index.into_inner().unwrap_or_else(|p| p.into_inner()))
 }

@@ -300,7 +300,7 @@ fn merge(tx: &Transaction, kept: &Standing, joining: &Standing, person: i64, at:
         params![kept.id, joining.id, joining.organism, joining.state, person, at],
     )?;
     let merge_id = tx.last_insert_rowid();
-    let moved = tx.execute(
+    tx.execute(
         "INSERT INTO merge_moves (merge_id, observation_id, previous_organism_id, previous_state)
          SELECT ?1, id, organism_id, review_state FROM observations WHERE organism_id = ?2",
         params![merge_id, joining.organism],
@@ -314,7 +314,7 @@ fn merge(tx: &Transaction, kept: &Standing, joining: &Standing, person: i64, at:
     for other in &others {
         log_event(tx, *other, person, "merge", (merged, merged), &format!("moved with record {} into the animal of record {} (merge {merge_id})", joining.id, kept.id), at)?;
     }
-    log_event(tx, kept.id, person, "merge", (&kept.state, &kept.state), &format!("record {} joined this animal with {} other report(s) (merge {merge_id}, {moved} moved)", joining.id, others.len()), at)?;
+    log_event(tx, kept.id, person, "merge", (&kept.state, &kept.state), &format!("record {} joined this animal, bringing {} other report(s) (merge {merge_id})", joining.id, others.len()), at)?;
     Ok(merge_id)
 }
 
