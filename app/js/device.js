@@ -191,6 +191,16 @@ export async function readBytes(file) {
   return new Uint8Array(await file.arrayBuffer());
 }
 
+// SHA-256 of a picked file as 64 lower-case hex digits, so the server can tell the same
+// original picked on two phones (whose upload copies differ). null where the browser
+// offers no digest (crypto.subtle exists only on https and on this machine's own
+// addresses); the record is then sent without it.
+export async function originalSha256(file) {
+  if (!globalThis.crypto?.subtle) return null;
+  const digest = await crypto.subtle.digest('SHA-256', await file.arrayBuffer());
+  return Array.from(new Uint8Array(digest), (b) => b.toString(16).padStart(2, '0')).join('');
+}
+
 // Makes the upload copy of a photo with the browser's own decoder: upright, long edge
 // at most `longEdge` px, re-encoded as JPEG. The canvas writes no EXIF, so the copy
 // carries no GPS; the phone sends what it read from the original as data instead.

@@ -39,6 +39,8 @@ extern "C" {
     fn send_record_js(url: &str, json: &str, blobs: js_sys::Array, part: &str, headers: JsValue) -> js_sys::Promise;
     #[wasm_bindgen(js_name = readBytes)]
     fn read_bytes_js(file: &web_sys::Blob) -> js_sys::Promise;
+    #[wasm_bindgen(js_name = originalSha256)]
+    fn original_sha256_js(file: &web_sys::Blob) -> js_sys::Promise;
     #[wasm_bindgen(js_name = prepareUpload)]
     fn prepare_upload_js(file: &web_sys::Blob, long_edge: u32, quality: f64) -> js_sys::Promise;
 }
@@ -203,6 +205,11 @@ pub async fn send_json(method: &str, url: &str, json: Option<&str>, header_pairs
 pub async fn read_bytes(file: &web_sys::Blob) -> Result<Vec<u8>, String> {
     let array: js_sys::Uint8Array = wait(read_bytes_js(file)).await?.unchecked_into();
     Ok(array.to_vec())
+}
+
+/// SHA-256 of a picked file, hex; `None` where the browser offers no digest.
+pub async fn original_sha256(file: &web_sys::Blob) -> Result<Option<String>, String> {
+    Ok(wait(original_sha256_js(file)).await?.as_string())
 }
 
 /// The upload copy of a photo, made by the browser's decoder and canvas.

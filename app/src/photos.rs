@@ -3,7 +3,8 @@
 //! copy: upright, long edge at most 2048 px, JPEG, made by the browser's own decoder
 //! and canvas (measured faster than decoding with the `image` crate in wasm; see
 //! DEVELOPERS.md). The copy carries no EXIF, so what was read travels with the record
-//! as data (`Submission::photo_exif`). Only the copy is kept on the phone.
+//! as data (`Submission::photo_exif`), with the SHA-256 of the original file. Only the
+//! copy is kept on the phone.
 
 use chrono::NaiveDateTime;
 use shared_types::PhotoExif;
@@ -43,7 +44,11 @@ const EXIF_HEAD_BYTES: f64 = 256.0 * 1024.0;
 /// Reads and prepares one picked file; the error is a sentence for the observer.
 pub async fn pick(file: web_sys::File) -> Result<PickedPhoto, String> {
     let name = file.name();
-    let exif = with_device_offset(read_exif(&file).await.map_err(|err| format!("“{name}” could not be read: {err}"))?);
+    let mut exif = with_device_offset(read_exif(&file).await.map_err(|err| format!("“{name}” could not be read: {err}"))?);
+    // Names the original, which is never sent, so the same photo picked on two phones is
+    // recognised though their upload copies differ. A browser without a digest sends none.
+    let digest = device::original_sha256(&file).await.map_err(|err| format!("“{name}” could not be read: {err}"))?;
+    exif.original_sha256 = digest.and_then(|hex| shared_types::Sha256Hex::parse(&hex).ok());
     let copy = device::prepare_upload(&file, UPLOAD_LONG_EDGE, UPLOAD_QUALITY).await.map_err(|err| match err {
         PrepareError::Undecodable(detail) => cannot_open(&name, &file.type_(), &detail),
         PrepareError::NoCanvas(detail) => cannot_prepare(&name, &detail),

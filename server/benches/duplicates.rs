@@ -9,7 +9,7 @@ use std::time::{Duration, Instant};
 
 use chrono::{DateTime, Utc};
 use shared_types::{Condition, LengthKind, Setting};
-use wrackline_server::duplicates::{DupRecord, Index, candidates, score};
+use wrackline_server::duplicates::{DupRecord, Index, Sighting, Species, candidates, index_points, score};
 
 const STORED: usize = 1_000_000;
 const QUERIES: usize = 1_000;
@@ -29,16 +29,17 @@ impl Lcg {
 fn record(id: i64, random: &mut Lcg) -> DupRecord {
     let along = random.unit();
     let start = DateTime::parse_from_rfc3339("2016-01-01T00:00:00Z").unwrap().with_timezone(&Utc);
+    let at = start + chrono::Duration::seconds((random.unit() * 10.0 * 365.0 * 86_400.0) as i64);
+    let position = (50.0 + 6.0 * along, -10.0 + 8.0 * along + 0.05 * random.unit());
     DupRecord {
         observation_id: id,
-        at: start + chrono::Duration::seconds((random.unit() * 10.0 * 365.0 * 86_400.0) as i64),
-        position: Some((50.0 + 6.0 * along, -10.0 + 8.0 * along + 0.05 * random.unit())),
-        uncertainty_m: Some(5.0 + 40.0 * random.unit()),
+        sightings: vec![Sighting::own(at, Some(position), Some(5.0 + 40.0 * random.unit()))],
         setting: if random.unit() < 0.7 { Setting::BeachStranding } else { Setting::AnglerCatch },
         condition: Condition::Decomposed,
-        taxon: Some(vec![["Raja clavata", "Scyliorhinus canicula", "Squalus acanthias"][(random.unit() * 3.0) as usize % 3].to_owned()]),
+        species: Species::lineage(&[["Raja clavata", "Scyliorhinus canicula", "Squalus acanthias"][(random.unit() * 3.0) as usize % 3]]),
         length: Some((LengthKind::Total, 40.0 + 60.0 * random.unit(), false)),
         photo_hashes: Vec::new(),
+        original_hashes: Vec::new(),
         photo_phashes: Vec::new(),
     }
 }
@@ -52,7 +53,7 @@ fn main() {
     let mut random = Lcg(2026);
     let stored: Vec<DupRecord> = (0..STORED as i64).map(|id| record(id, &mut random)).collect();
     let built = Instant::now();
-    let index = Index::build(stored.iter().map(|r| (r.observation_id, r.position.unwrap(), r.uncertainty_m, r.at)));
+    let index = Index::build(stored.iter().flat_map(index_points));
     println!("index of {} records built in {:.2} s", index.len(), built.elapsed().as_secs_f64());
     let queries: Vec<DupRecord> = (0..QUERIES as i64).map(|i| record(STORED as i64 + i, &mut random)).collect();
 
@@ -60,7 +61,7 @@ fn main() {
     let mut found = 0;
     for query in &queries {
         let start = Instant::now();
-        let near = index.possible_pairs(query.position.unwrap(), query.uncertainty_m, query.at);
+        let near = index.possible_pairs(query.sightings[0].position.unwrap(), query.sightings[0].uncertainty_m, query.sightings[0].at);
         found += black_box(candidates(query, near.iter().map(|&id| &stored[id as usize]))).len();
         indexed.push(start.elapsed());
     }
@@ -73,7 +74,7 @@ fn main() {
     }
     let check: usize = queries[..BRUTE_QUERIES]
         .iter()
-        .map(|q| candidates(q, index.possible_pairs(q.position.unwrap(), q.uncertainty_m, q.at).iter().map(|&id| &stored[id as usize])).len())
+        .map(|q| candidates(q, index.possible_pairs(q.sightings[0].position.unwrap(), q.sightings[0].uncertainty_m, q.sightings[0].at).iter().map(|&id| &stored[id as usize])).len())
         .sum();
     assert_eq!(check, brute_found, "the index finds exactly what a full scan finds");
     let median = percentile(&mut indexed, 0.5);

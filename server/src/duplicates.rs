@@ -1,69 +1,163 @@
 //! Finding the same animal reported twice: plain data in, plain data out.
 //!
-//! A pair of records is scored on four things, each with a documented window, and
-//! refused outright on a hard contradiction:
+//! A pair of records is judged on four things, each with a documented window, and
+//! ruled out on a hard contradiction:
 //!
 //! - **place**: geodesic distance against the allowed gap, the two positions'
 //!   uncertainties added in quadrature plus a drift allowance — [`DRIFT_CARCASS_M`] for
 //!   beach strandings and animals floating at sea (tides move a carcass), [`DRIFT_LANDED_M`]
-//!   for landed fish;
+//!   for landed fish. A position known only to worse than [`MAX_USEFUL_UNCERTAINTY_M`] is
+//!   not used for place at all;
 //! - **time**: the gap against [`WINDOW_CARCASS_H`] (a carcass lies for days) or
-//!   [`WINDOW_LANDED_H`] (a landed fish for hours); and a carcass never gets fresher: the
+//!   [`WINDOW_LANDED_H`] (a landed fish for hours); and condition never gets fresher: the
 //!   later report may not be in a better condition than the earlier (alive < fresh dead <
 //!   decomposed < remains only);
-//! - **species**: the same taxon, or one a higher rank of the other (by the checklist), or
-//!   one of them unnamed; two different species contradict;
-//! - **length**: of the same kind, within [`LENGTH_TOLERANCE_MEASURED`] (both taped) or
-//!   [`LENGTH_TOLERANCE_ESTIMATED`] (either estimated) of the larger; other kinds say nothing.
+//! - **species**: the same taxon, or one a higher rank of the other (by the checklist);
+//!   two different taxa contradict. An unnamed record, or one whose name is not on the
+//!   checklist (free text such as "big ray"), neither supports nor contradicts;
+//! - **length**: within the tolerance of its kind ([`length_tolerance`]; taped or
+//!   estimated). Lengths of different kinds are converted to the species' own measure
+//!   with the checklist's equation (or the key's generic ratio) when the species is
+//!   known, with [`CONVERSION_ALLOWANCE`] more slack; otherwise they are not comparable.
 //!
-//! The same photo file (SHA-256) in both is decisive on its own: a candidate whatever
-//! else, with score 1. Otherwise score = 0.35 place + 0.35 time + 0.15 species + 0.15
-//! length (each 0–1), plus [`PHOTOS_ALIKE_BONUS`] when two of their photos look alike
-//! (perceptual hashes within `intake::images::NEAR_DUPLICATE_BITS`), and a pair is a
-//! candidate at [`CANDIDATE_SCORE`] or more. Photos that look alike never override a
-//! contradiction: the hash sees layout, not species. Every
-//! candidate keeps its reasons in words. Thresholds are wrackline's own (common practice
-//! for plausibility windows), checked by the table in the tests.
+//! When a record has no position, or one of its photos is flagged as taken long before
+//! or far from the record, the photo's own EXIF time and place (the chosen reading: the
+//! server's of the received file, else the phone's of the original; GPSHPositioningError
+//! as its uncertainty) are tried as well, and the better of the two is kept with a
+//! reason saying which was used.
+//!
+//! The same photo file (SHA-256), or the same original photo on the phone (the SHA-256
+//! the phone sends of the file it picked), in both is decisive on its own: a candidate
+//! whatever else, with score 1. Otherwise
+//!
+//! score = 0.35 place + 0.35 time + 0.15 species + 0.15 length (+ [`PHOTOS_ALIKE_BONUS`])
+//!
+//! where place = 1 − distance / allowed, time = 1 − gap / window, species is 1 (same),
+//! 0.7 (one contains the other) or 0.5 (unnamed or not on the checklist), length is
+//! 1 − difference / tolerance or 0.5 when it cannot be compared, and the bonus is added
+//! when two of their photos look alike (perceptual hashes within
+//! `intake::images::NEAR_DUPLICATE_BITS`). A pair is a candidate at [`CANDIDATE_SCORE`]
+//! or more. Photos that look alike never override a contradiction: the hash sees
+//! layout, not species. Every verdict keeps its reasons in words. Thresholds are
+//! wrackline's own (common practice for plausibility windows), checked by the pair
+//! table in the tests.
 //!
 //! Candidates are found through an R-tree ([`Index`]) over place and time: unit-sphere
-//! points (so distances follow the globe, with no seam at the antimeridian) plus the day,
-//! so a query is a small box of space and time wherever on Earth the records are.
+//! points (so distances follow the globe, with no seam at the antimeridian) plus the day.
+//! Each stored place is a box as wide as its own reach (its uncertainty plus half the
+//! carcass drift), so a record with a large uncertainty widens only its own box, never
+//! every search.
 
-use shared_types::codes::from_code;
+use std::sync::Arc;
+
 use chrono::{DateTime, Utc};
 use geo::{Distance, Geodesic, Point};
-use rstar::primitives::GeomWithData;
-use rstar::{AABB, RTree};
+use rstar::primitives::{GeomWithData, Rectangle};
+use rstar::{AABB, Envelope as _, RTree, RTreeObject as _};
 use serde::Serialize;
-use shared_types::{Condition, LengthKind, Setting};
+use shared_types::codes::from_code;
+use shared_types::{Condition, LengthKind, PhotoExif, Setting};
+use species_key::length::ConversionMethod;
+use species_key::{Taxon, TaxonRank};
 
 pub const DRIFT_CARCASS_M: f64 = 2_000.0;
 pub const DRIFT_LANDED_M: f64 = 200.0;
 pub const WINDOW_CARCASS_H: f64 = 7.0 * 24.0;
 pub const WINDOW_LANDED_H: f64 = 12.0;
-pub const LENGTH_TOLERANCE_MEASURED: f64 = 0.15;
-pub const LENGTH_TOLERANCE_ESTIMATED: f64 = 0.30;
 pub const CANDIDATE_SCORE: f64 = 0.5;
 pub const PHOTOS_ALIKE_BONUS: f64 = 0.2;
 /// Uncertainty assumed for a position given without one (common practice for phone fixes).
 pub const UNKNOWN_UNCERTAINTY_M: f64 = 100.0;
+/// A position known only to worse than this says which town, not which beach: such fixes
+/// come from cell towers or network addresses, not satellites (common practice). It is
+/// not used to match by place (nor indexed); the record still matches by photo.
+pub const MAX_USEFUL_UNCERTAINTY_M: f64 = 10_000.0;
+/// Extra length tolerance when two lengths of different kinds were converted to one
+/// measure: the conversion's own error (common practice).
+pub const CONVERSION_ALLOWANCE: f64 = 0.05;
+
+/// Length tolerance per kind, as a fraction of the larger length: (taped, estimated).
+/// The ends of a fork length and a precaudal length are fixed points of the body, so two
+/// tapes agree closely; a carcass's tail tip is often broken or bent, so total lengths
+/// differ more; a ray's disc curls as it dries, so disc widths differ most. By eye people
+/// are off by a quarter to a third (all common practice, no single source).
+pub const LENGTH_TOLERANCES: [(LengthKind, f64, f64); 5] = [
+    (LengthKind::Total, 0.15, 0.30),
+    (LengthKind::Fork, 0.10, 0.30),
+    (LengthKind::Precaudal, 0.10, 0.30),
+    (LengthKind::DiscWidth, 0.20, 0.35),
+    (LengthKind::DiscLength, 0.15, 0.30),
+];
 
 const EARTH_RADIUS_M: f64 = 6_371_008.8;
+/// Geodesic (WGS84) and great-circle distances differ by under 0.6% (common practice);
+/// search boxes are this much wider so the sphere never misses an ellipsoid pair.
+const SPHERE_MARGIN: f64 = 0.01;
+
+/// The tolerance for a length of `kind`, taped or estimated.
+pub fn length_tolerance(kind: LengthKind, estimated: bool) -> f64 {
+    let (_, taped, by_eye) = LENGTH_TOLERANCES.iter().find(|(k, _, _)| *k == kind).copied().unwrap_or((kind, 0.15, 0.30));
+    if estimated { by_eye } else { taped }
+}
+
+/// When and where a record puts the animal: its own time and place, or a photo's.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Sighting {
+    pub at: DateTime<Utc>,
+    /// Latitude, longitude.
+    pub position: Option<(f64, f64)>,
+    pub uncertainty_m: Option<f64>,
+    /// `None` for the record's own; otherwise which photo reading was used, and why.
+    pub from_photo: Option<String>,
+}
+
+impl Sighting {
+    /// The record's own time and place.
+    pub fn own(at: DateTime<Utc>, position: Option<(f64, f64)>, uncertainty_m: Option<f64>) -> Self {
+        Self { at, position, uncertainty_m, from_photo: None }
+    }
+
+    /// The place and its uncertainty, when they are good enough to compare.
+    fn place(&self) -> Option<((f64, f64), f64)> {
+        let u = effective_uncertainty(self.uncertainty_m);
+        self.position.filter(|_| u <= MAX_USEFUL_UNCERTAINTY_M).map(|p| (p, u))
+    }
+}
+
+/// What a record says the animal is.
+#[derive(Debug, Clone, PartialEq)]
+pub enum Species {
+    Unnamed,
+    /// A name the checklist does not know (free text such as "big ray"): treated as
+    /// unnamed, and the reasons say so.
+    NotOnChecklist(String),
+    /// A checklist taxon with its higher taxa (most specific first), and the checklist
+    /// entry when the name is a species (for its length conversions).
+    Named { lineage: Vec<String>, taxon: Option<Arc<Taxon>> },
+}
+
+impl Species {
+    /// A named taxon with no checklist entry (tests and benchmarks).
+    pub fn lineage(names: &[&str]) -> Self {
+        Species::Named { lineage: names.iter().map(|n| (*n).to_owned()).collect(), taxon: None }
+    }
+}
 
 /// What the scoring needs of one record.
 #[derive(Debug, Clone, PartialEq)]
 pub struct DupRecord {
     pub observation_id: i64,
-    pub at: DateTime<Utc>,
-    /// Latitude, longitude: the record's own, or its first photo's when it has none.
-    pub position: Option<(f64, f64)>,
-    pub uncertainty_m: Option<f64>,
+    /// The record's own time and place first, then a photo's when it is used.
+    pub sightings: Vec<Sighting>,
     pub setting: Setting,
     pub condition: Condition,
-    /// The current identification's taxon, with its higher taxa (most specific first).
-    pub taxon: Option<Vec<String>>,
+    pub species: Species,
+    /// Kind, centimetres, estimated.
     pub length: Option<(LengthKind, f64, bool)>,
+    /// SHA-256 of the photo files received.
     pub photo_hashes: Vec<String>,
+    /// SHA-256 of the original files on the phone, as the phone sent them.
+    pub original_hashes: Vec<String>,
     /// Perceptual hashes of its photos.
     pub photo_phashes: Vec<String>,
 }
@@ -75,6 +169,17 @@ pub struct Candidate {
     pub reasons: Vec<String>,
     pub distance_m: Option<f64>,
     pub gap_hours: f64,
+}
+
+/// What the judging of a pair found.
+#[derive(Debug, Clone, PartialEq)]
+pub enum Verdict {
+    /// Likely the same animal: kept for reviewers.
+    Candidate(Candidate),
+    /// Possible, but the score is under [`CANDIDATE_SCORE`].
+    BelowLine(Candidate),
+    /// Cannot be the same animal, and why.
+    RuledOut(String),
 }
 
 fn carcass(setting: Setting) -> bool {
@@ -90,114 +195,339 @@ fn freshness(condition: Condition) -> u8 {
     }
 }
 
+fn effective_uncertainty(u: Option<f64>) -> f64 {
+    u.filter(|u| u.is_finite() && *u >= 0.0).unwrap_or(UNKNOWN_UNCERTAINTY_M)
+}
+
 pub fn geodesic_m(a: (f64, f64), b: (f64, f64)) -> f64 {
     Geodesic.distance(Point::new(a.1, a.0), Point::new(b.1, b.0))
 }
 
-/// Scores a pair; `None` when they cannot be the same animal.
+fn hours_between(a: DateTime<Utc>, b: DateTime<Utc>) -> f64 {
+    (b - a).num_seconds().abs() as f64 / 3600.0
+}
+
+/// A candidate when the pair is likely enough; `None` otherwise.
 pub fn score(a: &DupRecord, b: &DupRecord) -> Option<Candidate> {
-    let gap_hours = (b.at - a.at).num_seconds().abs() as f64 / 3600.0;
-    let distance_m = a.position.zip(b.position).map(|(p, q)| geodesic_m(p, q));
+    match judge(a, b) {
+        Verdict::Candidate(candidate) => Some(candidate),
+        _ => None,
+    }
+}
+
+/// Judges a pair: a shared photo decides alone; otherwise every pair of their sightings
+/// is judged and the best verdict kept.
+pub fn judge(a: &DupRecord, b: &DupRecord) -> Verdict {
+    if let Some(reason) = shared_photo(a, b) {
+        let (own_a, own_b) = (&a.sightings[0], &b.sightings[0]);
+        let distance_m = own_a.position.zip(own_b.position).map(|(p, q)| geodesic_m(p, q));
+        return Verdict::Candidate(Candidate { score: 1.0, reasons: vec![reason], distance_m, gap_hours: hours_between(own_a.at, own_b.at) });
+    }
+    let mut best: Option<Verdict> = None;
+    for sa in &a.sightings {
+        for sb in &b.sightings {
+            let verdict = judge_sightings(a, sa, b, sb);
+            best = Some(match best {
+                None => verdict,
+                Some(current) => better(current, verdict),
+            });
+        }
+    }
+    best.unwrap_or_else(|| Verdict::RuledOut("no time or place to compare".into()))
+}
+
+/// A candidate beats a pair under the line, which beats a ruled-out pair; among equals
+/// the higher score (or the first reason) stays.
+fn better(current: Verdict, other: Verdict) -> Verdict {
+    let rank = |v: &Verdict| match v {
+        Verdict::Candidate(c) => (2, c.score),
+        Verdict::BelowLine(c) => (1, c.score),
+        Verdict::RuledOut(_) => (0, 0.0),
+    };
+    let (r1, s1) = rank(&current);
+    let (r2, s2) = rank(&other);
+    if r2 > r1 || (r2 == r1 && s2 > s1) { other } else { current }
+}
+
+fn shared_photo(a: &DupRecord, b: &DupRecord) -> Option<String> {
+    let short = |hash: &str| hash[..12.min(hash.len())].to_owned();
     if let Some(hash) = a.photo_hashes.iter().find(|h| b.photo_hashes.contains(h)) {
-        return Some(Candidate { score: 1.0, reasons: vec![format!("the same photo file (SHA-256 {}…)", &hash[..12.min(hash.len())])], distance_m, gap_hours });
+        return Some(format!("the same photo file (SHA-256 {}…)", short(hash)));
     }
-    let mut reasons = Vec::new();
+    a.original_hashes
+        .iter()
+        .find(|h| b.original_hashes.contains(h))
+        .map(|hash| format!("the same original photo, picked on both phones (SHA-256 of the original {}…)", short(hash)))
+}
+
+fn judge_sightings(a: &DupRecord, sa: &Sighting, b: &DupRecord, sb: &Sighting) -> Verdict {
     let is_carcass = carcass(a.setting) || carcass(b.setting);
+    let gap_hours = hours_between(sa.at, sb.at);
     // Time first: it is the cheapest way to rule a pair out.
-    let window = if is_carcass { WINDOW_CARCASS_H } else { WINDOW_LANDED_H };
+    let (window, what) = if is_carcass { (WINDOW_CARCASS_H, "a carcass") } else { (WINDOW_LANDED_H, "a landed fish") };
     if gap_hours > window {
-        return None;
+        return Verdict::RuledOut(format!("{gap_hours:.1} h apart, beyond the {window:.0} h window for {what}"));
     }
-    // Place.
-    let (p, q) = (a.position?, b.position?);
+    let (Some((p, up)), Some((q, uq))) = (sa.place(), sb.place()) else {
+        return Verdict::RuledOut("no position good enough to compare (missing, or uncertain by more than 10 km)".into());
+    };
     let distance = geodesic_m(p, q);
-    let u = |r: &DupRecord| r.uncertainty_m.unwrap_or(UNKNOWN_UNCERTAINTY_M);
-    let allowed = (u(a).powi(2) + u(b).powi(2)).sqrt() + if is_carcass { DRIFT_CARCASS_M } else { DRIFT_LANDED_M };
+    let drift = if is_carcass { DRIFT_CARCASS_M } else { DRIFT_LANDED_M };
+    let allowed = up.hypot(uq) + drift;
     if distance > allowed {
-        return None;
+        return Verdict::RuledOut(format!("{distance:.0} m apart, beyond the {allowed:.0} m allowed (±{up:.0} m and ±{uq:.0} m in quadrature plus {drift:.0} m drift)"));
     }
-    reasons.push(format!("{distance:.0} m apart, within the {allowed:.0} m the uncertainties and drift allow"));
-    // Condition.
-    let (earlier, later) = if a.at <= b.at { (a, b) } else { (b, a) };
+    let mut reasons = vec![format!("{distance:.0} m apart, within the {allowed:.0} m the uncertainties and drift allow")];
+    let ((earlier, _), (later, _)) = if sa.at <= sb.at { ((a, sa), (b, sb)) } else { ((b, sb), (a, sa)) };
     if freshness(later.condition) < freshness(earlier.condition) {
-        return None;
+        return Verdict::RuledOut(format!("condition {} then {}: it does not get fresher", earlier.condition.label(), later.condition.label()));
     }
     reasons.push(format!("{gap_hours:.1} h apart, within {window:.0} h; condition {} then {}", earlier.condition.label(), later.condition.label()));
-    // Species.
-    let species = match (&a.taxon, &b.taxon) {
-        (Some(x), Some(y)) if x[0] == y[0] => {
-            reasons.push(format!("the same taxon, {}", x[0]));
-            1.0
-        }
-        (Some(x), Some(y)) if x.contains(&y[0]) || y.contains(&x[0]) => {
-            reasons.push(format!("{} and {}: one contains the other", x[0], y[0]));
-            0.7
-        }
-        (Some(_), Some(_)) => return None,
-        _ => {
-            reasons.push("one of them is not named".into());
-            0.5
-        }
+    let (species, species_reasons, taxon) = match compare_species(&a.species, &b.species) {
+        Ok(found) => found,
+        Err(why) => return Verdict::RuledOut(why),
     };
-    // Length.
-    let length = match (a.length, b.length) {
-        (Some((ka, la, ea)), Some((kb, lb, eb))) if ka == kb => {
-            let tolerance = if ea || eb { LENGTH_TOLERANCE_ESTIMATED } else { LENGTH_TOLERANCE_MEASURED };
-            let difference = (la - lb).abs() / la.max(lb);
-            if difference > tolerance {
-                return None;
-            }
-            reasons.push(format!("{la:.0} and {lb:.0} cm {}, {:.0}% apart (within {:.0}%)", ka.label(), difference * 100.0, tolerance * 100.0));
-            1.0 - difference / tolerance
+    reasons.extend(species_reasons);
+    let length = match compare_lengths(a.length, b.length, taxon) {
+        Ok((score, reason)) => {
+            reasons.extend(reason);
+            score
         }
-        _ => 0.5,
+        Err(why) => return Verdict::RuledOut(why),
     };
+    reasons.extend([sa, sb].iter().filter_map(|s| s.from_photo.clone()));
     let mut total = 0.35 * (1.0 - distance / allowed) + 0.35 * (1.0 - gap_hours / window) + 0.15 * species + 0.15 * length;
-    let nearest_photos = a
-        .photo_phashes
-        .iter()
-        .flat_map(|x| b.photo_phashes.iter().filter_map(move |y| crate::intake::images::hash_distance(x, y)))
-        .min();
-    if let Some(bits) = nearest_photos.filter(|bits| *bits <= crate::intake::images::NEAR_DUPLICATE_BITS) {
+    if let Some(bits) = nearest_photos(a, b).filter(|bits| *bits <= crate::intake::images::NEAR_DUPLICATE_BITS) {
         total += PHOTOS_ALIKE_BONUS;
         reasons.push(format!("two of their photos look alike (perceptual hashes {bits} bits apart)"));
     }
-    (total >= CANDIDATE_SCORE).then_some(Candidate { score: (total * 1000.0).round() / 1000.0, reasons, distance_m, gap_hours })
+    let score = (total * 1000.0).round() / 1000.0;
+    let candidate = Candidate { score, reasons, distance_m: Some(distance), gap_hours };
+    if total >= CANDIDATE_SCORE {
+        Verdict::Candidate(candidate)
+    } else {
+        let mut candidate = candidate;
+        candidate.reasons.push(format!("score {score:.3} is under the {CANDIDATE_SCORE} line"));
+        Verdict::BelowLine(candidate)
+    }
 }
 
+fn nearest_photos(a: &DupRecord, b: &DupRecord) -> Option<u32> {
+    a.photo_phashes
+        .iter()
+        .flat_map(|x| b.photo_phashes.iter().filter_map(move |y| crate::intake::images::hash_distance(x, y)))
+        .min()
+}
+
+fn unnamed_reason(species: &Species) -> Option<String> {
+    match species {
+        Species::Unnamed => Some("one of them is not named".into()),
+        Species::NotOnChecklist(name) => Some(format!("“{name}” is not a checklist name, so it neither supports nor rules out the same species")),
+        Species::Named { .. } => None,
+    }
+}
+
+type SpeciesMatch<'a> = (f64, Vec<String>, Option<&'a Taxon>);
+
+/// The species score, its reasons, and the checklist species whose length equations
+/// apply (the more specific of the two); `Err` with why when they contradict.
+fn compare_species<'a>(a: &'a Species, b: &'a Species) -> Result<SpeciesMatch<'a>, String> {
+    match (a, b) {
+        (Species::Named { lineage: x, taxon: tx }, Species::Named { lineage: y, taxon: ty }) => {
+            if x[0] == y[0] {
+                Ok((1.0, vec![format!("the same taxon, {}", x[0])], tx.as_deref().or(ty.as_deref())))
+            } else if x.contains(&y[0]) {
+                Ok((0.7, vec![format!("{} and {}: one contains the other", y[0], x[0])], ty.as_deref()))
+            } else if y.contains(&x[0]) {
+                Ok((0.7, vec![format!("{} and {}: one contains the other", x[0], y[0])], tx.as_deref()))
+            } else {
+                Err(format!("{} and {} are different taxa", x[0], y[0]))
+            }
+        }
+        (Species::Named { taxon, .. }, other) | (other, Species::Named { taxon, .. }) => Ok((0.5, unnamed_reason(other).into_iter().collect(), taxon.as_deref())),
+        (x, y) => {
+            let mut reasons: Vec<String> = [x, y].iter().filter_map(|s| unnamed_reason(s)).collect();
+            if matches!((x, y), (Species::Unnamed, Species::Unnamed)) {
+                reasons = vec!["neither of them is named".into()];
+            }
+            reasons.dedup();
+            Ok((0.5, reasons, None))
+        }
+    }
+}
+
+type Length = (LengthKind, f64, bool);
+
+/// The length score and its reason; `Err` with why when they are too far apart.
+fn compare_lengths(a: Option<Length>, b: Option<Length>, taxon: Option<&Taxon>) -> Result<(f64, Option<String>), String> {
+    let (Some((ka, la, ea)), Some((kb, lb, eb))) = (a, b) else { return Ok((0.5, None)) };
+    let estimated = ea || eb;
+    let how = if estimated { "estimated" } else { "taped" };
+    if ka == kb {
+        let tolerance = length_tolerance(ka, estimated);
+        let difference = (la - lb).abs() / la.max(lb);
+        let said = format!("{la:.0} and {lb:.0} cm {}, {:.0}% apart", ka.label(), difference * 100.0);
+        if difference > tolerance {
+            return Err(format!("{said}, beyond the {:.0}% allowed for {how} {}s", tolerance * 100.0, ka.label()));
+        }
+        return Ok((1.0 - difference / tolerance, Some(format!("{said} (within the {:.0}% allowed for {how} {}s)", tolerance * 100.0, ka.label()))));
+    }
+    let Some(taxon) = taxon else {
+        return Ok((0.5, Some(format!("a {} and a {} are not comparable without a known species", ka.label(), kb.label()))));
+    };
+    let convert = |kind: LengthKind, cm: f64, estimated: bool| {
+        species_key::length::comparable_length(&species_key::Measurement { kind: kind.key_kind(), cm, estimated }, taxon)
+    };
+    let (Some(ca), Some(cb)) = (convert(ka, la, ea), convert(kb, lb, eb)) else {
+        return Ok((0.5, Some(format!("a {} and a {} cannot be converted to one measure for {}", ka.label(), kb.label(), taxon.scientific_name))));
+    };
+    let tolerance = length_tolerance(ka, estimated).max(length_tolerance(kb, estimated)) + CONVERSION_ALLOWANCE;
+    let difference = (ca.cm - cb.cm).abs() / ca.cm.max(cb.cm);
+    let methods: Vec<String> = [&ca.method, &cb.method].into_iter().filter_map(method_words).collect();
+    let said = format!(
+        "{la:.0} cm {} and {lb:.0} cm {} are {:.0} and {:.0} cm {} for {} ({}), {:.0}% apart",
+        ka.label(),
+        kb.label(),
+        ca.cm,
+        cb.cm,
+        taxon.max_length.measure.words(),
+        taxon.scientific_name,
+        methods.join("; "),
+        difference * 100.0
+    );
+    if difference > tolerance {
+        return Err(format!("{said}, beyond the {:.0}% allowed for {how} lengths of two kinds", tolerance * 100.0));
+    }
+    Ok((1.0 - difference / tolerance, Some(format!("{said} (within the {:.0}% allowed for {how} lengths of two kinds)", tolerance * 100.0))))
+}
+
+fn method_words(method: &ConversionMethod) -> Option<String> {
+    match method {
+        ConversionMethod::AsMeasured => None,
+        ConversionMethod::SpeciesEquation { equation, .. } => Some(format!("the checklist's {equation}")),
+        ConversionMethod::CommonPractice { equation } => Some(format!("the generic {equation}, common practice")),
+    }
+}
 
 /// A stored record as scoring sees it; `None` when its stored codes do not read.
 pub fn from_raw(raw: &crate::store::duplicates::RawDup, names: &crate::assess::taxa::TaxonIndex) -> Option<DupRecord> {
     let at = DateTime::parse_from_rfc3339(&raw.at_utc).ok()?.with_timezone(&Utc);
-    let taxon = raw.taxon_name.as_ref().map(|name| match names.resolve(name) {
-        Some(t) => {
-            let lineage = [t.scientific_name.clone(), t.genus.clone(), t.family.clone(), t.order.clone(), t.superorder.clone()];
-            let mut unique: Vec<String> = Vec::new();
-            for name in lineage {
-                if !unique.contains(&name) {
-                    unique.push(name);
-                }
-            }
-            unique
-        }
-        None => vec![name.clone()],
-    });
     let length = match &raw.length {
         Some((kind, cm, method)) => Some((from_code(kind)?, *cm, method == "estimated")),
         None => None,
     };
     Some(DupRecord {
         observation_id: raw.observation_id,
-        at,
-        position: raw.position,
-        uncertainty_m: raw.accuracy_m,
+        sightings: sightings(raw, at),
         setting: from_code(&raw.setting)?,
         condition: from_code(&raw.condition)?,
-        taxon,
+        species: raw.taxon_name.as_deref().map_or(Species::Unnamed, |name| species_named(name, names)),
         length,
-        photo_hashes: raw.photo_hashes.clone(),
-        photo_phashes: raw.photo_phashes.clone(),
+        photo_hashes: raw.photos.iter().map(|p| p.sha256.clone()).collect(),
+        original_hashes: raw.photos.iter().filter_map(|p| p.original_sha256.clone()).collect(),
+        photo_phashes: raw.photos.iter().filter_map(|p| p.phash.clone()).collect(),
     })
+}
+
+const RANKS: [TaxonRank; 5] = [TaxonRank::Species, TaxonRank::Genus, TaxonRank::Family, TaxonRank::Order, TaxonRank::Superorder];
+
+/// A checklist species (by scientific or common name), a higher taxon the checklist
+/// names (genus to superorder), or a name it does not know.
+pub fn species_named(name: &str, names: &crate::assess::taxa::TaxonIndex) -> Species {
+    let lineage_from = |taxon: &Taxon, rank: TaxonRank| {
+        let mut unique: Vec<String> = Vec::new();
+        for name in RANKS.iter().skip_while(|r| **r != rank).map(|r| taxon.name_at(*r).to_owned()) {
+            if !unique.contains(&name) {
+                unique.push(name);
+            }
+        }
+        unique
+    };
+    if let Some(taxon) = names.resolve(name) {
+        return Species::Named { lineage: lineage_from(taxon, TaxonRank::Species), taxon: Some(Arc::new(taxon.clone())) };
+    }
+    let higher = names.filter(name).and_then(|f| names.checklist().taxa().iter().find(|t| t.name_at(f.rank) == f.name).map(|t| (t, f.rank)));
+    match higher {
+        Some((taxon, rank)) => Species::Named { lineage: lineage_from(taxon, rank), taxon: None },
+        None => Species::NotOnChecklist(name.trim().to_owned()),
+    }
+}
+
+/// A photo's EXIF time and place as the chosen reading gives them.
+struct PhotoSays {
+    at: Option<DateTime<Utc>>,
+    position: Option<(f64, f64)>,
+    error_m: Option<f64>,
+    reading: &'static str,
+}
+
+fn valid_position(lat: Option<f64>, lon: Option<f64>) -> Option<(f64, f64)> {
+    lat.zip(lon).filter(|(lat, lon)| lat.is_finite() && lon.is_finite() && (-90.0..=90.0).contains(lat) && (-180.0..=180.0).contains(lon))
+}
+
+/// What the photo's EXIF says, field by field from the reading intake compared with the
+/// record (`time_reading`, `place_reading`): the server's of the file it received, or
+/// the phone's of the original.
+fn photo_says(photo: &crate::store::duplicates::RawPhoto) -> Option<PhotoSays> {
+    let phone: Option<PhotoExif> = photo.phone_exif_json.as_deref().and_then(|json| serde_json::from_str(json).ok());
+    let time_from = photo.time_reading.as_deref();
+    let place_from = photo.place_reading.as_deref();
+    let at = match time_from {
+        Some("phone") => phone.as_ref().and_then(|exif| exif.taken_at).map(|t| t.with_timezone(&Utc)),
+        Some("received_file") => photo.file_taken_at.as_deref().and_then(|t| DateTime::parse_from_rfc3339(t).ok()).map(|t| t.with_timezone(&Utc)),
+        _ => None,
+    };
+    let (position, error_m) = match place_from {
+        Some("phone") => phone.as_ref().map_or((None, None), |exif| (valid_position(exif.latitude, exif.longitude), exif.horizontal_error_m)),
+        Some("received_file") => (valid_position(photo.file_position.map(|p| p.0), photo.file_position.map(|p| p.1)), photo.file_error_m),
+        _ => (None, None),
+    };
+    let reading = match (at.is_some().then_some(time_from).flatten(), position.is_some().then_some(place_from).flatten()) {
+        (Some("phone"), Some("received_file")) => "the phone's reading of the original for the time, the EXIF of the file received for the place",
+        (Some("received_file"), Some("phone")) => "the EXIF of the file received for the time, the phone's reading of the original for the place",
+        (Some("phone"), _) | (None, Some("phone")) => "the phone's reading of the original",
+        (Some(_), _) | (None, Some(_)) => "the EXIF of the file received",
+        (None, None) => return None,
+    };
+    Some(PhotoSays { at, position, error_m: error_m.filter(|e| e.is_finite() && *e >= 0.0), reading })
+}
+
+/// The record's own time and place, and a photo's when the record has no position or
+/// the photo is flagged as taken long before or far from it (the first such photo with
+/// a reading). The photo's time and place are used where it has them, the record's
+/// otherwise.
+pub fn sightings(raw: &crate::store::duplicates::RawDup, at: DateTime<Utc>) -> Vec<Sighting> {
+    let own = Sighting::own(at, raw.position, raw.accuracy_m);
+    let from_photo = raw.photos.iter().find_map(|photo| {
+        let long_before = photo.flags.iter().any(|f| f == "taken_long_before_record");
+        let far = photo.flags.iter().any(|f| f == "taken_far_from_record");
+        let no_place = raw.position.is_none();
+        if !(no_place || long_before || far) {
+            return None;
+        }
+        let says = photo_says(photo)?;
+        let position = says.position.or(raw.position)?;
+        let what = match (says.at.is_some(), says.position.is_some()) {
+            (true, true) => "time and place",
+            (false, true) => "place",
+            (true, false) => "time",
+            (false, false) => return None,
+        };
+        let why = match (no_place, long_before, far) {
+            (true, false, _) => "the record has no position".to_owned(),
+            (_, true, true) => format!("photo {} was flagged as taken long before and far from the record", photo.number),
+            (_, true, false) => format!("photo {} was flagged as taken long before the record", photo.number),
+            (false, false, _) => format!("photo {} was flagged as taken far from the record's place", photo.number),
+        };
+        let error = says.error_m.filter(|_| says.position.is_some()).map(|e| format!(", ±{e:.0} m")).unwrap_or_default();
+        Some(Sighting {
+            at: says.at.unwrap_or(at),
+            position: Some(position),
+            uncertainty_m: if says.position.is_some() { says.error_m } else { raw.accuracy_m },
+            from_photo: Some(format!("for one report the {what} of photo {}'s EXIF ({}{error}) was used, because {why}", photo.number, says.reading)),
+        })
+    });
+    std::iter::once(own).chain(from_photo).collect()
 }
 
 /// A point on the unit sphere, so straight-line distance follows great-circle distance
@@ -207,61 +537,73 @@ fn unit_vector((lat, lon): (f64, f64)) -> [f64; 3] {
     [lat.cos() * lon.cos(), lat.cos() * lon.sin(), lat.sin()]
 }
 
-/// The index of stored records over place and time, with the largest uncertainty among
-/// them, so a search box is exactly as large as the widest pair [`score`] may accept.
-#[derive(Default)]
-pub struct Index {
-    tree: RTree<GeomWithData<[f64; 4], i64>>,
-    max_uncertainty_m: f64,
-}
-
-/// A stored record for the index: id, (latitude, longitude), uncertainty in metres if
-/// known, and when it was seen.
+/// A stored place for the index: id, (latitude, longitude), uncertainty in metres if
+/// known, and when.
 pub type IndexedPoint = (i64, (f64, f64), Option<f64>, DateTime<Utc>);
 
-fn uncertainty_or_default(u: Option<f64>) -> f64 {
-    u.unwrap_or(UNKNOWN_UNCERTAINTY_M)
+type Entry = GeomWithData<Rectangle<[f64; 4]>, i64>;
+
+/// The places and times of stored records. Each place is a box of half-width
+/// `reach(u) = (u + DRIFT_CARCASS_M / 2) × 1.01` (as a chord of the unit sphere), so two
+/// boxes meet whenever the two places are within u₁ + u₂ + DRIFT_CARCASS_M ≥ the
+/// quadrature gap [`judge`] allows; a search is the new record's box over ± the carcass
+/// window. A record with a large uncertainty makes only its own box large.
+#[derive(Default)]
+pub struct Index {
+    tree: RTree<Entry>,
 }
 
 fn days(at: DateTime<Utc>) -> f64 {
     at.timestamp() as f64 / 86_400.0
 }
 
-fn point((lat, lon): (f64, f64), at: DateTime<Utc>) -> [f64; 4] {
-    let [x, y, z] = unit_vector((lat, lon));
-    [x, y, z, days(at)]
+/// Half the side of a place's box, as a chord of the unit sphere.
+fn half_width(uncertainty_m: f64) -> f64 {
+    let reach = (uncertainty_m + DRIFT_CARCASS_M / 2.0) * (1.0 + SPHERE_MARGIN);
+    2.0 * (reach / (2.0 * EARTH_RADIUS_M)).min(std::f64::consts::FRAC_PI_2).sin()
+}
+
+/// The box of a place over the days `from..=to`; `None` when the place is too uncertain
+/// to compare.
+fn place_box(position: (f64, f64), uncertainty_m: Option<f64>, from: f64, to: f64) -> Option<AABB<[f64; 4]>> {
+    let u = effective_uncertainty(uncertainty_m);
+    if u > MAX_USEFUL_UNCERTAINTY_M {
+        return None;
+    }
+    let h = half_width(u);
+    let [x, y, z] = unit_vector(position);
+    Some(AABB::from_corners([x - h, y - h, z - h, from], [x + h, y + h, z + h, to]))
+}
+
+fn entry((id, position, uncertainty_m, at): IndexedPoint) -> Option<Entry> {
+    place_box(position, uncertainty_m, days(at), days(at)).map(|aabb| GeomWithData::new(Rectangle::from(aabb), id))
 }
 
 impl Index {
     /// Builds the index at once (bulk loading is much faster than one by one).
     pub fn build(points: impl IntoIterator<Item = IndexedPoint>) -> Self {
-        let mut max_uncertainty_m: f64 = 0.0;
-        let entries = points
-            .into_iter()
-            .map(|(id, p, u, at)| {
-                max_uncertainty_m = max_uncertainty_m.max(uncertainty_or_default(u));
-                GeomWithData::new(point(p, at), id)
-            })
-            .collect();
-        Self { tree: RTree::bulk_load(entries), max_uncertainty_m }
+        Self { tree: RTree::bulk_load(points.into_iter().filter_map(entry).collect()) }
     }
 
-    pub fn insert(&mut self, id: i64, position: (f64, f64), uncertainty_m: Option<f64>, at: DateTime<Utc>) {
-        self.max_uncertainty_m = self.max_uncertainty_m.max(uncertainty_or_default(uncertainty_m));
-        self.tree.insert(GeomWithData::new(point(position, at), id));
+    /// Adds a place; adding the same place of the same record again changes nothing.
+    pub fn insert(&mut self, point: IndexedPoint) {
+        let Some(new) = entry(point) else { return };
+        let centre = new.geom().envelope().center();
+        if !self.tree.locate_all_at_point(&centre).any(|e| e == &new) {
+            self.tree.insert(new);
+        }
     }
 
-    /// Every stored record [`score`] could accept beside a new one: within the largest
-    /// allowed gap (both uncertainties and the carcass drift) and the longest time window.
-    /// (A record with the very same photo is a candidate at any distance; those are found
-    /// by hash, not here.)
+    /// Every stored record [`judge`] could place beside this place: boxes that meet, in
+    /// the longest time window. (A record with the very same photo is a candidate at any
+    /// distance; those are found by hash, not here.)
     pub fn possible_pairs(&self, position: (f64, f64), uncertainty_m: Option<f64>, at: DateTime<Utc>) -> Vec<i64> {
-        let reach = (uncertainty_or_default(uncertainty_m).powi(2) + self.max_uncertainty_m.powi(2)).sqrt() + DRIFT_CARCASS_M;
-        let chord = 2.0 * (reach / (2.0 * EARTH_RADIUS_M)).sin();
-        let [x, y, z, t] = point(position, at);
         let window = WINDOW_CARCASS_H / 24.0;
-        let corners = ([x - chord, y - chord, z - chord, t - window], [x + chord, y + chord, z + chord, t + window]);
-        self.tree.locate_in_envelope(&AABB::from_corners(corners.0, corners.1)).map(|p| p.data).collect()
+        let Some(envelope) = place_box(position, uncertainty_m, days(at) - window, days(at) + window) else { return Vec::new() };
+        let mut ids: Vec<i64> = self.tree.locate_in_envelope_intersecting(&envelope).map(|e| e.data).collect();
+        ids.sort_unstable();
+        ids.dedup();
+        ids
     }
 
     pub fn len(&self) -> usize {
@@ -271,7 +613,18 @@ impl Index {
     pub fn is_empty(&self) -> bool {
         self.tree.size() == 0
     }
+}
 
+/// The places of a record the index keeps: each of its sightings with a position.
+pub fn index_points(record: &DupRecord) -> Vec<IndexedPoint> {
+    record.sightings.iter().filter_map(|s| s.position.map(|p| (record.observation_id, p, s.uncertainty_m, s.at))).collect()
+}
+
+/// The places of a stored record the index keeps, read straight from the store (no
+/// names looked up); empty when its time does not read.
+pub fn raw_index_points(raw: &crate::store::duplicates::RawDup) -> Vec<IndexedPoint> {
+    let Ok(at) = DateTime::parse_from_rfc3339(&raw.at_utc) else { return Vec::new() };
+    sightings(raw, at.with_timezone(&Utc)).iter().filter_map(|s| s.position.map(|p| (raw.observation_id, p, s.uncertainty_m, s.at))).collect()
 }
 
 /// Candidates for `new` among `others` (already narrowed by the index), best first.
@@ -286,140 +639,5 @@ pub fn candidates<'a>(new: &DupRecord, others: impl IntoIterator<Item = &'a DupR
 }
 
 #[cfg(test)]
-mod tests {
-    use super::*;
-
-    fn at(hours: f64) -> DateTime<Utc> {
-        DateTime::parse_from_rfc3339("2026-03-01T08:00:00Z").unwrap().with_timezone(&Utc) + chrono::Duration::seconds((hours * 3600.0) as i64)
-    }
-
-    /// A thornback ray stranded at Borth; tests change what they need.
-    fn ray(id: i64) -> DupRecord {
-        DupRecord {
-            observation_id: id,
-            at: at(0.0),
-            position: Some((52.4890, -4.0530)),
-            uncertainty_m: Some(10.0),
-            setting: Setting::BeachStranding,
-            condition: Condition::FreshDead,
-            taxon: Some(vec!["Raja clavata".into(), "Raja".into(), "Rajidae".into()]),
-            length: Some((LengthKind::DiscWidth, 50.0, false)),
-            photo_hashes: vec![],
-            photo_phashes: vec![],
-        }
-    }
-
-    /// 1e-3° of latitude is about 111.3 m near 52.5°N (common practice).
-    fn north(record: &mut DupRecord, metres: f64) {
-        let (lat, lon) = record.position.unwrap();
-        record.position = Some((lat + metres / 111_300.0, lon));
-    }
-
-    #[test]
-    fn the_pair_table() {
-        type Edit = fn(&mut DupRecord);
-        let cases: &[(&str, Edit, bool)] = &[
-            ("the same animal a day later, 500 m along the beach", |r| { r.at = at(24.0); north(r, 500.0); r.condition = Condition::Decomposed; }, true),
-            ("just inside the place window (2,014 m allowed)", |r| { north(r, 1_990.0); r.at = at(2.0); }, true),
-            ("just outside the place window", |r| north(r, 2_050.0), false),
-            ("just inside seven days", |r| r.at = at(167.0), true),
-            ("just outside seven days", |r| r.at = at(169.0), false),
-            ("a carcass does not get fresher", |r| { r.at = at(5.0); r.condition = Condition::Alive; }, false),
-            ("a genus contains the species", |r| r.taxon = Some(vec!["Raja".into(), "Rajidae".into()]), true),
-            ("another species contradicts", |r| r.taxon = Some(vec!["Raja brachyura".into(), "Raja".into()]), false),
-            ("an unnamed record may still be it", |r| r.taxon = None, true),
-            ("14% longer, taped: inside 15%", |r| r.length = Some((LengthKind::DiscWidth, 58.0, false)), true),
-            ("17% longer, taped: outside 15%", |r| r.length = Some((LengthKind::DiscWidth, 60.0, false)), false),
-            ("17% longer, estimated: inside 30%", |r| r.length = Some((LengthKind::DiscWidth, 60.0, true)), true),
-        ];
-        for (name, edit, expected) in cases {
-            let mut other = ray(2);
-            edit(&mut other);
-            let found = score(&ray(1), &other);
-            assert_eq!(found.is_some(), *expected, "{name}: {found:?}");
-            assert_eq!(score(&other, &ray(1)).is_some(), *expected, "{name} (either order)");
-        }
-    }
-
-    #[test]
-    fn a_landed_fish_has_hours_and_metres_not_days_and_kilometres() {
-        let mut a = ray(1);
-        a.setting = Setting::LandingSiteOrMarket;
-        let mut b = a.clone();
-        b.observation_id = 2;
-        b.at = at(11.0);
-        assert!(score(&a, &b).is_some(), "11 h later at the same place");
-        b.at = at(13.0);
-        assert!(score(&a, &b).is_none(), "13 h is past the 12 h window");
-        b.at = at(1.0);
-        north(&mut b, 150.0);
-        assert!(score(&a, &b).is_some(), "150 m away an hour later");
-        b.at = at(11.0);
-        let edge = score(&a, &b);
-        assert!(edge.is_none(), "near the edge of both windows the score falls below {CANDIDATE_SCORE}: {edge:?}");
-        b.at = at(1.0);
-        north(&mut b, 200.0);
-        assert!(score(&a, &b).is_none(), "350 m is past the 214 m allowed");
-    }
-
-    #[test]
-    fn photos_that_look_alike_lift_a_pair_over_the_line_but_never_a_contradiction() {
-        // Near both windows' edges the score alone falls short (see the landed-fish test).
-        let mut a = ray(1);
-        a.setting = Setting::LandingSiteOrMarket;
-        let mut b = a.clone();
-        b.observation_id = 2;
-        b.at = at(11.0);
-        north(&mut b, 150.0);
-        assert!(score(&a, &b).is_none());
-        a.photo_phashes = vec!["f0f0f0f0f0f0f0f0".into()];
-        b.photo_phashes = vec!["f0f0f0f0f0f0f0f3".into()]; // 2 bits apart
-        let lifted = score(&a, &b).expect("photos alike lift it");
-        assert!(lifted.reasons.iter().any(|r| r.contains("2 bits apart")), "{lifted:?}");
-        b.photo_phashes = vec!["0f0f0f0f0f0f0f0f".into()]; // 64 bits apart
-        assert!(score(&a, &b).is_none());
-        b.photo_phashes = vec!["f0f0f0f0f0f0f0f3".into()];
-        b.taxon = Some(vec!["Squalus acanthias".into()]);
-        assert!(score(&a, &b).is_none(), "another species still contradicts");
-    }
-
-    #[test]
-    fn the_same_photo_file_decides_on_its_own() {
-        let mut a = ray(1);
-        let mut b = ray(2);
-        a.photo_hashes = vec!["ab".repeat(32)];
-        b.photo_hashes = vec!["ab".repeat(32)];
-        b.at = at(24.0 * 30.0);
-        b.taxon = Some(vec!["Squalus acanthias".into()]);
-        let found = score(&a, &b).unwrap();
-        assert_eq!(found.score, 1.0);
-        assert!(found.reasons[0].contains("the same photo file"));
-    }
-
-    #[test]
-    fn the_index_finds_neighbours_across_the_antimeridian_and_only_in_the_time_window() {
-        let index = Index::build([
-            (1, (0.0, 179.9999), None, at(0.0)),
-            (2, (0.0, -179.9999), None, at(1.0)),
-            (3, (0.0, 170.0), None, at(0.0)),
-            (4, (0.0, 179.9999), None, at(24.0 * 30.0)),
-        ]);
-        let mut near = index.possible_pairs((0.0, 179.9999), None, at(0.0));
-        near.sort();
-        // 0.0002° of longitude at the equator is about 22 m (common practice); record 4
-        // is a month later.
-        assert_eq!(near, [1, 2]);
-    }
-
-    #[test]
-    fn the_search_reaches_as_far_as_a_pair_may_be_apart() {
-        // Two records 2,300 m apart with ±300 m each: allowed 424 + 2,000 = 2,424 m.
-        let a = DupRecord { uncertainty_m: Some(300.0), ..ray(1) };
-        let mut b = DupRecord { uncertainty_m: Some(300.0), ..ray(2) };
-        north(&mut b, 2_300.0);
-        b.at = at(1.0);
-        assert!(score(&a, &b).is_some());
-        let index = Index::build([(2, b.position.unwrap(), b.uncertainty_m, b.at)]);
-        assert_eq!(index.possible_pairs(a.position.unwrap(), a.uncertainty_m, a.at), [2]);
-    }
-}
+#[path = "duplicates_tests.rs"]
+mod tests;

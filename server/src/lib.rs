@@ -75,11 +75,28 @@ impl AppState {
         let store = store::Store::open(&data_dir.join("wrackline.sqlite3"))?;
         let photos = intake::photos::PhotoFiles::open(&data_dir.join("photos"))?;
         let taxa = std::sync::Arc::new(assess::taxa::TaxonIndex::new(checklist));
-        let positions = store.run_here(|conn| store::duplicates::all_positions(conn))?;
-        let duplicates = std::sync::Arc::new(std::sync::Mutex::new(duplicates::Index::build(positions)));
+        let duplicates = std::sync::Arc::new(std::sync::Mutex::new(duplicate_index(&store, &taxa)?));
         let decode_gate = intake::gate::DecodeGate::sized_to_cores();
         Ok(Self { store, photos, app_dir, taxa, logins: auth::LoginLimiter::default(), duplicates, decode_gate })
     }
+}
+
+/// The index of every stored record's places, merged records too (an undo brings them
+/// back), with the search for duplicates run for any record stored without one (it
+/// failed after the record was stored).
+fn duplicate_index(store: &store::Store, taxa: &assess::taxa::TaxonIndex) -> anyhow::Result<duplicates::Index> {
+    let raws = store.run_here(|conn| store::duplicates::all_records(conn))?;
+    let points = raws.iter().flat_map(duplicates::raw_index_points);
+    let index = std::sync::Mutex::new(duplicates::Index::build(points));
+    let now = chrono::Utc::now();
+    for id in store.run_here(|conn| store::duplicates::unsearched(conn))? {
+        // A search that fails again is tried again at the next start or resend; the server
+        // still starts.
+        if let Err(err) = store.run_here(|conn| intake::search_duplicates(conn, &index, taxa, id, now)) {
+            tracing::warn!(observation = id, error = %err, "search for duplicates failed at start-up");
+        }
+    }
+    Ok(index.into_inner().unwrap_or_else(|p| p.into_inner()))
 }
 
 /// Serves the app on an already bound listener until Ctrl-C, so tests can bind

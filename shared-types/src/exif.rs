@@ -45,6 +45,7 @@ pub fn read_if_present(bytes: &[u8]) -> Option<PhotoExif> {
         taken_at: None,
         offset_source: None,
         device_offset: None,
+        original_sha256: None,
     })
 }
 

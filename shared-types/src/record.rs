@@ -384,6 +384,11 @@ pub struct PhotoExif {
     /// from a file; left out of the JSON when absent, so older records hash as before.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub device_offset: Option<String>,
+    /// SHA-256 of the original file the phone read (the phone's reading only; the server
+    /// names the file it received by its own hash). Left out of the JSON when absent, so
+    /// records sent before phones computed it keep their content fingerprint.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub original_sha256: Option<crate::Sha256Hex>,
 }
 
 /// A question the server raises about a photo, for the reviewer.

@@ -140,6 +140,40 @@ impl From<Text> for String {
     }
 }
 
+/// A SHA-256 digest written as 64 hexadecimal digits, kept in lower case: how the phone
+/// names the original file of a photo (which it never sends), so the same original
+/// picked on two phones is recognised although their upload copies differ.
+#[derive(Debug, Clone, PartialEq, Eq, Hash, Serialize, Deserialize)]
+#[serde(try_from = "String", into = "String")]
+pub struct Sha256Hex(String);
+
+impl Sha256Hex {
+    pub fn parse(value: &str) -> Result<Self, ValueError> {
+        if value.len() == 64 && value.bytes().all(|b| b.is_ascii_hexdigit()) {
+            Ok(Self(value.to_ascii_lowercase()))
+        } else {
+            Err(ValueError(format!("a SHA-256 digest must be 64 hexadecimal digits, got {:?}", value.chars().take(80).collect::<String>())))
+        }
+    }
+
+    pub fn as_str(&self) -> &str {
+        &self.0
+    }
+}
+
+impl TryFrom<String> for Sha256Hex {
+    type Error = ValueError;
+    fn try_from(value: String) -> Result<Self, Self::Error> {
+        Self::parse(&value)
+    }
+}
+
+impl From<Sha256Hex> for String {
+    fn from(value: Sha256Hex) -> String {
+        value.0
+    }
+}
+
 /// A length as typed, with its unit. Converted to centimetres for storage and export.
 #[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
 #[serde(try_from = "UncheckedLength")]
@@ -255,5 +289,17 @@ mod tests {
     fn text_is_trimmed_and_bounded() {
         assert_eq!(Text::parse("  spurdog \n").unwrap().as_str(), "spurdog");
         assert!(Text::parse(&"x".repeat(Text::MAX_CHARS + 1)).is_err());
+    }
+
+    #[test]
+    fn a_sha256_digest_is_64_hex_digits_kept_in_lower_case() {
+        // FIPS 180-4: SHA-256 gives 256 bits, 64 hexadecimal digits. The digest of the
+        // empty input (FIPS 180-4 test vectors, common practice to quote).
+        let empty = "E3B0C44298FC1C149AFBF4C8996FB92427AE41E4649B934CA495991B7852B855";
+        assert_eq!(Sha256Hex::parse(empty).unwrap().as_str(), empty.to_ascii_lowercase());
+        assert!(Sha256Hex::parse(&empty[..63]).is_err(), "63 digits");
+        assert!(Sha256Hex::parse(&format!("{}g", &empty[..63])).is_err(), "not hex");
+        let err = serde_json::from_str::<Sha256Hex>("\"abc\"").unwrap_err();
+        assert!(err.to_string().contains("64 hexadecimal digits"), "{err}");
     }
 }

@@ -148,7 +148,12 @@ test('a reviewer sees two reports of one carcass side by side, merges them, and 
     assert.equal(csv.trim().split('\n').length, 2, 'the export counts the animal once');
     await page.click('.undo-merge');
     await page.waitForSelector('#record-review[data-state="awaiting_review"]');
-    assert.match(await page.textContent('.duplicate'), /Decided: different animals/);
+    // Undone exactly: the pair is a candidate again, undecided, with both choices offered.
+    await page.waitForSelector('.duplicate .same-animal');
+    assert.doesNotMatch(await page.textContent('.duplicate'), /Decided/);
+    assert.equal(await page.$$eval('.duplicate .different-animals', (b) => b.length), 1);
+    const queue = await server.get('/api/review/queue');
+    assert.equal(queue.filter((item) => item.priority_reasons.some((r) => /possibly the same animal/.test(r))).length, 2, 'both back in the queue as possible duplicates');
   } finally {
     await desk.close();
     server.stop();

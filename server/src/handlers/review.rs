@@ -160,11 +160,11 @@ pub async fn decide_pair(State(state): State<AppState>, Reviewer(reviewer): Revi
 /// `POST /api/review/merges/{merge_id}/undo`: puts both records back exactly as they were.
 pub async fn undo_merge(State(state): State<AppState>, Reviewer(reviewer): Reviewer, Path(merge_id): Path<i64>) -> Result<Json<serde_json::Value>, ApiError> {
     let person = reviewer.id;
-    let undone = state.store.run(move |conn| duplicates_store::undo_merge(conn, merge_id, person, Utc::now())).await?;
-    if !undone {
-        return Err(ApiError::NotFound(format!("no standing merge {merge_id}")));
+    match state.store.run(move |conn| duplicates_store::undo_merge(conn, merge_id, person, Utc::now())).await? {
+        duplicates_store::Undo::Undone => Ok(Json(serde_json::json!({"merge_id": merge_id, "undone": true}))),
+        duplicates_store::Undo::NotFound => Err(ApiError::NotFound(format!("no standing merge {merge_id}"))),
+        duplicates_store::Undo::Blocked { by } => Err(ApiError::Conflict(format!("merge {by} moved some of the same reports later; undo merge {by} first"))),
     }
-    Ok(Json(serde_json::json!({"merge_id": merge_id, "undone": true})))
 }
 
 /// `POST /api/review/records/{client_id}/actions`: confirm, ask for details, or mark

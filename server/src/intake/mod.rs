@@ -127,38 +127,67 @@ pub async fn accept(state: &AppState, upload: Upload, observer_id: Option<i64>, 
             find_duplicates(state, receipt.observation_id, Utc::now()).await?;
             Ok(Accepted { receipt, replayed: false })
         }
-        Insertion::Replayed(receipt) => Ok(Accepted { receipt, replayed: true }),
+        Insertion::Replayed(receipt) => {
+            // The first arrival may have stored the record and then failed to search.
+            find_duplicates(state, receipt.observation_id, Utc::now()).await?;
+            Ok(Accepted { receipt, replayed: true })
+        }
         Insertion::Conflict => Err(IntakeError::Conflict(client_id)),
     }
 }
 
 /// Looks for other reports of the same animal among stored records and keeps the
-/// candidates for reviewers. The index lock covers the query and the insert together,
-/// so of two arrivals of one animal the second always finds the first.
+/// candidates for reviewers, unless that was done already (a resend).
 async fn find_duplicates(state: &AppState, observation_id: i64, now: DateTime<Utc>) -> Result<(), IntakeError> {
     let names = state.taxa.clone();
     let index = state.duplicates.clone();
     state
         .store
         .run(move |conn| {
-            let Some(new) = crate::store::duplicates::raw_records(conn, &[observation_id])?.pop() else { return Ok(()) };
-            let Some(new) = crate::duplicates::from_raw(&new, &names) else { return Ok(()) };
-            let Some(position) = new.position else { return Ok(()) };
-            let mut near = {
-                let mut index = index.lock().unwrap_or_else(|p| p.into_inner());
-                let near = index.possible_pairs(position, new.uncertainty_m, new.at);
-                index.insert(observation_id, position, new.uncertainty_m, new.at);
-                near
-            };
-            // The same photo file is a candidate at any distance and time.
-            near.extend(crate::store::duplicates::sharing_a_photo(conn, observation_id)?);
-            let others: Vec<_> = crate::store::duplicates::raw_records(conn, &near)?.iter().filter_map(|r| crate::duplicates::from_raw(r, &names)).collect();
-            let found: Vec<_> = crate::duplicates::candidates(&new, &others).into_iter().map(|(id, c)| (id, c.score, c.reasons)).collect();
-            crate::store::duplicates::save_candidates(conn, observation_id, &found, now)
+            if crate::store::duplicates::searched(conn, observation_id)? {
+                return Ok(());
+            }
+            search_duplicates(conn, &index, &names, observation_id, now)
         })
         .await
         .map_err(anyhow::Error::from)?;
     Ok(())
+}
+
+/// The search for one stored record: records holding the same photo (file or original)
+/// at any time and place, and the index's neighbours of each of its places; the record's
+/// places join the index. The index lock covers the query and the insert together, so of
+/// two arrivals of one animal the second always finds the first. Marks the search done
+/// in the transaction that keeps the candidates.
+pub fn search_duplicates(
+    conn: &mut rusqlite::Connection,
+    index: &std::sync::Mutex<crate::duplicates::Index>,
+    names: &crate::assess::taxa::TaxonIndex,
+    observation_id: i64,
+    now: DateTime<Utc>,
+) -> Result<(), crate::store::StoreError> {
+    use crate::duplicates::{candidates, from_raw, index_points};
+    use crate::store::duplicates::{raw_records, save_candidates, sharing_a_photo};
+    let Some(new) = raw_records(conn, &[observation_id])?.pop().and_then(|raw| from_raw(&raw, names)) else {
+        // Merged already, or its stored codes do not read: nothing to look for.
+        return save_candidates(conn, observation_id, &[], now);
+    };
+    // The same photo file is a candidate at any distance and time, with or without a position.
+    let mut near = sharing_a_photo(conn, observation_id)?;
+    {
+        let mut index = index.lock().unwrap_or_else(|p| p.into_inner());
+        for point in index_points(&new) {
+            near.extend(index.possible_pairs(point.1, point.2, point.3));
+        }
+        for point in index_points(&new) {
+            index.insert(point);
+        }
+    }
+    near.sort_unstable();
+    near.dedup();
+    let others: Vec<_> = raw_records(conn, &near)?.iter().filter_map(|r| from_raw(r, names)).collect();
+    let found: Vec<_> = candidates(&new, &others).into_iter().map(|(id, c)| (id, c.score, c.reasons)).collect();
+    save_candidates(conn, observation_id, &found, now)
 }
 
 /// Checks and writes photo files. The cheap checks (count, bytes, magic) run on every

@@ -18,7 +18,8 @@ const MIGRATIONS: &[(&str, &str)] = &[
     ("0006_walk_details", include_str!("../../../migrations/0006_walk_details.sql")),
     ("0007_people_and_review", include_str!("../../../migrations/0007_people_and_review.sql")),
     ("0008_duplicates", include_str!("../../../migrations/0008_duplicates.sql")),
-    ("0013_photo_reading_per_field", include_str!("../../../migrations/0013_photo_reading_per_field.sql")),
+    ("0009_photo_reading_per_field", include_str!("../../../migrations/0009_photo_reading_per_field.sql")),
+    ("0010_duplicate_moves", include_str!("../../../migrations/0010_duplicate_moves.sql")),
 ];
 
 pub(super) fn apply(conn: &mut Connection) -> Result<(), StoreError> {

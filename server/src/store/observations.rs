@@ -203,8 +203,8 @@ pub(super) fn link_photo(tx: &Transaction, observation_id: i64, position: usize,
     )?;
     tx.execute(
         "INSERT OR IGNORE INTO observation_photos (observation_id, photo_sha256, position, exif_taken_at, offset_source,
-            seconds_before_record, metres_from_record, time_reading, place_reading, phone_exif_json)
-         VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10)",
+            seconds_before_record, metres_from_record, time_reading, place_reading, phone_exif_json, original_sha256)
+         VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11)",
         params![
             observation_id,
             photo.sha256,
@@ -216,6 +216,7 @@ pub(super) fn link_photo(tx: &Transaction, observation_id: i64, position: usize,
             photo.check.time_reading.as_ref().map(code),
             photo.check.place_reading.as_ref().map(code),
             phone_json,
+            photo.phone_exif.as_ref().and_then(|p| p.original_sha256.as_ref()).map(|h| h.as_str()),
         ],
     )?;
     for flag in &photo.check.flags {
@@ -368,6 +369,7 @@ fn photos_of(conn: &Connection, observation_id: i64) -> Result<Vec<PhotoView>, S
                 taken_at: taken_at.and_then(|t| chrono::DateTime::parse_from_rfc3339(&t).ok()),
                 offset_source: offset_source.and_then(|s| from_code::<OffsetSource>(&s)),
                 device_offset: None,
+                original_sha256: None,
             },
         })
     })?;
