@@ -18,6 +18,7 @@ const MIGRATIONS: &[(&str, &str)] = &[
     ("0006_walk_details", include_str!("../../../migrations/0006_walk_details.sql")),
     ("0007_people_and_review", include_str!("../../../migrations/0007_people_and_review.sql")),
     ("0008_duplicates", include_str!("../../../migrations/0008_duplicates.sql")),
+    ("0009_life_stage", include_str!("../../../migrations/0009_life_stage.sql")),
 ];
 
 pub(super) fn apply(conn: &mut Connection) -> Result<(), StoreError> {
