@@ -7,8 +7,8 @@ pub use shared_types::codes::{code, from_code};
 use chrono::{FixedOffset, NaiveDateTime, TimeZone};
 use leptos::prelude::*;
 use shared_types::{
-    AccuracyM, Condition, Count, HumanSign, KeyChoice, Latitude, Length, LengthKind, LengthUnit, LengthValue, Longitude,
-    MeasureMethod, Position, PositionSource, Setting, Sex, Submission, Text,
+    AccuracyM, Condition, Count, HumanSign, KeyChoice, Latitude, Length, LengthKind, LengthUnit, LengthValue, LifeStage, Longitude,
+    MeasureMethod, Position, PositionSource, Setting, Sex, Submission, SubmissionProblem, Text,
 };
 use uuid::Uuid;
 
@@ -39,6 +39,8 @@ pub struct FormFields {
     pub length_unit: Option<LengthUnit>,
     pub length_method: Option<MeasureMethod>,
     pub sex: Option<Sex>,
+    /// `None`: not said (the observer could not tell, or did not choose).
+    pub life_stage: Option<LifeStage>,
     pub count: String,
     pub condition: Option<Condition>,
     pub setting: Option<Setting>,
@@ -97,6 +99,9 @@ impl FormFields {
         let species_guess = optional_text("species", &self.species_guess, &mut problems);
         let notes = optional_text("notes", &self.notes, &mut problems);
         let observer_name = optional_text("your name", &self.observer_name, &mut problems);
+        if self.life_stage == Some(LifeStage::EggCase) && length.is_some() {
+            problems.push(SubmissionProblem::LengthOfEggCase.to_string());
+        }
         if !problems.is_empty() {
             return Err(problems);
         }
@@ -116,6 +121,7 @@ impl FormFields {
             key_choice: self.key_choice.clone(),
             walk_client_id: None,
             photo_exif: Vec::new(),
+            life_stage: self.life_stage,
         })
     }
 
@@ -469,7 +475,14 @@ pub fn RecordForm(outbox: Outbox) -> impl IntoView {
                     </select></label>
                     <label>"How many" <input id="count" type="number" min="1" prop:value=move || fields.with(|f| f.count.clone())
                         on:input=move |ev| fields.update(|f| f.count = event_target_value(&ev)) /></label>
+                    <label>"Life stage" <select id="life-stage" prop:value=move || fields.with(|f| f.life_stage.map(|s| code(&s)).unwrap_or_default()) on:change=move |ev| fields.update(|f| f.life_stage = from_code(&event_target_value(&ev)))>
+                        <option value="">"not sure"</option>
+                        {LifeStage::ALL.into_iter().map(|s| view! { <option value=code(&s)>{s.label()}</option> }).collect_view()}
+                    </select></label>
                 </div>
+                <Show when=move || fields.with(|f| f.life_stage == Some(LifeStage::EggCase))>
+                    <p id="egg-case-hint" class="hint">"Egg cases: count them in “How many”; no length needed (write a case's size in the notes)."</p>
+                </Show>
             </fieldset>
 
             <fieldset>

@@ -74,14 +74,16 @@ pub fn decide(current: ReviewState, action: &ReviewAction) -> Result<Change, Act
 pub fn priority(record: &RecordView, current_taxon: Option<&str>, checklist: &Checklist, possible_duplicate: bool) -> (u32, Vec<String>) {
     let mut score = 0;
     let mut reasons = Vec::new();
-    if let Some(taxon) = current_taxon.and_then(|name| checklist.taxon(name)) {
+    // At any rank: a genus or family counts as protected or sensitive if any of its species is.
+    if let Some(taxon) = current_taxon.and_then(|name| crate::assess::taxa::NamedTaxon::find(checklist, name)) {
+        let may_be = if taxon.rank == species_key::TaxonRank::Species { "" } else { " (or holds species that are)" };
         if taxon.protected {
             score += 1000;
-            reasons.push(format!("{} is protected", taxon.scientific_name));
+            reasons.push(format!("{} is protected{may_be}", taxon.scientific_name));
         }
         if taxon.sensitivity != Sensitivity::None {
             score += 500;
-            reasons.push(format!("{} is sensitive: its public locations are generalised", taxon.scientific_name));
+            reasons.push(format!("{} is sensitive{may_be}: its public locations are generalised", taxon.scientific_name));
         }
     }
     for flag in &record.flags {

@@ -177,6 +177,47 @@ impl Sex {
     }
 }
 
+/// The animal's life stage, as the observer could tell it. Sharks, skates and some rays
+/// and chimaeras lay eggs in horny cases ("mermaid's purses") that wash up on the
+/// strandline; walkers who promise to report every find report these too.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(rename_all = "snake_case")]
+pub enum LifeStage {
+    /// An egg case, with or without an embryo inside, or empty after hatching.
+    EggCase,
+    /// An embryo or pup taken from its mother or its egg case before birth or hatching.
+    Embryo,
+    Juvenile,
+    Adult,
+}
+
+impl LifeStage {
+    pub const ALL: [LifeStage; 4] = [Self::EggCase, Self::Embryo, Self::Juvenile, Self::Adult];
+
+    /// The plain name shown to people.
+    pub fn label(self) -> &'static str {
+        match self {
+            Self::EggCase => "egg case",
+            Self::Embryo => "embryo",
+            Self::Juvenile => "juvenile",
+            Self::Adult => "adult",
+        }
+    }
+
+    /// Darwin Core `lifeStage`, from the GBIF Life Stage vocabulary
+    /// (rs.gbif.org/vocabulary/gbif/life_stage): `embryo`, `juvenile` and `adult` are its
+    /// preferred terms; `egg` is a term it lists under `embryo`, kept because an egg case
+    /// may be empty.
+    pub fn dwc(self) -> &'static str {
+        match self {
+            Self::EggCase => "egg",
+            Self::Embryo => "embryo",
+            Self::Juvenile => "juvenile",
+            Self::Adult => "adult",
+        }
+    }
+}
+
 /// Signs that people or fishing gear were involved.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, PartialOrd, Ord, Serialize, Deserialize)]
 #[serde(rename_all = "snake_case")]
@@ -239,6 +280,10 @@ pub struct Submission {
     /// walk itself may arrive later). Left out when absent, like `key_choice`.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub walk_client_id: Option<Uuid>,
+    /// The life stage, when the observer chose one. Left out when absent, so records made
+    /// before it existed keep their content fingerprint.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub life_stage: Option<LifeStage>,
 }
 
 /// Ranks an observer may stop the key at (Darwin Core `taxonRank` values).
@@ -270,6 +315,8 @@ pub enum SubmissionProblem {
     InTheFuture(DateTime<FixedOffset>),
     #[error("human_signs lists {0:?} twice")]
     RepeatedSign(HumanSign),
+    #[error("length: an egg case has no body length; leave the length empty and write the case's size in the notes")]
+    LengthOfEggCase,
 }
 
 /// How far ahead of the server's clock a record may claim to be, for phones whose
@@ -294,6 +341,11 @@ impl Submission {
         signs.sort();
         if let Some(pair) = signs.windows(2).find(|pair| pair[0] == pair[1]) {
             return Err(SubmissionProblem::RepeatedSign(pair[0]));
+        }
+        // Lengths are body measures (total, fork, disc…): an egg case's size is not one,
+        // and taken as one it would raise false "oversize" or size-prior signals.
+        if self.life_stage == Some(LifeStage::EggCase) && self.length.is_some() {
+            return Err(SubmissionProblem::LengthOfEggCase);
         }
         Ok(())
     }
@@ -541,6 +593,39 @@ mod tests {
         let long_ago = DateTime::parse_from_rfc3339("2020-01-01T00:00:00Z").unwrap().with_timezone(&Utc);
         assert!(matches!(sub.check(long_ago), Err(SubmissionProblem::InTheFuture(_))));
         assert!(sub.check(DateTime::parse_from_rfc3339("2026-03-14T09:00:00Z").unwrap().with_timezone(&Utc)).is_ok());
+    }
+
+    #[test]
+    fn a_life_stage_is_optional_and_leaves_older_records_unchanged() {
+        let sub: Submission = serde_json::from_str(sample()).unwrap();
+        assert_eq!(sub.life_stage, None);
+        assert!(!serde_json::to_string(&sub).unwrap().contains("life_stage"), "absent stays out of the JSON (same fingerprint)");
+        let mut egg: serde_json::Value = serde_json::from_str(sample()).unwrap();
+        egg["life_stage"] = "egg_case".into();
+        egg["length"] = serde_json::Value::Null;
+        egg["count"] = 3.into();
+        let egg: Submission = serde_json::from_value(egg).unwrap();
+        assert_eq!(egg.life_stage, Some(LifeStage::EggCase));
+        let later = DateTime::parse_from_rfc3339("2026-03-14T09:00:00Z").unwrap().with_timezone(&Utc);
+        assert!(egg.check(later).is_ok(), "an egg case needs a count, not a length");
+    }
+
+    #[test]
+    fn an_egg_case_with_a_body_length_is_refused() {
+        let mut sub: Submission = serde_json::from_str(sample()).unwrap();
+        sub.life_stage = Some(LifeStage::EggCase);
+        let later = DateTime::parse_from_rfc3339("2026-03-14T09:00:00Z").unwrap().with_timezone(&Utc);
+        assert_eq!(sub.check(later), Err(SubmissionProblem::LengthOfEggCase));
+        sub.life_stage = Some(LifeStage::Embryo);
+        assert!(sub.check(later).is_ok(), "an embryo has a total length");
+    }
+
+    #[test]
+    fn life_stages_map_to_the_gbif_life_stage_vocabulary() {
+        // GBIF Life Stage vocabulary (rs.gbif.org/vocabulary/gbif/life_stage.xml): preferred
+        // terms embryo, juvenile, adult; `egg` listed as an alternative term of embryo.
+        let dwc: Vec<&str> = LifeStage::ALL.iter().map(|s| s.dwc()).collect();
+        assert_eq!(dwc, ["egg", "embryo", "juvenile", "adult"]);
     }
 
     #[test]

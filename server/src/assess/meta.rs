@@ -2,8 +2,8 @@
 //! column holds which term (TDWG Darwin Core Text Guide).
 //!
 //! Only what reading records needs is kept: each core or extension's `rowType`, file
-//! location, delimiter, quote, header lines, and its `field`s (0-based `index` and
-//! `term`, or a constant `default`).
+//! location, delimiter, quote, header lines, the column of its `id` (core) or `coreid`
+//! (extension), and its `field`s (0-based `index` and `term`, or a constant `default`).
 
 use quick_xml::events::{BytesStart, Event};
 
@@ -17,6 +17,10 @@ pub enum FieldSource {
 /// One `core` or `extension` of the archive.
 #[derive(Debug, Clone, PartialEq)]
 pub struct ArchiveTable {
+    /// `true` for the `core`, `false` for an `extension`.
+    pub core: bool,
+    /// The column holding the row's id (core) or its core row's id (extension).
+    pub id_index: Option<usize>,
     pub row_type: String,
     pub location: String,
     pub delimiter: u8,
@@ -62,8 +66,14 @@ pub fn read_meta(xml: &str) -> Result<Vec<ArchiveTable>, String> {
         let event = reader.read_event().map_err(|err| format!("not well-formed XML near byte {position}: {err}"))?;
         match event {
             Event::Start(tag) | Event::Empty(tag) => match tag.local_name().as_ref() {
-                "core" | "extension" => current = Some(table_start(&tag)?),
+                name @ ("core" | "extension") => current = Some(table_start(&tag, name == "core")?),
                 "location" => in_location = true,
+                "id" | "coreid" => {
+                    if let Some(table) = current.as_mut() {
+                        let index = attribute(&tag, "index")?.ok_or("an <id> or <coreid> has no index")?;
+                        table.id_index = Some(index.parse().map_err(|_| format!("{}: id index `{index}` is not a number", table.row_type))?);
+                    }
+                }
                 "field" => {
                     if let Some(table) = current.as_mut() {
                         table.fields.push(field(&tag)?);
@@ -104,7 +114,7 @@ fn unescape(text: &str) -> String {
     text.replace("\\t", "\t").replace("\\n", "\n").replace("\\r", "\r")
 }
 
-fn table_start(tag: &BytesStart) -> Result<ArchiveTable, String> {
+fn table_start(tag: &BytesStart, core: bool) -> Result<ArchiveTable, String> {
     let row_type = attribute(tag, "rowType")?.ok_or("a core or extension has no rowType")?;
     let delimiter = unescape(&attribute(tag, "fieldsTerminatedBy")?.unwrap_or_else(|| ",".into()));
     let quote = unescape(&attribute(tag, "fieldsEnclosedBy")?.unwrap_or_else(|| "\"".into()));
@@ -117,6 +127,8 @@ fn table_start(tag: &BytesStart) -> Result<ArchiveTable, String> {
         _ => Err(format!("{row_type}: {what} `{text}` must be a single character")),
     };
     Ok(ArchiveTable {
+        core,
+        id_index: None,
         delimiter: single(&delimiter, "fieldsTerminatedBy")?,
         quote: if quote.is_empty() { None } else { Some(single(&quote, "fieldsEnclosedBy")?) },
         header_lines: attribute(tag, "ignoreHeaderLines")?.map(|n| n.parse().map_err(|_| format!("ignoreHeaderLines `{n}` is not a number"))).transpose()?.unwrap_or(0),

@@ -8,11 +8,11 @@ use anyhow::Context as _;
 use chrono::NaiveDate;
 use clap::ValueEnum;
 
-use crate::AppState;
 use crate::assess::taxa::TaxonIndex;
 use crate::assess::{describe_states, parse_states};
-use crate::export::{self, Audience, ExportRequest, Format};
-use crate::store::occurrences::RowFilter;
+use crate::export::{self, Audience, ExportRequest, Format, LICENCE_VARIABLE, Licence};
+use crate::store::Store;
+use crate::store::occurrences::{Area, RowFilter};
 
 #[derive(Debug, Clone, Copy, ValueEnum)]
 pub enum ExportFormat {
@@ -46,16 +46,21 @@ pub struct ExportArgs {
     /// Only records observed on or before this day (UTC, YYYY-MM-DD).
     #[arg(long)]
     pub to_date: Option<NaiveDate>,
-    /// Only records inside SOUTH,WEST,NORTH,EAST (decimal degrees).
+    /// Only records inside SOUTH,WEST,NORTH,EAST (decimal degrees; WEST greater than
+    /// EAST is a box across the antimeridian, e.g. -20,170,-10,-170).
     #[arg(long, value_parser = parse_bbox, allow_hyphen_values = true)]
-    pub bbox: Option<[f64; 4]>,
+    pub bbox: Option<Area>,
+    /// The licence the archive states (default CC BY 4.0).
+    #[arg(long, value_enum, env = LICENCE_VARIABLE, default_value_t = Licence::CcBy)]
+    pub licence: Licence,
     /// The species checklist (default: the bundled demo checklist).
     #[arg(long)]
     pub checklist: Option<PathBuf>,
 }
 
-/// Reads `SOUTH,WEST,NORTH,EAST`.
-pub fn parse_bbox(text: &str) -> Result<[f64; 4], String> {
+/// Reads `SOUTH,WEST,NORTH,EAST`; WEST greater than EAST is a box that crosses the
+/// antimeridian (from WEST eastwards over 180° to EAST).
+pub fn parse_bbox(text: &str) -> Result<Area, String> {
     let values: Vec<f64> = text
         .split(',')
         .map(|v| v.trim().parse::<f64>().map_err(|_| format!("`{v}` is not a number")))
@@ -66,10 +71,10 @@ pub fn parse_bbox(text: &str) -> Result<[f64; 4], String> {
     if !(-90.0..=90.0).contains(&south) || !(-90.0..=90.0).contains(&north) || south > north {
         return Err(format!("`{text}`: latitudes must lie in -90..90 with SOUTH ≤ NORTH"));
     }
-    if !(-180.0..=180.0).contains(&west) || !(-180.0..=180.0).contains(&east) || west > east {
-        return Err(format!("`{text}`: longitudes must lie in -180..180 with WEST ≤ EAST"));
+    if !(-180.0..=180.0).contains(&west) || !(-180.0..=180.0).contains(&east) {
+        return Err(format!("`{text}`: longitudes must lie in -180..180 (WEST greater than EAST is a box across the antimeridian)"));
     }
-    Ok([south, west, north, east])
+    Ok(Area { south, west, north, east })
 }
 
 /// UTC bounds for the store: from the start of `from`, until the start of the day after `to`.
@@ -97,6 +102,7 @@ pub fn run(data_dir: &Path, args: ExportArgs) -> anyhow::Result<()> {
         filter: RowFilter { states: states.clone(), from_utc, until_utc, bbox: args.bbox },
         taxon,
         base_url: args.base_url.clone(),
+        licence: args.licence,
     };
     let out: Box<dyn Write> = match &args.out {
         Some(path) => {
@@ -105,8 +111,10 @@ pub fn run(data_dir: &Path, args: ExportArgs) -> anyhow::Result<()> {
         }
         None => Box::new(std::io::BufWriter::new(std::io::stdout().lock())),
     };
-    let state = AppState::open(data_dir, None, crate::load_checklist(None)?)?;
-    let summary = state.store.run_here(|conn| {
+    // The database alone: an export needs no photo folder and no duplicate index.
+    std::fs::create_dir_all(data_dir).with_context(|| format!("creating the data directory {}", data_dir.display()))?;
+    let store = Store::open(&data_dir.join("wrackline.sqlite3"))?;
+    let summary = store.read_here(|conn| {
         let total = export::rows_to_read(conn, &request)?;
         let bar = indicatif::ProgressBar::with_draw_target(Some(total), indicatif::ProgressDrawTarget::stderr());
         let result = export::write_export(conn, &names, &request, out, &mut || bar.inc(1));
@@ -123,4 +131,19 @@ pub fn run(data_dir: &Path, args: ExportArgs) -> anyhow::Result<()> {
         writeln!(err, "{note}")?;
     }
     Ok(())
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn a_box_may_cross_the_antimeridian_but_not_the_poles() {
+        let fiji = parse_bbox("-19.5,177,-16,-178").unwrap();
+        assert!(fiji.crosses_antimeridian() && fiji.contains(-17.0, -179.5) && fiji.contains(-17.0, 178.0));
+        assert!(parse_bbox("52,-4.6,52.6,-4").unwrap().contains(52.3, -4.3));
+        assert!(parse_bbox("53,0,52,1").unwrap_err().contains("SOUTH ≤ NORTH"));
+        assert!(parse_bbox("52,190,53,1").unwrap_err().contains("-180..180"));
+        assert!(parse_bbox("52,1,53").unwrap_err().contains("four numbers"));
+    }
 }

@@ -10,19 +10,27 @@
 //! absence: `occurrenceStatus` `notDetected` (the vocabulary the 2026 TDWG term list
 //! recommends, replacing `absent`) with `individualCount` 0. The target groups are the
 //! ones the walk's promise names: sharks and rays-and-skates (egg cases are recorded as
-//! finds of their group). A find the checklist cannot place counts as found for every
-//! group, so no absence is claimed beside it.
+//! finds of their group). What was found on a walk is read from every record made on it,
+//! whatever an export's filters leave out, so a filtered archive never claims a false
+//! absence. A find identified at any rank counts for the group all its species share (a
+//! skate identified only to Rajidae is a ray-and-skate find); a find the checklist cannot
+//! place counts as found for every group, so no absence is claimed beside it; a find
+//! outside the target groups (a chimaera) counts for none.
 //!
 //! A track is never exported. Public exports give the walk's start rounded to 0.1°
 //! (Chapman 2020 grid) with the cell diagonal added to its uncertainty; full exports give
-//! the start as recorded.
+//! the start as recorded. A walk on which a sensitive species was found is generalised at
+//! least as far as that species' records: its stretch name (`locality`) is withheld, its
+//! start is rounded to the coarser of 0.1° and the species' grid, or withheld with the
+//! species' location, and `dataGeneralizations` / `informationWithheld` say so.
 
-use species_key::{Sensitivity, Taxon};
+use shared_types::WalkSubmission;
+use species_key::{Checklist, Sensitivity};
 
 use super::Audience;
 use super::generalise::{as_recorded, public_place};
 use super::terms::OCCURRENCE_TERMS;
-use crate::store::walks::StoredWalk;
+use crate::assess::taxa::{NamedTaxon, stricter};
 
 /// Event terms, in column order; the first is the row's id.
 pub const EVENT_TERMS: &[&str] = &[
@@ -67,27 +75,65 @@ impl TargetGroup {
     }
 }
 
-/// The group a checklist taxon belongs to, by its superorder.
-pub fn group_of(taxon: &Taxon) -> Option<TargetGroup> {
-    match taxon.superorder.as_str() {
+/// Where a find stands against a walk's target groups.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Placement {
+    /// In one target group.
+    Group(TargetGroup),
+    /// Placed on the checklist, outside every target group (a chimaera).
+    Outside,
+    /// Not on the checklist, or its species span groups: it may be of any group.
+    Unknown,
+}
+
+/// The group a superorder belongs to.
+fn group_of_superorder(superorder: &str) -> Option<TargetGroup> {
+    match superorder {
         "Galeomorphii" | "Squalomorphii" => Some(TargetGroup::Sharks),
         "Batoidea" => Some(TargetGroup::RaysAndSkates),
         _ => None,
     }
 }
 
-/// Which groups were found on one walk.
-#[derive(Debug, Clone, Copy, Default)]
-pub struct Found(u8);
+/// Where a find identified as `named` (at any rank) stands: the group all its species share.
+pub fn placement(named: Option<&NamedTaxon>, checklist: &Checklist) -> Placement {
+    let Some(named) = named else { return Placement::Unknown };
+    let mut groups = named.members(checklist).map(|t| group_of_superorder(&t.superorder));
+    let Some(first) = groups.next() else { return Placement::Unknown };
+    if !groups.all(|g| g == first) {
+        return Placement::Unknown;
+    }
+    first.map_or(Placement::Outside, Placement::Group)
+}
+
+/// What was found on one walk: which groups, and how sensitive the most sensitive find is.
+#[derive(Debug, Clone, Copy)]
+pub struct Found {
+    groups: u8,
+    pub sensitivity: Sensitivity,
+}
+
+impl Default for Found {
+    fn default() -> Self {
+        Self { groups: 0, sensitivity: Sensitivity::None }
+    }
+}
 
 impl Found {
-    /// Notes a find: of a group, or (`None`) one the checklist cannot place.
-    pub fn add(&mut self, group: Option<TargetGroup>) {
-        self.0 |= group.map_or(u8::MAX, TargetGroup::bit);
+    /// Notes a find identified as `named` (`None`: a name the checklist does not know).
+    pub fn add(&mut self, named: Option<&NamedTaxon>, checklist: &Checklist) {
+        self.groups |= match placement(named, checklist) {
+            Placement::Group(group) => group.bit(),
+            Placement::Outside => 0,
+            Placement::Unknown => u8::MAX,
+        };
+        if let Some(named) = named {
+            self.sensitivity = stricter(self.sensitivity, named.sensitivity);
+        }
     }
 
     fn has(self, group: TargetGroup) -> bool {
-        self.0 & group.bit() != 0
+        self.groups & group.bit() != 0
     }
 }
 
@@ -105,9 +151,8 @@ fn hours_and_minutes(seconds: f64) -> String {
     format!("{} h {:02} min", minutes / 60, minutes % 60)
 }
 
-/// The event row of a walk.
-pub fn walk_event(stored: &StoredWalk, audience: Audience) -> Vec<String> {
-    let walk = &stored.walk;
+/// The event row of a walk; `found` says what was found on it (for generalising).
+pub fn walk_event(walk: &WalkSubmission, audience: Audience, found: Found) -> Vec<String> {
     let effort = walk.effort();
     let protocol = if walk.all_finds_reported {
         "beach survey walk; every shark, ray, skate and egg case found was reported"
@@ -116,11 +161,28 @@ pub fn walk_event(stored: &StoredWalk, audience: Audience) -> Vec<String> {
     };
     let start = walk.track.first().map(|p| (p.latitude.get(), p.longitude.get()));
     let accuracy = walk.track.first().and_then(|p| p.accuracy_m).map(|a| a.get());
+    let sensitive = audience == Audience::Public && found.sensitivity != Sensitivity::None;
     let (place, generalised) = match audience {
-        Audience::Public => (public_place(start, accuracy, Sensitivity::TenthDegree), start.map(|_| "Start of the walk rounded to 0.1 degree; coordinateUncertaintyInMeters raised by the cell diagonal (Chapman 2020 grid).")),
-        Audience::Full => (as_recorded(start, accuracy), None),
+        Audience::Public => {
+            let place = public_place(start, accuracy, stricter(Sensitivity::TenthDegree, found.sensitivity));
+            // Never finer than 0.1°, so a sensitive find's grid (0.01°, 0.001°) changes nothing
+            // here; a withheld one withholds the start too.
+            let said = match (start, place.position) {
+                (None, _) => "",
+                (Some(_), None) => "Start of the walk withheld: a sensitive species was found on it (Chapman 2020, GBIF).",
+                (Some(_), Some(_)) => "Start of the walk rounded to 0.1 degree; coordinateUncertaintyInMeters raised by the cell diagonal (Chapman 2020 grid).",
+            };
+            (place, said.to_owned())
+        }
+        Audience::Full => (as_recorded(start, accuracy), String::new()),
     };
     let (lat, lon) = place.position.map_or((String::new(), String::new()), |(lat, lon)| (format!("{lat:.*}", place.decimals), format!("{lon:.*}", place.decimals)));
+    let mut generalizations = generalised;
+    let mut withheld = "the walk's GPS track is not published".to_owned();
+    if sensitive {
+        generalizations = format!("{generalizations} Locality withheld: a sensitive species was found on this walk.").trim().to_owned();
+        withheld.push_str("; the stretch's name and the precise start are withheld because a sensitive species was found on this walk; assessors may ask the network");
+    }
     vec![
         walk_event_id(&walk.client_id.to_string()),
         format!("{}/{}", walk.started_at.to_rfc3339(), walk.ended_at.to_rfc3339()),
@@ -136,13 +198,13 @@ pub fn walk_event(stored: &StoredWalk, audience: Audience) -> Vec<String> {
             },
             hours_and_minutes(effort.duration_s)
         ),
-        walk.stretch.as_ref().map(|s| s.as_str().to_owned()).unwrap_or_default(),
+        if sensitive { String::new() } else { walk.stretch.as_ref().map(|s| s.as_str().to_owned()).unwrap_or_default() },
         lat.clone(),
         lon,
         if lat.is_empty() { String::new() } else { "EPSG:4326".into() },
         place.uncertainty_m.map(|u| format!("{:.0}", u.ceil())).unwrap_or_default(),
-        generalised.unwrap_or_default().to_owned(),
-        "the walk's GPS track is not published".to_owned(),
+        generalizations,
+        withheld,
     ]
 }
 
@@ -157,8 +219,7 @@ pub fn incidental_event(occurrence_id: &str, event_date: &str) -> Vec<String> {
 
 /// Absence occurrences (as Occurrence-term rows) for the groups an all-finds walk did
 /// not find; none for a walk that did not promise every find.
-pub fn absences(stored: &StoredWalk, found: Found) -> Vec<Vec<String>> {
-    let walk = &stored.walk;
+pub fn absences(walk: &WalkSubmission, found: Found) -> Vec<Vec<String>> {
     if !walk.all_finds_reported {
         return Vec::new();
     }

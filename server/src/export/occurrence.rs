@@ -1,10 +1,11 @@
 //! One stored organism turned into the values an export writes: names matched on the
-//! checklist, the position generalised for the audience, links made absolute.
+//! checklist at any rank, the position generalised for the audience, links made
+//! absolute, and the organism's identification history.
 
 use std::collections::BTreeMap;
 
-use crate::assess::taxa::{TaxonFilter, TaxonIndex};
-use crate::store::occurrences::{LengthRow, OccurrenceRow};
+use crate::assess::taxa::{NamedTaxon, TaxonFilter, TaxonIndex};
+use crate::store::occurrences::{IdentificationRow, LengthRow, OccurrenceRow};
 
 use super::generalise::{PublicPlace, as_recorded, public_place};
 
@@ -30,10 +31,11 @@ pub struct Occurrence {
     pub review_state: &'static str,
     /// The survey walk the record was made on, if any (its client id).
     pub walk_client_id: Option<String>,
-    /// The walk target group the taxon belongs to; `None` when it cannot be placed.
-    pub group: Option<super::events::TargetGroup>,
     /// Darwin Core `eventDate`, as in `dwc`.
     pub event_date: String,
+    /// One row per identification, current and superseded, in
+    /// [`super::terms::IDENTIFICATION_TERMS`] order.
+    pub identifications: Vec<Vec<String>>,
 }
 
 /// What an export did, for the command line and the archive's metadata.
@@ -44,6 +46,8 @@ pub struct ExportSummary {
     pub withheld: u64,
     /// Lengths written to the archive's MeasurementOrFact extension (archives only).
     pub measurements: u64,
+    /// Rows of the archive's Identification extension (archives only).
+    pub identifications: u64,
     /// Identifications the checklist does not list, with their counts (at most
     /// [`MAX_NAMES_SHOWN`] names; the rest are counted in `other_unmatched`).
     pub unmatched: BTreeMap<String, u64>,
@@ -66,6 +70,9 @@ impl ExportSummary {
         )];
         if self.measurements > 0 {
             notes.push(format!("{} lengths, in the MeasurementOrFact extension.", self.measurements));
+        }
+        if self.identifications > 0 {
+            notes.push(format!("{} identifications, current and superseded, in the Identification extension.", self.identifications));
         }
         if self.events > 0 {
             notes.push(format!(
@@ -106,50 +113,47 @@ pub struct Builder<'a> {
     pub summary: ExportSummary,
 }
 
+/// A stored identification in Darwin Core terms.
+struct Named<'a> {
+    /// The checklist taxon, at any rank, when the name is on the checklist.
+    taxon: Option<&'a NamedTaxon>,
+    /// `scientificName` and `taxonRank`: the checklist's, else as stored when a rank was
+    /// stored with it (the key or a reviewer), else empty (a free-text guess).
+    scientific_name: String,
+    rank: String,
+}
+
 impl Builder<'_> {
     /// The occurrence for `row`, or `None` when the taxon filter leaves it out.
     pub fn build(&mut self, row: &OccurrenceRow) -> Option<Occurrence> {
-        let guess = row.identification.as_ref().map(|i| i.taxon_name.as_str());
-        let taxon = guess.and_then(|g| self.names.resolve(g));
-        // An identification stopped at a genus, family, order or superorder of the checklist.
-        let higher = if taxon.is_none() { guess.and_then(|g| self.names.filter(g)) } else { None };
-        let members = |h: &TaxonFilter| self.names.checklist().taxa().iter().filter(|t| h.contains(t)).collect::<Vec<_>>();
-        let higher_members = higher.as_ref().map(members).unwrap_or_default();
-        if let Some(filter) = self.taxon {
-            let wanted = match (taxon, &higher) {
-                (Some(t), _) => filter.contains(t),
-                (None, Some(h)) => h.rank <= filter.rank && higher_members.first().is_some_and(|t| filter.contains(t)),
-                (None, None) => false,
-            };
-            if !wanted {
-                return None;
-            }
+        let names = self.names;
+        let named = row.identification.as_ref().map(|i| name_of(names, i));
+        let taxon = named.as_ref().and_then(|n| n.taxon);
+        if let Some(filter) = self.taxon
+            && !taxon.is_some_and(|t| filter.contains_named(t, self.names.checklist()))
+        {
+            return None;
         }
         let position = row.latitude.zip(row.longitude);
-        // A higher taxon is generalised as its most sensitive species would be.
-        let sensitivity = taxon.map(|t| t.sensitivity).or_else(|| higher.as_ref().map(|_| strictest(&higher_members)));
-        let place = match (self.audience, sensitivity) {
-            (Audience::Public, Some(sensitivity)) => public_place(position, row.accuracy_m, sensitivity),
+        let place = match (self.audience, taxon) {
+            (Audience::Public, Some(t)) => public_place(position, row.accuracy_m, t.sensitivity),
             _ => as_recorded(position, row.accuracy_m),
         };
-        self.count(guess, taxon.is_some() || higher.is_some(), &place);
-        let named = taxon.map(|t| (t.scientific_name.as_str(), t.taxon_rank)).or(higher.as_ref().map(|h| (h.name.as_str(), h.rank)));
-        Some(self.occurrence(row, taxon.or(higher_members.first().copied()), named, place))
+        self.count(row.identification.as_ref(), taxon.is_some(), &place);
+        Some(self.occurrence(row, named, place))
     }
 
-    fn count(&mut self, guess: Option<&str>, matched: bool, place: &PublicPlace) {
+    fn count(&mut self, identification: Option<&IdentificationRow>, matched: bool, place: &PublicPlace) {
         self.summary.records += 1;
         if place.generalizations.is_some() {
             if place.position.is_some() { self.summary.generalised += 1 } else { self.summary.withheld += 1 }
         }
-        if let (Some(name), false) = (guess, matched) {
-            self.summary.note_unmatched(name);
+        if let (Some(i), false) = (identification, matched) {
+            self.summary.note_unmatched(&i.taxon_name);
         }
     }
 
-    /// `taxon` places the record in a walk target group (for a higher taxon, one of its
-    /// species); `named` is the checklist name and rank it is identified to.
-    fn occurrence(&self, row: &OccurrenceRow, taxon: Option<&species_key::Taxon>, named: Option<(&str, species_key::TaxonRank)>, place: PublicPlace) -> Occurrence {
+    fn occurrence(&self, row: &OccurrenceRow, named: Option<Named>, place: PublicPlace) -> Occurrence {
         let identification = row.identification.as_ref();
         let text = |v: Option<&str>| v.unwrap_or_default().to_owned();
         let media: Vec<String> = row.photo_hashes.iter().map(|h| format!("{}/photos/{h}", self.base_url)).collect();
@@ -157,12 +161,10 @@ impl Builder<'_> {
             Some((lat, lon)) => (format!("{lat:.*}", place.decimals), format!("{lon:.*}", place.decimals)),
             None => (String::new(), String::new()),
         };
-        let remarks = if place.hide_media_and_remarks { String::new() } else { text(row.notes.as_deref()) };
-        let identification_remarks = match (identification, named) {
-            (Some(i), Some(_)) => i.remarks.clone().unwrap_or_else(|| i.basis.clone()),
-            (Some(i), None) => format!("{}; the name is not on the checklist, so the location is not generalised", i.basis),
-            (None, _) => String::new(),
-        };
+        let hide = place.hide_media_and_remarks;
+        let remarks = if hide { String::new() } else { text(row.notes.as_deref()) };
+        let matched = named.as_ref().is_some_and(|n| n.taxon.is_some());
+        let (scientific_name, rank) = named.map(|n| (n.scientific_name, n.rank)).unwrap_or_default();
         let dwc = vec![
             format!("urn:uuid:{}", row.client_id),
             "HumanObservation".into(),
@@ -172,21 +174,24 @@ impl Builder<'_> {
             if place.position.is_some() { "EPSG:4326".into() } else { String::new() },
             place.uncertainty_m.map(|u| format!("{:.0}", u.ceil())).unwrap_or_default(),
             "Animalia".into(),
-            named.map(|(name, _)| name.to_owned()).unwrap_or_default(),
-            named.map(|(_, rank)| rank_code(rank).to_owned()).unwrap_or_default(),
+            scientific_name,
+            rank,
             text(row.species_guess.as_deref().or(identification.map(|i| i.taxon_name.as_str()))),
             text(identification.and_then(|i| i.identified_by.as_deref())),
             text(identification.map(|i| i.identified_at.as_str())),
-            identification_remarks,
+            identification.map(|i| identification_remarks(i, matched, hide)).unwrap_or_default(),
             row.review_state.label().into(),
             row.count.to_string(),
             row.sex.dwc().into(),
+            row.life_stage.map(|s| s.dwc()).unwrap_or_default().into(),
             row.condition.vitality().into(),
-            // The 2026 TDWG vocabulary for occurrenceStatus: `detected` / `notDetected`.
+            // Darwin Core occurrenceStatus as revised in 2025-2026 (tdwg/dwc #546, #699):
+            // `detected` / `notDetected`, replacing `present` / `absent`. See DEVELOPERS.md.
             "detected".into(),
-            text(row.observer_name.as_deref()),
+            // Darwin Core recordedBy: a list, " | " between, the primary observer first.
+            row.observer_names.join(" | "),
             remarks,
-            if place.hide_media_and_remarks { String::new() } else { media.join(" | ") },
+            if hide { String::new() } else { media.join(" | ") },
             format!("organism-{}", row.organism_id),
             place.generalizations.clone().unwrap_or_default(),
             place.withheld.clone().unwrap_or_default(),
@@ -202,10 +207,59 @@ impl Builder<'_> {
             human_signs: row.human_signs.iter().map(|s| s.label()).collect::<Vec<_>>().join(" | "),
             review_state: row.review_state.label(),
             walk_client_id: row.walk_client_id.clone(),
-            group: taxon.and_then(super::events::group_of),
             event_date: event_date(row),
+            identifications: row.identifications.iter().map(|i| self.history_row(row, i, hide)).collect(),
         }
     }
+
+    /// One identification as a row of the identification-history extension.
+    fn history_row(&self, organism: &OccurrenceRow, identification: &IdentificationRow, hide: bool) -> Vec<String> {
+        let named = name_of(self.names, identification);
+        let status = if !identification.current {
+            "superseded"
+        } else if identification.report == organism.client_id {
+            organism.review_state.label()
+        } else {
+            // The current identification of a report merged into this organism.
+            "merged"
+        };
+        vec![
+            format!("urn:uuid:{}#identification-{}", identification.report, identification.id),
+            named.scientific_name,
+            named.rank,
+            identification.taxon_name.clone(),
+            identification.identified_by.clone().unwrap_or_default(),
+            identification.identified_at.clone(),
+            identification_remarks(identification, named.taxon.is_some(), hide),
+            status.to_owned(),
+        ]
+    }
+}
+
+/// A stored identification's name on the checklist, at any rank.
+fn name_of<'n>(names: &'n TaxonIndex, identification: &IdentificationRow) -> Named<'n> {
+    match names.named(&identification.taxon_name) {
+        Some(taxon) => Named { taxon: Some(taxon), scientific_name: taxon.scientific_name.clone(), rank: rank_code(taxon.rank).to_owned() },
+        None => match &identification.taxon_rank {
+            Some(rank) => Named { taxon: None, scientific_name: identification.taxon_name.clone(), rank: rank.clone() },
+            None => Named { taxon: None, scientific_name: String::new(), rank: String::new() },
+        },
+    }
+}
+
+/// Darwin Core `identificationRemarks`: how the identification was made, then its remark
+/// (left out where a sensitive record's free text is withheld), then a warning when the
+/// name is not on the checklist.
+fn identification_remarks(identification: &IdentificationRow, matched: bool, hide_free_text: bool) -> String {
+    let mut remarks = identification.basis.clone();
+    if let Some(remark) = identification.remarks.as_deref().filter(|r| !hide_free_text && !r.is_empty()) {
+        remarks.push_str("; ");
+        remarks.push_str(remark);
+    }
+    if !matched {
+        remarks.push_str("; the name is not on the checklist, so the location is not generalised");
+    }
+    remarks
 }
 
 /// One observation: its time with the observer's offset. Several (after a merge) that
@@ -216,19 +270,6 @@ fn event_date(row: &OccurrenceRow) -> String {
     } else {
         row.observed_at.clone()
     }
-}
-
-/// The strictest generalisation among `members` (withholding, then the coarsest grid).
-fn strictest(members: &[&species_key::Taxon]) -> species_key::Sensitivity {
-    use species_key::Sensitivity;
-    let strictness = |s: Sensitivity| match s {
-        Sensitivity::None => 0,
-        Sensitivity::ThousandthDegree => 1,
-        Sensitivity::HundredthDegree => 2,
-        Sensitivity::TenthDegree => 3,
-        Sensitivity::Withhold => 4,
-    };
-    members.iter().map(|t| t.sensitivity).max_by_key(|s| strictness(*s)).unwrap_or(Sensitivity::None)
 }
 
 fn rank_code(rank: species_key::TaxonRank) -> &'static str {

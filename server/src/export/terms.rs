@@ -27,6 +27,7 @@ pub const OCCURRENCE_TERMS: &[&str] = &[
     "identificationVerificationStatus",
     "individualCount",
     "sex",
+    "lifeStage",
     "vitality",
     "occurrenceStatus",
     "recordedBy",
@@ -66,6 +67,41 @@ pub const EVENT_CORE: Table = Table { row_type: "http://rs.tdwg.org/dwc/terms/Ev
 
 /// Occurrences as an extension of their event: column 0 is the event's id.
 pub const OCCURRENCE_EXTENSION: Table = Table { row_type: "http://rs.tdwg.org/dwc/terms/Occurrence", file: "occurrence.txt", terms: OCCURRENCE_TERMS };
+
+/// The identification history (TDWG Darwin Core Identification class; GBIF's
+/// identification-history extension uses the same row type): one row per identification
+/// of the organism, current and superseded, after the core id column.
+pub const IDENTIFICATION_TERMS: &[&str] = &[
+    "identificationID",
+    "scientificName",
+    "taxonRank",
+    "verbatimIdentification",
+    "identifiedBy",
+    "dateIdentified",
+    "identificationRemarks",
+    "identificationVerificationStatus",
+];
+
+/// Identifications: column 0 is the occurrence's id (the core id).
+pub const IDENTIFICATION_EXTENSION: Table =
+    Table { row_type: "http://rs.tdwg.org/dwc/terms/Identification", file: "identification.txt", terms: IDENTIFICATION_TERMS };
+
+/// Identification terms with the occurrence they identify, for an event-core archive.
+pub const EVENT_IDENTIFICATION_TERMS: &[&str] = &[
+    "occurrenceID",
+    "identificationID",
+    "scientificName",
+    "taxonRank",
+    "verbatimIdentification",
+    "identifiedBy",
+    "dateIdentified",
+    "identificationRemarks",
+    "identificationVerificationStatus",
+];
+
+/// Identifications in an event-core archive: column 0 is the event's id, `occurrenceID` names the animal.
+pub const EVENT_IDENTIFICATION_EXTENSION: Table =
+    Table { row_type: "http://rs.tdwg.org/dwc/terms/Identification", file: "identification.txt", terms: EVENT_IDENTIFICATION_TERMS };
 
 /// MeasurementOrFact terms with the occurrence they measure, for an event-core archive.
 pub const EVENT_MEASUREMENT_TERMS: &[&str] =

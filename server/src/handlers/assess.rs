@@ -50,7 +50,7 @@ async fn stored_records(state: &AppState, query: &FigureQuery) -> Result<(Vec<cr
     let values: Vec<String> = query.state.as_deref().unwrap_or("confirmed").split(',').map(str::to_owned).collect();
     let states = parse_states(&values).map_err(ApiError::BadRequest)?;
     let used = describe_states(&states);
-    let records = state.store.run(move |conn| read_store(conn, states)).await?;
+    let records = state.store.read(move |conn| read_store(conn, states)).await?;
     Ok((records, used))
 }
 
@@ -135,7 +135,7 @@ async fn trend_of(state: &AppState, query: &FigureQuery) -> Result<TrendReport, 
     let names = &*state.taxa;
     let generation = generation_length(query.generation_length, taxon.as_ref(), names).map_err(|err| ApiError::BadRequest(err.to_string()))?;
     let (records, records_used) = stored_records(state, query).await?;
-    let walks = state.store.run(|conn| crate::store::walks::list_walks(conn)).await?;
+    let walks = state.store.read(crate::store::walks::list_walks).await?;
     let unit = query.effort.unwrap_or_default();
     let (years, counts, notes) = stored_trend_input(&records, &walks, taxon.as_ref(), names, unit);
     trend_report(years, counts, generation, records_used, notes).map_err(|err| ApiError::BadRequest(err.to_string()))

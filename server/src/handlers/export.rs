@@ -1,13 +1,16 @@
 //! `GET /api/export?format=csv|dwca|geojson`: the same exports the command line writes,
 //! streamed to the client as they are made.
 //!
-//! Only the public form is served: sensitive species are generalised. Full exports need
-//! a signed-in assessor, and sign-in arrives with a later issue; until then they are
-//! made with `wrackline export --full` on the server itself.
+//! Anyone gets the public form (sensitive species generalised); `audience=full` (positions
+//! as recorded) is for a signed-in reviewer or admin only, as `wrackline export --full` is
+//! on the server itself. The archive states the licence `WRACKLINE_LICENCE` names.
+//!
+//! The export runs on a read-only connection of its own ([`crate::store::Store::read`]):
+//! it blocks while the client reads slowly, and must not hold up submissions meanwhile.
 //!
 //! Filters: `taxon` (a checklist name), `from` and `to` (YYYY-MM-DD, UTC days), `bbox`
-//! (`SOUTH,WEST,NORTH,EAST`), `state` (review-state codes separated by commas, or `any`;
-//! default any).
+//! (`SOUTH,WEST,NORTH,EAST`; WEST > EAST crosses the antimeridian), `state` (review-state
+//! codes separated by commas, or `any`; default any).
 
 use std::io::Write;
 
@@ -46,6 +49,7 @@ pub struct ExportQuery {
 pub async fn export(State(state): State<AppState>, caller: Caller, headers: HeaderMap, Query(query): Query<ExportQuery>) -> Result<Response, ApiError> {
     let host = headers.get(header::HOST).and_then(|h| h.to_str().ok()).unwrap_or("127.0.0.1:8080");
     let mut request = read_request(&query, format!("http://{host}"), &state.taxa)?;
+    request.licence = export::Licence::from_env().map_err(|problem| ApiError::Internal(anyhow::anyhow!(problem)))?;
     if query.audience.as_deref() == Some("full") {
         let staff = caller.person.as_ref().is_some_and(|p| matches!(p.role, shared_types::Role::Reviewer | shared_types::Role::Admin));
         if !staff {
@@ -60,7 +64,7 @@ pub async fn export(State(state): State<AppState>, caller: Caller, headers: Head
     tokio::spawn(async move {
         let failed = sender.clone();
         let outcome = store
-            .run(move |conn| {
+            .read(move |conn| {
                 let mut out = ChannelWriter { sender, buffer: Vec::with_capacity(CHUNK) };
                 let result = export::write_export(conn, &taxa, &request, &mut out, &mut || {}).and_then(|summary| {
                     out.flush()?;
@@ -109,6 +113,7 @@ fn read_request(query: &ExportQuery, base_url: String, taxa: &TaxonIndex) -> Res
         filter: RowFilter { states, from_utc, until_utc, bbox },
         taxon,
         base_url,
+        licence: export::Licence::default(),
     })
 }
 

@@ -91,6 +91,7 @@ pub fn parse_submission(json: &[u8], now: DateTime<Utc>) -> Result<Submission, I
             shared_types::SubmissionProblem::RepeatedSign(_) => "human_signs".into(),
             shared_types::SubmissionProblem::UnknownRank(_) => "key_choice.taxon_rank".into(),
             shared_types::SubmissionProblem::BadProbability(_) => "key_choice.probability".into(),
+            shared_types::SubmissionProblem::LengthOfEggCase => "length".into(),
         },
         message: problem.to_string(),
     })?;

@@ -20,6 +20,7 @@ const MIGRATIONS: &[(&str, &str)] = &[
     ("0008_duplicates", include_str!("../../../migrations/0008_duplicates.sql")),
     ("0009_photo_reading_per_field", include_str!("../../../migrations/0009_photo_reading_per_field.sql")),
     ("0010_duplicate_moves", include_str!("../../../migrations/0010_duplicate_moves.sql")),
+    ("0011_life_stage", include_str!("../../../migrations/0011_life_stage.sql")),
 ];
 
 pub(super) fn apply(conn: &mut Connection) -> Result<(), StoreError> {

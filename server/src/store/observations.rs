@@ -115,8 +115,8 @@ fn insert_observation_row(tx: &Transaction, new: &NewObservation, organism_id: i
     tx.execute(
         "INSERT INTO observations (client_id, content_sha256, organism_id, observed_at, observed_at_utc,
             latitude, longitude, accuracy_m, position_source, count, condition, setting, sex, notes,
-            observer_name, review_state, submission_json, received_at, walk_client_id, observer_id)
-         VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, ?12, ?13, ?14, ?15, ?16, ?17, ?18, ?19, ?20)",
+            observer_name, review_state, submission_json, received_at, walk_client_id, observer_id, life_stage)
+         VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, ?12, ?13, ?14, ?15, ?16, ?17, ?18, ?19, ?20, ?21)",
         params![
             sub.client_id.to_string(),
             new.content_sha256,
@@ -138,6 +138,7 @@ fn insert_observation_row(tx: &Transaction, new: &NewObservation, organism_id: i
             received_at,
             sub.walk_client_id.map(|id| id.to_string()),
             new.observer_id,
+            sub.life_stage.as_ref().map(code),
         ],
     )?;
     Ok(tx.last_insert_rowid())

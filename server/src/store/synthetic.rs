@@ -1,6 +1,8 @@
-//! Invented records in bulk, for benchmarks: many organisms with an identification, a
-//! length, signs and shared photos, written straight into the tables in one transaction.
-//! Nothing here runs in the server; the export benchmark fills a scratch database with it.
+//! Invented records in bulk, for benchmarks and load tests: many organisms with an
+//! identification, a length, signs and shared photos, and survey walks that half of them
+//! were found on (so archives take the Event-core path, with absences), written straight
+//! into the tables in one transaction. Nothing here runs in the server; the export
+//! benchmark fills a scratch database with it.
 
 use rusqlite::{Connection, params};
 
@@ -9,7 +11,11 @@ use super::StoreError;
 /// Guesses the records carry, some of them of sensitive species in the demo checklist.
 const GUESSES: &[&str] = &["small-spotted catshark", "thornback ray", "tope", "angelshark", "blonde ray", "spurdog", "flapper skate", "some ray"];
 
-/// Writes `count` invented organisms, one observation each, around Cardigan Bay.
+/// Records per invented survey walk; every other record of each run is found on it.
+pub const RECORDS_PER_WALK: u64 = 40;
+
+/// Writes `count` invented organisms, one observation each, around Cardigan Bay, and one
+/// survey walk for every [`RECORDS_PER_WALK`] of them.
 pub fn fill(conn: &mut Connection, count: u64) -> Result<(), StoreError> {
     let tx = conn.transaction()?;
     tx.execute(
@@ -33,6 +39,12 @@ pub fn fill(conn: &mut Connection, count: u64) -> Result<(), StoreError> {
         )?;
         let mut sign = tx.prepare("INSERT INTO human_signs (observation_id, sign) VALUES (?1, 'hook')")?;
         let mut photo = tx.prepare("INSERT INTO observation_photos (observation_id, photo_sha256, position) VALUES (?1, ?2, 0)")?;
+        let mut walk = tx.prepare(
+            "INSERT INTO walks (client_id, started_at, ended_at, all_finds_reported, distance_m, received_at, content_sha256,
+                submission_json, stretch, observer_name, duration_s, distance_source)
+             VALUES (?1, ?2, ?3, ?4, ?5, '2026-01-01T00:00:00Z', '', ?6, 'Invented Strand', 'Bench Observer', 5400, 'track')",
+        )?;
+        let mut on_walk = tx.prepare("UPDATE observations SET walk_client_id = ?1 WHERE id = ?2")?;
         let zero_hash = "0".repeat(64);
         let mut state: u64 = 0x2545_f491_4f6c_dd1d;
         for id in 1..=count as i64 {
@@ -55,6 +67,25 @@ pub fn fill(conn: &mut Connection, count: u64) -> Result<(), StoreError> {
                 5.0 + 50.0 * unit(4),
             ])?;
             identification.execute(params![id, GUESSES[(state >> 40) as usize % GUESSES.len()]])?;
+            let run = (id as u64 - 1) / RECORDS_PER_WALK;
+            if (id as u64 - 1).is_multiple_of(RECORDS_PER_WALK) {
+                let day = format!("{year}-{month:02}-{day:02}");
+                let (lat, lon) = (52.0 + 0.5 * unit(20), -4.6 + 0.6 * unit(36));
+                let invented = invented_walk(run, &day, (lat, lon));
+                let json = serde_json::to_string(&invented).map_err(|err| StoreError::Corrupt(err.to_string()))?;
+                let effort = invented.effort();
+                walk.execute(params![
+                    walk_id(run),
+                    invented.started_at.to_rfc3339(),
+                    invented.ended_at.to_rfc3339(),
+                    invented.all_finds_reported,
+                    effort.distance_m,
+                    json,
+                ])?;
+            }
+            if id % 2 == 0 {
+                on_walk.execute(params![walk_id(run), id])?;
+            }
             length.execute(params![id, 30.0 + 150.0 * unit(44)])?;
             if id % 4 == 0 {
                 sign.execute([id])?;
@@ -66,4 +97,32 @@ pub fn fill(conn: &mut Connection, count: u64) -> Result<(), StoreError> {
     }
     tx.commit()?;
     Ok(())
+}
+
+fn walk_id(run: u64) -> String {
+    format!("00000000-0000-4000-9000-{run:012}")
+}
+
+/// An invented walk of 1.5 hours on `day` with five fixes northwards from `start`; two
+/// walks in three promise every find.
+fn invented_walk(run: u64, day: &str, (lat, lon): (f64, f64)) -> shared_types::WalkSubmission {
+    let at = |minutes: u32| chrono::DateTime::parse_from_rfc3339(&format!("{day}T09:{minutes:02}:00+00:00")).expect("an invented time");
+    let track = (0..5)
+        .map(|i| shared_types::TrackPoint {
+            latitude: shared_types::Latitude::parse(lat + 0.002 * f64::from(i)).expect("an invented latitude"),
+            longitude: shared_types::Longitude::parse(lon).expect("an invented longitude"),
+            accuracy_m: shared_types::AccuracyM::parse(6.0).ok(),
+            at: at(10 * i),
+        })
+        .collect();
+    shared_types::WalkSubmission {
+        client_id: uuid::Uuid::parse_str(&walk_id(run)).expect("an invented id"),
+        started_at: at(0),
+        ended_at: at(0) + chrono::Duration::minutes(90),
+        stretch: shared_types::Text::parse("Invented Strand").ok(),
+        all_finds_reported: !run.is_multiple_of(3),
+        track,
+        typed_distance_m: None,
+        observer_name: shared_types::Text::parse("Bench Observer").ok(),
+    }
 }

@@ -87,6 +87,18 @@ pub fn list_walks(conn: &Connection) -> Result<Vec<StoredWalk>, StoreError> {
         .collect()
 }
 
+/// Calls `each` with every walk, earliest first, one at a time (for exports: no record
+/// lists, so memory stays flat however many walks there are).
+pub fn for_each_walk(conn: &Connection, mut each: impl FnMut(WalkSubmission)) -> Result<(), StoreError> {
+    let mut stmt = conn.prepare("SELECT id, submission_json FROM walks WHERE submission_json IS NOT NULL ORDER BY started_at, id")?;
+    let mut rows = stmt.query([])?;
+    while let Some(row) = rows.next()? {
+        let (walk_id, json): (i64, String) = (row.get(0)?, row.get(1)?);
+        each(serde_json::from_str(&json).map_err(|err| StoreError::Corrupt(format!("walk {walk_id}: {err}")))?);
+    }
+    Ok(())
+}
+
 fn records_on(conn: &Connection, walk: Uuid) -> Result<Vec<Uuid>, StoreError> {
     let mut stmt = conn.prepare("SELECT client_id FROM observations WHERE walk_client_id = ?1 ORDER BY observed_at_utc")?;
     let ids = stmt.query_map([walk.to_string()], |row| row.get::<_, String>(0))?.collect::<Result<Vec<_>, _>>()?;

@@ -10,6 +10,14 @@ use serde_json::{Value, json};
 use crate::helpers::{TestApp, plain_jpeg, spawn_app, submission};
 use crate::python::{run_script, terms_extract};
 
+// The audit's cases, one file each under `exports/`.
+mod higher_taxa;
+mod history;
+mod life_stage;
+mod merged;
+mod slow_client;
+mod walks;
+
 const DWC: &str = "http://rs.tdwg.org/dwc/terms/";
 const CATSHARK: &str = "1b2c3d4e-0000-4000-8000-000000000001";
 const ANGELSHARK: &str = "1b2c3d4e-0000-4000-8000-000000000002";
@@ -56,9 +64,10 @@ async fn the_archive_reads_back_with_python_dwca_reader_and_uses_only_tdwg_terms
     let archive = run_script("read_dwca.py", &[&zip, &terms_extract()]);
     // TDWG Darwin Core Text Guide: one core, extensions linked by coreid.
     assert_eq!(archive["core_row_type"], format!("{DWC}Occurrence"));
-    assert_eq!(archive["extension_row_types"], json!([format!("{DWC}MeasurementOrFact")]));
+    assert_eq!(archive["extension_row_types"], json!([format!("{DWC}MeasurementOrFact"), format!("{DWC}Identification")]));
     assert_eq!(archive["unknown_terms"], json!([]), "every term is in the TDWG term list");
     assert_eq!(archive["orphaned_extension_rows"]["measurementorfact.txt"], 0);
+    assert_eq!(archive["orphaned_extension_rows"]["identification.txt"], 0);
     assert_eq!(archive["rows"].as_array().unwrap().len(), 3, "one row per organism");
     // GBIF metadata profile: packageId, scope="system", system; title, creator, pubDate, abstract, contact.
     let eml = &archive["metadata"];
@@ -69,6 +78,10 @@ async fn the_archive_reads_back_with_python_dwca_reader_and_uses_only_tdwg_terms
         assert!(!eml[field].as_str().unwrap().is_empty(), "eml {field}");
     }
     assert!(eml["abstract"].as_str().unwrap().contains("some kind of skate (1)"), "unmatched names are reported");
+    // GBIF metadata profile: intellectualRights with a ulink to the licence; CC BY 4.0 by default.
+    assert_eq!(eml["licence_url"], "http://creativecommons.org/licenses/by/4.0/legalcode");
+    // TDWG Darwin Core occurrenceStatus (tdwg/dwc #546, #699): the methods say which words are used.
+    assert!(eml["methods"].as_str().unwrap().contains("notDetected"), "{}", eml["methods"]);
 
     let catshark = row(&archive, CATSHARK);
     assert_eq!(term(catshark, "scientificName"), "Scyliorhinus canicula");
@@ -81,7 +94,7 @@ async fn the_archive_reads_back_with_python_dwca_reader_and_uses_only_tdwg_terms
     assert_eq!(term(catshark, "vitality"), "dead");
     assert!(term(catshark, "associatedMedia").starts_with(&format!("{}/photos/", app.base)));
     assert!(term(catshark, "organismID").starts_with("organism-"));
-    let lengths = catshark["extensions"].as_array().unwrap();
+    let lengths: Vec<&Value> = catshark["extensions"].as_array().unwrap().iter().filter(|e| e["rowtype"] == format!("{DWC}MeasurementOrFact")).collect();
     assert_eq!(lengths.len(), 1);
     let length = &lengths[0]["data"];
     assert_eq!(length[format!("{DWC}measurementType")], "total length");
@@ -92,7 +105,9 @@ async fn the_archive_reads_back_with_python_dwca_reader_and_uses_only_tdwg_terms
     let unknown = row(&archive, UNKNOWN);
     assert_eq!(term(unknown, "scientificName"), "");
     assert!(term(unknown, "identificationRemarks").contains("not on the checklist"));
-    assert_eq!(unknown["extensions"], json!([]));
+    let unknown_extensions: Vec<&Value> = unknown["extensions"].as_array().unwrap().iter().collect();
+    assert_eq!(unknown_extensions.len(), 1, "no length; its one identification");
+    assert_eq!(unknown_extensions[0]["rowtype"], format!("{DWC}Identification"));
 }
 
 #[tokio::test]
@@ -133,6 +148,20 @@ async fn the_full_export_from_the_command_line_keeps_positions_as_recorded() {
     let notes = String::from_utf8_lossy(&output.stderr);
     assert!(notes.contains("wrote 3 records") && notes.contains("some kind of skate (1)"), "{notes}");
     let archive = run_script("read_dwca.py", &[&out, &terms_extract()]);
+    assert_eq!(archive["metadata"]["licence_url"], "http://creativecommons.org/licenses/by/4.0/legalcode", "CC BY 4.0 unless the operator says otherwise");
+    // The operator's choice, from the environment (GBIF accepts CC0, CC BY and CC BY-NC).
+    let cc0 = app.data_dir.parent().unwrap().join("cc0.zip");
+    let output = Command::new(env!("CARGO_BIN_EXE_wrackline"))
+        .env("WRACKLINE_LICENCE", "cc0")
+        .arg("--data-dir")
+        .arg(&app.data_dir)
+        .args(["export", "--format", "dwca", "--out"])
+        .arg(&cc0)
+        .output()
+        .unwrap();
+    assert!(output.status.success(), "{}", String::from_utf8_lossy(&output.stderr));
+    let archive_cc0 = run_script("read_dwca.py", &[&cc0, &terms_extract()]);
+    assert_eq!(archive_cc0["metadata"]["licence_url"], "http://creativecommons.org/publicdomain/zero/1.0/legalcode");
     let angel = row(&archive, ANGELSHARK);
     assert_eq!(term(angel, "decimalLatitude"), "52.346700");
     assert_eq!(term(angel, "coordinateUncertaintyInMeters"), "10");
@@ -273,7 +302,7 @@ async fn post_walk(app: &TestApp, id: &str, all_finds: bool, track: bool) {
     assert_eq!(response.status(), 200, "{}", response.text().await.unwrap());
 }
 
-fn extension_rows<'a>(event: &'a Value) -> Vec<&'a Value> {
+fn extension_rows(event: &Value) -> Vec<&Value> {
     event["extensions"].as_array().unwrap().iter().filter(|e| e["rowtype"] == format!("{DWC}Occurrence")).collect()
 }
 

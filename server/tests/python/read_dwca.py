@@ -31,6 +31,7 @@ def metadata(reader):
     root = eml
     dataset = root.find("dataset")
     text = lambda path: (dataset.findtext(path) or "").strip() if dataset is not None else ""
+    licence = dataset.find("intellectualRights/para/ulink") if dataset is not None else None
     return {
         "packageId": root.get("packageId"),
         "scope": root.get("scope"),
@@ -40,6 +41,8 @@ def metadata(reader):
         "pubDate": text("pubDate"),
         "abstract": " ".join(p.text or "" for p in dataset.findall("abstract/para")) if dataset is not None else "",
         "contact": text("contact/organizationName"),
+        "licence_url": licence.get("url") if licence is not None else None,
+        "methods": " ".join(p.text or "" for p in dataset.findall("methods/methodStep/description/para")) if dataset is not None else "",
     }
 
 
