@@ -18,6 +18,7 @@ const MIGRATIONS: &[(&str, &str)] = &[
     ("0006_walk_details", include_str!("../../../migrations/0006_walk_details.sql")),
     ("0007_people_and_review", include_str!("../../../migrations/0007_people_and_review.sql")),
     ("0008_duplicates", include_str!("../../../migrations/0008_duplicates.sql")),
+    ("0011_review_reasons_and_people_audit", include_str!("../../../migrations/0011_review_reasons_and_people_audit.sql")),
 ];
 
 pub(super) fn apply(conn: &mut Connection) -> Result<(), StoreError> {

@@ -12,6 +12,7 @@ mod flags;
 mod helpers;
 mod hostile;
 mod photo_flags;
+mod people;
 mod pictures;
 mod python;
 mod review;
