@@ -41,7 +41,7 @@ pub fn exec(mut command: Command) -> Result<()> {
 }
 
 /// The browser test files, run in this order.
-const BROWSER_TESTS: &[&str] = &["offline_capture.test.mjs", "photos.test.mjs", "species_key.test.mjs", "walks.test.mjs", "review_round_trip.test.mjs", "figures.test.mjs"];
+const BROWSER_TESTS: &[&str] = &["offline_capture.test.mjs", "photos.test.mjs", "species_key.test.mjs", "walks.test.mjs", "review_round_trip.test.mjs", "review_screens.test.mjs", "figures.test.mjs"];
 
 /// `node` with what the browser tests and scripts need to find: the real server
 /// binary, the built app and the demo files.
