@@ -344,7 +344,7 @@ pub fn RecordForm(outbox: Outbox) -> impl IntoView {
                 }
             };
             let waiting = state == SyncState::Waiting;
-            let entry = Entry { submission, sync: state, photo_count: blobs.len(), last_error: None, walk_link_pending: None };
+            let entry = Entry { submission, sync: state, photo_count: blobs.len(), last_error: None, walk_link_pending: None, walk_linked: None };
             match outbox::save(&entry, Some(&blobs)).await {
                 Ok(()) => {
                     identity::remember_observer_name(&fields.with_untracked(|f| f.observer_name.clone()));

@@ -1,15 +1,17 @@
 //! "My records": the observer's own records as the server last told this phone —
 //! review state, current identification and reviewers' messages — readable offline,
 //! and answers to reviewers (a message and photos) kept in the outbox until sent.
+//! Photos in an answer take the same path as a record's (`photos::pick`): EXIF read
+//! from the original on the phone, only the upload copy kept and sent, the reading sent
+//! beside it as data.
 
 use leptos::prelude::*;
 use serde::{Deserialize, Serialize};
 use shared_types::{MyRecord, Reply, Role, Text};
 use uuid::Uuid;
-use wasm_bindgen::JsCast;
-
 use crate::device::{self, Store};
 use crate::identity;
+use crate::photos::{self, PickedPhoto};
 use crate::sync::{self, Outbox};
 
 const MY_RECORDS_KEY: &str = "wrackline.my-records";
@@ -128,27 +130,46 @@ fn MyRecordItem(record: MyRecord, outbox: Outbox) -> impl IntoView {
         .unwrap_or_else(|| "unnamed animal".into());
     let when = record.record.submission.observed_at.format("%Y-%m-%d").to_string();
     let answer = RwSignal::new(String::new());
-    let photos = RwSignal::new_local(Vec::<web_sys::File>::new());
+    let picked = RwSignal::new_local(Vec::<PickedPhoto>::new());
     let note = RwSignal::new(String::new());
     let pending = move || outbox.replies.with(|r| r.iter().filter(|e| e.record_client_id == client_id && e.state == ReplyState::Waiting).count());
+    let add_photos = move |ev: leptos::ev::Event| {
+        let input: web_sys::HtmlInputElement = event_target(&ev);
+        let Some(list) = input.files() else { return };
+        let files: Vec<web_sys::File> = (0..list.length()).filter_map(|i| list.item(i)).collect();
+        input.set_value("");
+        leptos::task::spawn_local(async move {
+            let mut refused = Vec::new();
+            for file in files {
+                note.set(format!("preparing “{}”…", file.name()));
+                match photos::pick(file).await {
+                    Ok(photo) => picked.update(|p| p.push(photo)),
+                    Err(reason) => refused.push(reason),
+                }
+            }
+            note.set(refused.join(" "));
+        });
+    };
     let send = move |_| {
         let text = answer.get_untracked();
-        let files = photos.get_untracked();
+        let chosen = picked.get_untracked();
         let Ok(message) = Text::parse(&text) else {
             note.set("That answer is too long.".into());
             return;
         };
-        if message.as_str().is_empty() && files.is_empty() {
+        if message.as_str().is_empty() && chosen.is_empty() {
             note.set("Write an answer or add a photo.".into());
             return;
         }
         leptos::task::spawn_local(async move {
-            let blobs: Vec<web_sys::Blob> = files.iter().map(|f| f.clone().unchecked_into()).collect();
-            let entry = ReplyEntry { record_client_id: client_id, reply: Reply { client_id: Uuid::new_v4(), message }, photo_count: blobs.len(), state: ReplyState::Waiting };
+            let blobs: Vec<web_sys::Blob> = chosen.iter().map(|p| p.upload.clone()).collect();
+            let photo_exif = chosen.iter().map(|p| p.exif.clone()).collect();
+            let reply = Reply { client_id: Uuid::new_v4(), message, photo_exif };
+            let entry = ReplyEntry { record_client_id: client_id, reply, photo_count: blobs.len(), state: ReplyState::Waiting };
             match save_reply(&entry, Some(&blobs)).await {
                 Ok(()) => {
                     answer.set(String::new());
-                    photos.set(Vec::new());
+                    picked.set(Vec::new());
                     note.set("Answer kept on this phone; it goes with the next sync.".into());
                     sync::refresh(outbox).await;
                     sync::request(outbox);
@@ -172,14 +193,14 @@ fn MyRecordItem(record: MyRecord, outbox: Outbox) -> impl IntoView {
                 <summary>"Answer the reviewer"</summary>
                 <textarea class="answer-text" rows="2" prop:value=move || answer.get() on:input=move |ev| answer.set(event_target_value(&ev))></textarea>
                 <label class="button small">"Add photo"
-                    <input class="answer-photo" type="file" accept="image/*" capture="environment" on:change=move |ev| {
-                        let input: web_sys::HtmlInputElement = event_target(&ev);
-                        if let Some(list) = input.files() {
-                            let added: Vec<web_sys::File> = (0..list.length()).filter_map(|i| list.item(i)).collect();
-                            photos.update(|p| p.extend(added));
-                        }
-                    } /></label>
-                <span class="hint">{move || format!("{} photo(s)", photos.with(|p| p.len()))}</span>
+                    <input class="answer-photo" type="file" accept="image/*" capture="environment" multiple on:change=add_photos /></label>
+                <ul class="answer-photos">
+                    {move || picked.get().into_iter().map(|photo| view! {
+                        <li><img class="answer-thumb" src=photo.preview_url.clone() alt=format!("photo: {}", photo.name) />
+                            <span class="hint photo-says">{photos::photo_says(&photo.exif)}</span></li>
+                    }).collect_view()}
+                </ul>
+                <span class="hint">{move || format!("{} photo(s)", picked.with(|p| p.len()))}</span>
                 <button type="button" class="small send-answer" on:click=send>"Send answer"</button>
             </details>
             <p class="hint">{move || note.get()}</p>

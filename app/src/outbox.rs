@@ -61,11 +61,21 @@ pub struct Entry {
     /// A walk to link this record to, chosen after the record reached the server.
     #[serde(default)]
     pub walk_link_pending: Option<uuid::Uuid>,
+    /// The walk the server linked this record to after the fact (the link was sent
+    /// and answered); the submission itself stays as it was sent.
+    #[serde(default)]
+    pub walk_linked: Option<uuid::Uuid>,
 }
 
 impl Entry {
     pub fn id(&self) -> String {
         self.submission.client_id.to_string()
+    }
+
+    /// The walk this record is on or going onto: in its submission, waiting to be
+    /// linked, or linked by the server after the fact.
+    pub fn walk(&self) -> Option<uuid::Uuid> {
+        self.submission.walk_client_id.or(self.walk_link_pending).or(self.walk_linked)
     }
 }
 
@@ -83,7 +93,7 @@ pub async fn load_all() -> Result<Vec<Entry>, String> {
         let entry: Entry = serde_json::from_str(&json).map_err(|err| format!("a stored record could not be read: {err}"))?;
         entries.push(entry);
     }
-    entries.sort_by(|a, b| b.submission.observed_at.cmp(&a.submission.observed_at));
+    entries.sort_by_key(|e| std::cmp::Reverse(e.submission.observed_at));
     Ok(entries)
 }
 

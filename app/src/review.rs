@@ -1,13 +1,21 @@
 //! The reviewers' screens (`#review`): sign in, the queue in the order that matters
-//! with why, a record with everything needed to decide — photos, the device's and the
-//! photos' own time and place, all fields, the key's answers, flags, identification
-//! history, messages and audit trail — and the actions: confirm (at any rank, possibly
-//! changing the species), ask the observer for details, or mark not confirmable.
-//! Admins also get the people screen (`#people`). Needs a connection: review happens
-//! at a desk, and the server decides.
+//! with why — filtered by state, species or higher taxon, area, dates and flag, a page
+//! at a time — and a record with everything needed to decide: photos (tap to open large
+//! and zoom), the device's and the photos' own time and place (the file's EXIF, or the
+//! phone's reading of the original when the upload copy carries none), each photo's
+//! gap and distance from the record with its flags, all fields, the guided key's answers
+//! and its suggestions replayed on the server, flags, identification history, messages
+//! and audit trail — and the actions: confirm (at any rank, possibly changing the
+//! species), ask the observer for details, or mark not confirmable. Admins also get the
+//! people screen (`#people`). Needs a connection: review happens at a desk, and the
+//! server decides.
 
 use leptos::prelude::*;
-use shared_types::{QueueItem, ReviewDetail, Role, SessionInfo};
+use shared_types::codes::code;
+use shared_types::{
+    KeyReplay, PersonEvent, PhotoExif, PhotoFlag, PhotoView, QueueFlag, QueueItem, ReviewDetail, Role, SessionInfo,
+    distance_words, hours_words,
+};
 
 use crate::device;
 
@@ -94,44 +102,143 @@ fn SignIn(role: RwSignal<Option<Role>>) -> impl IntoView {
     }
 }
 
+/// Queue items asked for at a time ("Load more" asks for the next page).
+const PAGE: usize = 50;
+
+/// The queue's filters, as the server reads them (`GET /api/review/queue`).
+#[derive(Debug, Clone, Default, PartialEq)]
+struct Filters {
+    state: String,
+    taxon: String,
+    area: String,
+    from: String,
+    to: String,
+    flag: String,
+}
+
+impl Filters {
+    /// The query string for one page, empty values left out.
+    fn query(&self, offset: usize) -> String {
+        let pairs = [("state", &self.state), ("taxon", &self.taxon), ("area", &self.area), ("from", &self.from), ("to", &self.to), ("flag", &self.flag)];
+        let mut parts: Vec<String> = pairs
+            .iter()
+            .filter(|(_, value)| !value.trim().is_empty())
+            .map(|(name, value)| format!("{name}={}", String::from(js_sys::encode_uri_component(value.trim()))))
+            .collect();
+        // One more than a page tells whether there is more.
+        parts.push(format!("limit={}", PAGE + 1));
+        parts.push(format!("offset={offset}"));
+        parts.join("&")
+    }
+}
+
+/// Names the taxon filter offers: every species (scientific and common names) and every
+/// genus, family, order and superorder of the checklist the app carries.
+fn taxon_names() -> Vec<String> {
+    let key = crate::key::initial_key();
+    let mut names = std::collections::BTreeSet::new();
+    for taxon in key.checklist().taxa() {
+        names.insert(taxon.scientific_name.clone());
+        names.extend(taxon.common_names.iter().cloned());
+        for higher in [&taxon.genus, &taxon.family, &taxon.order, &taxon.superorder] {
+            names.insert(higher.clone());
+        }
+    }
+    names.into_iter().collect()
+}
+
+/// The checklist's areas: (code, name).
+fn areas() -> Vec<(String, String)> {
+    crate::key::initial_key().checklist().areas().iter().map(|a| (a.code.clone(), a.name.clone())).collect()
+}
+
 #[component]
 fn Queue(role: Role, signed_out: impl Fn() + Copy + 'static) -> impl IntoView {
     let items = RwSignal::new(Vec::<QueueItem>::new());
+    let more = RwSignal::new(false);
     let open = RwSignal::new(None::<String>);
-    let state_filter = RwSignal::new(String::new());
+    let filters = RwSignal::new(Filters::default());
     let problem = RwSignal::new(String::new());
-    let reload = move || {
-        let state = state_filter.get_untracked();
+    // Only the newest request's answer is shown (filters may change while one is out).
+    let asked_last = StoredValue::new(0u32);
+    let fetch = move |append: bool| {
+        let asked = filters.get_untracked();
+        let offset = if append { items.with_untracked(|i| i.len()) } else { 0 };
+        let this = asked_last.get_value().wrapping_add(1);
+        asked_last.set_value(this);
         leptos::task::spawn_local(async move {
-            let url = if state.is_empty() { "/api/review/queue".to_owned() } else { format!("/api/review/queue?state={state}") };
-            match call("GET", &url, None).await.and_then(|b| serde_json::from_str::<Vec<QueueItem>>(&b).map_err(|e| e.to_string())) {
-                Ok(list) => items.set(list),
+            let url = format!("/api/review/queue?{}", asked.query(offset));
+            let answer = call("GET", &url, None).await;
+            if asked_last.get_value() != this {
+                return;
+            }
+            match answer.and_then(|b| serde_json::from_str::<Vec<QueueItem>>(&b).map_err(|e| e.to_string())) {
+                Ok(mut page) => {
+                    more.set(page.len() > PAGE);
+                    page.truncate(PAGE);
+                    problem.set(String::new());
+                    if append { items.update(|i| i.extend(page)) } else { items.set(page) }
+                }
                 Err(err) => problem.set(err),
             }
         });
     };
-    reload();
+    fetch(false);
     let sign_out = move |_| {
         leptos::task::spawn_local(async move {
             let _ = call("DELETE", "/api/session", None).await;
             signed_out();
         });
     };
+    // Each filter control writes its field; selects and dates apply at once.
+    let set = move |field: fn(&mut Filters) -> &mut String, value: String, apply: bool| {
+        filters.update(|f| *field(f) = value);
+        if apply {
+            fetch(false);
+        }
+    };
+    let clear = move |_| {
+        filters.set(Filters::default());
+        fetch(false);
+    };
     view! {
         <div class="row spread">
-            <label>"Show" <select id="queue-state" on:change=move |ev| { state_filter.set(event_target_value(&ev)); reload(); }>
-                <option value="">"to review"</option>
-                <option value="confirmed">"confirmed"</option>
-                <option value="not_confirmable">"not confirmable"</option>
-                <option value="any">"all"</option>
-            </select></label>
             {(role == Role::Admin).then(|| view! { <a href="#people">"People"</a> })}
             <button type="button" class="small" on:click=sign_out>"Sign out"</button>
         </div>
+        <form id="queue-filters" class="filters" on:submit=move |ev: leptos::ev::SubmitEvent| { ev.prevent_default(); fetch(false); }>
+            <label>"Show" <select id="queue-state" prop:value=move || filters.with(|f| f.state.clone()) on:change=move |ev| set(|f| &mut f.state, event_target_value(&ev), true)>
+                <option value="">"to review"</option>
+                <option value="awaiting_review">"awaiting review"</option>
+                <option value="details_requested">"details requested"</option>
+                <option value="confirmed">"confirmed"</option>
+                <option value="not_confirmable">"not confirmable"</option>
+                <option value="merged">"merged"</option>
+                <option value="any">"all"</option>
+            </select></label>
+            <label>"Species or group" <input id="queue-taxon" list="taxon-names" placeholder="e.g. Rajidae, tope"
+                prop:value=move || filters.with(|f| f.taxon.clone()) on:input=move |ev| set(|f| &mut f.taxon, event_target_value(&ev), false) on:change=move |_| fetch(false) /></label>
+            <datalist id="taxon-names">{taxon_names().into_iter().map(|n| view! { <option value=n></option> }).collect_view()}</datalist>
+            <label>"Area" <select id="queue-area" prop:value=move || filters.with(|f| f.area.clone()) on:change=move |ev| set(|f| &mut f.area, event_target_value(&ev), true)>
+                <option value="">"anywhere"</option>
+                {areas().into_iter().map(|(code, name)| view! { <option value=code>{name}</option> }).collect_view()}
+            </select></label>
+            <label>"From" <input id="queue-from" type="date" prop:value=move || filters.with(|f| f.from.clone()) on:change=move |ev| set(|f| &mut f.from, event_target_value(&ev), true) /></label>
+            <label>"To" <input id="queue-to" type="date" prop:value=move || filters.with(|f| f.to.clone()) on:change=move |ev| set(|f| &mut f.to, event_target_value(&ev), true) /></label>
+            <label>"Flag" <select id="queue-flag" prop:value=move || filters.with(|f| f.flag.clone()) on:change=move |ev| set(|f| &mut f.flag, event_target_value(&ev), true)>
+                <option value="">"any or none"</option>
+                {QueueFlag::ALL.iter().map(|flag| view! { <option value=code(flag)>{flag.label()}</option> }).collect_view()}
+            </select></label>
+            <div class="actions">
+                <button id="queue-apply" type="submit" class="small">"Filter"</button>
+                <button id="queue-clear" type="button" class="small" on:click=clear>"Clear"</button>
+            </div>
+        </form>
         <p class="problems">{move || problem.get()}</p>
         {move || match open.get() {
-            Some(id) => view! { <RecordReview client_id=id back=move || { open.set(None); reload(); } /> }.into_any(),
+            Some(id) => view! { <RecordReview client_id=id back=move || { open.set(None); fetch(false); } /> }.into_any(),
             None => view! {
+                <p id="queue-count" class="hint">{move || format!("{} record(s){}", items.with(|i| i.len()), if more.get() { ", more below" } else { "" })}</p>
                 <ol id="queue">
                     {move || items.get().into_iter().map(|item| {
                         let id = item.record.submission.client_id.to_string();
@@ -146,23 +253,205 @@ fn Queue(role: Role, signed_out: impl Fn() + Copy + 'static) -> impl IntoView {
                         }
                     }).collect_view()}
                 </ol>
+                <Show when=move || more.get()>
+                    <button id="queue-more" type="button" on:click=move |_| fetch(true)>"Load more"</button>
+                </Show>
             }.into_any(),
         }}
     }
 }
 
-fn time_and_place(label: &str, when: Option<String>, lat: Option<f64>, lon: Option<f64>, extra: Option<String>) -> impl IntoView + use<> {
+fn says_something(exif: &PhotoExif) -> bool {
+    exif.taken_at.is_some() || exif.taken_local.is_some() || (exif.latitude.is_some() && exif.longitude.is_some())
+}
+
+/// One row of the when/where table.
+fn time_and_place(class: &str, label: String, when: Option<String>, lat: Option<f64>, lon: Option<f64>, extra: Option<String>) -> impl IntoView + use<> {
     let place = match (lat, lon) {
         (Some(lat), Some(lon)) => format!("{lat:.5}, {lon:.5}"),
         _ => "—".into(),
     };
-    view! { <tr><th>{label.to_owned()}</th><td>{when.unwrap_or_else(|| "—".into())}</td><td>{place}</td><td>{extra.unwrap_or_default()}</td></tr> }
+    view! { <tr class=class.to_owned()><th>{label}</th><td>{when.unwrap_or_else(|| "—".into())}</td><td>{place}</td><td>{extra.unwrap_or_default()}</td></tr> }
+}
+
+/// A photo's EXIF as a row: the instant (and whose offset made it), place and error.
+fn exif_row(class: &str, label: String, exif: &PhotoExif) -> impl IntoView + use<> {
+    let when = exif.taken_at.map(|t| crate::readable::time(&t)).or_else(|| exif.taken_local.clone().map(|t| format!("{t} (no offset)")));
+    let offset = exif.offset_source.is_some().then(|| crate::readable::offset_words(exif).to_owned());
+    let error = exif.horizontal_error_m.map(|e| format!("±{e:.0} m"));
+    let extra = [offset, error].into_iter().flatten().collect::<Vec<_>>().join(" · ");
+    time_and_place(class, label, when, exif.latitude, exif.longitude, Some(extra))
+}
+
+/// Rows for each photo: the file's own EXIF, the phone's reading of the original
+/// (upload copies carry none), or a row saying there is neither.
+fn photo_rows(photos: &[PhotoView]) -> impl IntoView + use<> {
+    photos
+        .iter()
+        .enumerate()
+        .map(|(i, photo)| {
+            let n = i + 1;
+            let own = says_something(&photo.exif).then(|| exif_row("exif-file", format!("photo {n} (the file's EXIF)"), &photo.exif).into_any());
+            let phone = photo
+                .phone_exif
+                .as_ref()
+                .filter(|p| says_something(p))
+                .map(|p| exif_row("exif-phone", format!("photo {n} (the phone's reading of the original)"), p).into_any());
+            let neither = (own.is_none() && phone.is_none()).then(|| time_and_place("exif-none", format!("photo {n}"), Some("no EXIF time".into()), None, None, Some("no EXIF place".into())).into_any());
+            view! { {own}{phone}{neither} }
+        })
+        .collect_view()
+}
+
+/// Each photo against the record: hours before it, metres from it, and its flags.
+fn photo_checks(photos: &[PhotoView]) -> impl IntoView + use<> {
+    photos
+        .iter()
+        .enumerate()
+        .filter(|(_, p)| p.check.time_reading.is_some() || p.check.place_reading.is_some())
+        .map(|(i, photo)| {
+            let check = &photo.check;
+            let reading = crate::readable::readings_words(check);
+            let gap = check.seconds_before_record.map(|s| {
+                if s >= 0.0 { format!("taken {} before the record", hours_words(s)) } else { format!("taken {} after the record", hours_words(-s)) }
+            });
+            let far = check.metres_from_record.map(|m| format!("{} from the record's place", distance_words(m)));
+            let facts = [gap, far].into_iter().flatten().collect::<Vec<_>>().join(", ");
+            let flags = check.flags.iter().map(|flag| match flag {
+                PhotoFlag::TakenLongBeforeRecord => QueueFlag::TakenLongBeforeRecord.label(),
+                PhotoFlag::TakenFarFromRecord => QueueFlag::TakenFarFromRecord.label(),
+            });
+            let flags = flags.map(|label| view! { <span class="flag">{label}</span> }).collect_view();
+            view! { <li class="photo-check">{format!("photo {} ({reading}): {facts} ", i + 1)}{flags}</li> }
+        })
+        .collect_view()
+}
+
+/// The guided key as the observer used it, replayed on the server.
+fn key_section(choice: Option<shared_types::KeyChoice>, replay: Option<KeyReplay>) -> impl IntoView + use<> {
+    let choice = choice?;
+    let picked = format!("The observer picked {} ({}, {:.0}% when picked).", choice.scientific_name.as_str(), choice.taxon_rank, choice.probability * 100.0);
+    let replay = replay.unwrap_or(KeyReplay { answers: Vec::new(), suggestions: Vec::new(), problem: None });
+    let answers = replay.answers.into_iter().map(|a| view! { <tr><th>{a.question}</th><td>{a.answer}</td></tr> }).collect_view();
+    let suggestions = replay
+        .suggestions
+        .into_iter()
+        .map(|s| {
+            let name = match &s.common_name {
+                Some(common) => format!("{} ({common})", s.scientific_name),
+                None => s.scientific_name.clone(),
+            };
+            let reasons = s.reasons.into_iter().map(|r| view! { <li class=format!("reason {}", r.effect)>{r.text}</li> }).collect_view();
+            view! { <li class="key-suggestion"><b>{name}</b>{format!(" · {:.0}%", s.probability * 100.0)}<ul class="reasons">{reasons}</ul></li> }
+        })
+        .collect_view();
+    Some(view! {
+        <section class="key-replay">
+            <h4>"Guided key"</h4>
+            <p>{picked}</p>
+            <table class="key-answers">{answers}</table>
+            {replay.problem.map(|p| view! { <p class="problems">{p}</p> })}
+            <p class="hint">"What the key suggests for these answers now, most likely first:"</p>
+            <ol class="key-suggestions">{suggestions}</ol>
+        </section>
+    })
+}
+
+/// A photo opened large over the page: the display copy, zoomed with the buttons or
+/// the mouse wheel on a desk and with two fingers on a phone, dragged to look around;
+/// reviewers also get the original (with its EXIF) in a new tab.
+#[component]
+fn PhotoZoom(photo: RwSignal<Option<String>>) -> impl IntoView {
+    const MIN: f64 = 1.0;
+    const MAX: f64 = 8.0;
+    let scale = RwSignal::new(1.0_f64);
+    let shift = RwSignal::new((0.0_f64, 0.0_f64));
+    // Pointers down on the picture: id → last position.
+    let pointers = StoredValue::new(std::collections::BTreeMap::<i32, (f64, f64)>::new());
+    let zoom_by = move |factor: f64| {
+        scale.update(|s| *s = (*s * factor).clamp(MIN, MAX));
+        if scale.get_untracked() <= MIN {
+            shift.set((0.0, 0.0));
+        }
+    };
+    let reset = move || {
+        scale.set(1.0);
+        shift.set((0.0, 0.0));
+        pointers.update_value(|p| p.clear());
+    };
+    let close = move || {
+        reset();
+        photo.set(None);
+    };
+    let spread = |p: &std::collections::BTreeMap<i32, (f64, f64)>| {
+        let mut points = p.values();
+        match (points.next(), points.next()) {
+            (Some(a), Some(b)) => Some(((a.0 - b.0).powi(2) + (a.1 - b.1).powi(2)).sqrt()),
+            _ => None,
+        }
+    };
+    let down = move |ev: web_sys::PointerEvent| {
+        ev.prevent_default();
+        if let Some(target) = ev.target().and_then(|t| wasm_bindgen::JsCast::dyn_into::<web_sys::Element>(t).ok()) {
+            let _ = target.set_pointer_capture(ev.pointer_id());
+        }
+        pointers.update_value(|p| {
+            p.insert(ev.pointer_id(), (f64::from(ev.client_x()), f64::from(ev.client_y())));
+        });
+    };
+    let moved = move |ev: web_sys::PointerEvent| {
+        let id = ev.pointer_id();
+        let now = (f64::from(ev.client_x()), f64::from(ev.client_y()));
+        let Some((before_spread, before, count)) = pointers.with_value(|p| p.get(&id).map(|last| (spread(p), *last, p.len()))) else { return };
+        pointers.update_value(|p| {
+            p.insert(id, now);
+        });
+        if count >= 2 {
+            // Two fingers: zoom by how much further apart they are now.
+            let after = pointers.with_value(spread);
+            if let (Some(b), Some(a)) = (before_spread, after)
+                && b > 0.0
+            {
+                zoom_by(a / b);
+            }
+        } else if scale.get_untracked() > MIN {
+            shift.update(|s| *s = (s.0 + now.0 - before.0, s.1 + now.1 - before.1));
+        }
+    };
+    let up = move |ev: web_sys::PointerEvent| {
+        pointers.update_value(|p| {
+            p.remove(&ev.pointer_id());
+        });
+    };
+    let wheel = move |ev: web_sys::WheelEvent| {
+        ev.prevent_default();
+        zoom_by(if ev.delta_y() < 0.0 { 1.25 } else { 0.8 });
+    };
+    view! {
+        {move || photo.get().map(|sha| view! {
+            <div id="photo-zoom" class="photo-zoom" role="dialog" aria-label="photo, zoomable">
+                <div class="zoom-bar">
+                    <button id="zoom-out" type="button" class="small" on:click=move |_| zoom_by(0.8)>"−"</button>
+                    <span id="zoom-level">{move || format!("{:.0}%", scale.get() * 100.0)}</span>
+                    <button id="zoom-in" type="button" class="small" on:click=move |_| zoom_by(1.25)>"+"</button>
+                    <button id="zoom-fit" type="button" class="small" on:click=move |_| reset()>"Fit"</button>
+                    <a id="zoom-original" href=format!("/photos/{sha}/original") target="_blank" rel="noopener">"Original (with EXIF)"</a>
+                    <button id="zoom-close" type="button" class="small" on:click=move |_| close()>"Close"</button>
+                </div>
+                <div class="zoom-stage" on:wheel=wheel on:pointerdown=down on:pointermove=moved on:pointerup=up on:pointercancel=up>
+                    <img id="zoom-image" src=format!("/photos/{sha}") alt="the photo, large" draggable="false"
+                        style=move || { let (x, y) = shift.get(); format!("transform: translate({x:.0}px, {y:.0}px) scale({:.3})", scale.get()) } />
+                </div>
+            </div>
+        })}
+    }
 }
 
 #[component]
 fn RecordReview(client_id: String, back: impl Fn() + Copy + 'static) -> impl IntoView {
     let detail = RwSignal::new(None::<ReviewDetail>);
     let problem = RwSignal::new(String::new());
+    let zoomed = RwSignal::new(None::<String>);
     // Bumping `reloads` fetches the record again (after every decision).
     let reloads = RwSignal::new(0u32);
     let id = client_id.clone();
@@ -212,28 +501,24 @@ fn RecordReview(client_id: String, back: impl Fn() + Copy + 'static) -> impl Int
     view! {
         <button type="button" class="small" on:click=move |_| back()>"← Back to the queue"</button>
         <p class="problems" role="alert">{move || problem.get()}</p>
+        <PhotoZoom photo=zoomed />
         {move || detail.get().map(|d| {
             let sub = d.record.submission.clone();
-            if species.get_untracked().is_empty() {
-                if let Some(current) = d.identifications.iter().find(|i| i.current) {
-                    species.set(current.taxon_name.clone());
-                }
+            if species.get_untracked().is_empty()
+                && let Some(current) = d.identifications.iter().find(|i| i.current)
+            {
+                species.set(current.taxon_name.clone());
             }
             let position = sub.position;
-            let photos = d.record.photos.iter().map(|p| {
-                // The display copy on the page; a tap opens the original, full size.
-                let url = format!("/photos/{}", p.sha256);
-                let link = format!("/photos/{}/original", p.sha256);
-                view! { <a href=link target="_blank"><img class="review-photo" src=url alt="photo of the record" /></a> }
+            let photos = d.record.photos.iter().enumerate().map(|(i, p)| {
+                // The display copy on the page; a tap opens it large, zoomable.
+                let sha = p.sha256.clone();
+                view! {
+                    <button type="button" class="photo-open" on:click=move |_| zoomed.set(Some(sha.clone()))>
+                        <img class="review-photo" src=format!("/photos/{}", p.sha256) alt=format!("photo {} of the record: tap to open it large", i + 1) />
+                    </button>
+                }
             }).collect_view();
-            let exif_rows = d.record.photos.iter().enumerate().map(|(i, p)| {
-                let (when, lat, lon, source) = crate::readable::photo_facts(p);
-                time_and_place(&format!("photo {}", i + 1), when, lat, lon, source)
-            }).collect_view();
-            let key_answers = sub.key_choice.as_ref().map(|k| view! {
-                <p>{format!("Guided key: {} ({}, {:.0}%) from answers: {}", k.scientific_name.as_str(), k.taxon_rank, k.probability * 100.0,
-                    k.answers.iter().map(|(c, s)| format!("{c} = {s}")).collect::<Vec<_>>().join(", "))}</p>
-            });
             view! {
                 <article id="record-review" data-state=d.record.review_state.code()>
                     <h3>{format!("{} · {}", sub.species_guess.as_ref().map(|g| g.as_str().to_owned()).unwrap_or_else(|| "unnamed".into()), d.record.review_state.label())}</h3>
@@ -241,10 +526,11 @@ fn RecordReview(client_id: String, back: impl Fn() + Copy + 'static) -> impl Int
                     <img class="place-map" src=format!("/api/review/records/{}/map.svg", sub.client_id) alt="map of where the record and its photos were made" />
                     <table class="when-where">
                         <tr><th></th><th>"when"</th><th>"where"</th><th></th></tr>
-                        {time_and_place("device", Some(crate::readable::time(&sub.observed_at)), position.map(|p| p.latitude.get()), position.map(|p| p.longitude.get()),
+                        {time_and_place("device", "device".into(), Some(crate::readable::time(&sub.observed_at)), position.map(|p| p.latitude.get()), position.map(|p| p.longitude.get()),
                             position.and_then(|p| p.accuracy_m).map(|a| format!("±{:.0} m", a.get())))}
-                        {exif_rows}
+                        {photo_rows(&d.record.photos)}
                     </table>
+                    <ul class="photo-checks">{photo_checks(&d.record.photos)}</ul>
                     <ul class="fields">
                         <li>{format!("count {} · {} · {} · sex {}", sub.count.get(), sub.condition.label(), sub.setting.label(), sub.sex.dwc())}</li>
                         {sub.length.map(|l| view! { <li>{format!("{:.1} cm {} ({:?})", l.value.centimetres(), l.kind.label(), l.method).to_lowercase()}</li> })}
@@ -252,7 +538,7 @@ fn RecordReview(client_id: String, back: impl Fn() + Copy + 'static) -> impl Int
                         {sub.notes.as_ref().map(|n| view! { <li>{format!("notes: {}", n.as_str())}</li> })}
                         {sub.observer_name.as_ref().map(|n| view! { <li>{format!("observer: {}", n.as_str())}</li> })}
                     </ul>
-                    {key_answers}
+                    {key_section(sub.key_choice.clone(), d.key.clone())}
                     <h4>"Flags and priority"</h4>
                     <ul class="flags">{d.priority_reasons.iter().map(|r| view! { <li>{r.clone()}</li> }).collect_view()}</ul>
                     <DuplicatesOf detail=d.clone() reloads=reloads problem=problem />
@@ -264,7 +550,8 @@ fn RecordReview(client_id: String, back: impl Fn() + Copy + 'static) -> impl Int
                     <h4>"Messages"</h4>
                     <ul class="messages">{d.messages.iter().map(|m| view! { <li>{format!("{}: {}", m.author.clone().unwrap_or_else(|| m.author_role.code().into()), m.body)}</li> }).collect_view()}</ul>
                     <h4>"History"</h4>
-                    <ol class="events">{d.events.iter().map(|e| view! { <li>{format!("{} {} → {} by {} {}", e.at.format("%Y-%m-%d %H:%M"), e.from_state.label(), e.to_state.label(), e.by.clone().unwrap_or_default(), e.detail.clone().unwrap_or_default())}</li> }).collect_view()}</ol>
+                    <ol class="events">{d.events.iter().map(|e| view! { <li>{format!("{} {} → {} by {}: {}{}", e.at.format("%Y-%m-%d %H:%M"), e.from_state.label(), e.to_state.label(), e.by.clone().unwrap_or_default(),
+                        e.detail.clone().unwrap_or_default(), e.reason.as_ref().map(|r| format!(" — “{r}”")).unwrap_or_default())}</li> }).collect_view()}</ol>
                 </article>
             }
         })}
@@ -296,17 +583,69 @@ struct StaffPerson {
     disabled: bool,
 }
 
-/// `#people`: the admin's screen to add reviewers and admins and turn sign-ins off.
+/// One person on the people screen: role, a new password, on or off.
+#[component]
+fn PersonRow(person: StaffPerson, reload: impl Fn() + Copy + Send + Sync + 'static, problem: RwSignal<String>, note: RwSignal<String>) -> impl IntoView {
+    let name = person.username.clone().unwrap_or_default();
+    let new_password = RwSignal::new(String::new());
+    let put = move |path: String, body: serde_json::Value, done: String| {
+        leptos::task::spawn_local(async move {
+            match call("PUT", &path, Some(body.to_string())).await {
+                Ok(_) => {
+                    problem.set(String::new());
+                    note.set(done);
+                    reload();
+                }
+                Err(err) => problem.set(err),
+            }
+        });
+    };
+    let (role_name, password_name, toggle_name) = (name.clone(), name.clone(), name.clone());
+    let change_role = move |ev: leptos::ev::Event| {
+        let role = event_target_value(&ev);
+        put(format!("/api/people/{role_name}/role"), serde_json::json!({ "role": role }), format!("{role_name} is now {role}."));
+    };
+    let reset = move |_| {
+        let password = new_password.get_untracked();
+        new_password.set(String::new());
+        put(format!("/api/people/{password_name}/password"), serde_json::json!({ "password": password }), format!("{password_name} has a new password; their sign-ins ended."));
+    };
+    let turn_to = !person.disabled;
+    let toggle = move |_| {
+        let words = if turn_to { "turned off" } else { "turned on" };
+        put(format!("/api/people/{toggle_name}/disabled"), serde_json::json!({ "disabled": turn_to }), format!("{toggle_name}'s sign-in is {words}."));
+    };
+    view! {
+        <li class="person" data-username=name.clone()>
+            <span class="who">{format!("{name} · {} · {}{}", person.role.code(), person.display_name.clone().unwrap_or_default(), if person.disabled { " · turned off" } else { "" })}</span>
+            <label>"Role" <select class="person-role" on:change=change_role>
+                <option value="reviewer" selected=person.role == Role::Reviewer>"reviewer"</option>
+                <option value="admin" selected=person.role == Role::Admin>"admin"</option>
+            </select></label>
+            <label>"New password" <input class="person-password" type="password" autocomplete="new-password" prop:value=move || new_password.get() on:input=move |ev| new_password.set(event_target_value(&ev)) /></label>
+            <button type="button" class="small person-reset" on:click=reset>"Set password"</button>
+            <button type="button" class="small person-toggle" on:click=toggle>{if person.disabled { "Turn on" } else { "Turn off" }}</button>
+        </li>
+    }
+}
+
+/// `#people`: the admin's screen to add reviewers and admins, change their role, set a
+/// new password, turn sign-ins off and on, and read the trail of those changes.
 #[component]
 pub fn PeopleScreen() -> impl IntoView {
     let people = RwSignal::new(Vec::<StaffPerson>::new());
+    let events = RwSignal::new(Vec::<PersonEvent>::new());
     let problem = RwSignal::new(String::new());
+    let note = RwSignal::new(String::new());
     let form = RwSignal::new((String::new(), String::new(), String::new(), "reviewer".to_owned()));
     let reload = move || {
         leptos::task::spawn_local(async move {
             match call("GET", "/api/people", None).await.and_then(|b| serde_json::from_str::<Vec<StaffPerson>>(&b).map_err(|e| e.to_string())) {
                 Ok(list) => people.set(list),
                 Err(err) => problem.set(format!("{err} (sign in as an admin under Review first)")),
+            }
+            if let Ok(list) = call("GET", "/api/people/events", None).await.and_then(|b| serde_json::from_str::<Vec<PersonEvent>>(&b).map_err(|e| e.to_string())) {
+                events.set(list);
             }
         });
     };
@@ -325,30 +664,14 @@ pub fn PeopleScreen() -> impl IntoView {
             }
         });
     };
-    let toggle = move |username: String, disabled: bool| {
-        let body = serde_json::json!({ "disabled": disabled }).to_string();
-        leptos::task::spawn_local(async move {
-            match call("PUT", &format!("/api/people/{username}/disabled"), Some(body)).await {
-                Ok(_) => reload(),
-                Err(err) => problem.set(err),
-            }
-        });
-    };
     view! {
         <section class="card people">
             <h2>"People"</h2>
             <p class="hint">"Observers need no sign-in: their phone gets its own identity. Contacts never leave the server."</p>
             <p class="problems" role="alert">{move || problem.get()}</p>
+            <p id="people-note" class="hint">{move || note.get()}</p>
             <ul id="people-list">
-                {move || people.get().into_iter().map(|p| {
-                    let name = p.username.clone().unwrap_or_default();
-                    let turn_to = !p.disabled;
-                    view! {
-                        <li>{format!("{name} · {} · {}{}", p.role.code(), p.display_name.clone().unwrap_or_default(), if p.disabled { " · turned off" } else { "" })}" "
-                            <button type="button" class="small" on:click=move |_| toggle(name.clone(), turn_to)>{if p.disabled { "Turn on" } else { "Turn off" }}</button>
-                        </li>
-                    }
-                }).collect_view()}
+                {move || people.get().into_iter().map(|p| view! { <PersonRow person=p reload=reload problem=problem note=note /> }).collect_view()}
             </ul>
             <fieldset>
                 <legend>"Add a person"</legend>
@@ -365,6 +688,13 @@ pub fn PeopleScreen() -> impl IntoView {
                 </div>
                 <button id="add-person" type="button" class="primary" on:click=add>"Add"</button>
             </fieldset>
+            <h3>"Changes to sign-ins"</h3>
+            <ol id="people-events">
+                {move || events.get().into_iter().map(|e| view! {
+                    <li>{format!("{} · {} · {}{} · by {}", e.at.format("%Y-%m-%d %H:%M"), e.username, e.action.replace('_', " "),
+                        e.detail.map(|d| format!(" ({d})")).unwrap_or_default(), e.by.unwrap_or_else(|| "the server's command line".into()))}</li>
+                }).collect_view()}
+            </ol>
             <a href="#review">"← Review"</a>
         </section>
     }

@@ -124,6 +124,7 @@ pub fn App() -> impl IntoView {
             <Show when=move || safety_read.get() fallback=move || view! { <SafetyCautions on_read=move || { set_local_flag(SAFETY_KEY); safety_read.set(true); } /> }>
                 <WalkBar outbox=outbox />
                 <RecordForm outbox=outbox />
+                <crate::identity::AboutYou outbox=outbox />
                 <OnThisPhone outbox=outbox />
                 <crate::mine::MyRecords outbox=outbox />
                 <details class="safety-again"><summary>"Safety reminders"</summary><SafetyText /></details>
@@ -227,12 +228,12 @@ fn OnThisPhone(outbox: Outbox) -> impl IntoView {
                     let draft_id = id.clone();
                     let queue_id = id.clone();
                     let walk_id = id.clone();
-                    let on_walk = entry.submission.walk_client_id.or(entry.walk_link_pending).is_some();
+                    let on_walk = entry.walk().is_some();
                     view! {
                         <li class="outbox-entry" data-client-id=id.clone()>
                             <span class="summary">{summary}</span>
                             <span class=state.css_class()>{state.label()}</span>
-                            {entry.last_error.clone().filter(|_| state.wants_sending()).map(|e| view! { <span class="hint">{e}</span> })}
+                            {entry.last_error.clone().filter(|_| state.wants_sending() || matches!(state, SyncState::Received { .. })).map(|e| view! { <span class="hint">{e}</span> })}
                             {on_walk.then(|| view! { <span class="hint walk-link">"on a survey walk"</span> })}
                             <Show when=move || is_draft>
                                 <button type="button" class="small" on:click={let id = queue_id.clone(); move |_| queue(id.clone())}>"Send"</button>

@@ -120,9 +120,10 @@ async fn round(outbox: Outbox) -> Option<String> {
         Ok(token) => token,
         Err(err) => return Some(format!("no connection ({err})")),
     };
-    let walk_problem = send_walks(outbox).await;
+    let profile_problem = identity::send_profile_if_changed(&token).await;
+    let walk_problem = send_walks(outbox, &token).await;
     let record_problem = send_records(outbox, &token).await;
-    let link_problem = send_links(outbox).await;
+    let link_problem = send_links(outbox, &token).await;
     let reply_problem = mine::send_replies(&token).await;
     let fetch_problem = match mine::fetch_records(&token).await {
         Ok(records) => {
@@ -132,7 +133,7 @@ async fn round(outbox: Outbox) -> Option<String> {
         Err(err) => Some(err),
     };
     refresh(outbox).await;
-    walk_problem.or(record_problem).or(link_problem).or(reply_problem).or(fetch_problem)
+    walk_problem.or(record_problem).or(link_problem).or(reply_problem).or(fetch_problem).or(profile_problem)
 }
 
 async fn send_records(outbox: Outbox, token: &str) -> Option<String> {
@@ -174,7 +175,9 @@ async fn send_records(outbox: Outbox, token: &str) -> Option<String> {
     problem
 }
 
-async fn send_walks(outbox: Outbox) -> Option<String> {
+/// Sends ended walks with the phone's identity: the server keeps each walk as this
+/// phone's, so nobody else can put records on it.
+async fn send_walks(outbox: Outbox, token: &str) -> Option<String> {
     let stored = match walks::load_all().await {
         Ok(list) => list,
         Err(err) => return Some(err),
@@ -188,7 +191,7 @@ async fn send_walks(outbox: Outbox) -> Option<String> {
             problem.get_or_insert(err);
             continue;
         }
-        match device::send_json("POST", WALKS_URL, Some(&json), &[]).await {
+        match device::send_json("POST", WALKS_URL, Some(&json), &[("authorization", &identity::bearer(token))]).await {
             Err(err) => {
                 walk.state = WalkState::Waiting;
                 walk.last_error = Some(format!("no connection ({err})"));
@@ -214,17 +217,20 @@ async fn send_walks(outbox: Outbox) -> Option<String> {
     problem
 }
 
-/// Links made after a record was received: `PUT /api/observations/{id}/walk`.
-async fn send_links(outbox: Outbox) -> Option<String> {
+/// Links made after a record was received: `PUT /api/observations/{id}/walk`, with the
+/// phone's identity (only the phone that sent a record may link it). A link the server
+/// accepts is kept as the record's walk, so the record still shows it is on the walk.
+async fn send_links(outbox: Outbox, token: &str) -> Option<String> {
     let stored = outbox::load_all().await.ok()?;
     let mut problem = None;
+    let auth = identity::bearer(token);
     // A link waits until its record is received: the record's own send comes first.
     let ready = stored.into_iter().filter(|e| e.walk_link_pending.is_some() && matches!(e.sync, SyncState::Received { .. }));
     for entry in ready {
         let Some(walk) = entry.walk_link_pending else { continue };
         let url = format!("{SUBMIT_URL}/{}/walk", entry.id());
         let body = serde_json::json!({ "walk_client_id": walk }).to_string();
-        let refused = match device::send_json("PUT", &url, Some(&body), &[]).await.map(classify) {
+        let refused = match device::send_json("PUT", &url, Some(&body), &[("authorization", &auth)]).await.map(classify) {
             Ok(Sent::Received(_)) => None,
             Ok(Sent::Refused(reason)) => Some(format!("could not add to the walk: {reason}")),
             Ok(Sent::TryLater(reason)) | Err(reason) => {
@@ -234,8 +240,9 @@ async fn send_links(outbox: Outbox) -> Option<String> {
         };
         let saved = outbox::update(&entry.id(), |e| {
             e.walk_link_pending = None;
-            if refused.is_some() {
-                e.last_error = refused;
+            match refused {
+                None => e.walk_linked = Some(walk),
+                Some(reason) => e.last_error = Some(reason),
             }
         })
         .await;

@@ -101,7 +101,7 @@ pub async fn load_all() -> Result<Vec<WalkEntry>, String> {
         .iter()
         .map(|json| serde_json::from_str::<WalkEntry>(json).map_err(|err| format!("a stored walk could not be read: {err}")))
         .collect::<Result<Vec<_>, _>>()?;
-    walks.sort_by(|a, b| b.started_at.cmp(&a.started_at));
+    walks.sort_by_key(|w| std::cmp::Reverse(w.started_at));
     Ok(walks)
 }
 

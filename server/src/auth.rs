@@ -2,20 +2,39 @@
 //!
 //! Passwords are hashed with argon2 (Argon2id, the crate's default parameters).
 //! Session and device tokens are 244 random bits (two v4 UUIDs); only their SHA-256 is
-//! stored, so a copy of the database signs nobody in. Failed sign-ins are limited per
-//! username: after [`MAX_FAILURES`] within [`FAILURE_WINDOW`], further attempts are refused
-//! until the window has passed (kept in memory: a restart forgets them).
+//! stored, so a copy of the database signs nobody in. A sign-in with an unknown
+//! username is checked against a dummy hash, so it takes as long as a wrong password
+//! and the answer's timing does not tell which usernames exist.
+//!
+//! Failed sign-ins are counted three ways, each over [`FAILURE_WINDOW`] (kept in memory:
+//! a restart forgets them):
+//! - one username from one client address: [`MAX_FAILURES`] — guessing a password;
+//! - one client address, any usernames: [`MAX_FAILURES_PER_ADDRESS`] — trying many names;
+//! - one username from all addresses: [`MAX_FAILURES_PER_NAME`] — a spread-out attack.
+//!
+//! So a stranger can lock a reviewer out only from many addresses at once, not from
+//! one. Each count keeps at most [`MAX_TRACKED`] keys: expired ones are pruned first,
+//! then the key whose last failure is oldest is forgotten.
 
 use std::collections::{HashMap, VecDeque};
-use std::sync::{Arc, Mutex};
+use std::hash::Hash;
+use std::net::IpAddr;
+use std::sync::{Arc, LazyLock, Mutex};
 use std::time::{Duration, Instant};
 
 use argon2::password_hash::{PasswordHash, PasswordHasher, PasswordVerifier, SaltString};
 use argon2::Argon2;
 use sha2::{Digest as _, Sha256};
 
+/// Failures allowed for one username from one address.
 pub const MAX_FAILURES: usize = 5;
+/// Failures allowed from one address, whatever the usernames.
+pub const MAX_FAILURES_PER_ADDRESS: usize = 20;
+/// Failures allowed for one username from all addresses together.
+pub const MAX_FAILURES_PER_NAME: usize = 100;
 pub const FAILURE_WINDOW: Duration = Duration::from_secs(15 * 60);
+/// The most keys each count keeps (a few MB at worst).
+pub const MAX_TRACKED: usize = 10_000;
 /// How long a sign-in lasts.
 pub const SESSION_HOURS: i64 = 12;
 /// The shortest password accepted (common practice for staff accounts).
@@ -34,6 +53,22 @@ pub fn verify_password(password: &str, stored_hash: &str) -> bool {
     PasswordHash::new(stored_hash).is_ok_and(|hash| Argon2::default().verify_password(password.as_bytes(), &hash).is_ok())
 }
 
+/// A hash of a random password nobody knows, with the same parameters as real ones.
+static DUMMY_HASH: LazyLock<String> = LazyLock::new(|| hash_password(&new_token()).unwrap_or_default());
+
+/// Checks `password` against the stored hash, or against the dummy hash when there is
+/// none (unknown username), so both take the same argon2 work. Blocking: run it on the
+/// blocking pool.
+pub fn verify_or_dummy(password: &str, stored_hash: Option<&str>) -> bool {
+    match stored_hash {
+        Some(hash) => verify_password(password, hash),
+        None => {
+            let _ = verify_password(password, &DUMMY_HASH);
+            false
+        }
+    }
+}
+
 /// A fresh random token, hex.
 pub fn new_token() -> String {
     format!("{}{}", uuid::Uuid::new_v4().simple(), uuid::Uuid::new_v4().simple())
@@ -43,36 +78,141 @@ pub fn token_sha256(token: &str) -> String {
     hex::encode(Sha256::digest(token.as_bytes()))
 }
 
-/// Failed sign-ins per username.
-#[derive(Clone, Default)]
+/// Recent failures per key, at most `limit` remembered per key.
+#[derive(Debug)]
+struct Tracker<K> {
+    recent: HashMap<K, VecDeque<Instant>>,
+    limit: usize,
+}
+
+impl<K: Eq + Hash + Clone> Tracker<K> {
+    fn new(limit: usize) -> Self {
+        Self { recent: HashMap::new(), limit }
+    }
+
+    /// How long `key` must wait, if it has reached its limit. Makes no entry.
+    fn locked_for(&mut self, key: &K, now: Instant) -> Option<Duration> {
+        let times = self.recent.get_mut(key)?;
+        expire(times, now);
+        if times.is_empty() {
+            self.recent.remove(key);
+            return None;
+        }
+        (times.len() >= self.limit).then(|| FAILURE_WINDOW.saturating_sub(now.duration_since(times[0])))
+    }
+
+    fn record(&mut self, key: K, now: Instant) {
+        if !self.recent.contains_key(&key) && self.recent.len() >= MAX_TRACKED {
+            self.make_room(now);
+        }
+        let times = self.recent.entry(key).or_default();
+        expire(times, now);
+        if times.len() >= self.limit {
+            times.pop_front();
+        }
+        times.push_back(now);
+    }
+
+    /// Drops expired keys; if none expired, the key whose last failure is oldest.
+    fn make_room(&mut self, now: Instant) {
+        self.recent.retain(|_, times| {
+            expire(times, now);
+            !times.is_empty()
+        });
+        if self.recent.len() >= MAX_TRACKED {
+            let stalest = self.recent.iter().min_by_key(|(_, times)| times.back().copied()).map(|(key, _)| key.clone());
+            if let Some(key) = stalest {
+                self.recent.remove(&key);
+            }
+        }
+    }
+}
+
+fn expire(times: &mut VecDeque<Instant>, now: Instant) {
+    while times.front().is_some_and(|t| now.duration_since(*t) > FAILURE_WINDOW) {
+        times.pop_front();
+    }
+}
+
+/// Which count refused a sign-in.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Lock {
+    /// This username from this address.
+    NameFromAddress,
+    /// This address, whatever the username.
+    Address,
+    /// This username, from everywhere.
+    Name,
+}
+
+#[derive(Debug)]
+struct Failures {
+    name_and_address: Tracker<(String, IpAddr)>,
+    address: Tracker<IpAddr>,
+    name: Tracker<String>,
+}
+
+/// Failed sign-ins by username and client address.
+#[derive(Clone)]
 pub struct LoginLimiter {
-    failures: Arc<Mutex<HashMap<String, VecDeque<Instant>>>>,
+    failures: Arc<Mutex<Failures>>,
+}
+
+impl Default for LoginLimiter {
+    fn default() -> Self {
+        // Made now, so the first unknown username costs no more than any other.
+        LazyLock::force(&DUMMY_HASH);
+        let failures = Failures {
+            name_and_address: Tracker::new(MAX_FAILURES),
+            address: Tracker::new(MAX_FAILURES_PER_ADDRESS),
+            name: Tracker::new(MAX_FAILURES_PER_NAME),
+        };
+        Self { failures: Arc::new(Mutex::new(failures)) }
+    }
 }
 
 impl LoginLimiter {
-    /// How long until `username` may try again, if it is locked out now.
-    pub fn locked_for(&self, username: &str, now: Instant) -> Option<Duration> {
-        let mut failures = self.failures.lock().unwrap_or_else(|p| p.into_inner());
-        let recent = failures.entry(username.to_lowercase()).or_default();
-        while recent.front().is_some_and(|t| now.duration_since(*t) > FAILURE_WINDOW) {
-            recent.pop_front();
-        }
-        (recent.len() >= MAX_FAILURES).then(|| FAILURE_WINDOW.saturating_sub(now.duration_since(recent[0])))
+    fn lock(&self) -> std::sync::MutexGuard<'_, Failures> {
+        self.failures.lock().unwrap_or_else(|p| p.into_inner())
     }
 
-    pub fn record_failure(&self, username: &str, now: Instant) {
-        let mut failures = self.failures.lock().unwrap_or_else(|p| p.into_inner());
-        failures.entry(username.to_lowercase()).or_default().push_back(now);
+    /// How long until `username` may try again from `address`, and which count says so.
+    pub fn locked_for(&self, username: &str, address: IpAddr, now: Instant) -> Option<(Duration, Lock)> {
+        let name = username.to_lowercase();
+        let mut failures = self.lock();
+        let pair = failures.name_and_address.locked_for(&(name.clone(), address), now).map(|wait| (wait, Lock::NameFromAddress));
+        let from_address = failures.address.locked_for(&address, now).map(|wait| (wait, Lock::Address));
+        let for_name = failures.name.locked_for(&name, now).map(|wait| (wait, Lock::Name));
+        pair.into_iter().chain(from_address).chain(for_name).max_by_key(|(wait, _)| *wait)
     }
 
-    pub fn clear(&self, username: &str) {
-        self.failures.lock().unwrap_or_else(|p| p.into_inner()).remove(&username.to_lowercase());
+    pub fn record_failure(&self, username: &str, address: IpAddr, now: Instant) {
+        let name = username.to_lowercase();
+        let mut failures = self.lock();
+        failures.name_and_address.record((name.clone(), address), now);
+        failures.address.record(address, now);
+        failures.name.record(name, now);
+    }
+
+    /// A successful sign-in forgets that username's failures from that address; the
+    /// address's and the name's totals stand until they expire.
+    pub fn succeeded(&self, username: &str, address: IpAddr) {
+        self.lock().name_and_address.recent.remove(&(username.to_lowercase(), address));
+    }
+
+    /// How many keys the three counts hold together.
+    pub fn tracked(&self) -> usize {
+        let failures = self.lock();
+        failures.name_and_address.recent.len() + failures.address.recent.len() + failures.name.recent.len()
     }
 }
 
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    const HOME: IpAddr = IpAddr::V4(std::net::Ipv4Addr::new(192, 0, 2, 1));
+    const AWAY: IpAddr = IpAddr::V4(std::net::Ipv4Addr::new(198, 51, 100, 7));
 
     #[test]
     fn a_password_verifies_against_its_own_hash_only() {
@@ -81,17 +221,60 @@ mod tests {
         assert!(verify_password("strandline-2026", &hash));
         assert!(!verify_password("strandline-2027", &hash));
         assert!(!verify_password("strandline-2026", "not a hash"));
+        assert!(!verify_or_dummy("strandline-2026", None));
+        assert!(DUMMY_HASH.starts_with("$argon2id$"), "the dummy has the real parameters");
     }
 
     #[test]
-    fn the_limiter_locks_after_five_failures_and_forgets_after_the_window() {
+    fn one_name_locks_from_one_address_only_and_forgets_after_the_window() {
         let limiter = LoginLimiter::default();
         let start = Instant::now();
         for _ in 0..MAX_FAILURES {
-            assert!(limiter.locked_for("Reviewer", start).is_none());
-            limiter.record_failure("reviewer", start);
+            assert!(limiter.locked_for("Reviewer", HOME, start).is_none());
+            limiter.record_failure("reviewer", HOME, start);
         }
-        assert!(limiter.locked_for("REVIEWER", start).is_some());
-        assert!(limiter.locked_for("reviewer", start + FAILURE_WINDOW + Duration::from_secs(1)).is_none());
+        assert_eq!(limiter.locked_for("REVIEWER", HOME, start).map(|l| l.1), Some(Lock::NameFromAddress));
+        assert!(limiter.locked_for("reviewer", AWAY, start).is_none(), "the reviewer can still sign in from elsewhere");
+        assert!(limiter.locked_for("admin", HOME, start).is_none());
+        assert!(limiter.locked_for("reviewer", HOME, start + FAILURE_WINDOW + Duration::from_secs(1)).is_none());
+    }
+
+    #[test]
+    fn one_address_trying_many_names_is_stopped() {
+        let limiter = LoginLimiter::default();
+        let start = Instant::now();
+        for n in 0..MAX_FAILURES_PER_ADDRESS {
+            limiter.record_failure(&format!("name-{n}"), HOME, start);
+        }
+        assert_eq!(limiter.locked_for("someone-new", HOME, start).map(|l| l.1), Some(Lock::Address));
+        assert!(limiter.locked_for("someone-new", AWAY, start).is_none());
+    }
+
+    #[test]
+    fn one_name_tried_from_many_addresses_is_stopped() {
+        let limiter = LoginLimiter::default();
+        let start = Instant::now();
+        for n in 0..MAX_FAILURES_PER_NAME {
+            limiter.record_failure("reviewer", IpAddr::V4(std::net::Ipv4Addr::from(0x0a00_0000 + n as u32)), start);
+        }
+        assert_eq!(limiter.locked_for("reviewer", AWAY, start).map(|l| l.1), Some(Lock::Name));
+    }
+
+    #[test]
+    fn checking_makes_no_entry_and_the_counts_stay_bounded() {
+        let limiter = LoginLimiter::default();
+        let start = Instant::now();
+        for n in 0..1000 {
+            assert!(limiter.locked_for(&format!("nobody-{n}"), HOME, start).is_none());
+        }
+        assert_eq!(limiter.tracked(), 0, "asking leaves nothing behind");
+        for n in 0..(MAX_TRACKED + 50) {
+            let address = IpAddr::V4(std::net::Ipv4Addr::from(0x0a00_0000 + n as u32));
+            limiter.record_failure(&format!("name-{n}"), address, start + Duration::from_millis(n as u64));
+        }
+        assert_eq!(limiter.tracked(), 3 * MAX_TRACKED, "each count holds at most MAX_TRACKED keys");
+        // Once the window has passed, making room prunes everything expired.
+        limiter.record_failure("late", HOME, start + FAILURE_WINDOW + Duration::from_secs(60));
+        assert_eq!(limiter.tracked(), 3);
     }
 }

@@ -48,7 +48,7 @@ pub async fn load_if_empty(state: &AppState) -> anyhow::Result<usize> {
     }
     let walks: Vec<serde_json::Value> = serde_json::from_str(WALKS_JSON)?;
     for (index, walk) in walks.iter().enumerate() {
-        intake::walks::accept_walk(state, &serde_json::to_vec(walk)?, Utc::now())
+        intake::walks::accept_walk(state, &serde_json::to_vec(walk)?, None, Utc::now())
             .await
             .map_err(|err| anyhow::anyhow!("demo walk {}: {err}", index + 1))?;
     }

@@ -36,7 +36,7 @@ pub struct AppState {
     /// The species checklist the key, the flags, review and the exports use, indexed by
     /// every scientific and common name.
     pub taxa: std::sync::Arc<assess::taxa::TaxonIndex>,
-    /// Failed sign-ins per username, for the rate limit.
+    /// Failed sign-ins by username and client address, for the rate limit.
     pub logins: auth::LoginLimiter,
     /// Positions of stored records, for finding duplicates. A `std` mutex held only
     /// for a query plus an insert, never across an `.await`, so that two arrivals of one
@@ -102,7 +102,8 @@ fn duplicate_index(store: &store::Store, taxa: &assess::taxa::TaxonIndex) -> any
 /// Serves the app on an already bound listener until Ctrl-C, so tests can bind
 /// port 0 and read the port back.
 pub async fn serve(listener: tokio::net::TcpListener, state: AppState) -> anyhow::Result<()> {
-    let router = app(state);
+    // With each connection's address, for the sign-in rate limit.
+    let router = app(state).into_make_service_with_connect_info::<std::net::SocketAddr>();
     axum::serve(listener, router)
         .with_graceful_shutdown(async {
             let _ = tokio::signal::ctrl_c().await;

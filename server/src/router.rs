@@ -1,9 +1,11 @@
-//! Every route the server answers, in one place.
+//! Every route the server answers, in one place: the [`ROUTES`] table names each
+//! route's method, path, who may use it and its handler, and [`app`] builds the router
+//! from that table alone, so the table cannot leave a route out.
 
 use axum::Router;
 use axum::extract::DefaultBodyLimit;
 use axum::http::{HeaderValue, header};
-use axum::routing::{get, post, put};
+use axum::routing::{MethodFilter, MethodRouter, any, on};
 use tower_http::services::{ServeDir, ServeFile};
 use tower::Layer as _;
 use tower_http::set_header::{SetResponseHeader, SetResponseHeaderLayer};
@@ -14,109 +16,142 @@ use crate::handlers::{assess, checklist, export, health, mine, observations, peo
 use crate::intake::photos::{MAX_PHOTO_BYTES, MAX_PHOTOS_PER_RECORD};
 
 /// Who may use a route. Handlers enforce it with the extractors in
-/// `handlers::access`; this table says it in one place, and the access-matrix test
-/// checks every route against every kind of caller from it.
+/// `handlers::access` (and, for the owner-scoped kinds, by comparing the caller with
+/// the record's or walk's observer); this table says it in one place, and the
+/// access-matrix test calls every route as every kind of caller from it.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
 pub enum Access {
-    /// Anyone; record and walk ids made on the phone are unguessable UUIDs.
+    /// Anyone.
     Public,
-    /// A phone with its device identity; only its own records.
-    Observer,
+    /// A phone with its device identity; what it reads or changes is its own.
+    Device,
+    /// Only the phone that sent the record or walk the request names (a new walk
+    /// becomes the sender's); another phone is refused (403), and so is staff.
+    OwnDevice,
+    /// The phone that sent the record the path names, or a signed-in reviewer or admin.
+    OwnDeviceOrReviewer,
     /// A signed-in reviewer or admin.
     Reviewer,
     /// A signed-in admin.
     Admin,
 }
 
-/// One route: method, path (as in the router) and who may use it.
-#[derive(Debug, Clone, Copy)]
+/// The HTTP methods the routes use.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Verb {
+    Get,
+    Post,
+    Put,
+    Delete,
+}
+
+impl Verb {
+    pub fn as_str(self) -> &'static str {
+        match self {
+            Self::Get => "GET",
+            Self::Post => "POST",
+            Self::Put => "PUT",
+            Self::Delete => "DELETE",
+        }
+    }
+
+    fn filter(self) -> MethodFilter {
+        match self {
+            Self::Get => MethodFilter::GET,
+            Self::Post => MethodFilter::POST,
+            Self::Put => MethodFilter::PUT,
+            Self::Delete => MethodFilter::DELETE,
+        }
+    }
+}
+
+/// Makes a route's handler for the method the table gives it.
+type MakeHandler = fn(MethodFilter) -> MethodRouter<AppState>;
+
+/// One route: method, path (axum syntax), who may use it, and its handler.
+#[derive(Clone, Copy)]
 pub struct RouteSpec {
-    pub method: &'static str,
+    pub verb: Verb,
     pub path: &'static str,
     pub access: Access,
+    handler: MakeHandler,
 }
 
-const fn route(method: &'static str, path: &'static str, access: Access) -> RouteSpec {
-    RouteSpec { method, path, access }
+impl RouteSpec {
+    pub fn method(&self) -> &'static str {
+        self.verb.as_str()
+    }
 }
 
-/// Every route below, with its access. Keep in step with [`app`] (a test reads both).
+impl std::fmt::Debug for RouteSpec {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        write!(f, "{} {} ({:?})", self.verb.as_str(), self.path, self.access)
+    }
+}
+
+const fn route(verb: Verb, path: &'static str, access: Access, handler: MakeHandler) -> RouteSpec {
+    RouteSpec { verb, path, access, handler }
+}
+
+/// The largest request a record or a reply with photos may be.
+const UPLOAD_LIMIT: usize = MAX_PHOTO_BYTES * MAX_PHOTOS_PER_RECORD + 1024 * 1024;
+
+use Access::{Admin, Device, OwnDevice, OwnDeviceOrReviewer, Public, Reviewer};
+use Verb::{Delete, Get, Post, Put};
+
+/// Every route, with its access and handler. [`app`] adds nothing else but the JSON 404
+/// for unknown `/api/` paths and the app's own files.
 pub const ROUTES: &[RouteSpec] = &[
-    route("GET", "/healthz", Access::Public),
-    route("POST", "/api/observations", Access::Public),
-    route("GET", "/api/observations", Access::Reviewer),
-    route("GET", "/api/observations/{client_id}", Access::Reviewer),
-    route("PUT", "/api/observations/{client_id}/walk", Access::Public),
-    route("POST", "/api/walks", Access::Public),
-    route("GET", "/api/walks", Access::Reviewer),
-    route("GET", "/api/effort", Access::Public),
-    route("GET", "/api/export", Access::Public),
-    route("GET", "/api/checklist", Access::Public),
-    route("GET", "/api/checklist/nearby", Access::Public),
-    route("GET", "/api/range", Access::Public),
-    route("GET", "/api/range/map.svg", Access::Public),
-    route("GET", "/api/trend", Access::Public),
-    route("GET", "/api/trend/chart.svg", Access::Public),
-    route("POST", "/api/session", Access::Public),
-    route("GET", "/api/session", Access::Public),
-    route("DELETE", "/api/session", Access::Public),
-    route("POST", "/api/devices", Access::Public),
-    route("GET", "/api/my/records", Access::Observer),
-    route("POST", "/api/my/records/{client_id}/replies", Access::Observer),
-    route("GET", "/api/review/queue", Access::Reviewer),
-    route("GET", "/api/review/records/{client_id}", Access::Reviewer),
-    route("POST", "/api/review/records/{client_id}/actions", Access::Reviewer),
-    route("GET", "/api/review/records/{client_id}/map.svg", Access::Reviewer),
-    route("POST", "/api/review/records/{client_id}/duplicates/{other_client_id}", Access::Reviewer),
-    route("POST", "/api/review/merges/{merge_id}/undo", Access::Reviewer),
-    route("GET", "/api/people", Access::Admin),
-    route("POST", "/api/people", Access::Admin),
-    route("PUT", "/api/people/{username}/disabled", Access::Admin),
-    route("GET", "/api/photos/{sha256}/similar", Access::Reviewer),
-    route("GET", "/photos/{sha256}", Access::Public),
-    route("GET", "/photos/{sha256}/thumb", Access::Public),
-    route("GET", "/photos/{sha256}/original", Access::Reviewer),
+    route(Get, "/healthz", Public, |m| on(m, health::healthz)),
+    route(Post, "/api/observations", Public, |m| on(m, observations::submit).layer(DefaultBodyLimit::max(UPLOAD_LIMIT))),
+    route(Get, "/api/observations", Reviewer, |m| on(m, observations::list)),
+    route(Get, "/api/observations/{client_id}", Reviewer, |m| on(m, observations::get)),
+    route(Put, "/api/observations/{client_id}/walk", OwnDeviceOrReviewer, |m| on(m, walks::link)),
+    route(Post, "/api/walks", OwnDevice, |m| on(m, walks::submit)),
+    route(Get, "/api/walks", Reviewer, |m| on(m, walks::list)),
+    route(Get, "/api/effort", Public, |m| on(m, walks::effort)),
+    route(Get, "/api/export", Public, |m| on(m, export::export)),
+    route(Get, "/api/checklist", Public, |m| on(m, checklist::get)),
+    route(Get, "/api/checklist/nearby", Public, |m| on(m, checklist::nearby)),
+    route(Get, "/api/range", Public, |m| on(m, assess::range)),
+    route(Get, "/api/range/map.svg", Public, |m| on(m, assess::range_map)),
+    route(Get, "/api/trend", Public, |m| on(m, assess::trend)),
+    route(Get, "/api/trend/chart.svg", Public, |m| on(m, assess::trend_chart)),
+    route(Post, "/api/session", Public, |m| on(m, session::login)),
+    route(Get, "/api/session", Public, |m| on(m, session::who)),
+    route(Delete, "/api/session", Public, |m| on(m, session::logout)),
+    route(Post, "/api/devices", Public, |m| on(m, session::new_device)),
+    route(Get, "/api/my/records", Device, |m| on(m, mine::records)),
+    route(Put, "/api/my/profile", Device, |m| on(m, mine::set_profile)),
+    route(Post, "/api/my/records/{client_id}/replies", OwnDevice, |m| on(m, mine::reply).layer(DefaultBodyLimit::max(UPLOAD_LIMIT))),
+    route(Get, "/api/review/queue", Reviewer, |m| on(m, review::queue)),
+    route(Get, "/api/review/records/{client_id}", Reviewer, |m| on(m, review::detail)),
+    route(Post, "/api/review/records/{client_id}/actions", Reviewer, |m| on(m, review::act)),
+    route(Get, "/api/review/records/{client_id}/map.svg", Reviewer, |m| on(m, review::place_map)),
+    route(Post, "/api/review/records/{client_id}/duplicates/{other_client_id}", Reviewer, |m| on(m, review::decide_pair)),
+    route(Post, "/api/review/merges/{merge_id}/undo", Reviewer, |m| on(m, review::undo_merge)),
+    route(Get, "/api/people", Admin, |m| on(m, people::list)),
+    route(Post, "/api/people", Admin, |m| on(m, people::add)),
+    route(Put, "/api/people/{username}/disabled", Admin, |m| on(m, people::set_disabled)),
+    route(Put, "/api/people/{username}/role", Admin, |m| on(m, people::set_role)),
+    route(Put, "/api/people/{username}/password", Admin, |m| on(m, people::reset_password)),
+    route(Get, "/api/people/events", Admin, |m| on(m, people::events)),
+    route(Get, "/api/photos/{sha256}/similar", Reviewer, |m| on(m, photos::similar)),
+    route(Get, "/photos/{sha256}", Public, |m| on(m, photos::display)),
+    route(Get, "/photos/{sha256}/thumb", Public, |m| on(m, photos::thumb)),
+    // Reviewers only: the original carries the photo's GPS and other EXIF.
+    route(Get, "/photos/{sha256}/original", Reviewer, |m| on(m, photos::original)),
 ];
 
-/// The whole HTTP surface. Unknown `/api/` paths are a JSON 404; any other unknown path
-/// is the app's `index.html` (status 200), so the app's own links work on reload.
+/// The whole HTTP surface: [`ROUTES`], then unknown `/api/` paths as a JSON 404 and any
+/// other unknown path as the app's `index.html` (status 200), so the app's own links
+/// work on reload.
 pub fn app(state: AppState) -> Router {
-    let upload_limit = MAX_PHOTO_BYTES * MAX_PHOTOS_PER_RECORD + 1024 * 1024;
-    let api = Router::new()
-        .route("/healthz", get(health::healthz))
-        .route(
-            "/api/observations",
-            post(observations::submit).get(observations::list).layer(DefaultBodyLimit::max(upload_limit)),
-        )
-        .route("/api/observations/{client_id}", get(observations::get))
-        .route("/api/observations/{client_id}/walk", put(walks::link))
-        .route("/api/walks", post(walks::submit).get(walks::list))
-        .route("/api/effort", get(walks::effort))
-        .route("/api/export", get(export::export))
-        .route("/api/checklist", get(checklist::get))
-        .route("/api/checklist/nearby", get(checklist::nearby))
-        .route("/api/session", post(session::login).get(session::who).delete(session::logout))
-        .route("/api/devices", post(session::new_device))
-        .route("/api/my/records", get(mine::records))
-        .route("/api/my/records/{client_id}/replies", post(mine::reply).layer(DefaultBodyLimit::max(upload_limit)))
-        .route("/api/review/queue", get(review::queue))
-        .route("/api/review/records/{client_id}", get(review::detail))
-        .route("/api/review/records/{client_id}/actions", post(review::act))
-        .route("/api/review/records/{client_id}/map.svg", get(review::place_map))
-        .route("/api/review/records/{client_id}/duplicates/{other_client_id}", post(review::decide_pair))
-        .route("/api/review/merges/{merge_id}/undo", post(review::undo_merge))
-        .route("/api/people", get(people::list).post(people::add))
-        .route("/api/people/{username}/disabled", put(people::set_disabled))
-        .route("/api/range", get(assess::range))
-        .route("/api/range/map.svg", get(assess::range_map))
-        .route("/api/trend", get(assess::trend))
-        .route("/api/trend/chart.svg", get(assess::trend_chart))
-        .route("/api/photos/{sha256}/similar", get(photos::similar))
-        .route("/api/{*rest}", get(api_not_found).post(api_not_found).put(api_not_found).delete(api_not_found))
-        .route("/photos/{sha256}", get(photos::display))
-        .route("/photos/{sha256}/thumb", get(photos::thumb))
-        // Reviewers only: the original carries the photo's GPS and other EXIF.
-        .route("/photos/{sha256}/original", get(photos::original));
+    let mut api = Router::new();
+    for spec in ROUTES {
+        api = api.route(spec.path, (spec.handler)(spec.verb.filter()));
+    }
+    let api = api.route("/api/{*rest}", any(api_not_found));
     let router = match &state.app_dir {
         Some(dir) => api.fallback_service(app_files(dir)),
         None => api,

@@ -49,7 +49,8 @@ pub struct SessionInfo {
     pub csrf_token: String,
 }
 
-/// `POST /api/devices`: a phone asks for its identity on first sync.
+/// `POST /api/devices`: a phone asks for its identity on first sync; also
+/// `PUT /api/my/profile`, when the observer gives or changes these later.
 #[derive(Debug, Clone, Default, Serialize, Deserialize)]
 #[serde(deny_unknown_fields)]
 pub struct DeviceRequest {
@@ -108,7 +109,8 @@ pub struct Message {
     pub at: DateTime<Utc>,
 }
 
-/// One row of the audit trail.
+/// One row of the audit trail: who (`by`), when (`at`), what changed (`action`, the
+/// states, `detail`) and why (`reason`: the reviewer's reason, remark or question).
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 pub struct ReviewEvent {
     pub action: String,
@@ -116,6 +118,85 @@ pub struct ReviewEvent {
     pub to_state: ReviewState,
     pub by: Option<String>,
     pub detail: Option<String>,
+    #[serde(default)]
+    pub reason: Option<String>,
+    pub at: DateTime<Utc>,
+}
+
+/// What the queue can be filtered by, and what raises a record in it: the flags raised
+/// on arrival, an undecided possible duplicate, and the photo checks.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, PartialOrd, Ord, Hash, Serialize, Deserialize)]
+#[serde(rename_all = "snake_case")]
+pub enum QueueFlag {
+    Oversize,
+    OutOfRange,
+    PossibleDuplicate,
+    /// A photo's EXIF time is long before the record's.
+    TakenLongBeforeRecord,
+    /// A photo's EXIF position is far from the record's.
+    TakenFarFromRecord,
+}
+
+impl QueueFlag {
+    pub const ALL: [QueueFlag; 5] =
+        [Self::Oversize, Self::OutOfRange, Self::PossibleDuplicate, Self::TakenLongBeforeRecord, Self::TakenFarFromRecord];
+
+    pub fn label(self) -> &'static str {
+        match self {
+            Self::Oversize => "oversize",
+            Self::OutOfRange => "out of range",
+            Self::PossibleDuplicate => "possible duplicate",
+            Self::TakenLongBeforeRecord => "photo older than the record",
+            Self::TakenFarFromRecord => "photo far from the record",
+        }
+    }
+}
+
+/// The guided key run again on the server from a record's stored answers, for the
+/// reviewer: the questions with the observer's answers, and the species ranked with
+/// the reasons for and against each.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct KeyReplay {
+    pub answers: Vec<KeyAnswer>,
+    /// Most probable first (at most a handful).
+    pub suggestions: Vec<KeySuggestion>,
+    /// Why the answers could not be replayed (the checklist changed since), if so.
+    pub problem: Option<String>,
+}
+
+/// One question of the key and the observer's answer, in words.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct KeyAnswer {
+    pub question: String,
+    pub answer: String,
+}
+
+/// One species the key suggests for the answers.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct KeySuggestion {
+    pub scientific_name: String,
+    pub common_name: Option<String>,
+    pub probability: f64,
+    pub reasons: Vec<KeyReason>,
+}
+
+/// A reason a species rose or fell: `supports`, `against` or `neutral`, and the words.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct KeyReason {
+    pub effect: String,
+    pub text: String,
+}
+
+/// One change to a sign-in, for the admin's audit trail.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct PersonEvent {
+    /// Whose sign-in changed.
+    pub username: String,
+    /// `added`, `role_changed`, `password_reset`, `turned_off`, `turned_on`.
+    pub action: String,
+    pub detail: Option<String>,
+    /// The admin's username; absent when done on the server's command line.
+    pub by: Option<String>,
     pub at: DateTime<Utc>,
 }
 
@@ -138,6 +219,9 @@ pub struct ReviewDetail {
     /// Other reports that may be the same animal, best first.
     #[serde(default)]
     pub duplicates: Vec<DuplicateView>,
+    /// The guided key replayed from the record's answers, when the observer used it.
+    #[serde(default)]
+    pub key: Option<KeyReplay>,
 }
 
 /// Another report that may show the same animal, for the reviewer to compare.
@@ -177,4 +261,33 @@ pub struct Reply {
     /// Made on the phone; a resend is not a second reply.
     pub client_id: Uuid,
     pub message: Text,
+    /// What the phone read from each original photo's EXIF, in photo order, before it
+    /// made the upload copy (as `Submission::photo_exif`). Left out when empty.
+    #[serde(default, skip_serializing_if = "Vec::is_empty")]
+    pub photo_exif: Vec<crate::record::PhotoExif>,
+}
+
+/// A time gap in words: "30.0 h", or "3.2 days" from three days up.
+pub fn hours_words(seconds: f64) -> String {
+    let hours = seconds / 3600.0;
+    if hours.abs() >= 72.0 { format!("{:.1} days", hours / 24.0) } else { format!("{hours:.1} h") }
+}
+
+/// A distance in words: "350 m", or "2.4 km" from a kilometre up.
+pub fn distance_words(metres: f64) -> String {
+    if metres >= 1000.0 { format!("{:.1} km", metres / 1000.0) } else { format!("{metres:.0} m") }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn gaps_and_distances_read_with_their_units() {
+        assert_eq!(hours_words(30.0 * 3600.0), "30.0 h");
+        assert_eq!(hours_words(-1800.0), "-0.5 h");
+        assert_eq!(hours_words(3.0 * 86400.0), "3.0 days");
+        assert_eq!(distance_words(349.6), "350 m");
+        assert_eq!(distance_words(2440.0), "2.4 km");
+    }
 }

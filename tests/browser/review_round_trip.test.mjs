@@ -48,6 +48,8 @@ test('a question reaches the phone, the answer with a photo reaches the reviewer
     await observer.click('.my-record .answer summary');
     await observer.fill('.my-record .answer-text', 'Here is the underside.');
     await observer.setInputFiles('.my-record .answer-photo', demoPhoto('spurdog.jpg'));
+    // The photo is read for EXIF and made into its upload copy first, as a record's is.
+    await observer.waitForSelector('.my-record .answer-thumb');
     await observer.click('.my-record .send-answer');
     await observer.waitForSelector('.answer-waiting');
     await observer.reload();
@@ -72,6 +74,12 @@ test('a question reaches the phone, the answer with a photo reaches the reviewer
     assert.equal(record.review_state, 'confirmed');
     const detail = await server.get(`/api/review/records/${record.submission.client_id}`);
     assert.deepEqual(detail.events.map((e) => e.action), ['request_details', 'observer_reply', 'confirm']);
+    // The answer's photo went as an upload copy (no EXIF of its own), with the phone's
+    // reading of the original beside it (spurdog.jpg's tags, as exiftool reads them).
+    const answered = detail.record.photos[1];
+    assert.equal(answered.exif.taken_at, null);
+    assert.equal(answered.phone_exif.taken_at, '2025-12-26T13:14:00Z');
+    assert.equal(answered.check.reading, 'phone');
   } finally {
     await handset.close();
     await desk.close();
@@ -79,7 +87,7 @@ test('a question reaches the phone, the answer with a photo reaches the reviewer
   }
 });
 
-test('an admin adds a reviewer on the people screen, who can then sign in; a reviewer cannot open it', async () => {
+test('an admin adds a reviewer, sets a new password and changes the role on the people screen, all in the trail; a reviewer cannot open it', async () => {
   const server = await startServer();
   const desk = await browser.newContext();
   try {
@@ -97,10 +105,26 @@ test('an admin adds a reviewer on the people screen, who can then sign in; a rev
     await page.fill('#new-password', 'a long enough password');
     await page.click('#add-person');
     await page.waitForFunction(() => /gwen · reviewer · Gwen/.test(document.querySelector('#people-list')?.textContent));
-    const login = await fetch(`${server.url}/api/session`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ username: 'gwen', password: 'a long enough password' }) });
+    // A new password, set by the admin to hand over in person; then the old one fails.
+    const gwen = page.locator('.person[data-username="gwen"]');
+    await gwen.locator('.person-password').fill('a password handed over');
+    await gwen.locator('.person-reset').click();
+    await page.waitForFunction(() => /gwen has a new password/.test(document.querySelector('#people-note')?.textContent));
+    const old = await fetch(`${server.url}/api/session`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ username: 'gwen', password: 'a long enough password' }) });
+    assert.equal(old.status, 401);
+    const login = await fetch(`${server.url}/api/session`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ username: 'gwen', password: 'a password handed over' }) });
     assert.equal(login.status, 200);
-    const people = await fetch(`${server.url}/api/people`, { headers: { cookie: login.headers.get('set-cookie').split(';')[0] } });
+    // Every change is in the trail, with who made it.
+    await page.waitForFunction(() => /gwen · password reset \(sessions ended\) · by browser-admin/.test(document.querySelector('#people-events')?.textContent));
+    assert.match(await page.textContent('#people-events'), /gwen · added \(as reviewer\) · by browser-admin/);
+    const cookie = login.headers.get('set-cookie').split(';')[0];
+    const people = await fetch(`${server.url}/api/people`, { headers: { cookie } });
     assert.equal(people.status, 403, 'a reviewer cannot manage people');
+    // Made an admin on the screen, the same sign-in may manage people at once.
+    await gwen.locator('.person-role').selectOption('admin');
+    await page.waitForFunction(() => /gwen is now admin/.test(document.querySelector('#people-note')?.textContent));
+    assert.equal((await fetch(`${server.url}/api/people`, { headers: { cookie } })).status, 200);
+    await page.waitForFunction(() => /gwen · role changed \(reviewer → admin\)/.test(document.querySelector('#people-events')?.textContent));
   } finally {
     await desk.close();
     server.stop();

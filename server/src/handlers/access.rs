@@ -7,7 +7,9 @@
 //!   and every state-changing request made with it must carry the session's CSRF token in
 //!   `X-CSRF-Token`; a bearer token cannot be sent by another site, so it needs none.
 
-use axum::extract::FromRequestParts;
+use std::net::{IpAddr, Ipv4Addr, SocketAddr};
+
+use axum::extract::{ConnectInfo, FromRequestParts};
 use axum::http::request::Parts;
 use axum::http::{Method, header};
 use chrono::Utc;
@@ -80,6 +82,8 @@ async fn person_with(parts: &mut Parts, state: &AppState, allowed: &[Role], what
 
 /// A phone with its device identity.
 pub struct Observer(pub Person);
+/// Anyone with an identity: a phone, or a signed-in reviewer or admin.
+pub struct Someone(pub Person);
 /// A signed-in reviewer or admin.
 pub struct Reviewer(pub Person);
 /// A signed-in admin.
@@ -89,6 +93,13 @@ impl FromRequestParts<AppState> for Observer {
     type Rejection = ApiError;
     async fn from_request_parts(parts: &mut Parts, state: &AppState) -> Result<Self, Self::Rejection> {
         person_with(parts, state, &[Role::Observer], "this needs the phone's own identity").await.map(Observer)
+    }
+}
+
+impl FromRequestParts<AppState> for Someone {
+    type Rejection = ApiError;
+    async fn from_request_parts(parts: &mut Parts, state: &AppState) -> Result<Self, Self::Rejection> {
+        person_with(parts, state, &[Role::Observer, Role::Reviewer, Role::Admin], "this needs the phone's own identity or a reviewer's sign-in").await.map(Someone)
     }
 }
 
@@ -104,4 +115,45 @@ impl FromRequestParts<AppState> for Admin {
     async fn from_request_parts(parts: &mut Parts, state: &AppState) -> Result<Self, Self::Rejection> {
         person_with(parts, state, &[Role::Admin], "admins only").await.map(Admin)
     }
+}
+
+/// Whether `person` may act on something a phone sent (`owner`: that phone's observer,
+/// if known): the same phone, or a reviewer or admin when `staff_too`. Refused with 403
+/// naming `what`, since record and walk ids are public (exports print them).
+pub fn check_owner(person: &Person, owner: Option<i64>, staff_too: bool, what: &str) -> Result<(), ApiError> {
+    let allowed = match person.role {
+        Role::Observer => owner == Some(person.id),
+        Role::Reviewer | Role::Admin => staff_too,
+    };
+    if allowed { Ok(()) } else { Err(ApiError::Forbidden(format!("{what} was sent from another phone"))) }
+}
+
+/// The client's address, for the sign-in rate limit: the peer of the connection, or,
+/// when the peer is this machine (a reverse proxy in front of the server), the last
+/// address the proxy added to `X-Forwarded-For`. Served without connection info (some
+/// tests), every client shares the unspecified address.
+pub struct ClientAddress(pub IpAddr);
+
+impl<S: Send + Sync> FromRequestParts<S> for ClientAddress {
+    type Rejection = std::convert::Infallible;
+
+    async fn from_request_parts(parts: &mut Parts, _state: &S) -> Result<Self, Self::Rejection> {
+        let peer = parts.extensions.get::<ConnectInfo<SocketAddr>>().map(|info| info.0.ip());
+        let forwarded = || {
+            let header = parts.headers.get_all("x-forwarded-for").iter().filter_map(|v| v.to_str().ok()).next_back()?;
+            header.rsplit(',').next()?.trim().parse::<IpAddr>().ok()
+        };
+        let address = match peer {
+            Some(peer) if peer.is_loopback() => forwarded().unwrap_or(peer),
+            Some(peer) => peer,
+            None => IpAddr::V4(Ipv4Addr::UNSPECIFIED),
+        };
+        Ok(ClientAddress(address))
+    }
+}
+
+/// Whether the request reached us over HTTPS, as the reverse proxy that ended TLS says
+/// (`X-Forwarded-Proto: https`); the server itself speaks plain HTTP.
+pub fn came_over_https(parts_headers: &axum::http::HeaderMap) -> bool {
+    parts_headers.get("x-forwarded-proto").and_then(|v| v.to_str().ok()).is_some_and(|proto| proto.trim().eq_ignore_ascii_case("https"))
 }

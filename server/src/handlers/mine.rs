@@ -1,19 +1,22 @@
-//! The observer's own records, as their phone sees them, and their replies to
-//! reviewers (with photos). Only the phone's own device identity opens these.
+//! The observer's own records, as their phone sees them, their replies to reviewers
+//! (with photos), and the name and contact they chose to give. Only the phone's own
+//! device identity opens these; another phone is refused (403) even when it knows a
+//! record's id, since exports print record ids.
 
 use axum::Json;
+use axum::body::Bytes;
 use axum::extract::{Multipart, Path, State};
 use chrono::Utc;
-use shared_types::{MyRecord, Reply};
+use shared_types::{DeviceRequest, MyRecord, Reply};
 use uuid::Uuid;
 
 use crate::AppState;
 use crate::error::ApiError;
-use crate::handlers::access::Observer;
+use crate::handlers::access::{Observer, check_owner};
 use crate::handlers::observations::{intake_error, read_parts};
 use crate::intake::{self, parse_json};
 use crate::store::review::{self as review_store, ReplyOutcome};
-use crate::store::observations;
+use crate::store::{observations, people};
 
 /// `GET /api/my/records`.
 pub async fn records(State(state): State<AppState>, Observer(me): Observer) -> Result<Json<Vec<MyRecord>>, ApiError> {
@@ -38,15 +41,29 @@ pub async fn records(State(state): State<AppState>, Observer(me): Observer) -> R
 }
 
 /// `POST /api/my/records/{client_id}/replies`: multipart with a `reply` JSON part and
-/// `photo` parts. A resend of the same reply changes nothing.
+/// `photo` parts (upload copies, as for records, with the phone's EXIF readings in
+/// `reply.photo_exif`). The photos go through the same intake and the same checks
+/// against the record's time and place as the record's own photos. A resend of the
+/// same reply changes nothing.
 pub async fn reply(State(state): State<AppState>, Observer(me): Observer, Path(client_id): Path<String>, multipart: Multipart) -> Result<Json<serde_json::Value>, ApiError> {
     let record = Uuid::parse_str(&client_id).map_err(|_| ApiError::BadRequest(format!("`{client_id}` is not a record id (a UUID)")))?;
+    // Whose record it is, before the body is read.
+    let found = state.store.run(move |conn| observations::record_by_client_id(conn, record)).await?;
+    let view = found.ok_or_else(|| ApiError::NotFound(format!("no record with id {record}")))?;
+    let owner = state.store.run(move |conn| review_store::observation_of(conn, record)).await?.and_then(|(_, _, owner)| owner);
+    check_owner(&me, owner, false, &format!("record {record}"))?;
+
     let (json, photos) = read_parts(multipart, "reply").await?;
     let reply: Reply = parse_json(&json).map_err(intake_error)?;
     if reply.message.as_str().is_empty() && photos.is_empty() {
         return Err(ApiError::InvalidField { field: "message".into(), message: "write a message or add a photo".into() });
     }
-    let stored = intake::store_photos(&state, photos, chrono::FixedOffset::east_opt(0).expect("zero offset")).await.map_err(intake_error)?;
+    if reply.photo_exif.len() > photos.len() {
+        let message = format!("lists EXIF for {} photos but {} came with the reply", reply.photo_exif.len(), photos.len());
+        return Err(ApiError::InvalidField { field: "photo_exif".into(), message });
+    }
+    let mut stored = intake::store_photos(&state, photos, *view.submission.observed_at.offset()).await.map_err(intake_error)?;
+    intake::compare_photos(&view.submission, &mut stored, &reply.photo_exif);
     let observer = me.id;
     let outcome = state
         .store
@@ -54,6 +71,17 @@ pub async fn reply(State(state): State<AppState>, Observer(me): Observer, Path(c
         .await?;
     match outcome {
         ReplyOutcome::Added | ReplyOutcome::AlreadyThere => Ok(Json(serde_json::json!({"client_id": record, "received": true}))),
-        ReplyOutcome::NotTheirs => Err(ApiError::NotFound(format!("no record {record} of yours"))),
+        ReplyOutcome::NotTheirs => Err(ApiError::Forbidden(format!("record {record} was sent from another phone"))),
     }
+}
+
+/// `PUT /api/my/profile`: the name and contact this phone's observer chose to give
+/// (either may be empty). The contact is for reviewers only; no route sends it out.
+pub async fn set_profile(State(state): State<AppState>, Observer(me): Observer, body: Bytes) -> Result<Json<serde_json::Value>, ApiError> {
+    let profile: DeviceRequest = parse_json(&body).map_err(intake_error)?;
+    let name = profile.display_name.map(|n| n.as_str().trim().to_owned()).filter(|n| !n.is_empty());
+    let contact = profile.contact.map(|c| c.as_str().trim().to_owned()).filter(|c| !c.is_empty());
+    let has_contact = contact.is_some();
+    state.store.run(move |conn| people::set_observer_profile(conn, me.id, name.as_deref(), contact.as_deref())).await?;
+    Ok(Json(serde_json::json!({"saved": true, "contact_given": has_contact})))
 }

@@ -1,11 +1,13 @@
-//! The admin's screen of people with a sign-in: list, add, turn off and on.
+//! The admin's screen of people with a sign-in: list, add, change a role, reset a
+//! password, turn off and on, and the audit trail of those changes (who did what to
+//! whose sign-in, and when).
 
 use axum::Json;
 use axum::body::Bytes;
 use axum::extract::{Path, State};
 use chrono::Utc;
 use serde::Deserialize;
-use shared_types::Role;
+use shared_types::{PersonEvent, Role};
 
 use crate::AppState;
 use crate::auth;
@@ -13,11 +15,16 @@ use crate::error::ApiError;
 use crate::handlers::access::Admin;
 use crate::handlers::observations::intake_error;
 use crate::intake::parse_json;
-use crate::store::people::{self, Person};
+use crate::store::people::{self, Person, RoleChange};
 
 /// `GET /api/people`.
 pub async fn list(State(state): State<AppState>, Admin(_): Admin) -> Result<Json<Vec<Person>>, ApiError> {
     Ok(Json(state.store.run(|conn| people::list_staff(conn)).await?))
+}
+
+/// `GET /api/people/events`: every change to a sign-in, newest first.
+pub async fn events(State(state): State<AppState>, Admin(_): Admin) -> Result<Json<Vec<PersonEvent>>, ApiError> {
+    Ok(Json(state.store.run(|conn| people::events(conn)).await?))
 }
 
 #[derive(Deserialize)]
@@ -29,29 +36,47 @@ pub struct NewPerson {
     password: String,
 }
 
-/// Checks and adds a reviewer or admin; shared by the admin screen and the command line.
-pub async fn add_staff(state: &AppState, username: String, role: Role, display_name: String, password: String) -> Result<i64, ApiError> {
-    let invalid = |field: &str, message: String| ApiError::InvalidField { field: field.into(), message };
+fn invalid(field: &str, message: String) -> ApiError {
+    ApiError::InvalidField { field: field.into(), message }
+}
+
+fn staff_role(role: Role) -> Result<Role, ApiError> {
     if role == Role::Observer {
         return Err(invalid("role", "observers need no sign-in: their phone gets an identity of its own".into()));
     }
+    Ok(role)
+}
+
+/// Checks a password's length and hashes it (argon2, on the blocking pool).
+async fn hashed(password: String) -> Result<String, ApiError> {
+    if password.chars().count() < auth::MIN_PASSWORD_CHARS {
+        return Err(invalid("password", format!("at least {} characters", auth::MIN_PASSWORD_CHARS)));
+    }
+    Ok(tokio::task::spawn_blocking(move || auth::hash_password(&password)).await.map_err(|err| ApiError::Internal(err.into()))??)
+}
+
+/// Checks and adds a reviewer or admin on the server itself (`wrackline user add`, the
+/// demo): the audit row names no admin.
+pub async fn add_staff(state: &AppState, username: String, role: Role, display_name: String, password: String) -> Result<i64, ApiError> {
+    add_staff_as(state, None, username, role, display_name, password).await
+}
+
+async fn add_staff_as(state: &AppState, by: Option<i64>, username: String, role: Role, display_name: String, password: String) -> Result<i64, ApiError> {
+    let role = staff_role(role)?;
     let username = username.trim().to_lowercase();
     if username.is_empty() || !username.chars().all(|c| c.is_ascii_alphanumeric() || "-_.".contains(c)) {
         return Err(invalid("username", "use letters, digits, '-', '_' or '.'".into()));
     }
-    if password.chars().count() < auth::MIN_PASSWORD_CHARS {
-        return Err(invalid("password", format!("at least {} characters", auth::MIN_PASSWORD_CHARS)));
-    }
-    let hash = tokio::task::spawn_blocking(move || auth::hash_password(&password)).await.map_err(|err| ApiError::Internal(err.into()))??;
+    let hash = hashed(password).await?;
     let name = username.clone();
-    let added = state.store.run(move |conn| people::add_staff(conn, &name, role, &display_name, &hash, Utc::now())).await?;
+    let added = state.store.run(move |conn| people::add_staff(conn, &name, role, &display_name, &hash, by, Utc::now())).await?;
     added.ok_or_else(|| ApiError::Conflict(format!("the username {username} is taken")))
 }
 
 /// `POST /api/people`.
-pub async fn add(State(state): State<AppState>, Admin(_): Admin, body: Bytes) -> Result<Json<serde_json::Value>, ApiError> {
+pub async fn add(State(state): State<AppState>, Admin(admin): Admin, body: Bytes) -> Result<Json<serde_json::Value>, ApiError> {
     let new: NewPerson = parse_json(&body).map_err(intake_error)?;
-    let id = add_staff(&state, new.username, new.role, new.display_name, new.password).await?;
+    let id = add_staff_as(&state, Some(admin.id), new.username, new.role, new.display_name, new.password).await?;
     Ok(Json(serde_json::json!({"id": id})))
 }
 
@@ -61,16 +86,61 @@ pub struct Disabled {
     disabled: bool,
 }
 
+fn is_self(admin: &Person, username: &str) -> bool {
+    admin.username.as_deref() == Some(username)
+}
+
 /// `PUT /api/people/{username}/disabled`.
 pub async fn set_disabled(State(state): State<AppState>, Admin(admin): Admin, Path(username): Path<String>, body: Bytes) -> Result<Json<serde_json::Value>, ApiError> {
     let Disabled { disabled } = parse_json(&body).map_err(intake_error)?;
-    if disabled && admin.username.as_deref() == Some(username.as_str()) {
+    if disabled && is_self(&admin, &username) {
         return Err(ApiError::Conflict("an admin cannot turn off their own sign-in".into()));
     }
     let name = username.clone();
-    let changed = state.store.run(move |conn| people::set_disabled(conn, &name, disabled)).await?;
+    let changed = state.store.run(move |conn| people::set_disabled(conn, &name, disabled, Some(admin.id), Utc::now())).await?;
     if !changed {
         return Err(ApiError::NotFound(format!("no sign-in called {username}")));
     }
     Ok(Json(serde_json::json!({"username": username, "disabled": disabled})))
+}
+
+#[derive(Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct NewRole {
+    role: Role,
+}
+
+/// `PUT /api/people/{username}/role`: reviewer ↔ admin. An admin cannot change their
+/// own role, so the admin making the change is always left.
+pub async fn set_role(State(state): State<AppState>, Admin(admin): Admin, Path(username): Path<String>, body: Bytes) -> Result<Json<serde_json::Value>, ApiError> {
+    let NewRole { role } = parse_json(&body).map_err(intake_error)?;
+    let role = staff_role(role)?;
+    if is_self(&admin, &username) {
+        return Err(ApiError::Conflict("an admin cannot change their own role; ask another admin".into()));
+    }
+    let name = username.clone();
+    match state.store.run(move |conn| people::set_role(conn, &name, role, Some(admin.id), Utc::now())).await? {
+        RoleChange::NoSuchPerson => Err(ApiError::NotFound(format!("no sign-in called {username}"))),
+        RoleChange::Unchanged => Ok(Json(serde_json::json!({"username": username, "role": role, "changed": false}))),
+        RoleChange::Changed { from } => Ok(Json(serde_json::json!({"username": username, "role": role, "was": from, "changed": true}))),
+    }
+}
+
+#[derive(Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct NewPassword {
+    password: String,
+}
+
+/// `PUT /api/people/{username}/password`: a new password chosen by the admin, to hand
+/// over in person; the person's sessions end.
+pub async fn reset_password(State(state): State<AppState>, Admin(admin): Admin, Path(username): Path<String>, body: Bytes) -> Result<Json<serde_json::Value>, ApiError> {
+    let NewPassword { password } = parse_json(&body).map_err(intake_error)?;
+    let hash = hashed(password).await?;
+    let name = username.clone();
+    let changed = state.store.run(move |conn| people::set_password(conn, &name, &hash, Some(admin.id), Utc::now())).await?;
+    if !changed {
+        return Err(ApiError::NotFound(format!("no sign-in called {username}")));
+    }
+    Ok(Json(serde_json::json!({"username": username, "password_reset": true})))
 }

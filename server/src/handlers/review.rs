@@ -5,7 +5,8 @@ use axum::body::Bytes;
 use axum::extract::{Path, Query, State};
 use chrono::Utc;
 use serde::Deserialize;
-use shared_types::{FlagKind, QueueItem, ReviewAction, ReviewDetail, ReviewState};
+use shared_types::codes::{code as code_of, from_code};
+use shared_types::{QueueFlag, QueueItem, ReviewAction, ReviewDetail, ReviewState};
 use uuid::Uuid;
 
 use crate::AppState;
@@ -20,80 +21,94 @@ fn record_id(text: &str) -> Result<Uuid, ApiError> {
     Uuid::parse_str(text).map_err(|_| ApiError::BadRequest(format!("`{text}` is not a record id (a UUID)")))
 }
 
-/// Queue filters; all optional.
+/// Queue filters and paging; all optional.
 #[derive(Debug, Default, Deserialize)]
 pub struct QueueFilter {
-    /// A review state code; default: awaiting review and details requested.
+    /// A review state code, or `any`; default: awaiting review and details requested.
     state: Option<String>,
-    /// A taxon name at any rank (matched against the checklist's higher taxa too).
+    /// A species or higher taxon, scientific or common name; records identified to it
+    /// or to anything below it.
     taxon: Option<String>,
-    /// A flag kind code (oversize, out_of_range).
+    /// A flag code (see `QueueFlag`): oversize, out_of_range, possible_duplicate,
+    /// taken_long_before_record, taken_far_from_record.
     flag: Option<String>,
-    /// Observed on or after / before, `YYYY-MM-DD`.
+    /// Observed on or after / on or before, `YYYY-MM-DD` (the record's own date).
     from: Option<String>,
     to: Option<String>,
     /// A checklist area code.
     area: Option<String>,
+    /// Paging over the ordered queue: skip `offset` items, give at most `limit`.
+    offset: Option<usize>,
+    limit: Option<usize>,
 }
 
-/// `GET /api/review/queue`.
-pub async fn queue(State(state): State<AppState>, Reviewer(_): Reviewer, Query(filter): Query<QueueFilter>) -> Result<Json<Vec<QueueItem>>, ApiError> {
-    let states = match filter.state.as_deref() {
-        None => vec![ReviewState::AwaitingReview, ReviewState::DetailsRequested],
+/// Queue items per page when the caller does not say, and at most.
+pub const QUEUE_PAGE: usize = 50;
+pub const QUEUE_PAGE_MAX: usize = 500;
+
+fn states_asked(code: Option<&str>) -> Result<Vec<ReviewState>, ApiError> {
+    Ok(match code {
+        None | Some("") => vec![ReviewState::AwaitingReview, ReviewState::DetailsRequested],
         Some("any") => Vec::new(),
-        Some(code) => vec![ReviewState::from_code(code).ok_or_else(|| ApiError::BadRequest(format!("unknown review state `{code}`")))?],
-    };
-    let flag = filter
-        .flag
-        .as_deref()
-        .map(|code| serde_json::from_value::<FlagKind>(serde_json::Value::String(code.to_owned())).map_err(|_| ApiError::BadRequest(format!("unknown flag `{code}`; use oversize or out_of_range"))))
-        .transpose()?;
+        Some(code) => vec![ReviewState::from_code(code).ok_or_else(|| ApiError::BadRequest(format!("state: unknown review state `{code}`")))?],
+    })
+}
+
+fn flag_asked(code: Option<&str>) -> Result<Option<QueueFlag>, ApiError> {
+    let Some(code) = code.filter(|c| !c.is_empty()) else { return Ok(None) };
+    from_code::<QueueFlag>(code).map(Some).ok_or_else(|| {
+        let known: Vec<String> = QueueFlag::ALL.iter().map(code_of).collect();
+        ApiError::BadRequest(format!("flag: unknown flag `{code}`; use one of {}", known.join(", ")))
+    })
+}
+
+fn date_asked(field: &str, text: Option<&str>) -> Result<Option<String>, ApiError> {
+    let Some(text) = text.filter(|t| !t.is_empty()) else { return Ok(None) };
+    chrono::NaiveDate::parse_from_str(text, "%Y-%m-%d").map_err(|_| ApiError::BadRequest(format!("{field}: `{text}` is not a date (YYYY-MM-DD)")))?;
+    Ok(Some(text.to_owned()))
+}
+
+/// `GET /api/review/queue`: the records to review, most important first, a page at a time.
+pub async fn queue(State(state): State<AppState>, Reviewer(_): Reviewer, Query(filter): Query<QueueFilter>) -> Result<Json<Vec<QueueItem>>, ApiError> {
+    let states = states_asked(filter.state.as_deref())?;
+    let flag = flag_asked(filter.flag.as_deref())?;
+    let (from, to) = (date_asked("from", filter.from.as_deref())?, date_asked("to", filter.to.as_deref())?);
+    let limit = filter.limit.unwrap_or(QUEUE_PAGE).min(QUEUE_PAGE_MAX);
     let rows = state
         .store
         .run(move |conn| {
             let undecided = duplicates_store::undecided(conn)?;
-            review_store::records_in_states(conn, &states)?
-                .into_iter()
-                .filter_map(|id| observations::record_by_client_id(conn, id).transpose())
-                .map(|record| {
-                    let record = record?;
-                    let taxon = review_store::current_taxon(conn, record.observation_id)?;
-                    let possible = undecided.contains(&record.observation_id);
-                    Ok((record, taxon, possible))
-                })
-                .collect::<Result<Vec<_>, crate::store::StoreError>>()
+            let records = observations::records_in_states(conn, &states)?;
+            Ok(records.into_iter().map(|(record, taxon)| (undecided.contains(&record.observation_id), record, taxon)).collect::<Vec<_>>())
         })
         .await?;
     let taxa = state.taxa.clone();
     let checklist = taxa.checklist();
+    let wanted = filter.taxon.as_deref().filter(|t| !t.trim().is_empty()).map(|t| review::WantedTaxon::new(&taxa, t));
     let mut items: Vec<_> = rows
         .into_iter()
-        .filter(|(record, taxon, _)| matches_filter(record, taxon.as_deref(), &filter, flag, checklist))
-        .map(|(record, taxon, possible)| {
+        .filter(|(possible, record, taxon)| {
+            let day = record.submission.observed_at.format("%Y-%m-%d").to_string();
+            wanted.as_ref().is_none_or(|w| w.takes_in(&taxa, taxon.as_deref()))
+                && in_area(record, filter.area.as_deref(), checklist)
+                && flag.is_none_or(|f| review::queue_flags(record, *possible).contains(&f))
+                && from.as_deref().is_none_or(|from| day.as_str() >= from)
+                && to.as_deref().is_none_or(|to| day.as_str() <= to)
+        })
+        .map(|(possible, record, taxon)| {
             let (score, reasons) = review::priority(&record, taxon.as_deref(), checklist, possible);
             (score, record, reasons, taxon)
         })
         .collect();
     review::order(&mut items);
-    Ok(Json(items.into_iter().map(|(_, record, priority_reasons, current_taxon)| QueueItem { record, current_taxon, priority_reasons }).collect()))
+    let page = items.into_iter().skip(filter.offset.unwrap_or(0)).take(limit);
+    Ok(Json(page.map(|(_, record, priority_reasons, current_taxon)| QueueItem { record, current_taxon, priority_reasons }).collect()))
 }
 
-fn matches_filter(record: &shared_types::RecordView, taxon: Option<&str>, filter: &QueueFilter, flag: Option<FlagKind>, checklist: &species_key::Checklist) -> bool {
-    let day = record.submission.observed_at.format("%Y-%m-%d").to_string();
-    let taxon_ok = filter.taxon.as_deref().is_none_or(|wanted| {
-        taxon.is_some_and(|name| {
-            name.eq_ignore_ascii_case(wanted)
-                || checklist.taxon(name).is_some_and(|t| [&t.genus, &t.family, &t.order, &t.superorder].iter().any(|h| h.eq_ignore_ascii_case(wanted)))
-        })
-    });
-    let area_ok = filter.area.as_deref().is_none_or(|code| {
+fn in_area(record: &shared_types::RecordView, area: Option<&str>, checklist: &species_key::Checklist) -> bool {
+    area.filter(|a| !a.is_empty()).is_none_or(|code| {
         record.submission.position.is_some_and(|p| checklist.area_at(p.latitude.get(), p.longitude.get()).is_some_and(|a| a.code == code))
-    });
-    taxon_ok
-        && area_ok
-        && flag.is_none_or(|kind| record.flags.iter().any(|f| f.kind == kind))
-        && filter.from.as_deref().is_none_or(|from| day.as_str() >= from)
-        && filter.to.as_deref().is_none_or(|to| day.as_str() <= to)
+    })
 }
 
 /// `GET /api/review/records/{client_id}`.
@@ -112,7 +127,8 @@ pub async fn detail(State(state): State<AppState>, Reviewer(_): Reviewer, Path(c
         .await?;
     let (record, taxon, identifications, messages, events, duplicates, possible) = found.ok_or_else(|| ApiError::NotFound(format!("no record with id {id}")))?;
     let (_, priority_reasons) = review::priority(&record, taxon.as_deref(), state.checklist(), possible);
-    Ok(Json(ReviewDetail { record, identifications, messages, events, priority_reasons, duplicates }))
+    let key = review::key_replay(state.checklist(), &record.submission);
+    Ok(Json(ReviewDetail { record, identifications, messages, events, priority_reasons, duplicates, key }))
 }
 
 fn duplicate_views(conn: &rusqlite::Connection, record: &shared_types::RecordView) -> Result<Vec<shared_types::DuplicateView>, crate::store::StoreError> {
@@ -208,8 +224,12 @@ pub async fn place_map(State(state): State<AppState>, Reviewer(_): Reviewer, Pat
         points.push(MapPoint { label: "this record (phone)".into(), position, uncertainty_m: p.accuracy_m.map(|a| a.get()), colour: "#1c3b57" });
     }
     for (i, photo) in record.photos.iter().enumerate() {
-        if let Some(position) = photo.exif.latitude.zip(photo.exif.longitude).and_then(|(lat, lon)| at(lat, lon)) {
-            points.push(MapPoint { label: format!("photo {} (its own GPS)", i + 1), position, uncertainty_m: photo.exif.horizontal_error_m, colour: "#e07a1f" });
+        // The server's reading of the file, else the phone's of the original (upload
+        // copies carry no EXIF).
+        let readings = [(&photo.exif, "its own GPS"), (photo.phone_exif.as_ref().unwrap_or(&photo.exif), "its own GPS, as the phone read it")];
+        let found = readings.into_iter().find_map(|(exif, words)| exif.latitude.zip(exif.longitude).and_then(|(lat, lon)| at(lat, lon)).map(|p| (p, exif, words)));
+        if let Some((position, exif, words)) = found {
+            points.push(MapPoint { label: format!("photo {} ({words})", i + 1), position, uncertainty_m: exif.horizontal_error_m, colour: "#e07a1f" });
         }
     }
     for dup in &duplicates {

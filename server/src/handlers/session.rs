@@ -1,4 +1,10 @@
 //! Signing in and out (reviewers and admins), and the phones' device identities.
+//!
+//! The session cookie is `HttpOnly; SameSite=Strict`, and `Secure` when the request
+//! came over HTTPS through a reverse proxy (`X-Forwarded-Proto: https`). It is not
+//! `Secure` on plain HTTP — the demo on http://127.0.0.1 — because a browser may refuse
+//! to keep a `Secure` cookie set over plain HTTP, and on plain HTTP the flag would
+//! protect nothing.
 
 use std::time::Instant;
 
@@ -13,45 +19,61 @@ use shared_types::{DeviceIdentity, DeviceRequest, LoginRequest, SessionInfo};
 use crate::AppState;
 use crate::auth::{self, SESSION_HOURS, new_token, token_sha256};
 use crate::error::ApiError;
-use crate::handlers::access::{Caller, SESSION_COOKIE};
+use crate::handlers::access::{Caller, ClientAddress, SESSION_COOKIE, came_over_https};
 use crate::handlers::observations::intake_error;
 use crate::intake::parse_json;
 use crate::store::people;
 
 /// `POST /api/session`: signs in; sets the session cookie and returns the CSRF token.
-pub async fn login(State(state): State<AppState>, body: Bytes) -> Result<Response, ApiError> {
+pub async fn login(State(state): State<AppState>, ClientAddress(address): ClientAddress, headers: HeaderMap, body: Bytes) -> Result<Response, ApiError> {
     let request: LoginRequest = parse_json(&body).map_err(intake_error)?;
     let username = request.username.trim().to_owned();
-    if let Some(wait) = state.logins.locked_for(&username, Instant::now()) {
-        return Err(ApiError::TooManyRequests(format!("too many failed sign-ins for {username}; try again in {} minutes", wait.as_secs().div_ceil(60))));
+    if let Some((wait, lock)) = state.logins.locked_for(&username, address, Instant::now()) {
+        let minutes = wait.as_secs().div_ceil(60);
+        let whose = match lock {
+            auth::Lock::NameFromAddress => format!("for {username} from this address"),
+            auth::Lock::Address => "from this address".to_owned(),
+            auth::Lock::Name => format!("for {username}"),
+        };
+        return Err(ApiError::TooManyRequests(format!("too many failed sign-ins {whose}; try again in {minutes} minutes")));
     }
     let lookup = username.clone();
     let found = state.store.run(move |conn| people::staff_by_username(conn, &lookup)).await?;
     let password = request.password;
-    let verified = tokio::task::spawn_blocking(move || found.filter(|(_, hash)| auth::verify_password(&password, hash)))
-        .await
-        .map_err(|err| ApiError::Internal(anyhow::anyhow!("password check failed: {err}")))?;
+    // Unknown names are checked against a dummy hash: the same work, the same time.
+    let verified = tokio::task::spawn_blocking(move || {
+        let matches = auth::verify_or_dummy(&password, found.as_ref().map(|(_, hash)| hash.as_str()));
+        found.filter(|_| matches)
+    })
+    .await
+    .map_err(|err| ApiError::Internal(anyhow::anyhow!("password check failed: {err}")))?;
     let Some((person, _)) = verified.filter(|(p, _)| !p.disabled) else {
-        state.logins.record_failure(&username, Instant::now());
+        state.logins.record_failure(&username, address, Instant::now());
         return Err(ApiError::Unauthorized("wrong username or password".into()));
     };
-    state.logins.clear(&username);
+    state.logins.succeeded(&username, address);
     let (token, csrf_token) = (new_token(), new_token());
     let (hash, csrf, id, now) = (token_sha256(&token), csrf_token.clone(), person.id, Utc::now());
     state.store.run(move |conn| people::add_session(conn, &hash, id, &csrf, now, now + chrono::Duration::hours(SESSION_HOURS))).await?;
-    let cookie = format!("{SESSION_COOKIE}={token}; HttpOnly; SameSite=Strict; Path=/; Max-Age={}", SESSION_HOURS * 3600);
+    let cookie = session_cookie(&token, SESSION_HOURS * 3600, came_over_https(&headers));
     let info = SessionInfo { role: person.role, display_name: person.display_name.unwrap_or_default(), csrf_token };
-    let mut headers = HeaderMap::new();
-    headers.insert(header::SET_COOKIE, HeaderValue::from_str(&cookie).map_err(|err| ApiError::Internal(err.into()))?);
-    Ok((headers, Json(info)).into_response())
+    let mut response_headers = HeaderMap::new();
+    response_headers.insert(header::SET_COOKIE, HeaderValue::from_str(&cookie).map_err(|err| ApiError::Internal(err.into()))?);
+    Ok((response_headers, Json(info)).into_response())
+}
+
+/// The `Set-Cookie` value for a session token (empty and `Max-Age=0` to end one).
+fn session_cookie(token: &str, max_age_s: i64, secure: bool) -> String {
+    let secure = if secure { "; Secure" } else { "" };
+    format!("{SESSION_COOKIE}={token}; HttpOnly; SameSite=Strict; Path=/; Max-Age={max_age_s}{secure}")
 }
 
 /// `DELETE /api/session`: signs out.
-pub async fn logout(State(state): State<AppState>, caller: Caller) -> Result<Response, ApiError> {
+pub async fn logout(State(state): State<AppState>, headers: HeaderMap, caller: Caller) -> Result<Response, ApiError> {
     if let Some(hash) = caller.session_sha256 {
         state.store.run(move |conn| people::end_session(conn, &hash)).await?;
     }
-    let expired = format!("{SESSION_COOKIE}=; HttpOnly; SameSite=Strict; Path=/; Max-Age=0");
+    let expired = session_cookie("", 0, came_over_https(&headers));
     Ok(([(header::SET_COOKIE, expired)], Json(serde_json::json!({"signed_out": true}))).into_response())
 }
 

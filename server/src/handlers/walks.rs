@@ -1,5 +1,7 @@
-//! Survey walks: submit one (JSON), list them, link a record to a walk after the
-//! fact, and the effort summary.
+//! Survey walks: submit one (JSON, from a phone with its device identity; the walk is
+//! that phone's), list them, link a record to a walk after the fact (the phone that sent
+//! the record, or a reviewer), and the effort summary. Record and walk ids are public
+//! (exports print them), so knowing one gives no right to it.
 
 use axum::Json;
 use axum::body::Bytes;
@@ -12,14 +14,21 @@ use uuid::Uuid;
 use crate::AppState;
 use crate::effort::{self, EffortRow, Period};
 use crate::error::ApiError;
-use crate::handlers::access::Reviewer;
+use crate::handlers::access::{Observer, Reviewer, Someone, check_owner};
 use crate::handlers::observations::intake_error;
+use crate::intake::walks::WalkRefused;
 use crate::intake::{parse_json, walks as intake_walks};
+use crate::store::review as review_store;
 use crate::store::walks::{self, LinkOutcome, StoredWalk};
 
-/// `POST /api/walks`: answers only once the walk is stored; a resend gets the same receipt.
-pub async fn submit(State(state): State<AppState>, body: Bytes) -> Result<Json<WalkReceipt>, ApiError> {
-    intake_walks::accept_walk(&state, &body, Utc::now()).await.map(Json).map_err(intake_error)
+/// `POST /api/walks`: answers only once the walk is stored, under the phone that sent
+/// it; a resend gets the same receipt, another phone sending the same walk id a 403.
+pub async fn submit(State(state): State<AppState>, Observer(me): Observer, body: Bytes) -> Result<Json<WalkReceipt>, ApiError> {
+    match intake_walks::accept_walk(&state, &body, Some(me.id), Utc::now()).await {
+        Ok(receipt) => Ok(Json(receipt)),
+        Err(WalkRefused::Intake(err)) => Err(intake_error(err)),
+        Err(refused @ WalkRefused::NotYours(_)) => Err(ApiError::Forbidden(refused.to_string())),
+    }
 }
 
 /// `GET /api/walks` (reviewers: tracks are never public).
@@ -27,12 +36,20 @@ pub async fn list(State(state): State<AppState>, Reviewer(_): Reviewer) -> Resul
     Ok(Json(state.store.run(|conn| walks::list_walks(conn)).await?))
 }
 
-/// `PUT /api/observations/{client_id}/walk`: puts a stored record on a walk. Doing it
-/// again is harmless; moving a record to another walk is refused.
-pub async fn link(State(state): State<AppState>, Path(client_id): Path<String>, body: Bytes) -> Result<Json<serde_json::Value>, ApiError> {
+/// `PUT /api/observations/{client_id}/walk`: puts a stored record on a walk. Only the
+/// phone that sent the record may, and only onto a walk of its own (or one not stored
+/// yet); a reviewer may link any record. Doing it again is harmless; moving a record to
+/// another walk is refused.
+pub async fn link(State(state): State<AppState>, Someone(caller): Someone, Path(client_id): Path<String>, body: Bytes) -> Result<Json<serde_json::Value>, ApiError> {
     let record = Uuid::parse_str(&client_id).map_err(|_| ApiError::BadRequest(format!("`{client_id}` is not a record id (a UUID)")))?;
+    let owner = state.store.run(move |conn| review_store::observation_of(conn, record)).await?;
+    let (_, _, record_owner) = owner.ok_or_else(|| ApiError::NotFound(format!("no record with id {record}; send the record first")))?;
+    check_owner(&caller, record_owner, true, &format!("record {record}"))?;
     let link: WalkLink = parse_json(&body).map_err(intake_error)?;
     let walk = link.walk_client_id;
+    if let Some(Some(walk_owner)) = state.store.run(move |conn| walks::walk_observer(conn, walk)).await? {
+        check_owner(&caller, Some(walk_owner), true, &format!("walk {walk}"))?;
+    }
     match state.store.run(move |conn| walks::link_record(conn, record, walk)).await? {
         LinkOutcome::Linked | LinkOutcome::AlreadyLinked => Ok(Json(serde_json::json!({"client_id": record, "walk_client_id": walk}))),
         LinkOutcome::OnAnotherWalk => Err(ApiError::Conflict(format!("record {record} is already on another walk"))),

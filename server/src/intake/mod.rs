@@ -111,14 +111,9 @@ pub async fn accept(state: &AppState, upload: Upload, observer_id: Option<i64>, 
             message: format!("lists EXIF for {} photos but {} came with the record", submission.photo_exif.len(), upload.photos.len()),
         });
     }
-    let record_offset = *submission.observed_at.offset();
-    let mut stored = store_photos(state, upload.photos, record_offset).await?;
-    for (index, photo) in stored.iter_mut().enumerate() {
-        let phone = submission.photo_exif.get(index);
-        photo.phone_exif = phone.map(|phone| phone_reading(phone, record_offset));
-        photo.exif = with_device_offset(std::mem::take(&mut photo.exif), phone, record_offset);
-        photo.check = photo_checks::compare(&submission, &photo.exif, photo.phone_exif.as_ref());
-    }
+    check_walk_owner(state, &submission, observer_id).await?;
+    let mut stored = store_photos(state, upload.photos, *submission.observed_at.offset()).await?;
+    compare_photos(&submission, &mut stored, &submission.photo_exif);
     let (flags, guessed_taxon) = arrival_flags(state, &submission).await?;
     let new = NewObservation { content_sha256: content_hash(&submission, &stored), submission, photos: stored, flags, guessed_taxon, observer_id };
     let client_id = new.submission.client_id;
@@ -134,6 +129,32 @@ pub async fn accept(state: &AppState, upload: Upload, observer_id: Option<i64>, 
             Ok(Accepted { receipt, replayed: true })
         }
         Insertion::Conflict => Err(IntakeError::Conflict(client_id)),
+    }
+}
+
+/// Refuses a record that names a walk another phone sent (walk ids are public in
+/// exports). A walk not stored yet may be named: records can arrive before their walk.
+async fn check_walk_owner(state: &AppState, submission: &Submission, observer_id: Option<i64>) -> Result<(), IntakeError> {
+    let Some(walk) = submission.walk_client_id else { return Ok(()) };
+    let owner = state.store.run(move |conn| crate::store::walks::walk_observer(conn, walk)).await.map_err(anyhow::Error::from)?;
+    match owner {
+        Some(Some(owner)) if observer_id != Some(owner) => {
+            Err(IntakeError::Field { field: "walk_client_id".into(), message: format!("walk {walk} was sent from another phone") })
+        }
+        _ => Ok(()),
+    }
+}
+
+/// Adds the phone's readings (`phone`, in photo order) to stored photos and compares each
+/// photo with the record's time and place (`photo_checks`). Records and observers'
+/// replies go through here alike.
+pub fn compare_photos(record: &Submission, stored: &mut [StoredPhoto], phone: &[shared_types::PhotoExif]) {
+    let record_offset = *record.observed_at.offset();
+    for (index, photo) in stored.iter_mut().enumerate() {
+        let reading = phone.get(index);
+        photo.phone_exif = reading.map(|reading| phone_reading(reading, record_offset));
+        photo.exif = with_device_offset(std::mem::take(&mut photo.exif), reading, record_offset);
+        photo.check = photo_checks::compare(record, &photo.exif, photo.phone_exif.as_ref());
     }
 }
 

@@ -23,14 +23,25 @@ pub fn parse_walk(json: &[u8]) -> Result<WalkSubmission, IntakeError> {
     Ok(walk)
 }
 
-/// Stores a walk; a resend gets the first receipt, a changed resend a conflict.
-pub async fn accept_walk(state: &AppState, json: &[u8], now: DateTime<Utc>) -> Result<WalkReceipt, IntakeError> {
+/// What became of a walk that was not stored.
+#[derive(Debug, thiserror::Error)]
+pub enum WalkRefused {
+    #[error(transparent)]
+    Intake(#[from] IntakeError),
+    #[error("walk {0} was sent from another phone")]
+    NotYours(uuid::Uuid),
+}
+
+/// Stores a walk under the phone that sent it (`observer_id`); a resend gets the first
+/// receipt, a changed resend a conflict, another phone's walk a refusal.
+pub async fn accept_walk(state: &AppState, json: &[u8], observer_id: Option<i64>, now: DateTime<Utc>) -> Result<WalkReceipt, WalkRefused> {
     let walk = parse_walk(json)?;
     let content = hex::encode(Sha256::digest(serde_json::to_vec(&walk).unwrap_or_default()));
     let client_id = walk.client_id;
-    let outcome = state.store.run(move |conn| walks::insert_walk(conn, &walk, &content, now)).await.map_err(anyhow::Error::from)?;
+    let outcome = state.store.run(move |conn| walks::insert_walk(conn, &walk, &content, observer_id, now)).await.map_err(|err| IntakeError::Storage(err.into()))?;
     match outcome {
         WalkInsertion::Created(receipt) | WalkInsertion::Replayed(receipt) => Ok(receipt),
-        WalkInsertion::Conflict => Err(IntakeError::Conflict(client_id)),
+        WalkInsertion::Conflict => Err(IntakeError::Conflict(client_id).into()),
+        WalkInsertion::NotYours => Err(WalkRefused::NotYours(client_id)),
     }
 }

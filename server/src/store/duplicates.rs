@@ -244,7 +244,7 @@ pub enum Decided {
 }
 
 fn log_event(tx: &Transaction, observation_id: i64, person: i64, action: &str, (from_state, to_state): (&str, &str), detail: &str, at: &str) -> Result<(), StoreError> {
-    audit(tx, AuditRow { observation_id, person_id: Some(person), action, from_state, to_state, detail: Some(detail), at })
+    audit(tx, AuditRow { observation_id, person_id: Some(person), action, from_state, to_state, detail: Some(detail), reason: None, at })
 }
 
 /// A record's review state, organism and time.

@@ -2,6 +2,8 @@
 //! transaction, read back as [`RecordView`]s.
 
 use shared_types::codes::{code, from_code};
+use std::collections::HashMap;
+
 use chrono::{DateTime, Utc};
 use rusqlite::{Connection, OptionalExtension, Transaction, params};
 use shared_types::{FlagKind, OffsetSource, PhotoCheck, PhotoExif, PhotoFlag, PhotoView, Receipt, RecordFlag, RecordView, ReviewState, SimilarPhoto, Submission};
@@ -292,7 +294,12 @@ fn record_row(row: &rusqlite::Row) -> rusqlite::Result<RecordRow> {
     Ok((row.get(0)?, row.get(1)?, row.get(2)?, row.get(3)?, row.get(4)?, row.get(5)?))
 }
 
-fn finish_record(conn: &Connection, (id, organism_id, received_at, state, json, walk): RecordRow) -> Result<RecordView, StoreError> {
+fn finish_record(conn: &Connection, row: RecordRow) -> Result<RecordView, StoreError> {
+    let id = row.0;
+    record_from(row, photos_of(conn, id)?, flags_of(conn, id)?)
+}
+
+fn record_from((id, organism_id, received_at, state, json, walk): RecordRow, photos: Vec<PhotoView>, flags: Vec<RecordFlag>) -> Result<RecordView, StoreError> {
     let submission: Submission =
         serde_json::from_str(&json).map_err(|err| StoreError::Corrupt(format!("observation {id}: {err}")))?;
     Ok(RecordView {
@@ -302,10 +309,15 @@ fn finish_record(conn: &Connection, (id, organism_id, received_at, state, json, 
         review_state: ReviewState::from_code(&state)
             .ok_or_else(|| StoreError::Corrupt(format!("observation {id}: unknown review state {state}")))?,
         submission,
-        photos: photos_of(conn, id)?,
-        flags: flags_of(conn, id)?,
+        photos,
+        flags,
         walk_client_id: walk.map(|w| Uuid::parse_str(&w)).transpose().map_err(|err| StoreError::Corrupt(format!("observation {id}: walk id {err}")))?,
     })
+}
+
+fn flag(observation_id: i64, kind: &str, reason: String) -> Result<RecordFlag, StoreError> {
+    let kind = from_code::<FlagKind>(kind).ok_or_else(|| StoreError::Corrupt(format!("observation {observation_id}: unknown flag {kind}")))?;
+    Ok(RecordFlag { kind, reason })
 }
 
 fn flags_of(conn: &Connection, observation_id: i64) -> Result<Vec<RecordFlag>, StoreError> {
@@ -313,8 +325,7 @@ fn flags_of(conn: &Connection, observation_id: i64) -> Result<Vec<RecordFlag>, S
     let rows = stmt.query_map([observation_id], |row| Ok((row.get::<_, String>(0)?, row.get::<_, String>(1)?)))?;
     rows.map(|row| {
         let (kind, reason) = row?;
-        let kind = from_code::<FlagKind>(&kind).ok_or_else(|| StoreError::Corrupt(format!("observation {observation_id}: unknown flag {kind}")))?;
-        Ok(RecordFlag { kind, reason })
+        flag(observation_id, &kind, reason)
     })
     .collect()
 }
@@ -330,51 +341,101 @@ pub fn confirmed_positions(conn: &Connection, scientific_name: &str) -> Result<V
     Ok(rows.collect::<Result<Vec<_>, _>>()?)
 }
 
-fn photos_of(conn: &Connection, observation_id: i64) -> Result<Vec<PhotoView>, StoreError> {
-    let mut stmt = conn.prepare(
-        "SELECT p.sha256, p.media_type, p.byte_len, p.exif_taken_local, p.exif_offset, p.exif_latitude, p.exif_longitude,
-                p.exif_altitude_m, p.exif_h_error_m, p.exif_orientation, op.exif_taken_at, op.offset_source,
+/// The photo columns of `observation_photos op JOIN photos p`, with `op.observation_id` first.
+const PHOTO_QUERY: &str = "SELECT op.observation_id, p.sha256, p.media_type, p.byte_len, p.exif_taken_local, p.exif_offset, p.exif_latitude,
+                p.exif_longitude, p.exif_altitude_m, p.exif_h_error_m, p.exif_orientation, op.exif_taken_at, op.offset_source,
                 p.width, p.height, p.phash, op.seconds_before_record, op.metres_from_record,
                 (SELECT group_concat(f.flag) FROM photo_flags f
                  WHERE f.observation_id = op.observation_id AND f.photo_sha256 = op.photo_sha256),
                 op.time_reading, op.phone_exif_json, op.place_reading
-         FROM observation_photos op JOIN photos p ON p.sha256 = op.photo_sha256
-         WHERE op.observation_id = ?1 ORDER BY op.position",
-    )?;
-    let rows = stmt.query_map([observation_id], |row| {
-        let taken_at: Option<String> = row.get(10)?;
-        let offset_source: Option<String> = row.get(11)?;
-        Ok(PhotoView {
-            sha256: row.get(0)?,
-            media_type: row.get(1)?,
-            byte_len: row.get::<_, i64>(2)? as u64,
-            width: row.get(12)?,
-            height: row.get(13)?,
-            phash: row.get(14)?,
-            phone_exif: row.get::<_, Option<String>>(19)?.and_then(|json| serde_json::from_str(&json).ok()),
-            check: PhotoCheck {
-                time_reading: row.get::<_, Option<String>>(18)?.and_then(|c| from_code(&c)),
-                place_reading: row.get::<_, Option<String>>(20)?.and_then(|c| from_code(&c)),
-                seconds_before_record: row.get(15)?,
-                metres_from_record: row.get(16)?,
-                flags: flags_from(row.get::<_, Option<String>>(17)?),
-            },
-            exif: PhotoExif {
-                taken_local: row.get(3)?,
-                offset: row.get(4)?,
-                latitude: row.get(5)?,
-                longitude: row.get(6)?,
-                altitude_m: row.get(7)?,
-                horizontal_error_m: row.get(8)?,
-                orientation: row.get(9)?,
-                taken_at: taken_at.and_then(|t| chrono::DateTime::parse_from_rfc3339(&t).ok()),
-                offset_source: offset_source.and_then(|s| from_code::<OffsetSource>(&s)),
-                device_offset: None,
-                original_sha256: None,
-            },
+         FROM observation_photos op JOIN photos p ON p.sha256 = op.photo_sha256";
+
+fn photo_row(row: &rusqlite::Row) -> rusqlite::Result<(i64, PhotoView)> {
+    let taken_at: Option<String> = row.get(11)?;
+    let offset_source: Option<String> = row.get(12)?;
+    let view = PhotoView {
+        sha256: row.get(1)?,
+        media_type: row.get(2)?,
+        byte_len: row.get::<_, i64>(3)? as u64,
+        width: row.get(13)?,
+        height: row.get(14)?,
+        phash: row.get(15)?,
+        phone_exif: row.get::<_, Option<String>>(20)?.and_then(|json| serde_json::from_str(&json).ok()),
+        check: PhotoCheck {
+            time_reading: row.get::<_, Option<String>>(19)?.and_then(|c| from_code(&c)),
+            place_reading: row.get::<_, Option<String>>(21)?.and_then(|c| from_code(&c)),
+            seconds_before_record: row.get(16)?,
+            metres_from_record: row.get(17)?,
+            flags: flags_from(row.get::<_, Option<String>>(18)?),
+        },
+        exif: PhotoExif {
+            taken_local: row.get(4)?,
+            offset: row.get(5)?,
+            latitude: row.get(6)?,
+            longitude: row.get(7)?,
+            altitude_m: row.get(8)?,
+            horizontal_error_m: row.get(9)?,
+            orientation: row.get(10)?,
+            taken_at: taken_at.and_then(|t| chrono::DateTime::parse_from_rfc3339(&t).ok()),
+            offset_source: offset_source.and_then(|s| from_code::<OffsetSource>(&s)),
+            device_offset: None,
+            original_sha256: None,
+        },
+    };
+    Ok((row.get(0)?, view))
+}
+
+fn photos_of(conn: &Connection, observation_id: i64) -> Result<Vec<PhotoView>, StoreError> {
+    let mut stmt = conn.prepare(&format!("{PHOTO_QUERY} WHERE op.observation_id = ?1 ORDER BY op.position"))?;
+    let rows = stmt.query_map([observation_id], photo_row)?;
+    Ok(rows.map(|row| row.map(|(_, view)| view)).collect::<Result<Vec<_>, _>>()?)
+}
+
+/// `states` as one parameter for `instr`: ",a,b," (empty: every state).
+fn state_list(states: &[ReviewState]) -> String {
+    if states.is_empty() { String::new() } else { format!(",{},", states.iter().map(|s| s.code()).collect::<Vec<_>>().join(",")) }
+}
+
+const IN_STATES: &str = "(?1 = '' OR instr(?1, ',' || o.review_state || ',') > 0)";
+
+/// Every record in the given review states (all when empty), oldest observation first,
+/// read in four queries however many there are (records, photos, flags, current
+/// identifications), with each one's current identification.
+pub fn records_in_states(conn: &Connection, states: &[ReviewState]) -> Result<Vec<(RecordView, Option<String>)>, StoreError> {
+    let states = state_list(states);
+    let mut photos: HashMap<i64, Vec<PhotoView>> = HashMap::new();
+    let mut stmt = conn.prepare(&format!("{PHOTO_QUERY} JOIN observations o ON o.id = op.observation_id WHERE {IN_STATES} ORDER BY op.observation_id, op.position"))?;
+    for row in stmt.query_map([&states], photo_row)? {
+        let (id, view) = row?;
+        photos.entry(id).or_default().push(view);
+    }
+    let mut flags: HashMap<i64, Vec<RecordFlag>> = HashMap::new();
+    let mut stmt = conn.prepare(&format!("SELECT f.observation_id, f.kind, f.reason FROM observation_flags f JOIN observations o ON o.id = f.observation_id WHERE {IN_STATES} ORDER BY f.kind"))?;
+    for row in stmt.query_map([&states], |row| Ok((row.get::<_, i64>(0)?, row.get::<_, String>(1)?, row.get::<_, String>(2)?)))? {
+        let (id, kind, reason) = row?;
+        flags.entry(id).or_default().push(flag(id, &kind, reason)?);
+    }
+    let mut taxa: HashMap<i64, String> = HashMap::new();
+    let mut stmt = conn.prepare(&format!(
+        "SELECT i.observation_id, i.taxon_name FROM identifications i JOIN observations o ON o.id = i.observation_id
+         WHERE i.superseded_by IS NULL AND {IN_STATES} ORDER BY i.id"
+    ))?;
+    for row in stmt.query_map([&states], |row| Ok((row.get::<_, i64>(0)?, row.get::<_, String>(1)?)))? {
+        let (id, name) = row?;
+        taxa.insert(id, name);
+    }
+    let mut stmt = conn.prepare(&format!(
+        "SELECT o.id, o.organism_id, o.received_at, o.review_state, o.submission_json, o.walk_client_id FROM observations o
+         WHERE {IN_STATES} ORDER BY o.observed_at_utc, o.id"
+    ))?;
+    let rows = stmt.query_map([&states], record_row)?.collect::<Result<Vec<_>, _>>()?;
+    rows.into_iter()
+        .map(|row| {
+            let id = row.0;
+            let record = record_from(row, photos.remove(&id).unwrap_or_default(), flags.remove(&id).unwrap_or_default())?;
+            Ok((record, taxa.remove(&id)))
         })
-    })?;
-    Ok(rows.collect::<Result<Vec<_>, _>>()?)
+        .collect()
 }
 
 /// Flags stored as codes, comma-joined by the query; unknown codes are skipped.

@@ -1,9 +1,11 @@
 //! People and sessions: reviewers and admins with password hashes, observers as
-//! device identities, sessions by the hash of their token.
+//! device identities, sessions by the hash of their token. Every change to a sign-in
+//! (added, role, password, turned off or on) writes a `people_events` row in the same
+//! transaction.
 
 use chrono::{DateTime, Utc};
 use rusqlite::{Connection, OptionalExtension, params};
-use shared_types::Role;
+use shared_types::{PersonEvent, Role};
 
 use super::StoreError;
 
@@ -35,13 +37,35 @@ fn now_text(now: DateTime<Utc>) -> String {
     now.to_rfc3339_opts(chrono::SecondsFormat::Millis, true)
 }
 
-/// Adds a reviewer or admin; `None` when the username is taken.
-pub fn add_staff(conn: &Connection, username: &str, role: Role, display_name: &str, password_hash: &str, now: DateTime<Utc>) -> Result<Option<i64>, StoreError> {
-    let inserted = conn.execute(
+/// Adds a reviewer or admin; `None` when the username is taken. `by`: the admin who
+/// added them (`None` on the server's command line).
+pub fn add_staff(conn: &mut Connection, username: &str, role: Role, display_name: &str, password_hash: &str, by: Option<i64>, now: DateTime<Utc>) -> Result<Option<i64>, StoreError> {
+    let tx = conn.transaction()?;
+    let inserted = tx.execute(
         "INSERT OR IGNORE INTO people (role, username, display_name, password_hash, created_at) VALUES (?1, ?2, ?3, ?4, ?5)",
         params![role.code(), username, display_name, password_hash, now_text(now)],
     )?;
-    Ok((inserted == 1).then(|| conn.last_insert_rowid()))
+    if inserted == 0 {
+        return Ok(None);
+    }
+    let id = tx.last_insert_rowid();
+    log(&tx, id, by, "added", Some(&format!("as {}", role.code())), now)?;
+    tx.commit()?;
+    Ok(Some(id))
+}
+
+fn log(tx: &rusqlite::Transaction, person_id: i64, by: Option<i64>, action: &str, detail: Option<&str>, now: DateTime<Utc>) -> Result<(), StoreError> {
+    tx.execute(
+        "INSERT INTO people_events (person_id, by_person_id, action, detail, at) VALUES (?1, ?2, ?3, ?4, ?5)",
+        params![person_id, by, action, detail, now_text(now)],
+    )?;
+    Ok(())
+}
+
+fn staff_id(tx: &rusqlite::Transaction, username: &str) -> Result<Option<(i64, String)>, StoreError> {
+    Ok(tx
+        .query_row("SELECT id, role FROM people WHERE username = ?1 AND password_hash IS NOT NULL", [username], |row| Ok((row.get(0)?, row.get(1)?)))
+        .optional()?)
 }
 
 /// A signed-in identity's password hash, by username.
@@ -106,12 +130,76 @@ pub fn list_staff(conn: &Connection) -> Result<Vec<Person>, StoreError> {
 }
 
 /// Turns a sign-in off or on again; also ends its sessions when turned off.
-pub fn set_disabled(conn: &mut Connection, username: &str, disabled: bool) -> Result<bool, StoreError> {
+pub fn set_disabled(conn: &mut Connection, username: &str, disabled: bool, by: Option<i64>, now: DateTime<Utc>) -> Result<bool, StoreError> {
     let tx = conn.transaction()?;
-    let changed = tx.execute("UPDATE people SET disabled = ?1 WHERE username = ?2", params![disabled, username])?;
+    let Some((id, _)) = staff_id(&tx, username)? else { return Ok(false) };
+    tx.execute("UPDATE people SET disabled = ?1 WHERE id = ?2", params![disabled, id])?;
     if disabled {
-        tx.execute("DELETE FROM sessions WHERE person_id = (SELECT id FROM people WHERE username = ?1)", [username])?;
+        tx.execute("DELETE FROM sessions WHERE person_id = ?1", [id])?;
     }
+    log(&tx, id, by, if disabled { "turned_off" } else { "turned_on" }, None, now)?;
     tx.commit()?;
-    Ok(changed == 1)
+    Ok(true)
+}
+
+/// What changing a role did.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum RoleChange {
+    Changed { from: Role },
+    Unchanged,
+    NoSuchPerson,
+}
+
+/// Gives a reviewer or admin another role. Sessions go on: access checks read the role
+/// at every request. (An admin cannot change their own role — the handler refuses — so
+/// there is always an admin left.)
+pub fn set_role(conn: &mut Connection, username: &str, role: Role, by: Option<i64>, now: DateTime<Utc>) -> Result<RoleChange, StoreError> {
+    let tx = conn.transaction()?;
+    let Some((id, current)) = staff_id(&tx, username)? else { return Ok(RoleChange::NoSuchPerson) };
+    let from = Role::from_code(&current).ok_or_else(|| StoreError::Corrupt(format!("person {id}: unknown role {current}")))?;
+    if from == role {
+        return Ok(RoleChange::Unchanged);
+    }
+    tx.execute("UPDATE people SET role = ?1 WHERE id = ?2", params![role.code(), id])?;
+    log(&tx, id, by, "role_changed", Some(&format!("{} → {}", from.code(), role.code())), now)?;
+    tx.commit()?;
+    Ok(RoleChange::Changed { from })
+}
+
+/// Gives a sign-in a new password hash and ends its sessions, so the old password and
+/// whoever held it are out. `false` when there is no such sign-in.
+pub fn set_password(conn: &mut Connection, username: &str, password_hash: &str, by: Option<i64>, now: DateTime<Utc>) -> Result<bool, StoreError> {
+    let tx = conn.transaction()?;
+    let Some((id, _)) = staff_id(&tx, username)? else { return Ok(false) };
+    tx.execute("UPDATE people SET password_hash = ?1 WHERE id = ?2", params![password_hash, id])?;
+    tx.execute("DELETE FROM sessions WHERE person_id = ?1", [id])?;
+    log(&tx, id, by, "password_reset", Some("sessions ended"), now)?;
+    tx.commit()?;
+    Ok(true)
+}
+
+/// The audit trail of sign-ins, newest first.
+pub fn events(conn: &Connection) -> Result<Vec<PersonEvent>, StoreError> {
+    let mut stmt = conn.prepare(
+        "SELECT p.username, e.action, e.detail, b.username, e.at FROM people_events e
+         JOIN people p ON p.id = e.person_id LEFT JOIN people b ON b.id = e.by_person_id ORDER BY e.id DESC",
+    )?;
+    let rows = stmt
+        .query_map([], |row| Ok((row.get::<_, Option<String>>(0)?, row.get(1)?, row.get(2)?, row.get(3)?, row.get::<_, String>(4)?)))?
+        .collect::<Result<Vec<_>, _>>()?;
+    rows.into_iter()
+        .map(|(username, action, detail, by, at)| {
+            let at = DateTime::parse_from_rfc3339(&at).map_err(|err| StoreError::Corrupt(format!("people event time {at}: {err}")))?.with_timezone(&Utc);
+            Ok(PersonEvent { username: username.unwrap_or_default(), action, detail, by, at })
+        })
+        .collect()
+}
+
+/// The name and contact an observer gave (for reviewers; never sent out by any route).
+pub fn set_observer_profile(conn: &Connection, observer_id: i64, display_name: Option<&str>, contact: Option<&str>) -> Result<(), StoreError> {
+    conn.execute(
+        "UPDATE people SET display_name = ?1, contact = ?2 WHERE id = ?3 AND role = 'observer'",
+        params![display_name, contact, observer_id],
+    )?;
+    Ok(())
 }

@@ -80,16 +80,19 @@ pub fn messages(conn: &Connection, observation_id: i64) -> Result<Vec<Message>, 
 
 pub fn events(conn: &Connection, observation_id: i64) -> Result<Vec<ReviewEvent>, StoreError> {
     let mut stmt = conn.prepare(
-        "SELECT e.action, e.from_state, e.to_state, p.display_name, e.detail, e.at FROM review_events e
+        "SELECT e.action, e.from_state, e.to_state, p.display_name, e.detail, e.reason, e.at FROM review_events e
          LEFT JOIN people p ON p.id = e.person_id WHERE e.observation_id = ?1 ORDER BY e.id",
     )?;
     let rows = stmt
         .query_map([observation_id], |row| {
-            Ok((row.get::<_, String>(0)?, row.get::<_, String>(1)?, row.get::<_, String>(2)?, row.get(3)?, row.get(4)?, row.get::<_, String>(5)?))
+            let texts = (row.get::<_, String>(0)?, row.get::<_, String>(1)?, row.get::<_, String>(2)?);
+            Ok((texts, row.get(3)?, row.get(4)?, row.get(5)?, row.get::<_, String>(6)?))
         })?
         .collect::<Result<Vec<_>, _>>()?;
     rows.into_iter()
-        .map(|(action, from, to, by, detail, at)| Ok(ReviewEvent { action, from_state: state(&from)?, to_state: state(&to)?, by, detail, at: parse_time(&at)? }))
+        .map(|((action, from, to), by, detail, reason, at)| {
+            Ok(ReviewEvent { action, from_state: state(&from)?, to_state: state(&to)?, by, detail, reason, at: parse_time(&at)? })
+        })
         .collect()
 }
 
@@ -98,7 +101,10 @@ pub fn events(conn: &Connection, observation_id: i64) -> Result<Vec<ReviewEvent>
 pub struct Change {
     pub action: &'static str,
     pub to_state: ReviewState,
+    /// What changed, in words.
     pub detail: Option<String>,
+    /// Why: the reviewer's reason, remark or question.
+    pub reason: Option<String>,
     /// A new identification (name, rank, remark) superseding the current one.
     pub identification: Option<(String, String, Option<String>)>,
     /// A message for the observer.
@@ -120,7 +126,11 @@ pub fn apply<E>(
         Err(refusal) => return Ok(Some(Err(refusal))),
     };
     let at = now_text(now);
+    let mut detail = change.detail.clone();
     if let Some((name, rank, remark)) = &change.identification {
+        if let Some(before) = current_taxon(&tx, observation_id)?.filter(|before| before != name) {
+            detail = detail.map(|d| format!("{d}; was {before}"));
+        }
         supersede_identification(&tx, observation_id, person_id, name, rank, remark.as_deref(), &at)?;
     }
     if let Some(body) = &change.message {
@@ -129,7 +139,17 @@ pub fn apply<E>(
             params![observation_id, person_id, body, at],
         )?;
     }
-    set_state(&tx, observation_id, Some(person_id), current, change.to_state, change.action, change.detail.as_deref(), &at)?;
+    let row = AuditRow {
+        observation_id,
+        person_id: Some(person_id),
+        action: change.action,
+        from_state: current.code(),
+        to_state: change.to_state.code(),
+        detail: detail.as_deref(),
+        reason: change.reason.as_deref(),
+        at: &at,
+    };
+    set_state(&tx, row)?;
     tx.commit()?;
     Ok(Some(Ok(change.to_state)))
 }
@@ -149,30 +169,33 @@ fn supersede_identification(tx: &Transaction, observation_id: i64, person_id: i6
     Ok(())
 }
 
-/// One row of the audit trail.
+/// One row of the audit trail: who, when, what changed and why.
 pub(super) struct AuditRow<'a> {
     pub observation_id: i64,
     pub person_id: Option<i64>,
     pub action: &'a str,
     pub from_state: &'a str,
     pub to_state: &'a str,
+    /// What changed, in words.
     pub detail: Option<&'a str>,
+    /// Why, in the words of whoever did it.
+    pub reason: Option<&'a str>,
     pub at: &'a str,
 }
 
 /// Writes one audit row; every review action and merge goes through here.
 pub(super) fn audit(tx: &Transaction, row: AuditRow) -> Result<(), StoreError> {
     tx.execute(
-        "INSERT INTO review_events (observation_id, person_id, action, from_state, to_state, detail, at) VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7)",
-        params![row.observation_id, row.person_id, row.action, row.from_state, row.to_state, row.detail, row.at],
+        "INSERT INTO review_events (observation_id, person_id, action, from_state, to_state, detail, reason, at) VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8)",
+        params![row.observation_id, row.person_id, row.action, row.from_state, row.to_state, row.detail, row.reason, row.at],
     )?;
     Ok(())
 }
 
-#[allow(clippy::too_many_arguments)]
-fn set_state(tx: &Transaction, observation_id: i64, person_id: Option<i64>, from: ReviewState, to: ReviewState, action: &str, detail: Option<&str>, at: &str) -> Result<(), StoreError> {
-    tx.execute("UPDATE observations SET review_state = ?1 WHERE id = ?2", params![to.code(), observation_id])?;
-    audit(tx, AuditRow { observation_id, person_id, action, from_state: from.code(), to_state: to.code(), detail, at })
+/// Moves a record to `row.to_state` and writes its audit row.
+fn set_state(tx: &Transaction, row: AuditRow) -> Result<(), StoreError> {
+    tx.execute("UPDATE observations SET review_state = ?1 WHERE id = ?2", params![row.to_state, row.observation_id])?;
+    audit(tx, row)
 }
 
 /// The client ids of one observer's records, newest first.
@@ -219,18 +242,18 @@ pub fn add_reply(
         observations::link_photo(&tx, observation_id, first_position as usize + index, photo, &at)?;
     }
     let back_to = if matches!(current, ReviewState::DetailsRequested) { ReviewState::AwaitingReview } else { current };
-    let detail = format!("{} new photo(s)", photos.len());
-    set_state(&tx, observation_id, Some(observer_id), current, back_to, "observer_reply", Some(&detail), &at)?;
+    let detail = format!("the observer answered with {} new photo(s)", photos.len());
+    let row = AuditRow {
+        observation_id,
+        person_id: Some(observer_id),
+        action: "observer_reply",
+        from_state: current.code(),
+        to_state: back_to.code(),
+        detail: Some(&detail),
+        reason: Some(body).filter(|b| !b.is_empty()),
+        at: &at,
+    };
+    set_state(&tx, row)?;
     tx.commit()?;
     Ok(ReplyOutcome::Added)
-}
-
-/// Client ids of records in the given states (all when empty), oldest observation first.
-pub fn records_in_states(conn: &Connection, states: &[ReviewState]) -> Result<Vec<Uuid>, StoreError> {
-    let mut stmt = conn.prepare("SELECT client_id, review_state FROM observations ORDER BY observed_at_utc, id")?;
-    let rows = stmt.query_map([], |row| Ok((row.get::<_, String>(0)?, row.get::<_, String>(1)?)))?.collect::<Result<Vec<_>, _>>()?;
-    rows.into_iter()
-        .filter(|(_, code)| states.is_empty() || states.iter().any(|s| s.code() == code))
-        .map(|(id, _)| Uuid::parse_str(&id).map_err(|err| StoreError::Corrupt(err.to_string())))
-        .collect()
 }

@@ -14,21 +14,33 @@ pub enum WalkInsertion {
     Created(WalkReceipt),
     Replayed(WalkReceipt),
     Conflict,
+    /// The walk was sent from another phone.
+    NotYours,
 }
 
-/// Stores a walk with its effort; a resend with the same content gets the first receipt.
-pub fn insert_walk(conn: &mut Connection, walk: &WalkSubmission, content_sha256: &str, now: DateTime<Utc>) -> Result<WalkInsertion, StoreError> {
+/// Stores a walk with its effort under the phone that sent it (`observer_id`; `None`
+/// for the demo loader); a resend with the same content from the same phone gets the
+/// first receipt. A walk stored before walks had owners is adopted by the first phone
+/// that resends exactly its content (the track is never public, so only its phone can).
+pub fn insert_walk(conn: &mut Connection, walk: &WalkSubmission, content_sha256: &str, observer_id: Option<i64>, now: DateTime<Utc>) -> Result<WalkInsertion, StoreError> {
     let tx = conn.transaction()?;
     let existing = tx
         .query_row(
-            "SELECT id, content_sha256, received_at FROM walks WHERE client_id = ?1",
+            "SELECT id, content_sha256, received_at, observer_id FROM walks WHERE client_id = ?1",
             [walk.client_id.to_string()],
-            |row| Ok((row.get::<_, i64>(0)?, row.get::<_, Option<String>>(1)?, row.get::<_, String>(2)?)),
+            |row| Ok((row.get::<_, i64>(0)?, row.get::<_, Option<String>>(1)?, row.get::<_, String>(2)?, row.get::<_, Option<i64>>(3)?)),
         )
         .optional()?;
-    if let Some((walk_id, stored_hash, received_at)) = existing {
+    if let Some((walk_id, stored_hash, received_at, owner)) = existing {
+        if owner.is_some() && owner != observer_id {
+            return Ok(WalkInsertion::NotYours);
+        }
         if stored_hash.as_deref() != Some(content_sha256) {
             return Ok(WalkInsertion::Conflict);
+        }
+        if owner.is_none() && observer_id.is_some() {
+            tx.execute("UPDATE walks SET observer_id = ?1 WHERE id = ?2", params![observer_id, walk_id])?;
+            tx.commit()?;
         }
         return Ok(WalkInsertion::Replayed(receipt(walk, walk_id, &received_at)?));
     }
@@ -37,8 +49,8 @@ pub fn insert_walk(conn: &mut Connection, walk: &WalkSubmission, content_sha256:
     let json = serde_json::to_string(walk).map_err(|err| StoreError::Corrupt(err.to_string()))?;
     tx.execute(
         "INSERT INTO walks (client_id, started_at, ended_at, all_finds_reported, distance_m, received_at,
-            content_sha256, submission_json, stretch, observer_name, duration_s, distance_source)
-         VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, ?12)",
+            content_sha256, submission_json, stretch, observer_name, duration_s, distance_source, observer_id)
+         VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, ?12, ?13)",
         params![
             walk.client_id.to_string(),
             walk.started_at.to_rfc3339(),
@@ -52,6 +64,7 @@ pub fn insert_walk(conn: &mut Connection, walk: &WalkSubmission, content_sha256:
             walk.observer_name.as_ref().map(|s| s.as_str()),
             effort.duration_s,
             serde_json::to_value(effort.distance_source).ok().and_then(|v| v.as_str().map(str::to_owned)),
+            observer_id,
         ],
     )?;
     let walk_id = tx.last_insert_rowid();
@@ -103,6 +116,12 @@ fn records_on(conn: &Connection, walk: Uuid) -> Result<Vec<Uuid>, StoreError> {
     let mut stmt = conn.prepare("SELECT client_id FROM observations WHERE walk_client_id = ?1 ORDER BY observed_at_utc")?;
     let ids = stmt.query_map([walk.to_string()], |row| row.get::<_, String>(0))?.collect::<Result<Vec<_>, _>>()?;
     ids.iter().map(|id| Uuid::parse_str(id).map_err(|err| StoreError::Corrupt(err.to_string()))).collect()
+}
+
+/// The phone a stored walk came from: `None` when there is no such walk, `Some(None)`
+/// for a walk with no known phone (the demo's, or sent before walks had owners).
+pub fn walk_observer(conn: &Connection, walk: Uuid) -> Result<Option<Option<i64>>, StoreError> {
+    Ok(conn.query_row("SELECT observer_id FROM walks WHERE client_id = ?1", [walk.to_string()], |row| row.get(0)).optional()?)
 }
 
 /// What linking a record to a walk did.

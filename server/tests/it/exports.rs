@@ -282,8 +282,8 @@ async fn two_reports_of_one_animal_are_one_occurrence_with_the_interval_and_both
     assert_eq!(term(animal, "associatedMedia").split(" | ").count(), 2, "the photos of both reports");
 }
 
-/// Posts a walk (typed distance, or a two-fix track when `track` is true).
-async fn post_walk(app: &TestApp, id: &str, all_finds: bool, track: bool) {
+/// Posts a walk from the phone `phone` (typed distance, or a two-fix track when `track` is true).
+async fn post_walk(app: &TestApp, phone: &str, id: &str, all_finds: bool, track: bool) {
     let track = if track {
         json!([
             {"latitude": 52.48912, "longitude": -4.05331, "accuracy_m": 5.0, "at": "2026-04-12T09:00:00+01:00"},
@@ -298,8 +298,8 @@ async fn post_walk(app: &TestApp, id: &str, all_finds: bool, track: bool) {
         "stretch": "Borth to Ynyslas", "all_finds_reported": all_finds, "track": track,
         "typed_distance_m": distance, "observer_name": "Test Walker"
     });
-    let response = app.client.post(format!("{}/api/walks", app.base)).json(&walk).send().await.unwrap();
-    assert_eq!(response.status(), 200, "{}", response.text().await.unwrap());
+    let answer = app.post_walk_as(phone, &walk).await;
+    assert_eq!(answer.status, 200, "{}", answer.body);
 }
 
 fn extension_rows(event: &Value) -> Vec<&Value> {
@@ -316,12 +316,13 @@ async fn walks_export_as_events_with_absences_for_groups_not_found() {
     const WALK_WITH_CATSHARK: &str = "aaaaaaaa-0000-4000-8000-000000000002";
     const CASUAL_WALK: &str = "aaaaaaaa-0000-4000-8000-000000000003";
     let app = spawn_app().await;
-    post_walk(&app, EMPTY_WALK, true, true).await;
-    post_walk(&app, WALK_WITH_CATSHARK, true, false).await;
-    post_walk(&app, CASUAL_WALK, false, false).await;
+    let phone = app.new_device().await;
+    post_walk(&app, &phone, EMPTY_WALK, true, true).await;
+    post_walk(&app, &phone, WALK_WITH_CATSHARK, true, false).await;
+    post_walk(&app, &phone, CASUAL_WALK, false, false).await;
     let mut on_walk = submission(CATSHARK);
     on_walk["walk_client_id"] = json!(WALK_WITH_CATSHARK);
-    assert_eq!(app.submit(&on_walk, &[]).await.status, 200);
+    assert_eq!(app.submit_as(&phone, &on_walk, &[]).await.status, 200);
     assert_eq!(app.submit(&submission(UNKNOWN), &[]).await.status, 200, "a record made outside any walk");
 
     let dir = tempfile::tempdir().unwrap();

@@ -63,7 +63,9 @@ async fn spawn(app_dir: Option<PathBuf>, decode_turns: Option<usize>) -> TestApp
     }
     let listener = tokio::net::TcpListener::bind("127.0.0.1:0").await.expect("bind");
     let base = format!("http://{}", listener.local_addr().unwrap());
-    tokio::spawn(async move { axum::serve(listener, wrackline_server::app(state)).await.unwrap() });
+    // As `wrackline serve` does: with each connection's address (the sign-in rate limit).
+    let service = wrackline_server::app(state).into_make_service_with_connect_info::<std::net::SocketAddr>();
+    tokio::spawn(async move { axum::serve(listener, service).await.unwrap() });
     let client = reqwest::Client::new();
     let reviewer = sign_in(&client, &base, "test-reviewer", REVIEWER_PASSWORD).await.expect("reviewer signs in");
     TestApp { base, client, data_dir, reviewer, decode_gate, _dir: dir }
@@ -130,6 +132,13 @@ impl TestApp {
     /// A GET as the signed-in reviewer.
     pub async fn get(&self, path: &str) -> reqwest::Response {
         self.reviewer.sign(self.client.get(format!("{}{path}", self.base))).send().await.unwrap()
+    }
+
+    /// Posts a survey walk as the phone with `token`.
+    pub async fn post_walk_as(&self, token: &str, walk: &Value) -> Answer {
+        let response = self.client.post(format!("{}/api/walks", self.base)).bearer_auth(token).json(walk).send().await.unwrap();
+        let status = response.status().as_u16();
+        Answer { status, body: response.json().await.unwrap_or(Value::Null) }
     }
 
     /// A new phone identity.

@@ -14,6 +14,7 @@ mod helpers;
 mod hostile;
 mod key_priors;
 mod photo_flags;
+mod people;
 mod pictures;
 mod python;
 mod review;

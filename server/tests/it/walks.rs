@@ -1,6 +1,7 @@
 //! Survey walks: the track's length against GeographicLib, GPS jitter filtered, a walk
-//! with no finds kept, resends idempotent, records linked after the fact, and the
-//! effort summary.
+//! with no finds kept, resends idempotent, records linked after the fact — only by the
+//! phone that sent them (or a reviewer), only onto that phone's walks — and the effort
+//! summary.
 
 use serde_json::{Value, json};
 
@@ -41,9 +42,12 @@ fn walk(track: Value) -> Value {
     })
 }
 
+/// Posts a walk from a phone of its own (a new device identity each time, unless the
+/// test needs the same phone: then `post_walk_as`).
 async fn post_walk(app: &TestApp, body: &Value) -> (u16, Value) {
-    let response = app.client.post(format!("{}/api/walks", app.base)).json(body).send().await.unwrap();
-    (response.status().as_u16(), response.json().await.unwrap_or(Value::Null))
+    let phone = app.new_device().await;
+    let answer = app.post_walk_as(&phone, body).await;
+    (answer.status, answer.body)
 }
 
 #[tokio::test]
@@ -87,17 +91,25 @@ async fn standing_still_and_gps_jumps_do_not_add_distance() {
 #[tokio::test]
 async fn a_walk_with_no_finds_is_kept_and_a_resend_is_one_walk() {
     let app = spawn_app().await;
+    let phone = app.new_device().await;
     let body = walk(track_json(&beach_track(), 20));
-    let (first, receipt) = post_walk(&app, &body).await;
-    let (again, same) = post_walk(&app, &body).await;
-    assert_eq!((first, again), (200, 200));
-    assert_eq!(receipt, same);
+    let first = app.post_walk_as(&phone, &body).await;
+    let again = app.post_walk_as(&phone, &body).await;
+    assert_eq!((first.status, again.status), (200, 200));
+    assert_eq!(first.body, again.body);
     let walks: Vec<Value> = app.get("/api/walks").await.json().await.unwrap();
     assert_eq!(walks.len(), 1);
     assert_eq!(walks[0]["record_client_ids"], json!([]), "no finds, still data");
     let mut changed = body.clone();
     changed["all_finds_reported"] = json!(false);
-    assert_eq!(post_walk(&app, &changed).await.0, 409);
+    assert_eq!(app.post_walk_as(&phone, &changed).await.status, 409);
+    // Walk ids are public (eventID in exports): another phone cannot resend or claim it.
+    let stranger = app.new_device().await;
+    let claimed = app.post_walk_as(&stranger, &body).await;
+    assert_eq!(claimed.status, 403, "{}", claimed.body);
+    assert!(claimed.body["error"].as_str().unwrap().contains("another phone"), "{}", claimed.body);
+    let anonymous = app.client.post(format!("{}/api/walks", app.base)).json(&body).send().await.unwrap();
+    assert_eq!(anonymous.status(), 401, "a walk needs the phone's identity");
 }
 
 #[tokio::test]
@@ -125,28 +137,62 @@ async fn bad_walks_name_the_field() {
 #[tokio::test]
 async fn records_join_their_walk_when_made_on_it_or_after_the_fact() {
     let app = spawn_app().await;
+    let phone = app.new_device().await;
     let on_walk = "11111111-2222-4333-8444-555555555555";
     let later = "66666666-7777-4888-8999-aaaaaaaaaaaa";
     let mut record = submission(on_walk);
     record["walk_client_id"] = json!(WALK);
     // The record may arrive before its walk.
-    assert_eq!(app.submit(&record, &[]).await.status, 200);
-    assert_eq!(app.submit(&submission(later), &[]).await.status, 200);
-    post_walk(&app, &walk(track_json(&beach_track(), 20))).await;
+    assert_eq!(app.submit_as(&phone, &record, &[]).await.status, 200);
+    assert_eq!(app.submit_as(&phone, &submission(later), &[]).await.status, 200);
+    assert_eq!(app.post_walk_as(&phone, &walk(track_json(&beach_track(), 20))).await.status, 200);
 
-    let link = |id: &str, walk: &str| {
-        let request = app.client.put(format!("{}/api/observations/{id}/walk", app.base)).json(&json!({"walk_client_id": walk}));
+    let link = |token: &str, id: &str, walk: &str| {
+        let request = app.client.put(format!("{}/api/observations/{id}/walk", app.base)).bearer_auth(token).json(&json!({"walk_client_id": walk}));
         async move { request.send().await.unwrap().status().as_u16() }
     };
-    assert_eq!(link(later, WALK).await, 200);
-    assert_eq!(link(later, WALK).await, 200, "linking again is harmless");
-    assert_eq!(link(later, "00000000-0000-4000-8000-000000000000").await, 409, "not moved to another walk");
-    assert_eq!(link("00000000-0000-4000-8000-00000000abcd", WALK).await, 404);
+    assert_eq!(link(&phone, later, WALK).await, 200);
+    assert_eq!(link(&phone, later, WALK).await, 200, "linking again is harmless");
+    assert_eq!(link(&phone, later, "00000000-0000-4000-8000-000000000000").await, 409, "not moved to another walk");
+    assert_eq!(link(&phone, "00000000-0000-4000-8000-00000000abcd", WALK).await, 404);
 
     let walks: Vec<Value> = app.get("/api/walks").await.json().await.unwrap();
     assert_eq!(walks[0]["record_client_ids"], json!([on_walk, later]));
     let view: Value = app.get(&format!("/api/observations/{later}")).await.json().await.unwrap();
     assert_eq!(view["walk_client_id"], WALK);
+}
+
+#[tokio::test]
+async fn nobody_else_can_put_records_on_a_walk() {
+    let app = spawn_app().await;
+    let (phone, stranger) = (app.new_device().await, app.new_device().await);
+    let mine = "11111111-2222-4333-8444-000000000001";
+    let theirs = "11111111-2222-4333-8444-000000000002";
+    assert_eq!(app.post_walk_as(&phone, &walk(track_json(&beach_track(), 20))).await.status, 200);
+    assert_eq!(app.submit_as(&phone, &submission(mine), &[]).await.status, 200);
+    assert_eq!(app.submit_as(&stranger, &submission(theirs), &[]).await.status, 200);
+    let link = |token: Option<&str>, id: &str| {
+        let mut request = app.client.put(format!("{}/api/observations/{id}/walk", app.base)).json(&json!({"walk_client_id": WALK}));
+        if let Some(token) = token {
+            request = request.bearer_auth(token);
+        }
+        async move { request.send().await.unwrap().status().as_u16() }
+    };
+    assert_eq!(link(None, mine).await, 401, "ids are public: knowing one is not enough");
+    assert_eq!(link(Some(&stranger), mine).await, 403, "another phone's record");
+    assert_eq!(link(Some(&stranger), theirs).await, 403, "their own record onto another phone's walk");
+    let mut sneaked = submission("11111111-2222-4333-8444-000000000003");
+    sneaked["walk_client_id"] = json!(WALK);
+    let refused = app.submit_as(&stranger, &sneaked, &[]).await;
+    assert_eq!((refused.status, refused.body["field"].as_str()), (422, Some("walk_client_id")), "{}", refused.body);
+    let walks: Vec<Value> = app.get("/api/walks").await.json().await.unwrap();
+    assert_eq!(walks[0]["record_client_ids"], json!([]), "nothing joined the walk");
+
+    // A reviewer may link any record (a correction the observer asked for).
+    let by_reviewer = app.reviewer.sign(app.client.put(format!("{}/api/observations/{mine}/walk", app.base))).json(&json!({"walk_client_id": WALK})).send().await.unwrap();
+    assert_eq!(by_reviewer.status(), 200);
+    let walks: Vec<Value> = app.get("/api/walks").await.json().await.unwrap();
+    assert_eq!(walks[0]["record_client_ids"], json!([mine]));
 }
 
 #[tokio::test]
@@ -180,6 +226,7 @@ async fn trends_on_stored_records_are_encounter_rates_per_kilometre_of_all_finds
         ("9a000000-0000-4000-8000-000000000003", 2026, 4000.0, true, 0),
         ("9a000000-0000-4000-8000-000000000004", 2026, 9000.0, false, 3),
     ];
+    let phone = app.new_device().await;
     let mut n = 0;
     for (id, year, metres, all_finds, records) in plan {
         let mut body = walk(json!([]));
@@ -188,13 +235,13 @@ async fn trends_on_stored_records_are_encounter_rates_per_kilometre_of_all_finds
         body["ended_at"] = json!(format!("{year}-05-01T11:00:00+01:00"));
         body["typed_distance_m"] = json!(metres);
         body["all_finds_reported"] = json!(all_finds);
-        assert_eq!(post_walk(&app, &body).await.0, 200);
+        assert_eq!(app.post_walk_as(&phone, &body).await.status, 200);
         for _ in 0..records {
             n += 1;
             let mut record = submission(&format!("9b000000-0000-4000-8000-{n:012}"));
             record["observed_at"] = json!(format!("{year}-05-01T10:00:00+01:00"));
             record["walk_client_id"] = json!(id);
-            assert_eq!(app.submit(&record, &[]).await.status, 200);
+            assert_eq!(app.submit_as(&phone, &record, &[]).await.status, 200);
         }
     }
     let mut outside = submission("9c000000-0000-4000-8000-000000000001");
