@@ -133,6 +133,10 @@ async fn request_for(app: &TestApp, fx: &Fixture, route: &RouteSpec) -> (String,
             path.push_str("?taxon=Scyliorhinus%20canicula&state=any");
             Body::None
         }
+        ("GET", "/api/checklist/nearby") => {
+            path.push_str("?lat=52.4153&lon=-4.0829");
+            Body::None
+        }
         ("GET", "/api/trend" | "/api/trend/chart.svg") => {
             path.push_str("?state=any&generation_length=8");
             Body::None

@@ -169,7 +169,7 @@ async fn photo_flags_from_the_phones_reading_raise_a_record_and_every_flag_filte
     let view = detail(&app, BIG_CATSHARK).await;
     let photo = &view["record"]["photos"][0];
     assert_eq!(photo["exif"]["taken_at"], Value::Null, "the upload copy says nothing itself");
-    assert_eq!(photo["check"]["reading"], "phone");
+    assert_eq!((&photo["check"]["time_reading"], &photo["check"]["place_reading"]), (&json!("phone"), &json!("phone")));
     assert_eq!(photo["check"]["seconds_before_record"], 3.0 * 86400.0);
     let map = app.get(&format!("/api/review/records/{BIG_CATSHARK}/map.svg")).await.text().await.unwrap();
     assert!(map.contains("photo 1 (its own GPS, as the phone read it)"), "the map falls back to the phone's reading");
@@ -314,9 +314,9 @@ async fn reply_photos_get_the_records_offset_and_the_photo_checks() {
     let photos = view["record"]["photos"].as_array().unwrap();
     assert_eq!(photos[0]["exif"]["taken_at"], "2025-06-01T13:00:00+01:00", "read with the record's offset, not as UTC");
     assert_eq!(photos[0]["exif"]["offset_source"], "record");
-    assert_eq!((photos[0]["check"]["reading"].as_str(), photos[0]["check"]["seconds_before_record"].as_f64()), (Some("received_file"), Some(4200.0)));
+    assert_eq!((photos[0]["check"]["time_reading"].as_str(), photos[0]["check"]["seconds_before_record"].as_f64()), (Some("received_file"), Some(4200.0)));
     assert_eq!(photos[1]["phone_exif"]["taken_at"], "2025-05-20T09:00:00+01:00");
-    assert_eq!(photos[1]["check"]["reading"], "phone");
+    assert_eq!((&photos[1]["check"]["time_reading"], &photos[1]["check"]["place_reading"]), (&json!("phone"), &json!("phone")));
     assert_eq!(photos[1]["check"]["flags"], json!(["taken_long_before_record"]));
     assert!(view["priority_reasons"].to_string().contains("photo older than the record: photo 2"), "{}", view["priority_reasons"]);
 }

@@ -85,10 +85,11 @@ async fn an_event_core_archive_carries_the_history_with_each_occurrence() {
         "ended_at": "2026-04-12T10:30:00+01:00", "stretch": "Borth to Ynyslas", "all_finds_reported": true,
         "track": [], "typed_distance_m": 2000.0, "observer_name": "Test Walker"
     });
-    assert_eq!(app.client.post(format!("{}/api/walks", app.base)).json(&walk).send().await.unwrap().status(), 200);
+    let phone = app.new_device().await;
+    assert_eq!(app.post_walk_as(&phone, &walk).await.status, 200);
     let mut on_walk = submission(RECORD);
     on_walk["walk_client_id"] = json!("aaaaaaaa-0000-4000-8000-0000000000e3");
-    assert_eq!(app.submit(&on_walk, &[]).await.status, 200);
+    assert_eq!(app.submit_as(&phone, &on_walk, &[]).await.status, 200);
     confirm(&app, RECORD, "Scyliorhinus canicula", "as guessed").await;
     let dir = tempfile::tempdir().unwrap();
     let zip = download(&app, "format=dwca", dir.path(), "events.zip").await;

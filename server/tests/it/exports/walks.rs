@@ -15,8 +15,9 @@ const ELSEWHERE: &str = "aaaaaaaa-0000-4000-8000-0000000000d2";
 const CATSHARK: &str = "1b2c3d4e-0000-4000-8000-0000000000d3";
 const RAY: &str = "1b2c3d4e-0000-4000-8000-0000000000d4";
 
-/// Posts an all-finds walk with a two-fix track starting at (`lat`, `lon`).
-async fn walk_at(app: &TestApp, id: &str, (lat, lon): (f64, f64), stretch: &str) {
+/// Posts, from the phone with `phone` as its identity, an all-finds walk with a two-fix
+/// track starting at (`lat`, `lon`).
+async fn walk_at(app: &TestApp, phone: &str, id: &str, (lat, lon): (f64, f64), stretch: &str) {
     let walk = json!({
         "client_id": id, "started_at": "2026-04-12T09:00:00+01:00", "ended_at": "2026-04-12T10:30:00+01:00",
         "stretch": stretch, "all_finds_reported": true, "typed_distance_m": null, "observer_name": "Test Walker",
@@ -25,17 +26,17 @@ async fn walk_at(app: &TestApp, id: &str, (lat, lon): (f64, f64), stretch: &str)
             {"latitude": lat + 0.001, "longitude": lon, "accuracy_m": 5.0, "at": "2026-04-12T09:02:00+01:00"}
         ]
     });
-    let response = app.client.post(format!("{}/api/walks", app.base)).json(&walk).send().await.unwrap();
-    assert_eq!(response.status(), 200, "{}", response.text().await.unwrap());
+    let answer = app.post_walk_as(phone, &walk).await;
+    assert_eq!(answer.status, 200, "{}", answer.body);
 }
 
-/// A find on `walk`, named as `guess`.
-async fn find_on(app: &TestApp, id: &str, walk: &str, guess: &str) {
+/// A find on `walk`, named as `guess`, from the walk's phone.
+async fn find_on(app: &TestApp, phone: &str, id: &str, walk: &str, guess: &str) {
     let mut record = submission(id);
     record["walk_client_id"] = json!(walk);
     record["species_guess"] = json!(guess);
     record["observed_at"] = json!("2026-04-12T09:30:00+01:00");
-    assert_eq!(app.submit(&record, &[]).await.status, 200);
+    assert_eq!(app.submit_as(phone, &record, &[]).await.status, 200);
 }
 
 async fn archive(app: &TestApp, query: &str) -> Value {
@@ -58,9 +59,10 @@ fn absences(archive: &Value, walk: &str) -> Vec<String> {
 #[tokio::test]
 async fn a_filtered_archive_takes_what_each_walk_found_from_all_its_records() {
     let app = spawn_app().await;
-    walk_at(&app, BORTH, (52.48912, -4.05331), "Borth to Ynyslas").await;
-    find_on(&app, CATSHARK, BORTH, "small-spotted catshark").await;
-    find_on(&app, RAY, BORTH, "thornback ray").await;
+    let phone = app.new_device().await;
+    walk_at(&app, &phone, BORTH, (52.48912, -4.05331), "Borth to Ynyslas").await;
+    find_on(&app, &phone, CATSHARK, BORTH, "small-spotted catshark").await;
+    find_on(&app, &phone, RAY, BORTH, "thornback ray").await;
     let confirm = json!({"action": "confirm", "scientific_name": "Raja clavata", "taxon_rank": "species"});
     let response = app.reviewer.sign(app.client.post(format!("{}/api/review/records/{RAY}/actions", app.base))).json(&confirm).send().await.unwrap();
     assert_eq!(response.status(), 200);
@@ -75,11 +77,12 @@ async fn a_filtered_archive_takes_what_each_walk_found_from_all_its_records() {
 #[tokio::test]
 async fn a_skate_identified_only_to_family_is_a_ray_find_on_its_walk() {
     let app = spawn_app().await;
-    walk_at(&app, BORTH, (52.48912, -4.05331), "Borth to Ynyslas").await;
+    let phone = app.new_device().await;
+    walk_at(&app, &phone, BORTH, (52.48912, -4.05331), "Borth to Ynyslas").await;
     let mut skate = super::higher_taxa::key_stop(RAY, "Rajidae", "family");
     skate["walk_client_id"] = json!(BORTH);
     skate["observed_at"] = json!("2026-04-12T09:30:00+01:00");
-    assert_eq!(app.submit(&skate, &[]).await.status, 200);
+    assert_eq!(app.submit_as(&phone, &skate, &[]).await.status, 200);
     let archive = archive(&app, "format=dwca").await;
     // Rajidae lies wholly in Batoidea (demo checklist): a ray-and-skate find, so only sharks were not detected.
     assert_eq!(absences(&archive, BORTH), ["Selachimorpha"]);
@@ -88,8 +91,9 @@ async fn a_skate_identified_only_to_family_is_a_ray_find_on_its_walk() {
 #[tokio::test]
 async fn the_area_filter_applies_to_walks() {
     let app = spawn_app().await;
-    walk_at(&app, BORTH, (52.48912, -4.05331), "Borth to Ynyslas").await;
-    walk_at(&app, ELSEWHERE, (51.6210, -5.1030), "Freshwater West").await;
+    let phone = app.new_device().await;
+    walk_at(&app, &phone, BORTH, (52.48912, -4.05331), "Borth to Ynyslas").await;
+    walk_at(&app, &phone, ELSEWHERE, (51.6210, -5.1030), "Freshwater West").await;
     let archive = archive(&app, "format=dwca&bbox=52.3,-4.2,52.6,-3.9").await;
     let events: Vec<&str> = archive["rows"].as_array().unwrap().iter().map(|r| r["id"].as_str().unwrap()).collect();
     assert_eq!(events, [format!("urn:uuid:{BORTH}")], "only the walk inside the box");
@@ -102,9 +106,10 @@ async fn the_area_filter_applies_to_walks() {
 #[tokio::test]
 async fn a_walk_that_found_a_sensitive_species_is_generalised_in_public() {
     let app = spawn_app().await;
-    walk_at(&app, BORTH, (52.48912, -4.05331), "Borth to Ynyslas").await;
-    walk_at(&app, ELSEWHERE, (51.6210, -5.1030), "Freshwater West").await;
-    find_on(&app, CATSHARK, ELSEWHERE, "angelshark").await;
+    let phone = app.new_device().await;
+    walk_at(&app, &phone, BORTH, (52.48912, -4.05331), "Borth to Ynyslas").await;
+    walk_at(&app, &phone, ELSEWHERE, (51.6210, -5.1030), "Freshwater West").await;
+    find_on(&app, &phone, CATSHARK, ELSEWHERE, "angelshark").await;
     let public = archive(&app, "format=dwca").await;
     let sensitive = row(&public, ELSEWHERE);
     // Chapman 2020 (GBIF): the angelshark's records are rounded to 0.1° in public; so is the walk
@@ -122,9 +127,10 @@ async fn a_walk_that_found_a_sensitive_species_is_generalised_in_public() {
 #[tokio::test]
 async fn range_from_an_event_core_archive_counts_finds_not_absences() {
     let app = spawn_app().await;
-    walk_at(&app, BORTH, (52.48912, -4.05331), "Borth to Ynyslas").await;
-    walk_at(&app, ELSEWHERE, (51.6210, -5.1030), "Freshwater West").await;
-    find_on(&app, CATSHARK, BORTH, "small-spotted catshark").await;
+    let phone = app.new_device().await;
+    walk_at(&app, &phone, BORTH, (52.48912, -4.05331), "Borth to Ynyslas").await;
+    walk_at(&app, &phone, ELSEWHERE, (51.6210, -5.1030), "Freshwater West").await;
+    find_on(&app, &phone, CATSHARK, BORTH, "small-spotted catshark").await;
     let dir = tempfile::tempdir().unwrap();
     let zip = download(&app, "format=dwca&audience=full", dir.path(), "events.zip").await;
     let archive = run_script("read_dwca.py", &[&zip, &terms_extract()]);
