@@ -79,7 +79,7 @@ test('a question reaches the phone, the answer with a photo reaches the reviewer
     const answered = detail.record.photos[1];
     assert.equal(answered.exif.taken_at, null);
     assert.equal(answered.phone_exif.taken_at, '2025-12-26T13:14:00Z');
-    assert.equal(answered.check.reading, 'phone');
+    assert.deepEqual([answered.check.time_reading, answered.check.place_reading], ['phone', 'phone']);
   } finally {
     await handset.close();
     await desk.close();
