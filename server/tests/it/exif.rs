@@ -9,7 +9,7 @@ use crate::helpers::{plain_jpeg, spawn_app, submission, with_exiftool};
 
 async fn photo_exif(tags: &[&str]) -> serde_json::Value {
     let app = spawn_app().await;
-    let jpeg = with_exiftool(&plain_jpeg(7), tags, &app.data_dir.parent().unwrap().to_owned());
+    let jpeg = with_exiftool(&plain_jpeg(7), tags, app.data_dir.parent().unwrap());
     let answer = app.submit(&submission("3c2b1a09-8f7e-4d6c-9b5a-493827160504"), &[jpeg]).await;
     assert_eq!(answer.status, 200, "{}", answer.body);
     app.records().await[0]["photos"][0]["exif"].clone()

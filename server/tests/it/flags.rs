@@ -31,11 +31,13 @@ async fn flags_of(app: &TestApp, record: &Value) -> Vec<(String, String)> {
         .collect()
 }
 
+/// (guess, length kind, cm, method, place, expected flag kinds in name order, words in the reason)
+type FlagCase = (&'static str, &'static str, f64, &'static str, (f64, f64), &'static [&'static str], &'static str);
+
 #[tokio::test]
 async fn the_flag_table() {
     let app = spawn_app().await;
-    // (guess, length kind, cm, method, place, expected flag kinds in name order, words in the reason)
-    let cases: &[(&str, &str, f64, &str, (f64, f64), &[&str], &str)] = &[
+    let cases: &[FlagCase] = &[
         ("small-spotted catshark", "total", 54.0, "measured", ABERYSTWYTH, &[], ""),
         ("small-spotted catshark", "total", 119.0, "measured", ABERYSTWYTH, &[], ""),
         ("small-spotted catshark", "total", 121.0, "measured", ABERYSTWYTH, &["oversize"], "known maximum of 100 cm"),
