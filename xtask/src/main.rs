@@ -78,8 +78,9 @@ fn fuzz(args: &[String]) -> Result<()> {
 /// Benchmarks, not timed tests: they print numbers and pass whatever they are.
 fn bench() -> Result<()> {
     prerequisites::all()?;
+    let python = prerequisites::python_venv()?;
     run::cargo(&["bench", "-p", "species-key", "--bench", "next_question"])?;
-    run::cargo(&["bench", "-p", "analysis", "--bench", "range"])?;
+    run::cargo_with_env(&["bench", "-p", "analysis", "--bench", "range"], &[("WRACKLINE_PYTHON", &python)])?;
     run::cargo(&["bench", "-p", "wrackline-server", "--bench", "intake"])?;
     run::cargo(&["bench", "-p", "wrackline-server", "--bench", "duplicates"])?;
     run::cargo(&["bench", "-p", "wrackline-server", "--bench", "export"])?;

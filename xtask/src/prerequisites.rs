@@ -81,11 +81,12 @@ fn npm_packages() -> Result<()> {
     run::check(command).context("installing the browser-test packages; try: npm ci --prefix tests/browser")
 }
 
-/// The Python packages the export tests read archives and GeoJSON back with.
-const PYTHON_PACKAGES: &[&str] = &["python-dwca-reader==0.17.1", "shapely==2.2.0"];
+/// The Python packages the export tests read archives and GeoJSON back with, and the
+/// range benchmark compares EOO and AOO against (pyproj + shapely).
+const PYTHON_PACKAGES: &[&str] = &["python-dwca-reader==0.17.1", "shapely==2.2.0", "pyproj==3.7.2"];
 
 /// A virtualenv in `target/venv` with the reference Python packages; returns its Python,
-/// which `test` passes to the Rust tests as `WRACKLINE_PYTHON`.
+/// which `test` and `bench` pass on as `WRACKLINE_PYTHON`.
 pub fn python_venv() -> Result<std::path::PathBuf> {
     let venv = root().join("target/venv");
     let python = venv.join("bin/python");
