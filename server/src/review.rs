@@ -174,8 +174,7 @@ impl WantedTaxon {
     pub fn takes_in(&self, taxa: &TaxonIndex, name: Option<&str>) -> bool {
         let Some(name) = name else { return false };
         let Some(wanted) = &self.filter else { return name.trim().eq_ignore_ascii_case(&self.asked) };
-        let Some(own) = taxa.filter(name) else { return false };
-        own.rank <= wanted.rank && taxa.checklist().taxa().iter().any(|taxon| taxon.name_at(own.rank) == own.name && wanted.contains(taxon))
+        taxa.named(name).is_some_and(|own| wanted.contains_named(own, taxa.checklist()))
     }
 }
 

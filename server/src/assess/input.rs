@@ -130,15 +130,8 @@ impl Columns {
                 message: format!("line 1 (the header) has no `{term}` column; the columns are: {}", names.join(", ")),
             })
         };
-        Ok(Self {
-            latitude: need(LATITUDE)?,
-            longitude: need(LONGITUDE)?,
-            name: find(NAME),
-            date: find(DATE),
-            count: find(COUNT),
-            status: find(STATUS),
-            names,
-        })
+        let (latitude, longitude) = (need(LATITUDE)?, need(LONGITUDE)?);
+        Ok(Self::located(latitude, longitude, find, names.clone()))
     }
 
     /// The columns of an archive table. Coordinates are required unless `events` can
@@ -153,15 +146,13 @@ impl Columns {
                 message: format!("meta.xml maps no field of {} to the Darwin Core term `{term}`", table.location),
             }),
         };
-        Ok(Self {
-            latitude: need(LATITUDE)?,
-            longitude: need(LONGITUDE)?,
-            name: find(NAME),
-            date: find(DATE),
-            count: find(COUNT),
-            status: find(STATUS),
-            names: table.column_names(),
-        })
+        let (latitude, longitude) = (need(LATITUDE)?, need(LONGITUDE)?);
+        Ok(Self::located(latitude, longitude, find, table.column_names()))
+    }
+
+    /// The columns, given where the coordinates are and how to find the optional terms.
+    fn located(latitude: Source, longitude: Source, find: impl Fn(&str) -> Option<Source>, names: Vec<String>) -> Self {
+        Self { latitude, longitude, name: find(NAME), date: find(DATE), count: find(COUNT), status: find(STATUS), names }
     }
 }
 

@@ -39,9 +39,21 @@ pub const OCCURRENCE_TERMS: &[&str] = &[
     "associatedOccurrences",
 ];
 
-/// MeasurementOrFact terms after the core id column.
-pub const MEASUREMENT_TERMS: &[&str] =
-    &["measurementID", "measurementType", "measurementValue", "measurementUnit", "measurementMethod", "measurementRemarks"];
+/// MeasurementOrFact terms with the occurrence they measure, for an event-core archive.
+pub const EVENT_MEASUREMENT_TERMS: &[&str] =
+    &["occurrenceID", "measurementID", "measurementType", "measurementValue", "measurementUnit", "measurementMethod", "measurementRemarks"];
+
+/// MeasurementOrFact terms after the core id column, in an occurrence-core archive.
+pub const MEASUREMENT_TERMS: &[&str] = after_occurrence_id(EVENT_MEASUREMENT_TERMS);
+
+/// An event-core extension's terms without its leading `occurrenceID`: in an
+/// occurrence-core archive the core id column already names the occurrence.
+const fn after_occurrence_id(terms: &'static [&'static str]) -> &'static [&'static str] {
+    match terms.split_first() {
+        Some((_, rest)) => rest,
+        None => terms,
+    }
+}
 
 /// One data file of an archive.
 #[derive(Debug, Clone, Copy)]
@@ -70,23 +82,8 @@ pub const OCCURRENCE_EXTENSION: Table = Table { row_type: "http://rs.tdwg.org/dw
 
 /// The identification history (TDWG Darwin Core Identification class; GBIF's
 /// identification-history extension uses the same row type): one row per identification
-/// of the organism, current and superseded, after the core id column.
-pub const IDENTIFICATION_TERMS: &[&str] = &[
-    "identificationID",
-    "scientificName",
-    "taxonRank",
-    "verbatimIdentification",
-    "identifiedBy",
-    "dateIdentified",
-    "identificationRemarks",
-    "identificationVerificationStatus",
-];
-
-/// Identifications: column 0 is the occurrence's id (the core id).
-pub const IDENTIFICATION_EXTENSION: Table =
-    Table { row_type: "http://rs.tdwg.org/dwc/terms/Identification", file: "identification.txt", terms: IDENTIFICATION_TERMS };
-
-/// Identification terms with the occurrence they identify, for an event-core archive.
+/// of the organism, current and superseded. In an event-core archive the row first names
+/// the occurrence it identifies.
 pub const EVENT_IDENTIFICATION_TERMS: &[&str] = &[
     "occurrenceID",
     "identificationID",
@@ -99,13 +96,16 @@ pub const EVENT_IDENTIFICATION_TERMS: &[&str] = &[
     "identificationVerificationStatus",
 ];
 
+/// Identification terms after the core id column, in an occurrence-core archive.
+pub const IDENTIFICATION_TERMS: &[&str] = after_occurrence_id(EVENT_IDENTIFICATION_TERMS);
+
+/// Identifications: column 0 is the occurrence's id (the core id).
+pub const IDENTIFICATION_EXTENSION: Table =
+    Table { row_type: "http://rs.tdwg.org/dwc/terms/Identification", file: "identification.txt", terms: IDENTIFICATION_TERMS };
+
 /// Identifications in an event-core archive: column 0 is the event's id, `occurrenceID` names the animal.
 pub const EVENT_IDENTIFICATION_EXTENSION: Table =
     Table { row_type: "http://rs.tdwg.org/dwc/terms/Identification", file: "identification.txt", terms: EVENT_IDENTIFICATION_TERMS };
-
-/// MeasurementOrFact terms with the occurrence they measure, for an event-core archive.
-pub const EVENT_MEASUREMENT_TERMS: &[&str] =
-    &["occurrenceID", "measurementID", "measurementType", "measurementValue", "measurementUnit", "measurementMethod", "measurementRemarks"];
 
 /// Lengths in an event-core archive: column 0 is the event's id, `occurrenceID` names the animal.
 pub const EVENT_MEASUREMENT_EXTENSION: Table =

@@ -63,11 +63,7 @@ fn sees_sensitive_places(caller: &Caller) -> bool {
 /// checklist). A genus, family, order or superorder is sensitive when any of its species
 /// is: its hull and map would show where that species was.
 fn sensitive(state: &AppState, name: &str) -> bool {
-    let generalised = |t: &species_key::Taxon| t.sensitivity != species_key::Sensitivity::None;
-    match state.taxa.filter(name) {
-        Some(filter) => state.taxa.checklist().taxa().iter().filter(|t| filter.contains(t)).any(generalised),
-        None => false,
-    }
+    state.taxa.named(name).is_some_and(|taxon| taxon.sensitivity != species_key::Sensitivity::None)
 }
 
 /// `GET /api/range`: figures for everyone; for a sensitive species the hull's corners
