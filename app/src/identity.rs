@@ -123,7 +123,7 @@ pub fn AboutYou(outbox: Outbox) -> impl IntoView {
         <Show when=move || !answered.get() && something_to_send()>
             <section id="about-you" class="card">
                 <h2>"About you (optional)"</h2>
-                <p class="hint">"Before your records are sent: reviewers may want to ask you about a find. Both boxes may stay empty."</p>
+                <p class="hint">"Reviewers may want to ask you about a find. Both boxes may stay empty; your records are sent either way."</p>
                 <label>"Your name" <input id="about-name" autocomplete="name" prop:value=move || name.get() on:input=move |ev| name.set(event_target_value(&ev)) /></label>
                 <label>"Email or phone number" <input id="about-contact" autocomplete="email" prop:value=move || contact.get() on:input=move |ev| contact.set(event_target_value(&ev)) /></label>
                 <p class="hint">"Your contact is only for reviewers with a question about your records. It is never published, never exported and never shown to anyone else."</p>

@@ -178,6 +178,9 @@ fn MyRecordItem(record: MyRecord, outbox: Outbox) -> impl IntoView {
             }
         });
     };
+    // An answer when a reviewer has asked something; otherwise more detail, unasked.
+    let asked = record.messages.iter().any(|m| m.author_role != Role::Observer);
+    let add_label = if asked { "Answer the reviewer" } else { "Add a note or photo for the reviewers" };
     let messages = record.messages.iter().map(|m| {
         let who = match m.author_role {
             Role::Observer => "you".to_owned(),
@@ -190,7 +193,7 @@ fn MyRecordItem(record: MyRecord, outbox: Outbox) -> impl IntoView {
             <div><b>{what}</b>" · "{when}" · "<span class="review-state">{state_label(&record)}</span></div>
             <ul class="messages">{messages}</ul>
             <details class="answer">
-                <summary>"Answer the reviewer"</summary>
+                <summary>{add_label}</summary>
                 <textarea class="answer-text" rows="2" prop:value=move || answer.get() on:input=move |ev| answer.set(event_target_value(&ev))></textarea>
                 <label class="button small">"Add photo"
                     <input class="answer-photo" type="file" accept="image/*" capture="environment" multiple on:change=add_photos /></label>

@@ -545,7 +545,7 @@ fn RecordReview(client_id: String, back: impl Fn() + Copy + 'static) -> impl Int
                     <h4>"Identifications"</h4>
                     <ol class="identifications">{d.identifications.iter().map(|i| view! {
                         <li class=if i.current { "current" } else { "superseded" }>{format!("{} ({}) by {} on {} [{}]{}", i.taxon_name, i.taxon_rank.clone().unwrap_or_else(|| "rank not given".into()),
-                            i.identified_by.clone().unwrap_or_else(|| "unknown".into()), i.identified_at.format("%Y-%m-%d"), i.basis, i.remarks.as_ref().map(|r| format!(": {r}")).unwrap_or_default())}</li>
+                            i.identified_by.clone().unwrap_or_else(|| "an observer who gave no name".into()), i.identified_at.format("%Y-%m-%d"), i.basis, i.remarks.as_ref().map(|r| format!(": {r}")).unwrap_or_default())}</li>
                     }).collect_view()}</ol>
                     <h4>"Messages"</h4>
                     <ul class="messages">{d.messages.iter().map(|m| view! { <li>{format!("{}: {}", m.author.clone().unwrap_or_else(|| m.author_role.code().into()), m.body)}</li> }).collect_view()}</ul>

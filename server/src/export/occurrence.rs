@@ -251,7 +251,10 @@ fn name_of<'n>(names: &'n TaxonIndex, identification: &IdentificationRow) -> Nam
 /// (left out where a sensitive record's free text is withheld), then a warning when the
 /// name is not on the checklist.
 fn identification_remarks(identification: &IdentificationRow, matched: bool, hide_free_text: bool) -> String {
-    let mut remarks = identification.basis.clone();
+    let mut remarks = match identification.basis.as_str() {
+        "reviewer" => "identified by a reviewer from the photos and details".to_owned(),
+        basis => basis.to_owned(),
+    };
     if let Some(remark) = identification.remarks.as_deref().filter(|r| !hide_free_text && !r.is_empty()) {
         remarks.push_str("; ");
         remarks.push_str(remark);

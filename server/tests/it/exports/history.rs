@@ -61,6 +61,7 @@ async fn a_confirmation_is_in_the_occurrence_and_every_identification_in_the_his
     assert!(identified >= before - chrono::Duration::seconds(1), "{identified} is the confirmation, not the submission");
     assert_eq!(term(occurrence, "identificationVerificationStatus"), "confirmed");
     assert!(term(occurrence, "identificationRemarks").contains("large spots: nursehound"));
+    assert!(term(occurrence, "identificationRemarks").starts_with("identified by a reviewer"), "says how, in words");
 
     let history = identifications(occurrence);
     assert_eq!(history.len(), 2, "the observer's guess and the reviewer's identification: {history:?}");
