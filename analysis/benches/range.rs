@@ -26,17 +26,10 @@ fn main() {
     });
     println!("wrackline analysis, {POINTS} points (best of {RUNS}):");
     println!("  EOO {eoo_km2:.3} km² in {:.1} ms", ms(eoo_time));
-    println!(
-        "  AOO {} cells (min {} over 16 origins) in {:.1} ms",
-        cells.0,
-        cells.1,
-        ms(aoo_time)
-    );
+    println!("  AOO {} cells (min {} over 16 origins) in {:.1} ms", cells.0, cells.1, ms(aoo_time));
     println!("  total {:.1} ms", ms(eoo_time + aoo_time));
     match reference_python() {
-        Some(python) => {
-            compare_with_python(&python, &points, &grid, eoo_km2, cells, eoo_time + aoo_time)
-        }
+        Some(python) => compare_with_python(&python, &points, &grid, eoo_km2, cells, eoo_time + aoo_time),
         None => println!("no Python with pyproj/shapely found; set WRACKLINE_PYTHON to compare"),
     }
 }
@@ -110,46 +103,26 @@ fn compare_with_python(
     cells: (usize, usize),
     rust_time: Duration,
 ) {
-    let file =
-        std::env::temp_dir().join(format!("wrackline-bench-points-{}.bin", std::process::id()));
-    let bytes: Vec<u8> = points
-        .iter()
-        .flat_map(|p| [p.lat(), p.lon()])
-        .flat_map(f64::to_le_bytes)
-        .collect();
+    let file = std::env::temp_dir().join(format!("wrackline-bench-points-{}.bin", std::process::id()));
+    let bytes: Vec<u8> = points.iter().flat_map(|p| [p.lat(), p.lon()]).flat_map(f64::to_le_bytes).collect();
     std::fs::write(&file, bytes).expect("writing the points file");
     let script = concat!(env!("CARGO_MANIFEST_DIR"), "/benches/range_reference.py");
     let output = Command::new(python)
         .arg(script)
         .arg(&file)
-        .args(
-            [
-                grid.centre().lat(),
-                grid.centre().lon(),
-                grid.cell_size_km(),
-            ]
-            .map(|v| v.to_string()),
-        )
+        .args([grid.centre().lat(), grid.centre().lon(), grid.cell_size_km()].map(|v| v.to_string()))
         .output()
         .expect("running the Python reference");
     let _ = std::fs::remove_file(&file);
     if !output.status.success() {
-        println!(
-            "Python reference failed: {}",
-            String::from_utf8_lossy(&output.stderr)
-        );
+        println!("Python reference failed: {}", String::from_utf8_lossy(&output.stderr));
         return;
     }
-    let reference: serde_json::Value =
-        serde_json::from_slice(&output.stdout).expect("reference prints JSON");
+    let reference: serde_json::Value = serde_json::from_slice(&output.stdout).expect("reference prints JSON");
     let number = |key: &str| reference[key].as_f64().expect("numeric field");
     let python_time = number("eoo_seconds") + number("aoo_seconds");
     println!("shapely + pyproj ({}), same points:", reference["versions"]);
-    println!(
-        "  EOO {:.3} km² in {:.1} ms",
-        number("eoo_km2"),
-        number("eoo_seconds") * 1000.0
-    );
+    println!("  EOO {:.3} km² in {:.1} ms", number("eoo_km2"), number("eoo_seconds") * 1000.0);
     println!(
         "  AOO {} cells (min {}) in {:.1} ms",
         number("aoo_cells"),
@@ -161,8 +134,5 @@ fn compare_with_python(
     let agree = within(eoo_km2, number("eoo_km2"))
         && within(cells.0 as f64, number("aoo_cells"))
         && within(cells.1 as f64, number("aoo_min_cells"));
-    println!(
-        "speed-up {:.1}x; answers agree within 0.1%: {agree}",
-        python_time / rust_time.as_secs_f64()
-    );
+    println!("speed-up {:.1}x; answers agree within 0.1%: {agree}", python_time / rust_time.as_secs_f64());
 }

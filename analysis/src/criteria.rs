@@ -93,18 +93,12 @@ pub const A2_TO_A4_REDUCTION_PERCENT: [Threshold; 3] = [
 
 /// The most severe criterion-B category whose area limit `area_km2` is strictly below.
 pub fn area_band(table: &[Threshold; 3], area_km2: f64) -> Option<Category> {
-    table
-        .iter()
-        .find(|t| area_km2 < t.limit)
-        .map(|t| t.category)
+    table.iter().find(|t| area_km2 < t.limit).map(|t| t.category)
 }
 
 /// The most severe criterion-A category whose reduction `reduction_percent` reaches.
 pub fn reduction_band(table: &[Threshold; 3], reduction_percent: f64) -> Option<Category> {
-    table
-        .iter()
-        .find(|t| reduction_percent >= t.limit)
-        .map(|t| t.category)
+    table.iter().find(|t| reduction_percent >= t.limit).map(|t| t.category)
 }
 
 /// Criterion B's area tests applied to one EOO and one AOO, with the sentence to show.
@@ -140,13 +134,7 @@ pub fn criterion_b(eoo_km2: f64, aoo_km2: f64) -> CriterionB {
         aoo = format_area(aoo_km2),
         aoo_cmp = band_phrase(aoo_band, "B2"),
     );
-    CriterionB {
-        b1_eoo_km2: B1_EOO_KM2,
-        b2_aoo_km2: B2_AOO_KM2,
-        eoo_band,
-        aoo_band,
-        text,
-    }
+    CriterionB { b1_eoo_km2: B1_EOO_KM2, b2_aoo_km2: B2_AOO_KM2, eoo_band, aoo_band, text }
 }
 
 /// Criterion A's reduction tests applied to one estimated change, with the sentence to show.
@@ -201,11 +189,7 @@ pub fn criterion_a(change_fraction: f64, window_years: f64) -> CriterionA {
 fn band_phrase(band: Option<Category>, subcriterion: &str) -> String {
     match band {
         Some(category) => {
-            format!(
-                "within the {} ({}) threshold for {subcriterion}",
-                category.name(),
-                category.code()
-            )
+            format!("within the {} ({}) threshold for {subcriterion}", category.name(), category.code())
         }
         None => format!("outside every {subcriterion} threshold"),
     }

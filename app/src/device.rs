@@ -145,7 +145,13 @@ pub struct Answer {
 }
 
 /// Posts JSON (as form part `part`) and photos. `Err` means no answer arrived at all.
-pub async fn send_form(url: &str, part: &str, json: &str, photos: &[web_sys::Blob], header_pairs: &[(&str, &str)]) -> Result<Answer, String> {
+pub async fn send_form(
+    url: &str,
+    part: &str,
+    json: &str,
+    photos: &[web_sys::Blob],
+    header_pairs: &[(&str, &str)],
+) -> Result<Answer, String> {
     let blobs = photos.iter().map(JsValue::from).collect::<js_sys::Array>();
     let value = wait(send_record_js(url, json, blobs, part, headers(header_pairs))).await?;
     serde_wasm_bindgen::from_value(value).map_err(|err| err.to_string())
@@ -195,7 +201,12 @@ pub fn stop_watching(id: i32) {
 }
 
 /// Sends a request with an optional JSON body; `Err` means no answer arrived.
-pub async fn send_json(method: &str, url: &str, json: Option<&str>, header_pairs: &[(&str, &str)]) -> Result<Answer, String> {
+pub async fn send_json(
+    method: &str,
+    url: &str,
+    json: Option<&str>,
+    header_pairs: &[(&str, &str)],
+) -> Result<Answer, String> {
     let body = json.map_or(JsValue::NULL, JsValue::from);
     let value = wait(send_json_js(method, url, body, headers(header_pairs))).await?;
     serde_wasm_bindgen::from_value(value).map_err(|err| err.to_string())
@@ -230,7 +241,8 @@ pub enum PrepareError {
 
 pub async fn prepare_upload(file: &web_sys::Blob, long_edge: u32, quality: f64) -> Result<UploadCopy, PrepareError> {
     let value = JsFuture::from(prepare_upload_js(file, long_edge, quality)).await.map_err(|err| {
-        let flag = |name: &str| js_sys::Reflect::get(&err, &name.into()).ok().and_then(|v| v.as_bool()).unwrap_or(false);
+        let flag =
+            |name: &str| js_sys::Reflect::get(&err, &name.into()).ok().and_then(|v| v.as_bool()).unwrap_or(false);
         if flag("undecodable") {
             PrepareError::Undecodable(message(err))
         } else if flag("noCanvas") {

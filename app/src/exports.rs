@@ -42,7 +42,13 @@ struct Filters {
 /// The export URL for `filters`; blank filters are left out.
 fn export_url(filters: &Filters) -> String {
     let mut url = format!("/api/export?format={}", query_part(&filters.format));
-    for (name, value) in [("taxon", &filters.taxon), ("from", &filters.from), ("to", &filters.to), ("bbox", &filters.area), ("state", &filters.state)] {
+    for (name, value) in [
+        ("taxon", &filters.taxon),
+        ("from", &filters.from),
+        ("to", &filters.to),
+        ("bbox", &filters.area),
+        ("state", &filters.state),
+    ] {
         if !value.trim().is_empty() {
             url.push_str(&format!("&{name}={}", query_part(value.trim())));
         }
@@ -69,7 +75,9 @@ fn areas() -> Vec<(String, String)> {
     key.checklist()
         .areas()
         .iter()
-        .filter_map(|a| a.bounds.map(|[west, south, east, north]| (a.name.clone(), format!("{south},{west},{north},{east}"))))
+        .filter_map(|a| {
+            a.bounds.map(|[west, south, east, north]| (a.name.clone(), format!("{south},{west},{north},{east}")))
+        })
         .collect()
 }
 
@@ -78,8 +86,11 @@ pub fn ExportSection() -> impl IntoView {
     let filters = RwSignal::new(Filters { format: "dwca".into(), state: "confirmed".into(), ..Filters::default() });
     let staff = RwSignal::new(false);
     leptos::task::spawn_local(async move { staff.set(signed_in_staff().await) });
-    let set = move |change: fn(&mut Filters, String)| move |ev: leptos::ev::Event| filters.update(|f| change(f, event_target_value(&ev)));
-    let area_options = areas().into_iter().map(|(name, bbox)| view! { <option value=bbox>{name}</option> }).collect_view();
+    let set = move |change: fn(&mut Filters, String)| {
+        move |ev: leptos::ev::Event| filters.update(|f| change(f, event_target_value(&ev)))
+    };
+    let area_options =
+        areas().into_iter().map(|(name, bbox)| view! { <option value=bbox>{name}</option> }).collect_view();
     let full_choice = move || {
         staff.get().then(|| view! {
             <label class="check"><input id="export-full" type="checkbox" prop:checked=move || filters.get().full

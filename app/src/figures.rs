@@ -77,14 +77,27 @@ fn range_rows(taxon: &Value) -> (Vec<String>, Vec<Row>) {
     let headers = periods.iter().map(|p| p["period"].as_str().unwrap_or("").to_owned()).collect();
     let per = |f: &dyn Fn(&Value) -> String| periods.iter().map(|p| f(p)).collect::<Vec<_>>();
     let figure = |p: &Value, path: &[&str]| path.iter().try_fold(&p["figures"], |v, key| v.get(key)).and_then(number);
-    let change_of = |field: &str, pct: &str| change.map_or(String::new(), |c| signed_km2(number(&c[field]), number(&c[pct])));
+    let change_of =
+        |field: &str, pct: &str| change.map_or(String::new(), |c| signed_km2(number(&c[field]), number(&c[pct])));
     let count_change = |field: &str| change.and_then(|c| c[field].as_i64()).map_or(String::new(), |v| format!("{v:+}"));
     let rows = vec![
         Row { label: "Records", cells: per(&|p| p["records"].to_string()), change: count_change("records") },
         Row { label: "Distinct sites", cells: per(&|p| p["sites"].to_string()), change: count_change("sites") },
-        Row { label: "EOO", cells: per(&|p| km2(figure(p, &["eoo_km2"]))), change: change_of("eoo_km2", "eoo_percent") },
-        Row { label: "AOO", cells: per(&|p| km2(figure(p, &["aoo", "area_km2"]))), change: change_of("aoo_km2", "aoo_percent") },
-        Row { label: "Least AOO (shifted grids)", cells: per(&|p| km2(figure(p, &["aoo", "min_area_km2"]))), change: String::new() },
+        Row {
+            label: "EOO",
+            cells: per(&|p| km2(figure(p, &["eoo_km2"]))),
+            change: change_of("eoo_km2", "eoo_percent"),
+        },
+        Row {
+            label: "AOO",
+            cells: per(&|p| km2(figure(p, &["aoo", "area_km2"]))),
+            change: change_of("aoo_km2", "aoo_percent"),
+        },
+        Row {
+            label: "Least AOO (shifted grids)",
+            cells: per(&|p| km2(figure(p, &["aoo", "min_area_km2"]))),
+            change: String::new(),
+        },
     ];
     (headers, rows)
 }
@@ -134,11 +147,20 @@ fn range_view(report: &Value) -> AnyView {
 /// The trend's figures as (label, text) pairs.
 fn trend_lines(report: &Value) -> Vec<(&'static str, String)> {
     let t = &report["trend"];
-    let change = |c: &Value| format!("{} (95% interval {} to {})", percent(number(&c["estimate"])), percent(number(&c["lower"])), percent(number(&c["upper"])));
+    let change = |c: &Value| {
+        format!(
+            "{} (95% interval {} to {})",
+            percent(number(&c["estimate"])),
+            percent(number(&c["lower"])),
+            percent(number(&c["upper"]))
+        )
+    };
     let generation = &report["generation_length"];
     let window = number(&t["window_years"]).unwrap_or(f64::NAN);
     let model = match (t["error_model"].as_str(), t["interval"]["degrees_of_freedom"].as_u64()) {
-        (Some("QuasiPoisson"), Some(df)) => format!("quasi-Poisson: errors scaled by the dispersion, intervals from Student's t with {df} degrees of freedom"),
+        (Some("QuasiPoisson"), Some(df)) => format!(
+            "quasi-Poisson: errors scaled by the dispersion, intervals from Student's t with {df} degrees of freedom"
+        ),
         (Some("QuasiPoisson"), None) => "quasi-Poisson: errors scaled by the dispersion".into(),
         _ => "Poisson errors, intervals from the normal distribution".into(),
     };
@@ -155,7 +177,11 @@ fn trend_lines(report: &Value) -> Vec<(&'static str, String)> {
             format!(
                 "{} over {window:.0} years{}",
                 change(&t["window_change"]),
-                if t["window_exceeds_data"].as_bool() == Some(true) { ", extrapolated beyond the years covered" } else { "" }
+                if t["window_exceeds_data"].as_bool() == Some(true) {
+                    ", extrapolated beyond the years covered"
+                } else {
+                    ""
+                }
             ),
         ),
         (
@@ -166,10 +192,17 @@ fn trend_lines(report: &Value) -> Vec<(&'static str, String)> {
                 generation["source"].as_str().unwrap_or("")
             ),
         ),
-        ("Dispersion and model", format!("Pearson dispersion {:.2}; {model}", number(&t["fit"]["dispersion"]).unwrap_or(f64::NAN))),
+        (
+            "Dispersion and model",
+            format!("Pearson dispersion {:.2}; {model}", number(&t["fit"]["dispersion"]).unwrap_or(f64::NAN)),
+        ),
         (
             "Mann–Kendall (tie-corrected)",
-            format!("tau = {:.3}, p = {:.4}; Sen's slope {sen} per year", number(&mk["tau"]).unwrap_or(f64::NAN), number(&mk["p_value"]).unwrap_or(f64::NAN)),
+            format!(
+                "tau = {:.3}, p = {:.4}; Sen's slope {sen} per year",
+                number(&mk["tau"]).unwrap_or(f64::NAN),
+                number(&mk["p_value"]).unwrap_or(f64::NAN)
+            ),
         ),
         ("Animals recorded per year", if counts.is_empty() { "none".into() } else { counts.join(", ") }),
     ]
@@ -180,7 +213,14 @@ fn trend_view(report: &Value) -> AnyView {
         .into_iter()
         .map(|(label, text)| view! { <div class="figure-line"><dt>{label}</dt><dd>{text}</dd></div> })
         .collect_view();
-    let notes = report["notes"].as_array().cloned().unwrap_or_default().into_iter().filter_map(|n| n.as_str().map(str::to_owned)).map(|n| view! { <li>{n}</li> }).collect_view();
+    let notes = report["notes"]
+        .as_array()
+        .cloned()
+        .unwrap_or_default()
+        .into_iter()
+        .filter_map(|n| n.as_str().map(str::to_owned))
+        .map(|n| view! { <li>{n}</li> })
+        .collect_view();
     let first = report["trend"]["first_year"].to_string();
     let last = report["trend"]["last_year"].to_string();
     let criterion_a = report["trend"]["criterion_a"]["text"].as_str().unwrap_or("").to_owned();
@@ -223,10 +263,23 @@ pub fn FiguresScreen() -> impl IntoView {
         let query = range_query(&name, &states, &[first_period.get_untracked(), second_period.get_untracked()]);
         let years = generation.get_untracked();
         let base = format!("taxon={}&state={}", query_part(&name), query_part(&states));
-        let trend_query = if years.trim().is_empty() { base } else { format!("{base}&generation_length={}", query_part(years.trim())) };
+        let trend_query = if years.trim().is_empty() {
+            base
+        } else {
+            format!("{base}&generation_length={}", query_part(years.trim()))
+        };
         leptos::task::spawn_local(async move {
             let found: Shown = fetch_json(&format!("/api/range?{query}")).await;
-            cautions.set(found.as_ref().ok().and_then(|r| r["cautions"].as_array().cloned()).unwrap_or_default().into_iter().filter_map(|c| c.as_str().map(str::to_owned)).collect());
+            cautions.set(
+                found
+                    .as_ref()
+                    .ok()
+                    .and_then(|r| r["cautions"].as_array().cloned())
+                    .unwrap_or_default()
+                    .into_iter()
+                    .filter_map(|c| c.as_str().map(str::to_owned))
+                    .collect(),
+            );
             range.set(found);
             trend.set(fetch_json(&format!("/api/trend?{trend_query}")).await);
             map.set(fetch(&format!("/api/range/map.svg?{query}")).await);

@@ -3,12 +3,12 @@
 //! into a checked [`Submission`] with the same checks the server runs, or into a
 //! list of problems to show.
 
-pub use shared_types::codes::{code, from_code};
 use chrono::{FixedOffset, NaiveDateTime, TimeZone};
 use leptos::prelude::*;
+pub use shared_types::codes::{code, from_code};
 use shared_types::{
-    AccuracyM, Condition, Count, HumanSign, KeyChoice, Latitude, Length, LengthKind, LengthUnit, LengthValue, LifeStage, Longitude,
-    MeasureMethod, Position, PositionSource, Setting, Sex, Submission, SubmissionProblem, Text,
+    AccuracyM, Condition, Count, HumanSign, KeyChoice, Latitude, Length, LengthKind, LengthUnit, LengthValue,
+    LifeStage, Longitude, MeasureMethod, Position, PositionSource, Setting, Sex, Submission, SubmissionProblem, Text,
 };
 use uuid::Uuid;
 
@@ -19,8 +19,6 @@ use crate::outbox::{self, Entry, SyncState};
 use crate::photos::{self, PickedPhoto};
 use crate::sync::{self, Outbox};
 use crate::walks::WalkState;
-
-
 
 /// What the observer has typed so far, as text.
 #[derive(Debug, Clone, Default)]
@@ -86,7 +84,12 @@ impl FormFields {
         }
         let position = self.position(&mut problems);
         let length = self.length(&mut problems);
-        let count = self.count.trim().parse::<u32>().map_err(|_| "count: a whole number".to_string()).and_then(|n| Count::parse(n).map_err(|e| format!("count: {e}")));
+        let count = self
+            .count
+            .trim()
+            .parse::<u32>()
+            .map_err(|_| "count: a whole number".to_string())
+            .and_then(|n| Count::parse(n).map_err(|e| format!("count: {e}")));
         let count = count.map_err(|p| problems.push(p)).ok();
         let condition = self.condition.or_else(|| {
             problems.push("condition: choose how the animal was found".into());
@@ -136,8 +139,10 @@ impl FormFields {
                 None
             }
         };
-        let latitude = number("latitude", &self.latitude, problems).and_then(|n| Latitude::parse(n).map_err(|e| problems.push(e.to_string())).ok());
-        let longitude = number("longitude", &self.longitude, problems).and_then(|n| Longitude::parse(n).map_err(|e| problems.push(e.to_string())).ok());
+        let latitude = number("latitude", &self.latitude, problems)
+            .and_then(|n| Latitude::parse(n).map_err(|e| problems.push(e.to_string())).ok());
+        let longitude = number("longitude", &self.longitude, problems)
+            .and_then(|n| Longitude::parse(n).map_err(|e| problems.push(e.to_string())).ok());
         let accuracy_m = match self.accuracy_m.trim() {
             "" => None,
             text => text.parse::<f64>().ok().and_then(|n| AccuracyM::parse(n).ok()).or_else(|| {
@@ -159,7 +164,11 @@ impl FormFields {
             return None;
         }
         let unit = self.length_unit.unwrap_or(LengthUnit::Cm);
-        let value = match text.parse::<f64>().map_err(|_| "a number".to_string()).and_then(|v| LengthValue::parse(v, unit).map_err(|e| e.to_string())) {
+        let value = match text
+            .parse::<f64>()
+            .map_err(|_| "a number".to_string())
+            .and_then(|v| LengthValue::parse(v, unit).map_err(|e| e.to_string()))
+        {
             Ok(value) => value,
             Err(err) => {
                 problems.push(format!("length: {err}"));
@@ -235,7 +244,8 @@ fn prefill_from_photo(fields: RwSignal<FormFields>, note: RwSignal<String>, firs
     fields.update(|f| {
         f.latitude = format!("{lat:.6}");
         f.longitude = format!("{lon:.6}");
-        f.accuracy_m = first.exif.horizontal_error_m.filter(|e| *e >= 1.0).map(|e| format!("{e:.0}")).unwrap_or_default();
+        f.accuracy_m =
+            first.exif.horizontal_error_m.filter(|e| *e >= 1.0).map(|e| format!("{e:.0}")).unwrap_or_default();
         f.position_source = Some(PositionSource::Photo);
         f.position_photo = Some(first.preview_url.clone());
     });
@@ -245,10 +255,16 @@ fn prefill_from_photo(fields: RwSignal<FormFields>, note: RwSignal<String>, firs
 /// Takes a photo off the form. A position its GPS filled goes with it (and the next
 /// first photo's GPS, if any, fills it again); a position from the device or typed
 /// by the observer stays.
-fn remove_photo(photos: RwSignal<Vec<PickedPhoto>, LocalStorage>, fields: RwSignal<FormFields>, note: RwSignal<String>, index: usize) {
+fn remove_photo(
+    photos: RwSignal<Vec<PickedPhoto>, LocalStorage>,
+    fields: RwSignal<FormFields>,
+    note: RwSignal<String>,
+    index: usize,
+) {
     let Some(removed) = photos.try_update(|p| (index < p.len()).then(|| p.remove(index))).flatten() else { return };
     let filled_by_it = fields.with_untracked(|f| {
-        f.position_source == Some(PositionSource::Photo) && f.position_photo.as_deref() == Some(removed.preview_url.as_str())
+        f.position_source == Some(PositionSource::Photo)
+            && f.position_photo.as_deref() == Some(removed.preview_url.as_str())
     });
     if filled_by_it {
         fields.update(|f| {
@@ -276,7 +292,9 @@ fn already_added(photos: &[PickedPhoto], picked: &PickedPhoto) -> bool {
 /// record's time and the device's own fix, to set beside what each photo says.
 fn device_says(fields: &FormFields) -> String {
     let place = match (fields.latitude.trim(), fields.longitude.trim(), fields.position_source) {
-        (lat, lon, Some(PositionSource::Device)) if !lat.is_empty() && !lon.is_empty() => format!("{lat}, {lon} ±{} m", fields.accuracy_m),
+        (lat, lon, Some(PositionSource::Device)) if !lat.is_empty() && !lon.is_empty() => {
+            format!("{lat}, {lon} ±{} m", fields.accuracy_m)
+        }
         _ => "no position".to_owned(),
     };
     format!("this device says: {} ({}) · {place}", fields.when.replace('T', " "), offset_label(&fields.when))
@@ -321,7 +339,9 @@ pub fn RecordForm(outbox: Outbox) -> impl IntoView {
         let submission = match fields.with(|f| f.to_submission(client_id.get())) {
             // A record made while a walk goes on belongs to it.
             Ok(s) => Submission {
-                walk_client_id: outbox.walks.with_untracked(|w| w.iter().find(|e| e.state == WalkState::Walking).map(|e| e.client_id)),
+                walk_client_id: outbox
+                    .walks
+                    .with_untracked(|w| w.iter().find(|e| e.state == WalkState::Walking).map(|e| e.client_id)),
                 ..s
             },
             Err(list) => {
@@ -344,11 +364,22 @@ pub fn RecordForm(outbox: Outbox) -> impl IntoView {
                 }
             };
             let waiting = state == SyncState::Waiting;
-            let entry = Entry { submission, sync: state, photo_count: blobs.len(), last_error: None, walk_link_pending: None, walk_linked: None };
+            let entry = Entry {
+                submission,
+                sync: state,
+                photo_count: blobs.len(),
+                last_error: None,
+                walk_link_pending: None,
+                walk_linked: None,
+            };
             match outbox::save(&entry, Some(&blobs)).await {
                 Ok(()) => {
                     identity::remember_observer_name(&fields.with_untracked(|f| f.observer_name.clone()));
-                    let saved = if waiting { "Saved on this phone; it will be sent when there is a connection." } else { "Saved as a draft on this phone." };
+                    let saved = if waiting {
+                        "Saved on this phone; it will be sent when there is a connection."
+                    } else {
+                        "Saved as a draft on this phone."
+                    };
                     saved_note.set(format!("{saved}{warning}"));
                     fields.set(FormFields::fresh(identity::observer_name()));
                     key_open.set(false);
@@ -369,7 +400,8 @@ pub fn RecordForm(outbox: Outbox) -> impl IntoView {
 
     let add_photos = move |ev: leptos::ev::Event| {
         let input: web_sys::HtmlInputElement = event_target(&ev);
-        let added: Vec<web_sys::File> = input.files().map(|list| (0..list.length()).filter_map(|i| list.item(i)).collect()).unwrap_or_default();
+        let added: Vec<web_sys::File> =
+            input.files().map(|list| (0..list.length()).filter_map(|i| list.item(i)).collect()).unwrap_or_default();
         input.set_value("");
         leptos::task::spawn_local(async move {
             let mut refused = Vec::new();

@@ -86,7 +86,9 @@ pub async fn send_profile_if_changed(token: &str) -> Option<String> {
             store(PROFILE_KEY, "sent");
             None
         }
-        Ok(answer) if answer.status == 408 || answer.status == 429 || answer.status >= 500 => Some(format!("server answered {}", answer.status)),
+        Ok(answer) if answer.status == 408 || answer.status == 429 || answer.status >= 500 => {
+            Some(format!("server answered {}", answer.status))
+        }
         // Refused (a name too long?): keep it on the phone and stop asking the server.
         Ok(_) => {
             store(PROFILE_KEY, "sent");

@@ -13,7 +13,9 @@ use std::sync::Arc;
 
 use leptos::prelude::*;
 use shared_types::{KeyChoice, LengthUnit, Text};
-use species_key::{Answer, AnswerError, Answers, Candidate, Checklist, Context, Key, Measurement, TaxonRank, TaxonSupport};
+use species_key::{
+    Answer, AnswerError, Answers, Candidate, Checklist, Context, Key, Measurement, TaxonRank, TaxonSupport,
+};
 use wasm_bindgen::prelude::*;
 
 use crate::device;
@@ -43,7 +45,8 @@ pub fn initial_key() -> Arc<Key> {
         .and_then(|s| s.get_item(STORED_CHECKLIST).ok().flatten())
         .and_then(|text| Checklist::from_json(&text).ok());
     // The built-in checklist is checked by the species-key and server tests.
-    let checklist = stored.unwrap_or_else(|| Checklist::from_json(BUILT_IN_CHECKLIST).expect("built-in checklist is valid"));
+    let checklist =
+        stored.unwrap_or_else(|| Checklist::from_json(BUILT_IN_CHECKLIST).expect("built-in checklist is valid"));
     Arc::new(Key::new(&checklist))
 }
 
@@ -72,9 +75,8 @@ fn position_of(fields: &FormFields) -> Option<(f64, f64)> {
 /// What the record already tells the key: its area, the confirmed records near it and
 /// its length.
 fn context_for(key: &Key, fields: &FormFields, nearby_confirmed: Option<nearby::Counts>) -> Context {
-    let area_code = position_of(fields)
-        .and_then(|(lat, lon)| key.checklist().area_at(lat, lon))
-        .map(|area| area.code.clone());
+    let area_code =
+        position_of(fields).and_then(|(lat, lon)| key.checklist().area_at(lat, lon)).map(|area| area.code.clone());
     let measurement = number(&fields.length_value).filter(|v| *v > 0.0).map(|value| Measurement {
         kind: fields.length_kind.unwrap_or(shared_types::LengthKind::Total).key_kind(),
         cm: value * fields.length_unit.unwrap_or(LengthUnit::Cm).cm_per_unit(),
@@ -109,9 +111,16 @@ fn rank_code(rank: TaxonRank) -> &'static str {
 /// Says in words why an answer was set aside.
 fn set_aside_text(key: &Key, error: &AnswerError) -> String {
     match error {
-        AnswerError::UnknownCharacter(character) => format!("your answer about {character} (the checklist no longer asks it)"),
+        AnswerError::UnknownCharacter(character) => {
+            format!("your answer about {character} (the checklist no longer asks it)")
+        }
         AnswerError::UnknownState { character, state } => {
-            let question = key.checklist().characters().iter().find(|c| &c.name == character).map_or(character.as_str(), |c| c.question.as_str());
+            let question = key
+                .checklist()
+                .characters()
+                .iter()
+                .find(|c| &c.name == character)
+                .map_or(character.as_str(), |c| c.question.as_str());
             format!("your answer \"{state}\" to \"{question}\" (no longer one of its answers)")
         }
     }
@@ -120,7 +129,8 @@ fn set_aside_text(key: &Key, error: &AnswerError) -> String {
 /// The genera, families, orders and superorders of the leading candidates, each with
 /// its summed probability over all candidates, most probable first within a rank.
 fn higher_taxa(key: &Key, ranking: &[Candidate]) -> Vec<TaxonSupport> {
-    let leading: Vec<_> = ranking.iter().take(SHOWN_CANDIDATES).filter_map(|c| key.checklist().taxon(&c.scientific_name)).collect();
+    let leading: Vec<_> =
+        ranking.iter().take(SHOWN_CANDIDATES).filter_map(|c| key.checklist().taxon(&c.scientific_name)).collect();
     [TaxonRank::Genus, TaxonRank::Family, TaxonRank::Order, TaxonRank::Superorder]
         .into_iter()
         .flat_map(|rank| {
@@ -171,7 +181,8 @@ pub fn KeyPanel(key: RwSignal<Arc<Key>>, fields: RwSignal<FormFields>, open: RwS
     // Answers the current checklist knows, and those set aside.
     let usable = Memo::new(move |_| key.with(|k| answers.with(|a| k.usable_answers(a))));
     let ranking = Memo::new(move |_| key.with(|k| usable.with(|(a, _)| k.rank(a, &context.get()).unwrap_or_default())));
-    let question = Memo::new(move |_| key.with(|k| usable.with(|(a, _)| k.next_question(a, &context.get()).ok().flatten())));
+    let question =
+        Memo::new(move |_| key.with(|k| usable.with(|(a, _)| k.next_question(a, &context.get()).ok().flatten())));
 
     let answer = move |character: String, given: Answer| answers.update(|a| a.set(&character, given));
     let pick = move |scientific_name: String, rank: TaxonRank, label: String, probability: f64| {
@@ -188,7 +199,8 @@ pub fn KeyPanel(key: RwSignal<Arc<Key>>, fields: RwSignal<FormFields>, open: RwS
         open.set(false);
     };
 
-    let question_view = move || match question.get() {
+    let question_view = move || {
+        match question.get() {
         Some(q) => {
             let character = q.character.clone();
             let states = q.states.clone().into_iter().map(|state| {
@@ -217,6 +229,7 @@ pub fn KeyPanel(key: RwSignal<Arc<Key>>, fields: RwSignal<FormFields>, open: RwS
             }.into_any()
         }
         None => view! { <p class="hint">"No further question would tell these apart: pick from the list, or stop at a higher rank."</p> }.into_any(),
+    }
     };
 
     let candidates_view = move || {
@@ -269,7 +282,8 @@ pub fn KeyPanel(key: RwSignal<Arc<Key>>, fields: RwSignal<FormFields>, open: RwS
     };
 
     let set_aside = move || {
-        let said: Vec<String> = key.with(|k| usable.with(|(_, dropped)| dropped.iter().map(|e| set_aside_text(k, e)).collect()));
+        let said: Vec<String> =
+            key.with(|k| usable.with(|(_, dropped)| dropped.iter().map(|e| set_aside_text(k, e)).collect()));
         (!said.is_empty()).then(|| {
             let said = said.join("; ");
             view! { <p class="hint set-aside">{format!("The checklist has changed, so these answers are set aside: {said}.")}</p> }

@@ -5,14 +5,14 @@
 //! from the original on the phone, only the upload copy kept and sent, the reading sent
 //! beside it as data.
 
-use leptos::prelude::*;
-use serde::{Deserialize, Serialize};
-use shared_types::{MyRecord, Reply, Role, Text};
-use uuid::Uuid;
 use crate::device::{self, Store};
 use crate::identity;
 use crate::photos::{self, PickedPhoto};
 use crate::sync::{self, Outbox};
+use leptos::prelude::*;
+use serde::{Deserialize, Serialize};
+use shared_types::{MyRecord, Reply, Role, Text};
+use uuid::Uuid;
 
 const MY_RECORDS_KEY: &str = "wrackline.my-records";
 
@@ -58,7 +58,8 @@ pub fn cached_records() -> Vec<MyRecord> {
 
 /// Asks the server for this phone's records and keeps them for offline reading.
 pub async fn fetch_records(token: &str) -> Result<Vec<MyRecord>, String> {
-    let answer = device::send_json("GET", "/api/my/records", None, &[("authorization", &identity::bearer(token))]).await?;
+    let answer =
+        device::send_json("GET", "/api/my/records", None, &[("authorization", &identity::bearer(token))]).await?;
     if answer.status != 200 {
         return Err(format!("my records: the server answered {}", answer.status));
     }
@@ -89,7 +90,9 @@ pub async fn send_replies(token: &str) -> Option<String> {
                 problem.get_or_insert(format!("server answered {}", answer.status));
                 continue;
             }
-            Ok(answer) => entry.state = ReplyState::Refused { reason: format!("status {}: {}", answer.status, answer.body) },
+            Ok(answer) => {
+                entry.state = ReplyState::Refused { reason: format!("status {}: {}", answer.status, answer.body) }
+            }
             Err(err) => {
                 problem.get_or_insert(format!("no connection ({err})"));
                 continue;
@@ -132,7 +135,11 @@ fn MyRecordItem(record: MyRecord, outbox: Outbox) -> impl IntoView {
     let answer = RwSignal::new(String::new());
     let picked = RwSignal::new_local(Vec::<PickedPhoto>::new());
     let note = RwSignal::new(String::new());
-    let pending = move || outbox.replies.with(|r| r.iter().filter(|e| e.record_client_id == client_id && e.state == ReplyState::Waiting).count());
+    let pending = move || {
+        outbox
+            .replies
+            .with(|r| r.iter().filter(|e| e.record_client_id == client_id && e.state == ReplyState::Waiting).count())
+    };
     let add_photos = move |ev: leptos::ev::Event| {
         let input: web_sys::HtmlInputElement = event_target(&ev);
         let Some(list) = input.files() else { return };
@@ -165,7 +172,8 @@ fn MyRecordItem(record: MyRecord, outbox: Outbox) -> impl IntoView {
             let blobs: Vec<web_sys::Blob> = chosen.iter().map(|p| p.upload.clone()).collect();
             let photo_exif = chosen.iter().map(|p| p.exif.clone()).collect();
             let reply = Reply { client_id: Uuid::new_v4(), message, photo_exif };
-            let entry = ReplyEntry { record_client_id: client_id, reply, photo_count: blobs.len(), state: ReplyState::Waiting };
+            let entry =
+                ReplyEntry { record_client_id: client_id, reply, photo_count: blobs.len(), state: ReplyState::Waiting };
             match save_reply(&entry, Some(&blobs)).await {
                 Ok(()) => {
                     answer.set(String::new());
@@ -181,13 +189,17 @@ fn MyRecordItem(record: MyRecord, outbox: Outbox) -> impl IntoView {
     // An answer when a reviewer has asked something; otherwise more detail, unasked.
     let asked = record.messages.iter().any(|m| m.author_role != Role::Observer);
     let add_label = if asked { "Answer the reviewer" } else { "Add a note or photo for the reviewers" };
-    let messages = record.messages.iter().map(|m| {
-        let who = match m.author_role {
-            Role::Observer => "you".to_owned(),
-            _ => m.author.clone().unwrap_or_else(|| "a reviewer".into()),
-        };
-        view! { <li class="message"><b>{who}": "</b>{m.body.clone()}</li> }
-    }).collect_view();
+    let messages = record
+        .messages
+        .iter()
+        .map(|m| {
+            let who = match m.author_role {
+                Role::Observer => "you".to_owned(),
+                _ => m.author.clone().unwrap_or_else(|| "a reviewer".into()),
+            };
+            view! { <li class="message"><b>{who}": "</b>{m.body.clone()}</li> }
+        })
+        .collect_view();
     view! {
         <li class="my-record" data-client-id=client_id.to_string()>
             <div><b>{what}</b>" · "{when}" · "<span class="review-state">{state_label(&record)}</span></div>

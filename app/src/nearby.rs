@@ -32,7 +32,12 @@ struct Answer {
 pub fn area_of(latitude: f64, longitude: f64) -> Option<(String, String)> {
     let centre = |value: f64| ((value / AREA_DEGREES).floor() + 0.5) * AREA_DEGREES;
     let ok = latitude.is_finite() && longitude.is_finite() && latitude.abs() <= 90.0 && longitude.abs() <= 180.0;
-    ok.then(|| (format!("{:.2}", centre(latitude).clamp(-90.0, 90.0)), format!("{:.2}", centre(longitude).clamp(-180.0, 180.0))))
+    ok.then(|| {
+        (
+            format!("{:.2}", centre(latitude).clamp(-90.0, 90.0)),
+            format!("{:.2}", centre(longitude).clamp(-180.0, 180.0)),
+        )
+    })
 }
 
 fn storage_key((lat, lon): &(String, String)) -> String {

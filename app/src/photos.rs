@@ -44,7 +44,8 @@ const EXIF_HEAD_BYTES: f64 = 256.0 * 1024.0;
 /// Reads and prepares one picked file; the error is a sentence for the observer.
 pub async fn pick(file: web_sys::File) -> Result<PickedPhoto, String> {
     let name = file.name();
-    let mut exif = with_device_offset(read_exif(&file).await.map_err(|err| format!("“{name}” could not be read: {err}"))?);
+    let mut exif =
+        with_device_offset(read_exif(&file).await.map_err(|err| format!("“{name}” could not be read: {err}"))?);
     // Names the original, which is never sent, so the same photo picked on two phones is
     // recognised though their upload copies differ. A browser without a digest sends none.
     let digest = device::original_sha256(&file).await.map_err(|err| format!("“{name}” could not be read: {err}"))?;
@@ -62,7 +63,8 @@ pub async fn pick(file: web_sys::File) -> Result<PickedPhoto, String> {
 /// the whole file (PNG and others may keep it anywhere).
 async fn read_exif(file: &web_sys::File) -> Result<PhotoExif, String> {
     if file.size() > EXIF_HEAD_BYTES {
-        let head = file.slice_with_f64_and_f64(0.0, EXIF_HEAD_BYTES).map_err(|_| "its start could not be read".to_owned())?;
+        let head =
+            file.slice_with_f64_and_f64(0.0, EXIF_HEAD_BYTES).map_err(|_| "its start could not be read".to_owned())?;
         if let Some(found) = exif::read_if_present(&device::read_bytes(&head).await?) {
             return Ok(found);
         }
@@ -85,7 +87,10 @@ fn with_device_offset(mut read: PhotoExif) -> PhotoExif {
 /// What to tell the observer when the browser cannot open a photo.
 fn cannot_open(name: &str, media_type: &str, detail: &str) -> String {
     let lower = name.to_ascii_lowercase();
-    let heic = media_type.contains("heic") || media_type.contains("heif") || lower.ends_with(".heic") || lower.ends_with(".heif");
+    let heic = media_type.contains("heic")
+        || media_type.contains("heif")
+        || lower.ends_with(".heic")
+        || lower.ends_with(".heif");
     if heic {
         format!(
             "“{name}” is a HEIC photo, which this browser cannot open. Take the photo with “Add photo” here \
@@ -93,7 +98,9 @@ fn cannot_open(name: &str, media_type: &str, detail: &str) -> String {
              and pick it again."
         )
     } else {
-        format!("“{name}” could not be opened as a picture by this browser ({detail}). Pick a JPEG or PNG photo instead.")
+        format!(
+            "“{name}” could not be opened as a picture by this browser ({detail}). Pick a JPEG or PNG photo instead."
+        )
     }
 }
 
@@ -110,8 +117,12 @@ fn cannot_prepare(name: &str, detail: &str) -> String {
 /// "photo says: 2025-06-01 14:05:09 (+01:00, its own) · 52.41530, -4.08290 ±7 m".
 pub fn photo_says(exif: &PhotoExif) -> String {
     let when = match (&exif.taken_at, &exif.offset_source) {
-        (Some(at), Some(shared_types::OffsetSource::Photo)) => format!("{} ({}, its own offset)", at.format("%Y-%m-%d %H:%M:%S"), at.offset()),
-        (Some(at), _) => format!("{} ({}, this phone's offset on that date)", at.format("%Y-%m-%d %H:%M:%S"), at.offset()),
+        (Some(at), Some(shared_types::OffsetSource::Photo)) => {
+            format!("{} ({}, its own offset)", at.format("%Y-%m-%d %H:%M:%S"), at.offset())
+        }
+        (Some(at), _) => {
+            format!("{} ({}, this phone's offset on that date)", at.format("%Y-%m-%d %H:%M:%S"), at.offset())
+        }
         (None, _) => "no time".to_owned(),
     };
     let place = match (exif.latitude, exif.longitude) {

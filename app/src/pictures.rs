@@ -121,14 +121,18 @@ fn body_form(state: &str) -> Option<String> {
         "flatShark" => "M60 6 Q74 8 72 18 L94 30 L70 32 L66 46 L62 58 L58 58 L54 46 L50 32 L26 30 L48 18 Q46 8 60 6Z",
         "rayLike" => "M60 4 L106 30 L60 46 L14 30 Z M58 46 L62 46 L61 59 L59 59 Z",
         "guitarfishLike" => "M60 3 Q76 16 75 28 L68 36 Q64 40 62 59 L58 59 Q56 40 52 36 L45 28 Q44 16 60 3 Z",
-        "chimaeraLike" => "M8 30 Q12 17 30 19 L70 26 Q90 30 119 32 Q90 34 70 36 L30 41 Q12 41 8 30 Z M34 20 L40 6 L48 21 Z",
+        "chimaeraLike" => {
+            "M8 30 Q12 17 30 19 L70 26 Q90 30 119 32 Q90 34 70 36 L30 41 Q12 41 8 30 Z M34 20 L40 6 L48 21 Z"
+        }
         _ => return None,
     };
     Some(svg(&format!(r#"<path d="{path}" fill="{MARK}"/>"#)))
 }
 
 fn swatch(fill: &str) -> String {
-    svg(&format!(r##"<rect x="20" y="6" width="80" height="48" rx="8" fill="{fill}" stroke="#1b2428" stroke-width="0.8"/>"##))
+    svg(&format!(
+        r##"<rect x="20" y="6" width="80" height="48" rx="8" fill="{fill}" stroke="#1b2428" stroke-width="0.8"/>"##
+    ))
 }
 
 fn colour_swatch(state: &str) -> Option<String> {
@@ -173,7 +177,9 @@ fn markings(state: &str) -> Option<String> {
 }
 
 fn ray_tail(spine: bool) -> String {
-    let mut content = format!(r#"<path d="M60 2 L100 20 L60 30 L20 20 Z" fill="{BODY}"/><path d="M58 30 L62 30 L61 59 L59 59 Z" fill="{BODY}"/>"#);
+    let mut content = format!(
+        r#"<path d="M60 2 L100 20 L60 30 L20 20 Z" fill="{BODY}"/><path d="M58 30 L62 30 L61 59 L59 59 Z" fill="{BODY}"/>"#
+    );
     if spine {
         content.push_str(&format!(r#"<path d="M61 42 L70 36" stroke="{MARK}" stroke-width="2.5"/>"#));
     }
@@ -191,7 +197,9 @@ fn head_from_above(state: &str) -> Option<String> {
         "hornFlaps" => "M44 6 L50 20 L70 20 L76 6 L80 22 L110 38 L60 56 L10 38 L40 22 Z",
         _ => return None,
     };
-    Some(svg(&format!(r##"<path d="{head}" fill="{BODY}"/><path d="{head}" fill="none" stroke="{MARK}" stroke-width="2"/>"##)))
+    Some(svg(&format!(
+        r##"<path d="{head}" fill="{BODY}"/><path d="{head}" fill="none" stroke="{MARK}" stroke-width="2"/>"##
+    )))
 }
 
 /// A shark's head from the side: snout length and where the mouth is.
@@ -199,7 +207,12 @@ fn head_from_side(snout_tip: u32, mouth_at_front: bool) -> String {
     let mouth = if mouth_at_front {
         format!(r#"<path d="M{snout_tip} 33 L{} 35" stroke="{MARK}" stroke-width="3"/>"#, snout_tip + 14)
     } else {
-        format!(r#"<path d="M{} 40 Q{} 44 {} 40" stroke="{MARK}" stroke-width="3" fill="none"/>"#, snout_tip + 22, snout_tip + 30, snout_tip + 38)
+        format!(
+            r#"<path d="M{} 40 Q{} 44 {} 40" stroke="{MARK}" stroke-width="3" fill="none"/>"#,
+            snout_tip + 22,
+            snout_tip + 30,
+            snout_tip + 38
+        )
     };
     svg(&format!(
         r##"<path d="M{snout_tip} 32 Q{} 22 {} 20 L118 16 L118 50 L{} 46 Q{} 42 {snout_tip} 32 Z" fill="{BODY}"/><circle cx="{}" cy="28" r="2.2" fill="#1b2428"/>{mouth}"##,

@@ -16,7 +16,9 @@ pub fn time(at: &DateTime<FixedOffset>) -> String {
 /// "the phone's reading of the original", "the file's EXIF", or both when they differ.
 pub fn readings_words(check: &PhotoCheck) -> String {
     match (check.time_reading, check.place_reading) {
-        (Some(time), Some(place)) if time != place => format!("time from {}, place from {}", reader(Some(time)), reader(Some(place))),
+        (Some(time), Some(place)) if time != place => {
+            format!("time from {}, place from {}", reader(Some(time)), reader(Some(place)))
+        }
         (Some(which), _) | (None, Some(which)) => reader(Some(which)).to_owned(),
         (None, None) => "no EXIF".to_owned(),
     }

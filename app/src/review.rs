@@ -78,9 +78,13 @@ fn SignIn(role: RwSignal<Option<Role>>) -> impl IntoView {
     let problem = RwSignal::new(String::new());
     let submit = move |ev: leptos::ev::SubmitEvent| {
         ev.prevent_default();
-        let body = serde_json::json!({"username": username.get_untracked(), "password": password.get_untracked()}).to_string();
+        let body =
+            serde_json::json!({"username": username.get_untracked(), "password": password.get_untracked()}).to_string();
         leptos::task::spawn_local(async move {
-            match call("POST", "/api/session", Some(body)).await.and_then(|b| serde_json::from_str::<SessionInfo>(&b).map_err(|e| e.to_string())) {
+            match call("POST", "/api/session", Some(body))
+                .await
+                .and_then(|b| serde_json::from_str::<SessionInfo>(&b).map_err(|e| e.to_string()))
+            {
                 Ok(info) => {
                     if let Some(s) = session_storage() {
                         let _ = s.set_item(CSRF_KEY, &info.csrf_token);
@@ -119,7 +123,14 @@ struct Filters {
 impl Filters {
     /// The query string for one page, empty values left out.
     fn query(&self, offset: usize) -> String {
-        let pairs = [("state", &self.state), ("taxon", &self.taxon), ("area", &self.area), ("from", &self.from), ("to", &self.to), ("flag", &self.flag)];
+        let pairs = [
+            ("state", &self.state),
+            ("taxon", &self.taxon),
+            ("area", &self.area),
+            ("from", &self.from),
+            ("to", &self.to),
+            ("flag", &self.flag),
+        ];
         let mut parts: Vec<String> = pairs
             .iter()
             .filter(|(_, value)| !value.trim().is_empty())
@@ -266,7 +277,14 @@ fn says_something(exif: &PhotoExif) -> bool {
 }
 
 /// One row of the when/where table.
-fn time_and_place(class: &str, label: String, when: Option<String>, lat: Option<f64>, lon: Option<f64>, extra: Option<String>) -> impl IntoView + use<> {
+fn time_and_place(
+    class: &str,
+    label: String,
+    when: Option<String>,
+    lat: Option<f64>,
+    lon: Option<f64>,
+    extra: Option<String>,
+) -> impl IntoView + use<> {
     let place = match (lat, lon) {
         (Some(lat), Some(lon)) => format!("{lat:.5}, {lon:.5}"),
         _ => "—".into(),
@@ -276,7 +294,10 @@ fn time_and_place(class: &str, label: String, when: Option<String>, lat: Option<
 
 /// A photo's EXIF as a row: the instant (and whose offset made it), place and error.
 fn exif_row(class: &str, label: String, exif: &PhotoExif) -> impl IntoView + use<> {
-    let when = exif.taken_at.map(|t| crate::readable::time(&t)).or_else(|| exif.taken_local.clone().map(|t| format!("{t} (no offset)")));
+    let when = exif
+        .taken_at
+        .map(|t| crate::readable::time(&t))
+        .or_else(|| exif.taken_local.clone().map(|t| format!("{t} (no offset)")));
     let offset = exif.offset_source.is_some().then(|| crate::readable::offset_words(exif).to_owned());
     let error = exif.horizontal_error_m.map(|e| format!("±{e:.0} m"));
     let extra = [offset, error].into_iter().flatten().collect::<Vec<_>>().join(" · ");
@@ -291,13 +312,22 @@ fn photo_rows(photos: &[PhotoView]) -> impl IntoView + use<> {
         .enumerate()
         .map(|(i, photo)| {
             let n = i + 1;
-            let own = says_something(&photo.exif).then(|| exif_row("exif-file", format!("photo {n} (the file's EXIF)"), &photo.exif).into_any());
-            let phone = photo
-                .phone_exif
-                .as_ref()
-                .filter(|p| says_something(p))
-                .map(|p| exif_row("exif-phone", format!("photo {n} (the phone's reading of the original)"), p).into_any());
-            let neither = (own.is_none() && phone.is_none()).then(|| time_and_place("exif-none", format!("photo {n}"), Some("no EXIF time".into()), None, None, Some("no EXIF place".into())).into_any());
+            let own = says_something(&photo.exif)
+                .then(|| exif_row("exif-file", format!("photo {n} (the file's EXIF)"), &photo.exif).into_any());
+            let phone = photo.phone_exif.as_ref().filter(|p| says_something(p)).map(|p| {
+                exif_row("exif-phone", format!("photo {n} (the phone's reading of the original)"), p).into_any()
+            });
+            let neither = (own.is_none() && phone.is_none()).then(|| {
+                time_and_place(
+                    "exif-none",
+                    format!("photo {n}"),
+                    Some("no EXIF time".into()),
+                    None,
+                    None,
+                    Some("no EXIF place".into()),
+                )
+                .into_any()
+            });
             view! { {own}{phone}{neither} }
         })
         .collect_view()
@@ -313,7 +343,11 @@ fn photo_checks(photos: &[PhotoView]) -> impl IntoView + use<> {
             let check = &photo.check;
             let reading = crate::readable::readings_words(check);
             let gap = check.seconds_before_record.map(|s| {
-                if s >= 0.0 { format!("taken {} before the record", hours_words(s)) } else { format!("taken {} after the record", hours_words(-s)) }
+                if s >= 0.0 {
+                    format!("taken {} before the record", hours_words(s))
+                } else {
+                    format!("taken {} after the record", hours_words(-s))
+                }
             });
             let far = check.metres_from_record.map(|m| format!("{} from the record's place", distance_words(m)));
             let facts = [gap, far].into_iter().flatten().collect::<Vec<_>>().join(", ");
@@ -330,9 +364,15 @@ fn photo_checks(photos: &[PhotoView]) -> impl IntoView + use<> {
 /// The guided key as the observer used it, replayed on the server.
 fn key_section(choice: Option<shared_types::KeyChoice>, replay: Option<KeyReplay>) -> impl IntoView + use<> {
     let choice = choice?;
-    let picked = format!("The observer picked {} ({}, {:.0}% when picked).", choice.scientific_name.as_str(), choice.taxon_rank, choice.probability * 100.0);
+    let picked = format!(
+        "The observer picked {} ({}, {:.0}% when picked).",
+        choice.scientific_name.as_str(),
+        choice.taxon_rank,
+        choice.probability * 100.0
+    );
     let replay = replay.unwrap_or(KeyReplay { answers: Vec::new(), suggestions: Vec::new(), problem: None });
-    let answers = replay.answers.into_iter().map(|a| view! { <tr><th>{a.question}</th><td>{a.answer}</td></tr> }).collect_view();
+    let answers =
+        replay.answers.into_iter().map(|a| view! { <tr><th>{a.question}</th><td>{a.answer}</td></tr> }).collect_view();
     let suggestions = replay
         .suggestions
         .into_iter()
@@ -402,7 +442,11 @@ fn PhotoZoom(photo: RwSignal<Option<String>>) -> impl IntoView {
     let moved = move |ev: web_sys::PointerEvent| {
         let id = ev.pointer_id();
         let now = (f64::from(ev.client_x()), f64::from(ev.client_y()));
-        let Some((before_spread, before, count)) = pointers.with_value(|p| p.get(&id).map(|last| (spread(p), *last, p.len()))) else { return };
+        let Some((before_spread, before, count)) =
+            pointers.with_value(|p| p.get(&id).map(|last| (spread(p), *last, p.len())))
+        else {
+            return;
+        };
         pointers.update_value(|p| {
             p.insert(id, now);
         });
@@ -459,7 +503,10 @@ fn RecordReview(client_id: String, back: impl Fn() + Copy + 'static) -> impl Int
         reloads.track();
         let id = id.clone();
         leptos::task::spawn_local(async move {
-            match call("GET", &format!("/api/review/records/{id}"), None).await.and_then(|b| serde_json::from_str::<ReviewDetail>(&b).map_err(|e| e.to_string())) {
+            match call("GET", &format!("/api/review/records/{id}"), None)
+                .await
+                .and_then(|b| serde_json::from_str::<ReviewDetail>(&b).map_err(|e| e.to_string()))
+            {
                 Ok(d) => detail.set(Some(d)),
                 Err(err) => problem.set(err),
             }
@@ -488,8 +535,10 @@ fn RecordReview(client_id: String, back: impl Fn() + Copy + 'static) -> impl Int
         let act = act.clone();
         move |_| {
             let remark_text = remark.get_untracked();
-            act(serde_json::json!({"action": "confirm", "scientific_name": species.get_untracked(), "taxon_rank": rank.get_untracked(),
-                "remark": if remark_text.is_empty() { serde_json::Value::Null } else { remark_text.into() }}))
+            act(
+                serde_json::json!({"action": "confirm", "scientific_name": species.get_untracked(), "taxon_rank": rank.get_untracked(),
+                "remark": if remark_text.is_empty() { serde_json::Value::Null } else { remark_text.into() }}),
+            )
         }
     };
     let ask = {
@@ -585,7 +634,12 @@ struct StaffPerson {
 
 /// One person on the people screen: role, a new password, on or off.
 #[component]
-fn PersonRow(person: StaffPerson, reload: impl Fn() + Copy + Send + Sync + 'static, problem: RwSignal<String>, note: RwSignal<String>) -> impl IntoView {
+fn PersonRow(
+    person: StaffPerson,
+    reload: impl Fn() + Copy + Send + Sync + 'static,
+    problem: RwSignal<String>,
+    note: RwSignal<String>,
+) -> impl IntoView {
     let name = person.username.clone().unwrap_or_default();
     let new_password = RwSignal::new(String::new());
     let put = move |path: String, body: serde_json::Value, done: String| {
@@ -603,17 +657,29 @@ fn PersonRow(person: StaffPerson, reload: impl Fn() + Copy + Send + Sync + 'stat
     let (role_name, password_name, toggle_name) = (name.clone(), name.clone(), name.clone());
     let change_role = move |ev: leptos::ev::Event| {
         let role = event_target_value(&ev);
-        put(format!("/api/people/{role_name}/role"), serde_json::json!({ "role": role }), format!("{role_name} is now {role}."));
+        put(
+            format!("/api/people/{role_name}/role"),
+            serde_json::json!({ "role": role }),
+            format!("{role_name} is now {role}."),
+        );
     };
     let reset = move |_| {
         let password = new_password.get_untracked();
         new_password.set(String::new());
-        put(format!("/api/people/{password_name}/password"), serde_json::json!({ "password": password }), format!("{password_name} has a new password; their sign-ins ended."));
+        put(
+            format!("/api/people/{password_name}/password"),
+            serde_json::json!({ "password": password }),
+            format!("{password_name} has a new password; their sign-ins ended."),
+        );
     };
     let turn_to = !person.disabled;
     let toggle = move |_| {
         let words = if turn_to { "turned off" } else { "turned on" };
-        put(format!("/api/people/{toggle_name}/disabled"), serde_json::json!({ "disabled": turn_to }), format!("{toggle_name}'s sign-in is {words}."));
+        put(
+            format!("/api/people/{toggle_name}/disabled"),
+            serde_json::json!({ "disabled": turn_to }),
+            format!("{toggle_name}'s sign-in is {words}."),
+        );
     };
     view! {
         <li class="person" data-username=name.clone()>
@@ -640,11 +706,17 @@ pub fn PeopleScreen() -> impl IntoView {
     let form = RwSignal::new((String::new(), String::new(), String::new(), "reviewer".to_owned()));
     let reload = move || {
         leptos::task::spawn_local(async move {
-            match call("GET", "/api/people", None).await.and_then(|b| serde_json::from_str::<Vec<StaffPerson>>(&b).map_err(|e| e.to_string())) {
+            match call("GET", "/api/people", None)
+                .await
+                .and_then(|b| serde_json::from_str::<Vec<StaffPerson>>(&b).map_err(|e| e.to_string()))
+            {
                 Ok(list) => people.set(list),
                 Err(err) => problem.set(format!("{err} (sign in as an admin under Review first)")),
             }
-            if let Ok(list) = call("GET", "/api/people/events", None).await.and_then(|b| serde_json::from_str::<Vec<PersonEvent>>(&b).map_err(|e| e.to_string())) {
+            if let Ok(list) = call("GET", "/api/people/events", None)
+                .await
+                .and_then(|b| serde_json::from_str::<Vec<PersonEvent>>(&b).map_err(|e| e.to_string()))
+            {
                 events.set(list);
             }
         });
@@ -652,7 +724,9 @@ pub fn PeopleScreen() -> impl IntoView {
     reload();
     let add = move |_| {
         let (username, display_name, password, role) = form.get_untracked();
-        let body = serde_json::json!({"username": username, "display_name": display_name, "password": password, "role": role}).to_string();
+        let body =
+            serde_json::json!({"username": username, "display_name": display_name, "password": password, "role": role})
+                .to_string();
         leptos::task::spawn_local(async move {
             match call("POST", "/api/people", Some(body)).await {
                 Ok(_) => {
@@ -710,7 +784,12 @@ fn DuplicatesOf(detail: ReviewDetail, reloads: RwSignal<u32>, problem: RwSignal<
         return view! { <p class="hint">"No other report looks like the same animal."</p> }.into_any();
     }
     let this_id = detail.record.submission.client_id.to_string();
-    let length_of = |r: &shared_types::RecordView| r.submission.length.map(|l| format!("{:.0} cm {}", l.value.centimetres(), l.kind.label())).unwrap_or_else(|| "no length".into());
+    let length_of = |r: &shared_types::RecordView| {
+        r.submission
+            .length
+            .map(|l| format!("{:.0} cm {}", l.value.centimetres(), l.kind.label()))
+            .unwrap_or_else(|| "no length".into())
+    };
     let here_length = length_of(&detail.record);
     let items = detail.duplicates.into_iter().map(|dup| {
         let other_id = dup.other.submission.client_id.to_string();
@@ -763,5 +842,6 @@ fn DuplicatesOf(detail: ReviewDetail, reloads: RwSignal<u32>, problem: RwSignal<
     view! {
         <h4>"Possibly the same animal"</h4>
         <ul class="duplicates">{items}</ul>
-    }.into_any()
+    }
+    .into_any()
 }

@@ -162,8 +162,14 @@ fn SafetyCautions(on_read: impl Fn() + 'static) -> impl IntoView {
 
 fn entry_summary(entry: &Entry) -> String {
     let sub = &entry.submission;
-    let what = sub.species_guess.as_ref().map(|g| g.as_str().to_owned()).filter(|g| !g.is_empty()).unwrap_or_else(|| "unnamed animal".into());
-    let length = sub.length.map(|l| format!(", {:.0} cm {}", l.value.centimetres(), l.kind.label())).unwrap_or_default();
+    let what = sub
+        .species_guess
+        .as_ref()
+        .map(|g| g.as_str().to_owned())
+        .filter(|g| !g.is_empty())
+        .unwrap_or_else(|| "unnamed animal".into());
+    let length =
+        sub.length.map(|l| format!(", {:.0} cm {}", l.value.centimetres(), l.kind.label())).unwrap_or_default();
     format!("{what}{length} · {} · {} photo(s)", sub.observed_at.format("%Y-%m-%d %H:%M"), entry.photo_count)
 }
 
@@ -187,7 +193,10 @@ fn OnThisPhone(outbox: Outbox) -> impl IntoView {
     // have moved it on since), then saves it and syncs.
     let change_then_sync = move |id: String, change: Box<dyn FnOnce(Entry) -> Entry>| {
         leptos::task::spawn_local(async move {
-            let Some(current) = outbox::load_all().await.ok().and_then(|all| all.into_iter().find(|e| e.id() == id)) else { return };
+            let Some(current) = outbox::load_all().await.ok().and_then(|all| all.into_iter().find(|e| e.id() == id))
+            else {
+                return;
+            };
             if outbox::save(&change(current), None).await.is_ok() {
                 sync::refresh(outbox).await;
                 sync::request(outbox);
@@ -195,10 +204,13 @@ fn OnThisPhone(outbox: Outbox) -> impl IntoView {
         });
     };
     let queue = move |id: String| {
-        change_then_sync(id, Box::new(|mut entry: Entry| {
-            entry.sync = SyncState::Waiting;
-            entry
-        }));
+        change_then_sync(
+            id,
+            Box::new(|mut entry: Entry| {
+                entry.sync = SyncState::Waiting;
+                entry
+            }),
+        );
     };
     let discard = move |id: String| {
         leptos::task::spawn_local(async move {

@@ -13,9 +13,9 @@ use leptos::prelude::*;
 use shared_types::Receipt;
 
 use crate::device;
-use crate::outbox::{self, Entry, SyncState};
 use crate::identity;
 use crate::mine::{self, ReplyEntry};
+use crate::outbox::{self, Entry, SyncState};
 use crate::walks::{self, WalkEntry, WalkState};
 
 pub const SUBMIT_URL: &str = "/api/observations";
@@ -225,12 +225,14 @@ async fn send_links(outbox: Outbox, token: &str) -> Option<String> {
     let mut problem = None;
     let auth = identity::bearer(token);
     // A link waits until its record is received: the record's own send comes first.
-    let ready = stored.into_iter().filter(|e| e.walk_link_pending.is_some() && matches!(e.sync, SyncState::Received { .. }));
+    let ready =
+        stored.into_iter().filter(|e| e.walk_link_pending.is_some() && matches!(e.sync, SyncState::Received { .. }));
     for entry in ready {
         let Some(walk) = entry.walk_link_pending else { continue };
         let url = format!("{SUBMIT_URL}/{}/walk", entry.id());
         let body = serde_json::json!({ "walk_client_id": walk }).to_string();
-        let refused = match device::send_json("PUT", &url, Some(&body), &[("authorization", &auth)]).await.map(classify) {
+        let refused = match device::send_json("PUT", &url, Some(&body), &[("authorization", &auth)]).await.map(classify)
+        {
             Ok(Sent::Received(_)) => None,
             Ok(Sent::Refused(reason)) => Some(format!("could not add to the walk: {reason}")),
             Ok(Sent::TryLater(reason)) | Err(reason) => {
@@ -289,7 +291,11 @@ async fn send(entry: &Entry, token: &str) -> RecordOutcome {
     };
     if photos.len() != entry.photo_count {
         // Never send a record short of a photo the observer took.
-        return RecordOutcome::TryLater(format!("{} of {} photos found on this phone", photos.len(), entry.photo_count));
+        return RecordOutcome::TryLater(format!(
+            "{} of {} photos found on this phone",
+            photos.len(),
+            entry.photo_count
+        ));
     }
     let json = match serde_json::to_string(&entry.submission) {
         Ok(json) => json,

@@ -27,8 +27,12 @@ pub enum WalkState {
     Walking,
     Waiting,
     Sent,
-    Received { receipt: WalkReceipt },
-    Refused { reason: String },
+    Received {
+        receipt: WalkReceipt,
+    },
+    Refused {
+        reason: String,
+    },
 }
 
 impl WalkState {
@@ -99,7 +103,9 @@ pub async fn load_all() -> Result<Vec<WalkEntry>, String> {
     let mut walks = device::list_walks()
         .await?
         .iter()
-        .map(|json| serde_json::from_str::<WalkEntry>(json).map_err(|err| format!("a stored walk could not be read: {err}")))
+        .map(|json| {
+            serde_json::from_str::<WalkEntry>(json).map_err(|err| format!("a stored walk could not be read: {err}"))
+        })
         .collect::<Result<Vec<_>, _>>()?;
     walks.sort_by_key(|w| std::cmp::Reverse(w.started_at));
     Ok(walks)
@@ -107,7 +113,8 @@ pub async fn load_all() -> Result<Vec<WalkEntry>, String> {
 
 fn now_with_offset() -> DateTime<FixedOffset> {
     let now = js_sys::Date::new_0();
-    let offset = FixedOffset::west_opt((now.get_timezone_offset() * 60.0) as i32).unwrap_or(FixedOffset::east_opt(0).expect("zero offset"));
+    let offset = FixedOffset::west_opt((now.get_timezone_offset() * 60.0) as i32)
+        .unwrap_or(FixedOffset::east_opt(0).expect("zero offset"));
     let utc = chrono::DateTime::from_timestamp_millis(now.get_time() as i64).unwrap_or_default();
     utc.with_timezone(&offset)
 }
@@ -139,7 +146,11 @@ pub fn follow(outbox: Outbox, note: RwSignal<String>) {
                 return;
             }
             note.set(format!("position ±{:.0} m", fix.accuracy));
-            let Some(mut walk) = outbox.walks.with_untracked(|w| w.iter().find(|e| e.state == WalkState::Walking).cloned()) else { return };
+            let Some(mut walk) =
+                outbox.walks.with_untracked(|w| w.iter().find(|e| e.state == WalkState::Walking).cloned())
+            else {
+                return;
+            };
             let due = walk.track.last().is_none_or(|last| (point.at - last.at).num_seconds() >= SAMPLE_EVERY_S);
             if due {
                 walk.track.push(point);
@@ -177,7 +188,8 @@ pub fn WalkBar(outbox: Outbox) -> impl IntoView {
     let active = Memo::new(move |_| outbox.walks.with(|w| w.iter().find(|e| e.state == WalkState::Walking).cloned()));
     let tick = RwSignal::new(0u32);
     // Keep the elapsed time fresh while a walk goes on.
-    let _ = set_interval_with_handle(move || tick.update(|t| *t = t.wrapping_add(1)), std::time::Duration::from_secs(15));
+    let _ =
+        set_interval_with_handle(move || tick.update(|t| *t = t.wrapping_add(1)), std::time::Duration::from_secs(15));
 
     let store_and_sync = move |entry: WalkEntry, then_send: bool| {
         leptos::task::spawn_local(async move {

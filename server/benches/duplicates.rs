@@ -36,7 +36,9 @@ fn record(id: i64, random: &mut Lcg) -> DupRecord {
         sightings: vec![Sighting::own(at, Some(position), Some(5.0 + 40.0 * random.unit()))],
         setting: if random.unit() < 0.7 { Setting::BeachStranding } else { Setting::AnglerCatch },
         condition: Condition::Decomposed,
-        species: Species::lineage(&[["Raja clavata", "Scyliorhinus canicula", "Squalus acanthias"][(random.unit() * 3.0) as usize % 3]]),
+        species: Species::lineage(&[
+            ["Raja clavata", "Scyliorhinus canicula", "Squalus acanthias"][(random.unit() * 3.0) as usize % 3]
+        ]),
         length: Some((LengthKind::Total, 40.0 + 60.0 * random.unit(), false)),
         photo_hashes: Vec::new(),
         original_hashes: Vec::new(),
@@ -61,7 +63,11 @@ fn main() {
     let mut found = 0;
     for query in &queries {
         let start = Instant::now();
-        let near = index.possible_pairs(query.sightings[0].position.unwrap(), query.sightings[0].uncertainty_m, query.sightings[0].at);
+        let near = index.possible_pairs(
+            query.sightings[0].position.unwrap(),
+            query.sightings[0].uncertainty_m,
+            query.sightings[0].at,
+        );
         found += black_box(candidates(query, near.iter().map(|&id| &stored[id as usize]))).len();
         indexed.push(start.elapsed());
     }
@@ -74,14 +80,27 @@ fn main() {
     }
     let check: usize = queries[..BRUTE_QUERIES]
         .iter()
-        .map(|q| candidates(q, index.possible_pairs(q.sightings[0].position.unwrap(), q.sightings[0].uncertainty_m, q.sightings[0].at).iter().map(|&id| &stored[id as usize])).len())
+        .map(|q| {
+            candidates(
+                q,
+                index
+                    .possible_pairs(q.sightings[0].position.unwrap(), q.sightings[0].uncertainty_m, q.sightings[0].at)
+                    .iter()
+                    .map(|&id| &stored[id as usize]),
+            )
+            .len()
+        })
         .sum();
     assert_eq!(check, brute_found, "the index finds exactly what a full scan finds");
     let median = percentile(&mut indexed, 0.5);
     let p99 = percentile(&mut indexed, 0.99);
     let brute_median = percentile(&mut brute, 0.5);
     println!("candidate search, {STORED} stored records, {QUERIES} new records ({found} candidates found):");
-    println!("  R-tree: median {:.3} ms, 99th percentile {:.3} ms", median.as_secs_f64() * 1e3, p99.as_secs_f64() * 1e3);
+    println!(
+        "  R-tree: median {:.3} ms, 99th percentile {:.3} ms",
+        median.as_secs_f64() * 1e3,
+        p99.as_secs_f64() * 1e3
+    );
     println!("  brute-force scan ({BRUTE_QUERIES} records): median {:.1} ms", brute_median.as_secs_f64() * 1e3);
     println!("  brute force / R-tree (medians): {:.0}x", brute_median.as_secs_f64() / median.as_secs_f64());
 }

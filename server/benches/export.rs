@@ -82,7 +82,9 @@ fn export(data: &Path, format: &str, out: &Path) -> anyhow::Result<Run> {
         if let Ok(text) = std::fs::read_to_string(&status_file) {
             peak_kb = peak_kb.max(high_water_kb(&text));
         }
-        if let Some(ns) = std::fs::read_to_string(&schedstat_file).ok().and_then(|t| t.split_whitespace().next()?.parse().ok()) {
+        if let Some(ns) =
+            std::fs::read_to_string(&schedstat_file).ok().and_then(|t| t.split_whitespace().next()?.parse().ok())
+        {
             cpu_ns = ns;
         }
         std::thread::sleep(Duration::from_millis(5));

@@ -20,7 +20,11 @@ const PHOTOS: usize = 64;
 fn photo_like(width: u32, height: u32, seed: u32) -> Vec<u8> {
     let img = RgbImage::from_fn(width, height, |x, y| {
         let noise = (x.wrapping_mul(2_654_435_761) ^ y.wrapping_mul(40_503) ^ seed).wrapping_mul(2_246_822_519) >> 27;
-        image::Rgb([(x * 255 / width) as u8 ^ noise as u8, (y * 255 / height) as u8, ((x + y + seed) % 200) as u8 + noise as u8])
+        image::Rgb([
+            (x * 255 / width) as u8 ^ noise as u8,
+            (y * 255 / height) as u8,
+            ((x + y + seed) % 200) as u8 + noise as u8,
+        ])
     });
     let mut bytes = Vec::new();
     image::codecs::jpeg::JpegEncoder::new_with_quality(&mut bytes, 90).encode_image(&img).expect("encode");
@@ -33,7 +37,13 @@ fn with_exif(jpeg: Vec<u8>, dir: &std::path::Path, index: usize) -> Vec<u8> {
     std::fs::write(&path, &jpeg).expect("write");
     let tagged = std::process::Command::new("exiftool")
         .args(["-q", "-overwrite_original", "-DateTimeOriginal=2025:06:01 14:05:09", "-OffsetTimeOriginal=+01:00"])
-        .args(["-GPSLatitude=52.4153", "-GPSLatitudeRef=N", "-GPSLongitude=4.0829", "-GPSLongitudeRef=W", "-Orientation#=6"])
+        .args([
+            "-GPSLatitude=52.4153",
+            "-GPSLatitudeRef=N",
+            "-GPSLongitude=4.0829",
+            "-GPSLongitudeRef=W",
+            "-Orientation#=6",
+        ])
         .arg(&path)
         .status()
         .is_ok_and(|s| s.success());
@@ -73,7 +83,9 @@ fn stages(jpeg: &[u8]) {
     let display = decoded.resize(1280, 1280, image::imageops::FilterType::Triangle);
     let encode = |image: &DynamicImage| {
         let mut out = Vec::new();
-        image::codecs::jpeg::JpegEncoder::new_with_quality(&mut out, 82).encode_image(&DynamicImage::ImageRgb8(image.to_rgb8())).expect("encode");
+        image::codecs::jpeg::JpegEncoder::new_with_quality(&mut out, 82)
+            .encode_image(&DynamicImage::ImageRgb8(image.to_rgb8()))
+            .expect("encode");
     };
     let thumb = display.resize(320, 320, image::imageops::FilterType::Triangle);
     println!(
@@ -95,13 +107,17 @@ fn main() {
     let photos: Vec<Vec<u8>> =
         (0..PHOTOS).map(|i| with_exif(photo_like(1632, 1224, i as u32), dir.path(), i)).collect();
     let mean_mb = photos.iter().map(Vec::len).sum::<usize>() as f64 / PHOTOS as f64 / 1e6;
-    println!("server intake: {PHOTOS} JPEGs of 1632 × 1224 (2.0 MP, {mean_mb:.2} MB each, EXIF by exiftool), {threads} threads");
+    println!(
+        "server intake: {PHOTOS} JPEGs of 1632 × 1224 (2.0 MP, {mean_mb:.2} MB each, EXIF by exiftool), {threads} threads"
+    );
 
     let baseline = rate(&photos, threads, |_, bytes| {
         std::hint::black_box(photos::sha256_hex(bytes));
     });
     let no_writes = rate(&photos, threads, |_, bytes| {
-        std::hint::black_box(intake::prepare_photo(bytes.to_vec(), FixedOffset::east_opt(3600).expect("offset")).expect("a good photo"));
+        std::hint::black_box(
+            intake::prepare_photo(bytes.to_vec(), FixedOffset::east_opt(3600).expect("offset")).expect("a good photo"),
+        );
     });
     let files = photos::PhotoFiles::open(&dir.path().join("photos")).expect("photo folder");
     let offset = FixedOffset::east_opt(3600).expect("offset");

@@ -92,7 +92,8 @@ fn mutate(input: &mut Vec<u8>, seeds: &[Vec<u8>], rng: &mut Rng) {
         2 if len > 1 => {
             // Big-endian 16/32-bit extremes: lengths, counts, offsets, dimensions.
             let at = rng.below(len - 1);
-            let value: &[u8] = [&[0xFF, 0xFF][..], &[0x00, 0x00], &[0x7F, 0xFF, 0xFF, 0xFF], &[0xFF, 0xFF, 0xFF, 0xFF]][rng.below(4)];
+            let value: &[u8] =
+                [&[0xFF, 0xFF][..], &[0x00, 0x00], &[0x7F, 0xFF, 0xFF, 0xFF], &[0xFF, 0xFF, 0xFF, 0xFF]][rng.below(4)];
             for (i, b) in value.iter().enumerate() {
                 if let Some(slot) = input.get_mut(at + i) {
                     *slot = *b;
@@ -145,8 +146,9 @@ fn timed_photo(bytes: &[u8]) -> Result<Duration, String> {
     let offset = FixedOffset::east_opt(3600).expect("one hour");
     let started = Instant::now();
     // Accepted or refused are both fine; only a panic is a finding.
-    let _accepted_or_refused = catch_unwind(AssertUnwindSafe(|| intake::prepare_photo(bytes.to_vec(), offset).map(|_| ())))
-        .map_err(|panic| format!("panic: {}", panic_text(&panic)))?;
+    let _accepted_or_refused =
+        catch_unwind(AssertUnwindSafe(|| intake::prepare_photo(bytes.to_vec(), offset).map(|_| ())))
+            .map_err(|panic| format!("panic: {}", panic_text(&panic)))?;
     Ok(started.elapsed())
 }
 
@@ -157,7 +159,11 @@ fn run_json(json: &[u8]) -> Result<(), String> {
 }
 
 fn panic_text(panic: &Box<dyn std::any::Any + Send>) -> String {
-    panic.downcast_ref::<&str>().map(|s| s.to_string()).or_else(|| panic.downcast_ref::<String>().cloned()).unwrap_or_default()
+    panic
+        .downcast_ref::<&str>()
+        .map(|s| s.to_string())
+        .or_else(|| panic.downcast_ref::<String>().cloned())
+        .unwrap_or_default()
 }
 
 fn save_finding(kind: &str, bytes: &[u8], why: &str) -> Result<PathBuf> {
@@ -184,7 +190,9 @@ fn main() -> Result<()> {
         let started = Instant::now();
         let outcome = run_photo(&bytes);
         let offset = FixedOffset::east_opt(3600).expect("one hour");
-        let verdict = intake::prepare_photo(bytes, offset).map(|_| "accepted".to_owned()).unwrap_or_else(|p| format!("refused: {p}"));
+        let verdict = intake::prepare_photo(bytes, offset)
+            .map(|_| "accepted".to_owned())
+            .unwrap_or_else(|p| format!("refused: {p}"));
         println!("fuzz: replay {} took {:?}: {verdict}; {outcome:?}", path.display(), started.elapsed());
         return Ok(());
     }

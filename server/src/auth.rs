@@ -22,8 +22,8 @@ use std::net::IpAddr;
 use std::sync::{Arc, LazyLock, Mutex};
 use std::time::{Duration, Instant};
 
-use argon2::password_hash::{PasswordHash, PasswordHasher, PasswordVerifier, SaltString};
 use argon2::Argon2;
+use argon2::password_hash::{PasswordHash, PasswordHasher, PasswordVerifier, SaltString};
 use sha2::{Digest as _, Sha256};
 
 /// Failures allowed for one username from one address.
@@ -42,7 +42,8 @@ pub const MIN_PASSWORD_CHARS: usize = 10;
 
 pub fn hash_password(password: &str) -> anyhow::Result<String> {
     // A v4 UUID's 16 bytes (122 of them random, from the OS) make the salt.
-    let salt = SaltString::encode_b64(uuid::Uuid::new_v4().as_bytes()).map_err(|err| anyhow::anyhow!("making a salt: {err}"))?;
+    let salt = SaltString::encode_b64(uuid::Uuid::new_v4().as_bytes())
+        .map_err(|err| anyhow::anyhow!("making a salt: {err}"))?;
     Argon2::default()
         .hash_password(password.as_bytes(), &salt)
         .map(|hash| hash.to_string())
@@ -50,7 +51,8 @@ pub fn hash_password(password: &str) -> anyhow::Result<String> {
 }
 
 pub fn verify_password(password: &str, stored_hash: &str) -> bool {
-    PasswordHash::new(stored_hash).is_ok_and(|hash| Argon2::default().verify_password(password.as_bytes(), &hash).is_ok())
+    PasswordHash::new(stored_hash)
+        .is_ok_and(|hash| Argon2::default().verify_password(password.as_bytes(), &hash).is_ok())
 }
 
 /// A hash of a random password nobody knows, with the same parameters as real ones.
@@ -180,7 +182,10 @@ impl LoginLimiter {
     pub fn locked_for(&self, username: &str, address: IpAddr, now: Instant) -> Option<(Duration, Lock)> {
         let name = username.to_lowercase();
         let mut failures = self.lock();
-        let pair = failures.name_and_address.locked_for(&(name.clone(), address), now).map(|wait| (wait, Lock::NameFromAddress));
+        let pair = failures
+            .name_and_address
+            .locked_for(&(name.clone(), address), now)
+            .map(|wait| (wait, Lock::NameFromAddress));
         let from_address = failures.address.locked_for(&address, now).map(|wait| (wait, Lock::Address));
         let for_name = failures.name.locked_for(&name, now).map(|wait| (wait, Lock::Name));
         pair.into_iter().chain(from_address).chain(for_name).max_by_key(|(wait, _)| *wait)

@@ -10,7 +10,11 @@ use clap::{Parser, Subcommand, ValueEnum};
 use crate::{AppState, commands, demo};
 
 #[derive(Debug, Parser)]
-#[command(name = "wrackline", version, about = "Records of sharks and rays found stranded or landed: capture, review, export.")]
+#[command(
+    name = "wrackline",
+    version,
+    about = "Records of sharks and rays found stranded or landed: capture, review, export."
+)]
 pub struct Cli {
     /// Where the database and photos live.
     #[arg(long, global = true, env = "WRACKLINE_DATA_DIR", default_value_os_t = default_data_dir())]
@@ -114,7 +118,8 @@ fn serve(data_dir: &std::path::Path, args: ServeArgs, with_demo: bool) -> anyhow
                 println!("demo sign-in ({role}): username {username}, password {password}");
             }
         }
-        let listener = tokio::net::TcpListener::bind(args.bind).await.with_context(|| format!("binding {}", args.bind))?;
+        let listener =
+            tokio::net::TcpListener::bind(args.bind).await.with_context(|| format!("binding {}", args.bind))?;
         let address = listener.local_addr()?;
         println!("wrackline listening on http://{address}");
         println!("data directory: {}", data_dir.display());
@@ -130,7 +135,10 @@ fn print_effort(data_dir: &std::path::Path, args: &EffortArgs) -> anyhow::Result
         println!("{}", serde_json::to_string_pretty(&rows)?);
         return Ok(());
     }
-    println!("{:<28} {:<8} {:>6} {:>10} {:>9} {:>8} {:>8}", "stretch", "period", "walks", "all finds", "km", "hours", "records");
+    println!(
+        "{:<28} {:<8} {:>6} {:>10} {:>9} {:>8} {:>8}",
+        "stretch", "period", "walks", "all finds", "km", "hours", "records"
+    );
     for row in &rows {
         println!(
             "{:<28} {:<8} {:>6} {:>10} {:>9.2} {:>8.2} {:>8}",
@@ -169,7 +177,12 @@ fn user(data_dir: &std::path::Path, command: UserCommand) -> anyhow::Result<()> 
         UserCommand::List => {
             for person in state.store.run_here(|conn| crate::store::people::list_staff(conn))? {
                 let off = if person.disabled { " (turned off)" } else { "" };
-                println!("{} {} {}{off}", person.username.unwrap_or_default(), person.role.code(), person.display_name.unwrap_or_default());
+                println!(
+                    "{} {} {}{off}",
+                    person.username.unwrap_or_default(),
+                    person.role.code(),
+                    person.display_name.unwrap_or_default()
+                );
             }
         }
     }

@@ -73,7 +73,15 @@ pub const DEMO_PEOPLE: &[(&str, &str, shared_types::Role)] = &[
 /// Adds the demo sign-ins unless they exist; returns them for printing.
 pub async fn ensure_demo_people(state: &AppState) -> anyhow::Result<Vec<(&'static str, &'static str, &'static str)>> {
     for (username, password, role) in DEMO_PEOPLE {
-        match crate::handlers::people::add_staff(state, (*username).to_owned(), *role, format!("Demo {}", role.code()), (*password).to_owned()).await {
+        match crate::handlers::people::add_staff(
+            state,
+            (*username).to_owned(),
+            *role,
+            format!("Demo {}", role.code()),
+            (*password).to_owned(),
+        )
+        .await
+        {
             Ok(_) | Err(crate::error::ApiError::Conflict(_)) => {}
             Err(err) => anyhow::bail!("adding the demo sign-in {username}: {err}"),
         }

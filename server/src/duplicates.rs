@@ -96,7 +96,8 @@ const SPHERE_MARGIN: f64 = 0.01;
 
 /// The tolerance for a length of `kind`, taped or estimated.
 pub fn length_tolerance(kind: LengthKind, estimated: bool) -> f64 {
-    let (_, taped, by_eye) = LENGTH_TOLERANCES.iter().find(|(k, _, _)| *k == kind).copied().unwrap_or((kind, 0.15, 0.30));
+    let (_, taped, by_eye) =
+        LENGTH_TOLERANCES.iter().find(|(k, _, _)| *k == kind).copied().unwrap_or((kind, 0.15, 0.30));
     if estimated { by_eye } else { taped }
 }
 
@@ -133,7 +134,10 @@ pub enum Species {
     NotOnChecklist(String),
     /// A checklist taxon with its higher taxa (most specific first), and the checklist
     /// entry when the name is a species (for its length conversions).
-    Named { lineage: Vec<String>, taxon: Option<Arc<Taxon>> },
+    Named {
+        lineage: Vec<String>,
+        taxon: Option<Arc<Taxon>>,
+    },
 }
 
 impl Species {
@@ -221,7 +225,12 @@ pub fn judge(a: &DupRecord, b: &DupRecord) -> Verdict {
     if let Some(reason) = shared_photo(a, b) {
         let (own_a, own_b) = (&a.sightings[0], &b.sightings[0]);
         let distance_m = own_a.position.zip(own_b.position).map(|(p, q)| geodesic_m(p, q));
-        return Verdict::Candidate(Candidate { score: 1.0, reasons: vec![reason], distance_m, gap_hours: hours_between(own_a.at, own_b.at) });
+        return Verdict::Candidate(Candidate {
+            score: 1.0,
+            reasons: vec![reason],
+            distance_m,
+            gap_hours: hours_between(own_a.at, own_b.at),
+        });
     }
     let mut best: Option<Verdict> = None;
     for sa in &a.sightings {
@@ -254,10 +263,9 @@ fn shared_photo(a: &DupRecord, b: &DupRecord) -> Option<String> {
     if let Some(hash) = a.photo_hashes.iter().find(|h| b.photo_hashes.contains(h)) {
         return Some(format!("the same photo file (SHA-256 {}…)", short(hash)));
     }
-    a.original_hashes
-        .iter()
-        .find(|h| b.original_hashes.contains(h))
-        .map(|hash| format!("the same original photo, picked on both phones (SHA-256 of the original {}…)", short(hash)))
+    a.original_hashes.iter().find(|h| b.original_hashes.contains(h)).map(|hash| {
+        format!("the same original photo, picked on both phones (SHA-256 of the original {}…)", short(hash))
+    })
 }
 
 fn judge_sightings(a: &DupRecord, sa: &Sighting, b: &DupRecord, sb: &Sighting) -> Verdict {
@@ -269,20 +277,33 @@ fn judge_sightings(a: &DupRecord, sa: &Sighting, b: &DupRecord, sb: &Sighting) -
         return Verdict::RuledOut(format!("{gap_hours:.1} h apart, beyond the {window:.0} h window for {what}"));
     }
     let (Some((p, up)), Some((q, uq))) = (sa.place(), sb.place()) else {
-        return Verdict::RuledOut("no position good enough to compare (missing, or uncertain by more than 10 km)".into());
+        return Verdict::RuledOut(
+            "no position good enough to compare (missing, or uncertain by more than 10 km)".into(),
+        );
     };
     let distance = geodesic_m(p, q);
     let drift = if is_carcass { DRIFT_CARCASS_M } else { DRIFT_LANDED_M };
     let allowed = up.hypot(uq) + drift;
     if distance > allowed {
-        return Verdict::RuledOut(format!("{distance:.0} m apart, beyond the {allowed:.0} m allowed (±{up:.0} m and ±{uq:.0} m in quadrature plus {drift:.0} m drift)"));
+        return Verdict::RuledOut(format!(
+            "{distance:.0} m apart, beyond the {allowed:.0} m allowed (±{up:.0} m and ±{uq:.0} m in quadrature plus {drift:.0} m drift)"
+        ));
     }
-    let mut reasons = vec![format!("{distance:.0} m apart, within the {allowed:.0} m the uncertainties and drift allow")];
+    let mut reasons =
+        vec![format!("{distance:.0} m apart, within the {allowed:.0} m the uncertainties and drift allow")];
     let ((earlier, _), (later, _)) = if sa.at <= sb.at { ((a, sa), (b, sb)) } else { ((b, sb), (a, sa)) };
     if freshness(later.condition) < freshness(earlier.condition) {
-        return Verdict::RuledOut(format!("condition {} then {}: it does not get fresher", earlier.condition.label(), later.condition.label()));
+        return Verdict::RuledOut(format!(
+            "condition {} then {}: it does not get fresher",
+            earlier.condition.label(),
+            later.condition.label()
+        ));
     }
-    reasons.push(format!("{gap_hours:.1} h apart, within {window:.0} h; condition {} then {}", earlier.condition.label(), later.condition.label()));
+    reasons.push(format!(
+        "{gap_hours:.1} h apart, within {window:.0} h; condition {} then {}",
+        earlier.condition.label(),
+        later.condition.label()
+    ));
     let (species, species_reasons, taxon) = match compare_species(&a.species, &b.species) {
         Ok(found) => found,
         Err(why) => return Verdict::RuledOut(why),
@@ -296,7 +317,8 @@ fn judge_sightings(a: &DupRecord, sa: &Sighting, b: &DupRecord, sb: &Sighting) -
         Err(why) => return Verdict::RuledOut(why),
     };
     reasons.extend([sa, sb].iter().filter_map(|s| s.from_photo.clone()));
-    let mut total = 0.35 * (1.0 - distance / allowed) + 0.35 * (1.0 - gap_hours / window) + 0.15 * species + 0.15 * length;
+    let mut total =
+        0.35 * (1.0 - distance / allowed) + 0.35 * (1.0 - gap_hours / window) + 0.15 * species + 0.15 * length;
     if let Some(bits) = nearest_photos(a, b).filter(|bits| *bits <= crate::intake::images::NEAR_DUPLICATE_BITS) {
         total += PHOTOS_ALIKE_BONUS;
         reasons.push(format!("two of their photos look alike (perceptual hashes {bits} bits apart)"));
@@ -322,7 +344,9 @@ fn nearest_photos(a: &DupRecord, b: &DupRecord) -> Option<u32> {
 fn unnamed_reason(species: &Species) -> Option<String> {
     match species {
         Species::Unnamed => Some("one of them is not named".into()),
-        Species::NotOnChecklist(name) => Some(format!("“{name}” is not a checklist name, so it neither supports nor rules out the same species")),
+        Species::NotOnChecklist(name) => {
+            Some(format!("“{name}” is not a checklist name, so it neither supports nor rules out the same species"))
+        }
         Species::Named { .. } => None,
     }
 }
@@ -344,7 +368,9 @@ fn compare_species<'a>(a: &'a Species, b: &'a Species) -> Result<SpeciesMatch<'a
                 Err(format!("{} and {} are different taxa", x[0], y[0]))
             }
         }
-        (Species::Named { taxon, .. }, other) | (other, Species::Named { taxon, .. }) => Ok((0.5, unnamed_reason(other).into_iter().collect(), taxon.as_deref())),
+        (Species::Named { taxon, .. }, other) | (other, Species::Named { taxon, .. }) => {
+            Ok((0.5, unnamed_reason(other).into_iter().collect(), taxon.as_deref()))
+        }
         (x, y) => {
             let mut reasons: Vec<String> = [x, y].iter().filter_map(|s| unnamed_reason(s)).collect();
             if matches!((x, y), (Species::Unnamed, Species::Unnamed)) {
@@ -359,7 +385,11 @@ fn compare_species<'a>(a: &'a Species, b: &'a Species) -> Result<SpeciesMatch<'a
 type Length = (LengthKind, f64, bool);
 
 /// The length score and its reason; `Err` with why when they are too far apart.
-fn compare_lengths(a: Option<Length>, b: Option<Length>, taxon: Option<&Taxon>) -> Result<(f64, Option<String>), String> {
+fn compare_lengths(
+    a: Option<Length>,
+    b: Option<Length>,
+    taxon: Option<&Taxon>,
+) -> Result<(f64, Option<String>), String> {
     let (Some((ka, la, ea)), Some((kb, lb, eb))) = (a, b) else { return Ok((0.5, None)) };
     let estimated = ea || eb;
     let how = if estimated { "estimated" } else { "taped" };
@@ -370,16 +400,33 @@ fn compare_lengths(a: Option<Length>, b: Option<Length>, taxon: Option<&Taxon>) 
         if difference > tolerance {
             return Err(format!("{said}, beyond the {:.0}% allowed for {how} {}s", tolerance * 100.0, ka.label()));
         }
-        return Ok((1.0 - difference / tolerance, Some(format!("{said} (within the {:.0}% allowed for {how} {}s)", tolerance * 100.0, ka.label()))));
+        return Ok((
+            1.0 - difference / tolerance,
+            Some(format!("{said} (within the {:.0}% allowed for {how} {}s)", tolerance * 100.0, ka.label())),
+        ));
     }
     let Some(taxon) = taxon else {
-        return Ok((0.5, Some(format!("a {} and a {} are not comparable without a known species", ka.label(), kb.label()))));
+        return Ok((
+            0.5,
+            Some(format!("a {} and a {} are not comparable without a known species", ka.label(), kb.label())),
+        ));
     };
     let convert = |kind: LengthKind, cm: f64, estimated: bool| {
-        species_key::length::comparable_length(&species_key::Measurement { kind: kind.key_kind(), cm, estimated }, taxon)
+        species_key::length::comparable_length(
+            &species_key::Measurement { kind: kind.key_kind(), cm, estimated },
+            taxon,
+        )
     };
     let (Some(ca), Some(cb)) = (convert(ka, la, ea), convert(kb, lb, eb)) else {
-        return Ok((0.5, Some(format!("a {} and a {} cannot be converted to one measure for {}", ka.label(), kb.label(), taxon.scientific_name))));
+        return Ok((
+            0.5,
+            Some(format!(
+                "a {} and a {} cannot be converted to one measure for {}",
+                ka.label(),
+                kb.label(),
+                taxon.scientific_name
+            )),
+        ));
     };
     let tolerance = length_tolerance(ka, estimated).max(length_tolerance(kb, estimated)) + CONVERSION_ALLOWANCE;
     let difference = (ca.cm - cb.cm).abs() / ca.cm.max(cb.cm);
@@ -398,7 +445,10 @@ fn compare_lengths(a: Option<Length>, b: Option<Length>, taxon: Option<&Taxon>) 
     if difference > tolerance {
         return Err(format!("{said}, beyond the {:.0}% allowed for {how} lengths of two kinds", tolerance * 100.0));
     }
-    Ok((1.0 - difference / tolerance, Some(format!("{said} (within the {:.0}% allowed for {how} lengths of two kinds)", tolerance * 100.0))))
+    Ok((
+        1.0 - difference / tolerance,
+        Some(format!("{said} (within the {:.0}% allowed for {how} lengths of two kinds)", tolerance * 100.0)),
+    ))
 }
 
 fn method_words(method: &ConversionMethod) -> Option<String> {
@@ -429,7 +479,8 @@ pub fn from_raw(raw: &crate::store::duplicates::RawDup, names: &crate::assess::t
     })
 }
 
-const RANKS: [TaxonRank; 5] = [TaxonRank::Species, TaxonRank::Genus, TaxonRank::Family, TaxonRank::Order, TaxonRank::Superorder];
+const RANKS: [TaxonRank; 5] =
+    [TaxonRank::Species, TaxonRank::Genus, TaxonRank::Family, TaxonRank::Order, TaxonRank::Superorder];
 
 /// A checklist species (by scientific or common name), a higher taxon the checklist
 /// names (genus to superorder), or a name it does not know.
@@ -444,9 +495,14 @@ pub fn species_named(name: &str, names: &crate::assess::taxa::TaxonIndex) -> Spe
         unique
     };
     if let Some(taxon) = names.resolve(name) {
-        return Species::Named { lineage: lineage_from(taxon, TaxonRank::Species), taxon: Some(Arc::new(taxon.clone())) };
+        return Species::Named {
+            lineage: lineage_from(taxon, TaxonRank::Species),
+            taxon: Some(Arc::new(taxon.clone())),
+        };
     }
-    let higher = names.filter(name).and_then(|f| names.checklist().taxa().iter().find(|t| t.name_at(f.rank) == f.name).map(|t| (t, f.rank)));
+    let higher = names
+        .filter(name)
+        .and_then(|f| names.checklist().taxa().iter().find(|t| t.name_at(f.rank) == f.name).map(|t| (t, f.rank)));
     match higher {
         Some((taxon, rank)) => Species::Named { lineage: lineage_from(taxon, rank), taxon: None },
         None => Species::NotOnChecklist(name.trim().to_owned()),
@@ -462,7 +518,9 @@ struct PhotoSays {
 }
 
 fn valid_position(lat: Option<f64>, lon: Option<f64>) -> Option<(f64, f64)> {
-    lat.zip(lon).filter(|(lat, lon)| lat.is_finite() && lon.is_finite() && (-90.0..=90.0).contains(lat) && (-180.0..=180.0).contains(lon))
+    lat.zip(lon).filter(|(lat, lon)| {
+        lat.is_finite() && lon.is_finite() && (-90.0..=90.0).contains(lat) && (-180.0..=180.0).contains(lon)
+    })
 }
 
 /// What the photo's EXIF says, field by field from the reading intake compared with the
@@ -474,21 +532,34 @@ fn photo_says(photo: &crate::store::duplicates::RawPhoto) -> Option<PhotoSays> {
     let place_from = photo.place_reading.as_deref();
     let at = match time_from {
         Some("phone") => phone.as_ref().and_then(|exif| exif.taken_at).map(|t| t.with_timezone(&Utc)),
-        Some("received_file") => photo.file_taken_at.as_deref().and_then(|t| DateTime::parse_from_rfc3339(t).ok()).map(|t| t.with_timezone(&Utc)),
+        Some("received_file") => photo
+            .file_taken_at
+            .as_deref()
+            .and_then(|t| DateTime::parse_from_rfc3339(t).ok())
+            .map(|t| t.with_timezone(&Utc)),
         _ => None,
     };
     let (position, error_m) = match place_from {
-        Some("phone") => phone.as_ref().map_or((None, None), |exif| (valid_position(exif.latitude, exif.longitude), exif.horizontal_error_m)),
-        Some("received_file") => (valid_position(photo.file_position.map(|p| p.0), photo.file_position.map(|p| p.1)), photo.file_error_m),
+        Some("phone") => phone
+            .as_ref()
+            .map_or((None, None), |exif| (valid_position(exif.latitude, exif.longitude), exif.horizontal_error_m)),
+        Some("received_file") => {
+            (valid_position(photo.file_position.map(|p| p.0), photo.file_position.map(|p| p.1)), photo.file_error_m)
+        }
         _ => (None, None),
     };
-    let reading = match (at.is_some().then_some(time_from).flatten(), position.is_some().then_some(place_from).flatten()) {
-        (Some("phone"), Some("received_file")) => "the phone's reading of the original for the time, the EXIF of the file received for the place",
-        (Some("received_file"), Some("phone")) => "the EXIF of the file received for the time, the phone's reading of the original for the place",
-        (Some("phone"), _) | (None, Some("phone")) => "the phone's reading of the original",
-        (Some(_), _) | (None, Some(_)) => "the EXIF of the file received",
-        (None, None) => return None,
-    };
+    let reading =
+        match (at.is_some().then_some(time_from).flatten(), position.is_some().then_some(place_from).flatten()) {
+            (Some("phone"), Some("received_file")) => {
+                "the phone's reading of the original for the time, the EXIF of the file received for the place"
+            }
+            (Some("received_file"), Some("phone")) => {
+                "the EXIF of the file received for the time, the phone's reading of the original for the place"
+            }
+            (Some("phone"), _) | (None, Some("phone")) => "the phone's reading of the original",
+            (Some(_), _) | (None, Some(_)) => "the EXIF of the file received",
+            (None, None) => return None,
+        };
     Some(PhotoSays { at, position, error_m: error_m.filter(|e| e.is_finite() && *e >= 0.0), reading })
 }
 
@@ -515,16 +586,22 @@ pub fn sightings(raw: &crate::store::duplicates::RawDup, at: DateTime<Utc>) -> V
         };
         let why = match (no_place, long_before, far) {
             (true, false, _) => "the record has no position".to_owned(),
-            (_, true, true) => format!("photo {} was flagged as taken long before and far from the record", photo.number),
+            (_, true, true) => {
+                format!("photo {} was flagged as taken long before and far from the record", photo.number)
+            }
             (_, true, false) => format!("photo {} was flagged as taken long before the record", photo.number),
             (false, false, _) => format!("photo {} was flagged as taken far from the record's place", photo.number),
         };
-        let error = says.error_m.filter(|_| says.position.is_some()).map(|e| format!(", ±{e:.0} m")).unwrap_or_default();
+        let error =
+            says.error_m.filter(|_| says.position.is_some()).map(|e| format!(", ±{e:.0} m")).unwrap_or_default();
         Some(Sighting {
             at: says.at.unwrap_or(at),
             position: Some(position),
             uncertainty_m: if says.position.is_some() { says.error_m } else { raw.accuracy_m },
-            from_photo: Some(format!("for one report the {what} of photo {}'s EXIF ({}{error}) was used, because {why}", photo.number, says.reading)),
+            from_photo: Some(format!(
+                "for one report the {what} of photo {}'s EXIF ({}{error}) was used, because {why}",
+                photo.number, says.reading
+            )),
         })
     });
     std::iter::once(own).chain(from_photo).collect()
@@ -599,7 +676,9 @@ impl Index {
     /// distance; those are found by hash, not here.)
     pub fn possible_pairs(&self, position: (f64, f64), uncertainty_m: Option<f64>, at: DateTime<Utc>) -> Vec<i64> {
         let window = WINDOW_CARCASS_H / 24.0;
-        let Some(envelope) = place_box(position, uncertainty_m, days(at) - window, days(at) + window) else { return Vec::new() };
+        let Some(envelope) = place_box(position, uncertainty_m, days(at) - window, days(at) + window) else {
+            return Vec::new();
+        };
         let mut ids: Vec<i64> = self.tree.locate_in_envelope_intersecting(&envelope).map(|e| e.data).collect();
         ids.sort_unstable();
         ids.dedup();
@@ -617,14 +696,21 @@ impl Index {
 
 /// The places of a record the index keeps: each of its sightings with a position.
 pub fn index_points(record: &DupRecord) -> Vec<IndexedPoint> {
-    record.sightings.iter().filter_map(|s| s.position.map(|p| (record.observation_id, p, s.uncertainty_m, s.at))).collect()
+    record
+        .sightings
+        .iter()
+        .filter_map(|s| s.position.map(|p| (record.observation_id, p, s.uncertainty_m, s.at)))
+        .collect()
 }
 
 /// The places of a stored record the index keeps, read straight from the store (no
 /// names looked up); empty when its time does not read.
 pub fn raw_index_points(raw: &crate::store::duplicates::RawDup) -> Vec<IndexedPoint> {
     let Ok(at) = DateTime::parse_from_rfc3339(&raw.at_utc) else { return Vec::new() };
-    sightings(raw, at.with_timezone(&Utc)).iter().filter_map(|s| s.position.map(|p| (raw.observation_id, p, s.uncertainty_m, s.at))).collect()
+    sightings(raw, at.with_timezone(&Utc))
+        .iter()
+        .filter_map(|s| s.position.map(|p| (raw.observation_id, p, s.uncertainty_m, s.at)))
+        .collect()
 }
 
 /// Candidates for `new` among `others` (already narrowed by the index), best first.

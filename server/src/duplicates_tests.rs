@@ -8,7 +8,8 @@ use crate::assess::taxa::TaxonIndex;
 use crate::store::duplicates::{RawDup, RawPhoto};
 
 fn at(hours: f64) -> DateTime<Utc> {
-    DateTime::parse_from_rfc3339("2026-03-01T08:00:00Z").unwrap().with_timezone(&Utc) + chrono::Duration::seconds((hours * 3600.0) as i64)
+    DateTime::parse_from_rfc3339("2026-03-01T08:00:00Z").unwrap().with_timezone(&Utc)
+        + chrono::Duration::seconds((hours * 3600.0) as i64)
 }
 
 fn demo_names() -> TaxonIndex {
@@ -78,79 +79,366 @@ type Edit = fn(&mut DupRecord, &mut DupRecord);
 /// The score arithmetic is written beside each row: place p = 1 − d/allowed, time
 /// t = 1 − gap/window, score = 0.35 p + 0.35 t + 0.15 species + 0.15 length.
 const TABLE: &[(&str, Edit, Expect)] = &[
-    ("the same record twice", |_, _| {}, Expect::Candidate(0.999, 1.0, &["0 m apart", "0.0 h apart", "the same taxon, Raja clavata", "50 and 50 cm disc width, 0% apart"])),
+    (
+        "the same record twice",
+        |_, _| {},
+        Expect::Candidate(
+            0.999,
+            1.0,
+            &["0 m apart", "0.0 h apart", "the same taxon, Raja clavata", "50 and 50 cm disc width, 0% apart"],
+        ),
+    ),
     // p = 1 − 500/2014, t = 1 − 24/168: 0.35 × 1.609 + 0.3 = 0.863
-    ("a day later, 500 m along the beach, decomposed", |_, o| { later(o, 24.0); north(o, 500.0); o.condition = Condition::Decomposed; },
-        Expect::Candidate(0.855, 0.87, &["500 m apart", "24.0 h apart", "condition fresh dead then decomposed"])),
+    (
+        "a day later, 500 m along the beach, decomposed",
+        |_, o| {
+            later(o, 24.0);
+            north(o, 500.0);
+            o.condition = Condition::Decomposed;
+        },
+        Expect::Candidate(0.855, 0.87, &["500 m apart", "24.0 h apart", "condition fresh dead then decomposed"]),
+    ),
     // The candidate line: p = 1 − 1007/2014 = 0.5; t = 1 − 150/168 → 0.513, t = 1 − 162/168 → 0.488.
-    ("score just over the line", |_, o| { later(o, 150.0); north(o, 1_007.0); o.condition = Condition::Decomposed; }, Expect::Candidate(0.505, 0.52, &["150.0 h apart"])),
-    ("score just under the line", |_, o| { later(o, 162.0); north(o, 1_007.0); o.condition = Condition::Decomposed; }, Expect::Below(0.48, 0.495, &["under the 0.5 line"])),
+    (
+        "score just over the line",
+        |_, o| {
+            later(o, 150.0);
+            north(o, 1_007.0);
+            o.condition = Condition::Decomposed;
+        },
+        Expect::Candidate(0.505, 0.52, &["150.0 h apart"]),
+    ),
+    (
+        "score just under the line",
+        |_, o| {
+            later(o, 162.0);
+            north(o, 1_007.0);
+            o.condition = Condition::Decomposed;
+        },
+        Expect::Below(0.48, 0.495, &["under the 0.5 line"]),
+    ),
     // Carcass place: ±10 m and ±10 m in quadrature (14 m) + 2,000 m drift = 2,014 m.
-    ("carcass 2,000 m away: inside 2,014 m", |_, o| { north(o, 2_000.0); later(o, 2.0); }, Expect::Candidate(0.64, 0.66, &["within the 2014 m"])),
-    ("carcass 2,030 m away: outside 2,014 m", |_, o| { north(o, 2_030.0); later(o, 2.0); }, Expect::Out(&["beyond the 2014 m allowed", "plus 2000 m drift"])),
+    (
+        "carcass 2,000 m away: inside 2,014 m",
+        |_, o| {
+            north(o, 2_000.0);
+            later(o, 2.0);
+        },
+        Expect::Candidate(0.64, 0.66, &["within the 2014 m"]),
+    ),
+    (
+        "carcass 2,030 m away: outside 2,014 m",
+        |_, o| {
+            north(o, 2_030.0);
+            later(o, 2.0);
+        },
+        Expect::Out(&["beyond the 2014 m allowed", "plus 2000 m drift"]),
+    ),
     // ±300 m each: 424 m in quadrature (a plain sum would give 600 m) + 2,000 m = 2,424 m.
-    ("carcass ±300 m each, 2,400 m away: inside 2,424 m", |b, o| { both_uncertain(b, o, 300.0); north(o, 2_400.0); later(o, 2.0); }, Expect::Candidate(0.64, 0.66, &["within the 2424 m"])),
-    ("carcass ±300 m each, 2,450 m away: outside 2,424 m", |b, o| { both_uncertain(b, o, 300.0); north(o, 2_450.0); later(o, 2.0); }, Expect::Out(&["beyond the 2424 m allowed", "±300 m and ±300 m in quadrature"])),
+    (
+        "carcass ±300 m each, 2,400 m away: inside 2,424 m",
+        |b, o| {
+            both_uncertain(b, o, 300.0);
+            north(o, 2_400.0);
+            later(o, 2.0);
+        },
+        Expect::Candidate(0.64, 0.66, &["within the 2424 m"]),
+    ),
+    (
+        "carcass ±300 m each, 2,450 m away: outside 2,424 m",
+        |b, o| {
+            both_uncertain(b, o, 300.0);
+            north(o, 2_450.0);
+            later(o, 2.0);
+        },
+        Expect::Out(&["beyond the 2424 m allowed", "±300 m and ±300 m in quadrature"]),
+    ),
     // Landed fish: 14 m + 200 m drift = 214 m; t = 1 − 0.5/12.
-    ("landed fish 200 m away: inside 214 m", |b, o| { landed(b, o); north(o, 200.0); later(o, 0.5); }, Expect::Candidate(0.65, 0.67, &["within the 214 m"])),
-    ("landed fish 230 m away: outside 214 m", |b, o| { landed(b, o); north(o, 230.0); later(o, 0.5); }, Expect::Out(&["beyond the 214 m allowed"])),
+    (
+        "landed fish 200 m away: inside 214 m",
+        |b, o| {
+            landed(b, o);
+            north(o, 200.0);
+            later(o, 0.5);
+        },
+        Expect::Candidate(0.65, 0.67, &["within the 214 m"]),
+    ),
+    (
+        "landed fish 230 m away: outside 214 m",
+        |b, o| {
+            landed(b, o);
+            north(o, 230.0);
+            later(o, 0.5);
+        },
+        Expect::Out(&["beyond the 214 m allowed"]),
+    ),
     // ±50 m each: 71 m + 200 m = 271 m.
-    ("landed fish ±50 m each, 260 m away: inside 271 m", |b, o| { landed(b, o); both_uncertain(b, o, 50.0); north(o, 260.0); later(o, 0.5); }, Expect::Candidate(0.64, 0.66, &["within the 271 m"])),
-    ("landed fish ±50 m each, 280 m away: outside 271 m", |b, o| { landed(b, o); both_uncertain(b, o, 50.0); north(o, 280.0); later(o, 0.5); }, Expect::Out(&["beyond the 271 m allowed"])),
+    (
+        "landed fish ±50 m each, 260 m away: inside 271 m",
+        |b, o| {
+            landed(b, o);
+            both_uncertain(b, o, 50.0);
+            north(o, 260.0);
+            later(o, 0.5);
+        },
+        Expect::Candidate(0.64, 0.66, &["within the 271 m"]),
+    ),
+    (
+        "landed fish ±50 m each, 280 m away: outside 271 m",
+        |b, o| {
+            landed(b, o);
+            both_uncertain(b, o, 50.0);
+            north(o, 280.0);
+            later(o, 0.5);
+        },
+        Expect::Out(&["beyond the 271 m allowed"]),
+    ),
     // Time: 0.35 + 0.35 × (1 − 167/168) + 0.3 = 0.652; landed 0.35 + 0.35 × (0.5/12) + 0.3 = 0.665.
-    ("carcass 167 h later: inside seven days", |_, o| later(o, 167.0), Expect::Candidate(0.645, 0.66, &["167.0 h apart, within 168 h"])),
-    ("carcass 169 h later: outside seven days", |_, o| later(o, 169.0), Expect::Out(&["169.0 h apart, beyond the 168 h window for a carcass"])),
-    ("landed fish 11.5 h later: inside 12 h", |b, o| { landed(b, o); later(o, 11.5); }, Expect::Candidate(0.66, 0.67, &["11.5 h apart, within 12 h"])),
-    ("landed fish 12.5 h later: outside 12 h", |b, o| { landed(b, o); later(o, 12.5); }, Expect::Out(&["beyond the 12 h window for a landed fish"])),
+    (
+        "carcass 167 h later: inside seven days",
+        |_, o| later(o, 167.0),
+        Expect::Candidate(0.645, 0.66, &["167.0 h apart, within 168 h"]),
+    ),
+    (
+        "carcass 169 h later: outside seven days",
+        |_, o| later(o, 169.0),
+        Expect::Out(&["169.0 h apart, beyond the 168 h window for a carcass"]),
+    ),
+    (
+        "landed fish 11.5 h later: inside 12 h",
+        |b, o| {
+            landed(b, o);
+            later(o, 11.5);
+        },
+        Expect::Candidate(0.66, 0.67, &["11.5 h apart, within 12 h"]),
+    ),
+    (
+        "landed fish 12.5 h later: outside 12 h",
+        |b, o| {
+            landed(b, o);
+            later(o, 12.5);
+        },
+        Expect::Out(&["beyond the 12 h window for a landed fish"]),
+    ),
     // Condition: 0.35 + 0.35 × (1 − 5/168) + 0.3 = 0.990.
-    ("condition fresher later: alive after fresh dead", |_, o| { later(o, 5.0); o.condition = Condition::Alive; }, Expect::Out(&["fresh dead then alive", "does not get fresher"])),
-    ("condition the same later", |_, o| later(o, 5.0), Expect::Candidate(0.985, 0.995, &["condition fresh dead then fresh dead"])),
-    ("condition worse later", |_, o| { later(o, 5.0); o.condition = Condition::RemainsOnly; }, Expect::Candidate(0.985, 0.995, &["fresh dead then remains only"])),
-    ("fresher but earlier is fine", |_, o| { later(o, -5.0); o.condition = Condition::Alive; }, Expect::Candidate(0.985, 0.995, &["alive then fresh dead"])),
+    (
+        "condition fresher later: alive after fresh dead",
+        |_, o| {
+            later(o, 5.0);
+            o.condition = Condition::Alive;
+        },
+        Expect::Out(&["fresh dead then alive", "does not get fresher"]),
+    ),
+    (
+        "condition the same later",
+        |_, o| later(o, 5.0),
+        Expect::Candidate(0.985, 0.995, &["condition fresh dead then fresh dead"]),
+    ),
+    (
+        "condition worse later",
+        |_, o| {
+            later(o, 5.0);
+            o.condition = Condition::RemainsOnly;
+        },
+        Expect::Candidate(0.985, 0.995, &["fresh dead then remains only"]),
+    ),
+    (
+        "fresher but earlier is fine",
+        |_, o| {
+            later(o, -5.0);
+            o.condition = Condition::Alive;
+        },
+        Expect::Candidate(0.985, 0.995, &["alive then fresh dead"]),
+    ),
     // Species: 0.7 + 0.15 × 0.7 + 0.15 = 0.955; unnamed 0.7 + 0.075 + 0.15 = 0.925.
-    ("a genus contains the species", |_, o| o.species = Species::lineage(&["Raja", "Rajidae"]), Expect::Candidate(0.95, 0.96, &["Raja and Raja clavata: one contains the other"])),
-    ("another species contradicts", |_, o| o.species = Species::lineage(&["Raja brachyura", "Raja", "Rajidae"]), Expect::Out(&["are different taxa", "Raja brachyura"])),
-    ("an unnamed record may still be it", |_, o| o.species = Species::Unnamed, Expect::Candidate(0.92, 0.93, &["one of them is not named"])),
-    ("a name not on the checklist is treated as unnamed", |_, o| o.species = Species::NotOnChecklist("big ray".into()), Expect::Candidate(0.92, 0.93, &["“big ray” is not a checklist name"])),
+    (
+        "a genus contains the species",
+        |_, o| o.species = Species::lineage(&["Raja", "Rajidae"]),
+        Expect::Candidate(0.95, 0.96, &["Raja and Raja clavata: one contains the other"]),
+    ),
+    (
+        "another species contradicts",
+        |_, o| o.species = Species::lineage(&["Raja brachyura", "Raja", "Rajidae"]),
+        Expect::Out(&["are different taxa", "Raja brachyura"]),
+    ),
+    (
+        "an unnamed record may still be it",
+        |_, o| o.species = Species::Unnamed,
+        Expect::Candidate(0.92, 0.93, &["one of them is not named"]),
+    ),
+    (
+        "a name not on the checklist is treated as unnamed",
+        |_, o| o.species = Species::NotOnChecklist("big ray".into()),
+        Expect::Candidate(0.92, 0.93, &["“big ray” is not a checklist name"]),
+    ),
     // Length, same kind: score 0.85 + 0.15 × (1 − difference/tolerance).
-    ("disc width 50 and 62 taped, 19%: inside 20%", |_, o| o.length = Some((LengthKind::DiscWidth, 62.0, false)), Expect::Candidate(0.85, 0.86, &["19% apart (within the 20% allowed for taped disc widths)"])),
-    ("disc width 50 and 63 taped, 21%: outside 20%", |_, o| o.length = Some((LengthKind::DiscWidth, 63.0, false)), Expect::Out(&["21% apart, beyond the 20% allowed for taped disc widths"])),
-    ("disc width 50 and 76 estimated, 34%: inside 35%", |_, o| o.length = Some((LengthKind::DiscWidth, 76.0, true)), Expect::Candidate(0.85, 0.86, &["within the 35% allowed for estimated disc widths"])),
-    ("disc width 50 and 78 estimated, 36%: outside 35%", |_, o| o.length = Some((LengthKind::DiscWidth, 78.0, true)), Expect::Out(&["beyond the 35% allowed for estimated disc widths"])),
-    ("total length 50 and 58 taped, 14%: inside 15%", |b, o| { b.length = Some((LengthKind::Total, 50.0, false)); o.length = Some((LengthKind::Total, 58.0, false)); },
-        Expect::Candidate(0.855, 0.87, &["within the 15% allowed for taped total lengths"])),
-    ("total length 50 and 60 taped, 17%: outside 15%", |b, o| { b.length = Some((LengthKind::Total, 50.0, false)); o.length = Some((LengthKind::Total, 60.0, false)); },
-        Expect::Out(&["beyond the 15% allowed for taped total lengths"])),
-    ("fork length 50 and 55 taped, 9%: inside 10%", |b, o| { b.length = Some((LengthKind::Fork, 50.0, false)); o.length = Some((LengthKind::Fork, 55.0, false)); },
-        Expect::Candidate(0.85, 0.865, &["within the 10% allowed for taped fork lengths"])),
-    ("fork length 50 and 56 taped, 11%: outside 10% (a total length would pass)", |b, o| { b.length = Some((LengthKind::Fork, 50.0, false)); o.length = Some((LengthKind::Fork, 56.0, false)); },
-        Expect::Out(&["beyond the 10% allowed for taped fork lengths"])),
+    (
+        "disc width 50 and 62 taped, 19%: inside 20%",
+        |_, o| o.length = Some((LengthKind::DiscWidth, 62.0, false)),
+        Expect::Candidate(0.85, 0.86, &["19% apart (within the 20% allowed for taped disc widths)"]),
+    ),
+    (
+        "disc width 50 and 63 taped, 21%: outside 20%",
+        |_, o| o.length = Some((LengthKind::DiscWidth, 63.0, false)),
+        Expect::Out(&["21% apart, beyond the 20% allowed for taped disc widths"]),
+    ),
+    (
+        "disc width 50 and 76 estimated, 34%: inside 35%",
+        |_, o| o.length = Some((LengthKind::DiscWidth, 76.0, true)),
+        Expect::Candidate(0.85, 0.86, &["within the 35% allowed for estimated disc widths"]),
+    ),
+    (
+        "disc width 50 and 78 estimated, 36%: outside 35%",
+        |_, o| o.length = Some((LengthKind::DiscWidth, 78.0, true)),
+        Expect::Out(&["beyond the 35% allowed for estimated disc widths"]),
+    ),
+    (
+        "total length 50 and 58 taped, 14%: inside 15%",
+        |b, o| {
+            b.length = Some((LengthKind::Total, 50.0, false));
+            o.length = Some((LengthKind::Total, 58.0, false));
+        },
+        Expect::Candidate(0.855, 0.87, &["within the 15% allowed for taped total lengths"]),
+    ),
+    (
+        "total length 50 and 60 taped, 17%: outside 15%",
+        |b, o| {
+            b.length = Some((LengthKind::Total, 50.0, false));
+            o.length = Some((LengthKind::Total, 60.0, false));
+        },
+        Expect::Out(&["beyond the 15% allowed for taped total lengths"]),
+    ),
+    (
+        "fork length 50 and 55 taped, 9%: inside 10%",
+        |b, o| {
+            b.length = Some((LengthKind::Fork, 50.0, false));
+            o.length = Some((LengthKind::Fork, 55.0, false));
+        },
+        Expect::Candidate(0.85, 0.865, &["within the 10% allowed for taped fork lengths"]),
+    ),
+    (
+        "fork length 50 and 56 taped, 11%: outside 10% (a total length would pass)",
+        |b, o| {
+            b.length = Some((LengthKind::Fork, 50.0, false));
+            o.length = Some((LengthKind::Fork, 56.0, false));
+        },
+        Expect::Out(&["beyond the 10% allowed for taped fork lengths"]),
+    ),
     // Two kinds, species known: disc width 50 cm is 50 / 0.7 = 71.4 cm total length by the
     // checklist's equation; tolerance max(20%, 15%) + 5% = 25%.
-    ("disc width 50 against total length 72, converted: 1%", |_, o| o.length = Some((LengthKind::Total, 72.0, false)),
-        Expect::Candidate(0.99, 1.0, &["50 cm disc width", "72 cm total length", "cm total length for Raja clavata (the checklist's DW = 0.7 × TL + 0), 1% apart"])),
-    ("disc width 50 against total length 94, converted: 24%, inside 25%", |_, o| o.length = Some((LengthKind::Total, 94.0, false)), Expect::Candidate(0.85, 0.86, &["24% apart (within the 25% allowed for taped lengths of two kinds)"])),
-    ("disc width 50 against total length 96, converted: 26%, outside 25%", |_, o| o.length = Some((LengthKind::Total, 96.0, false)), Expect::Out(&["26% apart, beyond the 25% allowed"])),
+    (
+        "disc width 50 against total length 72, converted: 1%",
+        |_, o| o.length = Some((LengthKind::Total, 72.0, false)),
+        Expect::Candidate(
+            0.99,
+            1.0,
+            &[
+                "50 cm disc width",
+                "72 cm total length",
+                "cm total length for Raja clavata (the checklist's DW = 0.7 × TL + 0), 1% apart",
+            ],
+        ),
+    ),
+    (
+        "disc width 50 against total length 94, converted: 24%, inside 25%",
+        |_, o| o.length = Some((LengthKind::Total, 94.0, false)),
+        Expect::Candidate(0.85, 0.86, &["24% apart (within the 25% allowed for taped lengths of two kinds)"]),
+    ),
+    (
+        "disc width 50 against total length 96, converted: 26%, outside 25%",
+        |_, o| o.length = Some((LengthKind::Total, 96.0, false)),
+        Expect::Out(&["26% apart, beyond the 25% allowed"]),
+    ),
     // Two kinds, no species: length says nothing (0.5): 0.7 + 0.075 + 0.075 = 0.85.
-    ("disc width against total length, species unknown", |b, o| { b.species = Species::Unnamed; o.species = Species::Unnamed; o.length = Some((LengthKind::Total, 150.0, false)); },
-        Expect::Candidate(0.845, 0.855, &["are not comparable without a known species", "neither of them is named"])),
+    (
+        "disc width against total length, species unknown",
+        |b, o| {
+            b.species = Species::Unnamed;
+            o.species = Species::Unnamed;
+            o.length = Some((LengthKind::Total, 150.0, false));
+        },
+        Expect::Candidate(0.845, 0.855, &["are not comparable without a known species", "neither of them is named"]),
+    ),
     // Photos alike lift the under-the-line pair (0.488) by 0.2 at 10 bits, not at 11.
-    ("photos 10 bits apart lift a pair over the line", |b, o| { later(o, 162.0); north(o, 1_007.0); o.condition = Condition::Decomposed; b.photo_phashes = vec!["0000000000000000".into()]; o.photo_phashes = vec!["00000000000003ff".into()]; },
-        Expect::Candidate(0.68, 0.695, &["perceptual hashes 10 bits apart"])),
-    ("photos 11 bits apart do not", |b, o| { later(o, 162.0); north(o, 1_007.0); o.condition = Condition::Decomposed; b.photo_phashes = vec!["0000000000000000".into()]; o.photo_phashes = vec!["00000000000007ff".into()]; },
-        Expect::Below(0.48, 0.495, &["under the 0.5 line"])),
-    ("photos alike never override another species", |b, o| { b.photo_phashes = vec!["0000000000000000".into()]; o.photo_phashes = vec!["0000000000000001".into()]; o.species = Species::lineage(&["Squalus acanthias"]); },
-        Expect::Out(&["are different taxa"])),
-    ("the same photo file decides alone, a month later and another species", |b, o| { later(o, 24.0 * 30.0); o.species = Species::lineage(&["Squalus acanthias"]); b.photo_hashes = vec!["ab".repeat(32)]; o.photo_hashes = vec!["ab".repeat(32)]; },
-        Expect::Candidate(1.0, 1.0, &["the same photo file (SHA-256 abababababab…)"])),
-    ("the same original photo decides alone, with no position", |b, o| { own(o).position = None; b.original_hashes = vec!["cd".repeat(32)]; o.original_hashes = vec!["cd".repeat(32)]; },
-        Expect::Candidate(1.0, 1.0, &["the same original photo, picked on both phones"])),
-    ("different photo files say nothing alone", |b, o| { own(o).position = None; b.photo_hashes = vec!["ab".repeat(32)]; o.photo_hashes = vec!["cd".repeat(32)]; },
-        Expect::Out(&["no position good enough to compare"])),
+    (
+        "photos 10 bits apart lift a pair over the line",
+        |b, o| {
+            later(o, 162.0);
+            north(o, 1_007.0);
+            o.condition = Condition::Decomposed;
+            b.photo_phashes = vec!["0000000000000000".into()];
+            o.photo_phashes = vec!["00000000000003ff".into()];
+        },
+        Expect::Candidate(0.68, 0.695, &["perceptual hashes 10 bits apart"]),
+    ),
+    (
+        "photos 11 bits apart do not",
+        |b, o| {
+            later(o, 162.0);
+            north(o, 1_007.0);
+            o.condition = Condition::Decomposed;
+            b.photo_phashes = vec!["0000000000000000".into()];
+            o.photo_phashes = vec!["00000000000007ff".into()];
+        },
+        Expect::Below(0.48, 0.495, &["under the 0.5 line"]),
+    ),
+    (
+        "photos alike never override another species",
+        |b, o| {
+            b.photo_phashes = vec!["0000000000000000".into()];
+            o.photo_phashes = vec!["0000000000000001".into()];
+            o.species = Species::lineage(&["Squalus acanthias"]);
+        },
+        Expect::Out(&["are different taxa"]),
+    ),
+    (
+        "the same photo file decides alone, a month later and another species",
+        |b, o| {
+            later(o, 24.0 * 30.0);
+            o.species = Species::lineage(&["Squalus acanthias"]);
+            b.photo_hashes = vec!["ab".repeat(32)];
+            o.photo_hashes = vec!["ab".repeat(32)];
+        },
+        Expect::Candidate(1.0, 1.0, &["the same photo file (SHA-256 abababababab…)"]),
+    ),
+    (
+        "the same original photo decides alone, with no position",
+        |b, o| {
+            own(o).position = None;
+            b.original_hashes = vec!["cd".repeat(32)];
+            o.original_hashes = vec!["cd".repeat(32)];
+        },
+        Expect::Candidate(1.0, 1.0, &["the same original photo, picked on both phones"]),
+    ),
+    (
+        "different photo files say nothing alone",
+        |b, o| {
+            own(o).position = None;
+            b.photo_hashes = vec!["ab".repeat(32)];
+            o.photo_hashes = vec!["cd".repeat(32)];
+        },
+        Expect::Out(&["no position good enough to compare"]),
+    ),
     // A photo's place for a record with none: ±8 m from its GPSHPositioningError.
-    ("a record with no position matched by its photo's place", |_, o| { own(o).position = None; o.sightings.push(photo_at_borth()); },
-        Expect::Candidate(0.99, 1.0, &["the place of photo 1's EXIF (the phone's reading of the original, ±8 m) was used, because the record has no position"])),
-    ("a position known to ±12 km is not compared", |_, o| own(o).uncertainty_m = Some(12_000.0), Expect::Out(&["uncertain by more than 10 km"])),
+    (
+        "a record with no position matched by its photo's place",
+        |_, o| {
+            own(o).position = None;
+            o.sightings.push(photo_at_borth());
+        },
+        Expect::Candidate(
+            0.99,
+            1.0,
+            &[
+                "the place of photo 1's EXIF (the phone's reading of the original, ±8 m) was used, because the record has no position",
+            ],
+        ),
+    ),
+    (
+        "a position known to ±12 km is not compared",
+        |_, o| own(o).uncertainty_m = Some(12_000.0),
+        Expect::Out(&["uncertain by more than 10 km"]),
+    ),
 ];
 
 /// What `sightings` makes of a record with no position whose photo's GPS says Borth.
@@ -166,11 +454,14 @@ fn photo_at_borth() -> Sighting {
 fn check(name: &str, verdict: &Verdict, expected: &Expect) {
     let has_all = |text: &str, words: &[&str]| words.iter().all(|w| text.contains(w));
     match (verdict, expected) {
-        (Verdict::Candidate(c), Expect::Candidate(lo, hi, words)) | (Verdict::BelowLine(c), Expect::Below(lo, hi, words)) => {
+        (Verdict::Candidate(c), Expect::Candidate(lo, hi, words))
+        | (Verdict::BelowLine(c), Expect::Below(lo, hi, words)) => {
             assert!((*lo..=*hi).contains(&c.score), "{name}: score {} outside {lo}–{hi}: {c:?}", c.score);
             assert!(has_all(&c.reasons.join(" | "), words), "{name}: reasons {:?} lack {words:?}", c.reasons);
         }
-        (Verdict::RuledOut(why), Expect::Out(words)) => assert!(has_all(why, words), "{name}: ruled out for {why:?}, expected {words:?}"),
+        (Verdict::RuledOut(why), Expect::Out(words)) => {
+            assert!(has_all(why, words), "{name}: ruled out for {why:?}, expected {words:?}")
+        }
         (other, _) => panic!("{name}: wrong verdict {other:?}"),
     }
 }
@@ -194,7 +485,12 @@ fn a_photo_time_is_used_when_the_record_time_is_flagged_and_the_better_sighting_
     // Written up three days later; its photo was taken an hour after the first report.
     own(&mut other).at = at(72.0);
     assert!(matches!(judge(&base, &other), Verdict::RuledOut(_)));
-    other.sightings.push(Sighting { at: at(1.0), position: Some(BORTH), uncertainty_m: Some(5.0), from_photo: Some("for one report the time of photo 1's EXIF was used".into()) });
+    other.sightings.push(Sighting {
+        at: at(1.0),
+        position: Some(BORTH),
+        uncertainty_m: Some(5.0),
+        from_photo: Some("for one report the time of photo 1's EXIF was used".into()),
+    });
     let Verdict::Candidate(found) = judge(&base, &other) else { panic!("the photo's time matches") };
     assert!(found.reasons.iter().any(|r| r.contains("the time of photo 1's EXIF")), "{found:?}");
     assert!((found.gap_hours - 1.0).abs() < 1e-9);
@@ -244,7 +540,8 @@ fn sightings_use_the_photo_only_when_the_record_lacks_a_place_or_the_photo_is_fl
     // A position and no flag: the record's own only.
     assert_eq!(sightings(&raw(Some(BORTH), vec![phone_photo(phone, &[])]), record_at).len(), 1);
     // Flagged as taken long before: the photo's time (and place) are tried too.
-    let found = sightings(&raw(Some((52.5, -4.06)), vec![phone_photo(phone, &["taken_long_before_record"])]), record_at);
+    let found =
+        sightings(&raw(Some((52.5, -4.06)), vec![phone_photo(phone, &["taken_long_before_record"])]), record_at);
     assert_eq!(found[1].at, at(0.0));
     assert!(found[1].from_photo.as_deref().unwrap().contains("photo 1 was flagged as taken long before the record"));
     // The server's reading of the received file, when intake compared that one.
@@ -271,7 +568,13 @@ fn sightings_use_the_photo_only_when_the_record_lacks_a_place_or_the_photo_is_fl
     };
     let found = sightings(&raw(Some((52.6, -4.2)), vec![mixed]), record_at);
     assert_eq!((found[1].position, found[1].uncertainty_m, found[1].at), (Some((52.49, -4.05)), Some(30.0), at(0.0)));
-    assert!(found[1].from_photo.as_deref().unwrap().contains("the phone's reading of the original for the time, the EXIF of the file received for the place"));
+    assert!(
+        found[1]
+            .from_photo
+            .as_deref()
+            .unwrap()
+            .contains("the phone's reading of the original for the time, the EXIF of the file received for the place")
+    );
     // A phone reading off the globe is not a place.
     let off = r#"{"taken_local":null,"offset":null,"taken_at":null,"offset_source":null,"latitude":95.0,"longitude":-4.05,"altitude_m":null,"horizontal_error_m":null,"orientation":null}"#;
     assert_eq!(sightings(&raw(None, vec![phone_photo(off, &[])]), record_at).len(), 1);
@@ -349,7 +652,11 @@ fn a_large_uncertainty_widens_only_its_own_search_box() {
     // Record 1 is known to ±8 km, 100 km south; records 2 and 3 are 5 km apart with ±10 m.
     // With one box size for all (as wide as the largest uncertainty) a search at 2 would
     // reach 3; with a box per place it does not.
-    let index = Index::build([(1, (51.6, -4.0), Some(8_000.0), at(0.0)), (2, (52.5, -4.0), Some(10.0), at(0.0)), (3, (52.545, -4.0), Some(10.0), at(0.0))]);
+    let index = Index::build([
+        (1, (51.6, -4.0), Some(8_000.0), at(0.0)),
+        (2, (52.5, -4.0), Some(10.0), at(0.0)),
+        (3, (52.545, -4.0), Some(10.0), at(0.0)),
+    ]);
     assert_eq!(index.possible_pairs((52.5, -4.0), Some(10.0), at(1.0)), [2]);
     // The uncertain record is still found where it could be the same animal: 9 km away.
     assert_eq!(index.possible_pairs((51.681, -4.0), Some(10.0), at(1.0)), [1]);

@@ -25,14 +25,21 @@ pub const CONFIRMED_NEARBY_KM: f64 = 50.0;
 /// exports use, `assess::taxa`).
 pub fn species_of<'c>(taxa: &'c TaxonIndex, submission: &Submission) -> Option<&'c Taxon> {
     if let Some(choice) = &submission.key_choice {
-        return (choice.taxon_rank == "species").then(|| taxa.checklist().taxon(choice.scientific_name.as_str())).flatten();
+        return (choice.taxon_rank == "species")
+            .then(|| taxa.checklist().taxon(choice.scientific_name.as_str()))
+            .flatten();
     }
     taxa.resolve(submission.species_guess.as_ref()?.as_str()).filter(|taxon| taxon.taxon_rank == TaxonRank::Species)
 }
 
 /// Every flag the record earns. `confirmed` are (latitude, longitude) of confirmed
 /// records of the same species.
-pub fn raise(checklist: &Checklist, submission: &Submission, taxon: &Taxon, confirmed: &[(f64, f64)]) -> Vec<RecordFlag> {
+pub fn raise(
+    checklist: &Checklist,
+    submission: &Submission,
+    taxon: &Taxon,
+    confirmed: &[(f64, f64)],
+) -> Vec<RecordFlag> {
     [oversize(submission, taxon), out_of_range(checklist, submission, taxon, confirmed)].into_iter().flatten().collect()
 }
 
@@ -57,7 +64,12 @@ fn oversize(submission: &Submission, taxon: &Taxon) -> Option<RecordFlag> {
     })
 }
 
-fn out_of_range(checklist: &Checklist, submission: &Submission, taxon: &Taxon, confirmed: &[(f64, f64)]) -> Option<RecordFlag> {
+fn out_of_range(
+    checklist: &Checklist,
+    submission: &Submission,
+    taxon: &Taxon,
+    confirmed: &[(f64, f64)],
+) -> Option<RecordFlag> {
     let position = submission.position?;
     let (lat, lon) = (position.latitude.get(), position.longitude.get());
     let area = checklist.area_at(lat, lon);
@@ -76,6 +88,10 @@ fn out_of_range(checklist: &Checklist, submission: &Submission, taxon: &Taxon, c
         Some(area) => format!("{} is not among the areas where it is known", area.name),
         None => "the position is outside every area of the checklist".to_owned(),
     };
-    let nearest = if nearest_km.is_finite() { format!("the nearest confirmed record is {nearest_km:.0} km away") } else { "there is no confirmed record of it yet".to_owned() };
+    let nearest = if nearest_km.is_finite() {
+        format!("the nearest confirmed record is {nearest_km:.0} km away")
+    } else {
+        "there is no confirmed record of it yet".to_owned()
+    };
     Some(RecordFlag { kind: FlagKind::OutOfRange, reason: format!("{place}, and {nearest}") })
 }

@@ -12,8 +12,8 @@ pub mod cli;
 pub mod commands;
 pub mod demo;
 pub mod duplicates;
-pub mod error;
 pub mod effort;
+pub mod error;
 pub mod export;
 pub mod flags;
 pub mod handlers;
@@ -54,7 +54,9 @@ pub const DEMO_CHECKLIST: &str = include_str!("../../demo-records/checklist.json
 pub fn load_checklist(path: Option<&std::path::Path>) -> anyhow::Result<species_key::Checklist> {
     use anyhow::Context as _;
     let text = match path {
-        Some(path) => std::fs::read_to_string(path).with_context(|| format!("reading the checklist {}", path.display()))?,
+        Some(path) => {
+            std::fs::read_to_string(path).with_context(|| format!("reading the checklist {}", path.display()))?
+        }
         None => DEMO_CHECKLIST.to_owned(),
     };
     let origin = path.map_or("the built-in demo checklist".to_owned(), |p| p.display().to_string());
@@ -68,7 +70,11 @@ impl AppState {
     }
 
     /// Opens (and migrates) the database in `data_dir` and the photo folder beside it.
-    pub fn open(data_dir: &std::path::Path, app_dir: Option<PathBuf>, checklist: species_key::Checklist) -> anyhow::Result<Self> {
+    pub fn open(
+        data_dir: &std::path::Path,
+        app_dir: Option<PathBuf>,
+        checklist: species_key::Checklist,
+    ) -> anyhow::Result<Self> {
         use anyhow::Context as _;
         std::fs::create_dir_all(data_dir)
             .with_context(|| format!("creating the data directory {}", data_dir.display()))?;

@@ -7,7 +7,10 @@
 //! counts: oversize, out of range, possible duplicate, photo older than the record,
 //! photo far from the record), then the oldest observation first.
 
-use shared_types::{KEY_RANKS, KeyAnswer, distance_words, hours_words, KeyReason, KeyReplay, KeySuggestion, PhotoFlag, QueueFlag, RecordView, ReviewAction, ReviewState, Submission};
+use shared_types::{
+    KEY_RANKS, KeyAnswer, KeyReason, KeyReplay, KeySuggestion, PhotoFlag, QueueFlag, RecordView, ReviewAction,
+    ReviewState, Submission, distance_words, hours_words,
+};
 use species_key::{Answer, Answers, Checklist, Context, Effect, Key, Measurement, Sensitivity};
 
 use crate::assess::taxa::{TaxonFilter, TaxonIndex};
@@ -127,7 +130,12 @@ fn photo_reasons(record: &RecordView) -> Vec<String> {
 }
 
 /// A record's place in the queue: a sort key (higher first) and the reasons in words.
-pub fn priority(record: &RecordView, current_taxon: Option<&str>, checklist: &Checklist, possible_duplicate: bool) -> (u32, Vec<String>) {
+pub fn priority(
+    record: &RecordView,
+    current_taxon: Option<&str>,
+    checklist: &Checklist,
+    possible_duplicate: bool,
+) -> (u32, Vec<String>) {
     let mut score = 0;
     let mut reasons = Vec::new();
     // At any rank: a genus or family counts as protected or sensitive if any of its species is.
@@ -139,7 +147,8 @@ pub fn priority(record: &RecordView, current_taxon: Option<&str>, checklist: &Ch
         }
         if taxon.sensitivity != Sensitivity::None {
             score += 500;
-            reasons.push(format!("{} is sensitive{may_be}: its public locations are generalised", taxon.scientific_name));
+            reasons
+                .push(format!("{} is sensitive{may_be}: its public locations are generalised", taxon.scientific_name));
         }
     }
     score += 100 * queue_flags(record, possible_duplicate).len() as u32;
@@ -194,12 +203,17 @@ pub fn key_replay(checklist: &Checklist, record: &Submission) -> Option<KeyRepla
             "not sure".to_owned()
         } else {
             answers.set(character, Answer::State(state.clone()));
-            question.and_then(|q| q.states.iter().find(|s| &s.name == state)).map_or_else(|| state.clone(), |s| s.label.clone())
+            question
+                .and_then(|q| q.states.iter().find(|s| &s.name == state))
+                .map_or_else(|| state.clone(), |s| s.label.clone())
         };
         shown.push(KeyAnswer { question: question.map_or_else(|| character.clone(), |q| q.question.clone()), answer });
     }
     let context = Context {
-        area_code: record.position.and_then(|p| checklist.area_at(p.latitude.get(), p.longitude.get())).map(|a| a.code.clone()),
+        area_code: record
+            .position
+            .and_then(|p| checklist.area_at(p.latitude.get(), p.longitude.get()))
+            .map(|a| a.code.clone()),
         nearby_confirmed: None,
         measurement: record.length.map(|l| Measurement {
             kind: l.kind.key_kind(),
@@ -227,7 +241,12 @@ fn suggestion(candidate: species_key::Candidate) -> KeySuggestion {
             KeyReason { effect: effect.into(), text: reason.text }
         })
         .collect();
-    KeySuggestion { scientific_name: candidate.scientific_name, common_name: candidate.common_names.into_iter().next(), probability: candidate.probability, reasons }
+    KeySuggestion {
+        scientific_name: candidate.scientific_name,
+        common_name: candidate.common_names.into_iter().next(),
+        probability: candidate.probability,
+        reasons,
+    }
 }
 
 #[cfg(test)]
@@ -244,7 +263,10 @@ mod tests {
         assert!(wanted("Carcharhiniformes").takes_in(&taxa, Some("Scyliorhinus canicula")), "a species by its order");
         assert!(wanted("scyliorhinus").takes_in(&taxa, Some("Scyliorhinus canicula")), "a species by its genus");
         assert!(wanted("small-spotted catshark").takes_in(&taxa, Some("Scyliorhinus canicula")), "common names work");
-        assert!(!wanted("Scyliorhinus canicula").takes_in(&taxa, Some("Scyliorhinus")), "a genus is not in one of its species");
+        assert!(
+            !wanted("Scyliorhinus canicula").takes_in(&taxa, Some("Scyliorhinus")),
+            "a genus is not in one of its species"
+        );
         assert!(!wanted("Rajidae").takes_in(&taxa, Some("Scyliorhinus")));
         assert!(wanted("a fish").takes_in(&taxa, Some("A Fish")), "unknown names match themselves");
         assert!(!wanted("Scyliorhinidae").takes_in(&taxa, None));

@@ -6,8 +6,8 @@ use axum::Router;
 use axum::extract::DefaultBodyLimit;
 use axum::http::{HeaderValue, header};
 use axum::routing::{MethodFilter, MethodRouter, any, on};
-use tower_http::services::{ServeDir, ServeFile};
 use tower::Layer as _;
+use tower_http::services::{ServeDir, ServeFile};
 use tower_http::set_header::{SetResponseHeader, SetResponseHeaderLayer};
 
 use crate::AppState;
@@ -103,7 +103,9 @@ use Verb::{Delete, Get, Post, Put};
 /// for unknown `/api/` paths and the app's own files.
 pub const ROUTES: &[RouteSpec] = &[
     route(Get, "/healthz", Public, |m| on(m, health::healthz)),
-    route(Post, "/api/observations", Public, |m| on(m, observations::submit).layer(DefaultBodyLimit::max(UPLOAD_LIMIT))),
+    route(Post, "/api/observations", Public, |m| {
+        on(m, observations::submit).layer(DefaultBodyLimit::max(UPLOAD_LIMIT))
+    }),
     route(Get, "/api/observations", Reviewer, |m| on(m, observations::list)),
     route(Get, "/api/observations/{client_id}", Reviewer, |m| on(m, observations::get)),
     route(Put, "/api/observations/{client_id}/walk", OwnDeviceOrReviewer, |m| on(m, walks::link)),
@@ -123,12 +125,16 @@ pub const ROUTES: &[RouteSpec] = &[
     route(Post, "/api/devices", Public, |m| on(m, session::new_device)),
     route(Get, "/api/my/records", Device, |m| on(m, mine::records)),
     route(Put, "/api/my/profile", Device, |m| on(m, mine::set_profile)),
-    route(Post, "/api/my/records/{client_id}/replies", OwnDevice, |m| on(m, mine::reply).layer(DefaultBodyLimit::max(UPLOAD_LIMIT))),
+    route(Post, "/api/my/records/{client_id}/replies", OwnDevice, |m| {
+        on(m, mine::reply).layer(DefaultBodyLimit::max(UPLOAD_LIMIT))
+    }),
     route(Get, "/api/review/queue", Reviewer, |m| on(m, review::queue)),
     route(Get, "/api/review/records/{client_id}", Reviewer, |m| on(m, review::detail)),
     route(Post, "/api/review/records/{client_id}/actions", Reviewer, |m| on(m, review::act)),
     route(Get, "/api/review/records/{client_id}/map.svg", Reviewer, |m| on(m, review::place_map)),
-    route(Post, "/api/review/records/{client_id}/duplicates/{other_client_id}", Reviewer, |m| on(m, review::decide_pair)),
+    route(Post, "/api/review/records/{client_id}/duplicates/{other_client_id}", Reviewer, |m| {
+        on(m, review::decide_pair)
+    }),
     route(Post, "/api/review/merges/{merge_id}/undo", Reviewer, |m| on(m, review::undo_merge)),
     route(Get, "/api/people", Admin, |m| on(m, people::list)),
     route(Post, "/api/people", Admin, |m| on(m, people::add)),

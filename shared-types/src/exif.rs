@@ -5,9 +5,9 @@
 //! without EXIF, or with EXIF that cannot be read, simply has no EXIF facts: that is
 //! never a reason to refuse the record.
 
+use crate::record::{OffsetSource, PhotoExif};
 use chrono::{DateTime, FixedOffset, NaiveDateTime, TimeZone};
 use exif::{In, Reader, Tag, Value};
-use crate::record::{OffsetSource, PhotoExif};
 
 /// EXIF facts straight from the file, before the record's offset is applied.
 pub fn read(bytes: &[u8]) -> PhotoExif {
@@ -81,9 +81,7 @@ fn parse_exif_time(text: &str) -> Option<NaiveDateTime> {
 
 /// `±HH:MM`, as OffsetTimeOriginal writes it.
 fn parse_offset(text: &str) -> Option<FixedOffset> {
-    DateTime::parse_from_str(&format!("2000-01-01T00:00:00{text}"), "%Y-%m-%dT%H:%M:%S%:z")
-        .ok()
-        .map(|t| *t.offset())
+    DateTime::parse_from_str(&format!("2000-01-01T00:00:00{text}"), "%Y-%m-%dT%H:%M:%S%:z").ok().map(|t| *t.offset())
 }
 
 /// Degrees, minutes, seconds as three RATIONALs, negative for the given reference.
@@ -147,7 +145,11 @@ mod tests {
         // no OffsetTimeOriginal; the record made on Sunday after clocks went forward
         // (BST, +01:00). UK daylight saving starts the last Sunday of March (from memory).
         let record = FixedOffset::east_opt(3600).unwrap();
-        let exif = PhotoExif { taken_local: Some("2025:03:29 14:00:00".into()), device_offset: Some("+00:00".into()), ..Default::default() };
+        let exif = PhotoExif {
+            taken_local: Some("2025:03:29 14:00:00".into()),
+            device_offset: Some("+00:00".into()),
+            ..Default::default()
+        };
         let resolved = resolve_time(exif.clone(), record);
         assert_eq!(resolved.offset_source, Some(OffsetSource::Device));
         assert_eq!(resolved.taken_at.unwrap().to_rfc3339(), "2025-03-29T14:00:00+00:00");

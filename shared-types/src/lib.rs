@@ -5,8 +5,8 @@
 //! its own. Pure Rust: no HTTP, no SQL, no DOM. Everything here runs unchanged natively and in
 //! the browser, so the app and the server validate a record with the same code.
 
-pub mod exif;
 pub mod codes;
+pub mod exif;
 pub mod record;
 pub mod review;
 pub mod values;

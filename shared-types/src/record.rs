@@ -46,8 +46,7 @@ pub enum LengthKind {
 }
 
 impl LengthKind {
-    pub const ALL: [LengthKind; 5] =
-        [Self::Total, Self::Fork, Self::Precaudal, Self::DiscWidth, Self::DiscLength];
+    pub const ALL: [LengthKind; 5] = [Self::Total, Self::Fork, Self::Precaudal, Self::DiscWidth, Self::DiscLength];
 
     /// The same kind in the species key's terms.
     pub fn key_kind(self) -> species_key::LengthKind {
@@ -230,8 +229,7 @@ pub enum HumanSign {
 }
 
 impl HumanSign {
-    pub const ALL: [HumanSign; 5] =
-        [Self::Hook, Self::Line, Self::NetMarks, Self::FinsRemoved, Self::BoatStrike];
+    pub const ALL: [HumanSign; 5] = [Self::Hook, Self::Line, Self::NetMarks, Self::FinsRemoved, Self::BoatStrike];
 
     pub fn label(self) -> &'static str {
         match self {
@@ -563,7 +561,6 @@ pub struct RecordView {
     pub walk_client_id: Option<Uuid>,
 }
 
-
 #[cfg(test)]
 mod tests {
     use super::*;
@@ -599,7 +596,10 @@ mod tests {
     fn a_life_stage_is_optional_and_leaves_older_records_unchanged() {
         let sub: Submission = serde_json::from_str(sample()).unwrap();
         assert_eq!(sub.life_stage, None);
-        assert!(!serde_json::to_string(&sub).unwrap().contains("life_stage"), "absent stays out of the JSON (same fingerprint)");
+        assert!(
+            !serde_json::to_string(&sub).unwrap().contains("life_stage"),
+            "absent stays out of the JSON (same fingerprint)"
+        );
         let mut egg: serde_json::Value = serde_json::from_str(sample()).unwrap();
         egg["life_stage"] = "egg_case".into();
         egg["length"] = serde_json::Value::Null;

@@ -138,8 +138,13 @@ pub enum QueueFlag {
 }
 
 impl QueueFlag {
-    pub const ALL: [QueueFlag; 5] =
-        [Self::Oversize, Self::OutOfRange, Self::PossibleDuplicate, Self::TakenLongBeforeRecord, Self::TakenFarFromRecord];
+    pub const ALL: [QueueFlag; 5] = [
+        Self::Oversize,
+        Self::OutOfRange,
+        Self::PossibleDuplicate,
+        Self::TakenLongBeforeRecord,
+        Self::TakenFarFromRecord,
+    ];
 
     pub fn label(self) -> &'static str {
         match self {

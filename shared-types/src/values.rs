@@ -152,7 +152,10 @@ impl Sha256Hex {
         if value.len() == 64 && value.bytes().all(|b| b.is_ascii_hexdigit()) {
             Ok(Self(value.to_ascii_lowercase()))
         } else {
-            Err(ValueError(format!("a SHA-256 digest must be 64 hexadecimal digits, got {:?}", value.chars().take(80).collect::<String>())))
+            Err(ValueError(format!(
+                "a SHA-256 digest must be 64 hexadecimal digits, got {:?}",
+                value.chars().take(80).collect::<String>()
+            )))
         }
     }
 

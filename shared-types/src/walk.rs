@@ -230,9 +230,9 @@ mod tests {
     fn inaccurate_fixes_and_jumps_are_left_out() {
         let track = [
             point(52.4100, -4.08, 5.0, 0),
-            point(52.4200, -4.08, 80.0, 30),   // too inaccurate
-            point(52.4500, -4.08, 5.0, 60),    // 4.4 km in a minute: a jump
-            point(52.4105, -4.08, 5.0, 120),   // 55 m on: kept
+            point(52.4200, -4.08, 80.0, 30), // too inaccurate
+            point(52.4500, -4.08, 5.0, 60),  // 4.4 km in a minute: a jump
+            point(52.4105, -4.08, 5.0, 120), // 55 m on: kept
         ];
         let summary = track_length(&track);
         assert_eq!((summary.dropped_inaccurate, summary.dropped_jumps, summary.kept_points), (1, 1, 2));

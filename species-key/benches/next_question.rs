@@ -20,11 +20,7 @@ fn naive_next_question(key: &Key, answers: &Answers, context: &Context) -> Optio
     let checklist = key.checklist();
     let now = key.rank(answers, context).ok()?;
     let mut best: Option<(String, f64)> = None;
-    for character in checklist
-        .characters()
-        .iter()
-        .filter(|c| answers.get(&c.name).is_none())
-    {
+    for character in checklist.characters().iter().filter(|c| answers.get(&c.name).is_none()) {
         let states = character.states.len();
         let mut expected = 0.0;
         for (s, state) in character.states.iter().enumerate() {
@@ -32,23 +28,13 @@ fn naive_next_question(key: &Key, answers: &Answers, context: &Context) -> Optio
                 .iter()
                 .map(|c| {
                     let taxon = checklist.taxon(&c.scientific_name).unwrap();
-                    let allowed =
-                        taxon.characters[&character.name]
-                            .iter()
-                            .fold(0u64, |set, name| {
-                                set | 1
-                                    << character
-                                        .states
-                                        .iter()
-                                        .position(|k| &k.name == name)
-                                        .unwrap()
-                            });
+                    let allowed = taxon.characters[&character.name].iter().fold(0u64, |set, name| {
+                        set | 1 << character.states.iter().position(|k| &k.name == name).unwrap()
+                    });
                     c.probability * answer_likelihood(allowed, states, s)
                 })
                 .sum();
-            let after = key
-                .rank(&answers.clone().with(&character.name, &state.name), context)
-                .ok()?;
+            let after = key.rank(&answers.clone().with(&character.name, &state.name), context).ok()?;
             expected += chance * entropy_bits(after.iter().map(|c| c.probability));
         }
         if best.as_ref().is_none_or(|(_, e)| expected < *e) {
@@ -79,15 +65,9 @@ fn main() {
     let context = Context::default();
     let answers = Answers::new().with("c0", "s1").with("c3", "s2");
 
-    let fast_choice = key
-        .next_question(&answers, &context)
-        .unwrap()
-        .map(|q| q.character);
+    let fast_choice = key.next_question(&answers, &context).unwrap().map(|q| q.character);
     let naive_choice = naive_next_question(&key, &answers, &context);
-    assert_eq!(
-        fast_choice, naive_choice,
-        "both ways must choose the same question"
-    );
+    assert_eq!(fast_choice, naive_choice, "both ways must choose the same question");
 
     let fast = median_time(201, || {
         black_box(key.next_question(black_box(&answers), &context).unwrap());
@@ -97,11 +77,7 @@ fn main() {
     });
     let measured = Context {
         area_code: Some("a".into()),
-        measurement: Some(Measurement {
-            kind: LengthKind::ForkLength,
-            cm: 180.0,
-            estimated: false,
-        }),
+        measurement: Some(Measurement { kind: LengthKind::ForkLength, cm: 180.0, estimated: false }),
         ..Context::default()
     };
     let fast_measured = median_time(201, || {
@@ -116,8 +92,5 @@ fn main() {
     println!("next_question            median {fast:?}");
     println!("  with area and length   median {fast_measured:?}");
     println!("naive next question      median {naive:?}");
-    println!(
-        "naive / next_question    {:.0}×",
-        naive.as_secs_f64() / fast.as_secs_f64()
-    );
+    println!("naive / next_question    {:.0}×", naive.as_secs_f64() / fast.as_secs_f64());
 }

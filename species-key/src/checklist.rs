@@ -97,13 +97,8 @@ pub enum TaxonRank {
 
 impl TaxonRank {
     /// Ranks from most to least specific, the order in which an observer can stop.
-    pub const FROM_SPECIFIC: [TaxonRank; 5] = [
-        TaxonRank::Species,
-        TaxonRank::Genus,
-        TaxonRank::Family,
-        TaxonRank::Order,
-        TaxonRank::Superorder,
-    ];
+    pub const FROM_SPECIFIC: [TaxonRank; 5] =
+        [TaxonRank::Species, TaxonRank::Genus, TaxonRank::Family, TaxonRank::Order, TaxonRank::Superorder];
 }
 
 /// How far a public location must be generalised for this species, following the
@@ -231,9 +226,7 @@ impl Taxon {
 
     /// The equation converting `measure` to total length, if the checklist gives one.
     pub fn conversion_for(&self, measure: LengthKind) -> Option<&LengthConversion> {
-        self.length_conversions
-            .iter()
-            .find(|c| c.measure == measure)
+        self.length_conversions.iter().find(|c| c.measure == measure)
     }
 }
 
@@ -261,12 +254,7 @@ impl Checklist {
             .enumerate()
             .map(|(index, value)| read_taxon(index + 1, value))
             .collect::<Result<Vec<_>, _>>()?;
-        let checklist = Checklist {
-            metadata: file.metadata,
-            areas: file.areas,
-            characters: file.characters,
-            taxa,
-        };
+        let checklist = Checklist { metadata: file.metadata, areas: file.areas, characters: file.characters, taxa };
         checklist.check()?;
         Ok(checklist)
     }
@@ -298,9 +286,7 @@ impl Checklist {
 
     /// The taxon with this scientific name, if listed.
     pub fn taxon(&self, scientific_name: &str) -> Option<&Taxon> {
-        self.taxa
-            .iter()
-            .find(|t| t.scientific_name == scientific_name)
+        self.taxa.iter().find(|t| t.scientific_name == scientific_name)
     }
 
     fn check(&self) -> Result<(), ChecklistError> {
@@ -312,9 +298,7 @@ impl Checklist {
         let mut names = BTreeSet::new();
         for taxon in &self.taxa {
             if !names.insert(taxon.scientific_name.as_str()) {
-                return Err(ChecklistError::DuplicateTaxon(
-                    taxon.scientific_name.clone(),
-                ));
+                return Err(ChecklistError::DuplicateTaxon(taxon.scientific_name.clone()));
             }
             check_taxon_characters(taxon, &self.characters)?;
             check_taxon_numbers(taxon)?;
@@ -326,16 +310,9 @@ impl Checklist {
 }
 
 fn read_taxon(position: usize, value: serde_json::Value) -> Result<Taxon, ChecklistError> {
-    let scientific_name = value
-        .get("scientificName")
-        .and_then(|name| name.as_str())
-        .unwrap_or("no scientificName")
-        .to_owned();
-    serde_json::from_value(value).map_err(|source| ChecklistError::TaxonFormat {
-        position,
-        scientific_name,
-        source,
-    })
+    let scientific_name =
+        value.get("scientificName").and_then(|name| name.as_str()).unwrap_or("no scientificName").to_owned();
+    serde_json::from_value(value).map_err(|source| ChecklistError::TaxonFormat { position, scientific_name, source })
 }
 
 fn check_characters(characters: &[Character]) -> Result<(), ChecklistError> {
@@ -370,8 +347,10 @@ fn unique_area_codes(areas: &[Area]) -> Result<BTreeSet<&str>, ChecklistError> {
             return Err(ChecklistError::DuplicateArea(area.code.clone()));
         }
         if let Some([west, south, east, north]) = area.bounds {
-            let on_globe = (-180.0..=180.0).contains(&west) && (-180.0..=180.0).contains(&east)
-                && (-90.0..=90.0).contains(&south) && (-90.0..=90.0).contains(&north);
+            let on_globe = (-180.0..=180.0).contains(&west)
+                && (-180.0..=180.0).contains(&east)
+                && (-90.0..=90.0).contains(&south)
+                && (-90.0..=90.0).contains(&north);
             if !(on_globe && west < east && south < north) {
                 return Err(ChecklistError::BadAreaBounds(area.code.clone()));
             }
@@ -383,21 +362,12 @@ fn unique_area_codes(areas: &[Area]) -> Result<BTreeSet<&str>, ChecklistError> {
 fn check_taxon_characters(taxon: &Taxon, characters: &[Character]) -> Result<(), ChecklistError> {
     for (name, states) in &taxon.characters {
         let character = characters.iter().find(|c| &c.name == name).ok_or_else(|| {
-            ChecklistError::UnknownCharacter {
-                species: taxon.scientific_name.clone(),
-                character: name.clone(),
-            }
+            ChecklistError::UnknownCharacter { species: taxon.scientific_name.clone(), character: name.clone() }
         })?;
         if states.is_empty() {
-            return Err(ChecklistError::NoStates {
-                species: taxon.scientific_name.clone(),
-                character: name.clone(),
-            });
+            return Err(ChecklistError::NoStates { species: taxon.scientific_name.clone(), character: name.clone() });
         }
-        if let Some(state) = states
-            .iter()
-            .find(|s| !character.states.iter().any(|k| &k.name == *s))
-        {
+        if let Some(state) = states.iter().find(|s| !character.states.iter().any(|k| &k.name == *s)) {
             return Err(ChecklistError::UnknownState {
                 species: taxon.scientific_name.clone(),
                 character: name.clone(),
@@ -411,25 +381,15 @@ fn check_taxon_characters(taxon: &Taxon, characters: &[Character]) -> Result<(),
 fn check_taxon_numbers(taxon: &Taxon) -> Result<(), ChecklistError> {
     let species = &taxon.scientific_name;
     require_positive(species, "maxLength.cm", taxon.max_length.cm)?;
-    require_positive(
-        species,
-        "generationLength.years",
-        taxon.generation_length.years,
-    )?;
-    if !matches!(
-        taxon.max_length.measure,
-        LengthKind::TotalLength | LengthKind::DiscWidth
-    ) {
+    require_positive(species, "generationLength.years", taxon.generation_length.years)?;
+    if !matches!(taxon.max_length.measure, LengthKind::TotalLength | LengthKind::DiscWidth) {
         return Err(ChecklistError::MaxLengthMeasure {
             species: species.clone(),
             measure: taxon.max_length.measure.code().to_owned(),
         });
     }
     for conversion in &taxon.length_conversions {
-        if !matches!(
-            conversion.measure,
-            LengthKind::ForkLength | LengthKind::PrecaudalLength | LengthKind::DiscWidth
-        ) {
+        if !matches!(conversion.measure, LengthKind::ForkLength | LengthKind::PrecaudalLength | LengthKind::DiscWidth) {
             return Err(ChecklistError::ConversionMeasure {
                 species: species.clone(),
                 measure: conversion.measure.code().to_owned(),
@@ -444,11 +404,7 @@ fn require_positive(species: &str, field: &'static str, value: f64) -> Result<()
     if value.is_finite() && value > 0.0 {
         Ok(())
     } else {
-        Err(ChecklistError::NotPositive {
-            species: species.to_owned(),
-            field,
-            value,
-        })
+        Err(ChecklistError::NotPositive { species: species.to_owned(), field, value })
     }
 }
 
@@ -456,39 +412,21 @@ fn check_taxon_sources(taxon: &Taxon) -> Result<(), ChecklistError> {
     let sources = [
         ("characterSource", taxon.character_source.as_str()),
         ("maxLength.source", taxon.max_length.source.as_str()),
-        (
-            "generationLength.source",
-            taxon.generation_length.source.as_str(),
-        ),
+        ("generationLength.source", taxon.generation_length.source.as_str()),
     ]
     .into_iter()
-    .chain(
-        taxon
-            .length_conversions
-            .iter()
-            .map(|c| ("lengthConversions.source", c.source.as_str())),
-    );
+    .chain(taxon.length_conversions.iter().map(|c| ("lengthConversions.source", c.source.as_str())));
     for (field, source) in sources {
         if source.trim().is_empty() {
-            return Err(ChecklistError::BlankSource {
-                species: taxon.scientific_name.clone(),
-                field,
-            });
+            return Err(ChecklistError::BlankSource { species: taxon.scientific_name.clone(), field });
         }
     }
     Ok(())
 }
 
 fn check_presence(taxon: &Taxon, area_codes: &BTreeSet<&str>) -> Result<(), ChecklistError> {
-    match taxon
-        .presence
-        .iter()
-        .find(|code| !area_codes.contains(code.as_str()))
-    {
-        Some(code) => Err(ChecklistError::UnknownArea {
-            species: taxon.scientific_name.clone(),
-            area: code.clone(),
-        }),
+    match taxon.presence.iter().find(|code| !area_codes.contains(code.as_str())) {
+        Some(code) => Err(ChecklistError::UnknownArea { species: taxon.scientific_name.clone(), area: code.clone() }),
         None => Ok(()),
     }
 }

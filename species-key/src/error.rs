@@ -59,9 +59,7 @@ pub enum ChecklistError {
         character: String,
     },
     /// A taxon gives a state that is not in the character's list of states.
-    #[error(
-        "{species}: characters.{character} has state {state}, which is not one of that character's states"
-    )]
+    #[error("{species}: characters.{character} has state {state}, which is not one of that character's states")]
     UnknownState {
         /// The taxon's scientific name.
         species: String,
@@ -97,9 +95,7 @@ pub enum ChecklistError {
         value: f64,
     },
     /// A source field is blank; name the guide or paper, or write "from memory".
-    #[error(
-        "{species}: {field} is blank (name the field guide or paper, or write \"from memory\")"
-    )]
+    #[error("{species}: {field} is blank (name the field guide or paper, or write \"from memory\")")]
     BlankSource {
         /// The taxon's scientific name.
         species: String,

@@ -34,11 +34,7 @@ impl Key {
         }
         let mut support: Vec<TaxonSupport> = sums
             .into_iter()
-            .map(|(name, probability)| TaxonSupport {
-                scientific_name: name.to_owned(),
-                taxon_rank: rank,
-                probability,
-            })
+            .map(|(name, probability)| TaxonSupport { scientific_name: name.to_owned(), taxon_rank: rank, probability })
             .collect();
         support.sort_by(|a, b| b.probability.total_cmp(&a.probability));
         support
@@ -46,16 +42,9 @@ impl Key {
 
     /// The most specific taxon (species, then genus, family, order, superorder) whose
     /// summed probability reaches `min_probability`, or `None` if none does.
-    pub fn best_supported_taxon(
-        &self,
-        candidates: &[Candidate],
-        min_probability: f64,
-    ) -> Option<TaxonSupport> {
+    pub fn best_supported_taxon(&self, candidates: &[Candidate], min_probability: f64) -> Option<TaxonSupport> {
         TaxonRank::FROM_SPECIFIC.into_iter().find_map(|rank| {
-            self.support_at(rank, candidates)
-                .into_iter()
-                .next()
-                .filter(|best| best.probability >= min_probability)
+            self.support_at(rank, candidates).into_iter().next().filter(|best| best.probability >= min_probability)
         })
     }
 }

@@ -93,24 +93,15 @@ impl Key {
         let allowed: Vec<Vec<StateSet>> = checklist
             .taxa()
             .iter()
-            .map(|taxon| {
-                characters
-                    .iter()
-                    .map(|c| allowed_states(taxon, c))
-                    .collect()
-            })
+            .map(|taxon| characters.iter().map(|c| allowed_states(taxon, c)).collect())
             .collect();
-        let answer_probability: Vec<Vec<f64>> = (0..characters.len())
-            .map(|c| answer_probability_table(&allowed, c, characters[c].states.len()))
-            .collect();
+        let answer_probability: Vec<Vec<f64>> =
+            (0..characters.len()).map(|c| answer_probability_table(&allowed, c, characters[c].states.len())).collect();
         let answer_entropy = answer_probability
             .iter()
             .zip(characters)
             .map(|(table, character)| {
-                table
-                    .chunks(character.states.len())
-                    .map(|row| entropy_bits(row.iter().copied()))
-                    .collect()
+                table.chunks(character.states.len()).map(|row| entropy_bits(row.iter().copied())).collect()
             })
             .collect();
         let unseparable = overlapping_pairs(&allowed)
@@ -120,12 +111,7 @@ impl Key {
                 second: checklist.taxa()[j].scientific_name.clone(),
             })
             .collect();
-        Key {
-            checklist: checklist.clone(),
-            answer_probability,
-            answer_entropy,
-            unseparable,
-        }
+        Key { checklist: checklist.clone(), answer_probability, answer_entropy, unseparable }
     }
 
     /// The checklist the key was built over.
@@ -159,11 +145,7 @@ impl Key {
     ///
     /// # Errors
     /// [`AnswerError`] when an answer names a character or state the checklist lacks.
-    pub fn rank(
-        &self,
-        answers: &Answers,
-        context: &Context,
-    ) -> Result<Vec<Candidate>, AnswerError> {
+    pub fn rank(&self, answers: &Answers, context: &Context) -> Result<Vec<Candidate>, AnswerError> {
         let given = self.match_answers(answers)?;
         let posterior = self.posterior(&given, context);
         let mut candidates: Vec<Candidate> = self
@@ -188,23 +170,15 @@ impl Key {
     ///
     /// # Errors
     /// [`AnswerError`] when an answer names a character or state the checklist lacks.
-    pub fn next_question(
-        &self,
-        answers: &Answers,
-        context: &Context,
-    ) -> Result<Option<QuestionChoice>, AnswerError> {
+    pub fn next_question(&self, answers: &Answers, context: &Context) -> Result<Option<QuestionChoice>, AnswerError> {
         let given = self.match_answers(answers)?;
         let posterior = self.posterior(&given, context);
-        let best = self.gains(&given, &posterior).into_iter().fold(
-            None,
-            |best: Option<(usize, f64)>, (c, gain)| match best {
+        let best =
+            self.gains(&given, &posterior).into_iter().fold(None, |best: Option<(usize, f64)>, (c, gain)| match best {
                 Some((_, best_gain)) if best_gain >= gain => best,
                 _ => Some((c, gain)),
-            },
-        );
-        Ok(best
-            .filter(|(_, gain)| *gain > MIN_USEFUL_GAIN_BITS)
-            .map(|(c, gain)| self.question_choice(c, gain)))
+            });
+        Ok(best.filter(|(_, gain)| *gain > MIN_USEFUL_GAIN_BITS).map(|(c, gain)| self.question_choice(c, gain)))
     }
 
     /// Every unanswered question with its expected information gain, best first, so the
@@ -212,19 +186,12 @@ impl Key {
     ///
     /// # Errors
     /// [`AnswerError`] when an answer names a character or state the checklist lacks.
-    pub fn questions_by_gain(
-        &self,
-        answers: &Answers,
-        context: &Context,
-    ) -> Result<Vec<QuestionChoice>, AnswerError> {
+    pub fn questions_by_gain(&self, answers: &Answers, context: &Context) -> Result<Vec<QuestionChoice>, AnswerError> {
         let given = self.match_answers(answers)?;
         let posterior = self.posterior(&given, context);
         let mut gains = self.gains(&given, &posterior);
         gains.sort_by(|a, b| b.1.total_cmp(&a.1));
-        Ok(gains
-            .into_iter()
-            .map(|(c, gain)| self.question_choice(c, gain))
-            .collect())
+        Ok(gains.into_iter().map(|(c, gain)| self.question_choice(c, gain)).collect())
     }
 
     /// Posterior probability per species, in checklist order.
@@ -251,9 +218,10 @@ impl Key {
             .as_deref()
             .filter(|code| self.checklist.areas().iter().any(|a| a.code == *code))
             .map_or(1.0, |code| likelihood::presence_weight(taxon, code));
-        let nearby = context.nearby_confirmed.as_ref().map_or(1.0, |counts| {
-            likelihood::nearby_weight(counts.get(&taxon.scientific_name).copied().unwrap_or(0))
-        });
+        let nearby = context
+            .nearby_confirmed
+            .as_ref()
+            .map_or(1.0, |counts| likelihood::nearby_weight(counts.get(&taxon.scientific_name).copied().unwrap_or(0)));
         let size = reasons::size_weight(taxon, context);
         area * nearby * size
     }
@@ -289,28 +257,17 @@ impl Key {
     fn expected_gain_bits(&self, character: usize, posterior: &[f64]) -> f64 {
         let states = self.checklist.characters()[character].states.len();
         let mut answer_marginal = vec![0.0; states];
-        for (row, p) in self.answer_probability[character]
-            .chunks(states)
-            .zip(posterior)
-        {
+        for (row, p) in self.answer_probability[character].chunks(states).zip(posterior) {
             for (marginal, q) in answer_marginal.iter_mut().zip(row) {
                 *marginal += p * q;
             }
         }
-        let conditional: f64 = posterior
-            .iter()
-            .zip(&self.answer_entropy[character])
-            .map(|(p, h)| p * h)
-            .sum();
+        let conditional: f64 = posterior.iter().zip(&self.answer_entropy[character]).map(|(p, h)| p * h).sum();
         (entropy_bits(answer_marginal) - conditional).max(0.0)
     }
 
     fn question_choice(&self, character: usize, gain: f64) -> QuestionChoice {
-        let Character {
-            name,
-            question,
-            states,
-        } = &self.checklist.characters()[character];
+        let Character { name, question, states } = &self.checklist.characters()[character];
         QuestionChoice {
             character: name.clone(),
             question: question.clone(),
@@ -366,10 +323,7 @@ fn state_position(character: &Character, state: &str) -> Result<usize, AnswerErr
         .states
         .iter()
         .position(|s| s.name == state)
-        .ok_or_else(|| AnswerError::UnknownState {
-            character: character.name.clone(),
-            state: state.to_owned(),
-        })
+        .ok_or_else(|| AnswerError::UnknownState { character: character.name.clone(), state: state.to_owned() })
 }
 
 /// The states a taxon allows for a character; a character the taxon leaves out allows all.
@@ -385,15 +339,9 @@ pub(crate) fn allowed_states(taxon: &Taxon, character: &Character) -> StateSet {
     })
 }
 
-fn answer_probability_table(
-    allowed: &[Vec<StateSet>],
-    character: usize,
-    states: usize,
-) -> Vec<f64> {
+fn answer_probability_table(allowed: &[Vec<StateSet>], character: usize, states: usize) -> Vec<f64> {
     allowed
         .iter()
-        .flat_map(|species| {
-            (0..states).map(move |s| answer_likelihood(species[character], states, s))
-        })
+        .flat_map(|species| (0..states).map(move |s| answer_likelihood(species[character], states, s)))
         .collect()
 }

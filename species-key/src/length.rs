@@ -76,10 +76,8 @@ pub struct Measurement {
 /// equation: fork length ≈ 0.90 × TL and precaudal length ≈ 0.80 × TL. These are
 /// rough figures for a typical shark tail (common practice, no single source); they
 /// are wrong for long-tailed species such as threshers, which carry their own equation.
-pub const GENERIC_RATIOS: [(LengthKind, f64); 2] = [
-    (LengthKind::ForkLength, 0.90),
-    (LengthKind::PrecaudalLength, 0.80),
-];
+pub const GENERIC_RATIOS: [(LengthKind, f64); 2] =
+    [(LengthKind::ForkLength, 0.90), (LengthKind::PrecaudalLength, 0.80)];
 
 /// How a measurement was brought to the measure of a species' maximum.
 #[derive(Debug, Clone, PartialEq, Serialize)]
@@ -118,17 +116,10 @@ pub fn comparable_length(measurement: &Measurement, taxon: &Taxon) -> Option<Com
     let method = if measurement.kind == taxon.max_length.measure {
         ConversionMethod::AsMeasured
     } else if let Some(conversion) = taxon.conversion_for(measurement.kind) {
-        ConversionMethod::SpeciesEquation {
-            equation: equation_text(conversion),
-            source: conversion.source.clone(),
-        }
+        ConversionMethod::SpeciesEquation { equation: equation_text(conversion), source: conversion.source.clone() }
     } else {
         ConversionMethod::CommonPractice {
-            equation: format!(
-                "{} ≈ {:.2} × TL",
-                measurement.kind.abbreviation(),
-                generic_ratio(measurement.kind)?
-            ),
+            equation: format!("{} ≈ {:.2} × TL", measurement.kind.abbreviation(), generic_ratio(measurement.kind)?),
         }
     };
     Some(ComparableLength { cm, method })
@@ -157,19 +148,12 @@ pub fn total_length_by_equation(partial_cm: f64, conversion: &LengthConversion) 
 
 /// The generic ratio of this partial length to total length, if there is one.
 pub fn generic_ratio(kind: LengthKind) -> Option<f64> {
-    GENERIC_RATIOS
-        .iter()
-        .find(|(ratio_kind, _)| *ratio_kind == kind)
-        .map(|(_, ratio)| *ratio)
+    GENERIC_RATIOS.iter().find(|(ratio_kind, _)| *ratio_kind == kind).map(|(_, ratio)| *ratio)
 }
 
 /// The equation written the way papers print it, e.g. "FL = 0.9286 × TL − 1.7101".
 pub fn equation_text(conversion: &LengthConversion) -> String {
-    let sign = if conversion.intercept_cm < 0.0 {
-        '−'
-    } else {
-        '+'
-    };
+    let sign = if conversion.intercept_cm < 0.0 { '−' } else { '+' };
     format!(
         "{} = {} × TL {sign} {}",
         conversion.measure.abbreviation(),

@@ -52,14 +52,14 @@ mod higher_taxa;
 mod key;
 pub mod length;
 pub mod likelihood;
-pub mod synthetic;
 mod reasons;
 mod separation;
+pub mod synthetic;
 
 pub use answers::{Answer, Answers, Context};
 pub use checklist::{
-    Area, Character, CharacterState, Checklist, GenerationLength, LengthConversion, MaxLength,
-    Metadata, Sensitivity, Taxon, TaxonRank,
+    Area, Character, CharacterState, Checklist, GenerationLength, LengthConversion, MaxLength, Metadata, Sensitivity,
+    Taxon, TaxonRank,
 };
 pub use error::{AnswerError, ChecklistError};
 pub use higher_taxa::TaxonSupport;

@@ -58,11 +58,7 @@ pub fn size_likelihood(ratio_to_max: f64, estimated: bool) -> f64 {
     if ratio_to_max <= 1.0 {
         return 1.0;
     }
-    let slack = if estimated {
-        SIZE_SLACK_ESTIMATED
-    } else {
-        SIZE_SLACK_MEASURED
-    };
+    let slack = if estimated { SIZE_SLACK_ESTIMATED } else { SIZE_SLACK_MEASURED };
     let excess = (ratio_to_max - 1.0) / slack;
     (-excess * excess).exp().max(SIZE_FLOOR)
 }
@@ -70,11 +66,7 @@ pub fn size_likelihood(ratio_to_max: f64, estimated: bool) -> f64 {
 /// Prior weight from the record's area: 1 where the checklist lists the species,
 /// [`OUT_OF_AREA_WEIGHT`] elsewhere.
 pub fn presence_weight(taxon: &Taxon, area_code: &str) -> f64 {
-    if taxon.presence.iter().any(|code| code == area_code) {
-        1.0
-    } else {
-        OUT_OF_AREA_WEIGHT
-    }
+    if taxon.presence.iter().any(|code| code == area_code) { 1.0 } else { OUT_OF_AREA_WEIGHT }
 }
 
 /// Prior weight from confirmed records nearby: proportional to the count plus
@@ -85,9 +77,5 @@ pub fn nearby_weight(confirmed_nearby: u32) -> f64 {
 
 /// Shannon entropy in bits of a distribution given as weights summing to 1.
 pub fn entropy_bits(probabilities: impl IntoIterator<Item = f64>) -> f64 {
-    probabilities
-        .into_iter()
-        .filter(|p| *p > 0.0)
-        .map(|p| -p * p.log2())
-        .sum()
+    probabilities.into_iter().filter(|p| *p > 0.0).map(|p| -p * p.log2()).sum()
 }

@@ -9,12 +9,7 @@ use crate::length::{ComparableLength, ConversionMethod, comparable_cm, comparabl
 use crate::likelihood::{StateSet, size_likelihood};
 
 /// All reasons for one species, answers first, then area, nearby records and size.
-pub(crate) fn for_species(
-    checklist: &Checklist,
-    species: usize,
-    given: &[Given],
-    context: &Context,
-) -> Vec<Reason> {
+pub(crate) fn for_species(checklist: &Checklist, species: usize, given: &[Given], context: &Context) -> Vec<Reason> {
     let taxon = &checklist.taxa()[species];
     let mut reasons: Vec<Reason> = checklist
         .characters()
@@ -45,10 +40,7 @@ fn answer_reason(taxon: &Taxon, character: &Character, state: usize) -> Reason {
     } else {
         reason(
             Effect::Against,
-            format!(
-                "answered \"{label}\", but this species has {}",
-                allowed_labels(character, allowed)
-            ),
+            format!("answered \"{label}\", but this species has {}", allowed_labels(character, allowed)),
         )
     }
 }
@@ -75,31 +67,25 @@ fn area_reason(checklist: &Checklist, taxon: &Taxon, context: &Context) -> Optio
     Some(if taxon.presence.iter().any(|c| c == code) {
         reason(Effect::Supports, format!("known from {}", area.name))
     } else {
-        reason(
-            Effect::Against,
-            format!("not known from {} in this checklist", area.name),
-        )
+        reason(Effect::Against, format!("not known from {} in this checklist", area.name))
     })
 }
 
 fn nearby_reason(taxon: &Taxon, context: &Context) -> Option<Reason> {
     let counts = context.nearby_confirmed.as_ref()?;
-    Some(
-        match counts.get(&taxon.scientific_name).copied().unwrap_or(0) {
-            0 => reason(Effect::Neutral, "no confirmed records nearby".to_owned()),
-            1 => reason(Effect::Supports, "1 confirmed record nearby".to_owned()),
-            n => reason(Effect::Supports, format!("{n} confirmed records nearby")),
-        },
-    )
+    Some(match counts.get(&taxon.scientific_name).copied().unwrap_or(0) {
+        0 => reason(Effect::Neutral, "no confirmed records nearby".to_owned()),
+        1 => reason(Effect::Supports, "1 confirmed record nearby".to_owned()),
+        n => reason(Effect::Supports, format!("{n} confirmed records nearby")),
+    })
 }
 
 /// The weight the record's measurement gives a species: 1 when there is none or it
 /// cannot be compared with the species' maximum.
 pub(crate) fn size_weight(taxon: &Taxon, context: &Context) -> f64 {
     context.measurement.as_ref().map_or(1.0, |measurement| {
-        comparable_cm(measurement, taxon).map_or(1.0, |cm| {
-            size_likelihood(cm / taxon.max_length.cm, measurement.estimated)
-        })
+        comparable_cm(measurement, taxon)
+            .map_or(1.0, |cm| size_likelihood(cm / taxon.max_length.cm, measurement.estimated))
     })
 }
 
@@ -116,43 +102,21 @@ fn size_reason(taxon: &Taxon, context: &Context) -> Option<Reason> {
             ),
         ));
     };
-    let how_measured = if measurement.estimated {
-        "estimated"
-    } else {
-        "measured"
-    };
-    let described = describe_length(
-        how_measured,
-        measurement.kind.words(),
-        measurement.cm,
-        &length,
-    );
+    let how_measured = if measurement.estimated { "estimated" } else { "measured" };
+    let described = describe_length(how_measured, measurement.kind.words(), measurement.cm, &length);
     Some(if length.cm > max.cm {
-        reason(
-            Effect::Against,
-            format!(
-                "{described} is over this species' known maximum of {:.0} cm",
-                max.cm
-            ),
-        )
+        reason(Effect::Against, format!("{described} is over this species' known maximum of {:.0} cm", max.cm))
     } else {
-        reason(
-            Effect::Supports,
-            format!(
-                "{described} is within this species' known maximum of {:.0} cm",
-                max.cm
-            ),
-        )
+        reason(Effect::Supports, format!("{described} is within this species' known maximum of {:.0} cm", max.cm))
     })
 }
 
 fn describe_length(how_measured: &str, kind: &str, cm: f64, length: &ComparableLength) -> String {
     match &length.method {
         ConversionMethod::AsMeasured => format!("{how_measured} {cm:.0} cm"),
-        ConversionMethod::SpeciesEquation { equation, source } => format!(
-            "{how_measured} {kind} {cm:.0} cm (about {:.0} cm total length by {equation}; {source})",
-            length.cm
-        ),
+        ConversionMethod::SpeciesEquation { equation, source } => {
+            format!("{how_measured} {kind} {cm:.0} cm (about {:.0} cm total length by {equation}; {source})", length.cm)
+        }
         ConversionMethod::CommonPractice { equation } => format!(
             "{how_measured} {kind} {cm:.0} cm (about {:.0} cm total length by the generic ratio {equation}, \
              common practice: the checklist has no published equation for this species)",

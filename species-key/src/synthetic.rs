@@ -8,10 +8,7 @@ struct Lcg(u64);
 
 impl Lcg {
     fn below(&mut self, bound: usize) -> usize {
-        self.0 = self
-            .0
-            .wrapping_mul(6364136223846793005)
-            .wrapping_add(1442695040888963407);
+        self.0 = self.0.wrapping_mul(6364136223846793005).wrapping_add(1442695040888963407);
         ((self.0 >> 33) as usize) % bound
     }
 }
@@ -65,4 +62,3 @@ pub fn checklist(species: usize, characters: usize, seed: u64) -> Checklist {
     });
     Checklist::from_json(&file.to_string()).expect("generated checklist is valid")
 }
-

@@ -53,7 +53,15 @@ pub fn build(profile: Profile) -> Result<PathBuf> {
 pub fn build_bench_wasm() -> Result<PathBuf> {
     prerequisites::wasm_target()?;
     check_bindgen_version()?;
-    run::cargo(&["build", "-p", "upload-copy-bench", "--target", "wasm32-unknown-unknown", "--profile", "wasm-release"])?;
+    run::cargo(&[
+        "build",
+        "-p",
+        "upload-copy-bench",
+        "--target",
+        "wasm32-unknown-unknown",
+        "--profile",
+        "wasm-release",
+    ])?;
     let wasm = root().join("target/wasm32-unknown-unknown/wasm-release/upload_copy_bench.wasm");
     let out = root().join("target/bench-wasm");
     fs::create_dir_all(&out)?;
@@ -133,7 +141,8 @@ fn write_service_worker(dist: &Path) -> Result<()> {
 fn report_size(dist: &Path) -> Result<()> {
     let mut files = Vec::new();
     site_files(dist, dist, &mut files)?;
-    let code: Vec<&PathBuf> = files.iter().filter(|(p, _)| p.ends_with(".wasm") || p.ends_with(".js")).map(|(_, f)| f).collect();
+    let code: Vec<&PathBuf> =
+        files.iter().filter(|(p, _)| p.ends_with(".wasm") || p.ends_with(".js")).map(|(_, f)| f).collect();
     let raw: u64 = code.iter().map(|f| fs::metadata(f).map(|m| m.len()).unwrap_or(0)).sum();
     let gzip: usize = code.iter().map(|f| gzip_len(f)).sum();
     eprintln!("xtask: app code (wasm + js) {:.0} KB raw, {:.0} KB gzip -9", raw as f64 / 1024.0, gzip as f64 / 1024.0);
@@ -141,10 +150,5 @@ fn report_size(dist: &Path) -> Result<()> {
 }
 
 fn gzip_len(path: &Path) -> usize {
-    std::process::Command::new("gzip")
-        .arg("-9c")
-        .arg(path)
-        .output()
-        .map(|o| o.stdout.len())
-        .unwrap_or(0)
+    std::process::Command::new("gzip").arg("-9c").arg(path).output().map(|o| o.stdout.len()).unwrap_or(0)
 }

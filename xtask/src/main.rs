@@ -60,7 +60,10 @@ fn test() -> Result<()> {
     prerequisites::all()?;
     let python = prerequisites::python_venv()?;
     let dist = app::build(app::Profile::Release)?;
-    run::cargo_with_env(&["test", "--workspace", "--exclude", "wrackline-app", "--exclude", "upload-copy-bench"], &[("WRACKLINE_PYTHON", &python)])?;
+    run::cargo_with_env(
+        &["test", "--workspace", "--exclude", "wrackline-app", "--exclude", "upload-copy-bench"],
+        &[("WRACKLINE_PYTHON", &python)],
+    )?;
     run::cargo(&["build", "-p", "wrackline-server"])?;
     run::browser_tests(&dist, &root().join("target/debug/wrackline"))?;
     fuzz(&["--seconds".into(), "15".into()])?;

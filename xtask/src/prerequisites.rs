@@ -16,7 +16,6 @@ pub fn all() -> Result<()> {
     npm_packages()
 }
 
-
 /// Adds the wasm32 target unless its standard library is already there.
 pub fn wasm_target() -> Result<()> {
     let output = Command::new("rustc")
@@ -32,7 +31,8 @@ pub fn wasm_target() -> Result<()> {
     }
     let mut command = Command::new("rustup");
     command.args(["target", "add", "wasm32-unknown-unknown"]);
-    run::check(command).context("the wasm32 target is missing; install it with `rustup target add wasm32-unknown-unknown`")
+    run::check(command)
+        .context("the wasm32 target is missing; install it with `rustup target add wasm32-unknown-unknown`")
 }
 
 fn on_path(program: &str) -> bool {
@@ -54,7 +54,8 @@ fn debian_packages() -> Result<()> {
         ("npm", "npm"),
         ("python3", "python3"),
     ];
-    let missing: Vec<&str> = wanted.iter().filter(|(program, _)| !on_path(program)).map(|(_, package)| *package).collect();
+    let missing: Vec<&str> =
+        wanted.iter().filter(|(program, _)| !on_path(program)).map(|(_, package)| *package).collect();
     if missing.is_empty() {
         return Ok(());
     }
@@ -115,10 +116,15 @@ fn make_venv(venv: &Path) -> Result<()> {
         return Ok(());
     }
     if !is_root() {
-        bail!("could not make a Python virtualenv at {}; install python3 and python3-venv (sudo apt-get install -y python3 python3-venv)", venv.display());
+        bail!(
+            "could not make a Python virtualenv at {}; install python3 and python3-venv (sudo apt-get install -y python3 python3-venv)",
+            venv.display()
+        );
     }
     let mut command = Command::new("apt-get");
-    command.args(["install", "-y", "--no-install-recommends", "python3", "python3-venv"]).env("DEBIAN_FRONTEND", "noninteractive");
+    command
+        .args(["install", "-y", "--no-install-recommends", "python3", "python3-venv"])
+        .env("DEBIAN_FRONTEND", "noninteractive");
     run::check(command).context("installing python3-venv; try: apt-get install -y python3 python3-venv")?;
     let _ = std::fs::remove_dir_all(venv);
     attempt().context("making the Python virtualenv after installing python3-venv")

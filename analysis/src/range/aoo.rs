@@ -74,10 +74,7 @@ impl AooGrid {
         if centre.lat().abs() > 80.0 {
             return Err(AooError::CentreTooCloseToPole(centre.lat()));
         }
-        Ok(Self {
-            cell_size_km,
-            centre,
-        })
+        Ok(Self { cell_size_km, centre })
     }
 
     /// The side of one square cell in km.
@@ -97,10 +94,7 @@ impl AooGrid {
         Laea::new(self.centre.lat(), self.centre.lon())
             .forward(point.lat(), point.lon())
             .map(|(x, y)| [x, y])
-            .ok_or(AooError::TooFarFromCentre {
-                lat: point.lat(),
-                lon: point.lon(),
-            })
+            .ok_or(AooError::TooFarFromCentre { lat: point.lat(), lon: point.lon() })
     }
 
     /// The default grid's cell size centred by the documented rule for `positions`
@@ -117,7 +111,13 @@ impl AooGrid {
         let step = |value: f64| (value / CENTRE_STEP_DEGREES).round() * CENTRE_STEP_DEGREES;
         let lat = step(mean.lat()).clamp(-RULE_MAX_LATITUDE, RULE_MAX_LATITUDE);
         let lon = step(mean.lon());
-        let lon = if lon > 180.0 { lon - 360.0 } else if lon <= -180.0 { lon + 360.0 } else { lon };
+        let lon = if lon > 180.0 {
+            lon - 360.0
+        } else if lon <= -180.0 {
+            lon + 360.0
+        } else {
+            lon
+        };
         let centre = LatLon::new(lat, lon).ok()?;
         AooGrid::new(default.cell_size_km, centre).ok()
     }
@@ -136,10 +136,7 @@ impl Default for AooGrid {
     /// 2 km cells on the projection centred on 52° N, 10° E.
     fn default() -> Self {
         let centre = LatLon::new(52.0, 10.0).expect("52 N, 10 E is a valid position");
-        Self {
-            cell_size_km: 2.0,
-            centre,
-        }
+        Self { cell_size_km: 2.0, centre }
     }
 }
 
@@ -193,15 +190,11 @@ pub struct Aoo {
 pub fn aoo(points: &[LatLon], grid: &AooGrid) -> Result<Aoo, AooError> {
     let step_m = grid.cell_size_km * 1000.0 / f64::from(SHIFTS_PER_AXIS);
     let fine_cells = occupied_fine_cells(points, grid, step_m)?;
-    let counts: Vec<([i32; 2], usize)> = origin_shifts()
-        .map(|shift| (shift, cells_with_origin_shift(&fine_cells, shift)))
-        .collect();
+    let counts: Vec<([i32; 2], usize)> =
+        origin_shifts().map(|shift| (shift, cells_with_origin_shift(&fine_cells, shift))).collect();
     let occupied_cells = counts[0].1;
     // `min_by_key` keeps the first of equal minima, so ties go to the smallest shift.
-    let (min_shift, min_occupied_cells) = *counts
-        .iter()
-        .min_by_key(|(_, cells)| *cells)
-        .expect("16 origins");
+    let (min_shift, min_occupied_cells) = *counts.iter().min_by_key(|(_, cells)| *cells).expect("16 origins");
     let cell_area_km2 = grid.cell_size_km * grid.cell_size_km;
     Ok(Aoo {
         grid: *grid,
@@ -224,26 +217,15 @@ fn origin_shifts() -> impl Iterator<Item = [i32; 2]> {
 ///
 /// Every shifted grid's cells are unions of 4 × 4 of these, so the points are projected
 /// and deduplicated once and each shifted count works on the (usually far fewer) cells.
-fn occupied_fine_cells(
-    points: &[LatLon],
-    grid: &AooGrid,
-    step_m: f64,
-) -> Result<Vec<u64>, AooError> {
+fn occupied_fine_cells(points: &[LatLon], grid: &AooGrid, step_m: f64) -> Result<Vec<u64>, AooError> {
     let projection = Laea::new(grid.centre.lat(), grid.centre.lon());
     let mut cells = points
         .iter()
         .map(|p| {
-            let (x, y) =
-                projection
-                    .forward(p.lat(), p.lon())
-                    .ok_or(AooError::TooFarFromCentre {
-                        lat: p.lat(),
-                        lon: p.lon(),
-                    })?;
-            Ok(pack(
-                (x / step_m).floor() as i32,
-                (y / step_m).floor() as i32,
-            ))
+            let (x, y) = projection
+                .forward(p.lat(), p.lon())
+                .ok_or(AooError::TooFarFromCentre { lat: p.lat(), lon: p.lon() })?;
+            Ok(pack((x / step_m).floor() as i32, (y / step_m).floor() as i32))
         })
         .collect::<Result<Vec<_>, _>>()?;
     cells.sort_unstable();

@@ -44,23 +44,9 @@ pub struct Eoo {
 pub fn eoo(points: &[LatLon]) -> Eoo {
     let longitude_frame = narrower_frame(points);
     let hull = hull_in_frame(points, longitude_frame);
-    let corners: Vec<LatLon> = hull
-        .exterior()
-        .coords()
-        .skip(1)
-        .map(|c| to_lat_lon(*c))
-        .collect();
-    let area_km2 = if corners.len() < 3 {
-        0.0
-    } else {
-        hull.geodesic_area_signed().abs() / 1e6
-    };
-    Eoo {
-        area_km2,
-        hull: corners,
-        longitude_frame,
-        point_count: points.len(),
-    }
+    let corners: Vec<LatLon> = hull.exterior().coords().skip(1).map(|c| to_lat_lon(*c)).collect();
+    let area_km2 = if corners.len() < 3 { 0.0 } else { hull.geodesic_area_signed().abs() / 1e6 };
+    Eoo { area_km2, hull: corners, longitude_frame, point_count: points.len() }
 }
 
 /// Geodesic area in km² of the polygon with these corners in order (either winding).
@@ -71,13 +57,7 @@ pub fn polygon_area_km2(corners: &[LatLon]) -> f64 {
     if corners.len() < 3 {
         return 0.0;
     }
-    let ring: LineString = corners
-        .iter()
-        .map(|p| Coord {
-            x: p.lon(),
-            y: p.lat(),
-        })
-        .collect();
+    let ring: LineString = corners.iter().map(|p| Coord { x: p.lon(), y: p.lat() }).collect();
     Polygon::new(ring, vec![]).geodesic_area_signed().abs() / 1e6
 }
 
@@ -89,22 +69,12 @@ fn narrower_frame(points: &[LatLon]) -> LongitudeFrame {
         return LongitudeFrame::Signed;
     }
     let signed = longitude_span(points.iter().map(|p| p.lon()));
-    let positive = longitude_span(
-        points
-            .iter()
-            .map(|p| in_frame(p.lon(), LongitudeFrame::Positive)),
-    );
-    if positive < signed {
-        LongitudeFrame::Positive
-    } else {
-        LongitudeFrame::Signed
-    }
+    let positive = longitude_span(points.iter().map(|p| in_frame(p.lon(), LongitudeFrame::Positive)));
+    if positive < signed { LongitudeFrame::Positive } else { LongitudeFrame::Signed }
 }
 
 fn longitude_span(lons: impl Iterator<Item = f64>) -> f64 {
-    let (min, max) = lons.fold((f64::INFINITY, f64::NEG_INFINITY), |(lo, hi), x| {
-        (lo.min(x), hi.max(x))
-    });
+    let (min, max) = lons.fold((f64::INFINITY, f64::NEG_INFINITY), |(lo, hi), x| (lo.min(x), hi.max(x)));
     max - min
 }
 
@@ -116,19 +86,12 @@ fn in_frame(lon: f64, frame: LongitudeFrame) -> f64 {
 }
 
 fn hull_in_frame(points: &[LatLon], frame: LongitudeFrame) -> Polygon {
-    let planar: MultiPoint = points
-        .iter()
-        .map(|p| Point::new(in_frame(p.lon(), frame), p.lat()))
-        .collect();
+    let planar: MultiPoint = points.iter().map(|p| Point::new(in_frame(p.lon(), frame), p.lat())).collect();
     planar.convex_hull()
 }
 
 /// Turns a hull corner back into a checked position, folding the positive frame back.
 fn to_lat_lon(corner: Coord) -> LatLon {
-    let lon = if corner.x > 180.0 {
-        corner.x - 360.0
-    } else {
-        corner.x
-    };
+    let lon = if corner.x > 180.0 { corner.x - 360.0 } else { corner.x };
     LatLon::new(corner.y, lon).expect("hull corners are input points, so they are in range")
 }

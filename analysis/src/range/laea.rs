@@ -38,16 +38,7 @@ impl Laea {
         let rq = WGS84_A * (qp / 2.0).sqrt();
         let m1 = phi1.cos() / (1.0 - e2 * phi1.sin().powi(2)).sqrt();
         let d = WGS84_A * m1 / (rq * cos_beta1);
-        Self {
-            e,
-            e2,
-            qp,
-            lon0_rad: lon0.to_radians(),
-            sin_beta1,
-            cos_beta1,
-            rq,
-            d,
-        }
+        Self { e, e2, qp, lon0_rad: lon0.to_radians(), sin_beta1, cos_beta1, rq, d }
     }
 
     /// Projects a point to easting and northing in metres from the centre.
@@ -73,8 +64,7 @@ impl Laea {
 /// Snyder's q from sin φ: proportional to the area between the equator and φ.
 fn authalic_q(sin_phi: f64, e: f64, e2: f64) -> f64 {
     let e_sin = e * sin_phi;
-    (1.0 - e2)
-        * (sin_phi / (1.0 - e_sin * e_sin) - ((1.0 - e_sin) / (1.0 + e_sin)).ln() / (2.0 * e))
+    (1.0 - e2) * (sin_phi / (1.0 - e_sin * e_sin) - ((1.0 - e_sin) / (1.0 + e_sin)).ln() / (2.0 * e))
 }
 
 #[cfg(test)]

@@ -44,22 +44,12 @@ pub fn summary(points: &[LatLon], grid: &AooGrid) -> Result<RangeSummary, AooErr
     let eoo_km2 = eoo.area_km2.max(aoo.area_km2);
     let criterion_b = criterion_b(eoo_km2, aoo.area_km2);
     let method = method_text(&eoo, &aoo, eoo_raised_to_aoo);
-    Ok(RangeSummary {
-        eoo,
-        aoo,
-        eoo_km2,
-        eoo_raised_to_aoo,
-        criterion_b,
-        method,
-    })
+    Ok(RangeSummary { eoo, aoo, eoo_km2, eoo_raised_to_aoo, criterion_b, method })
 }
 
 fn method_text(eoo: &Eoo, aoo: &Aoo, eoo_raised_to_aoo: bool) -> String {
     let raised = if eoo_raised_to_aoo {
-        format!(
-            " The hull area ({:.1} km²) is below the AOO, so EOO is reported as the AOO.",
-            eoo.area_km2
-        )
+        format!(" The hull area ({:.1} km²) is below the AOO, so EOO is reported as the AOO.", eoo.area_km2)
     } else {
         String::new()
     };

@@ -34,25 +34,13 @@ impl Design {
         }
         for (row, values) in rows.iter().enumerate() {
             if values.len() != names.len() {
-                return Err(TrendError::RowLength {
-                    row,
-                    expected: names.len(),
-                    got: values.len(),
-                });
+                return Err(TrendError::RowLength { row, expected: names.len(), got: values.len() });
             }
             if let Some(column) = values.iter().position(|v| !v.is_finite()) {
-                return Err(TrendError::NotFinite {
-                    what: "design value",
-                    row,
-                    column: Some(column),
-                });
+                return Err(TrendError::NotFinite { what: "design value", row, column: Some(column) });
             }
         }
-        Ok(Self {
-            names,
-            values: rows.concat(),
-            rows: rows.len(),
-        })
+        Ok(Self { names, values: rows.concat(), rows: rows.len() })
     }
 
     /// The column names, one per coefficient.
@@ -125,9 +113,7 @@ pub fn poisson_glm(design: &Design, counts: &[f64], offsets: &[f64]) -> Result<G
         let beta = weighted_least_squares_step(design, counts, offsets, &fitted)?;
         fitted = means(design, offsets, &beta);
         if fitted.iter().any(|mu| !mu.is_finite() || *mu <= 0.0) {
-            return Err(TrendError::NotConverged {
-                iterations: iteration,
-            });
+            return Err(TrendError::NotConverged { iterations: iteration });
         }
         let previous = deviance;
         deviance = poisson_deviance(counts, &fitted);
@@ -135,40 +121,24 @@ pub fn poisson_glm(design: &Design, counts: &[f64], offsets: &[f64]) -> Result<G
             return finish(design, counts, beta, fitted, deviance, iteration);
         }
     }
-    Err(TrendError::NotConverged {
-        iterations: MAX_ITERATIONS,
-    })
+    Err(TrendError::NotConverged { iterations: MAX_ITERATIONS })
 }
 
 fn check_inputs(design: &Design, counts: &[f64], offsets: &[f64]) -> Result<(), TrendError> {
     let rows = design.rows();
     for (what, got) in [("counts", counts.len()), ("offsets", offsets.len())] {
         if got != rows {
-            return Err(TrendError::LengthMismatch {
-                what,
-                expected: rows,
-                got,
-            });
+            return Err(TrendError::LengthMismatch { what, expected: rows, got });
         }
     }
     if rows < design.columns() {
-        return Err(TrendError::TooFewObservations {
-            rows,
-            columns: design.columns(),
-        });
+        return Err(TrendError::TooFewObservations { rows, columns: design.columns() });
     }
     if let Some(row) = offsets.iter().position(|v| !v.is_finite()) {
-        return Err(TrendError::NotFinite {
-            what: "offset",
-            row,
-            column: None,
-        });
+        return Err(TrendError::NotFinite { what: "offset", row, column: None });
     }
     if let Some(row) = counts.iter().position(|v| !(*v >= 0.0 && v.is_finite())) {
-        return Err(TrendError::NegativeCount {
-            row,
-            value: counts[row],
-        });
+        return Err(TrendError::NegativeCount { row, value: counts[row] });
     }
     if counts.iter().all(|y| *y == 0.0) {
         return Err(TrendError::AllCountsZero);
@@ -207,9 +177,8 @@ fn information_factor(design: &Design, fitted: &[f64]) -> Result<Cholesky, Trend
             }
         }
     }
-    Cholesky::factor(&information, p).map_err(|e| TrendError::DependentColumns {
-        column: design.names[e.column].clone(),
-    })
+    Cholesky::factor(&information, p)
+        .map_err(|e| TrendError::DependentColumns { column: design.names[e.column].clone() })
 }
 
 fn means(design: &Design, offsets: &[f64], beta: &[f64]) -> Vec<f64> {
@@ -223,17 +192,9 @@ fn means(design: &Design, offsets: &[f64], beta: &[f64]) -> Vec<f64> {
 
 fn poisson_deviance(counts: &[f64], fitted: &[f64]) -> f64 {
     let unit = |y: f64, mu: f64| {
-        if y > 0.0 {
-            y * (y / mu).ln() - (y - mu)
-        } else {
-            mu
-        }
+        if y > 0.0 { y * (y / mu).ln() - (y - mu) } else { mu }
     };
-    2.0 * counts
-        .iter()
-        .zip(fitted)
-        .map(|(y, mu)| unit(*y, *mu))
-        .sum::<f64>()
+    2.0 * counts.iter().zip(fitted).map(|(y, mu)| unit(*y, *mu)).sum::<f64>()
 }
 
 fn finish(
@@ -245,11 +206,7 @@ fn finish(
     iterations: usize,
 ) -> Result<GlmFit, TrendError> {
     let variances = information_factor(design, &fitted)?.inverse_diagonal();
-    let pearson_chi2: f64 = counts
-        .iter()
-        .zip(&fitted)
-        .map(|(y, mu)| (y - mu).powi(2) / mu)
-        .sum();
+    let pearson_chi2: f64 = counts.iter().zip(&fitted).map(|(y, mu)| (y - mu).powi(2) / mu).sum();
     let df_residual = design.rows() - design.columns();
     let dispersion = (df_residual > 0).then(|| pearson_chi2 / df_residual as f64);
     let coefficients = design
@@ -269,13 +226,5 @@ fn finish(
             }
         })
         .collect();
-    Ok(GlmFit {
-        coefficients,
-        deviance,
-        pearson_chi2,
-        df_residual,
-        dispersion,
-        fitted,
-        iterations,
-    })
+    Ok(GlmFit { coefficients, deviance, pearson_chi2, df_residual, dispersion, fitted, iterations })
 }

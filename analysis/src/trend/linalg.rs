@@ -27,9 +27,7 @@ impl Cholesky {
         let mut lower = vec![0.0; size * size];
         for i in 0..size {
             for j in 0..=i {
-                let dot: f64 = (0..j)
-                    .map(|k| lower[i * size + k] * lower[j * size + k])
-                    .sum();
+                let dot: f64 = (0..j).map(|k| lower[i * size + k] * lower[j * size + k]).sum();
                 let value = a[i * size + j] - dot;
                 if i == j {
                     if value.is_nan() || value <= RELATIVE_PIVOT_TOLERANCE * a[i * size + i] {
@@ -65,9 +63,7 @@ impl Cholesky {
     pub(crate) fn inverse_diagonal(&self) -> Vec<f64> {
         (0..self.size)
             .map(|j| {
-                let unit: Vec<f64> = (0..self.size)
-                    .map(|i| if i == j { 1.0 } else { 0.0 })
-                    .collect();
+                let unit: Vec<f64> = (0..self.size).map(|i| if i == j { 1.0 } else { 0.0 }).collect();
                 self.solve(&unit)[j]
             })
             .collect()
@@ -85,10 +81,7 @@ mod tests {
         let x = chol.solve(&[2.0, 1.0]);
         assert!((x[0] - 0.5).abs() < 1e-12 && x[1].abs() < 1e-12, "{x:?}");
         let d = chol.inverse_diagonal();
-        assert!(
-            (d[0] - 0.375).abs() < 1e-12 && (d[1] - 0.5).abs() < 1e-12,
-            "{d:?}"
-        );
+        assert!((d[0] - 0.375).abs() < 1e-12 && (d[1] - 0.5).abs() < 1e-12, "{d:?}");
     }
 
     #[test]

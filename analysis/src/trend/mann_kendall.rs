@@ -61,25 +61,13 @@ pub fn mann_kendall_with_times(times: &[f64], values: &[f64]) -> Result<MannKend
 
 fn check_series(times: &[f64], values: &[f64]) -> Result<(), TrendError> {
     if times.len() != values.len() {
-        return Err(TrendError::LengthMismatch {
-            what: "times",
-            expected: values.len(),
-            got: times.len(),
-        });
+        return Err(TrendError::LengthMismatch { what: "times", expected: values.len(), got: times.len() });
     }
     if let Some(row) = values.iter().position(|v| !v.is_finite()) {
-        return Err(TrendError::NotFinite {
-            what: "series value",
-            row,
-            column: None,
-        });
+        return Err(TrendError::NotFinite { what: "series value", row, column: None });
     }
     if let Some(row) = times.iter().position(|t| !t.is_finite()) {
-        return Err(TrendError::NotFinite {
-            what: "time",
-            row,
-            column: None,
-        });
+        return Err(TrendError::NotFinite { what: "time", row, column: None });
     }
     if let Some(row) = times.windows(2).position(|w| w[1] <= w[0]) {
         return Err(TrendError::TimesNotIncreasing { row: row + 1 });
@@ -115,10 +103,7 @@ fn tie_corrected_variance(values: &[f64]) -> f64 {
     };
     let mut sorted = values.to_vec();
     sorted.sort_by(f64::total_cmp);
-    let ties: f64 = sorted
-        .chunk_by(|a, b| a == b)
-        .map(|group| term(group.len()))
-        .sum();
+    let ties: f64 = sorted.chunk_by(|a, b| a == b).map(|group| term(group.len())).sum();
     (term(values.len()) - ties) / 18.0
 }
 
@@ -147,9 +132,5 @@ fn median(values: &mut [f64]) -> Option<f64> {
     }
     values.sort_by(f64::total_cmp);
     let mid = values.len() / 2;
-    Some(if values.len() % 2 == 1 {
-        values[mid]
-    } else {
-        (values[mid - 1] + values[mid]) / 2.0
-    })
+    Some(if values.len() % 2 == 1 { values[mid] } else { (values[mid - 1] + values[mid]) / 2.0 })
 }

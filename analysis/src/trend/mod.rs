@@ -228,10 +228,7 @@ pub struct TrendSummary {
 }
 
 /// Fits the encounter-rate trend of `data` and projects it over the assessment window.
-pub fn yearly_trend(
-    data: &[YearCount],
-    generation_length_years: f64,
-) -> Result<TrendSummary, TrendError> {
+pub fn yearly_trend(data: &[YearCount], generation_length_years: f64) -> Result<TrendSummary, TrendError> {
     let data = checked_years(data, generation_length_years)?;
     let fit = fit_year_trend(&data)?;
     let slope = &fit.coefficients[1];
@@ -275,21 +272,12 @@ pub fn assessment_window_years(generation_length_years: f64) -> f64 {
 }
 
 /// Validates the yearly data and returns it sorted by year.
-fn checked_years(
-    data: &[YearCount],
-    generation_length_years: f64,
-) -> Result<Vec<YearCount>, TrendError> {
+fn checked_years(data: &[YearCount], generation_length_years: f64) -> Result<Vec<YearCount>, TrendError> {
     if !(generation_length_years > 0.0 && generation_length_years.is_finite()) {
         return Err(TrendError::InvalidGenerationLength(generation_length_years));
     }
-    if let Some(bad) = data
-        .iter()
-        .find(|d| !(d.effort > 0.0 && d.effort.is_finite()))
-    {
-        return Err(TrendError::EffortNotPositive {
-            year: bad.year,
-            effort: bad.effort,
-        });
+    if let Some(bad) = data.iter().find(|d| !(d.effort > 0.0 && d.effort.is_finite())) {
+        return Err(TrendError::EffortNotPositive { year: bad.year, effort: bad.effort });
     }
     let mut sorted = data.to_vec();
     sorted.sort_by_key(|d| d.year);
@@ -308,10 +296,7 @@ fn checked_years(
 /// information matrix well conditioned; the slope is unchanged by it.
 fn fit_year_trend(data: &[YearCount]) -> Result<GlmFit, TrendError> {
     let mean_year = data.iter().map(|d| f64::from(d.year)).sum::<f64>() / data.len() as f64;
-    let rows: Vec<Vec<f64>> = data
-        .iter()
-        .map(|d| vec![1.0, f64::from(d.year) - mean_year])
-        .collect();
+    let rows: Vec<Vec<f64>> = data.iter().map(|d| vec![1.0, f64::from(d.year) - mean_year]).collect();
     let design = Design::new(vec!["intercept".into(), "year".into()], &rows)?;
     let counts: Vec<f64> = data.iter().map(|d| d.count as f64).collect();
     let offsets: Vec<f64> = data.iter().map(|d| d.effort.ln()).collect();

@@ -49,10 +49,7 @@ pub struct ProjectedPoint {
 
 impl PointSet {
     pub fn lat_lons(&self) -> Vec<LatLon> {
-        self.points
-            .iter()
-            .map(|[lat, lon]| LatLon::new(*lat, *lon).unwrap())
-            .collect()
+        self.points.iter().map(|[lat, lon]| LatLon::new(*lat, *lon).unwrap()).collect()
     }
 
     pub fn grid(&self) -> analysis::range::AooGrid {
@@ -61,19 +58,11 @@ impl PointSet {
     }
 
     pub fn fixed_grid_cells(&self) -> usize {
-        self.aoo_cells_by_shift
-            .iter()
-            .find(|c| c.east_quarters == 0 && c.north_quarters == 0)
-            .unwrap()
-            .cells
+        self.aoo_cells_by_shift.iter().find(|c| c.east_quarters == 0 && c.north_quarters == 0).unwrap().cells
     }
 
     pub fn min_cells(&self) -> usize {
-        self.aoo_cells_by_shift
-            .iter()
-            .map(|c| c.cells)
-            .min()
-            .unwrap()
+        self.aoo_cells_by_shift.iter().map(|c| c.cells).min().unwrap()
     }
 }
 
@@ -82,11 +71,7 @@ pub fn range() -> RangeFixture {
 }
 
 pub fn point_set(name: &str) -> PointSet {
-    range()
-        .sets
-        .into_iter()
-        .find(|s| s.name == name)
-        .unwrap_or_else(|| panic!("no point set {name}"))
+    range().sets.into_iter().find(|s| s.name == name).unwrap_or_else(|| panic!("no point set {name}"))
 }
 
 #[derive(Deserialize)]

@@ -7,10 +7,7 @@ use analysis::range::polygon_area_km2;
 use crate::assert_close;
 
 fn ring(corners: &[(f64, f64)]) -> Vec<LatLon> {
-    corners
-        .iter()
-        .map(|&(lat, lon)| LatLon::new(lat, lon).unwrap())
-        .collect()
+    corners.iter().map(|&(lat, lon)| LatLon::new(lat, lon).unwrap()).collect()
 }
 
 #[test]
@@ -23,12 +20,7 @@ fn diamond_about_the_origin_matches_geographiclib() {
 #[test]
 fn square_round_the_pole_matches_geographiclib() {
     // GeographicLib: (89,0) (89,90) (89,180) (89,270) → area 24952305678.0 m² (270° = −90°).
-    let area = polygon_area_km2(&ring(&[
-        (89.0, 0.0),
-        (89.0, 90.0),
-        (89.0, 180.0),
-        (89.0, -90.0),
-    ]));
+    let area = polygon_area_km2(&ring(&[(89.0, 0.0), (89.0, 90.0), (89.0, 180.0), (89.0, -90.0)]));
     assert_close("polar square area km²", area, 24_952_305_678.0 / 1e6, 1e-9);
 }
 
@@ -44,10 +36,5 @@ fn winding_does_not_change_the_area() {
     // Common practice: an unsigned area is the same for either winding of a small ring.
     let anticlockwise = ring(&[(0.0, -1.0), (-1.0, 0.0), (0.0, 1.0), (1.0, 0.0)]);
     let clockwise: Vec<LatLon> = anticlockwise.iter().rev().copied().collect();
-    assert_close(
-        "reversed ring",
-        polygon_area_km2(&clockwise),
-        polygon_area_km2(&anticlockwise),
-        1e-12,
-    );
+    assert_close("reversed ring", polygon_area_km2(&clockwise), polygon_area_km2(&anticlockwise), 1e-12);
 }

@@ -12,11 +12,7 @@ fn worked_series_with_ties_gives_the_published_values() {
     assert_eq!(result.s, -29);
     assert_eq!(result.var_s, 121.0);
     assert!((result.z - -2.545455).abs() < 1e-6, "Z {}", result.z);
-    assert!(
-        (result.p_value - 0.010914).abs() < 1e-6,
-        "p {}",
-        result.p_value
-    );
+    assert!((result.p_value - 0.010914).abs() < 1e-6, "p {}", result.p_value);
     assert_eq!(result.sen_slope, Some(-0.5));
 }
 
@@ -27,25 +23,10 @@ fn generated_series_match_scipy() {
     for series in fixtures::trend().mann_kendall {
         let result = mann_kendall_with_times(&series.times, &series.values).unwrap();
         assert_eq!(result.s, series.s, "{} S", series.name);
-        assert_close(
-            &format!("{} Var(S)", series.name),
-            result.var_s,
-            series.var_s,
-            1e-9,
-        );
+        assert_close(&format!("{} Var(S)", series.name), result.var_s, series.var_s, 1e-9);
         assert_close(&format!("{} Z", series.name), result.z, series.z, 1e-9);
-        assert_close(
-            &format!("{} p", series.name),
-            result.p_value,
-            series.p_value,
-            1e-7,
-        );
-        assert_close(
-            &format!("{} Sen", series.name),
-            result.sen_slope.unwrap(),
-            series.sen_slope,
-            1e-12,
-        );
+        assert_close(&format!("{} p", series.name), result.p_value, series.p_value, 1e-7);
+        assert_close(&format!("{} Sen", series.name), result.sen_slope.unwrap(), series.sen_slope, 1e-12);
     }
 }
 
@@ -53,10 +34,7 @@ fn generated_series_match_scipy() {
 fn constant_and_short_series_show_no_trend() {
     // Common practice: with no variation S = 0 and the test cannot reject no trend.
     let flat = mann_kendall(&[3.0; 6]).unwrap();
-    assert_eq!(
-        (flat.s, flat.z, flat.p_value, flat.sen_slope),
-        (0, 0.0, 1.0, Some(0.0))
-    );
+    assert_eq!((flat.s, flat.z, flat.p_value, flat.sen_slope), (0, 0.0, 1.0, Some(0.0)));
     let single = mann_kendall(&[3.0]).unwrap();
     assert_eq!((single.s, single.p_value, single.sen_slope), (0, 1.0, None));
 }
@@ -64,13 +42,7 @@ fn constant_and_short_series_show_no_trend() {
 #[test]
 fn unordered_times_and_missing_values_are_refused() {
     let err = mann_kendall_with_times(&[2000.0, 2002.0, 2001.0], &[1.0, 2.0, 3.0]).unwrap_err();
-    assert_eq!(
-        err.to_string(),
-        "times must increase strictly, but value 2 is not later than the one before"
-    );
+    assert_eq!(err.to_string(), "times must increase strictly, but value 2 is not later than the one before");
     let err = mann_kendall(&[1.0, f64::NAN]).unwrap_err();
-    assert_eq!(
-        err.to_string(),
-        "series value in row 1 is not a finite number"
-    );
+    assert_eq!(err.to_string(), "series value in row 1 is not a finite number");
 }

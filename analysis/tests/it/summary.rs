@@ -15,11 +15,7 @@ fn eoo_smaller_than_aoo_is_raised_to_aoo_and_both_are_kept() {
     assert!(result.eoo_raised_to_aoo);
     assert_eq!(result.eoo_km2, aoo_km2);
     assert!((result.eoo.area_km2 - set.eoo_km2).abs() < 1e-3 * set.eoo_km2);
-    assert!(
-        result.method.contains("reported as the AOO"),
-        "{}",
-        result.method
-    );
+    assert!(result.method.contains("reported as the AOO"), "{}", result.method);
 }
 
 #[test]

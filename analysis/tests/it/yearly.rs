@@ -2,20 +2,14 @@
 //! extrapolation from the IUCN Guidelines, and the errors a caller can make.
 
 use analysis::trend::{
-    ErrorModel, OVERDISPERSION_THRESHOLD, TrendError, YearCount, assessment_window_years,
-    yearly_trend,
+    ErrorModel, OVERDISPERSION_THRESHOLD, TrendError, YearCount, assessment_window_years, yearly_trend,
 };
 
 use crate::{assert_close, fixtures};
 
 fn years_of(series: &fixtures::YearlySeries) -> Vec<YearCount> {
     let rows = series.years.iter().zip(&series.counts).zip(&series.effort);
-    rows.map(|((&year, &count), &effort)| YearCount {
-        year,
-        count,
-        effort,
-    })
-    .collect()
+    rows.map(|((&year, &count), &effort)| YearCount { year, count, effort }).collect()
 }
 
 #[test]
@@ -33,36 +27,20 @@ fn slope_and_its_error_match_statsmodels_with_the_documented_error_model() {
             (ErrorModel::Poisson, s.fit.bse[1])
         };
         assert_eq!(result.error_model, model, "{} error model", s.name);
-        assert_close(
-            &format!("{} slope", s.name),
-            result.slope_per_year,
-            s.fit.params[1],
-            1e-7,
-        );
-        assert_close(
-            &format!("{} slope SE", s.name),
-            result.slope_std_error,
-            se,
-            1e-6,
-        );
+        assert_close(&format!("{} slope", s.name), result.slope_per_year, s.fit.params[1], 1e-7);
+        assert_close(&format!("{} slope SE", s.name), result.slope_std_error, se, 1e-6);
         crate::glm::check_against_statsmodels(&s.name, &result.fit, &s.fit);
         let expected = (s.fit.params[1]).exp() - 1.0;
-        assert_close(
-            &format!("{} annual change", s.name),
-            result.annual_change.estimate,
-            expected,
-            1e-7,
-        );
+        assert_close(&format!("{} annual change", s.name), result.annual_change.estimate, expected, 1e-7);
         // statsmodels' conf_int: normal with the Poisson scale, Student's t on the
         // residual degrees of freedom with the estimated (Pearson) scale and use_t=True.
         let [lower, upper] = match model {
             ErrorModel::Poisson => s.fit.conf_int_95[1],
             ErrorModel::QuasiPoisson => s.fit.conf_int_95_scaled_t[1],
         };
-        for (what, got, slope) in [
-            ("lower", result.annual_change.lower, lower),
-            ("upper", result.annual_change.upper, upper),
-        ] {
+        for (what, got, slope) in
+            [("lower", result.annual_change.lower, lower), ("upper", result.annual_change.upper, upper)]
+        {
             assert_close(&format!("{} annual {what}", s.name), got, slope.exp() - 1.0, 1e-6);
         }
         models.push(result.error_model);
@@ -79,7 +57,12 @@ fn five_overdispersed_years_get_the_wider_t_interval() {
     assert_eq!(result.error_model, ErrorModel::QuasiPoisson);
     assert_eq!((result.interval.distribution.as_str(), result.interval.degrees_of_freedom), ("t", Some(3)));
     let [lower, upper] = series.fit.conf_int_95_scaled_t[1];
-    assert_close("slope interval half-width", result.interval.quantile * result.slope_std_error, (upper - lower) / 2.0, 1e-7);
+    assert_close(
+        "slope interval half-width",
+        result.interval.quantile * result.slope_std_error,
+        (upper - lower) / 2.0,
+        1e-7,
+    );
     assert_close("annual lower", result.annual_change.lower, lower.exp() - 1.0, 1e-7);
     let normal_upper = (series.fit.params[1] + 1.959963984540054 * result.slope_std_error).exp() - 1.0;
     assert!(result.annual_change.upper > normal_upper + 1e-3, "wider than the normal interval");
@@ -94,31 +77,16 @@ fn a_fifth_lost_per_decade_is_about_half_over_three_generations() {
         .map(|i| {
             let effort = 1e6;
             let count = (effort * 0.8_f64.powf(f64::from(i) / 10.0)).round() as u64;
-            YearCount {
-                year: 2010 + i,
-                count,
-                effort,
-            }
+            YearCount { year: 2010 + i, count, effort }
         })
         .collect();
     let result = yearly_trend(&data, 10.0).unwrap();
     assert_eq!(result.window_years, 30.0);
-    assert_close(
-        "30-year change",
-        result.window_change.estimate,
-        -0.488,
-        1e-4,
-    );
+    assert_close("30-year change", result.window_change.estimate, -0.488, 1e-4);
     assert!(result.window_change.lower < result.window_change.estimate);
     assert!(result.window_change.upper > result.window_change.estimate);
-    assert!(
-        result.window_exceeds_data,
-        "11 years of data for a 30-year window"
-    );
-    assert_eq!(
-        result.criterion_a.a2_to_a4_band,
-        Some(analysis::criteria::Category::Vulnerable)
-    );
+    assert!(result.window_exceeds_data, "11 years of data for a 30-year window");
+    assert_eq!(result.criterion_a.a2_to_a4_band, Some(analysis::criteria::Category::Vulnerable));
     assert!(result.text.contains("-48.8%"), "{}", result.text);
     assert!(result.text.contains("beyond them"), "{}", result.text);
 }
@@ -134,52 +102,23 @@ fn window_is_the_longer_of_ten_years_and_three_generations() {
 #[test]
 fn mann_kendall_runs_on_yearly_rates() {
     // Gilbert 1987: a strictly falling rate has S = −n(n−1)/2.
-    let data: Vec<YearCount> = (0..8)
-        .map(|i| YearCount {
-            year: 2015 + i,
-            count: 100 - 10 * i as u64,
-            effort: 10.0,
-        })
-        .collect();
+    let data: Vec<YearCount> =
+        (0..8).map(|i| YearCount { year: 2015 + i, count: 100 - 10 * i as u64, effort: 10.0 }).collect();
     let result = yearly_trend(&data, 3.0).unwrap();
     assert_eq!(result.mann_kendall.s, -28);
-    assert_close(
-        "Sen slope of rates",
-        result.mann_kendall.sen_slope.unwrap(),
-        -1.0,
-        1e-12,
-    );
+    assert_close("Sen slope of rates", result.mann_kendall.sen_slope.unwrap(), -1.0, 1e-12);
 }
 
 #[test]
 fn bad_yearly_data_is_refused_with_what_is_wrong() {
-    let year = |year, count, effort| YearCount {
-        year,
-        count,
-        effort,
-    };
+    let year = |year, count, effort| YearCount { year, count, effort };
     let good = [year(2018, 3, 10.0), year(2019, 4, 12.0), year(2020, 2, 9.0)];
     let err = yearly_trend(&[good[0], year(2019, 4, 0.0), good[2]], 5.0).unwrap_err();
-    assert_eq!(
-        err.to_string(),
-        "effort must be positive in year 2019, got 0"
-    );
-    assert_eq!(
-        yearly_trend(&[good[0], good[1], good[1]], 5.0).unwrap_err(),
-        TrendError::DuplicateYear(2019)
-    );
-    assert_eq!(
-        yearly_trend(&good[..2], 5.0).unwrap_err(),
-        TrendError::TooFewYears(2)
-    );
+    assert_eq!(err.to_string(), "effort must be positive in year 2019, got 0");
+    assert_eq!(yearly_trend(&[good[0], good[1], good[1]], 5.0).unwrap_err(), TrendError::DuplicateYear(2019));
+    assert_eq!(yearly_trend(&good[..2], 5.0).unwrap_err(), TrendError::TooFewYears(2));
     let err = yearly_trend(&good, -1.0).unwrap_err();
-    assert_eq!(
-        err.to_string(),
-        "generation length must be a positive number of years, got -1"
-    );
+    assert_eq!(err.to_string(), "generation length must be a positive number of years, got -1");
     let none = [year(2018, 0, 10.0), year(2019, 0, 12.0), year(2020, 0, 9.0)];
-    assert_eq!(
-        yearly_trend(&none, 5.0).unwrap_err(),
-        TrendError::AllCountsZero
-    );
+    assert_eq!(yearly_trend(&none, 5.0).unwrap_err(), TrendError::AllCountsZero);
 }

@@ -81,19 +81,45 @@ pub fn trend_chart(title: &str, years: &[YearCount], trend: &TrendSummary) -> St
     for i in 0..=ticks {
         let rate = tick_step * f64::from(i);
         let y = py(rate);
-        let _ = writeln!(svg, "<line x1=\"{LEFT}\" x2=\"{:.1}\" y1=\"{y:.1}\" y2=\"{y:.1}\" stroke=\"#e2ded2\"/><text x=\"{:.1}\" y=\"{:.1}\" text-anchor=\"end\" fill=\"#4a5561\">{}</text>", LEFT + plot_w, LEFT - 6.0, y + 4.0, tick(rate));
+        let _ = writeln!(
+            svg,
+            "<line x1=\"{LEFT}\" x2=\"{:.1}\" y1=\"{y:.1}\" y2=\"{y:.1}\" stroke=\"#e2ded2\"/><text x=\"{:.1}\" y=\"{:.1}\" text-anchor=\"end\" fill=\"#4a5561\">{}</text>",
+            LEFT + plot_w,
+            LEFT - 6.0,
+            y + 4.0,
+            tick(rate)
+        );
     }
     let step = ((last - first) / 10.0).ceil().max(1.0) as i32;
     for year in (trend.first_year..=trend.last_year).step_by(step as usize) {
-        let _ = writeln!(svg, "<text x=\"{:.1}\" y=\"{:.1}\" text-anchor=\"middle\" fill=\"#4a5561\">{year}</text>", px(f64::from(year)), TOP + plot_h + 18.0);
+        let _ = writeln!(
+            svg,
+            "<text x=\"{:.1}\" y=\"{:.1}\" text-anchor=\"middle\" fill=\"#4a5561\">{year}</text>",
+            px(f64::from(year)),
+            TOP + plot_h + 18.0
+        );
     }
     let upper: Vec<String> = band.iter().map(|b| format!("{:.1},{:.1}", px(b.0), py(b.3))).collect();
     let lower: Vec<String> = band.iter().rev().map(|b| format!("{:.1},{:.1}", px(b.0), py(b.2))).collect();
-    let _ = writeln!(svg, "<polygon points=\"{} {}\" fill=\"#3d7a6b\" fill-opacity=\"0.18\" stroke=\"none\"/>", upper.join(" "), lower.join(" "));
+    let _ = writeln!(
+        svg,
+        "<polygon points=\"{} {}\" fill=\"#3d7a6b\" fill-opacity=\"0.18\" stroke=\"none\"/>",
+        upper.join(" "),
+        lower.join(" ")
+    );
     let line: Vec<String> = band.iter().map(|b| format!("{:.1},{:.1}", px(b.0), py(b.1))).collect();
-    let _ = writeln!(svg, "<polyline points=\"{}\" fill=\"none\" stroke=\"#2c5e52\" stroke-width=\"2.2\"/>", line.join(" "));
+    let _ = writeln!(
+        svg,
+        "<polyline points=\"{}\" fill=\"none\" stroke=\"#2c5e52\" stroke-width=\"2.2\"/>",
+        line.join(" ")
+    );
     for (year, rate) in &rates {
-        let _ = writeln!(svg, "<circle cx=\"{:.1}\" cy=\"{:.1}\" r=\"4\" fill=\"#c8553d\" stroke=\"#fff\" stroke-width=\"1.2\"/>", px(*year), py(*rate));
+        let _ = writeln!(
+            svg,
+            "<circle cx=\"{:.1}\" cy=\"{:.1}\" r=\"4\" fill=\"#c8553d\" stroke=\"#fff\" stroke-width=\"1.2\"/>",
+            px(*year),
+            py(*rate)
+        );
     }
     let percent = |x: f64| format!("{:+.1}%", 100.0 * x);
     let summary = format!(
@@ -132,7 +158,13 @@ fn nice_step(rough: f64) -> f64 {
 }
 
 fn tick(value: f64) -> String {
-    if value >= 10.0 { format!("{value:.0}") } else if value >= 1.0 { format!("{value:.1}") } else { format!("{value:.2}") }
+    if value >= 10.0 {
+        format!("{value:.0}")
+    } else if value >= 1.0 {
+        format!("{value:.1}")
+    } else {
+        format!("{value:.2}")
+    }
 }
 
 #[cfg(test)]
@@ -141,7 +173,11 @@ mod tests {
     use analysis::trend::yearly_trend;
 
     fn years(counts: &[u64]) -> Vec<YearCount> {
-        counts.iter().enumerate().map(|(i, &count)| YearCount { year: 2010 + i as i32, count, effort: 3.0 + i as f64 }).collect()
+        counts
+            .iter()
+            .enumerate()
+            .map(|(i, &count)| YearCount { year: 2010 + i as i32, count, effort: 3.0 + i as f64 })
+            .collect()
     }
 
     #[test]
@@ -153,7 +189,10 @@ mod tests {
             let trend = yearly_trend(&data, 5.0).unwrap();
             let mean = data.iter().map(|y| f64::from(y.year)).sum::<f64>() / data.len() as f64;
             let [_, _, var_slope] = covariance(&data, &trend, mean);
-            assert!((var_slope.sqrt() - trend.slope_std_error).abs() < 1e-9 * trend.slope_std_error.max(1.0), "{counts:?}");
+            assert!(
+                (var_slope.sqrt() - trend.slope_std_error).abs() < 1e-9 * trend.slope_std_error.max(1.0),
+                "{counts:?}"
+            );
         }
     }
 

@@ -49,9 +49,11 @@ impl Period {
     /// Reads `2015-2019` (whole years, inclusive) or `2015` (one year).
     pub fn parse_years(text: &str) -> Result<Self, String> {
         let year = |t: &str| {
-            t.trim().parse::<i32>().ok().filter(|y| (1000..=9999).contains(y)).ok_or_else(|| {
-                format!("`{text}` is not a period of years; write it as 2015-2019 or 2015")
-            })
+            t.trim()
+                .parse::<i32>()
+                .ok()
+                .filter(|y| (1000..=9999).contains(y))
+                .ok_or_else(|| format!("`{text}` is not a period of years; write it as 2015-2019 or 2015"))
         };
         let (first, last) = match text.split_once('-') {
             Some((a, b)) => (year(a)?, year(b)?),
@@ -87,14 +89,16 @@ fn partial(text: &str) -> Result<DateSpan, String> {
     let date_part = text.split('T').next().unwrap_or_default();
     let parts: Vec<&str> = date_part.split('-').collect();
     let number = |t: &str| t.parse::<u32>().map_err(|_| bad());
-    let year = parts.first().filter(|y| y.len() == 4).ok_or_else(bad).and_then(|y| y.parse::<i32>().map_err(|_| bad()))?;
+    let year =
+        parts.first().filter(|y| y.len() == 4).ok_or_else(bad).and_then(|y| y.parse::<i32>().map_err(|_| bad()))?;
     let day = |m: u32, d: u32| NaiveDate::from_ymd_opt(year, m, d).ok_or_else(bad);
     match parts.as_slice() {
         [_] => Ok(DateSpan { first: day(1, 1)?, last: day(12, 31)? }),
         [_, m] => {
             let m = number(m)?;
             let first = day(m, 1)?;
-            let next = if m == 12 { NaiveDate::from_ymd_opt(year + 1, 1, 1) } else { NaiveDate::from_ymd_opt(year, m + 1, 1) };
+            let next =
+                if m == 12 { NaiveDate::from_ymd_opt(year + 1, 1, 1) } else { NaiveDate::from_ymd_opt(year, m + 1, 1) };
             Ok(DateSpan { first, last: next.ok_or_else(bad)?.pred_opt().ok_or_else(bad)? })
         }
         [_, m, d] => {

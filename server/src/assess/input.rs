@@ -77,7 +77,10 @@ pub fn read_file(path: &Path) -> Result<Vec<PointRecord>, InputError> {
 }
 
 /// Stored organisms whose review state passes `states` (`None`: any state).
-pub fn read_store(conn: &rusqlite::Connection, states: Option<Vec<ReviewState>>) -> Result<Vec<PointRecord>, StoreError> {
+pub fn read_store(
+    conn: &rusqlite::Connection,
+    states: Option<Vec<ReviewState>>,
+) -> Result<Vec<PointRecord>, StoreError> {
     let filter = RowFilter { states, ..RowFilter::default() };
     let mut records = Vec::new();
     occurrences::for_each(conn, &filter, false, |row: OccurrenceRow| -> Result<(), StoreError> {
@@ -152,7 +155,15 @@ impl Columns {
 
     /// The columns, given where the coordinates are and how to find the optional terms.
     fn located(latitude: Source, longitude: Source, find: impl Fn(&str) -> Option<Source>, names: Vec<String>) -> Self {
-        Self { latitude, longitude, name: find(NAME), date: find(DATE), count: find(COUNT), status: find(STATUS), names }
+        Self {
+            latitude,
+            longitude,
+            name: find(NAME),
+            date: find(DATE),
+            count: find(COUNT),
+            status: find(STATUS),
+            names,
+        }
     }
 }
 
@@ -192,14 +203,20 @@ impl Cells<'_> {
 
     fn number(&self, source: &Source) -> Result<Option<f64>, InputError> {
         self.text(source)
-            .map(|t| t.parse::<f64>().ok().filter(|v| v.is_finite()).ok_or_else(|| self.error(source, format!("`{t}` is not a number"))))
+            .map(|t| {
+                t.parse::<f64>()
+                    .ok()
+                    .filter(|v| v.is_finite())
+                    .ok_or_else(|| self.error(source, format!("`{t}` is not a number")))
+            })
             .transpose()
     }
 
     /// Whether the row records that nothing was found (see [`ABSENT_STATUSES`]).
     fn is_absence(&self) -> Result<bool, InputError> {
         let c = self.columns;
-        let status = c.status.as_ref().and_then(|s| self.text(s)).map(|t| t.to_lowercase().replace([' ', '_', '-'], ""));
+        let status =
+            c.status.as_ref().and_then(|s| self.text(s)).map(|t| t.to_lowercase().replace([' ', '_', '-'], ""));
         if status.is_some_and(|s| ABSENT_STATUSES.contains(&s.as_str())) {
             return Ok(true);
         }
@@ -209,7 +226,9 @@ impl Cells<'_> {
     fn count(&self) -> Result<u64, InputError> {
         match &self.columns.count {
             Some(source) => match self.text(source) {
-                Some(t) => t.parse::<u64>().map_err(|_| self.error(source, format!("`{t}` is not a whole number of animals"))),
+                Some(t) => {
+                    t.parse::<u64>().map_err(|_| self.error(source, format!("`{t}` is not a whole number of animals")))
+                }
                 None => Ok(1),
             },
             None => Ok(1),
@@ -228,10 +247,18 @@ impl Cells<'_> {
             (None, Some(_)) => return Err(self.error(&c.latitude, "a longitude is given but no latitude".into())),
         };
         let when = match &c.date {
-            Some(source) => self.text(source).map(|t| DateSpan::parse(&t).map_err(|m| self.error(source, m))).transpose()?,
+            Some(source) => {
+                self.text(source).map(|t| DateSpan::parse(&t).map_err(|m| self.error(source, m))).transpose()?
+            }
             None => None,
         };
-        Ok(PointRecord { name: c.name.as_ref().and_then(|s| self.text(s)), position, when, count: self.count()?, walk_client_id: None })
+        Ok(PointRecord {
+            name: c.name.as_ref().and_then(|s| self.text(s)),
+            position,
+            when,
+            count: self.count()?,
+            walk_client_id: None,
+        })
     }
 }
 
@@ -266,7 +293,12 @@ fn read_rows<R: Read>(reader: csv::Reader<R>, file: &str, columns: &Columns) -> 
 
 /// Reads presences, skipping absences; with `link`, a row without a position or date
 /// takes its event's.
-fn read_linked_rows<R: Read>(mut reader: csv::Reader<R>, file: &str, columns: &Columns, link: Option<EventLink>) -> Result<Vec<PointRecord>, InputError> {
+fn read_linked_rows<R: Read>(
+    mut reader: csv::Reader<R>,
+    file: &str,
+    columns: &Columns,
+    link: Option<EventLink>,
+) -> Result<Vec<PointRecord>, InputError> {
     let mut records = Vec::new();
     let mut row = csv::StringRecord::new();
     while reader.read_record(&mut row).map_err(|err| csv_error(file, err))? {
@@ -286,7 +318,10 @@ fn read_linked_rows<R: Read>(mut reader: csv::Reader<R>, file: &str, columns: &C
 
 /// Reads the positions and dates of an Event core, by event id.
 fn read_events<R: Read>(mut reader: csv::Reader<R>, file: &str, table: &ArchiveTable) -> Result<Events, InputError> {
-    let id_index = table.id_index.ok_or_else(|| InputError::File { file: file.to_owned(), message: "meta.xml gives the Event core no <id index>".into() })?;
+    let id_index = table.id_index.ok_or_else(|| InputError::File {
+        file: file.to_owned(),
+        message: "meta.xml gives the Event core no <id index>".into(),
+    })?;
     let columns = Columns::from_table(table, file, true)?;
     let mut events = Events::new();
     let mut row = csv::StringRecord::new();
@@ -301,7 +336,9 @@ fn read_events<R: Read>(mut reader: csv::Reader<R>, file: &str, table: &ArchiveT
 fn csv_error(file: &str, err: csv::Error) -> InputError {
     let line = err.position().map(|p| p.line());
     let message = match err.kind() {
-        csv::ErrorKind::UnequalLengths { expected_len, len, .. } => format!("this row has {len} fields but the header has {expected_len}"),
+        csv::ErrorKind::UnequalLengths { expected_len, len, .. } => {
+            format!("this row has {len} fields but the header has {expected_len}")
+        }
         csv::ErrorKind::Utf8 { .. } => "the text is not UTF-8".to_owned(),
         _ => err.to_string(),
     };
@@ -329,25 +366,37 @@ fn read_archive(path: &Path, shown: &str) -> Result<Vec<PointRecord>, InputError
     // Sampling-event data: occurrences extend an Event core that may hold their place and date.
     let event_core = tables.iter().find(|t| t.core && t.row_type.ends_with("/Event")).filter(|_| !table.core);
     let events = match event_core {
-        Some(core) => Some(read_events(table_reader(&mut archive, core, shown)?, &format!("{shown}:{}", core.location), core)?),
+        Some(core) => {
+            Some(read_events(table_reader(&mut archive, core, shown)?, &format!("{shown}:{}", core.location), core)?)
+        }
         None => None,
     };
     let inner = format!("{shown}:{}", table.location);
     let columns = Columns::from_table(table, &inner, events.is_some())?;
     let link = match (&events, table.id_index) {
         (Some(events), Some(core_id)) => Some(EventLink { core_id, events }),
-        (Some(_), None) => return Err(bad(format!("meta.xml gives {} no <coreid index>, so its rows cannot be joined to their events", table.location))),
+        (Some(_), None) => {
+            return Err(bad(format!(
+                "meta.xml gives {} no <coreid index>, so its rows cannot be joined to their events",
+                table.location
+            )));
+        }
         _ => None,
     };
     read_linked_rows(table_reader(&mut archive, table, shown)?, &inner, &columns, link)
 }
 
 /// A reader over one data file of the archive, past its header lines.
-fn table_reader<'a>(archive: &'a mut zip::ZipArchive<File>, table: &ArchiveTable, shown: &str) -> Result<csv::Reader<zip::read::ZipFile<'a, File>>, InputError> {
+fn table_reader<'a>(
+    archive: &'a mut zip::ZipArchive<File>,
+    table: &ArchiveTable,
+    shown: &str,
+) -> Result<csv::Reader<zip::read::ZipFile<'a, File>>, InputError> {
     let inner = format!("{shown}:{}", table.location);
-    let entry = archive
-        .by_name(&table.location)
-        .map_err(|_| InputError::File { file: shown.to_owned(), message: format!("meta.xml names {} but the zip has no such file", table.location) })?;
+    let entry = archive.by_name(&table.location).map_err(|_| InputError::File {
+        file: shown.to_owned(),
+        message: format!("meta.xml names {} but the zip has no such file", table.location),
+    })?;
     let mut builder = csv::ReaderBuilder::new();
     builder.has_headers(false).flexible(true).delimiter(table.delimiter);
     match table.quote {
@@ -373,8 +422,14 @@ mod tests {
 
     #[test]
     fn a_bad_latitude_is_named_by_line_and_column() {
-        let err = read_csv_text("scientificName,decimalLatitude,decimalLongitude\nRaja clavata,52.1,-4.2\nRaja clavata,95,-4.2\n").unwrap_err();
-        assert_eq!(err.to_string(), "test.csv, line 3, column 2 (decimalLatitude): latitude must be between -90 and 90 degrees, got 95");
+        let err = read_csv_text(
+            "scientificName,decimalLatitude,decimalLongitude\nRaja clavata,52.1,-4.2\nRaja clavata,95,-4.2\n",
+        )
+        .unwrap_err();
+        assert_eq!(
+            err.to_string(),
+            "test.csv, line 3, column 2 (decimalLatitude): latitude must be between -90 and 90 degrees, got 95"
+        );
     }
 
     #[test]
@@ -449,6 +504,9 @@ mod tests {
     #[test]
     fn a_file_without_a_longitude_column_says_which_columns_it_has() {
         let err = read_csv_text("scientificName,decimalLatitude\nRaja clavata,52.1\n").unwrap_err();
-        assert!(err.to_string().contains("no `decimalLongitude` column; the columns are: scientificName, decimalLatitude"), "{err}");
+        assert!(
+            err.to_string().contains("no `decimalLongitude` column; the columns are: scientificName, decimalLatitude"),
+            "{err}"
+        );
     }
 }

@@ -65,7 +65,8 @@ impl Extent {
 pub fn taxon_map(taxon: &TaxonRange, grid: &AooGrid) -> String {
     let project = |p: &LatLon| grid.project(*p).ok();
     let all: Vec<[f64; 2]> = taxon.periods.iter().flat_map(|p| p.points.iter().filter_map(project)).collect();
-    let extent = Extent::around(&all).unwrap_or(Extent { west: -10_000.0, south: -10_000.0, east: 10_000.0, north: 10_000.0 });
+    let extent =
+        Extent::around(&all).unwrap_or(Extent { west: -10_000.0, south: -10_000.0, east: 10_000.0, north: 10_000.0 });
     let panels = taxon.periods.len().max(1) as f64;
     let width = MARGIN + panels * (PANEL + MARGIN);
     let height = HEADER + PANEL + FOOTER;
@@ -109,7 +110,10 @@ fn panel(period: &PeriodRange, grid: &AooGrid, extent: &Extent, coast: &str, x: 
     for (i, j) in &cells {
         let (left, top) = extent.to_panel([*i as f64 * size_m, (*j + 1) as f64 * size_m]);
         let side = size_m * extent.scale();
-        let _ = writeln!(g, "<rect x=\"{left:.2}\" y=\"{top:.2}\" width=\"{side:.2}\" height=\"{side:.2}\" fill=\"#e9a23b\" fill-opacity=\"0.45\" stroke=\"#b9771a\" stroke-width=\"0.8\"/>");
+        let _ = writeln!(
+            g,
+            "<rect x=\"{left:.2}\" y=\"{top:.2}\" width=\"{side:.2}\" height=\"{side:.2}\" fill=\"#e9a23b\" fill-opacity=\"0.45\" stroke=\"#b9771a\" stroke-width=\"0.8\"/>"
+        );
     }
     if let Some(figures) = &period.figures {
         let corners: Vec<String> = figures
@@ -123,12 +127,19 @@ fn panel(period: &PeriodRange, grid: &AooGrid, extent: &Extent, coast: &str, x: 
             })
             .collect();
         if corners.len() >= 3 {
-            let _ = writeln!(g, "<polygon points=\"{}\" fill=\"#2f5d8a\" fill-opacity=\"0.08\" stroke=\"#2f5d8a\" stroke-width=\"1.4\" stroke-dasharray=\"6 3\"/>", corners.join(" "));
+            let _ = writeln!(
+                g,
+                "<polygon points=\"{}\" fill=\"#2f5d8a\" fill-opacity=\"0.08\" stroke=\"#2f5d8a\" stroke-width=\"1.4\" stroke-dasharray=\"6 3\"/>",
+                corners.join(" ")
+            );
         }
     }
     for p in period.points.iter().filter_map(|p| grid.project(*p).ok()) {
         let (px, py) = extent.to_panel(p);
-        let _ = writeln!(g, "<circle cx=\"{px:.2}\" cy=\"{py:.2}\" r=\"3.2\" fill=\"#1c3b57\" stroke=\"#fff\" stroke-width=\"1\"/>");
+        let _ = writeln!(
+            g,
+            "<circle cx=\"{px:.2}\" cy=\"{py:.2}\" r=\"3.2\" fill=\"#1c3b57\" stroke=\"#fff\" stroke-width=\"1\"/>"
+        );
     }
     g.push_str("</g>\n");
     g.push_str(&scale_bar(extent));
@@ -158,7 +169,11 @@ fn panel(period: &PeriodRange, grid: &AooGrid, extent: &Extent, coast: &str, x: 
 
 fn scale_bar(extent: &Extent) -> String {
     let width_km = (extent.east - extent.west) / 1000.0;
-    let bar_km = [1.0, 2.0, 5.0, 10.0, 20.0, 50.0, 100.0, 200.0, 500.0].into_iter().rev().find(|k| *k <= width_km / 4.0).unwrap_or(1.0);
+    let bar_km = [1.0, 2.0, 5.0, 10.0, 20.0, 50.0, 100.0, 200.0, 500.0]
+        .into_iter()
+        .rev()
+        .find(|k| *k <= width_km / 4.0)
+        .unwrap_or(1.0);
     let length = bar_km * 1000.0 * extent.scale();
     format!(
         "<g transform=\"translate(12,{:.0})\"><rect x=\"-4\" y=\"-14\" width=\"{:.1}\" height=\"22\" fill=\"#fbfaf6\" fill-opacity=\"0.8\"/>\
@@ -186,7 +201,12 @@ fn coastline_path_at(grid: &AooGrid, extent: &Extent, scale: f64) -> String {
             .filter_map(|c| LatLon::new(c[1].as_f64()?, c[0].as_f64()?).ok())
             .filter_map(|p| grid.project(p).ok())
             .collect();
-        let overlaps = projected.iter().any(|p| p[0] > extent.west - 50_000.0 && p[0] < extent.east + 50_000.0 && p[1] > extent.south - 50_000.0 && p[1] < extent.north + 50_000.0);
+        let overlaps = projected.iter().any(|p| {
+            p[0] > extent.west - 50_000.0
+                && p[0] < extent.east + 50_000.0
+                && p[1] > extent.south - 50_000.0
+                && p[1] < extent.north + 50_000.0
+        });
         if projected.len() < 3 || !overlaps {
             continue;
         }
@@ -214,9 +234,15 @@ pub struct MapPoint {
 /// same animal, over the coastline, with a legend.
 pub fn place_map(title: &str, points: &[MapPoint], grid: &AooGrid) -> String {
     const SIDE: f64 = 320.0;
-    let projected: Vec<(&MapPoint, [f64; 2])> = points.iter().filter_map(|p| grid.project(p.position).ok().map(|xy| (p, xy))).collect();
+    let projected: Vec<(&MapPoint, [f64; 2])> =
+        points.iter().filter_map(|p| grid.project(p.position).ok().map(|xy| (p, xy))).collect();
     let xy: Vec<[f64; 2]> = projected.iter().map(|(_, xy)| *xy).collect();
-    let extent = Extent::around_at_least(&xy, 3_000.0).unwrap_or(Extent { west: -1_500.0, south: -1_500.0, east: 1_500.0, north: 1_500.0 });
+    let extent = Extent::around_at_least(&xy, 3_000.0).unwrap_or(Extent {
+        west: -1_500.0,
+        south: -1_500.0,
+        east: 1_500.0,
+        north: 1_500.0,
+    });
     let scale = SIDE / (extent.east - extent.west);
     let legend_height = 18.0 * points.len() as f64 + 12.0;
     let mut svg = format!(
@@ -231,15 +257,32 @@ pub fn place_map(title: &str, points: &[MapPoint], grid: &AooGrid) -> String {
     for (point, xy) in &projected {
         let (px, py) = ((xy[0] - extent.west) * scale, (extent.north - xy[1]) * scale);
         if let Some(radius) = point.uncertainty_m {
-            let _ = writeln!(svg, "<circle cx=\"{px:.1}\" cy=\"{py:.1}\" r=\"{:.1}\" fill=\"{}\" fill-opacity=\"0.15\" stroke=\"{}\"/>", radius * scale, point.colour, point.colour);
+            let _ = writeln!(
+                svg,
+                "<circle cx=\"{px:.1}\" cy=\"{py:.1}\" r=\"{:.1}\" fill=\"{}\" fill-opacity=\"0.15\" stroke=\"{}\"/>",
+                radius * scale,
+                point.colour,
+                point.colour
+            );
         }
-        let _ = writeln!(svg, "<circle cx=\"{px:.1}\" cy=\"{py:.1}\" r=\"4\" fill=\"{}\" stroke=\"#fff\" stroke-width=\"1.2\"/>", point.colour);
+        let _ = writeln!(
+            svg,
+            "<circle cx=\"{px:.1}\" cy=\"{py:.1}\" r=\"4\" fill=\"{}\" stroke=\"#fff\" stroke-width=\"1.2\"/>",
+            point.colour
+        );
     }
     svg.push_str("</g>\n");
     svg.push_str(&scale_bar_at(&extent, scale, SIDE));
     for (i, point) in points.iter().enumerate() {
         let y = SIDE + 18.0 * (i as f64 + 1.0);
-        let _ = writeln!(svg, "<circle cx=\"10\" cy=\"{:.0}\" r=\"4\" fill=\"{}\"/><text x=\"20\" y=\"{:.0}\" fill=\"#1f2a36\">{}</text>", y - 4.0, point.colour, y, escape(&point.label));
+        let _ = writeln!(
+            svg,
+            "<circle cx=\"10\" cy=\"{:.0}\" r=\"4\" fill=\"{}\"/><text x=\"20\" y=\"{:.0}\" fill=\"#1f2a36\">{}</text>",
+            y - 4.0,
+            point.colour,
+            y,
+            escape(&point.label)
+        );
     }
     svg.push_str("</svg>\n");
     svg
@@ -247,7 +290,11 @@ pub fn place_map(title: &str, points: &[MapPoint], grid: &AooGrid) -> String {
 
 fn scale_bar_at(extent: &Extent, scale: f64, side: f64) -> String {
     let width_m = extent.east - extent.west;
-    let bar_m = [100.0, 200.0, 500.0, 1_000.0, 2_000.0, 5_000.0, 10_000.0].into_iter().rev().find(|m| *m <= width_m / 4.0).unwrap_or(100.0);
+    let bar_m = [100.0, 200.0, 500.0, 1_000.0, 2_000.0, 5_000.0, 10_000.0]
+        .into_iter()
+        .rev()
+        .find(|m| *m <= width_m / 4.0)
+        .unwrap_or(100.0);
     let length = bar_m * scale;
     let label = if bar_m >= 1_000.0 { format!("{:.0} km", bar_m / 1000.0) } else { format!("{bar_m:.0} m") };
     format!(

@@ -71,7 +71,11 @@ pub fn read_meta(xml: &str) -> Result<Vec<ArchiveTable>, String> {
                 "id" | "coreid" => {
                     if let Some(table) = current.as_mut() {
                         let index = attribute(&tag, "index")?.ok_or("an <id> or <coreid> has no index")?;
-                        table.id_index = Some(index.parse().map_err(|_| format!("{}: id index `{index}` is not a number", table.row_type))?);
+                        table.id_index = Some(
+                            index
+                                .parse()
+                                .map_err(|_| format!("{}: id index `{index}` is not a number", table.row_type))?,
+                        );
                     }
                 }
                 "field" => {
@@ -104,7 +108,9 @@ pub fn read_meta(xml: &str) -> Result<Vec<ArchiveTable>, String> {
 
 fn attribute(tag: &BytesStart, name: &str) -> Result<Option<String>, String> {
     match tag.try_get_attribute(name).map_err(|err| err.to_string())? {
-        Some(attr) => Ok(Some(attr.normalized_value(quick_xml::XmlVersion::Implicit1_0).map_err(|err| err.to_string())?.into_owned())),
+        Some(attr) => Ok(Some(
+            attr.normalized_value(quick_xml::XmlVersion::Implicit1_0).map_err(|err| err.to_string())?.into_owned(),
+        )),
         None => Ok(None),
     }
 }
@@ -131,7 +137,10 @@ fn table_start(tag: &BytesStart, core: bool) -> Result<ArchiveTable, String> {
         id_index: None,
         delimiter: single(&delimiter, "fieldsTerminatedBy")?,
         quote: if quote.is_empty() { None } else { Some(single(&quote, "fieldsEnclosedBy")?) },
-        header_lines: attribute(tag, "ignoreHeaderLines")?.map(|n| n.parse().map_err(|_| format!("ignoreHeaderLines `{n}` is not a number"))).transpose()?.unwrap_or(0),
+        header_lines: attribute(tag, "ignoreHeaderLines")?
+            .map(|n| n.parse().map_err(|_| format!("ignoreHeaderLines `{n}` is not a number")))
+            .transpose()?
+            .unwrap_or(0),
         location: String::new(),
         fields: Vec::new(),
         row_type,
@@ -141,7 +150,9 @@ fn table_start(tag: &BytesStart, core: bool) -> Result<ArchiveTable, String> {
 fn field(tag: &BytesStart) -> Result<(String, FieldSource), String> {
     let term = attribute(tag, "term")?.ok_or("a <field> has no term")?;
     let source = match (attribute(tag, "index")?, attribute(tag, "default")?) {
-        (Some(index), _) => FieldSource::Index(index.parse().map_err(|_| format!("field {term}: index `{index}` is not a number"))?),
+        (Some(index), _) => {
+            FieldSource::Index(index.parse().map_err(|_| format!("field {term}: index `{index}` is not a number"))?)
+        }
         (None, Some(default)) => FieldSource::Constant(default),
         (None, None) => return Err(format!("field {term} has neither an index nor a default")),
     };

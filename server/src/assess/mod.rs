@@ -65,7 +65,10 @@ mod tests {
     #[test]
     fn review_states_read_by_code_or_label_and_any_means_all() {
         assert_eq!(parse_states(&["confirmed".into()]), Ok(Some(vec![ReviewState::Confirmed])));
-        assert_eq!(parse_states(&["awaiting_review".into(), "details requested".into()]), Ok(Some(vec![ReviewState::AwaitingReview, ReviewState::DetailsRequested])));
+        assert_eq!(
+            parse_states(&["awaiting_review".into(), "details requested".into()]),
+            Ok(Some(vec![ReviewState::AwaitingReview, ReviewState::DetailsRequested]))
+        );
         assert_eq!(parse_states(&["any".into()]), Ok(None));
         assert!(parse_states(&["approved".into()]).unwrap_err().contains("approved"));
     }

@@ -43,7 +43,10 @@ pub fn nearby_counts(confirmed: &[PointRecord], names: &TaxonIndex, centre: LatL
     let here = Point::new(centre.lon(), centre.lat());
     let mut counts: BTreeMap<String, u32> = BTreeMap::new();
     for record in confirmed {
-        let (Some(taxon), Some(position)) = (record.name.as_deref().and_then(|n| names.resolve(n)), record.position) else { continue };
+        let (Some(taxon), Some(position)) = (record.name.as_deref().and_then(|n| names.resolve(n)), record.position)
+        else {
+            continue;
+        };
         let public = public_place(Some((position.lat(), position.lon())), None, taxon.sensitivity);
         let Some((lat, lon)) = public.position else { continue };
         if Geodesic.distance(here, Point::new(lon, lat)) <= NEARBY_RADIUS_KM * 1000.0 {
@@ -67,7 +70,13 @@ mod tests {
     use super::*;
 
     fn record(name: &str, lat: f64, lon: f64) -> PointRecord {
-        PointRecord { name: Some(name.into()), position: LatLon::new(lat, lon).ok(), when: None, count: 1, walk_client_id: None }
+        PointRecord {
+            name: Some(name.into()),
+            position: LatLon::new(lat, lon).ok(),
+            when: None,
+            count: 1,
+            walk_client_id: None,
+        }
     }
 
     #[test]

@@ -172,7 +172,11 @@ pub enum RangeError {
 }
 
 /// Groups `records` by taxon and period and computes each group's figures.
-pub fn range_report(records: &[PointRecord], names: &TaxonIndex, options: &RangeOptions) -> Result<RangeReport, RangeError> {
+pub fn range_report(
+    records: &[PointRecord],
+    names: &TaxonIndex,
+    options: &RangeOptions,
+) -> Result<RangeReport, RangeError> {
     let mut left_out = LeftOut::default();
     let mut not_listed = BTreeMap::new();
     let mut groups: BTreeMap<(String, bool), Vec<&PointRecord>> = BTreeMap::new();
@@ -206,7 +210,8 @@ pub fn range_report(records: &[PointRecord], names: &TaxonIndex, options: &Range
     for ((taxon, on_checklist), members) in groups {
         let mut figures = Vec::new();
         for period in &periods {
-            let inside: Vec<&PointRecord> = members.iter().copied().filter(|r| in_period(r, period, options.periods.is_empty())).collect();
+            let inside: Vec<&PointRecord> =
+                members.iter().copied().filter(|r| in_period(r, period, options.periods.is_empty())).collect();
             figures.push(period_range(period, &inside, &options.grid)?);
         }
         left_out.outside_every_period +=
@@ -233,8 +238,10 @@ fn in_period(record: &PointRecord, period: &Period, every_record: bool) -> bool 
 
 fn period_range(period: &Period, records: &[&PointRecord], grid: &AooGrid) -> Result<PeriodRange, RangeError> {
     let points: Vec<LatLon> = records.iter().filter_map(|r| r.position).collect();
-    let sites: BTreeSet<(i64, i64)> =
-        points.iter().map(|p| ((p.lat() / SITE_DEGREES).round() as i64, (p.lon() / SITE_DEGREES).round() as i64)).collect();
+    let sites: BTreeSet<(i64, i64)> = points
+        .iter()
+        .map(|p| ((p.lat() / SITE_DEGREES).round() as i64, (p.lon() / SITE_DEGREES).round() as i64))
+        .collect();
     let figures = if points.is_empty() { None } else { Some(summary(&points, grid)?) };
     Ok(PeriodRange { period: period.label.clone(), records: records.len(), sites: sites.len(), figures, points })
 }
@@ -276,7 +283,9 @@ pub fn render_text(report: &RangeReport) -> String {
     if report.taxa.is_empty() {
         out.push_str("\nNo records to compute figures from.");
         if report.records_read == 0 && report.records_used.starts_with("stored") {
-            out.push_str(" Records stay `awaiting review` until reviewers confirm them; `--state any` uses every stored record.");
+            out.push_str(
+                " Records stay `awaiting review` until reviewers confirm them; `--state any` uses every stored record.",
+            );
         }
         out.push('\n');
     }
@@ -291,7 +300,8 @@ pub fn render_text(report: &RangeReport) -> String {
 }
 
 fn render_taxon(taxon: &TaxonRange) -> String {
-    let mut out = format!("\n== {}{} ==\n", taxon.taxon, if taxon.on_checklist { "" } else { " (not on the checklist)" });
+    let mut out =
+        format!("\n== {}{} ==\n", taxon.taxon, if taxon.on_checklist { "" } else { " (not on the checklist)" });
     out.push_str(&format!(
         "{:<28} {:>8} {:>6} {:>14} {:>10} {:>14}\n",
         "period", "records", "sites", "EOO km²", "AOO km²", "AOO min km²"
@@ -305,7 +315,10 @@ fn render_taxon(taxon: &TaxonRange) -> String {
             ),
             None => ("-".into(), "-".into(), "-".into()),
         };
-        out.push_str(&format!("{:<28} {:>8} {:>6} {:>14} {:>10} {:>14}\n", p.period, p.records, p.sites, eoo, aoo, min));
+        out.push_str(&format!(
+            "{:<28} {:>8} {:>6} {:>14} {:>10} {:>14}\n",
+            p.period, p.records, p.sites, eoo, aoo, min
+        ));
     }
     for c in &taxon.changes {
         let signed = |v: Option<f64>, pct: Option<f64>| match (v, pct) {

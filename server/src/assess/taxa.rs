@@ -58,7 +58,9 @@ impl NamedTaxon {
     pub fn find(checklist: &Checklist, name: &str) -> Option<Self> {
         let wanted = fold(name);
         let taxa = checklist.taxa();
-        if let Some(index) = taxa.iter().position(|t| fold(&t.scientific_name) == wanted)
+        if let Some(index) = taxa
+            .iter()
+            .position(|t| fold(&t.scientific_name) == wanted)
             .or_else(|| taxa.iter().position(|t| t.common_names.iter().any(|c| fold(c) == wanted)))
         {
             return Some(Self::species(taxa, index));
@@ -84,7 +86,11 @@ impl NamedTaxon {
         Some(Self {
             scientific_name: first.name_at(rank).to_owned(),
             rank,
-            sensitivity: members.iter().map(|&i| taxa[i].sensitivity).max_by_key(|s| strictness(*s)).unwrap_or(Sensitivity::None),
+            sensitivity: members
+                .iter()
+                .map(|&i| taxa[i].sensitivity)
+                .max_by_key(|s| strictness(*s))
+                .unwrap_or(Sensitivity::None),
             protected: members.iter().any(|&i| taxa[i].protected),
             members,
         })
@@ -128,12 +134,15 @@ impl TaxonIndex {
     /// A checklist file, or the built-in demo checklist when `path` is `None`.
     pub fn load(path: Option<&Path>) -> Result<Self, ChecklistLoadError> {
         let Some(path) = path else {
-            let checklist = Checklist::from_json(crate::DEMO_CHECKLIST).expect("the built-in checklist is checked by its own tests");
+            let checklist = Checklist::from_json(crate::DEMO_CHECKLIST)
+                .expect("the built-in checklist is checked by its own tests");
             return Ok(Self::new(checklist));
         };
         let shown = path.display().to_string();
-        let text = std::fs::read_to_string(path).map_err(|source| ChecklistLoadError::Read { path: shown.clone(), source })?;
-        let checklist = Checklist::from_json(&text).map_err(|source| ChecklistLoadError::Invalid { path: shown, source })?;
+        let text =
+            std::fs::read_to_string(path).map_err(|source| ChecklistLoadError::Read { path: shown.clone(), source })?;
+        let checklist =
+            Checklist::from_json(&text).map_err(|source| ChecklistLoadError::Invalid { path: shown, source })?;
         Ok(Self::new(checklist))
     }
 
@@ -229,7 +238,10 @@ mod tests {
         assert_eq!((dipturus.scientific_name.as_str(), dipturus.rank), ("Dipturus", TaxonRank::Genus));
         assert_eq!((dipturus.sensitivity, dipturus.protected), (Sensitivity::TenthDegree, true));
         let rajidae = index.named("Rajidae").unwrap();
-        assert_eq!((rajidae.rank, rajidae.sensitivity, rajidae.protected), (TaxonRank::Family, Sensitivity::TenthDegree, true));
+        assert_eq!(
+            (rajidae.rank, rajidae.sensitivity, rajidae.protected),
+            (TaxonRank::Family, Sensitivity::TenthDegree, true)
+        );
         assert!(rajidae.members(index.checklist()).all(|t| t.superorder == "Batoidea"));
         let catsharks = index.named("Scyliorhinus").unwrap();
         assert_eq!((catsharks.sensitivity, catsharks.protected), (Sensitivity::None, false));
@@ -245,7 +257,10 @@ mod tests {
         assert!(rajidae.contains_named(index.named("Dipturus").unwrap(), index.checklist()));
         assert!(rajidae.contains_named(index.named("Rajidae").unwrap(), index.checklist()));
         let thornback = index.filter("Raja clavata").unwrap();
-        assert!(!thornback.contains_named(index.named("Raja").unwrap(), index.checklist()), "a genus may be another species");
+        assert!(
+            !thornback.contains_named(index.named("Raja").unwrap(), index.checklist()),
+            "a genus may be another species"
+        );
         assert!(!rajidae.contains_named(index.named("Rajiformes").unwrap(), index.checklist()));
     }
 

@@ -71,7 +71,11 @@ pub enum TrendInputError {
 pub const MIN_TREND_YEARS: usize = 3;
 
 /// The generation length to use: the one given, or the checklist's for `taxon`.
-pub fn generation_length(given: Option<f64>, taxon: Option<&TaxonFilter>, names: &TaxonIndex) -> Result<GenerationLength, TrendInputError> {
+pub fn generation_length(
+    given: Option<f64>,
+    taxon: Option<&TaxonFilter>,
+    names: &TaxonIndex,
+) -> Result<GenerationLength, TrendInputError> {
     if let Some(years) = given {
         return Ok(GenerationLength { years, source: "given on the command line".into() });
     }
@@ -118,18 +122,34 @@ pub fn read_year_counts(path: &Path) -> Result<Vec<YearCount>, InputError> {
         let cell = |index: usize, what: &str| -> Result<&str, InputError> {
             let text = row.get(index).unwrap_or_default().trim();
             if text.is_empty() {
-                return Err(InputError::Cell { file: shown.clone(), line, column: index + 1, header: header[index].clone(), message: format!("the {what} is empty") });
+                return Err(InputError::Cell {
+                    file: shown.clone(),
+                    line,
+                    column: index + 1,
+                    header: header[index].clone(),
+                    message: format!("the {what} is empty"),
+                });
             }
             Ok(text)
         };
-        let bad = |index: usize, message: String| InputError::Cell { file: shown.clone(), line, column: index + 1, header: header[index].clone(), message };
+        let bad = |index: usize, message: String| InputError::Cell {
+            file: shown.clone(),
+            line,
+            column: index + 1,
+            header: header[index].clone(),
+            message,
+        };
         let y = cell(year, "year")?;
         let c = cell(count, "count")?;
         let e = cell(effort, "effort")?;
         rows.push(YearCount {
             year: y.parse().map_err(|_| bad(year, format!("`{y}` is not a year")))?,
             count: c.parse().map_err(|_| bad(count, format!("`{c}` is not a whole number of animals (0 or more)")))?,
-            effort: e.parse::<f64>().ok().filter(|v| *v > 0.0 && v.is_finite()).ok_or_else(|| bad(effort, format!("`{e}` is not a positive effort")))?,
+            effort: e
+                .parse::<f64>()
+                .ok()
+                .filter(|v| *v > 0.0 && v.is_finite())
+                .ok_or_else(|| bad(effort, format!("`{e}` is not a positive effort")))?,
         });
     }
     Ok(rows)
@@ -157,7 +177,9 @@ pub fn stored_year_counts(records: &[PointRecord], taxon: Option<&TaxonFilter>, 
         }
     }
     let (Some(&first), Some(&last)) = (by_year.keys().next(), by_year.keys().last()) else { return Vec::new() };
-    (first..=last).map(|year| YearCount { year, count: by_year.get(&year).copied().unwrap_or(0), effort: 1.0 }).collect()
+    (first..=last)
+        .map(|year| YearCount { year, count: by_year.get(&year).copied().unwrap_or(0), effort: 1.0 })
+        .collect()
 }
 
 /// How walking effort is measured for encounter rates.
@@ -183,8 +205,11 @@ pub fn walk_year_counts(
     names: &TaxonIndex,
     unit: EffortUnit,
 ) -> Option<(Vec<YearCount>, String)> {
-    let surveyed: BTreeMap<String, i32> =
-        walks.iter().filter(|w| w.walk.all_finds_reported).map(|w| (w.walk.client_id.to_string(), w.walk.started_at.year())).collect();
+    let surveyed: BTreeMap<String, i32> = walks
+        .iter()
+        .filter(|w| w.walk.all_finds_reported)
+        .map(|w| (w.walk.client_id.to_string(), w.walk.started_at.year()))
+        .collect();
     if surveyed.is_empty() {
         return None;
     }
@@ -270,10 +295,19 @@ pub fn render_text(report: &TrendReport) -> String {
         out.push_str(&format!("{:>6} {:>8} {:>12.2} {:>12.4}\n", y.year, y.count, y.effort, y.count as f64 / y.effort));
     }
     let counts: Vec<String> = report.yearly_counts.iter().map(|y| format!("{} {}", y.year, y.count)).collect();
-    out.push_str(&format!("Animals recorded per year, whatever the effort: {}.\n", if counts.is_empty() { "none".into() } else { counts.join(", ") }));
+    out.push_str(&format!(
+        "Animals recorded per year, whatever the effort: {}.\n",
+        if counts.is_empty() { "none".into() } else { counts.join(", ") }
+    ));
     // Beyond ±10,000% a percentage says nothing a person can use (it comes from
     // extrapolating a short series); say so instead of printing a 20-digit number.
-    let percent = |x: f64| if (100.0 * x).abs() > 10_000.0 { format!("{}10,000%", if x > 0.0 { "over +" } else { "below −" }) } else { format!("{:+.1}%", 100.0 * x) };
+    let percent = |x: f64| {
+        if (100.0 * x).abs() > 10_000.0 {
+            format!("{}10,000%", if x > 0.0 { "over +" } else { "below −" })
+        } else {
+            format!("{:+.1}%", 100.0 * x)
+        }
+    };
     out.push_str(&format!(
         "\nPoisson log-linear model with log(effort) offset: Pearson dispersion {:.2} ({:?} errors).\n",
         t.fit.dispersion.unwrap_or(f64::NAN),

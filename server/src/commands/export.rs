@@ -72,7 +72,9 @@ pub fn parse_bbox(text: &str) -> Result<Area, String> {
         return Err(format!("`{text}`: latitudes must lie in -90..90 with SOUTH ≤ NORTH"));
     }
     if !(-180.0..=180.0).contains(&west) || !(-180.0..=180.0).contains(&east) {
-        return Err(format!("`{text}`: longitudes must lie in -180..180 (WEST greater than EAST is a box across the antimeridian)"));
+        return Err(format!(
+            "`{text}`: longitudes must lie in -180..180 (WEST greater than EAST is a box across the antimeridian)"
+        ));
     }
     Ok(Area { south, west, north, east })
 }
@@ -88,7 +90,11 @@ pub fn run(data_dir: &Path, args: ExportArgs) -> anyhow::Result<()> {
     let taxon = args
         .taxon
         .as_deref()
-        .map(|n| names.filter(n).with_context(|| format!("`{n}` is not a species, genus, family, order or superorder on the checklist")))
+        .map(|n| {
+            names
+                .filter(n)
+                .with_context(|| format!("`{n}` is not a species, genus, family, order or superorder on the checklist"))
+        })
         .transpose()?;
     let states = parse_states(&args.states).map_err(anyhow::Error::msg)?;
     let (from_utc, until_utc) = day_bounds(args.from_date, args.to_date);
@@ -125,7 +131,10 @@ pub fn run(data_dir: &Path, args: ExportArgs) -> anyhow::Result<()> {
     let target = args.out.as_ref().map(|p| p.display().to_string()).unwrap_or_else(|| "standard output".into());
     writeln!(err, "wrote {} records ({}) to {target}", summary.records, describe_states(&states))?;
     if !args.full {
-        writeln!(err, "public export: sensitive species generalised (use --full for assessors' positions as recorded)")?;
+        writeln!(
+            err,
+            "public export: sensitive species generalised (use --full for assessors' positions as recorded)"
+        )?;
     }
     for note in summary.notes() {
         writeln!(err, "{note}")?;

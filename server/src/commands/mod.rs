@@ -9,10 +9,10 @@ use std::path::{Path, PathBuf};
 
 use anyhow::Context as _;
 
+use crate::AppState;
 use crate::assess::input::{self, PointRecord};
 use crate::assess::taxa::{TaxonFilter, TaxonIndex};
 use crate::assess::{describe_states, parse_states};
-use crate::AppState;
 
 /// Where records come from and which of them to take; shared by `range` and `trend`.
 #[derive(Debug, clap::Args)]

@@ -53,7 +53,8 @@ pub fn run(data_dir: &Path, args: RangeArgs) -> anyhow::Result<()> {
     if let Some(path) = &args.svg {
         for taxon in &report.taxa {
             let file = if report.taxa.len() == 1 { path.clone() } else { suffixed(path, &taxon.taxon) };
-            std::fs::write(&file, taxon_map(taxon, &options.grid)).with_context(|| format!("writing {}", file.display()))?;
+            std::fs::write(&file, taxon_map(taxon, &options.grid))
+                .with_context(|| format!("writing {}", file.display()))?;
             eprintln!("map of {} written to {}", taxon.taxon, file.display());
         }
     }

@@ -6,7 +6,9 @@ use anyhow::Context as _;
 
 use super::{RecordSource, print};
 use crate::assess::chart::trend_chart;
-use crate::assess::trend::{EffortUnit, YearTotal, generation_length, read_year_counts, render_text, stored_trend_input, trend_report};
+use crate::assess::trend::{
+    EffortUnit, YearTotal, generation_length, read_year_counts, render_text, stored_trend_input, trend_report,
+};
 
 #[derive(Debug, clap::Args)]
 pub struct TrendArgs {
@@ -41,14 +43,16 @@ pub fn run(data_dir: &Path, args: TrendArgs) -> anyhow::Result<()> {
             let loaded = args.source.load(data_dir)?;
             let state = crate::AppState::open(data_dir, None, crate::load_checklist(None)?)?;
             let walks = state.store.run_here(|conn| crate::store::walks::list_walks(conn))?;
-            let (years, counts, notes) = stored_trend_input(&loaded.records, &walks, taxon.as_ref(), &names, args.effort);
+            let (years, counts, notes) =
+                stored_trend_input(&loaded.records, &walks, taxon.as_ref(), &names, args.effort);
             (years, counts, loaded.records_used, notes)
         }
     };
     let report = trend_report(years, counts, generation, used, notes)?;
     if let Some(path) = &args.svg {
         let title = taxon.as_ref().map(|t| t.name.clone()).unwrap_or_else(|| "Yearly trend".into());
-        std::fs::write(path, trend_chart(&title, &report.years, &report.trend)).with_context(|| format!("writing {}", path.display()))?;
+        std::fs::write(path, trend_chart(&title, &report.years, &report.trend))
+            .with_context(|| format!("writing {}", path.display()))?;
         eprintln!("trend chart written to {}", path.display());
     }
     print(args.source.json, &report, || render_text(&report))

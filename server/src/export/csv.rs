@@ -11,7 +11,8 @@ use super::{ExportError, ExportRequest, ExportSummary, each_occurrence};
 use crate::assess::taxa::TaxonIndex;
 
 /// Our own columns after the Darwin Core ones.
-pub const OWN_COLUMNS: &[&str] = &["condition", "setting", "humanSigns", "lengthKind", "lengthCm", "lengthMethod", "reviewState"];
+pub const OWN_COLUMNS: &[&str] =
+    &["condition", "setting", "humanSigns", "lengthKind", "lengthCm", "lengthMethod", "reviewState"];
 
 pub fn write<W: Write>(
     conn: &Connection,

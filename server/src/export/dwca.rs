@@ -23,8 +23,8 @@ use zip::write::SimpleFileOptions;
 
 use super::events::{self, Found};
 use super::terms::{
-    DWC, EVENT_CORE, EVENT_IDENTIFICATION_EXTENSION, EVENT_MEASUREMENT_EXTENSION, IDENTIFICATION_EXTENSION, MEASUREMENT_EXTENSION,
-    OCCURRENCE_CORE, OCCURRENCE_EXTENSION, Table,
+    DWC, EVENT_CORE, EVENT_IDENTIFICATION_EXTENSION, EVENT_MEASUREMENT_EXTENSION, IDENTIFICATION_EXTENSION,
+    MEASUREMENT_EXTENSION, OCCURRENCE_CORE, OCCURRENCE_EXTENSION, Table,
 };
 use super::{ExportError, ExportRequest, ExportSummary, Occurrence, each_occurrence};
 use crate::assess::taxa::TaxonIndex;
@@ -72,11 +72,18 @@ pub fn write<W: Write>(
 }
 
 fn zip_options() -> SimpleFileOptions {
-    SimpleFileOptions::default().compression_method(zip::CompressionMethod::Deflated).compression_level(Some(COMPRESSION_LEVEL))
+    SimpleFileOptions::default()
+        .compression_method(zip::CompressionMethod::Deflated)
+        .compression_level(Some(COMPRESSION_LEVEL))
 }
 
 /// `meta.xml` and `eml.xml`, then the zip's directory.
-fn finish<W: Write>(mut zip: Zip<W>, meta: &str, summary: &ExportSummary, request: &ExportRequest) -> Result<ExportSummary, ExportError> {
+fn finish<W: Write>(
+    mut zip: Zip<W>,
+    meta: &str,
+    summary: &ExportSummary,
+    request: &ExportRequest,
+) -> Result<ExportSummary, ExportError> {
     zip.start_file("meta.xml", zip_options())?;
     zip.write_all(meta.as_bytes())?;
     zip.start_file("eml.xml", zip_options())?;
@@ -141,7 +148,11 @@ fn walk_passes(walk: &WalkSubmission, filter: &RowFilter) -> bool {
 }
 
 /// The walks that pass the request's filters, earliest first, with their event rows and absences.
-fn walks_in(conn: &Connection, request: &ExportRequest, found: &HashMap<String, Found>) -> Result<Vec<ExportedWalk>, ExportError> {
+fn walks_in(
+    conn: &Connection,
+    request: &ExportRequest,
+    found: &HashMap<String, Found>,
+) -> Result<Vec<ExportedWalk>, ExportError> {
     let mut walks = Vec::new();
     crate::store::walks::for_each_walk(conn, |walk| {
         if walk_passes(&walk, &request.filter) {
@@ -183,7 +194,10 @@ fn write_with_events<W: Write>(
         let core_id = match o.walk_client_id.as_deref().filter(|w| exported.contains(w)) {
             Some(walk) => events::walk_event_id(walk),
             None => {
-                write_line(&mut zip, events::incidental_event(occurrence_id, &o.event_date).iter().map(String::as_str))?;
+                write_line(
+                    &mut zip,
+                    events::incidental_event(occurrence_id, &o.event_date).iter().map(String::as_str),
+                )?;
                 events::incidental_event_id(occurrence_id)
             }
         };
@@ -210,7 +224,12 @@ fn write_with_events<W: Write>(
     for spool in [occurrences, lengths, identifications] {
         spool.copy_into(&mut zip)?;
     }
-    finish(zip, &meta_xml(&EVENT_CORE, &[&OCCURRENCE_EXTENSION, &EVENT_MEASUREMENT_EXTENSION, &EVENT_IDENTIFICATION_EXTENSION]), &summary, request)
+    finish(
+        zip,
+        &meta_xml(&EVENT_CORE, &[&OCCURRENCE_EXTENSION, &EVENT_MEASUREMENT_EXTENSION, &EVENT_IDENTIFICATION_EXTENSION]),
+        &summary,
+        request,
+    )
 }
 
 fn write_line<'a>(out: &mut impl Write, values: impl Iterator<Item = &'a str>) -> std::io::Result<()> {
@@ -248,7 +267,9 @@ fn measurement_row(o: &Occurrence) -> Option<[String; 7]> {
 /// `meta.xml` for a core and its extensions. Column 0 of the core is its id and of each
 /// extension the core id; the other columns follow in the table's term order, 0-based.
 pub fn meta_xml(core: &Table, extensions: &[&Table]) -> String {
-    let mut xml = String::from("<?xml version=\"1.0\" encoding=\"UTF-8\"?>\n<archive xmlns=\"http://rs.tdwg.org/dwc/text/\" metadata=\"eml.xml\">\n");
+    let mut xml = String::from(
+        "<?xml version=\"1.0\" encoding=\"UTF-8\"?>\n<archive xmlns=\"http://rs.tdwg.org/dwc/text/\" metadata=\"eml.xml\">\n",
+    );
     xml.push_str(&table_xml("core", "id", core, true));
     for extension in extensions {
         xml.push_str(&table_xml("extension", "coreid", extension, false));
@@ -280,7 +301,9 @@ fn table_xml(element: &str, id_element: &str, table: &Table, id_is_first_term: b
 /// checked and generalised, and the occurrenceStatus vocabulary).
 fn eml_xml(summary: &ExportSummary, request: &ExportRequest) -> String {
     let audience = match request.audience {
-        super::Audience::Public => "Public export: sensitive species are generalised as Chapman 2020 (GBIF) recommends.",
+        super::Audience::Public => {
+            "Public export: sensitive species are generalised as Chapman 2020 (GBIF) recommends."
+        }
         super::Audience::Full => "Full export for assessors: positions as recorded. Do not publish it as it is.",
     };
     let mut paragraphs = vec![
@@ -296,7 +319,9 @@ fn eml_xml(summary: &ExportSummary, request: &ExportRequest) -> String {
     let abstract_xml: String = paragraphs.iter().map(|p| format!("      <para>{}</para>\n", escape(p))).collect();
     let methods: String = METHOD_STEPS
         .iter()
-        .map(|step| format!("      <methodStep><description><para>{}</para></description></methodStep>\n", escape(step)))
+        .map(|step| {
+            format!("      <methodStep><description><para>{}</para></description></methodStep>\n", escape(step))
+        })
         .collect();
     let licence = request.licence;
     let organisation = "wrackline recording network";

@@ -169,18 +169,26 @@ pub fn walk_event(walk: &WalkSubmission, audience: Audience, found: Found) -> Ve
             // here; a withheld one withholds the start too.
             let said = match (start, place.position) {
                 (None, _) => "",
-                (Some(_), None) => "Start of the walk withheld: a sensitive species was found on it (Chapman 2020, GBIF).",
-                (Some(_), Some(_)) => "Start of the walk rounded to 0.1 degree; coordinateUncertaintyInMeters raised by the cell diagonal (Chapman 2020 grid).",
+                (Some(_), None) => {
+                    "Start of the walk withheld: a sensitive species was found on it (Chapman 2020, GBIF)."
+                }
+                (Some(_), Some(_)) => {
+                    "Start of the walk rounded to 0.1 degree; coordinateUncertaintyInMeters raised by the cell diagonal (Chapman 2020 grid)."
+                }
             };
             (place, said.to_owned())
         }
         Audience::Full => (as_recorded(start, accuracy), String::new()),
     };
-    let (lat, lon) = place.position.map_or((String::new(), String::new()), |(lat, lon)| (format!("{lat:.*}", place.decimals), format!("{lon:.*}", place.decimals)));
+    let (lat, lon) = place.position.map_or((String::new(), String::new()), |(lat, lon)| {
+        (format!("{lat:.*}", place.decimals), format!("{lon:.*}", place.decimals))
+    });
     let mut generalizations = generalised;
     let mut withheld = "the walk's GPS track is not published".to_owned();
     if sensitive {
-        generalizations = format!("{generalizations} Locality withheld: a sensitive species was found on this walk.").trim().to_owned();
+        generalizations = format!("{generalizations} Locality withheld: a sensitive species was found on this walk.")
+            .trim()
+            .to_owned();
         withheld.push_str("; the stretch's name and the precise start are withheld because a sensitive species was found on this walk; assessors may ask the network");
     }
     vec![
@@ -198,7 +206,11 @@ pub fn walk_event(walk: &WalkSubmission, audience: Audience, found: Found) -> Ve
             },
             hours_and_minutes(effort.duration_s)
         ),
-        if sensitive { String::new() } else { walk.stretch.as_ref().map(|s| s.as_str().to_owned()).unwrap_or_default() },
+        if sensitive {
+            String::new()
+        } else {
+            walk.stretch.as_ref().map(|s| s.as_str().to_owned()).unwrap_or_default()
+        },
         lat.clone(),
         lon,
         if lat.is_empty() { String::new() } else { "EPSG:4326".into() },

@@ -29,7 +29,14 @@ pub struct PublicPlace {
 
 /// The position as recorded, for full exports and species that are not sensitive.
 pub fn as_recorded(position: Option<(f64, f64)>, uncertainty_m: Option<f64>) -> PublicPlace {
-    PublicPlace { position, decimals: 6, uncertainty_m, generalizations: None, withheld: None, hide_media_and_remarks: false }
+    PublicPlace {
+        position,
+        decimals: 6,
+        uncertainty_m,
+        generalizations: None,
+        withheld: None,
+        hide_media_and_remarks: false,
+    }
 }
 
 /// The position to publish for a record of a species with `sensitivity`.
@@ -40,7 +47,9 @@ pub fn public_place(position: Option<(f64, f64)>, uncertainty_m: Option<f64>, se
             decimals: 0,
             uncertainty_m: None,
             generalizations: Some("Location withheld: sensitive species (Chapman 2020, GBIF).".into()),
-            withheld: Some("location, photos and remarks withheld for a sensitive species; assessors may ask the network".into()),
+            withheld: Some(
+                "location, photos and remarks withheld for a sensitive species; assessors may ask the network".into(),
+            ),
             hide_media_and_remarks: true,
         };
     }
@@ -59,7 +68,10 @@ pub fn public_place(position: Option<(f64, f64)>, uncertainty_m: Option<f64>, se
             "Coordinates rounded to the nearest {step} degree for a sensitive species (Chapman 2020, GBIF); \
              coordinateUncertaintyInMeters raised by the cell diagonal, {diagonal:.0} m."
         )),
-        withheld: Some("precise location, photos and remarks withheld for a sensitive species; assessors may ask the network".into()),
+        withheld: Some(
+            "precise location, photos and remarks withheld for a sensitive species; assessors may ask the network"
+                .into(),
+        ),
         hide_media_and_remarks: true,
     }
 }
@@ -107,13 +119,19 @@ mod tests {
         for (category, recorded, uncertainty, published) in cases {
             let place = public_place(Some(recorded), uncertainty, category);
             assert_eq!(place.position, published, "{category:?} {recorded:?}");
-            assert!(place.generalizations.is_some() && place.withheld.is_some(), "{category:?}: recorded in dataGeneralizations and informationWithheld");
+            assert!(
+                place.generalizations.is_some() && place.withheld.is_some(),
+                "{category:?}: recorded in dataGeneralizations and informationWithheld"
+            );
             assert!(place.hide_media_and_remarks);
             match (published, category.grid_degrees()) {
                 (Some((lat, _)), Some(step)) => {
                     let expected = uncertainty.unwrap_or(0.0) + approximate_diagonal_m(lat, step);
                     let got = place.uncertainty_m.unwrap();
-                    assert!((got - expected).abs() < expected * 0.002 + 1.0, "{category:?}: {got} m, expected about {expected} m");
+                    assert!(
+                        (got - expected).abs() < expected * 0.002 + 1.0,
+                        "{category:?}: {got} m, expected about {expected} m"
+                    );
                 }
                 _ => assert_eq!(place.uncertainty_m, None, "withheld: no uncertainty"),
             }

@@ -48,7 +48,11 @@ fn write_feature(out: &mut impl Write, o: &Occurrence) -> Result<(), ExportError
     serde_json::to_writer(&mut *out, &o.dwc[0])?;
     match o.place.position {
         // Longitude first (RFC 7946 §3.1.1), printed to the precision published.
-        Some((lat, lon)) => write!(out, ",\"geometry\":{{\"type\":\"Point\",\"coordinates\":[{lon:.*},{lat:.*}]}}", o.place.decimals, o.place.decimals)?,
+        Some((lat, lon)) => write!(
+            out,
+            ",\"geometry\":{{\"type\":\"Point\",\"coordinates\":[{lon:.*},{lat:.*}]}}",
+            o.place.decimals, o.place.decimals
+        )?,
         None => out.write_all(b",\"geometry\":null")?,
     }
     out.write_all(b",\"properties\":")?;

@@ -72,7 +72,10 @@ impl ExportSummary {
             notes.push(format!("{} lengths, in the MeasurementOrFact extension.", self.measurements));
         }
         if self.identifications > 0 {
-            notes.push(format!("{} identifications, current and superseded, in the Identification extension.", self.identifications));
+            notes.push(format!(
+                "{} identifications, current and superseded, in the Identification extension.",
+                self.identifications
+            ));
         }
         if self.events > 0 {
             notes.push(format!(
@@ -83,7 +86,8 @@ impl ExportSummary {
         let unmatched: u64 = self.unmatched.values().sum::<u64>() + self.other_unmatched;
         if unmatched > 0 {
             let names: Vec<String> = self.unmatched.iter().map(|(n, c)| format!("{n} ({c})")).collect();
-            let more = if self.other_unmatched > 0 { format!(" and {} more", self.other_unmatched) } else { String::new() };
+            let more =
+                if self.other_unmatched > 0 { format!(" and {} more", self.other_unmatched) } else { String::new() };
             notes.push(format!(
                 "{unmatched} records have an identification the checklist does not list, so they are not generalised \
                  even if sensitive: {}{more}.",
@@ -239,7 +243,11 @@ impl Builder<'_> {
 /// A stored identification's name on the checklist, at any rank.
 fn name_of<'n>(names: &'n TaxonIndex, identification: &IdentificationRow) -> Named<'n> {
     match names.named(&identification.taxon_name) {
-        Some(taxon) => Named { taxon: Some(taxon), scientific_name: taxon.scientific_name.clone(), rank: rank_code(taxon.rank).to_owned() },
+        Some(taxon) => Named {
+            taxon: Some(taxon),
+            scientific_name: taxon.scientific_name.clone(),
+            rank: rank_code(taxon.rank).to_owned(),
+        },
         None => match &identification.taxon_rank {
             Some(rank) => Named { taxon: None, scientific_name: identification.taxon_name.clone(), rank: rank.clone() },
             None => Named { taxon: None, scientific_name: String::new(), rank: String::new() },

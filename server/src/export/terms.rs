@@ -40,8 +40,15 @@ pub const OCCURRENCE_TERMS: &[&str] = &[
 ];
 
 /// MeasurementOrFact terms with the occurrence they measure, for an event-core archive.
-pub const EVENT_MEASUREMENT_TERMS: &[&str] =
-    &["occurrenceID", "measurementID", "measurementType", "measurementValue", "measurementUnit", "measurementMethod", "measurementRemarks"];
+pub const EVENT_MEASUREMENT_TERMS: &[&str] = &[
+    "occurrenceID",
+    "measurementID",
+    "measurementType",
+    "measurementValue",
+    "measurementUnit",
+    "measurementMethod",
+    "measurementRemarks",
+];
 
 /// MeasurementOrFact terms after the core id column, in an occurrence-core archive.
 pub const MEASUREMENT_TERMS: &[&str] = after_occurrence_id(EVENT_MEASUREMENT_TERMS);
@@ -71,14 +78,19 @@ pub const OCCURRENCE_CORE: Table =
     Table { row_type: "http://rs.tdwg.org/dwc/terms/Occurrence", file: "occurrence.txt", terms: OCCURRENCE_TERMS };
 
 /// Lengths: column 0 is the occurrence's id (the core id).
-pub const MEASUREMENT_EXTENSION: Table =
-    Table { row_type: "http://rs.tdwg.org/dwc/terms/MeasurementOrFact", file: "measurementorfact.txt", terms: MEASUREMENT_TERMS };
+pub const MEASUREMENT_EXTENSION: Table = Table {
+    row_type: "http://rs.tdwg.org/dwc/terms/MeasurementOrFact",
+    file: "measurementorfact.txt",
+    terms: MEASUREMENT_TERMS,
+};
 
 /// Survey walks (and incidental records) as the core, when an archive has walks.
-pub const EVENT_CORE: Table = Table { row_type: "http://rs.tdwg.org/dwc/terms/Event", file: "event.txt", terms: super::events::EVENT_TERMS };
+pub const EVENT_CORE: Table =
+    Table { row_type: "http://rs.tdwg.org/dwc/terms/Event", file: "event.txt", terms: super::events::EVENT_TERMS };
 
 /// Occurrences as an extension of their event: column 0 is the event's id.
-pub const OCCURRENCE_EXTENSION: Table = Table { row_type: "http://rs.tdwg.org/dwc/terms/Occurrence", file: "occurrence.txt", terms: OCCURRENCE_TERMS };
+pub const OCCURRENCE_EXTENSION: Table =
+    Table { row_type: "http://rs.tdwg.org/dwc/terms/Occurrence", file: "occurrence.txt", terms: OCCURRENCE_TERMS };
 
 /// The identification history (TDWG Darwin Core Identification class; GBIF's
 /// identification-history extension uses the same row type): one row per identification
@@ -100,13 +112,22 @@ pub const EVENT_IDENTIFICATION_TERMS: &[&str] = &[
 pub const IDENTIFICATION_TERMS: &[&str] = after_occurrence_id(EVENT_IDENTIFICATION_TERMS);
 
 /// Identifications: column 0 is the occurrence's id (the core id).
-pub const IDENTIFICATION_EXTENSION: Table =
-    Table { row_type: "http://rs.tdwg.org/dwc/terms/Identification", file: "identification.txt", terms: IDENTIFICATION_TERMS };
+pub const IDENTIFICATION_EXTENSION: Table = Table {
+    row_type: "http://rs.tdwg.org/dwc/terms/Identification",
+    file: "identification.txt",
+    terms: IDENTIFICATION_TERMS,
+};
 
 /// Identifications in an event-core archive: column 0 is the event's id, `occurrenceID` names the animal.
-pub const EVENT_IDENTIFICATION_EXTENSION: Table =
-    Table { row_type: "http://rs.tdwg.org/dwc/terms/Identification", file: "identification.txt", terms: EVENT_IDENTIFICATION_TERMS };
+pub const EVENT_IDENTIFICATION_EXTENSION: Table = Table {
+    row_type: "http://rs.tdwg.org/dwc/terms/Identification",
+    file: "identification.txt",
+    terms: EVENT_IDENTIFICATION_TERMS,
+};
 
 /// Lengths in an event-core archive: column 0 is the event's id, `occurrenceID` names the animal.
-pub const EVENT_MEASUREMENT_EXTENSION: Table =
-    Table { row_type: "http://rs.tdwg.org/dwc/terms/MeasurementOrFact", file: "measurementorfact.txt", terms: EVENT_MEASUREMENT_TERMS };
+pub const EVENT_MEASUREMENT_EXTENSION: Table = Table {
+    row_type: "http://rs.tdwg.org/dwc/terms/MeasurementOrFact",
+    file: "measurementorfact.txt",
+    terms: EVENT_MEASUREMENT_TERMS,
+};

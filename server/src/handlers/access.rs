@@ -37,10 +37,12 @@ fn bearer(parts: &Parts) -> Option<String> {
 
 /// The value of one cookie from the `Cookie` header.
 pub fn cookie(parts: &Parts, name: &str) -> Option<String> {
-    parts.headers.get_all(header::COOKIE).iter().filter_map(|v| v.to_str().ok()).flat_map(|v| v.split(';')).find_map(|pair| {
-        let (key, value) = pair.trim().split_once('=')?;
-        (key == name).then(|| value.to_owned())
-    })
+    parts.headers.get_all(header::COOKIE).iter().filter_map(|v| v.to_str().ok()).flat_map(|v| v.split(';')).find_map(
+        |pair| {
+            let (key, value) = pair.trim().split_once('=')?;
+            (key == name).then(|| value.to_owned())
+        },
+    )
 }
 
 impl FromRequestParts<AppState> for Caller {
@@ -50,7 +52,9 @@ impl FromRequestParts<AppState> for Caller {
         if let Some(token) = bearer(parts) {
             let hash = token_sha256(&token);
             let person = state.store.run(move |conn| people::person_by_device(conn, &hash)).await?;
-            let person = person.ok_or_else(|| ApiError::Unauthorized("this device identity is not known here; ask for a new one".into()))?;
+            let person = person.ok_or_else(|| {
+                ApiError::Unauthorized("this device identity is not known here; ask for a new one".into())
+            })?;
             return Ok(Caller { person: Some(person), session_sha256: None });
         }
         let Some(token) = cookie(parts, SESSION_COOKIE) else {
@@ -99,7 +103,14 @@ impl FromRequestParts<AppState> for Observer {
 impl FromRequestParts<AppState> for Someone {
     type Rejection = ApiError;
     async fn from_request_parts(parts: &mut Parts, state: &AppState) -> Result<Self, Self::Rejection> {
-        person_with(parts, state, &[Role::Observer, Role::Reviewer, Role::Admin], "this needs the phone's own identity or a reviewer's sign-in").await.map(Someone)
+        person_with(
+            parts,
+            state,
+            &[Role::Observer, Role::Reviewer, Role::Admin],
+            "this needs the phone's own identity or a reviewer's sign-in",
+        )
+        .await
+        .map(Someone)
     }
 }
 
@@ -155,5 +166,8 @@ impl<S: Send + Sync> FromRequestParts<S> for ClientAddress {
 /// Whether the request reached us over HTTPS, as the reverse proxy that ended TLS says
 /// (`X-Forwarded-Proto: https`); the server itself speaks plain HTTP.
 pub fn came_over_https(parts_headers: &axum::http::HeaderMap) -> bool {
-    parts_headers.get("x-forwarded-proto").and_then(|v| v.to_str().ok()).is_some_and(|proto| proto.trim().eq_ignore_ascii_case("https"))
+    parts_headers
+        .get("x-forwarded-proto")
+        .and_then(|v| v.to_str().ok())
+        .is_some_and(|proto| proto.trim().eq_ignore_ascii_case("https"))
 }

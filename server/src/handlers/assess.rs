@@ -17,8 +17,8 @@ use serde::Deserialize;
 use crate::AppState;
 use crate::assess::chart;
 use crate::assess::dates::Period;
-use crate::assess::map::taxon_map;
 use crate::assess::input::read_store;
+use crate::assess::map::taxon_map;
 use crate::assess::range::{GridBasis, RangeOptions, RangeReport, choose_grid, parse_centre, range_report};
 use crate::assess::taxa::TaxonFilter;
 use crate::assess::trend::{EffortUnit, TrendReport, generation_length, stored_trend_input, trend_report};
@@ -42,11 +42,19 @@ fn taxon_of(state: &AppState, query: &FigureQuery) -> Result<Option<TaxonFilter>
     query
         .taxon
         .as_deref()
-        .map(|name| state.taxa.filter(name).ok_or_else(|| ApiError::BadRequest(format!("`{name}` is not a taxon on the checklist"))))
+        .map(|name| {
+            state
+                .taxa
+                .filter(name)
+                .ok_or_else(|| ApiError::BadRequest(format!("`{name}` is not a taxon on the checklist")))
+        })
         .transpose()
 }
 
-async fn stored_records(state: &AppState, query: &FigureQuery) -> Result<(Vec<crate::assess::input::PointRecord>, String), ApiError> {
+async fn stored_records(
+    state: &AppState,
+    query: &FigureQuery,
+) -> Result<(Vec<crate::assess::input::PointRecord>, String), ApiError> {
     let values: Vec<String> = query.state.as_deref().unwrap_or("confirmed").split(',').map(str::to_owned).collect();
     let states = parse_states(&values).map_err(ApiError::BadRequest)?;
     let used = describe_states(&states);
@@ -68,7 +76,11 @@ fn sensitive(state: &AppState, name: &str) -> bool {
 
 /// `GET /api/range`: figures for everyone; for a sensitive species the hull's corners
 /// (exact record positions) only for signed-in reviewers.
-pub async fn range(State(state): State<AppState>, caller: Caller, Query(query): Query<FigureQuery>) -> Result<Json<RangeReport>, ApiError> {
+pub async fn range(
+    State(state): State<AppState>,
+    caller: Caller,
+    Query(query): Query<FigureQuery>,
+) -> Result<Json<RangeReport>, ApiError> {
     let mut report = range_of(&state, &query).await?;
     if !sees_sensitive_places(&caller) {
         for taxon in report.taxa.iter_mut().filter(|t| sensitive(&state, &t.taxon)) {
@@ -81,7 +93,11 @@ pub async fn range(State(state): State<AppState>, caller: Caller, Query(query): 
 }
 
 /// `GET /api/range/map.svg`: the map of one taxon (give `taxon` when the records hold several).
-pub async fn range_map(State(state): State<AppState>, caller: Caller, Query(query): Query<FigureQuery>) -> Result<Response, ApiError> {
+pub async fn range_map(
+    State(state): State<AppState>,
+    caller: Caller,
+    Query(query): Query<FigureQuery>,
+) -> Result<Response, ApiError> {
     let report = range_of(&state, &query).await?;
     if !sees_sensitive_places(&caller) && report.taxa.iter().any(|t| sensitive(&state, &t.taxon)) {
         return Err(ApiError::Forbidden(
@@ -97,7 +113,10 @@ pub async fn range_map(State(state): State<AppState>, caller: Caller, Query(quer
 }
 
 /// `GET /api/trend/chart.svg`: the trend chart.
-pub async fn trend_chart(State(state): State<AppState>, Query(query): Query<FigureQuery>) -> Result<Response, ApiError> {
+pub async fn trend_chart(
+    State(state): State<AppState>,
+    Query(query): Query<FigureQuery>,
+) -> Result<Response, ApiError> {
     let report = trend_of(&state, &query).await?;
     let title = query.taxon.clone().unwrap_or_else(|| "Yearly trend".into());
     Ok(svg(chart::trend_chart(&title, &report.years, &report.trend)))
@@ -112,24 +131,38 @@ async fn range_of(state: &AppState, query: &FigureQuery) -> Result<RangeReport, 
     let periods = query
         .period
         .as_deref()
-        .map(|p| p.split(',').map(|one| Period::parse_years(one).map_err(ApiError::BadRequest)).collect::<Result<Vec<_>, _>>())
+        .map(|p| {
+            p.split(',')
+                .map(|one| Period::parse_years(one).map_err(ApiError::BadRequest))
+                .collect::<Result<Vec<_>, _>>()
+        })
         .transpose()?
         .unwrap_or_default();
     let (records, records_used) = stored_records(state, query).await?;
-    let given = query.grid_centre.as_deref().map(parse_centre).transpose().map_err(|message| ApiError::InvalidField { field: "grid_centre".into(), message })?;
-    let (grid, grid_choice) = choose_grid(given, GridBasis::Stored(state.checklist())).map_err(|err| ApiError::BadRequest(err.to_string()))?;
+    let given = query
+        .grid_centre
+        .as_deref()
+        .map(parse_centre)
+        .transpose()
+        .map_err(|message| ApiError::InvalidField { field: "grid_centre".into(), message })?;
+    let (grid, grid_choice) = choose_grid(given, GridBasis::Stored(state.checklist()))
+        .map_err(|err| ApiError::BadRequest(err.to_string()))?;
     let options = RangeOptions { taxon, periods, grid, grid_choice, records_used };
     range_report(&records, &state.taxa, &options).map_err(|err| ApiError::BadRequest(err.to_string()))
 }
 
-pub async fn trend(State(state): State<AppState>, Query(query): Query<FigureQuery>) -> Result<Json<TrendReport>, ApiError> {
+pub async fn trend(
+    State(state): State<AppState>,
+    Query(query): Query<FigureQuery>,
+) -> Result<Json<TrendReport>, ApiError> {
     Ok(Json(trend_of(&state, &query).await?))
 }
 
 async fn trend_of(state: &AppState, query: &FigureQuery) -> Result<TrendReport, ApiError> {
     let taxon = taxon_of(state, query)?;
     let names = &*state.taxa;
-    let generation = generation_length(query.generation_length, taxon.as_ref(), names).map_err(|err| ApiError::BadRequest(err.to_string()))?;
+    let generation = generation_length(query.generation_length, taxon.as_ref(), names)
+        .map_err(|err| ApiError::BadRequest(err.to_string()))?;
     let (records, records_used) = stored_records(state, query).await?;
     let walks = state.store.read(crate::store::walks::list_walks).await?;
     let unit = query.effort.unwrap_or_default();

@@ -35,7 +35,10 @@ fn coordinate(value: Option<&str>, field: &str, limit: f64) -> Result<f64, ApiEr
 }
 
 /// `GET /api/checklist/nearby`: confirmed records per species near `lat`, `lon`.
-pub async fn nearby(State(state): State<AppState>, Query(query): Query<NearbyQuery>) -> Result<Json<NearbyCounts>, ApiError> {
+pub async fn nearby(
+    State(state): State<AppState>,
+    Query(query): Query<NearbyQuery>,
+) -> Result<Json<NearbyCounts>, ApiError> {
     let lat = coordinate(query.lat.as_deref(), "lat", 90.0)?;
     let lon = coordinate(query.lon.as_deref(), "lon", 180.0)?;
     let centre = analysis::LatLon::new(lat, lon).map_err(|err| ApiError::BadRequest(err.to_string()))?;

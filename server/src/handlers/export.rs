@@ -27,8 +27,8 @@ use crate::assess::parse_states;
 use crate::assess::taxa::TaxonIndex;
 use crate::commands::export::{day_bounds, parse_bbox};
 use crate::error::ApiError;
-use crate::handlers::access::Caller;
 use crate::export::{self, Audience, ExportRequest, Format};
+use crate::handlers::access::Caller;
 use crate::store::occurrences::RowFilter;
 
 #[derive(Deserialize)]
@@ -46,14 +46,25 @@ pub struct ExportQuery {
 
 /// `GET /api/export`: public for anyone; `audience=full` only for a signed-in reviewer
 /// or admin (sensitive species as recorded).
-pub async fn export(State(state): State<AppState>, caller: Caller, headers: HeaderMap, Query(query): Query<ExportQuery>) -> Result<Response, ApiError> {
+pub async fn export(
+    State(state): State<AppState>,
+    caller: Caller,
+    headers: HeaderMap,
+    Query(query): Query<ExportQuery>,
+) -> Result<Response, ApiError> {
     let host = headers.get(header::HOST).and_then(|h| h.to_str().ok()).unwrap_or("127.0.0.1:8080");
     let mut request = read_request(&query, format!("http://{host}"), &state.taxa)?;
     request.licence = export::Licence::from_env().map_err(|problem| ApiError::Internal(anyhow::anyhow!(problem)))?;
     if query.audience.as_deref() == Some("full") {
-        let staff = caller.person.as_ref().is_some_and(|p| matches!(p.role, shared_types::Role::Reviewer | shared_types::Role::Admin));
+        let staff = caller
+            .person
+            .as_ref()
+            .is_some_and(|p| matches!(p.role, shared_types::Role::Reviewer | shared_types::Role::Admin));
         if !staff {
-            return Err(ApiError::Forbidden("full exports are for signed-in reviewers and admins; the public export generalises sensitive species".into()));
+            return Err(ApiError::Forbidden(
+                "full exports are for signed-in reviewers and admins; the public export generalises sensitive species"
+                    .into(),
+            ));
         }
         request.audience = Audience::Full;
     }
@@ -81,9 +92,14 @@ pub async fn export(State(state): State<AppState>, caller: Caller, headers: Head
         tracing::error!(error = %problem, "export stopped part way");
         let _ = failed.send(Err(std::io::Error::other("the export stopped part way"))).await;
     });
-    let stream = futures_util::stream::unfold(receiver, |mut receiver| async move { receiver.recv().await.map(|chunk| (chunk, receiver)) });
+    let stream = futures_util::stream::unfold(receiver, |mut receiver| async move {
+        receiver.recv().await.map(|chunk| (chunk, receiver))
+    });
     Ok((
-        [(header::CONTENT_TYPE, media_type.to_owned()), (header::CONTENT_DISPOSITION, format!("attachment; filename=\"{file_name}\""))],
+        [
+            (header::CONTENT_TYPE, media_type.to_owned()),
+            (header::CONTENT_DISPOSITION, format!("attachment; filename=\"{file_name}\"")),
+        ],
         Body::from_stream(stream),
     )
         .into_response())

@@ -45,39 +45,67 @@ pub async fn records(State(state): State<AppState>, Observer(me): Observer) -> R
 /// `reply.photo_exif`). The photos go through the same intake and the same checks
 /// against the record's time and place as the record's own photos. A resend of the
 /// same reply changes nothing.
-pub async fn reply(State(state): State<AppState>, Observer(me): Observer, Path(client_id): Path<String>, multipart: Multipart) -> Result<Json<serde_json::Value>, ApiError> {
-    let record = Uuid::parse_str(&client_id).map_err(|_| ApiError::BadRequest(format!("`{client_id}` is not a record id (a UUID)")))?;
+pub async fn reply(
+    State(state): State<AppState>,
+    Observer(me): Observer,
+    Path(client_id): Path<String>,
+    multipart: Multipart,
+) -> Result<Json<serde_json::Value>, ApiError> {
+    let record = Uuid::parse_str(&client_id)
+        .map_err(|_| ApiError::BadRequest(format!("`{client_id}` is not a record id (a UUID)")))?;
     // Whose record it is, before the body is read.
     let found = state.store.run(move |conn| observations::record_by_client_id(conn, record)).await?;
     let view = found.ok_or_else(|| ApiError::NotFound(format!("no record with id {record}")))?;
-    let owner = state.store.run(move |conn| review_store::observation_of(conn, record)).await?.and_then(|(_, _, owner)| owner);
+    let owner =
+        state.store.run(move |conn| review_store::observation_of(conn, record)).await?.and_then(|(_, _, owner)| owner);
     check_owner(&me, owner, false, &format!("record {record}"))?;
 
     let (json, photos) = read_parts(multipart, "reply").await?;
     let reply: Reply = parse_json(&json).map_err(intake_error)?;
     if reply.message.as_str().is_empty() && photos.is_empty() {
-        return Err(ApiError::InvalidField { field: "message".into(), message: "write a message or add a photo".into() });
+        return Err(ApiError::InvalidField {
+            field: "message".into(),
+            message: "write a message or add a photo".into(),
+        });
     }
     if reply.photo_exif.len() > photos.len() {
-        let message = format!("lists EXIF for {} photos but {} came with the reply", reply.photo_exif.len(), photos.len());
+        let message =
+            format!("lists EXIF for {} photos but {} came with the reply", reply.photo_exif.len(), photos.len());
         return Err(ApiError::InvalidField { field: "photo_exif".into(), message });
     }
-    let mut stored = intake::store_photos(&state, photos, *view.submission.observed_at.offset()).await.map_err(intake_error)?;
+    let mut stored =
+        intake::store_photos(&state, photos, *view.submission.observed_at.offset()).await.map_err(intake_error)?;
     intake::compare_photos(&view.submission, &mut stored, &reply.photo_exif);
     let observer = me.id;
     let outcome = state
         .store
-        .run(move |conn| review_store::add_reply(conn, record, observer, reply.client_id, reply.message.as_str(), &stored, Utc::now()))
+        .run(move |conn| {
+            review_store::add_reply(
+                conn,
+                record,
+                observer,
+                reply.client_id,
+                reply.message.as_str(),
+                &stored,
+                Utc::now(),
+            )
+        })
         .await?;
     match outcome {
-        ReplyOutcome::Added | ReplyOutcome::AlreadyThere => Ok(Json(serde_json::json!({"client_id": record, "received": true}))),
+        ReplyOutcome::Added | ReplyOutcome::AlreadyThere => {
+            Ok(Json(serde_json::json!({"client_id": record, "received": true})))
+        }
         ReplyOutcome::NotTheirs => Err(ApiError::Forbidden(format!("record {record} was sent from another phone"))),
     }
 }
 
 /// `PUT /api/my/profile`: the name and contact this phone's observer chose to give
 /// (either may be empty). The contact is for reviewers only; no route sends it out.
-pub async fn set_profile(State(state): State<AppState>, Observer(me): Observer, body: Bytes) -> Result<Json<serde_json::Value>, ApiError> {
+pub async fn set_profile(
+    State(state): State<AppState>,
+    Observer(me): Observer,
+    body: Bytes,
+) -> Result<Json<serde_json::Value>, ApiError> {
     let profile: DeviceRequest = parse_json(&body).map_err(intake_error)?;
     let name = profile.display_name.map(|n| n.as_str().trim().to_owned()).filter(|n| !n.is_empty());
     let contact = profile.contact.map(|c| c.as_str().trim().to_owned()).filter(|c| !c.is_empty());

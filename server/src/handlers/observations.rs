@@ -17,10 +17,15 @@ use crate::store::observations;
 /// `POST /api/observations`. Answers 200 with a receipt only once the record and its
 /// photos are durably stored; a resend of the same record gets the same receipt.
 /// A phone that shows its device identity has the record put under its observer.
-pub async fn submit(State(state): State<AppState>, caller: Caller, multipart: Multipart) -> Result<Json<Receipt>, ApiError> {
+pub async fn submit(
+    State(state): State<AppState>,
+    caller: Caller,
+    multipart: Multipart,
+) -> Result<Json<Receipt>, ApiError> {
     let (record_json, photos) = read_parts(multipart, "record").await?;
     let observer = caller.person.filter(|p| p.role == shared_types::Role::Observer).map(|p| p.id);
-    let accepted = intake::accept(&state, Upload { record_json, photos }, observer, Utc::now()).await.map_err(intake_error)?;
+    let accepted =
+        intake::accept(&state, Upload { record_json, photos }, observer, Utc::now()).await.map_err(intake_error)?;
     if accepted.replayed {
         tracing::info!(client_id = %accepted.receipt.client_id, "resend of a stored record");
     }
@@ -37,7 +42,11 @@ pub async fn read_parts(mut multipart: Multipart, json_part: &str) -> Result<(Ve
         match name.as_str() {
             "photo" => photos.push(bytes.to_vec()),
             part if part == json_part => json = Some(bytes.to_vec()),
-            other => return Err(ApiError::BadRequest(format!("unexpected form part `{other}`; send `{json_part}` and `photo` parts"))),
+            other => {
+                return Err(ApiError::BadRequest(format!(
+                    "unexpected form part `{other}`; send `{json_part}` and `photo` parts"
+                )));
+            }
         }
     }
     let json = json.ok_or_else(|| ApiError::BadRequest(format!("the form has no `{json_part}` part with its JSON")))?;
@@ -77,7 +86,11 @@ pub async fn list(State(state): State<AppState>, Reviewer(_): Reviewer) -> Resul
 }
 
 /// `GET /api/observations/{client_id}`.
-pub async fn get(State(state): State<AppState>, Reviewer(_): Reviewer, Path(client_id): Path<String>) -> Result<Json<RecordView>, ApiError> {
+pub async fn get(
+    State(state): State<AppState>,
+    Reviewer(_): Reviewer,
+    Path(client_id): Path<String>,
+) -> Result<Json<RecordView>, ApiError> {
     let client_id = Uuid::parse_str(&client_id)
         .map_err(|_| ApiError::BadRequest(format!("`{client_id}` is not a record id (a UUID)")))?;
     state

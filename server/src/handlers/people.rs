@@ -52,16 +52,31 @@ async fn hashed(password: String) -> Result<String, ApiError> {
     if password.chars().count() < auth::MIN_PASSWORD_CHARS {
         return Err(invalid("password", format!("at least {} characters", auth::MIN_PASSWORD_CHARS)));
     }
-    Ok(tokio::task::spawn_blocking(move || auth::hash_password(&password)).await.map_err(|err| ApiError::Internal(err.into()))??)
+    Ok(tokio::task::spawn_blocking(move || auth::hash_password(&password))
+        .await
+        .map_err(|err| ApiError::Internal(err.into()))??)
 }
 
 /// Checks and adds a reviewer or admin on the server itself (`wrackline user add`, the
 /// demo): the audit row names no admin.
-pub async fn add_staff(state: &AppState, username: String, role: Role, display_name: String, password: String) -> Result<i64, ApiError> {
+pub async fn add_staff(
+    state: &AppState,
+    username: String,
+    role: Role,
+    display_name: String,
+    password: String,
+) -> Result<i64, ApiError> {
     add_staff_as(state, None, username, role, display_name, password).await
 }
 
-async fn add_staff_as(state: &AppState, by: Option<i64>, username: String, role: Role, display_name: String, password: String) -> Result<i64, ApiError> {
+async fn add_staff_as(
+    state: &AppState,
+    by: Option<i64>,
+    username: String,
+    role: Role,
+    display_name: String,
+    password: String,
+) -> Result<i64, ApiError> {
     let role = staff_role(role)?;
     let username = username.trim().to_lowercase();
     if username.is_empty() || !username.chars().all(|c| c.is_ascii_alphanumeric() || "-_.".contains(c)) {
@@ -69,12 +84,17 @@ async fn add_staff_as(state: &AppState, by: Option<i64>, username: String, role:
     }
     let hash = hashed(password).await?;
     let name = username.clone();
-    let added = state.store.run(move |conn| people::add_staff(conn, &name, role, &display_name, &hash, by, Utc::now())).await?;
+    let added =
+        state.store.run(move |conn| people::add_staff(conn, &name, role, &display_name, &hash, by, Utc::now())).await?;
     added.ok_or_else(|| ApiError::Conflict(format!("the username {username} is taken")))
 }
 
 /// `POST /api/people`.
-pub async fn add(State(state): State<AppState>, Admin(admin): Admin, body: Bytes) -> Result<Json<serde_json::Value>, ApiError> {
+pub async fn add(
+    State(state): State<AppState>,
+    Admin(admin): Admin,
+    body: Bytes,
+) -> Result<Json<serde_json::Value>, ApiError> {
     let new: NewPerson = parse_json(&body).map_err(intake_error)?;
     let id = add_staff_as(&state, Some(admin.id), new.username, new.role, new.display_name, new.password).await?;
     Ok(Json(serde_json::json!({"id": id})))
@@ -91,13 +111,19 @@ fn is_self(admin: &Person, username: &str) -> bool {
 }
 
 /// `PUT /api/people/{username}/disabled`.
-pub async fn set_disabled(State(state): State<AppState>, Admin(admin): Admin, Path(username): Path<String>, body: Bytes) -> Result<Json<serde_json::Value>, ApiError> {
+pub async fn set_disabled(
+    State(state): State<AppState>,
+    Admin(admin): Admin,
+    Path(username): Path<String>,
+    body: Bytes,
+) -> Result<Json<serde_json::Value>, ApiError> {
     let Disabled { disabled } = parse_json(&body).map_err(intake_error)?;
     if disabled && is_self(&admin, &username) {
         return Err(ApiError::Conflict("an admin cannot turn off their own sign-in".into()));
     }
     let name = username.clone();
-    let changed = state.store.run(move |conn| people::set_disabled(conn, &name, disabled, Some(admin.id), Utc::now())).await?;
+    let changed =
+        state.store.run(move |conn| people::set_disabled(conn, &name, disabled, Some(admin.id), Utc::now())).await?;
     if !changed {
         return Err(ApiError::NotFound(format!("no sign-in called {username}")));
     }
@@ -112,7 +138,12 @@ pub struct NewRole {
 
 /// `PUT /api/people/{username}/role`: reviewer ↔ admin. An admin cannot change their
 /// own role, so the admin making the change is always left.
-pub async fn set_role(State(state): State<AppState>, Admin(admin): Admin, Path(username): Path<String>, body: Bytes) -> Result<Json<serde_json::Value>, ApiError> {
+pub async fn set_role(
+    State(state): State<AppState>,
+    Admin(admin): Admin,
+    Path(username): Path<String>,
+    body: Bytes,
+) -> Result<Json<serde_json::Value>, ApiError> {
     let NewRole { role } = parse_json(&body).map_err(intake_error)?;
     let role = staff_role(role)?;
     if is_self(&admin, &username) {
@@ -122,7 +153,9 @@ pub async fn set_role(State(state): State<AppState>, Admin(admin): Admin, Path(u
     match state.store.run(move |conn| people::set_role(conn, &name, role, Some(admin.id), Utc::now())).await? {
         RoleChange::NoSuchPerson => Err(ApiError::NotFound(format!("no sign-in called {username}"))),
         RoleChange::Unchanged => Ok(Json(serde_json::json!({"username": username, "role": role, "changed": false}))),
-        RoleChange::Changed { from } => Ok(Json(serde_json::json!({"username": username, "role": role, "was": from, "changed": true}))),
+        RoleChange::Changed { from } => {
+            Ok(Json(serde_json::json!({"username": username, "role": role, "was": from, "changed": true})))
+        }
     }
 }
 
@@ -134,11 +167,17 @@ pub struct NewPassword {
 
 /// `PUT /api/people/{username}/password`: a new password chosen by the admin, to hand
 /// over in person; the person's sessions end.
-pub async fn reset_password(State(state): State<AppState>, Admin(admin): Admin, Path(username): Path<String>, body: Bytes) -> Result<Json<serde_json::Value>, ApiError> {
+pub async fn reset_password(
+    State(state): State<AppState>,
+    Admin(admin): Admin,
+    Path(username): Path<String>,
+    body: Bytes,
+) -> Result<Json<serde_json::Value>, ApiError> {
     let NewPassword { password } = parse_json(&body).map_err(intake_error)?;
     let hash = hashed(password).await?;
     let name = username.clone();
-    let changed = state.store.run(move |conn| people::set_password(conn, &name, &hash, Some(admin.id), Utc::now())).await?;
+    let changed =
+        state.store.run(move |conn| people::set_password(conn, &name, &hash, Some(admin.id), Utc::now())).await?;
     if !changed {
         return Err(ApiError::NotFound(format!("no sign-in called {username}")));
     }

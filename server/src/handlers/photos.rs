@@ -42,7 +42,11 @@ pub async fn original(state: State<AppState>, _reviewer: Reviewer, sha256: Path<
 }
 
 /// `GET /api/photos/{sha256}/similar`: near duplicates by perceptual hash, nearest first.
-pub async fn similar(State(state): State<AppState>, _reviewer: Reviewer, Path(sha256): Path<String>) -> Result<Json<Vec<SimilarPhoto>>, ApiError> {
+pub async fn similar(
+    State(state): State<AppState>,
+    _reviewer: Reviewer,
+    Path(sha256): Path<String>,
+) -> Result<Json<Vec<SimilarPhoto>>, ApiError> {
     let key = sha256.clone();
     state
         .store
@@ -52,7 +56,11 @@ pub async fn similar(State(state): State<AppState>, _reviewer: Reviewer, Path(sh
         .ok_or_else(|| ApiError::NotFound(format!("no photo {sha256} with a perceptual hash")))
 }
 
-async fn serve(State(state): State<AppState>, Path(sha256): Path<String>, rendition: Rendition) -> Result<Response, ApiError> {
+async fn serve(
+    State(state): State<AppState>,
+    Path(sha256): Path<String>,
+    rendition: Rendition,
+) -> Result<Response, ApiError> {
     let not_found = || ApiError::NotFound(format!("no photo {sha256}"));
     let path = state.photos.path_of(&sha256, rendition).ok_or_else(not_found)?;
     let key = sha256.clone();
@@ -61,7 +69,9 @@ async fn serve(State(state): State<AppState>, Path(sha256): Path<String>, rendit
     if rendition != Rendition::Original && !path.exists() {
         remake_derivatives(&state, &sha256, orientation).await?;
     }
-    let bytes = tokio::fs::read(&path).await.map_err(|err| ApiError::Internal(anyhow::anyhow!("reading {}: {err}", path.display())))?;
+    let bytes = tokio::fs::read(&path)
+        .await
+        .map_err(|err| ApiError::Internal(anyhow::anyhow!("reading {}: {err}", path.display())))?;
     let media_type = if rendition == Rendition::Original { media_type } else { "image/jpeg".to_owned() };
     // Content-addressed: the bytes behind a hash never change. `nosniff` keeps a
     // browser from reading a polyglot original as anything but an image.
@@ -81,18 +91,27 @@ async fn remake_derivatives(state: &AppState, sha256: &str, orientation: Option<
     let files = state.photos.clone();
     let key = sha256.to_owned();
     // Remaking decodes the original: it waits for a turn like any upload.
-    let derived = state.decode_gate.run(move || -> anyhow::Result<images::Derivatives> {
-        let original = files.path_of(&key, Rendition::Original).ok_or_else(|| anyhow::anyhow!("bad photo hash {key}"))?;
-        let bytes = std::fs::read(&original).map_err(|err| anyhow::anyhow!("reading {}: {err}", original.display()))?;
-        let format = PhotoFormat::sniff(&bytes).ok_or_else(|| anyhow::anyhow!("stored photo {key} is not an image"))?;
-        let derived = images::derive(&bytes, format, orientation).map_err(|err| anyhow::anyhow!("stored photo {key}: {err}"))?;
-        files.put(&key, Rendition::Display, &derived.display_jpeg)?;
-        files.put(&key, Rendition::Thumb, &derived.thumb_jpeg)?;
-        Ok(derived)
-    })
-    .await
-    .map_err(anyhow::Error::from)??;
+    let derived = state
+        .decode_gate
+        .run(move || -> anyhow::Result<images::Derivatives> {
+            let original =
+                files.path_of(&key, Rendition::Original).ok_or_else(|| anyhow::anyhow!("bad photo hash {key}"))?;
+            let bytes =
+                std::fs::read(&original).map_err(|err| anyhow::anyhow!("reading {}: {err}", original.display()))?;
+            let format =
+                PhotoFormat::sniff(&bytes).ok_or_else(|| anyhow::anyhow!("stored photo {key} is not an image"))?;
+            let derived = images::derive(&bytes, format, orientation)
+                .map_err(|err| anyhow::anyhow!("stored photo {key}: {err}"))?;
+            files.put(&key, Rendition::Display, &derived.display_jpeg)?;
+            files.put(&key, Rendition::Thumb, &derived.thumb_jpeg)?;
+            Ok(derived)
+        })
+        .await
+        .map_err(anyhow::Error::from)??;
     let key = sha256.to_owned();
-    state.store.run(move |conn| observations::set_photo_pixels(conn, &key, derived.width, derived.height, &derived.phash)).await?;
+    state
+        .store
+        .run(move |conn| observations::set_photo_pixels(conn, &key, derived.width, derived.height, &derived.phash))
+        .await?;
     Ok(())
 }

@@ -50,7 +50,10 @@ fn states_asked(code: Option<&str>) -> Result<Vec<ReviewState>, ApiError> {
     Ok(match code {
         None | Some("") => vec![ReviewState::AwaitingReview, ReviewState::DetailsRequested],
         Some("any") => Vec::new(),
-        Some(code) => vec![ReviewState::from_code(code).ok_or_else(|| ApiError::BadRequest(format!("state: unknown review state `{code}`")))?],
+        Some(code) => vec![
+            ReviewState::from_code(code)
+                .ok_or_else(|| ApiError::BadRequest(format!("state: unknown review state `{code}`")))?,
+        ],
     })
 }
 
@@ -64,12 +67,17 @@ fn flag_asked(code: Option<&str>) -> Result<Option<QueueFlag>, ApiError> {
 
 fn date_asked(field: &str, text: Option<&str>) -> Result<Option<String>, ApiError> {
     let Some(text) = text.filter(|t| !t.is_empty()) else { return Ok(None) };
-    chrono::NaiveDate::parse_from_str(text, "%Y-%m-%d").map_err(|_| ApiError::BadRequest(format!("{field}: `{text}` is not a date (YYYY-MM-DD)")))?;
+    chrono::NaiveDate::parse_from_str(text, "%Y-%m-%d")
+        .map_err(|_| ApiError::BadRequest(format!("{field}: `{text}` is not a date (YYYY-MM-DD)")))?;
     Ok(Some(text.to_owned()))
 }
 
 /// `GET /api/review/queue`: the records to review, most important first, a page at a time.
-pub async fn queue(State(state): State<AppState>, Reviewer(_): Reviewer, Query(filter): Query<QueueFilter>) -> Result<Json<Vec<QueueItem>>, ApiError> {
+pub async fn queue(
+    State(state): State<AppState>,
+    Reviewer(_): Reviewer,
+    Query(filter): Query<QueueFilter>,
+) -> Result<Json<Vec<QueueItem>>, ApiError> {
     let states = states_asked(filter.state.as_deref())?;
     let flag = flag_asked(filter.flag.as_deref())?;
     let (from, to) = (date_asked("from", filter.from.as_deref())?, date_asked("to", filter.to.as_deref())?);
@@ -79,7 +87,10 @@ pub async fn queue(State(state): State<AppState>, Reviewer(_): Reviewer, Query(f
         .run(move |conn| {
             let undecided = duplicates_store::undecided(conn)?;
             let records = observations::records_in_states(conn, &states)?;
-            Ok(records.into_iter().map(|(record, taxon)| (undecided.contains(&record.observation_id), record, taxon)).collect::<Vec<_>>())
+            Ok(records
+                .into_iter()
+                .map(|(record, taxon)| (undecided.contains(&record.observation_id), record, taxon))
+                .collect::<Vec<_>>())
         })
         .await?;
     let taxa = state.taxa.clone();
@@ -102,17 +113,27 @@ pub async fn queue(State(state): State<AppState>, Reviewer(_): Reviewer, Query(f
         .collect();
     review::order(&mut items);
     let page = items.into_iter().skip(filter.offset.unwrap_or(0)).take(limit);
-    Ok(Json(page.map(|(_, record, priority_reasons, current_taxon)| QueueItem { record, current_taxon, priority_reasons }).collect()))
+    Ok(Json(
+        page.map(|(_, record, priority_reasons, current_taxon)| QueueItem { record, current_taxon, priority_reasons })
+            .collect(),
+    ))
 }
 
 fn in_area(record: &shared_types::RecordView, area: Option<&str>, checklist: &species_key::Checklist) -> bool {
     area.filter(|a| !a.is_empty()).is_none_or(|code| {
-        record.submission.position.is_some_and(|p| checklist.area_at(p.latitude.get(), p.longitude.get()).is_some_and(|a| a.code == code))
+        record
+            .submission
+            .position
+            .is_some_and(|p| checklist.area_at(p.latitude.get(), p.longitude.get()).is_some_and(|a| a.code == code))
     })
 }
 
 /// `GET /api/review/records/{client_id}`.
-pub async fn detail(State(state): State<AppState>, Reviewer(_): Reviewer, Path(client_id): Path<String>) -> Result<Json<ReviewDetail>, ApiError> {
+pub async fn detail(
+    State(state): State<AppState>,
+    Reviewer(_): Reviewer,
+    Path(client_id): Path<String>,
+) -> Result<Json<ReviewDetail>, ApiError> {
     let id = record_id(&client_id)?;
     let found = state
         .store
@@ -122,22 +143,35 @@ pub async fn detail(State(state): State<AppState>, Reviewer(_): Reviewer, Path(c
             let taxon = review_store::current_taxon(conn, observation)?;
             let duplicates = duplicate_views(conn, &record)?;
             let possible = !duplicates.is_empty() && duplicates.iter().any(|d| d.decision.is_none());
-            Ok(Some((record, taxon, review_store::identifications(conn, observation)?, review_store::messages(conn, observation)?, review_store::events(conn, observation)?, duplicates, possible)))
+            Ok(Some((
+                record,
+                taxon,
+                review_store::identifications(conn, observation)?,
+                review_store::messages(conn, observation)?,
+                review_store::events(conn, observation)?,
+                duplicates,
+                possible,
+            )))
         })
         .await?;
-    let (record, taxon, identifications, messages, events, duplicates, possible) = found.ok_or_else(|| ApiError::NotFound(format!("no record with id {id}")))?;
+    let (record, taxon, identifications, messages, events, duplicates, possible) =
+        found.ok_or_else(|| ApiError::NotFound(format!("no record with id {id}")))?;
     let (_, priority_reasons) = review::priority(&record, taxon.as_deref(), state.checklist(), possible);
     let key = review::key_replay(state.checklist(), &record.submission);
     Ok(Json(ReviewDetail { record, identifications, messages, events, priority_reasons, duplicates, key }))
 }
 
-fn duplicate_views(conn: &rusqlite::Connection, record: &shared_types::RecordView) -> Result<Vec<shared_types::DuplicateView>, crate::store::StoreError> {
+fn duplicate_views(
+    conn: &rusqlite::Connection,
+    record: &shared_types::RecordView,
+) -> Result<Vec<shared_types::DuplicateView>, crate::store::StoreError> {
     let mut views = Vec::new();
     for candidate in duplicates_store::candidates_of(conn, record.observation_id)? {
         let Some(other) = observations::record_by_observation_id(conn, candidate.other)? else { continue };
         let here = record.submission.position.map(|p| (p.latitude.get(), p.longitude.get()));
         let there = other.submission.position.map(|p| (p.latitude.get(), p.longitude.get()));
-        let gap_hours = (other.submission.observed_at - record.submission.observed_at).num_seconds().abs() as f64 / 3600.0;
+        let gap_hours =
+            (other.submission.observed_at - record.submission.observed_at).num_seconds().abs() as f64 / 3600.0;
         views.push(shared_types::DuplicateView {
             distance_m: here.zip(there).map(|(a, b)| crate::duplicates::geodesic_m(a, b)),
             gap_hours,
@@ -153,7 +187,12 @@ fn duplicate_views(conn: &rusqlite::Connection, record: &shared_types::RecordVie
 
 /// `POST /api/review/records/{client_id}/duplicates/{other_client_id}`: the same animal
 /// (merge) or different animals (never suggested again).
-pub async fn decide_pair(State(state): State<AppState>, Reviewer(reviewer): Reviewer, Path((client_id, other_id)): Path<(String, String)>, body: Bytes) -> Result<Json<serde_json::Value>, ApiError> {
+pub async fn decide_pair(
+    State(state): State<AppState>,
+    Reviewer(reviewer): Reviewer,
+    Path((client_id, other_id)): Path<(String, String)>,
+    body: Bytes,
+) -> Result<Json<serde_json::Value>, ApiError> {
     let (a, b) = (record_id(&client_id)?, record_id(&other_id)?);
     let decision: shared_types::PairDecision = parse_json(&body).map_err(intake_error)?;
     let person = reviewer.id;
@@ -167,25 +206,40 @@ pub async fn decide_pair(State(state): State<AppState>, Reviewer(reviewer): Revi
         .await?;
     match outcome {
         None => Err(ApiError::NotFound("no such record".into())),
-        Some(duplicates_store::Decided::Refused) => Err(ApiError::Conflict("one of these records is merged already, or they are the same record".into())),
+        Some(duplicates_store::Decided::Refused) => {
+            Err(ApiError::Conflict("one of these records is merged already, or they are the same record".into()))
+        }
         Some(duplicates_store::Decided::KeptApart) => Ok(Json(serde_json::json!({"decision": "different animals"}))),
-        Some(duplicates_store::Decided::Merged { merge_id }) => Ok(Json(serde_json::json!({"decision": "same animal", "merge_id": merge_id}))),
+        Some(duplicates_store::Decided::Merged { merge_id }) => {
+            Ok(Json(serde_json::json!({"decision": "same animal", "merge_id": merge_id})))
+        }
     }
 }
 
 /// `POST /api/review/merges/{merge_id}/undo`: puts both records back exactly as they were.
-pub async fn undo_merge(State(state): State<AppState>, Reviewer(reviewer): Reviewer, Path(merge_id): Path<i64>) -> Result<Json<serde_json::Value>, ApiError> {
+pub async fn undo_merge(
+    State(state): State<AppState>,
+    Reviewer(reviewer): Reviewer,
+    Path(merge_id): Path<i64>,
+) -> Result<Json<serde_json::Value>, ApiError> {
     let person = reviewer.id;
     match state.store.run(move |conn| duplicates_store::undo_merge(conn, merge_id, person, Utc::now())).await? {
         duplicates_store::Undo::Undone => Ok(Json(serde_json::json!({"merge_id": merge_id, "undone": true}))),
         duplicates_store::Undo::NotFound => Err(ApiError::NotFound(format!("no standing merge {merge_id}"))),
-        duplicates_store::Undo::Blocked { by } => Err(ApiError::Conflict(format!("merge {by} moved some of the same reports later; undo merge {by} first"))),
+        duplicates_store::Undo::Blocked { by } => {
+            Err(ApiError::Conflict(format!("merge {by} moved some of the same reports later; undo merge {by} first")))
+        }
     }
 }
 
 /// `POST /api/review/records/{client_id}/actions`: confirm, ask for details, or mark
 /// not confirmable. Answers with the new state.
-pub async fn act(State(state): State<AppState>, Reviewer(reviewer): Reviewer, Path(client_id): Path<String>, body: Bytes) -> Result<Json<serde_json::Value>, ApiError> {
+pub async fn act(
+    State(state): State<AppState>,
+    Reviewer(reviewer): Reviewer,
+    Path(client_id): Path<String>,
+    body: Bytes,
+) -> Result<Json<serde_json::Value>, ApiError> {
     let id = record_id(&client_id)?;
     let action: ReviewAction = parse_json(&body).map_err(intake_error)?;
     let person = reviewer.id;
@@ -203,9 +257,13 @@ pub async fn act(State(state): State<AppState>, Reviewer(reviewer): Reviewer, Pa
 /// `GET /api/review/records/{client_id}/map.svg`: a small map of the record — where the
 /// phone put it (with its uncertainty), where its photos were taken, and the other reports
 /// that may be the same animal.
-pub async fn place_map(State(state): State<AppState>, Reviewer(_): Reviewer, Path(client_id): Path<String>) -> Result<axum::response::Response, ApiError> {
-    use axum::response::IntoResponse as _;
+pub async fn place_map(
+    State(state): State<AppState>,
+    Reviewer(_): Reviewer,
+    Path(client_id): Path<String>,
+) -> Result<axum::response::Response, ApiError> {
     use crate::assess::map::{MapPoint, place_map};
+    use axum::response::IntoResponse as _;
     let id = record_id(&client_id)?;
     let found = state
         .store
@@ -221,20 +279,40 @@ pub async fn place_map(State(state): State<AppState>, Reviewer(_): Reviewer, Pat
     if let Some(p) = record.submission.position
         && let Some(position) = at(p.latitude.get(), p.longitude.get())
     {
-        points.push(MapPoint { label: "this record (phone)".into(), position, uncertainty_m: p.accuracy_m.map(|a| a.get()), colour: "#1c3b57" });
+        points.push(MapPoint {
+            label: "this record (phone)".into(),
+            position,
+            uncertainty_m: p.accuracy_m.map(|a| a.get()),
+            colour: "#1c3b57",
+        });
     }
     for (i, photo) in record.photos.iter().enumerate() {
         // The server's reading of the file, else the phone's of the original (upload
         // copies carry no EXIF).
-        let readings = [(&photo.exif, "its own GPS"), (photo.phone_exif.as_ref().unwrap_or(&photo.exif), "its own GPS, as the phone read it")];
-        let found = readings.into_iter().find_map(|(exif, words)| exif.latitude.zip(exif.longitude).and_then(|(lat, lon)| at(lat, lon)).map(|p| (p, exif, words)));
+        let readings = [
+            (&photo.exif, "its own GPS"),
+            (photo.phone_exif.as_ref().unwrap_or(&photo.exif), "its own GPS, as the phone read it"),
+        ];
+        let found = readings.into_iter().find_map(|(exif, words)| {
+            exif.latitude.zip(exif.longitude).and_then(|(lat, lon)| at(lat, lon)).map(|p| (p, exif, words))
+        });
         if let Some((position, exif, words)) = found {
-            points.push(MapPoint { label: format!("photo {} ({words})", i + 1), position, uncertainty_m: exif.horizontal_error_m, colour: "#e07a1f" });
+            points.push(MapPoint {
+                label: format!("photo {} ({words})", i + 1),
+                position,
+                uncertainty_m: exif.horizontal_error_m,
+                colour: "#e07a1f",
+            });
         }
     }
     for dup in &duplicates {
         if let Some(p) = dup.other.submission.position.and_then(|p| at(p.latitude.get(), p.longitude.get())) {
-            points.push(MapPoint { label: format!("possibly the same animal ({})", dup.other.submission.observed_at.format("%Y-%m-%d")), position: p, uncertainty_m: None, colour: "#7a3e9d" });
+            points.push(MapPoint {
+                label: format!("possibly the same animal ({})", dup.other.submission.observed_at.format("%Y-%m-%d")),
+                position: p,
+                uncertainty_m: None,
+                colour: "#7a3e9d",
+            });
         }
     }
     let svg = place_map("where this record was made", &points, &analysis::range::AooGrid::default());

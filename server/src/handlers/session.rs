@@ -25,7 +25,12 @@ use crate::intake::parse_json;
 use crate::store::people;
 
 /// `POST /api/session`: signs in; sets the session cookie and returns the CSRF token.
-pub async fn login(State(state): State<AppState>, ClientAddress(address): ClientAddress, headers: HeaderMap, body: Bytes) -> Result<Response, ApiError> {
+pub async fn login(
+    State(state): State<AppState>,
+    ClientAddress(address): ClientAddress,
+    headers: HeaderMap,
+    body: Bytes,
+) -> Result<Response, ApiError> {
     let request: LoginRequest = parse_json(&body).map_err(intake_error)?;
     let username = request.username.trim().to_owned();
     if let Some((wait, lock)) = state.logins.locked_for(&username, address, Instant::now()) {
@@ -35,7 +40,9 @@ pub async fn login(State(state): State<AppState>, ClientAddress(address): Client
             auth::Lock::Address => "from this address".to_owned(),
             auth::Lock::Name => format!("for {username}"),
         };
-        return Err(ApiError::TooManyRequests(format!("too many failed sign-ins {whose}; try again in {minutes} minutes")));
+        return Err(ApiError::TooManyRequests(format!(
+            "too many failed sign-ins {whose}; try again in {minutes} minutes"
+        )));
     }
     let lookup = username.clone();
     let found = state.store.run(move |conn| people::staff_by_username(conn, &lookup)).await?;
@@ -54,11 +61,15 @@ pub async fn login(State(state): State<AppState>, ClientAddress(address): Client
     state.logins.succeeded(&username, address);
     let (token, csrf_token) = (new_token(), new_token());
     let (hash, csrf, id, now) = (token_sha256(&token), csrf_token.clone(), person.id, Utc::now());
-    state.store.run(move |conn| people::add_session(conn, &hash, id, &csrf, now, now + chrono::Duration::hours(SESSION_HOURS))).await?;
+    state
+        .store
+        .run(move |conn| people::add_session(conn, &hash, id, &csrf, now, now + chrono::Duration::hours(SESSION_HOURS)))
+        .await?;
     let cookie = session_cookie(&token, SESSION_HOURS * 3600, came_over_https(&headers));
     let info = SessionInfo { role: person.role, display_name: person.display_name.unwrap_or_default(), csrf_token };
     let mut response_headers = HeaderMap::new();
-    response_headers.insert(header::SET_COOKIE, HeaderValue::from_str(&cookie).map_err(|err| ApiError::Internal(err.into()))?);
+    response_headers
+        .insert(header::SET_COOKIE, HeaderValue::from_str(&cookie).map_err(|err| ApiError::Internal(err.into()))?);
     Ok((response_headers, Json(info)).into_response())
 }
 
@@ -80,18 +91,24 @@ pub async fn logout(State(state): State<AppState>, headers: HeaderMap, caller: C
 /// `GET /api/session`: who is calling, if anyone.
 pub async fn who(caller: Caller) -> Json<serde_json::Value> {
     Json(match caller.person {
-        Some(person) => serde_json::json!({"signed_in": true, "role": person.role, "display_name": person.display_name}),
+        Some(person) => {
+            serde_json::json!({"signed_in": true, "role": person.role, "display_name": person.display_name})
+        }
         None => serde_json::json!({"signed_in": false}),
     })
 }
 
 /// `POST /api/devices`: a new observer identity for a phone.
 pub async fn new_device(State(state): State<AppState>, body: Bytes) -> Result<Json<DeviceIdentity>, ApiError> {
-    let request: DeviceRequest = if body.is_empty() { DeviceRequest::default() } else { parse_json(&body).map_err(intake_error)? };
+    let request: DeviceRequest =
+        if body.is_empty() { DeviceRequest::default() } else { parse_json(&body).map_err(intake_error)? };
     let token = new_token();
     let hash = token_sha256(&token);
     let name = request.display_name.map(|n| n.as_str().to_owned()).filter(|n| !n.is_empty());
     let contact = request.contact.map(|c| c.as_str().to_owned()).filter(|c| !c.is_empty());
-    state.store.run(move |conn| people::add_device(conn, &hash, name.as_deref(), contact.as_deref(), Utc::now())).await?;
+    state
+        .store
+        .run(move |conn| people::add_device(conn, &hash, name.as_deref(), contact.as_deref(), Utc::now()))
+        .await?;
     Ok(Json(DeviceIdentity { token }))
 }

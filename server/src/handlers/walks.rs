@@ -23,7 +23,11 @@ use crate::store::walks::{self, LinkOutcome, StoredWalk};
 
 /// `POST /api/walks`: answers only once the walk is stored, under the phone that sent
 /// it; a resend gets the same receipt, another phone sending the same walk id a 403.
-pub async fn submit(State(state): State<AppState>, Observer(me): Observer, body: Bytes) -> Result<Json<WalkReceipt>, ApiError> {
+pub async fn submit(
+    State(state): State<AppState>,
+    Observer(me): Observer,
+    body: Bytes,
+) -> Result<Json<WalkReceipt>, ApiError> {
     match intake_walks::accept_walk(&state, &body, Some(me.id), Utc::now()).await {
         Ok(receipt) => Ok(Json(receipt)),
         Err(WalkRefused::Intake(err)) => Err(intake_error(err)),
@@ -40,10 +44,17 @@ pub async fn list(State(state): State<AppState>, Reviewer(_): Reviewer) -> Resul
 /// phone that sent the record may, and only onto a walk of its own (or one not stored
 /// yet); a reviewer may link any record. Doing it again is harmless; moving a record to
 /// another walk is refused.
-pub async fn link(State(state): State<AppState>, Someone(caller): Someone, Path(client_id): Path<String>, body: Bytes) -> Result<Json<serde_json::Value>, ApiError> {
-    let record = Uuid::parse_str(&client_id).map_err(|_| ApiError::BadRequest(format!("`{client_id}` is not a record id (a UUID)")))?;
+pub async fn link(
+    State(state): State<AppState>,
+    Someone(caller): Someone,
+    Path(client_id): Path<String>,
+    body: Bytes,
+) -> Result<Json<serde_json::Value>, ApiError> {
+    let record = Uuid::parse_str(&client_id)
+        .map_err(|_| ApiError::BadRequest(format!("`{client_id}` is not a record id (a UUID)")))?;
     let owner = state.store.run(move |conn| review_store::observation_of(conn, record)).await?;
-    let (_, _, record_owner) = owner.ok_or_else(|| ApiError::NotFound(format!("no record with id {record}; send the record first")))?;
+    let (_, _, record_owner) =
+        owner.ok_or_else(|| ApiError::NotFound(format!("no record with id {record}; send the record first")))?;
     check_owner(&caller, record_owner, true, &format!("record {record}"))?;
     let link: WalkLink = parse_json(&body).map_err(intake_error)?;
     let walk = link.walk_client_id;
@@ -51,9 +62,13 @@ pub async fn link(State(state): State<AppState>, Someone(caller): Someone, Path(
         check_owner(&caller, Some(walk_owner), true, &format!("walk {walk}"))?;
     }
     match state.store.run(move |conn| walks::link_record(conn, record, walk)).await? {
-        LinkOutcome::Linked | LinkOutcome::AlreadyLinked => Ok(Json(serde_json::json!({"client_id": record, "walk_client_id": walk}))),
+        LinkOutcome::Linked | LinkOutcome::AlreadyLinked => {
+            Ok(Json(serde_json::json!({"client_id": record, "walk_client_id": walk})))
+        }
         LinkOutcome::OnAnotherWalk => Err(ApiError::Conflict(format!("record {record} is already on another walk"))),
-        LinkOutcome::NoSuchRecord => Err(ApiError::NotFound(format!("no record with id {record}; send the record first"))),
+        LinkOutcome::NoSuchRecord => {
+            Err(ApiError::NotFound(format!("no record with id {record}; send the record first")))
+        }
     }
 }
 
@@ -63,7 +78,10 @@ pub struct EffortQuery {
 }
 
 /// `GET /api/effort?by=month|year`.
-pub async fn effort(State(state): State<AppState>, Query(query): Query<EffortQuery>) -> Result<Json<Vec<EffortRow>>, ApiError> {
+pub async fn effort(
+    State(state): State<AppState>,
+    Query(query): Query<EffortQuery>,
+) -> Result<Json<Vec<EffortRow>>, ApiError> {
     let stored = state.store.run(|conn| walks::list_walks(conn)).await?;
     Ok(Json(effort::summarise(&stored, query.by.unwrap_or(Period::Year))))
 }

@@ -37,7 +37,9 @@ const JPEG_QUALITY: u8 = 82;
 pub enum ImageProblem {
     #[error("its header could not be read ({0})")]
     UnreadableHeader(String),
-    #[error("it declares {width} × {height} pixels; the limit is {MAX_SIDE_PX} px a side and {MAX_PIXELS} pixels in all")]
+    #[error(
+        "it declares {width} × {height} pixels; the limit is {MAX_SIDE_PX} px a side and {MAX_PIXELS} pixels in all"
+    )]
     TooManyPixels { width: u32, height: u32 },
     #[error("it declares an empty image ({width} × {height} pixels)")]
     NoPixels { width: u32, height: u32 },
@@ -59,9 +61,8 @@ pub struct Derivatives {
 
 /// Reads the declared pixel size from the header alone and checks it against the limits.
 pub fn checked_dimensions(bytes: &[u8], format: PhotoFormat) -> Result<(u32, u32), ImageProblem> {
-    let (width, height) = reader(bytes, format)
-        .into_dimensions()
-        .map_err(|err| ImageProblem::UnreadableHeader(err.to_string()))?;
+    let (width, height) =
+        reader(bytes, format).into_dimensions().map_err(|err| ImageProblem::UnreadableHeader(err.to_string()))?;
     if width == 0 || height == 0 {
         return Err(ImageProblem::NoPixels { width, height });
     }
@@ -96,7 +97,11 @@ pub fn derive(bytes: &[u8], format: PhotoFormat, orientation: Option<u16>) -> Re
 
 /// Decodes (with the checks of [`decode`]) and turns the pixels upright; also returns
 /// the stored size, before orientation.
-pub fn upright(bytes: &[u8], format: PhotoFormat, orientation: Option<u16>) -> Result<(DynamicImage, (u32, u32)), ImageProblem> {
+pub fn upright(
+    bytes: &[u8],
+    format: PhotoFormat,
+    orientation: Option<u16>,
+) -> Result<(DynamicImage, (u32, u32)), ImageProblem> {
     let mut image = decode(bytes, format)?;
     let stored = (image.width(), image.height());
     image.apply_orientation(orientation_of(orientation));

@@ -9,8 +9,8 @@ pub mod photos;
 pub mod walks;
 
 use chrono::{DateTime, Utc};
-pub use shared_types::exif;
 use sha2::{Digest as _, Sha256};
+pub use shared_types::exif;
 use shared_types::{Receipt, Submission};
 
 use crate::AppState;
@@ -103,21 +103,41 @@ fn missing_field(message: &str) -> Option<&str> {
 }
 
 /// Checks, stores and links everything in `upload`.
-pub async fn accept(state: &AppState, upload: Upload, observer_id: Option<i64>, now: DateTime<Utc>) -> Result<Accepted, IntakeError> {
+pub async fn accept(
+    state: &AppState,
+    upload: Upload,
+    observer_id: Option<i64>,
+    now: DateTime<Utc>,
+) -> Result<Accepted, IntakeError> {
     let submission = parse_submission(&upload.record_json, now)?;
     if submission.photo_exif.len() > upload.photos.len() {
         return Err(IntakeError::Field {
             field: "photo_exif".into(),
-            message: format!("lists EXIF for {} photos but {} came with the record", submission.photo_exif.len(), upload.photos.len()),
+            message: format!(
+                "lists EXIF for {} photos but {} came with the record",
+                submission.photo_exif.len(),
+                upload.photos.len()
+            ),
         });
     }
     check_walk_owner(state, &submission, observer_id).await?;
     let mut stored = store_photos(state, upload.photos, *submission.observed_at.offset()).await?;
     compare_photos(&submission, &mut stored, &submission.photo_exif);
     let (flags, guessed_taxon) = arrival_flags(state, &submission).await?;
-    let new = NewObservation { content_sha256: content_hash(&submission, &stored), submission, photos: stored, flags, guessed_taxon, observer_id };
+    let new = NewObservation {
+        content_sha256: content_hash(&submission, &stored),
+        submission,
+        photos: stored,
+        flags,
+        guessed_taxon,
+        observer_id,
+    };
     let client_id = new.submission.client_id;
-    let outcome = state.store.run(move |conn| observations::insert_observation(conn, &new, now)).await.map_err(anyhow::Error::from)?;
+    let outcome = state
+        .store
+        .run(move |conn| observations::insert_observation(conn, &new, now))
+        .await
+        .map_err(anyhow::Error::from)?;
     match outcome {
         Insertion::Created(receipt) => {
             find_duplicates(state, receipt.observation_id, Utc::now()).await?;
@@ -134,13 +154,22 @@ pub async fn accept(state: &AppState, upload: Upload, observer_id: Option<i64>, 
 
 /// Refuses a record that names a walk another phone sent (walk ids are public in
 /// exports). A walk not stored yet may be named: records can arrive before their walk.
-async fn check_walk_owner(state: &AppState, submission: &Submission, observer_id: Option<i64>) -> Result<(), IntakeError> {
+async fn check_walk_owner(
+    state: &AppState,
+    submission: &Submission,
+    observer_id: Option<i64>,
+) -> Result<(), IntakeError> {
     let Some(walk) = submission.walk_client_id else { return Ok(()) };
-    let owner = state.store.run(move |conn| crate::store::walks::walk_observer(conn, walk)).await.map_err(anyhow::Error::from)?;
+    let owner = state
+        .store
+        .run(move |conn| crate::store::walks::walk_observer(conn, walk))
+        .await
+        .map_err(anyhow::Error::from)?;
     match owner {
-        Some(Some(owner)) if observer_id != Some(owner) => {
-            Err(IntakeError::Field { field: "walk_client_id".into(), message: format!("walk {walk} was sent from another phone") })
-        }
+        Some(Some(owner)) if observer_id != Some(owner) => Err(IntakeError::Field {
+            field: "walk_client_id".into(),
+            message: format!("walk {walk} was sent from another phone"),
+        }),
         _ => Ok(()),
     }
 }
@@ -216,7 +245,11 @@ pub fn search_duplicates(
 /// photo first; then each is decoded in turn through the server's decode gate (hashing,
 /// EXIF, decoding and derivatives are blocking work); only when all have passed are the
 /// files written, so a bad photo refuses the record before any file is stored.
-pub async fn store_photos(state: &AppState, photos: Vec<Vec<u8>>, record_offset: chrono::FixedOffset) -> Result<Vec<StoredPhoto>, IntakeError> {
+pub async fn store_photos(
+    state: &AppState,
+    photos: Vec<Vec<u8>>,
+    record_offset: chrono::FixedOffset,
+) -> Result<Vec<StoredPhoto>, IntakeError> {
     if photos.len() > MAX_PHOTOS_PER_RECORD {
         return Err(IntakeError::TooManyPhotos(photos.len()));
     }
@@ -225,7 +258,8 @@ pub async fn store_photos(state: &AppState, photos: Vec<Vec<u8>>, record_offset:
     }
     let mut prepared = Vec::with_capacity(photos.len());
     for (index, bytes) in photos.into_iter().enumerate() {
-        let one = state.decode_gate.run(move || prepare_photo(bytes, record_offset)).await.map_err(anyhow::Error::from)?;
+        let one =
+            state.decode_gate.run(move || prepare_photo(bytes, record_offset)).await.map_err(anyhow::Error::from)?;
         prepared.push(one.map_err(|problem| IntakeError::Photo { number: index + 1, problem })?);
     }
     let photo_files = state.photos.clone();
@@ -236,18 +270,28 @@ pub async fn store_photos(state: &AppState, photos: Vec<Vec<u8>>, record_offset:
 
 /// Flags for reviewers and the species' scientific name, when the record names a
 /// checklist species.
-async fn arrival_flags(state: &AppState, submission: &Submission) -> Result<(Vec<shared_types::RecordFlag>, Option<String>), IntakeError> {
+async fn arrival_flags(
+    state: &AppState,
+    submission: &Submission,
+) -> Result<(Vec<shared_types::RecordFlag>, Option<String>), IntakeError> {
     let Some(taxon) = crate::flags::species_of(&state.taxa, submission) else {
         return Ok((Vec::new(), None));
     };
     let name = taxon.scientific_name.clone();
     let query_name = name.clone();
-    let confirmed = state.store.run(move |conn| observations::confirmed_positions(conn, &query_name)).await.map_err(anyhow::Error::from)?;
+    let confirmed = state
+        .store
+        .run(move |conn| observations::confirmed_positions(conn, &query_name))
+        .await
+        .map_err(anyhow::Error::from)?;
     Ok((crate::flags::raise(state.checklist(), submission, taxon, &confirmed), Some(name)))
 }
 
 /// Writes each checked photo's original and derivatives durably.
-fn write_photo_files(files: &photos::PhotoFiles, prepared: Vec<(Vec<u8>, images::Derivatives, StoredPhoto)>) -> Result<Vec<StoredPhoto>, IntakeError> {
+fn write_photo_files(
+    files: &photos::PhotoFiles,
+    prepared: Vec<(Vec<u8>, images::Derivatives, StoredPhoto)>,
+) -> Result<Vec<StoredPhoto>, IntakeError> {
     prepared
         .into_iter()
         .map(|(bytes, derived, stored)| {
@@ -294,11 +338,22 @@ fn phone_reading(phone: &shared_types::PhotoExif, record_offset: chrono::FixedOf
 /// The server's reading of a received file whose EXIF time has no offset of its own,
 /// resolved again with the offset the phone had at that photo's local time — when the
 /// phone read the same local time from its original, so the offset belongs to it.
-fn with_device_offset(received: shared_types::PhotoExif, phone: Option<&shared_types::PhotoExif>, record_offset: chrono::FixedOffset) -> shared_types::PhotoExif {
-    let Some(phone) = phone.filter(|p| p.device_offset.is_some() && p.taken_local.is_some() && p.taken_local == received.taken_local) else {
+fn with_device_offset(
+    received: shared_types::PhotoExif,
+    phone: Option<&shared_types::PhotoExif>,
+    record_offset: chrono::FixedOffset,
+) -> shared_types::PhotoExif {
+    let Some(phone) =
+        phone.filter(|p| p.device_offset.is_some() && p.taken_local.is_some() && p.taken_local == received.taken_local)
+    else {
         return received;
     };
-    let again = shared_types::PhotoExif { taken_at: None, offset_source: None, device_offset: phone.device_offset.clone(), ..received };
+    let again = shared_types::PhotoExif {
+        taken_at: None,
+        offset_source: None,
+        device_offset: phone.device_offset.clone(),
+        ..received
+    };
     let resolved = exif::resolve_time(again, record_offset);
     // The offset is kept with the reading as its instant; the files' table is shared by records.
     shared_types::PhotoExif { device_offset: None, ..resolved }

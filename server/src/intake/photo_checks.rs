@@ -52,16 +52,18 @@ pub struct Place {
 pub fn compare(record: &Submission, received: &PhotoExif, phone: Option<&PhotoExif>) -> PhotoCheck {
     let time = time_of(received, phone);
     let place = place_of(received, phone);
-    let seconds_before_record = time
-        .map(|(_, taken)| (record.observed_at.with_timezone(&Utc) - taken.with_timezone(&Utc)).num_milliseconds() as f64 / 1000.0);
+    let seconds_before_record = time.map(|(_, taken)| {
+        (record.observed_at.with_timezone(&Utc) - taken.with_timezone(&Utc)).num_milliseconds() as f64 / 1000.0
+    });
     let position = record.position.as_ref();
-    let metres_from_record = match (position, place) {
-        (Some(at), Some((_, photo))) => Some(Geodesic.distance(
-            Point::new(at.longitude.get(), at.latitude.get()),
-            Point::new(photo.longitude, photo.latitude),
-        )),
-        _ => None,
-    };
+    let metres_from_record =
+        match (position, place) {
+            (Some(at), Some((_, photo))) => Some(Geodesic.distance(
+                Point::new(at.longitude.get(), at.latitude.get()),
+                Point::new(photo.longitude, photo.latitude),
+            )),
+            _ => None,
+        };
     let mut flags = Vec::new();
     if seconds_before_record.is_some_and(|s| s > (TAKEN_BEFORE_LIMIT_HOURS * 3600) as f64) {
         flags.push(PhotoFlag::TakenLongBeforeRecord);

@@ -76,7 +76,8 @@ pub struct PhotoFiles {
 
 impl PhotoFiles {
     pub fn open(root: &Path) -> anyhow::Result<Self> {
-        fs::create_dir_all(root.join("tmp")).with_context(|| format!("creating the photo folder {}", root.display()))?;
+        fs::create_dir_all(root.join("tmp"))
+            .with_context(|| format!("creating the photo folder {}", root.display()))?;
         Ok(Self { root: root.to_owned() })
     }
 
@@ -98,7 +99,8 @@ impl PhotoFiles {
         // A unique temporary name, so two uploads of the same photo never share one.
         static NEXT: AtomicU64 = AtomicU64::new(0);
         let unique = NEXT.fetch_add(1, Ordering::Relaxed);
-        let temp = self.root.join("tmp").join(format!("{sha256}{}.{}.{unique}", rendition.suffix(), std::process::id()));
+        let temp =
+            self.root.join("tmp").join(format!("{sha256}{}.{}.{unique}", rendition.suffix(), std::process::id()));
         let mut file = File::create(&temp).with_context(|| format!("creating {}", temp.display()))?;
         file.write_all(bytes)?;
         file.sync_all()?;

@@ -19,7 +19,8 @@ fn field_of(problem: &WalkProblem) -> &'static str {
 /// Reads and checks a walk.
 pub fn parse_walk(json: &[u8]) -> Result<WalkSubmission, IntakeError> {
     let walk: WalkSubmission = parse_json(json)?;
-    walk.check().map_err(|problem| IntakeError::Field { field: field_of(&problem).into(), message: problem.to_string() })?;
+    walk.check()
+        .map_err(|problem| IntakeError::Field { field: field_of(&problem).into(), message: problem.to_string() })?;
     Ok(walk)
 }
 
@@ -34,11 +35,20 @@ pub enum WalkRefused {
 
 /// Stores a walk under the phone that sent it (`observer_id`); a resend gets the first
 /// receipt, a changed resend a conflict, another phone's walk a refusal.
-pub async fn accept_walk(state: &AppState, json: &[u8], observer_id: Option<i64>, now: DateTime<Utc>) -> Result<WalkReceipt, WalkRefused> {
+pub async fn accept_walk(
+    state: &AppState,
+    json: &[u8],
+    observer_id: Option<i64>,
+    now: DateTime<Utc>,
+) -> Result<WalkReceipt, WalkRefused> {
     let walk = parse_walk(json)?;
     let content = hex::encode(Sha256::digest(serde_json::to_vec(&walk).unwrap_or_default()));
     let client_id = walk.client_id;
-    let outcome = state.store.run(move |conn| walks::insert_walk(conn, &walk, &content, observer_id, now)).await.map_err(|err| IntakeError::Storage(err.into()))?;
+    let outcome = state
+        .store
+        .run(move |conn| walks::insert_walk(conn, &walk, &content, observer_id, now))
+        .await
+        .map_err(|err| IntakeError::Storage(err.into()))?;
     match outcome {
         WalkInsertion::Created(receipt) | WalkInsertion::Replayed(receipt) => Ok(receipt),
         WalkInsertion::Conflict => Err(IntakeError::Conflict(client_id).into()),

@@ -151,7 +151,11 @@ pub fn all_records(conn: &Connection) -> Result<Vec<RawDup>, StoreError> {
 
 /// Whether the search for duplicates of this record completed.
 pub fn searched(conn: &Connection, observation_id: i64) -> Result<bool, StoreError> {
-    Ok(conn.query_row("SELECT EXISTS (SELECT 1 FROM duplicate_searches WHERE observation_id = ?1)", [observation_id], |r| r.get(0))?)
+    Ok(conn.query_row(
+        "SELECT EXISTS (SELECT 1 FROM duplicate_searches WHERE observation_id = ?1)",
+        [observation_id],
+        |r| r.get(0),
+    )?)
 }
 
 /// Records stored without a completed search for duplicates.
@@ -164,7 +168,12 @@ pub fn unsearched(conn: &Connection) -> Result<Vec<i64>, StoreError> {
 /// Keeps the candidates found for `new` (pairs are stored once, smaller id first) and
 /// notes that its search completed, in one transaction. A pair found before keeps its
 /// row as it was.
-pub fn save_candidates(conn: &mut Connection, new: i64, found: &[(i64, f64, Vec<String>)], now: DateTime<Utc>) -> Result<(), StoreError> {
+pub fn save_candidates(
+    conn: &mut Connection,
+    new: i64,
+    found: &[(i64, f64, Vec<String>)],
+    now: DateTime<Utc>,
+) -> Result<(), StoreError> {
     let tx = conn.transaction()?;
     for (other, score, reasons) in found {
         let (a, b) = if new < *other { (new, *other) } else { (*other, new) };
@@ -174,7 +183,10 @@ pub fn save_candidates(conn: &mut Connection, new: i64, found: &[(i64, f64, Vec<
             params![a, b, score, reasons, now.to_rfc3339()],
         )?;
     }
-    tx.execute("INSERT OR IGNORE INTO duplicate_searches (observation_id, searched_at) VALUES (?1, ?2)", params![new, now.to_rfc3339()])?;
+    tx.execute(
+        "INSERT OR IGNORE INTO duplicate_searches (observation_id, searched_at) VALUES (?1, ?2)",
+        params![new, now.to_rfc3339()],
+    )?;
     tx.commit()?;
     Ok(())
 }
@@ -199,10 +211,13 @@ pub fn candidates_of(conn: &Connection, observation: i64) -> Result<Vec<StoredCa
          FROM duplicate_candidates c JOIN observations oa ON oa.id = c.observation_a JOIN observations ob ON ob.id = c.observation_b
          WHERE c.observation_a = ?1 OR c.observation_b = ?1 ORDER BY c.score DESC"
     ))?;
-    let rows = stmt.query_map([observation], |row| Ok((row.get(0)?, row.get(1)?, row.get::<_, String>(2)?, row.get(3)?, row.get(4)?)))?;
+    let rows = stmt.query_map([observation], |row| {
+        Ok((row.get(0)?, row.get(1)?, row.get::<_, String>(2)?, row.get(3)?, row.get(4)?))
+    })?;
     rows.map(|row| {
         let (other, score, reasons, decision, merge_id) = row?;
-        let reasons = serde_json::from_str(&reasons).map_err(|err| StoreError::Corrupt(format!("candidate reasons: {err}")))?;
+        let reasons =
+            serde_json::from_str(&reasons).map_err(|err| StoreError::Corrupt(format!("candidate reasons: {err}")))?;
         Ok(StoredCandidate { other, score, reasons, decision, merge_id })
     })
     .collect()
@@ -237,14 +252,36 @@ pub fn undecided(conn: &Connection) -> Result<std::collections::HashSet<i64>, St
 /// What a decision did.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
 pub enum Decided {
-    Merged { merge_id: i64 },
+    Merged {
+        merge_id: i64,
+    },
     KeptApart,
     /// One of them is merged already, or they are one record.
     Refused,
 }
 
-fn log_event(tx: &Transaction, observation_id: i64, person: i64, action: &str, (from_state, to_state): (&str, &str), detail: &str, at: &str) -> Result<(), StoreError> {
-    audit(tx, AuditRow { observation_id, person_id: Some(person), action, from_state, to_state, detail: Some(detail), reason: None, at })
+fn log_event(
+    tx: &Transaction,
+    observation_id: i64,
+    person: i64,
+    action: &str,
+    (from_state, to_state): (&str, &str),
+    detail: &str,
+    at: &str,
+) -> Result<(), StoreError> {
+    audit(
+        tx,
+        AuditRow {
+            observation_id,
+            person_id: Some(person),
+            action,
+            from_state,
+            to_state,
+            detail: Some(detail),
+            reason: None,
+            at,
+        },
+    )
 }
 
 /// A record's review state, organism and time.
@@ -269,11 +306,22 @@ fn standing(tx: &Transaction, id: i64) -> Result<Option<Standing>, StoreError> {
 /// becomes `merged`; each moved row's organism and state are remembered in
 /// `merge_moves`. A merge writes no decision row (the standing merge is the decision), so
 /// undoing it leaves the decisions and candidates exactly as they were.
-pub fn decide(conn: &mut Connection, x: i64, y: i64, same: bool, person: i64, now: DateTime<Utc>) -> Result<Decided, StoreError> {
+pub fn decide(
+    conn: &mut Connection,
+    x: i64,
+    y: i64,
+    same: bool,
+    person: i64,
+    now: DateTime<Utc>,
+) -> Result<Decided, StoreError> {
     let tx = conn.transaction()?;
     let (a, b) = if x < y { (x, y) } else { (y, x) };
     let (Some(first), Some(second)) = (standing(&tx, a)?, standing(&tx, b)?) else { return Ok(Decided::Refused) };
-    if a == b || first.state == ReviewState::Merged.code() || second.state == ReviewState::Merged.code() || first.organism == second.organism {
+    if a == b
+        || first.state == ReviewState::Merged.code()
+        || second.state == ReviewState::Merged.code()
+        || first.organism == second.organism
+    {
         return Ok(Decided::Refused);
     }
     let at = now.to_rfc3339_opts(chrono::SecondsFormat::Millis, true);
@@ -283,7 +331,15 @@ pub fn decide(conn: &mut Connection, x: i64, y: i64, same: bool, person: i64, no
             params![a, b, person, at],
         )?;
         for (id, state) in [(a, &first.state), (b, &second.state)] {
-            log_event(&tx, id, person, "different_animals", (state, state), &format!("kept apart from record {}", if id == a { b } else { a }), &at)?;
+            log_event(
+                &tx,
+                id,
+                person,
+                "different_animals",
+                (state, state),
+                &format!("kept apart from record {}", if id == a { b } else { a }),
+                &at,
+            )?;
         }
         tx.commit()?;
         return Ok(Decided::KeptApart);
@@ -307,16 +363,52 @@ fn merge(tx: &Transaction, kept: &Standing, joining: &Standing, person: i64, at:
          SELECT ?1, id, organism_id, review_state FROM observations WHERE organism_id = ?2",
         params![merge_id, joining.organism],
     )?;
-    tx.execute("UPDATE observations SET organism_id = ?1 WHERE organism_id = ?2", params![kept.organism, joining.organism])?;
-    tx.execute("UPDATE observations SET review_state = ?1 WHERE id = ?2", params![ReviewState::Merged.code(), joining.id])?;
-    let mut others = tx.prepare("SELECT observation_id FROM merge_moves WHERE merge_id = ?1 AND observation_id != ?2 ORDER BY observation_id")?;
+    tx.execute(
+        "UPDATE observations SET organism_id = ?1 WHERE organism_id = ?2",
+        params![kept.organism, joining.organism],
+    )?;
+    tx.execute(
+        "UPDATE observations SET review_state = ?1 WHERE id = ?2",
+        params![ReviewState::Merged.code(), joining.id],
+    )?;
+    let mut others = tx.prepare(
+        "SELECT observation_id FROM merge_moves WHERE merge_id = ?1 AND observation_id != ?2 ORDER BY observation_id",
+    )?;
     let others: Vec<i64> = others.query_map(params![merge_id, joining.id], |r| r.get(0))?.collect::<Result<_, _>>()?;
     let merged = ReviewState::Merged.code();
-    log_event(tx, joining.id, person, "merge", (&joining.state, merged), &format!("the same animal as record {} (merge {merge_id})", kept.id), at)?;
+    log_event(
+        tx,
+        joining.id,
+        person,
+        "merge",
+        (&joining.state, merged),
+        &format!("the same animal as record {} (merge {merge_id})", kept.id),
+        at,
+    )?;
     for other in &others {
-        log_event(tx, *other, person, "merge", (merged, merged), &format!("moved with record {} into the animal of record {} (merge {merge_id})", joining.id, kept.id), at)?;
+        log_event(
+            tx,
+            *other,
+            person,
+            "merge",
+            (merged, merged),
+            &format!("moved with record {} into the animal of record {} (merge {merge_id})", joining.id, kept.id),
+            at,
+        )?;
     }
-    log_event(tx, kept.id, person, "merge", (&kept.state, &kept.state), &format!("record {} joined this animal, bringing {} other report(s) (merge {merge_id})", joining.id, others.len()), at)?;
+    log_event(
+        tx,
+        kept.id,
+        person,
+        "merge",
+        (&kept.state, &kept.state),
+        &format!(
+            "record {} joined this animal, bringing {} other report(s) (merge {merge_id})",
+            joining.id,
+            others.len()
+        ),
+        at,
+    )?;
     Ok(merge_id)
 }
 
@@ -327,7 +419,9 @@ pub enum Undo {
     /// No such merge, or it was undone already.
     NotFound,
     /// A later merge, still standing, moved some of the same reports: undo that first.
-    Blocked { by: i64 },
+    Blocked {
+        by: i64,
+    },
 }
 
 /// Undoes a merge exactly: every report it moved gets back its organism and its review
@@ -335,7 +429,11 @@ pub enum Undo {
 /// audit trail. Decisions and candidates are untouched, so the pair is a candidate again.
 pub fn undo_merge(conn: &mut Connection, merge_id: i64, person: i64, now: DateTime<Utc>) -> Result<Undo, StoreError> {
     let tx = conn.transaction()?;
-    let kept: Option<i64> = tx.query_row("SELECT kept_observation_id FROM merges WHERE id = ?1 AND undone_at IS NULL", [merge_id], |r| r.get(0)).optional()?;
+    let kept: Option<i64> = tx
+        .query_row("SELECT kept_observation_id FROM merges WHERE id = ?1 AND undone_at IS NULL", [merge_id], |r| {
+            r.get(0)
+        })
+        .optional()?;
     let Some(kept) = kept else { return Ok(Undo::NotFound) };
     let later: Option<i64> = tx
         .query_row(
@@ -349,16 +447,38 @@ pub fn undo_merge(conn: &mut Connection, merge_id: i64, person: i64, now: DateTi
     }
     let at = now.to_rfc3339_opts(chrono::SecondsFormat::Millis, true);
     let mut stmt = tx.prepare("SELECT observation_id, previous_organism_id, previous_state FROM merge_moves WHERE merge_id = ?1 ORDER BY observation_id")?;
-    let moves: Vec<(i64, i64, String)> = stmt.query_map([merge_id], |r| Ok((r.get(0)?, r.get(1)?, r.get(2)?)))?.collect::<Result<_, _>>()?;
+    let moves: Vec<(i64, i64, String)> =
+        stmt.query_map([merge_id], |r| Ok((r.get(0)?, r.get(1)?, r.get(2)?)))?.collect::<Result<_, _>>()?;
     drop(stmt);
     for (observation, organism, state) in &moves {
-        let now_state: String = tx.query_row("SELECT review_state FROM observations WHERE id = ?1", [observation], |r| r.get(0))?;
-        tx.execute("UPDATE observations SET organism_id = ?1, review_state = ?2 WHERE id = ?3", params![organism, state, observation])?;
-        log_event(&tx, *observation, person, "undo_merge", (&now_state, state), &format!("merge {merge_id} undone"), &at)?;
+        let now_state: String =
+            tx.query_row("SELECT review_state FROM observations WHERE id = ?1", [observation], |r| r.get(0))?;
+        tx.execute(
+            "UPDATE observations SET organism_id = ?1, review_state = ?2 WHERE id = ?3",
+            params![organism, state, observation],
+        )?;
+        log_event(
+            &tx,
+            *observation,
+            person,
+            "undo_merge",
+            (&now_state, state),
+            &format!("merge {merge_id} undone"),
+            &at,
+        )?;
     }
     tx.execute("UPDATE merges SET undone_at = ?1, undone_by = ?2 WHERE id = ?3", params![at, person, merge_id])?;
-    let kept_state: String = tx.query_row("SELECT review_state FROM observations WHERE id = ?1", [kept], |r| r.get(0))?;
-    log_event(&tx, kept, person, "undo_merge", (&kept_state, &kept_state), &format!("merge {merge_id} undone: {} report(s) are their own animal again", moves.len()), &at)?;
+    let kept_state: String =
+        tx.query_row("SELECT review_state FROM observations WHERE id = ?1", [kept], |r| r.get(0))?;
+    log_event(
+        &tx,
+        kept,
+        person,
+        "undo_merge",
+        (&kept_state, &kept_state),
+        &format!("merge {merge_id} undone: {} report(s) are their own animal again", moves.len()),
+        &at,
+    )?;
     tx.commit()?;
     Ok(Undo::Undone)
 }

@@ -21,7 +21,10 @@ const MIGRATIONS: &[(&str, &str)] = &[
     ("0009_photo_reading_per_field", include_str!("../../../migrations/0009_photo_reading_per_field.sql")),
     ("0010_duplicate_moves", include_str!("../../../migrations/0010_duplicate_moves.sql")),
     ("0011_life_stage", include_str!("../../../migrations/0011_life_stage.sql")),
-    ("0012_review_reasons_and_people_audit", include_str!("../../../migrations/0012_review_reasons_and_people_audit.sql")),
+    (
+        "0012_review_reasons_and_people_audit",
+        include_str!("../../../migrations/0012_review_reasons_and_people_audit.sql"),
+    ),
 ];
 
 pub(super) fn apply(conn: &mut Connection) -> Result<(), StoreError> {

@@ -12,10 +12,10 @@
 //! writer work at the same time, each reader seeing the database as it was when its read
 //! began. At most [`MAX_READERS`] run at once; more wait their turn.
 
+pub mod duplicates;
 mod migrate;
 pub mod observations;
 pub mod occurrences;
-pub mod duplicates;
 pub mod people;
 pub mod review;
 pub mod synthetic;
@@ -129,7 +129,10 @@ impl Store {
 /// A read-only connection to the database at `path` (already created and migrated by
 /// [`Store::open`]).
 fn open_reader(path: &Path) -> Result<Connection, StoreError> {
-    let conn = Connection::open_with_flags(path, OpenFlags::SQLITE_OPEN_READ_ONLY | OpenFlags::SQLITE_OPEN_NO_MUTEX | OpenFlags::SQLITE_OPEN_URI)?;
+    let conn = Connection::open_with_flags(
+        path,
+        OpenFlags::SQLITE_OPEN_READ_ONLY | OpenFlags::SQLITE_OPEN_NO_MUTEX | OpenFlags::SQLITE_OPEN_URI,
+    )?;
     conn.busy_timeout(std::time::Duration::from_secs(5))?;
     Ok(conn)
 }

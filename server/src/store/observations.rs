@@ -6,7 +6,10 @@ use std::collections::HashMap;
 
 use chrono::{DateTime, Utc};
 use rusqlite::{Connection, OptionalExtension, Transaction, params};
-use shared_types::{FlagKind, OffsetSource, PhotoCheck, PhotoExif, PhotoFlag, PhotoView, Receipt, RecordFlag, RecordView, ReviewState, SimilarPhoto, Submission};
+use shared_types::{
+    FlagKind, OffsetSource, PhotoCheck, PhotoExif, PhotoFlag, PhotoView, Receipt, RecordFlag, RecordView, ReviewState,
+    SimilarPhoto, Submission,
+};
 use uuid::Uuid;
 
 use super::StoreError;
@@ -57,7 +60,11 @@ pub enum Insertion {
 
 /// Stores one observation, its own organism, lengths, signs, photos and the
 /// observer's guess as the first identification, all or nothing.
-pub fn insert_observation(conn: &mut Connection, new: &NewObservation, now: DateTime<Utc>) -> Result<Insertion, StoreError> {
+pub fn insert_observation(
+    conn: &mut Connection,
+    new: &NewObservation,
+    now: DateTime<Utc>,
+) -> Result<Insertion, StoreError> {
     let tx = conn.transaction()?;
     let client_id = new.submission.client_id.to_string();
     if let Some((stored_hash, receipt)) = existing_receipt(&tx, &client_id)? {
@@ -99,18 +106,26 @@ fn existing_receipt(tx: &Transaction, client_id: &str) -> Result<Option<(String,
                     (SELECT COUNT(*) FROM observation_photos p WHERE p.observation_id = o.id)
              FROM observations o WHERE o.client_id = ?1",
             [client_id],
-            |row| Ok((row.get::<_, i64>(0)?, row.get::<_, String>(1)?, row.get::<_, String>(2)?, row.get::<_, i64>(3)?)),
+            |row| {
+                Ok((row.get::<_, i64>(0)?, row.get::<_, String>(1)?, row.get::<_, String>(2)?, row.get::<_, i64>(3)?))
+            },
         )
         .optional()?;
     row.map(|(observation_id, hash, received_at, photos)| {
         let client_id = Uuid::parse_str(client_id).map_err(|err| StoreError::Corrupt(err.to_string()))?;
-        let receipt = Receipt { client_id, observation_id, received_at: parse_utc(&received_at)?, photo_count: photos as usize };
+        let receipt =
+            Receipt { client_id, observation_id, received_at: parse_utc(&received_at)?, photo_count: photos as usize };
         Ok((hash, receipt))
     })
     .transpose()
 }
 
-fn insert_observation_row(tx: &Transaction, new: &NewObservation, organism_id: i64, received_at: &str) -> Result<i64, StoreError> {
+fn insert_observation_row(
+    tx: &Transaction,
+    new: &NewObservation,
+    organism_id: i64,
+    received_at: &str,
+) -> Result<i64, StoreError> {
     let sub = &new.submission;
     let json = serde_json::to_string(sub).map_err(|err| StoreError::Corrupt(err.to_string()))?;
     let position = sub.position.as_ref();
@@ -146,7 +161,12 @@ fn insert_observation_row(tx: &Transaction, new: &NewObservation, organism_id: i
     Ok(tx.last_insert_rowid())
 }
 
-fn insert_details(tx: &Transaction, observation_id: i64, new: &NewObservation, received_at: &str) -> Result<(), StoreError> {
+fn insert_details(
+    tx: &Transaction,
+    observation_id: i64,
+    new: &NewObservation,
+    received_at: &str,
+) -> Result<(), StoreError> {
     let sub = &new.submission;
     if let Some(length) = &sub.length {
         tx.execute(
@@ -155,7 +175,10 @@ fn insert_details(tx: &Transaction, observation_id: i64, new: &NewObservation, r
         )?;
     }
     for sign in &sub.human_signs {
-        tx.execute("INSERT INTO human_signs (observation_id, sign) VALUES (?1, ?2)", params![observation_id, code(sign)])?;
+        tx.execute(
+            "INSERT INTO human_signs (observation_id, sign) VALUES (?1, ?2)",
+            params![observation_id, code(sign)],
+        )?;
     }
     let observer = sub.observer_name.as_ref().map(|n| n.as_str());
     if let Some(choice) = &sub.key_choice {
@@ -190,18 +213,40 @@ fn insert_details(tx: &Transaction, observation_id: i64, new: &NewObservation, r
 /// The link is keyed by record and file, so the same file twice in one record is one
 /// link at its first position: the server accepts such a record (an older phone may
 /// send it) rather than refuse evidence, and the phone refuses to add a photo twice.
-pub(super) fn link_photo(tx: &Transaction, observation_id: i64, position: usize, photo: &StoredPhoto, received_at: &str) -> Result<(), StoreError> {
+pub(super) fn link_photo(
+    tx: &Transaction,
+    observation_id: i64,
+    position: usize,
+    photo: &StoredPhoto,
+    received_at: &str,
+) -> Result<(), StoreError> {
     let exif = &photo.exif;
-    let phone_json = photo.phone_exif.as_ref().map(serde_json::to_string).transpose().map_err(|err| StoreError::Corrupt(err.to_string()))?;
+    let phone_json = photo
+        .phone_exif
+        .as_ref()
+        .map(serde_json::to_string)
+        .transpose()
+        .map_err(|err| StoreError::Corrupt(err.to_string()))?;
     // The same file may already be stored for another record: keep the first row.
     tx.execute(
         "INSERT OR IGNORE INTO photos (sha256, media_type, byte_len, exif_taken_local, exif_offset, exif_latitude,
             exif_longitude, exif_altitude_m, exif_h_error_m, exif_orientation, stored_at, width, height, phash)
          VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, ?12, ?13, ?14)",
         params![
-            photo.sha256, photo.media_type, photo.byte_len as i64, exif.taken_local, exif.offset, exif.latitude,
-            exif.longitude, exif.altitude_m, exif.horizontal_error_m, exif.orientation, received_at, photo.width,
-            photo.height, photo.phash
+            photo.sha256,
+            photo.media_type,
+            photo.byte_len as i64,
+            exif.taken_local,
+            exif.offset,
+            exif.latitude,
+            exif.longitude,
+            exif.altitude_m,
+            exif.horizontal_error_m,
+            exif.orientation,
+            received_at,
+            photo.width,
+            photo.height,
+            photo.phash
         ],
     )?;
     tx.execute(
@@ -280,7 +325,13 @@ pub fn photo_file_facts(conn: &Connection, sha256: &str) -> Result<Option<(Strin
 
 /// Records the size and perceptual hash of a photo whose derivatives were made again
 /// (photos stored before migration 0002 have none).
-pub fn set_photo_pixels(conn: &Connection, sha256: &str, width: u32, height: u32, phash: &str) -> Result<(), StoreError> {
+pub fn set_photo_pixels(
+    conn: &Connection,
+    sha256: &str,
+    width: u32,
+    height: u32,
+    phash: &str,
+) -> Result<(), StoreError> {
     conn.execute(
         "UPDATE photos SET width = ?2, height = ?3, phash = ?4 WHERE sha256 = ?1 AND phash IS NULL",
         params![sha256, width, height, phash],
@@ -299,7 +350,11 @@ fn finish_record(conn: &Connection, row: RecordRow) -> Result<RecordView, StoreE
     record_from(row, photos_of(conn, id)?, flags_of(conn, id)?)
 }
 
-fn record_from((id, organism_id, received_at, state, json, walk): RecordRow, photos: Vec<PhotoView>, flags: Vec<RecordFlag>) -> Result<RecordView, StoreError> {
+fn record_from(
+    (id, organism_id, received_at, state, json, walk): RecordRow,
+    photos: Vec<PhotoView>,
+    flags: Vec<RecordFlag>,
+) -> Result<RecordView, StoreError> {
     let submission: Submission =
         serde_json::from_str(&json).map_err(|err| StoreError::Corrupt(format!("observation {id}: {err}")))?;
     Ok(RecordView {
@@ -311,17 +366,22 @@ fn record_from((id, organism_id, received_at, state, json, walk): RecordRow, pho
         submission,
         photos,
         flags,
-        walk_client_id: walk.map(|w| Uuid::parse_str(&w)).transpose().map_err(|err| StoreError::Corrupt(format!("observation {id}: walk id {err}")))?,
+        walk_client_id: walk
+            .map(|w| Uuid::parse_str(&w))
+            .transpose()
+            .map_err(|err| StoreError::Corrupt(format!("observation {id}: walk id {err}")))?,
     })
 }
 
 fn flag(observation_id: i64, kind: &str, reason: String) -> Result<RecordFlag, StoreError> {
-    let kind = from_code::<FlagKind>(kind).ok_or_else(|| StoreError::Corrupt(format!("observation {observation_id}: unknown flag {kind}")))?;
+    let kind = from_code::<FlagKind>(kind)
+        .ok_or_else(|| StoreError::Corrupt(format!("observation {observation_id}: unknown flag {kind}")))?;
     Ok(RecordFlag { kind, reason })
 }
 
 fn flags_of(conn: &Connection, observation_id: i64) -> Result<Vec<RecordFlag>, StoreError> {
-    let mut stmt = conn.prepare("SELECT kind, reason FROM observation_flags WHERE observation_id = ?1 ORDER BY kind")?;
+    let mut stmt =
+        conn.prepare("SELECT kind, reason FROM observation_flags WHERE observation_id = ?1 ORDER BY kind")?;
     let rows = stmt.query_map([observation_id], |row| Ok((row.get::<_, String>(0)?, row.get::<_, String>(1)?)))?;
     rows.map(|row| {
         let (kind, reason) = row?;
@@ -393,7 +453,11 @@ fn photos_of(conn: &Connection, observation_id: i64) -> Result<Vec<PhotoView>, S
 
 /// `states` as one parameter for `instr`: ",a,b," (empty: every state).
 fn state_list(states: &[ReviewState]) -> String {
-    if states.is_empty() { String::new() } else { format!(",{},", states.iter().map(|s| s.code()).collect::<Vec<_>>().join(",")) }
+    if states.is_empty() {
+        String::new()
+    } else {
+        format!(",{},", states.iter().map(|s| s.code()).collect::<Vec<_>>().join(","))
+    }
 }
 
 const IN_STATES: &str = "(?1 = '' OR instr(?1, ',' || o.review_state || ',') > 0)";
@@ -401,7 +465,10 @@ const IN_STATES: &str = "(?1 = '' OR instr(?1, ',' || o.review_state || ',') > 0
 /// Every record in the given review states (all when empty), oldest observation first,
 /// read in four queries however many there are (records, photos, flags, current
 /// identifications), with each one's current identification.
-pub fn records_in_states(conn: &Connection, states: &[ReviewState]) -> Result<Vec<(RecordView, Option<String>)>, StoreError> {
+pub fn records_in_states(
+    conn: &Connection,
+    states: &[ReviewState],
+) -> Result<Vec<(RecordView, Option<String>)>, StoreError> {
     let states = state_list(states);
     let mut photos: HashMap<i64, Vec<PhotoView>> = HashMap::new();
     let mut stmt = conn.prepare(&format!("{PHOTO_QUERY} JOIN observations o ON o.id = op.observation_id WHERE {IN_STATES} ORDER BY op.observation_id, op.position"))?;
@@ -411,7 +478,9 @@ pub fn records_in_states(conn: &Connection, states: &[ReviewState]) -> Result<Ve
     }
     let mut flags: HashMap<i64, Vec<RecordFlag>> = HashMap::new();
     let mut stmt = conn.prepare(&format!("SELECT f.observation_id, f.kind, f.reason FROM observation_flags f JOIN observations o ON o.id = f.observation_id WHERE {IN_STATES} ORDER BY f.kind"))?;
-    for row in stmt.query_map([&states], |row| Ok((row.get::<_, i64>(0)?, row.get::<_, String>(1)?, row.get::<_, String>(2)?)))? {
+    for row in stmt
+        .query_map([&states], |row| Ok((row.get::<_, i64>(0)?, row.get::<_, String>(1)?, row.get::<_, String>(2)?)))?
+    {
         let (id, kind, reason) = row?;
         flags.entry(id).or_default().push(flag(id, &kind, reason)?);
     }
@@ -432,7 +501,8 @@ pub fn records_in_states(conn: &Connection, states: &[ReviewState]) -> Result<Ve
     rows.into_iter()
         .map(|row| {
             let id = row.0;
-            let record = record_from(row, photos.remove(&id).unwrap_or_default(), flags.remove(&id).unwrap_or_default())?;
+            let record =
+                record_from(row, photos.remove(&id).unwrap_or_default(), flags.remove(&id).unwrap_or_default())?;
             Ok((record, taxa.remove(&id)))
         })
         .collect()
@@ -444,8 +514,6 @@ fn flags_from(joined: Option<String>) -> Vec<PhotoFlag> {
     flags.sort();
     flags
 }
-
-
 
 fn parse_utc(text: &str) -> Result<DateTime<Utc>, StoreError> {
     DateTime::parse_from_rfc3339(text)
@@ -468,7 +536,9 @@ pub fn similar_photos(conn: &Connection, sha256: &str, max_bits: u32) -> Result<
          LEFT JOIN observation_photos op ON op.photo_sha256 = p.sha256
          WHERE p.phash IS NOT NULL AND p.sha256 <> ?1 GROUP BY p.sha256",
     )?;
-    let rows = stmt.query_map([sha256], |row| Ok((row.get::<_, String>(0)?, row.get::<_, String>(1)?, row.get::<_, Option<String>>(2)?)))?;
+    let rows = stmt.query_map([sha256], |row| {
+        Ok((row.get::<_, String>(0)?, row.get::<_, String>(1)?, row.get::<_, Option<String>>(2)?))
+    })?;
     let mut near = Vec::new();
     for row in rows {
         let (other, phash, observations) = row?;

@@ -147,7 +147,8 @@ const IDENTIFIED_BY: &str = "COALESCE(i.identified_by, p.display_name, p.usernam
 // and there is more than the current one, so the common case costs a few index probes
 // per row.
 fn select_sql(with_history: bool) -> String {
-    let identification_count = if with_history { "(SELECT COUNT(*) FROM identifications n WHERE n.observation_id = o.id)" } else { "1" };
+    let identification_count =
+        if with_history { "(SELECT COUNT(*) FROM identifications n WHERE n.observation_id = o.id)" } else { "1" };
     format!(
         "
 SELECT o.organism_id, o.id, o.client_id, o.observed_at, o.observed_at_utc, o.observed_at_utc,
@@ -172,21 +173,26 @@ WHERE {STANDING_REPORT}"
 /// The time span, photos, observers, best position and other reports of an organism
 /// that has several.
 fn merged_details(conn: &Connection, row: &mut OccurrenceRow) -> Result<(), StoreError> {
-    let mut span = conn.prepare_cached("SELECT MIN(observed_at_utc), MAX(observed_at_utc) FROM observations WHERE organism_id = ?1")?;
+    let mut span = conn
+        .prepare_cached("SELECT MIN(observed_at_utc), MAX(observed_at_utc) FROM observations WHERE organism_id = ?1")?;
     (row.first_utc, row.last_utc) = span.query_row([row.organism_id], |r| Ok((r.get(0)?, r.get(1)?)))?;
     let mut photos = conn.prepare_cached(
         "SELECT op.photo_sha256 FROM observation_photos op JOIN observations x ON x.id = op.observation_id
          WHERE x.organism_id = ?1 ORDER BY x.observed_at_utc, x.id, op.position",
     )?;
     row.photo_hashes = photos.query_map([row.organism_id], |r| r.get(0))?.collect::<Result<_, _>>()?;
-    let mut others = conn.prepare_cached("SELECT client_id FROM observations WHERE organism_id = ?1 AND id != ?2 ORDER BY observed_at_utc, id")?;
-    row.other_reports = others.query_map([row.organism_id, row.observation_id], |r| r.get(0))?.collect::<Result<_, _>>()?;
+    let mut others = conn.prepare_cached(
+        "SELECT client_id FROM observations WHERE organism_id = ?1 AND id != ?2 ORDER BY observed_at_utc, id",
+    )?;
+    row.other_reports =
+        others.query_map([row.organism_id, row.observation_id], |r| r.get(0))?.collect::<Result<_, _>>()?;
     // The standing report's observer first (Darwin Core recordedBy: the primary observer first).
     let mut observers = conn.prepare_cached(
         "SELECT observer_name FROM observations WHERE organism_id = ?1 AND observer_name IS NOT NULL AND observer_name != ''
          ORDER BY id != ?2, observed_at_utc, id",
     )?;
-    let names: Vec<String> = observers.query_map([row.organism_id, row.observation_id], |r| r.get(0))?.collect::<Result<_, _>>()?;
+    let names: Vec<String> =
+        observers.query_map([row.organism_id, row.observation_id], |r| r.get(0))?.collect::<Result<_, _>>()?;
     row.observer_names.clear();
     for name in names {
         if !row.observer_names.contains(&name) {
@@ -198,7 +204,10 @@ fn merged_details(conn: &Connection, row: &mut OccurrenceRow) -> Result<(), Stor
         "SELECT latitude, longitude, accuracy_m FROM observations WHERE organism_id = ?1 AND latitude IS NOT NULL AND longitude IS NOT NULL
          ORDER BY accuracy_m IS NULL, accuracy_m, id != ?2, observed_at_utc, id LIMIT 1",
     )?;
-    let position = best.query_map([row.organism_id, row.observation_id], |r| Ok((r.get(0)?, r.get(1)?, r.get(2)?)))?.next().transpose()?;
+    let position = best
+        .query_map([row.organism_id, row.observation_id], |r| Ok((r.get(0)?, r.get(1)?, r.get(2)?)))?
+        .next()
+        .transpose()?;
     if let Some((latitude, longitude, accuracy_m)) = position {
         (row.latitude, row.longitude, row.accuracy_m) = (Some(latitude), Some(longitude), accuracy_m);
     }
@@ -312,7 +321,11 @@ fn where_clause(filter: &RowFilter) -> (String, Vec<Box<dyn ToSql>>) {
     if let Some(area) = filter.bbox {
         sql.push_str(" AND o.latitude BETWEEN ? AND ?");
         values.extend([area.south, area.north].map(|v| Box::new(v) as Box<dyn ToSql>));
-        sql.push_str(if area.crosses_antimeridian() { " AND (o.longitude >= ? OR o.longitude <= ?)" } else { " AND o.longitude BETWEEN ? AND ?" });
+        sql.push_str(if area.crosses_antimeridian() {
+            " AND (o.longitude >= ? OR o.longitude <= ?)"
+        } else {
+            " AND o.longitude BETWEEN ? AND ?"
+        });
         values.extend([area.west, area.east].map(|v| Box::new(v) as Box<dyn ToSql>));
     }
     (sql, values)
@@ -321,7 +334,9 @@ fn where_clause(filter: &RowFilter) -> (String, Vec<Box<dyn ToSql>>) {
 fn read_row(row: &Row) -> Result<OccurrenceRow, StoreError> {
     let observation_id: i64 = row.get(1)?;
     let client_id: String = row.get(2)?;
-    let corrupt = |what: &str, value: &str| StoreError::Corrupt(format!("observation {observation_id}: unknown {what} `{value}`"));
+    let corrupt = |what: &str, value: &str| {
+        StoreError::Corrupt(format!("observation {observation_id}: unknown {what} `{value}`"))
+    };
     let condition: String = row.get(11)?;
     let setting: String = row.get(12)?;
     let sex: String = row.get(13)?;

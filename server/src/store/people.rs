@@ -29,7 +29,8 @@ fn person_row(row: &rusqlite::Row) -> rusqlite::Result<PersonRow> {
 }
 
 fn to_person((id, role, username, display_name, disabled): PersonRow) -> Result<Person, StoreError> {
-    let role = Role::from_code(&role).ok_or_else(|| StoreError::Corrupt(format!("person {id}: unknown role {role}")))?;
+    let role =
+        Role::from_code(&role).ok_or_else(|| StoreError::Corrupt(format!("person {id}: unknown role {role}")))?;
     Ok(Person { id, role, username, display_name, disabled })
 }
 
@@ -39,7 +40,15 @@ fn now_text(now: DateTime<Utc>) -> String {
 
 /// Adds a reviewer or admin; `None` when the username is taken. `by`: the admin who
 /// added them (`None` on the server's command line).
-pub fn add_staff(conn: &mut Connection, username: &str, role: Role, display_name: &str, password_hash: &str, by: Option<i64>, now: DateTime<Utc>) -> Result<Option<i64>, StoreError> {
+pub fn add_staff(
+    conn: &mut Connection,
+    username: &str,
+    role: Role,
+    display_name: &str,
+    password_hash: &str,
+    by: Option<i64>,
+    now: DateTime<Utc>,
+) -> Result<Option<i64>, StoreError> {
     let tx = conn.transaction()?;
     let inserted = tx.execute(
         "INSERT OR IGNORE INTO people (role, username, display_name, password_hash, created_at) VALUES (?1, ?2, ?3, ?4, ?5)",
@@ -54,7 +63,14 @@ pub fn add_staff(conn: &mut Connection, username: &str, role: Role, display_name
     Ok(Some(id))
 }
 
-fn log(tx: &rusqlite::Transaction, person_id: i64, by: Option<i64>, action: &str, detail: Option<&str>, now: DateTime<Utc>) -> Result<(), StoreError> {
+fn log(
+    tx: &rusqlite::Transaction,
+    person_id: i64,
+    by: Option<i64>,
+    action: &str,
+    detail: Option<&str>,
+    now: DateTime<Utc>,
+) -> Result<(), StoreError> {
     tx.execute(
         "INSERT INTO people_events (person_id, by_person_id, action, detail, at) VALUES (?1, ?2, ?3, ?4, ?5)",
         params![person_id, by, action, detail, now_text(now)],
@@ -64,7 +80,9 @@ fn log(tx: &rusqlite::Transaction, person_id: i64, by: Option<i64>, action: &str
 
 fn staff_id(tx: &rusqlite::Transaction, username: &str) -> Result<Option<(i64, String)>, StoreError> {
     Ok(tx
-        .query_row("SELECT id, role FROM people WHERE username = ?1 AND password_hash IS NOT NULL", [username], |row| Ok((row.get(0)?, row.get(1)?)))
+        .query_row("SELECT id, role FROM people WHERE username = ?1 AND password_hash IS NOT NULL", [username], |row| {
+            Ok((row.get(0)?, row.get(1)?))
+        })
         .optional()?)
 }
 
@@ -72,7 +90,9 @@ fn staff_id(tx: &rusqlite::Transaction, username: &str) -> Result<Option<(i64, S
 pub fn staff_by_username(conn: &Connection, username: &str) -> Result<Option<(Person, String)>, StoreError> {
     let row = conn
         .query_row(
-            &format!("SELECT {PERSON_COLUMNS}, password_hash FROM people WHERE username = ?1 AND password_hash IS NOT NULL"),
+            &format!(
+                "SELECT {PERSON_COLUMNS}, password_hash FROM people WHERE username = ?1 AND password_hash IS NOT NULL"
+            ),
             [username],
             |row| Ok((person_row(row)?, row.get::<_, String>(5)?)),
         )
@@ -81,7 +101,13 @@ pub fn staff_by_username(conn: &Connection, username: &str) -> Result<Option<(Pe
 }
 
 /// Adds an observer known by their device token's hash.
-pub fn add_device(conn: &Connection, token_sha256: &str, display_name: Option<&str>, contact: Option<&str>, now: DateTime<Utc>) -> Result<i64, StoreError> {
+pub fn add_device(
+    conn: &Connection,
+    token_sha256: &str,
+    display_name: Option<&str>,
+    contact: Option<&str>,
+    now: DateTime<Utc>,
+) -> Result<i64, StoreError> {
     conn.execute(
         "INSERT INTO people (role, display_name, contact, device_token_sha256, created_at) VALUES ('observer', ?1, ?2, ?3, ?4)",
         params![display_name, contact, token_sha256, now_text(now)],
@@ -91,12 +117,23 @@ pub fn add_device(conn: &Connection, token_sha256: &str, display_name: Option<&s
 
 pub fn person_by_device(conn: &Connection, token_sha256: &str) -> Result<Option<Person>, StoreError> {
     let row = conn
-        .query_row(&format!("SELECT {PERSON_COLUMNS} FROM people WHERE device_token_sha256 = ?1"), [token_sha256], person_row)
+        .query_row(
+            &format!("SELECT {PERSON_COLUMNS} FROM people WHERE device_token_sha256 = ?1"),
+            [token_sha256],
+            person_row,
+        )
         .optional()?;
     row.map(to_person).transpose()
 }
 
-pub fn add_session(conn: &Connection, token_sha256: &str, person_id: i64, csrf_token: &str, now: DateTime<Utc>, expires: DateTime<Utc>) -> Result<(), StoreError> {
+pub fn add_session(
+    conn: &Connection,
+    token_sha256: &str,
+    person_id: i64,
+    csrf_token: &str,
+    now: DateTime<Utc>,
+    expires: DateTime<Utc>,
+) -> Result<(), StoreError> {
     conn.execute(
         "INSERT INTO sessions (token_sha256, person_id, csrf_token, created_at, expires_at) VALUES (?1, ?2, ?3, ?4, ?5)",
         params![token_sha256, person_id, csrf_token, now_text(now), now_text(expires)],
@@ -105,7 +142,11 @@ pub fn add_session(conn: &Connection, token_sha256: &str, person_id: i64, csrf_t
 }
 
 /// The person and CSRF token of a live session.
-pub fn session(conn: &Connection, token_sha256: &str, now: DateTime<Utc>) -> Result<Option<(Person, String)>, StoreError> {
+pub fn session(
+    conn: &Connection,
+    token_sha256: &str,
+    now: DateTime<Utc>,
+) -> Result<Option<(Person, String)>, StoreError> {
     let row = conn
         .query_row(
             "SELECT p.id, p.role, p.username, p.display_name, p.disabled, s.csrf_token FROM sessions s JOIN people p ON p.id = s.person_id
@@ -124,13 +165,20 @@ pub fn end_session(conn: &Connection, token_sha256: &str) -> Result<(), StoreErr
 
 /// Everyone with a sign-in, for the admin screen (no hashes, no contacts).
 pub fn list_staff(conn: &Connection) -> Result<Vec<Person>, StoreError> {
-    let mut stmt = conn.prepare(&format!("SELECT {PERSON_COLUMNS} FROM people WHERE username IS NOT NULL ORDER BY username"))?;
+    let mut stmt =
+        conn.prepare(&format!("SELECT {PERSON_COLUMNS} FROM people WHERE username IS NOT NULL ORDER BY username"))?;
     let rows = stmt.query_map([], person_row)?.collect::<Result<Vec<_>, _>>()?;
     rows.into_iter().map(to_person).collect()
 }
 
 /// Turns a sign-in off or on again; also ends its sessions when turned off.
-pub fn set_disabled(conn: &mut Connection, username: &str, disabled: bool, by: Option<i64>, now: DateTime<Utc>) -> Result<bool, StoreError> {
+pub fn set_disabled(
+    conn: &mut Connection,
+    username: &str,
+    disabled: bool,
+    by: Option<i64>,
+    now: DateTime<Utc>,
+) -> Result<bool, StoreError> {
     let tx = conn.transaction()?;
     let Some((id, _)) = staff_id(&tx, username)? else { return Ok(false) };
     tx.execute("UPDATE people SET disabled = ?1 WHERE id = ?2", params![disabled, id])?;
@@ -153,10 +201,17 @@ pub enum RoleChange {
 /// Gives a reviewer or admin another role. Sessions go on: access checks read the role
 /// at every request. (An admin cannot change their own role — the handler refuses — so
 /// there is always an admin left.)
-pub fn set_role(conn: &mut Connection, username: &str, role: Role, by: Option<i64>, now: DateTime<Utc>) -> Result<RoleChange, StoreError> {
+pub fn set_role(
+    conn: &mut Connection,
+    username: &str,
+    role: Role,
+    by: Option<i64>,
+    now: DateTime<Utc>,
+) -> Result<RoleChange, StoreError> {
     let tx = conn.transaction()?;
     let Some((id, current)) = staff_id(&tx, username)? else { return Ok(RoleChange::NoSuchPerson) };
-    let from = Role::from_code(&current).ok_or_else(|| StoreError::Corrupt(format!("person {id}: unknown role {current}")))?;
+    let from =
+        Role::from_code(&current).ok_or_else(|| StoreError::Corrupt(format!("person {id}: unknown role {current}")))?;
     if from == role {
         return Ok(RoleChange::Unchanged);
     }
@@ -168,7 +223,13 @@ pub fn set_role(conn: &mut Connection, username: &str, role: Role, by: Option<i6
 
 /// Gives a sign-in a new password hash and ends its sessions, so the old password and
 /// whoever held it are out. `false` when there is no such sign-in.
-pub fn set_password(conn: &mut Connection, username: &str, password_hash: &str, by: Option<i64>, now: DateTime<Utc>) -> Result<bool, StoreError> {
+pub fn set_password(
+    conn: &mut Connection,
+    username: &str,
+    password_hash: &str,
+    by: Option<i64>,
+    now: DateTime<Utc>,
+) -> Result<bool, StoreError> {
     let tx = conn.transaction()?;
     let Some((id, _)) = staff_id(&tx, username)? else { return Ok(false) };
     tx.execute("UPDATE people SET password_hash = ?1 WHERE id = ?2", params![password_hash, id])?;
@@ -185,18 +246,27 @@ pub fn events(conn: &Connection) -> Result<Vec<PersonEvent>, StoreError> {
          JOIN people p ON p.id = e.person_id LEFT JOIN people b ON b.id = e.by_person_id ORDER BY e.id DESC",
     )?;
     let rows = stmt
-        .query_map([], |row| Ok((row.get::<_, Option<String>>(0)?, row.get(1)?, row.get(2)?, row.get(3)?, row.get::<_, String>(4)?)))?
+        .query_map([], |row| {
+            Ok((row.get::<_, Option<String>>(0)?, row.get(1)?, row.get(2)?, row.get(3)?, row.get::<_, String>(4)?))
+        })?
         .collect::<Result<Vec<_>, _>>()?;
     rows.into_iter()
         .map(|(username, action, detail, by, at)| {
-            let at = DateTime::parse_from_rfc3339(&at).map_err(|err| StoreError::Corrupt(format!("people event time {at}: {err}")))?.with_timezone(&Utc);
+            let at = DateTime::parse_from_rfc3339(&at)
+                .map_err(|err| StoreError::Corrupt(format!("people event time {at}: {err}")))?
+                .with_timezone(&Utc);
             Ok(PersonEvent { username: username.unwrap_or_default(), action, detail, by, at })
         })
         .collect()
 }
 
 /// The name and contact an observer gave (for reviewers; never sent out by any route).
-pub fn set_observer_profile(conn: &Connection, observer_id: i64, display_name: Option<&str>, contact: Option<&str>) -> Result<(), StoreError> {
+pub fn set_observer_profile(
+    conn: &Connection,
+    observer_id: i64,
+    display_name: Option<&str>,
+    contact: Option<&str>,
+) -> Result<(), StoreError> {
     conn.execute(
         "UPDATE people SET display_name = ?1, contact = ?2 WHERE id = ?3 AND role = 'observer'",
         params![display_name, contact, observer_id],

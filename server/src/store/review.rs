@@ -15,7 +15,9 @@ fn now_text(now: DateTime<Utc>) -> String {
 }
 
 fn parse_time(text: &str) -> Result<DateTime<Utc>, StoreError> {
-    DateTime::parse_from_rfc3339(text).map(|t| t.with_timezone(&Utc)).map_err(|err| StoreError::Corrupt(format!("timestamp {text}: {err}")))
+    DateTime::parse_from_rfc3339(text)
+        .map(|t| t.with_timezone(&Utc))
+        .map_err(|err| StoreError::Corrupt(format!("timestamp {text}: {err}")))
 }
 
 fn state(code: &str) -> Result<ReviewState, StoreError> {
@@ -23,7 +25,10 @@ fn state(code: &str) -> Result<ReviewState, StoreError> {
 }
 
 /// The observation's number, its state and its observer, by the phone's id.
-pub fn observation_of(conn: &Connection, client_id: Uuid) -> Result<Option<(i64, ReviewState, Option<i64>)>, StoreError> {
+pub fn observation_of(
+    conn: &Connection,
+    client_id: Uuid,
+) -> Result<Option<(i64, ReviewState, Option<i64>)>, StoreError> {
     let row = conn
         .query_row(
             "SELECT id, review_state, observer_id FROM observations WHERE client_id = ?1",
@@ -57,7 +62,15 @@ pub fn identifications(conn: &Connection, observation_id: i64) -> Result<Vec<Ide
         .collect::<Result<Vec<_>, _>>()?;
     rows.into_iter()
         .map(|(taxon_name, taxon_rank, identified_by, at, remarks, basis, current)| {
-            Ok(Identification { taxon_name, taxon_rank, identified_by, identified_at: parse_time(&at)?, remarks, basis, current })
+            Ok(Identification {
+                taxon_name,
+                taxon_rank,
+                identified_by,
+                identified_at: parse_time(&at)?,
+                remarks,
+                basis,
+                current,
+            })
         })
         .collect()
 }
@@ -68,11 +81,14 @@ pub fn messages(conn: &Connection, observation_id: i64) -> Result<Vec<Message>, 
          WHERE m.observation_id = ?1 ORDER BY m.id",
     )?;
     let rows = stmt
-        .query_map([observation_id], |row| Ok((row.get::<_, String>(0)?, row.get(1)?, row.get(2)?, row.get::<_, String>(3)?)))?
+        .query_map([observation_id], |row| {
+            Ok((row.get::<_, String>(0)?, row.get(1)?, row.get(2)?, row.get::<_, String>(3)?))
+        })?
         .collect::<Result<Vec<_>, _>>()?;
     rows.into_iter()
         .map(|(role, author, body, at)| {
-            let author_role = Role::from_code(&role).ok_or_else(|| StoreError::Corrupt(format!("message role {role}")))?;
+            let author_role =
+                Role::from_code(&role).ok_or_else(|| StoreError::Corrupt(format!("message role {role}")))?;
             Ok(Message { author_role, author, body, at: parse_time(&at)? })
         })
         .collect()
@@ -91,7 +107,15 @@ pub fn events(conn: &Connection, observation_id: i64) -> Result<Vec<ReviewEvent>
         .collect::<Result<Vec<_>, _>>()?;
     rows.into_iter()
         .map(|((action, from, to), by, detail, reason, at)| {
-            Ok(ReviewEvent { action, from_state: state(&from)?, to_state: state(&to)?, by, detail, reason, at: parse_time(&at)? })
+            Ok(ReviewEvent {
+                action,
+                from_state: state(&from)?,
+                to_state: state(&to)?,
+                by,
+                detail,
+                reason,
+                at: parse_time(&at)?,
+            })
         })
         .collect()
 }
@@ -154,8 +178,19 @@ pub fn apply<E>(
     Ok(Some(Ok(change.to_state)))
 }
 
-fn supersede_identification(tx: &Transaction, observation_id: i64, person_id: i64, name: &str, rank: &str, remark: Option<&str>, at: &str) -> Result<(), StoreError> {
-    let reviewer: Option<String> = tx.query_row("SELECT display_name FROM people WHERE id = ?1", [person_id], |row| row.get(0)).optional()?.flatten();
+fn supersede_identification(
+    tx: &Transaction,
+    observation_id: i64,
+    person_id: i64,
+    name: &str,
+    rank: &str,
+    remark: Option<&str>,
+    at: &str,
+) -> Result<(), StoreError> {
+    let reviewer: Option<String> = tx
+        .query_row("SELECT display_name FROM people WHERE id = ?1", [person_id], |row| row.get(0))
+        .optional()?
+        .flatten();
     tx.execute(
         "INSERT INTO identifications (observation_id, taxon_name, taxon_rank, identified_by, identified_by_id, identified_at, remarks, basis)
          VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, 'reviewer')",
@@ -200,7 +235,8 @@ fn set_state(tx: &Transaction, row: AuditRow) -> Result<(), StoreError> {
 
 /// The client ids of one observer's records, newest first.
 pub fn records_of_observer(conn: &Connection, observer_id: i64) -> Result<Vec<Uuid>, StoreError> {
-    let mut stmt = conn.prepare("SELECT client_id FROM observations WHERE observer_id = ?1 ORDER BY observed_at_utc DESC")?;
+    let mut stmt =
+        conn.prepare("SELECT client_id FROM observations WHERE observer_id = ?1 ORDER BY observed_at_utc DESC")?;
     let ids = stmt.query_map([observer_id], |row| row.get::<_, String>(0))?.collect::<Result<Vec<_>, _>>()?;
     ids.iter().map(|id| Uuid::parse_str(id).map_err(|err| StoreError::Corrupt(err.to_string()))).collect()
 }
@@ -225,7 +261,9 @@ pub fn add_reply(
     now: DateTime<Utc>,
 ) -> Result<ReplyOutcome, StoreError> {
     let tx = conn.transaction()?;
-    let Some((observation_id, current, owner)) = observation_of(&tx, client_id)? else { return Ok(ReplyOutcome::NotTheirs) };
+    let Some((observation_id, current, owner)) = observation_of(&tx, client_id)? else {
+        return Ok(ReplyOutcome::NotTheirs);
+    };
     if owner != Some(observer_id) {
         return Ok(ReplyOutcome::NotTheirs);
     }
@@ -237,7 +275,10 @@ pub fn add_reply(
     if inserted == 0 {
         return Ok(ReplyOutcome::AlreadyThere);
     }
-    let first_position: i64 = tx.query_row("SELECT COUNT(*) FROM observation_photos WHERE observation_id = ?1", [observation_id], |row| row.get(0))?;
+    let first_position: i64 =
+        tx.query_row("SELECT COUNT(*) FROM observation_photos WHERE observation_id = ?1", [observation_id], |row| {
+            row.get(0)
+        })?;
     for (index, photo) in photos.iter().enumerate() {
         observations::link_photo(&tx, observation_id, first_position as usize + index, photo, &at)?;
     }

@@ -9,7 +9,16 @@ use rusqlite::{Connection, params};
 use super::StoreError;
 
 /// Guesses the records carry, some of them of sensitive species in the demo checklist.
-const GUESSES: &[&str] = &["small-spotted catshark", "thornback ray", "tope", "angelshark", "blonde ray", "spurdog", "flapper skate", "some ray"];
+const GUESSES: &[&str] = &[
+    "small-spotted catshark",
+    "thornback ray",
+    "tope",
+    "angelshark",
+    "blonde ray",
+    "spurdog",
+    "flapper skate",
+    "some ray",
+];
 
 /// Records per invented survey walk; every other record of each run is found on it.
 pub const RECORDS_PER_WALK: u64 = 40;
@@ -38,7 +47,8 @@ pub fn fill(conn: &mut Connection, count: u64) -> Result<(), StoreError> {
             "INSERT INTO measurements (observation_id, kind, value, unit, value_cm, method) VALUES (?1, 'total', ?2, 'cm', ?2, 'measured')",
         )?;
         let mut sign = tx.prepare("INSERT INTO human_signs (observation_id, sign) VALUES (?1, 'hook')")?;
-        let mut photo = tx.prepare("INSERT INTO observation_photos (observation_id, photo_sha256, position) VALUES (?1, ?2, 0)")?;
+        let mut photo =
+            tx.prepare("INSERT INTO observation_photos (observation_id, photo_sha256, position) VALUES (?1, ?2, 0)")?;
         let mut walk = tx.prepare(
             "INSERT INTO walks (client_id, started_at, ended_at, all_finds_reported, distance_m, received_at, content_sha256,
                 submission_json, stretch, observer_name, duration_s, distance_source)
@@ -106,7 +116,9 @@ fn walk_id(run: u64) -> String {
 /// An invented walk of 1.5 hours on `day` with five fixes northwards from `start`; two
 /// walks in three promise every find.
 fn invented_walk(run: u64, day: &str, (lat, lon): (f64, f64)) -> shared_types::WalkSubmission {
-    let at = |minutes: u32| chrono::DateTime::parse_from_rfc3339(&format!("{day}T09:{minutes:02}:00+00:00")).expect("an invented time");
+    let at = |minutes: u32| {
+        chrono::DateTime::parse_from_rfc3339(&format!("{day}T09:{minutes:02}:00+00:00")).expect("an invented time")
+    };
     let track = (0..5)
         .map(|i| shared_types::TrackPoint {
             latitude: shared_types::Latitude::parse(lat + 0.002 * f64::from(i)).expect("an invented latitude"),

@@ -22,13 +22,26 @@ pub enum WalkInsertion {
 /// for the demo loader); a resend with the same content from the same phone gets the
 /// first receipt. A walk stored before walks had owners is adopted by the first phone
 /// that resends exactly its content (the track is never public, so only its phone can).
-pub fn insert_walk(conn: &mut Connection, walk: &WalkSubmission, content_sha256: &str, observer_id: Option<i64>, now: DateTime<Utc>) -> Result<WalkInsertion, StoreError> {
+pub fn insert_walk(
+    conn: &mut Connection,
+    walk: &WalkSubmission,
+    content_sha256: &str,
+    observer_id: Option<i64>,
+    now: DateTime<Utc>,
+) -> Result<WalkInsertion, StoreError> {
     let tx = conn.transaction()?;
     let existing = tx
         .query_row(
             "SELECT id, content_sha256, received_at, observer_id FROM walks WHERE client_id = ?1",
             [walk.client_id.to_string()],
-            |row| Ok((row.get::<_, i64>(0)?, row.get::<_, Option<String>>(1)?, row.get::<_, String>(2)?, row.get::<_, Option<i64>>(3)?)),
+            |row| {
+                Ok((
+                    row.get::<_, i64>(0)?,
+                    row.get::<_, Option<String>>(1)?,
+                    row.get::<_, String>(2)?,
+                    row.get::<_, Option<i64>>(3)?,
+                ))
+            },
         )
         .optional()?;
     if let Some((walk_id, stored_hash, received_at, owner)) = existing {
@@ -89,11 +102,15 @@ pub struct StoredWalk {
 
 /// Every walk, earliest first.
 pub fn list_walks(conn: &Connection) -> Result<Vec<StoredWalk>, StoreError> {
-    let mut stmt = conn.prepare("SELECT id, submission_json FROM walks WHERE submission_json IS NOT NULL ORDER BY started_at, id")?;
-    let rows = stmt.query_map([], |row| Ok((row.get::<_, i64>(0)?, row.get::<_, String>(1)?)))?.collect::<Result<Vec<_>, _>>()?;
+    let mut stmt = conn
+        .prepare("SELECT id, submission_json FROM walks WHERE submission_json IS NOT NULL ORDER BY started_at, id")?;
+    let rows = stmt
+        .query_map([], |row| Ok((row.get::<_, i64>(0)?, row.get::<_, String>(1)?)))?
+        .collect::<Result<Vec<_>, _>>()?;
     rows.into_iter()
         .map(|(walk_id, json)| {
-            let walk: WalkSubmission = serde_json::from_str(&json).map_err(|err| StoreError::Corrupt(format!("walk {walk_id}: {err}")))?;
+            let walk: WalkSubmission =
+                serde_json::from_str(&json).map_err(|err| StoreError::Corrupt(format!("walk {walk_id}: {err}")))?;
             let record_client_ids = records_on(conn, walk.client_id)?;
             Ok(StoredWalk { walk_id, walk, record_client_ids })
         })
@@ -103,7 +120,8 @@ pub fn list_walks(conn: &Connection) -> Result<Vec<StoredWalk>, StoreError> {
 /// Calls `each` with every walk, earliest first, one at a time (for exports: no record
 /// lists, so memory stays flat however many walks there are).
 pub fn for_each_walk(conn: &Connection, mut each: impl FnMut(WalkSubmission)) -> Result<(), StoreError> {
-    let mut stmt = conn.prepare("SELECT id, submission_json FROM walks WHERE submission_json IS NOT NULL ORDER BY started_at, id")?;
+    let mut stmt = conn
+        .prepare("SELECT id, submission_json FROM walks WHERE submission_json IS NOT NULL ORDER BY started_at, id")?;
     let mut rows = stmt.query([])?;
     while let Some(row) = rows.next()? {
         let (walk_id, json): (i64, String) = (row.get(0)?, row.get(1)?);
@@ -113,7 +131,8 @@ pub fn for_each_walk(conn: &Connection, mut each: impl FnMut(WalkSubmission)) ->
 }
 
 fn records_on(conn: &Connection, walk: Uuid) -> Result<Vec<Uuid>, StoreError> {
-    let mut stmt = conn.prepare("SELECT client_id FROM observations WHERE walk_client_id = ?1 ORDER BY observed_at_utc")?;
+    let mut stmt =
+        conn.prepare("SELECT client_id FROM observations WHERE walk_client_id = ?1 ORDER BY observed_at_utc")?;
     let ids = stmt.query_map([walk.to_string()], |row| row.get::<_, String>(0))?.collect::<Result<Vec<_>, _>>()?;
     ids.iter().map(|id| Uuid::parse_str(id).map_err(|err| StoreError::Corrupt(err.to_string()))).collect()
 }
@@ -121,7 +140,9 @@ fn records_on(conn: &Connection, walk: Uuid) -> Result<Vec<Uuid>, StoreError> {
 /// The phone a stored walk came from: `None` when there is no such walk, `Some(None)`
 /// for a walk with no known phone (the demo's, or sent before walks had owners).
 pub fn walk_observer(conn: &Connection, walk: Uuid) -> Result<Option<Option<i64>>, StoreError> {
-    Ok(conn.query_row("SELECT observer_id FROM walks WHERE client_id = ?1", [walk.to_string()], |row| row.get(0)).optional()?)
+    Ok(conn
+        .query_row("SELECT observer_id FROM walks WHERE client_id = ?1", [walk.to_string()], |row| row.get(0))
+        .optional()?)
 }
 
 /// What linking a record to a walk did.
@@ -139,14 +160,19 @@ pub enum LinkOutcome {
 pub fn link_record(conn: &mut Connection, record: Uuid, walk: Uuid) -> Result<LinkOutcome, StoreError> {
     let tx = conn.transaction()?;
     let current = tx
-        .query_row("SELECT walk_client_id FROM observations WHERE client_id = ?1", [record.to_string()], |row| row.get::<_, Option<String>>(0))
+        .query_row("SELECT walk_client_id FROM observations WHERE client_id = ?1", [record.to_string()], |row| {
+            row.get::<_, Option<String>>(0)
+        })
         .optional()?;
     let outcome = match current {
         None => LinkOutcome::NoSuchRecord,
         Some(Some(existing)) if existing == walk.to_string() => LinkOutcome::AlreadyLinked,
         Some(Some(_)) => LinkOutcome::OnAnotherWalk,
         Some(None) => {
-            tx.execute("UPDATE observations SET walk_client_id = ?1 WHERE client_id = ?2", [walk.to_string(), record.to_string()])?;
+            tx.execute(
+                "UPDATE observations SET walk_client_id = ?1 WHERE client_id = ?2",
+                [walk.to_string(), record.to_string()],
+            )?;
             LinkOutcome::Linked
         }
     };

@@ -97,7 +97,10 @@ async fn fixture(app: &TestApp) -> Fixture {
     let photo = record["photos"][0]["sha256"].as_str().unwrap().to_owned();
     let admin = staff(app, Who::Admin).await.unwrap();
     let person = json!({"username": MATRIX_PERSON, "role": "reviewer", "display_name": "Matrix", "password": "matrix-person-pass"});
-    assert_eq!(admin.sign(app.client.post(format!("{}/api/people", app.base))).json(&person).send().await.unwrap().status(), 200);
+    assert_eq!(
+        admin.sign(app.client.post(format!("{}/api/people", app.base))).json(&person).send().await.unwrap().status(),
+        200
+    );
     Fixture { owner, other, photo, walk }
 }
 
@@ -116,14 +119,28 @@ async fn fresh_merge(app: &TestApp) -> i64 {
     app.submit(&submission(&a), &[]).await;
     app.submit(&submission(&b), &[]).await;
     let url = format!("{}/api/review/records/{a}/duplicates/{b}", app.base);
-    let merged: Value = app.reviewer.sign(app.client.post(url)).json(&json!({"same_animal": true})).send().await.unwrap().json().await.unwrap();
+    let merged: Value = app
+        .reviewer
+        .sign(app.client.post(url))
+        .json(&json!({"same_animal": true}))
+        .send()
+        .await
+        .unwrap()
+        .json()
+        .await
+        .unwrap();
     merged["merge_id"].as_i64().expect("a merge")
 }
 
 /// The path and body that exercise `route` on the owner's resources. A route this
 /// does not know fails the test, so a new route gets a request here.
 async fn request_for(app: &TestApp, fx: &Fixture, route: &RouteSpec) -> (String, Body) {
-    let mut path = route.path.replace("{client_id}", RECORD).replace("{other_client_id}", OTHER_RECORD).replace("{sha256}", &fx.photo).replace("{username}", MATRIX_PERSON);
+    let mut path = route
+        .path
+        .replace("{client_id}", RECORD)
+        .replace("{other_client_id}", OTHER_RECORD)
+        .replace("{sha256}", &fx.photo)
+        .replace("{username}", MATRIX_PERSON);
     if path.contains("{merge_id}") {
         path = path.replace("{merge_id}", &fresh_merge(app).await.to_string());
     }
@@ -152,11 +169,19 @@ async fn request_for(app: &TestApp, fx: &Fixture, route: &RouteSpec) -> (String,
         ("POST", "/api/session") => Body::Json(json!({"username": "test-reviewer", "password": REVIEWER_PASSWORD})),
         ("POST", "/api/devices") => Body::Json(json!({})),
         ("PUT", "/api/my/profile") => Body::Json(json!({"display_name": "Matrix", "contact": null})),
-        ("POST", "/api/my/records/{client_id}/replies") => Body::Form("reply", json!({"client_id": fresh(), "message": "matrix"})),
-        ("POST", "/api/review/records/{client_id}/actions") => Body::Json(json!({"action": "request_details", "message": "matrix?"})),
-        ("POST", "/api/review/records/{client_id}/duplicates/{other_client_id}") => Body::Json(json!({"same_animal": false})),
+        ("POST", "/api/my/records/{client_id}/replies") => {
+            Body::Form("reply", json!({"client_id": fresh(), "message": "matrix"}))
+        }
+        ("POST", "/api/review/records/{client_id}/actions") => {
+            Body::Json(json!({"action": "request_details", "message": "matrix?"}))
+        }
+        ("POST", "/api/review/records/{client_id}/duplicates/{other_client_id}") => {
+            Body::Json(json!({"same_animal": false}))
+        }
         ("POST", "/api/review/merges/{merge_id}/undo") => Body::None,
-        ("POST", "/api/people") => Body::Json(json!({"username": format!("m-{}", &fresh()[..8]), "role": "reviewer", "display_name": "M", "password": "matrix-person-pass"})),
+        ("POST", "/api/people") => Body::Json(
+            json!({"username": format!("m-{}", &fresh()[..8]), "role": "reviewer", "display_name": "M", "password": "matrix-person-pass"}),
+        ),
         ("PUT", "/api/people/{username}/disabled") => Body::Json(json!({"disabled": false})),
         ("PUT", "/api/people/{username}/role") => Body::Json(json!({"role": "reviewer"})),
         ("PUT", "/api/people/{username}/password") => Body::Json(json!({"password": "matrix-person-pass"})),
@@ -193,7 +218,13 @@ async fn every_route_against_every_caller() {
     for route in ROUTES {
         for who in EVERYONE {
             let (status, body) = call(&app, &fx, route, who).await;
-            let expected = if allowed(route.access, who) { "2xx" } else if refusal(who) == 401 { "401" } else { "403" };
+            let expected = if allowed(route.access, who) {
+                "2xx"
+            } else if refusal(who) == 401 {
+                "401"
+            } else {
+                "403"
+            };
             let fine = match expected {
                 "2xx" => (200..300).contains(&status),
                 _ => status == refusal(who),
@@ -215,7 +246,8 @@ fn the_router_is_built_from_its_table_alone() {
     let source = include_str!("../../src/router.rs");
     let app_body = &source[source.find("pub fn app(").expect("fn app")..];
     let app_body = &app_body[..app_body.find("\n}\n").expect("end of fn app")];
-    let routes: Vec<&str> = app_body.match_indices(".route(").map(|(at, _)| app_body[at..].lines().next().unwrap()).collect();
+    let routes: Vec<&str> =
+        app_body.match_indices(".route(").map(|(at, _)| app_body[at..].lines().next().unwrap()).collect();
     assert_eq!(routes.len(), 2, "only the table's loop and the /api 404 may add routes: {routes:?}");
     assert!(routes.iter().any(|r| r.contains(".route(spec.path, (spec.handler)(spec.verb.filter()))")), "{routes:?}");
     assert!(routes.iter().any(|r| r.contains(".route(\"/api/{*rest}\", any(api_not_found))")), "{routes:?}");
@@ -227,8 +259,18 @@ fn the_router_is_built_from_its_table_alone() {
     // Every call in the table, by the name before its parenthesis.
     let known = ["route", "on", "layer", "max", "RouteSpec"];
     for (at, _) in table.match_indices('(') {
-        let name: String = table[..at].chars().rev().take_while(|c| c.is_alphanumeric() || *c == '_').collect::<String>().chars().rev().collect();
-        assert!(name.is_empty() || known.contains(&name.as_str()), "unknown call `{name}(` in ROUTES: only route(…, |m| on(m, handler)) is allowed");
+        let name: String = table[..at]
+            .chars()
+            .rev()
+            .take_while(|c| c.is_alphanumeric() || *c == '_')
+            .collect::<String>()
+            .chars()
+            .rev()
+            .collect();
+        assert!(
+            name.is_empty() || known.contains(&name.as_str()),
+            "unknown call `{name}(` in ROUTES: only route(…, |m| on(m, handler)) is allowed"
+        );
     }
     let entries = table.matches("route(").count();
     assert_eq!(entries, ROUTES.len(), "each table entry is one route(…)");
@@ -242,12 +284,20 @@ async fn methods_not_in_the_table_are_not_answered() {
     let app = spawn_app().await;
     let mut wrong = Vec::new();
     for route in ROUTES {
-        let path = route.path.replace("{client_id}", RECORD).replace("{other_client_id}", OTHER_RECORD).replace("{sha256}", &"0".repeat(64)).replace("{username}", "x").replace("{merge_id}", "1");
+        let path = route
+            .path
+            .replace("{client_id}", RECORD)
+            .replace("{other_client_id}", OTHER_RECORD)
+            .replace("{sha256}", &"0".repeat(64))
+            .replace("{username}", "x")
+            .replace("{merge_id}", "1");
         for method in ["GET", "POST", "PUT", "DELETE", "PATCH"] {
             if ROUTES.iter().any(|r| r.path == route.path && r.method() == method) {
                 continue;
             }
-            let request = app.client.request(reqwest::Method::from_bytes(method.as_bytes()).unwrap(), format!("{}{path}", app.base));
+            let request = app
+                .client
+                .request(reqwest::Method::from_bytes(method.as_bytes()).unwrap(), format!("{}{path}", app.base));
             let status = app.reviewer.sign(request).send().await.unwrap().status().as_u16();
             if status != 405 {
                 wrong.push(format!("{method} {path}: {status}"));
@@ -269,7 +319,14 @@ async fn another_observer_sees_nothing_of_a_record_that_is_not_theirs() {
     assert_eq!(mine(owner.clone()).await.len(), 1);
     assert!(mine(other.clone()).await.is_empty());
     let form = Form::new().text("reply", json!({"client_id": OTHER_RECORD, "message": "mine now"}).to_string());
-    let response = app.client.post(format!("{}/api/my/records/{RECORD}/replies", app.base)).bearer_auth(other).multipart(form).send().await.unwrap();
+    let response = app
+        .client
+        .post(format!("{}/api/my/records/{RECORD}/replies", app.base))
+        .bearer_auth(other)
+        .multipart(form)
+        .send()
+        .await
+        .unwrap();
     assert_eq!(response.status(), 403);
     let view: Value = app.get(&format!("/api/review/records/{RECORD}")).await.json().await.unwrap();
     assert_eq!(view["messages"], json!([]), "nothing was added");
@@ -312,8 +369,16 @@ async fn one_address_trying_many_names_is_stopped() {
     for n in 0..wrackline_server::auth::MAX_FAILURES_PER_ADDRESS {
         assert_eq!(sign_in_from(&app, "203.0.113.9", &format!("guess-{n}"), "not the password").await, 401);
     }
-    assert_eq!(sign_in_from(&app, "203.0.113.9", "test-reviewer", REVIEWER_PASSWORD).await, 429, "this address is out for a while");
-    assert_eq!(sign_in_from(&app, "203.0.113.10", "test-reviewer", REVIEWER_PASSWORD).await, 200, "other addresses are not");
+    assert_eq!(
+        sign_in_from(&app, "203.0.113.9", "test-reviewer", REVIEWER_PASSWORD).await,
+        429,
+        "this address is out for a while"
+    );
+    assert_eq!(
+        sign_in_from(&app, "203.0.113.10", "test-reviewer", REVIEWER_PASSWORD).await,
+        200,
+        "other addresses are not"
+    );
 }
 
 /// An unknown username costs the same argon2 work as a known one with a wrong
@@ -346,7 +411,13 @@ async fn unknown_names_take_as_long_as_wrong_passwords() {
 #[tokio::test]
 async fn the_session_cookie_is_http_only_and_same_site_and_csrf_is_required() {
     let app = spawn_app().await;
-    let response = app.client.post(format!("{}/api/session", app.base)).json(&json!({"username": "test-reviewer", "password": REVIEWER_PASSWORD})).send().await.unwrap();
+    let response = app
+        .client
+        .post(format!("{}/api/session", app.base))
+        .json(&json!({"username": "test-reviewer", "password": REVIEWER_PASSWORD}))
+        .send()
+        .await
+        .unwrap();
     let cookie = response.headers()["set-cookie"].to_str().unwrap().to_owned();
     assert!(cookie.contains("HttpOnly") && cookie.contains("SameSite=Strict"), "{cookie}");
     assert!(!cookie.contains("Secure"), "plain HTTP (the demo on 127.0.0.1): no Secure flag: {cookie}");
@@ -355,7 +426,15 @@ async fn the_session_cookie_is_http_only_and_same_site_and_csrf_is_required() {
     let url = format!("{}/api/review/records/{RECORD}/actions", app.base);
     let without = app.client.post(&url).header("cookie", &app.reviewer.cookie).json(&action).send().await.unwrap();
     assert_eq!(without.status(), 403);
-    let wrong = app.client.post(&url).header("cookie", &app.reviewer.cookie).header("x-csrf-token", "guess").json(&action).send().await.unwrap();
+    let wrong = app
+        .client
+        .post(&url)
+        .header("cookie", &app.reviewer.cookie)
+        .header("x-csrf-token", "guess")
+        .json(&action)
+        .send()
+        .await
+        .unwrap();
     assert_eq!(wrong.status(), 403);
     let right = app.reviewer.sign(app.client.post(&url)).json(&action).send().await.unwrap();
     assert_eq!(right.status(), 200);
@@ -382,14 +461,23 @@ async fn signing_out_and_turning_off_end_the_sign_in() {
     let session = sign_in(&app.client, &app.base, "test-reviewer", REVIEWER_PASSWORD).await.unwrap();
     let out = session.sign(app.client.delete(format!("{}/api/session", app.base))).send().await.unwrap();
     assert_eq!(out.status(), 200);
-    assert_eq!(session.sign(app.client.get(format!("{}/api/review/queue", app.base))).send().await.unwrap().status(), 401);
+    assert_eq!(
+        session.sign(app.client.get(format!("{}/api/review/queue", app.base))).send().await.unwrap().status(),
+        401
+    );
 
     let admin = sign_in(&app.client, &app.base, "test-admin", REVIEWER_PASSWORD).await.unwrap();
-    let off = admin.sign(app.client.put(format!("{}/api/people/test-reviewer/disabled", app.base))).json(&json!({"disabled": true})).send().await.unwrap();
+    let off = admin
+        .sign(app.client.put(format!("{}/api/people/test-reviewer/disabled", app.base)))
+        .json(&json!({"disabled": true}))
+        .send()
+        .await
+        .unwrap();
     assert_eq!(off.status(), 200);
     assert_eq!(app.get("/api/review/queue").await.status(), 401, "its sessions ended");
     assert_eq!(sign_in(&app.client, &app.base, "test-reviewer", REVIEWER_PASSWORD).await.err().unwrap().0, 401);
-    let people: Vec<Value> = admin.sign(app.client.get(format!("{}/api/people", app.base))).send().await.unwrap().json().await.unwrap();
+    let people: Vec<Value> =
+        admin.sign(app.client.get(format!("{}/api/people", app.base))).send().await.unwrap().json().await.unwrap();
     let listed = serde_json::to_string(&people).unwrap();
     assert!(listed.contains("test-reviewer") && !listed.contains("argon2"), "no hashes leave the server: {listed}");
 }

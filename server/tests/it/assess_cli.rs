@@ -9,7 +9,13 @@ use serde_json::Value;
 use crate::helpers::{spawn_app, submission};
 
 fn wrackline(data_dir: &Path, args: &[&str]) -> Output {
-    Command::new(env!("CARGO_BIN_EXE_wrackline")).arg("--data-dir").arg(data_dir).args(args).env_remove("RUST_BACKTRACE").output().unwrap()
+    Command::new(env!("CARGO_BIN_EXE_wrackline"))
+        .arg("--data-dir")
+        .arg(data_dir)
+        .args(args)
+        .env_remove("RUST_BACKTRACE")
+        .output()
+        .unwrap()
 }
 
 fn json_of(output: &Output) -> Value {
@@ -57,19 +63,26 @@ fn two_periods_are_set_side_by_side_with_the_change() {
     let args = ["range", "--from", file.to_str().unwrap(), "--period", "2015-2019", "--period", "2020-2024", "--json"];
     let report = json_of(&wrackline(dir.path(), &args));
     let group = &report["taxa"][0];
-    let records: Vec<i64> = group["periods"].as_array().unwrap().iter().map(|p| p["records"].as_i64().unwrap()).collect();
+    let records: Vec<i64> =
+        group["periods"].as_array().unwrap().iter().map(|p| p["records"].as_i64().unwrap()).collect();
     assert_eq!(records, [2, 3], "the common name counts as its species; the record spanning new year is in neither");
     assert_eq!(report["left_out"]["outside_every_period"], 1);
     let change = &group["changes"][0];
     assert_eq!(change["records"], 1);
-    let aoo: Vec<f64> = group["periods"].as_array().unwrap().iter().map(|p| p["figures"]["aoo"]["area_km2"].as_f64().unwrap()).collect();
+    let aoo: Vec<f64> = group["periods"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .map(|p| p["figures"]["aoo"]["area_km2"].as_f64().unwrap())
+        .collect();
     assert_eq!(change["aoo_km2"].as_f64().unwrap(), aoo[1] - aoo[0]);
 }
 
 #[test]
 fn one_point_has_its_eoo_raised_to_the_aoo() {
     let dir = tempfile::tempdir().unwrap();
-    let file = write(dir.path(), "one.csv", "decimalLatitude,decimalLongitude,scientificName\n52.4,-4.1,Squalus acanthias\n");
+    let file =
+        write(dir.path(), "one.csv", "decimalLatitude,decimalLongitude,scientificName\n52.4,-4.1,Squalus acanthias\n");
     let report = json_of(&wrackline(dir.path(), &["range", "--from", file.to_str().unwrap(), "--json"]));
     let figures = &report["taxa"][0]["periods"][0]["figures"];
     // IUCN Guidelines §4.9: when EOO < AOO, EOO is set to AOO (one cell, 4 km²).
@@ -80,7 +93,11 @@ fn one_point_has_its_eoo_raised_to_the_aoo() {
 #[test]
 fn a_bad_cell_is_named_by_file_line_and_column() {
     let dir = tempfile::tempdir().unwrap();
-    let file = write(dir.path(), "bad.csv", "scientificName,decimalLatitude,decimalLongitude\nRaja clavata,52.4,-4.1\nRaja clavata,52.4,west\n");
+    let file = write(
+        dir.path(),
+        "bad.csv",
+        "scientificName,decimalLatitude,decimalLongitude\nRaja clavata,52.4,-4.1\nRaja clavata,52.4,west\n",
+    );
     let output = wrackline(dir.path(), &["range", "--from", file.to_str().unwrap()]);
     assert!(!output.status.success());
     let message = String::from_utf8_lossy(&output.stderr);
@@ -98,12 +115,18 @@ fn trend_from_a_file_extrapolates_over_three_generations() {
         csv.push_str(&format!("{year},{},2.5\n", (10_000.0 * 0.8_f64.powf(i as f64 / 10.0)).round()));
     }
     let file = write(dir.path(), "years.csv", &csv);
-    let report = json_of(&wrackline(dir.path(), &["trend", "--from", file.to_str().unwrap(), "--generation-length", "10", "--json"]));
+    let report = json_of(&wrackline(
+        dir.path(),
+        &["trend", "--from", file.to_str().unwrap(), "--generation-length", "10", "--json"],
+    ));
     let trend = &report["trend"];
     assert_eq!(trend["window_years"], 30.0);
     let change = trend["window_change"]["estimate"].as_f64().unwrap();
     assert!((change + 0.488).abs() < 0.001, "window change {change}");
-    assert!(trend["window_change"]["lower"].as_f64().unwrap() < change && change < trend["window_change"]["upper"].as_f64().unwrap());
+    assert!(
+        trend["window_change"]["lower"].as_f64().unwrap() < change
+            && change < trend["window_change"]["upper"].as_f64().unwrap()
+    );
     assert!(trend["criterion_a"]["text"].as_str().unwrap().contains("not a listing decision"));
 }
 
@@ -118,7 +141,10 @@ fn trend_reports_mann_kendall_and_takes_the_generation_length_from_the_checklist
         csv.push_str(&format!("{},{c},1\n", 2011 + i));
     }
     let file = write(dir.path(), "mk.csv", &csv);
-    let report = json_of(&wrackline(dir.path(), &["trend", "--from", file.to_str().unwrap(), "--taxon", "small-spotted catshark", "--json"]));
+    let report = json_of(&wrackline(
+        dir.path(),
+        &["trend", "--from", file.to_str().unwrap(), "--taxon", "small-spotted catshark", "--json"],
+    ));
     let mk = &report["trend"]["mann_kendall"];
     assert_eq!(mk["s"], -29);
     assert!((mk["var_s"].as_f64().unwrap() - 121.0).abs() < 1e-9);
@@ -142,7 +168,8 @@ fn a_trend_without_a_generation_length_says_how_to_give_one() {
 #[tokio::test]
 async fn stored_records_count_only_in_the_chosen_review_state() {
     let app = spawn_app().await;
-    for (id, lat) in [("9a1f0c52-8a47-4c1e-9a55-2b6f3c1d0e01", 52.41), ("9a1f0c52-8a47-4c1e-9a55-2b6f3c1d0e02", 52.30)] {
+    for (id, lat) in [("9a1f0c52-8a47-4c1e-9a55-2b6f3c1d0e01", 52.41), ("9a1f0c52-8a47-4c1e-9a55-2b6f3c1d0e02", 52.30)]
+    {
         let mut record = submission(id);
         record["position"]["latitude"] = lat.into();
         assert_eq!(app.submit(&record, &[]).await.status, 200);
@@ -153,7 +180,10 @@ async fn stored_records_count_only_in_the_chosen_review_state() {
     let any = json_of(&wrackline(&app.data_dir, &["range", "--state", "any", "--json"]));
     assert_eq!(any["records_used"], "stored records in any review state");
     let group = &any["taxa"][0];
-    assert_eq!(group["taxon"], "Scyliorhinus canicula", "the guess `small-spotted catshark` is matched on the checklist");
+    assert_eq!(
+        group["taxon"], "Scyliorhinus canicula",
+        "the guess `small-spotted catshark` is matched on the checklist"
+    );
     assert_eq!(group["periods"][0]["records"], 2);
     let text = wrackline(&app.data_dir, &["range", "--state", "any"]);
     assert!(String::from_utf8_lossy(&text.stdout).contains("Records used: stored records in any review state"));
@@ -169,7 +199,8 @@ async fn range_and_trend_over_http_give_the_figures_the_command_line_gives() {
         assert_eq!(app.submit(&record, &[]).await.status, 200);
     }
     let over_http: Value = app.get("/api/range?state=any&taxon=Scyliorhinidae").await.json().await.unwrap();
-    let from_cli = json_of(&wrackline(&app.data_dir, &["range", "--state", "any", "--taxon", "Scyliorhinidae", "--json"]));
+    let from_cli =
+        json_of(&wrackline(&app.data_dir, &["range", "--state", "any", "--taxon", "Scyliorhinidae", "--json"]));
     assert_eq!(over_http, from_cli);
     let trend = app.get("/api/trend?state=any&taxon=small-spotted%20catshark").await;
     assert_eq!(trend.status(), 200);
@@ -216,7 +247,10 @@ fn range_reads_an_archive_from_elsewhere_through_its_meta_xml() {
     assert_eq!(group["taxon"], "Dasyatis pastinaca", "the constant from meta.xml");
     assert_eq!(group["periods"][0]["records"], 3);
     let hull = group["periods"][0]["figures"]["eoo"]["hull"].as_array().unwrap();
-    assert!(hull.iter().any(|c| c["lat"] == 52.4 && c["lon"] == -4.1), "columns mapped by index, not by position in the file");
+    assert!(
+        hull.iter().any(|c| c["lat"] == 52.4 && c["lon"] == -4.1),
+        "columns mapped by index, not by position in the file"
+    );
 }
 
 #[test]
@@ -255,7 +289,8 @@ async fn a_family_with_a_sensitive_species_keeps_its_places_for_reviewers() {
     for (i, (lat, lon)) in [(52.41, -4.09), (52.24, -4.26), (52.13, -4.55)].iter().enumerate() {
         let mut skate = submission(&format!("5e000000-0000-4000-8000-00000000000{i}"));
         skate["species_guess"] = "Dipturus batis".into();
-        skate["position"] = serde_json::json!({"latitude": lat, "longitude": lon, "accuracy_m": 10.0, "source": "device"});
+        skate["position"] =
+            serde_json::json!({"latitude": lat, "longitude": lon, "accuracy_m": 10.0, "source": "device"});
         assert_eq!(app.submit(&skate, &[]).await.status, 200);
     }
     let anonymous = |path: String| app.client.get(format!("{}{path}", app.base)).send();
@@ -281,7 +316,8 @@ fn reference_set(name: &str) -> Value {
 
 fn fixed_and_least(counts: &Value) -> (u64, u64) {
     let counts = counts.as_array().unwrap();
-    let fixed = counts.iter().find(|c| c["east_quarters"] == 0 && c["north_quarters"] == 0).unwrap()["cells"].as_u64().unwrap();
+    let fixed =
+        counts.iter().find(|c| c["east_quarters"] == 0 && c["north_quarters"] == 0).unwrap()["cells"].as_u64().unwrap();
     (fixed, counts.iter().map(|c| c["cells"].as_u64().unwrap()).min().unwrap())
 }
 
@@ -299,13 +335,29 @@ fn range_from_records_across_the_antimeridian_centres_its_grid_on_them() {
 
     // The documented rule: far from 52° N 10° E, so centred on the records' mean rounded to 5°.
     let report = json_of(&wrackline(dir.path(), &["range", "--from", from, "--json"]));
-    assert_eq!(report["grid"]["centre"], serde_json::json!({"lat": set["rule_centre"][0], "lon": set["rule_centre"][1]}), "{}", report["grid_choice"]);
-    assert!(report["grid_choice"].as_str().unwrap().contains("these records lie more than 60° of arc"), "{}", report["grid_choice"]);
+    assert_eq!(
+        report["grid"]["centre"],
+        serde_json::json!({"lat": set["rule_centre"][0], "lon": set["rule_centre"][1]}),
+        "{}",
+        report["grid_choice"]
+    );
+    assert!(
+        report["grid_choice"].as_str().unwrap().contains("these records lie more than 60° of arc"),
+        "{}",
+        report["grid_choice"]
+    );
     let figures = &report["taxa"][0]["periods"][0]["figures"];
     // EOO: shapely hull + pyproj geodesic area in the [0, 360) frame (range.json).
-    assert!((figures["eoo_km2"].as_f64().unwrap() - eoo_reference).abs() < 1e-6 * eoo_reference, "{}", figures["eoo_km2"]);
+    assert!(
+        (figures["eoo_km2"].as_f64().unwrap() - eoo_reference).abs() < 1e-6 * eoo_reference,
+        "{}",
+        figures["eoo_km2"]
+    );
     let (fixed, least) = fixed_and_least(&set["aoo_cells_by_shift_rule_grid"]);
-    assert_eq!((figures["aoo"]["occupied_cells"].as_u64(), figures["aoo"]["min_occupied_cells"].as_u64()), (Some(fixed), Some(least)));
+    assert_eq!(
+        (figures["aoo"]["occupied_cells"].as_u64(), figures["aoo"]["min_occupied_cells"].as_u64()),
+        (Some(fixed), Some(least))
+    );
     assert!(figures["method"].as_str().unwrap().contains("centred on -15°, 180°"), "{}", figures["method"]);
 
     // A centre given on the command line, the one the reference counted cells on.
@@ -313,12 +365,19 @@ fn range_from_records_across_the_antimeridian_centres_its_grid_on_them() {
     assert_eq!(given["grid"]["centre"], serde_json::json!({"lat": -17.0, "lon": 179.0}));
     let figures = &given["taxa"][0]["periods"][0]["figures"];
     let (fixed, least) = fixed_and_least(&set["aoo_cells_by_shift"]);
-    assert_eq!((figures["aoo"]["occupied_cells"].as_u64(), figures["aoo"]["min_occupied_cells"].as_u64()), (Some(fixed), Some(least)));
+    assert_eq!(
+        (figures["aoo"]["occupied_cells"].as_u64(), figures["aoo"]["min_occupied_cells"].as_u64()),
+        (Some(fixed), Some(least))
+    );
     assert_eq!(figures["aoo"]["area_km2"].as_f64(), Some(fixed as f64 * 4.0));
 
     let refused = wrackline(dir.path(), &["range", "--from", from, "--grid-centre", "north"]);
     assert!(!refused.status.success());
-    assert!(String::from_utf8_lossy(&refused.stderr).contains("`north` is not LAT,LON"), "{}", String::from_utf8_lossy(&refused.stderr));
+    assert!(
+        String::from_utf8_lossy(&refused.stderr).contains("`north` is not LAT,LON"),
+        "{}",
+        String::from_utf8_lossy(&refused.stderr)
+    );
 }
 
 #[tokio::test]
@@ -326,7 +385,11 @@ async fn stored_records_keep_the_fixed_grid_and_take_a_centre_over_http() {
     let app = spawn_app().await;
     assert_eq!(app.submit(&submission("6d000000-0000-4000-8000-000000000001"), &[]).await.status, 200);
     let report: Value = app.get("/api/range?state=any").await.json().await.unwrap();
-    assert_eq!(report["grid"]["centre"], serde_json::json!({"lat": 52.0, "lon": 10.0}), "the demo checklist's areas are near the default");
+    assert_eq!(
+        report["grid"]["centre"],
+        serde_json::json!({"lat": 52.0, "lon": 10.0}),
+        "the demo checklist's areas are near the default"
+    );
     assert!(report["grid_choice"].as_str().unwrap().contains("fixed default"), "{}", report["grid_choice"]);
     let moved: Value = app.get("/api/range?state=any&grid_centre=52.4,-4.1").await.json().await.unwrap();
     assert_eq!(moved["grid"]["centre"], serde_json::json!({"lat": 52.4, "lon": -4.1}));

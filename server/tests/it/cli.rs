@@ -50,11 +50,17 @@ fn demo_walks_load_and_effort_sums_them() {
     }
     demo.kill().unwrap();
     demo.wait().unwrap();
-    let output = Command::new(env!("CARGO_BIN_EXE_wrackline")).arg("--data-dir").arg(dir.path()).args(["effort", "--json"]).output().unwrap();
+    let output = Command::new(env!("CARGO_BIN_EXE_wrackline"))
+        .arg("--data-dir")
+        .arg(dir.path())
+        .args(["effort", "--json"])
+        .output()
+        .unwrap();
     assert!(output.status.success(), "{}", String::from_utf8_lossy(&output.stderr));
     let rows: serde_json::Value = serde_json::from_slice(&output.stdout).unwrap();
     let walks: u64 = rows.as_array().unwrap().iter().map(|r| r["walks"].as_u64().unwrap()).sum();
     assert_eq!(walks, 40, "every demo walk is counted once");
-    let text = Command::new(env!("CARGO_BIN_EXE_wrackline")).arg("--data-dir").arg(dir.path()).arg("effort").output().unwrap();
+    let text =
+        Command::new(env!("CARGO_BIN_EXE_wrackline")).arg("--data-dir").arg(dir.path()).arg("effort").output().unwrap();
     assert!(String::from_utf8_lossy(&text.stdout).contains("Borth to Ynyslas"));
 }

@@ -27,7 +27,11 @@ async fn parallel_uploads_wait_for_a_decode_turn() {
         .collect();
     for upload in uploads {
         let answer = upload.await.unwrap();
-        assert_eq!(answer.status, 200, "a busy server keeps the request waiting, it does not refuse it: {}", answer.body);
+        assert_eq!(
+            answer.status, 200,
+            "a busy server keeps the request waiting, it does not refuse it: {}",
+            answer.body
+        );
     }
     assert_eq!(app.records().await.len(), PARALLEL);
     // Without the gate all eight decode side by side on the blocking pool.
@@ -57,7 +61,8 @@ async fn parallel_remakes_of_missing_derivatives_wait_for_a_decode_turn() {
 /// Deletes every stored display copy, as if the photos predated derivatives.
 async fn remove_display_copies(app: &TestApp) -> Vec<String> {
     let record = app.records().await.pop().unwrap();
-    let shas: Vec<String> = record["photos"].as_array().unwrap().iter().map(|p| p["sha256"].as_str().unwrap().to_owned()).collect();
+    let shas: Vec<String> =
+        record["photos"].as_array().unwrap().iter().map(|p| p["sha256"].as_str().unwrap().to_owned()).collect();
     for sha in &shas {
         std::fs::remove_file(app.data_dir.join("photos").join(&sha[..2]).join(format!("{sha}.display.jpg"))).unwrap();
     }

@@ -5,9 +5,9 @@
 
 use std::path::PathBuf;
 
+use wrackline_server::intake::exif;
 use wrackline_server::intake::images;
 use wrackline_server::intake::photos::PhotoFormat;
-use wrackline_server::intake::exif;
 
 use crate::helpers::{exiftool_tags, sized_jpeg, spawn_app, submission, with_exiftool};
 
@@ -55,8 +55,10 @@ async fn derivatives_are_smaller_upright_and_carry_no_exif_while_the_original_ke
     assert!(original_tags.iter().any(|t| t == "GPS:GPSLatitude"), "{original_tags:?}");
     for (name, bytes) in [("display", &display), ("thumb", &thumb)] {
         let tags = exiftool_tags(bytes, &scratch);
-        let leaked: Vec<&String> =
-            tags.iter().filter(|t| t.starts_with("GPS:") || t.starts_with("IFD0:") || t.starts_with("ExifIFD:")).collect();
+        let leaked: Vec<&String> = tags
+            .iter()
+            .filter(|t| t.starts_with("GPS:") || t.starts_with("IFD0:") || t.starts_with("ExifIFD:"))
+            .collect();
         assert!(leaked.is_empty(), "{name} carries EXIF: {leaked:?} (all tags: {tags:?})");
     }
 }
@@ -87,7 +89,9 @@ async fn derivatives_missing_on_disk_are_made_again_from_the_original() {
 async fn unknown_photos_are_not_found_in_every_rendition() {
     let app = spawn_app().await;
     let unknown = "0".repeat(64);
-    for path in [format!("/photos/{unknown}"), format!("/photos/{unknown}/thumb"), format!("/photos/{unknown}/original")] {
+    for path in
+        [format!("/photos/{unknown}"), format!("/photos/{unknown}/thumb"), format!("/photos/{unknown}/original")]
+    {
         assert_eq!(app.get(&path).await.status(), 404, "{path}");
     }
 }
@@ -106,6 +110,10 @@ fn orientation_one_to_eight_matches_pillow_exif_transpose_pixel_for_pixel() {
         assert_eq!(read, Some(orientation), "Orientation written by Pillow 11.3.0");
         let (ours, _) = images::upright(&oriented, PhotoFormat::Png, read).unwrap();
         let pillow = image::load_from_memory(&fixture(&format!("upright-{orientation}.png"))).unwrap().to_rgb8();
-        assert_eq!(ours.to_rgb8(), pillow, "Orientation {orientation}: ours differs from Pillow 11.3.0 ImageOps.exif_transpose");
+        assert_eq!(
+            ours.to_rgb8(),
+            pillow,
+            "Orientation {orientation}: ours differs from Pillow 11.3.0 ImageOps.exif_transpose"
+        );
     }
 }

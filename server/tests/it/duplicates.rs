@@ -61,10 +61,20 @@ fn snapshot(app: &TestApp) -> Vec<String> {
 
 fn counts(app: &TestApp) -> Vec<i64> {
     let conn = rusqlite::Connection::open(app.data_dir.join("wrackline.sqlite3")).unwrap();
-    ["observations", "organisms", "identifications", "photos", "observation_photos", "review_events", "duplicate_candidates", "duplicate_decisions", "merges"]
-        .iter()
-        .map(|t| conn.query_row(&format!("SELECT COUNT(*) FROM {t}"), [], |r| r.get(0)).unwrap())
-        .collect()
+    [
+        "observations",
+        "organisms",
+        "identifications",
+        "photos",
+        "observation_photos",
+        "review_events",
+        "duplicate_candidates",
+        "duplicate_decisions",
+        "merges",
+    ]
+    .iter()
+    .map(|t| conn.query_row(&format!("SELECT COUNT(*) FROM {t}"), [], |r| r.get(0)).unwrap())
+    .collect()
 }
 
 #[tokio::test]
@@ -77,7 +87,12 @@ async fn a_carcass_reported_twice_is_found_with_its_reasons_both_ways() {
     assert_eq!(duplicates.len(), 1);
     assert_eq!(duplicates[0]["other"]["submission"]["client_id"], SECOND);
     let reasons = duplicates[0]["reasons"].to_string();
-    assert!(reasons.contains("m apart") && reasons.contains("24.0 h apart") && reasons.contains("the same taxon, Raja clavata"), "{reasons}");
+    assert!(
+        reasons.contains("m apart")
+            && reasons.contains("24.0 h apart")
+            && reasons.contains("the same taxon, Raja clavata"),
+        "{reasons}"
+    );
     assert!((duplicates[0]["distance_m"].as_f64().unwrap() - 300.0).abs() < 2.0);
     assert_eq!(detail(&app, SECOND).await["duplicates"][0]["other"]["submission"]["client_id"], FIRST);
     let queue: Vec<Value> = app.get("/api/review/queue").await.json().await.unwrap();
@@ -96,8 +111,10 @@ async fn two_devices_sending_the_same_animal_at_once_become_candidates_of_each_o
     let app = std::sync::Arc::new(spawn_app().await);
     let (phone_a, phone_b) = (app.new_device().await, app.new_device().await);
     let (a, b) = (app.clone(), app.clone());
-    let first = tokio::spawn(async move { a.submit_as(&phone_a, &carcass(FIRST, 0, 0.0), &[plain_jpeg(3)]).await.status });
-    let second = tokio::spawn(async move { b.submit_as(&phone_b, &carcass(SECOND, 0, 50.0), &[plain_jpeg(4)]).await.status });
+    let first =
+        tokio::spawn(async move { a.submit_as(&phone_a, &carcass(FIRST, 0, 0.0), &[plain_jpeg(3)]).await.status });
+    let second =
+        tokio::spawn(async move { b.submit_as(&phone_b, &carcass(SECOND, 0, 50.0), &[plain_jpeg(4)]).await.status });
     assert_eq!((first.await.unwrap(), second.await.unwrap()), (200, 200));
     assert_eq!(detail(&app, FIRST).await["duplicates"][0]["other"]["submission"]["client_id"], SECOND);
     assert_eq!(detail(&app, SECOND).await["duplicates"][0]["other"]["submission"]["client_id"], FIRST);
@@ -123,17 +140,27 @@ async fn a_merge_makes_one_animal_and_undoing_it_restores_every_row() {
     assert!(csv.contains("2025-06-01T08:00:00Z/2025-06-02T08:00:00Z"), "{csv}");
     // TDWG Darwin Core associatedOccurrences: the other report of the same organism.
     assert!(csv.contains(&format!("same organism: urn:uuid:{SECOND}")), "{csv}");
-    assert!(counts(&app).iter().zip(&counts_before).all(|(after, before)| after >= before), "nothing deleted by a merge");
+    assert!(
+        counts(&app).iter().zip(&counts_before).all(|(after, before)| after >= before),
+        "nothing deleted by a merge"
+    );
     assert_eq!(decide(&app, SECOND, FIRST, true).await.0, 409, "a merged record is not merged twice");
 
     assert_eq!(undo(&app, merge_id).await, 200);
-    assert_eq!(snapshot(&app), before, "the records, animals, candidates and decisions are exactly as before the merge");
+    assert_eq!(
+        snapshot(&app),
+        before,
+        "the records, animals, candidates and decisions are exactly as before the merge"
+    );
     assert_eq!(undo(&app, merge_id).await, 404, "a merge is undone once");
     // The pair is a candidate again, undecided, and back in the queue as one.
     let pair = &detail(&app, FIRST).await["duplicates"][0];
     assert_eq!((&pair["decision"], &pair["merge_id"]), (&Value::Null, &Value::Null), "{pair}");
     let queue: Vec<Value> = app.get("/api/review/queue").await.json().await.unwrap();
-    assert_eq!(queue.iter().filter(|i| i["priority_reasons"].to_string().contains("possibly the same animal")).count(), 2);
+    assert_eq!(
+        queue.iter().filter(|i| i["priority_reasons"].to_string().contains("possibly the same animal")).count(),
+        2
+    );
     // The audit trail keeps the merge and its undo, with who did them.
     for id in [FIRST, SECOND] {
         let events = detail(&app, id).await["events"].as_array().unwrap().clone();
@@ -141,7 +168,9 @@ async fn a_merge_makes_one_animal_and_undoing_it_restores_every_row() {
         assert_eq!(actions, ["merge", "undo_merge"], "{id}");
     }
     let conn = rusqlite::Connection::open(app.data_dir.join("wrackline.sqlite3")).unwrap();
-    let undone: (Option<String>, Option<i64>) = conn.query_row("SELECT undone_at, undone_by FROM merges WHERE id = ?1", [merge_id], |r| Ok((r.get(0)?, r.get(1)?))).unwrap();
+    let undone: (Option<String>, Option<i64>) = conn
+        .query_row("SELECT undone_at, undone_by FROM merges WHERE id = ?1", [merge_id], |r| Ok((r.get(0)?, r.get(1)?)))
+        .unwrap();
     assert!(undone.0.is_some() && undone.1.is_some(), "{undone:?}");
 }
 
@@ -152,7 +181,10 @@ async fn undo(app: &TestApp, merge_id: i64) -> u16 {
 
 fn organism(app: &TestApp, client_id: &str) -> (i64, String) {
     let conn = rusqlite::Connection::open(app.data_dir.join("wrackline.sqlite3")).unwrap();
-    conn.query_row("SELECT organism_id, review_state FROM observations WHERE client_id = ?1", [client_id], |r| Ok((r.get(0)?, r.get(1)?))).unwrap()
+    conn.query_row("SELECT organism_id, review_state FROM observations WHERE client_id = ?1", [client_id], |r| {
+        Ok((r.get(0)?, r.get(1)?))
+    })
+    .unwrap()
 }
 
 #[tokio::test]
@@ -176,7 +208,11 @@ async fn merging_an_animal_that_holds_other_reports_moves_them_all_and_undoes_la
     // Every pair among the three reads as one animal, and the pair joined by the outer
     // merge offers that merge to undo.
     let first = detail(&app, FIRST).await;
-    assert!(first["duplicates"].as_array().unwrap().iter().all(|d| d["decision"] == "same animal"), "{}", first["duplicates"]);
+    assert!(
+        first["duplicates"].as_array().unwrap().iter().all(|d| d["decision"] == "same animal"),
+        "{}",
+        first["duplicates"]
+    );
     assert!(first["duplicates"].as_array().unwrap().iter().all(|d| d["merge_id"] == outer["merge_id"]));
     // The inner merge cannot be undone under the outer one.
     assert_eq!(undo(&app, inner["merge_id"].as_i64().unwrap()).await, 409);
@@ -194,7 +230,10 @@ async fn different_animals_are_remembered_and_not_suggested_again() {
     assert_eq!(decide(&app, FIRST, SECOND, false).await.0, 200);
     assert_eq!(detail(&app, FIRST).await["duplicates"][0]["decision"], "different animals");
     let queue: Vec<Value> = app.get("/api/review/queue").await.json().await.unwrap();
-    assert!(queue.iter().all(|i| !i["priority_reasons"].to_string().contains("possibly the same animal")), "no longer suggested");
+    assert!(
+        queue.iter().all(|i| !i["priority_reasons"].to_string().contains("possibly the same animal")),
+        "no longer suggested"
+    );
 }
 
 fn reasons_between(detail: &Value, other: &str) -> String {
@@ -254,7 +293,11 @@ async fn a_photo_place_stands_in_for_a_missing_one_and_a_photo_time_for_a_flagge
     let late_detail = detail(&app, "d0000000-0000-4000-8000-000000000004").await;
     assert_eq!(late_detail["record"]["photos"][0]["check"]["flags"], json!(["taken_long_before_record"]));
     let reasons = reasons_between(&late_detail, THIRD);
-    assert!(reasons.contains("the time and place of photo 1's EXIF") && reasons.contains("flagged as taken long before the record"), "{reasons:?}");
+    assert!(
+        reasons.contains("the time and place of photo 1's EXIF")
+            && reasons.contains("flagged as taken long before the record"),
+        "{reasons:?}"
+    );
     assert!(reasons.contains("1.0 h apart"), "{reasons:?}");
 }
 
@@ -272,7 +315,10 @@ async fn the_same_original_photo_on_two_phones_makes_candidates_across_any_dista
     assert_eq!(app.submit(&first, &[plain_jpeg(5)]).await.status, 200);
     assert_eq!(app.submit(&second, &[plain_jpeg(6)]).await.status, 200);
     let reasons = reasons_between(&detail(&app, SECOND).await, FIRST);
-    assert!(reasons.contains("the same original photo, picked on both phones (SHA-256 of the original ba7816bf8f01…)"), "{reasons:?}");
+    assert!(
+        reasons.contains("the same original photo, picked on both phones (SHA-256 of the original ba7816bf8f01…)"),
+        "{reasons:?}"
+    );
     // A digest that is not one is refused, naming the field.
     let mut bad = carcass("d0000000-0000-4000-8000-000000000005", 0, 0.0);
     bad["photo_exif"] = json!([{"original_sha256": "not-a-digest"}]);
@@ -288,7 +334,11 @@ async fn a_search_that_failed_after_the_record_was_stored_runs_again_on_a_resend
     let db = app.data_dir.join("wrackline.sqlite3");
     let conn = rusqlite::Connection::open(&db).unwrap();
     conn.execute_batch("CREATE TRIGGER interrupt BEFORE INSERT ON duplicate_searches BEGIN SELECT RAISE(ABORT, 'search interrupted by the test'); END;").unwrap();
-    assert_eq!(app.submit(&carcass(SECOND, 1, 300.0), &[]).await.status, 500, "the search fails after the record is stored");
+    assert_eq!(
+        app.submit(&carcass(SECOND, 1, 300.0), &[]).await.status,
+        500,
+        "the search fails after the record is stored"
+    );
     // 1,900 m south of the first report, 2,200 m from the second: only its own search
     // can find the first.
     assert_eq!(app.submit(&carcass(THIRD, 0, -1_900.0), &[]).await.status, 500);
@@ -303,7 +353,11 @@ async fn a_search_that_failed_after_the_record_was_stored_runs_again_on_a_resend
     let checklist = wrackline_server::load_checklist(None).unwrap();
     assert_eq!(detail(&app, THIRD).await["duplicates"], json!([]));
     wrackline_server::AppState::open(&app.data_dir, None, checklist).unwrap();
-    assert!(reasons_between(&detail(&app, THIRD).await, FIRST).contains("1900 m apart"), "{}", detail(&app, THIRD).await["duplicates"]);
+    assert!(
+        reasons_between(&detail(&app, THIRD).await, FIRST).contains("1900 m apart"),
+        "{}",
+        detail(&app, THIRD).await["duplicates"]
+    );
 }
 
 /// Starts a second server on the same data directory, as a restart would.
@@ -331,6 +385,10 @@ async fn a_merge_undone_after_a_restart_leaves_the_record_findable() {
     let sent = app.client.post(format!("{base}/api/observations")).multipart(form).send().await.unwrap();
     assert_eq!(sent.status(), 200);
     let found = detail(&app, THIRD).await;
-    assert!(reasons_between(&found, SECOND).contains("m apart"), "the second report is in the restarted index: {}", found["duplicates"]);
+    assert!(
+        reasons_between(&found, SECOND).contains("m apart"),
+        "the second report is in the restarted index: {}",
+        found["duplicates"]
+    );
     assert_eq!(reasons_between(&found, FIRST), "");
 }

@@ -49,7 +49,12 @@ async fn download(app: &TestApp, query: &str, dir: &Path, name: &str) -> std::pa
 }
 
 fn row<'a>(archive: &'a Value, id: &str) -> &'a Value {
-    archive["rows"].as_array().unwrap().iter().find(|r| r["id"] == format!("urn:uuid:{id}")).unwrap_or_else(|| panic!("row {id}"))
+    archive["rows"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .find(|r| r["id"] == format!("urn:uuid:{id}"))
+        .unwrap_or_else(|| panic!("row {id}"))
 }
 
 fn term<'a>(row: &'a Value, name: &str) -> &'a str {
@@ -64,7 +69,10 @@ async fn the_archive_reads_back_with_python_dwca_reader_and_uses_only_tdwg_terms
     let archive = run_script("read_dwca.py", &[&zip, &terms_extract()]);
     // TDWG Darwin Core Text Guide: one core, extensions linked by coreid.
     assert_eq!(archive["core_row_type"], format!("{DWC}Occurrence"));
-    assert_eq!(archive["extension_row_types"], json!([format!("{DWC}MeasurementOrFact"), format!("{DWC}Identification")]));
+    assert_eq!(
+        archive["extension_row_types"],
+        json!([format!("{DWC}MeasurementOrFact"), format!("{DWC}Identification")])
+    );
     assert_eq!(archive["unknown_terms"], json!([]), "every term is in the TDWG term list");
     assert_eq!(archive["orphaned_extension_rows"]["measurementorfact.txt"], 0);
     assert_eq!(archive["orphaned_extension_rows"]["identification.txt"], 0);
@@ -94,7 +102,12 @@ async fn the_archive_reads_back_with_python_dwca_reader_and_uses_only_tdwg_terms
     assert_eq!(term(catshark, "vitality"), "dead");
     assert!(term(catshark, "associatedMedia").starts_with(&format!("{}/photos/", app.base)));
     assert!(term(catshark, "organismID").starts_with("organism-"));
-    let lengths: Vec<&Value> = catshark["extensions"].as_array().unwrap().iter().filter(|e| e["rowtype"] == format!("{DWC}MeasurementOrFact")).collect();
+    let lengths: Vec<&Value> = catshark["extensions"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .filter(|e| e["rowtype"] == format!("{DWC}MeasurementOrFact"))
+        .collect();
     assert_eq!(lengths.len(), 1);
     let length = &lengths[0]["data"];
     assert_eq!(length[format!("{DWC}measurementType")], "total length");
@@ -148,7 +161,10 @@ async fn the_full_export_from_the_command_line_keeps_positions_as_recorded() {
     let notes = String::from_utf8_lossy(&output.stderr);
     assert!(notes.contains("wrote 3 records") && notes.contains("some kind of skate (1)"), "{notes}");
     let archive = run_script("read_dwca.py", &[&out, &terms_extract()]);
-    assert_eq!(archive["metadata"]["licence_url"], "http://creativecommons.org/licenses/by/4.0/legalcode", "CC BY 4.0 unless the operator says otherwise");
+    assert_eq!(
+        archive["metadata"]["licence_url"], "http://creativecommons.org/licenses/by/4.0/legalcode",
+        "CC BY 4.0 unless the operator says otherwise"
+    );
     // The operator's choice, from the environment (GBIF accepts CC0, CC BY and CC BY-NC).
     let cc0 = app.data_dir.parent().unwrap().join("cc0.zip");
     let output = Command::new(env!("CARGO_BIN_EXE_wrackline"))
@@ -251,7 +267,8 @@ async fn range_reads_an_exported_archive_back() {
     let app = app_with_records().await;
     let dir = tempfile::tempdir().unwrap();
     let zip = download(&app, "format=dwca", dir.path(), "again.zip").await;
-    let output = Command::new(env!("CARGO_BIN_EXE_wrackline")).args(["range", "--json", "--from"]).arg(&zip).output().unwrap();
+    let output =
+        Command::new(env!("CARGO_BIN_EXE_wrackline")).args(["range", "--json", "--from"]).arg(&zip).output().unwrap();
     assert!(output.status.success(), "{}", String::from_utf8_lossy(&output.stderr));
     let report: Value = serde_json::from_slice(&output.stdout).unwrap();
     assert_eq!(report["records_read"], 3);
@@ -326,7 +343,8 @@ async fn walks_export_as_events_with_absences_for_groups_not_found() {
     assert_eq!(app.submit(&submission(UNKNOWN), &[]).await.status, 200, "a record made outside any walk");
 
     let dir = tempfile::tempdir().unwrap();
-    let archive = run_script("read_dwca.py", &[&download(&app, "format=dwca", dir.path(), "events.zip").await, &terms_extract()]);
+    let archive =
+        run_script("read_dwca.py", &[&download(&app, "format=dwca", dir.path(), "events.zip").await, &terms_extract()]);
     // TDWG Darwin Core Text Guide: sampling-event data have the Event core with
     // Occurrence (and MeasurementOrFact) as extensions.
     assert_eq!(archive["core_row_type"], format!("{DWC}Event"));
@@ -338,7 +356,11 @@ async fn walks_export_as_events_with_absences_for_groups_not_found() {
     assert!(term(empty, "samplingProtocol").contains("every shark, ray, skate and egg case found was reported"));
     assert_eq!(term(empty, "sampleSizeUnit"), "kilometres");
     // Two fixes 0.001° of latitude apart near 52.5°N: about 111.3 m (common practice: 1° of latitude ≈ 111.3 km there).
-    assert!((term(empty, "sampleSizeValue").parse::<f64>().unwrap() - 0.111).abs() < 0.001, "{}", term(empty, "sampleSizeValue"));
+    assert!(
+        (term(empty, "sampleSizeValue").parse::<f64>().unwrap() - 0.111).abs() < 0.001,
+        "{}",
+        term(empty, "sampleSizeValue")
+    );
     assert_eq!(term(empty, "eventDate"), "2026-04-12T09:00:00+01:00/2026-04-12T10:30:00+01:00", "ISO 8601 interval");
     assert_eq!(term(empty, "decimalLatitude"), "52.5", "a public start is rounded to 0.1°");
     assert!(term(empty, "informationWithheld").contains("track"));
@@ -352,13 +374,15 @@ async fn walks_export_as_events_with_absences_for_groups_not_found() {
     }
 
     let with_catshark = extension_rows(row(&archive, WALK_WITH_CATSHARK));
-    let statuses: Vec<(&str, &str)> = with_catshark.iter().map(|o| (ext_term(o, "scientificName"), ext_term(o, "occurrenceStatus"))).collect();
+    let statuses: Vec<(&str, &str)> =
+        with_catshark.iter().map(|o| (ext_term(o, "scientificName"), ext_term(o, "occurrenceStatus"))).collect();
     assert_eq!(statuses.len(), 2, "{statuses:?}");
     assert!(statuses.contains(&("Scyliorhinus canicula", "detected")));
     assert!(statuses.contains(&("Batoidea", "notDetected")), "no shark absence where a shark was found");
 
     assert!(extension_rows(row(&archive, CASUAL_WALK)).is_empty(), "no absences without the every-find promise");
-    let incidental = archive["rows"].as_array().unwrap().iter().find(|r| r["id"].as_str().unwrap().ends_with("#event")).unwrap();
+    let incidental =
+        archive["rows"].as_array().unwrap().iter().find(|r| r["id"].as_str().unwrap().ends_with("#event")).unwrap();
     assert_eq!(term(incidental, "samplingProtocol"), "incidental record");
 }
 
@@ -384,7 +408,8 @@ async fn where_a_sensitive_species_was_is_shown_to_signed_in_reviewers_only() {
         assert_eq!(app.submit(&angel, &[]).await.status, 200);
     }
     let query = "taxon=Squatina%20squatina&state=any";
-    let public: Value = app.client.get(format!("{}/api/range?{query}", app.base)).send().await.unwrap().json().await.unwrap();
+    let public: Value =
+        app.client.get(format!("{}/api/range?{query}", app.base)).send().await.unwrap().json().await.unwrap();
     let figures = &public["taxa"][0]["periods"][0]["figures"];
     assert!(figures["eoo_km2"].as_f64().unwrap() > 0.0, "the figures are public: {figures}");
     assert_eq!(figures["eoo"]["hull"], json!([]), "the hull's corners are record positions");

@@ -41,7 +41,15 @@ async fn the_flag_table() {
         ("small-spotted catshark", "total", 54.0, "measured", ABERYSTWYTH, &[], ""),
         ("small-spotted catshark", "total", 119.0, "measured", ABERYSTWYTH, &[], ""),
         ("small-spotted catshark", "total", 121.0, "measured", ABERYSTWYTH, &["oversize"], "known maximum of 100 cm"),
-        ("small-spotted catshark", "total", 310.0, "measured", ABERYSTWYTH, &["oversize"], "measured 310 cm total length"),
+        (
+            "small-spotted catshark",
+            "total",
+            310.0,
+            "measured",
+            ABERYSTWYTH,
+            &["oversize"],
+            "measured 310 cm total length",
+        ),
         ("Scyliorhinus canicula", "total", 149.0, "estimated", ABERYSTWYTH, &[], ""),
         ("Scyliorhinus canicula", "total", 151.0, "estimated", ABERYSTWYTH, &["oversize"], "estimated 151 cm"),
         // Shortfin mako FL = 0.9286 × TL − 1.7101 (Kohler, Casey & Turner 1995, from
@@ -50,7 +58,15 @@ async fn the_flag_table() {
         ("shortfin mako", "fork", 490.0, "measured", (50.5, -9.0), &[], ""),
         ("shortfin mako", "fork", 520.0, "measured", (50.5, -9.0), &["oversize"], "fork length"),
         // Leafscale gulper shark: shelf edge only in the checklist.
-        ("leafscale gulper shark", "total", 90.0, "measured", ABERYSTWYTH, &["out_of_range"], "Cardigan Bay is not among"),
+        (
+            "leafscale gulper shark",
+            "total",
+            90.0,
+            "measured",
+            ABERYSTWYTH,
+            &["out_of_range"],
+            "Cardigan Bay is not among",
+        ),
         ("small-spotted catshark", "total", 50.0, "measured", (40.0, -40.0), &["out_of_range"], "outside every area"),
         ("small-spotted catshark", "total", 500.0, "measured", (40.0, -40.0), &["out_of_range", "oversize"], ""),
         ("a big grey fish", "total", 900.0, "measured", (40.0, -40.0), &[], ""),
@@ -59,7 +75,10 @@ async fn the_flag_table() {
         let flags = flags_of(&app, &record(n as u32 + 1, guess, kind, *cm, method, *place)).await;
         let kinds: Vec<&str> = flags.iter().map(|(k, _)| k.as_str()).collect();
         assert_eq!(&kinds, expected, "case {n}: {guess} {cm} cm {method}: {flags:?}");
-        assert!(flags.iter().any(|(_, r)| r.contains(words)) || words.is_empty(), "case {n}: `{words}` not in {flags:?}");
+        assert!(
+            flags.iter().any(|(_, r)| r.contains(words)) || words.is_empty(),
+            "case {n}: `{words}` not in {flags:?}"
+        );
     }
 }
 
@@ -67,7 +86,8 @@ async fn the_flag_table() {
 /// arrive with their own issue; the flag only reads the review state).
 fn confirm(app: &TestApp, client_id: &str) {
     let conn = rusqlite::Connection::open(app.data_dir.join("wrackline.sqlite3")).unwrap();
-    let changed = conn.execute("UPDATE observations SET review_state = 'confirmed' WHERE client_id = ?1", [client_id]).unwrap();
+    let changed =
+        conn.execute("UPDATE observations SET review_state = 'confirmed' WHERE client_id = ?1", [client_id]).unwrap();
     assert_eq!(changed, 1);
 }
 

@@ -56,10 +56,17 @@ async fn spawn(app_dir: Option<PathBuf>, decode_turns: Option<usize>) -> TestApp
         state.decode_gate = wrackline_server::intake::gate::DecodeGate::new(turns);
     }
     let decode_gate = state.decode_gate.clone();
-    for (username, role) in [("test-reviewer", shared_types::Role::Reviewer), ("test-admin", shared_types::Role::Admin)] {
-        wrackline_server::handlers::people::add_staff(&state, username.into(), role, format!("Test {}", role.code()), REVIEWER_PASSWORD.into())
-            .await
-            .expect("add staff");
+    for (username, role) in [("test-reviewer", shared_types::Role::Reviewer), ("test-admin", shared_types::Role::Admin)]
+    {
+        wrackline_server::handlers::people::add_staff(
+            &state,
+            username.into(),
+            role,
+            format!("Test {}", role.code()),
+            REVIEWER_PASSWORD.into(),
+        )
+        .await
+        .expect("add staff");
     }
     let listener = tokio::net::TcpListener::bind("127.0.0.1:0").await.expect("bind");
     let base = format!("http://{}", listener.local_addr().unwrap());
@@ -72,10 +79,24 @@ async fn spawn(app_dir: Option<PathBuf>, decode_turns: Option<usize>) -> TestApp
 }
 
 /// Signs in over HTTP, or says what the server answered.
-pub async fn sign_in(client: &reqwest::Client, base: &str, username: &str, password: &str) -> Result<Staff, (u16, Value)> {
-    let response = client.post(format!("{base}/api/session")).json(&json!({"username": username, "password": password})).send().await.unwrap();
+pub async fn sign_in(
+    client: &reqwest::Client,
+    base: &str,
+    username: &str,
+    password: &str,
+) -> Result<Staff, (u16, Value)> {
+    let response = client
+        .post(format!("{base}/api/session"))
+        .json(&json!({"username": username, "password": password}))
+        .send()
+        .await
+        .unwrap();
     let status = response.status().as_u16();
-    let cookie = response.headers().get("set-cookie").and_then(|v| v.to_str().ok()).map(|v| v.split(';').next().unwrap_or_default().to_owned());
+    let cookie = response
+        .headers()
+        .get("set-cookie")
+        .and_then(|v| v.to_str().ok())
+        .map(|v| v.split(';').next().unwrap_or_default().to_owned());
     let body: Value = response.json().await.unwrap_or(Value::Null);
     match (status, cookie) {
         (200, Some(cookie)) => Ok(Staff { cookie, csrf: body["csrf_token"].as_str().unwrap_or_default().to_owned() }),
@@ -113,7 +134,8 @@ impl TestApp {
         for (i, bytes) in photos.iter().enumerate() {
             form = form.part("photo", Part::bytes(bytes.clone()).file_name(format!("p{i}.jpg")));
         }
-        let response = self.client.post(format!("{}/api/observations", self.base)).multipart(form).send().await.unwrap();
+        let response =
+            self.client.post(format!("{}/api/observations", self.base)).multipart(form).send().await.unwrap();
         let status = response.status().as_u16();
         let body = response.json().await.unwrap_or(Value::Null);
         Answer { status, body }
@@ -136,14 +158,24 @@ impl TestApp {
 
     /// Posts a survey walk as the phone with `token`.
     pub async fn post_walk_as(&self, token: &str, walk: &Value) -> Answer {
-        let response = self.client.post(format!("{}/api/walks", self.base)).bearer_auth(token).json(walk).send().await.unwrap();
+        let response =
+            self.client.post(format!("{}/api/walks", self.base)).bearer_auth(token).json(walk).send().await.unwrap();
         let status = response.status().as_u16();
         Answer { status, body: response.json().await.unwrap_or(Value::Null) }
     }
 
     /// A new phone identity.
     pub async fn new_device(&self) -> String {
-        let body: Value = self.client.post(format!("{}/api/devices", self.base)).json(&json!({"display_name": "Test Phone"})).send().await.unwrap().json().await.unwrap();
+        let body: Value = self
+            .client
+            .post(format!("{}/api/devices", self.base))
+            .json(&json!({"display_name": "Test Phone"}))
+            .send()
+            .await
+            .unwrap()
+            .json()
+            .await
+            .unwrap();
         body["token"].as_str().expect("a token").to_owned()
     }
 
@@ -153,7 +185,14 @@ impl TestApp {
         for (i, bytes) in photos.iter().enumerate() {
             form = form.part("photo", Part::bytes(bytes.clone()).file_name(format!("p{i}.jpg")));
         }
-        let response = self.client.post(format!("{}/api/observations", self.base)).bearer_auth(token).multipart(form).send().await.unwrap();
+        let response = self
+            .client
+            .post(format!("{}/api/observations", self.base))
+            .bearer_auth(token)
+            .multipart(form)
+            .send()
+            .await
+            .unwrap();
         let status = response.status().as_u16();
         Answer { status, body: response.json().await.unwrap_or(Value::Null) }
     }
@@ -199,14 +238,20 @@ pub fn sized_jpeg(width: u32, height: u32) -> Vec<u8> {
 pub fn exiftool_tags(bytes: &[u8], dir: &Path) -> Vec<String> {
     let path = dir.join(format!("read-{}.jpg", uuid::Uuid::new_v4()));
     std::fs::write(&path, bytes).unwrap();
-    let output = std::process::Command::new("exiftool").args(["-json", "-G1", "-a", "-u"]).arg(&path).output().expect("exiftool");
+    let output = std::process::Command::new("exiftool")
+        .args(["-json", "-G1", "-a", "-u"])
+        .arg(&path)
+        .output()
+        .expect("exiftool");
     assert!(output.status.success(), "exiftool failed: {}", String::from_utf8_lossy(&output.stderr));
     let parsed: Value = serde_json::from_slice(&output.stdout).unwrap();
     parsed[0]
         .as_object()
         .unwrap()
         .keys()
-        .filter(|key| !["SourceFile", "ExifTool:", "System:", "File:", "Composite:"].iter().any(|skip| key.starts_with(skip)))
+        .filter(|key| {
+            !["SourceFile", "ExifTool:", "System:", "File:", "Composite:"].iter().any(|skip| key.starts_with(skip))
+        })
         .cloned()
         .collect()
 }

@@ -28,7 +28,10 @@ async fn check(app: &TestApp, name: &str, bytes: Vec<u8>, expect: Expect) {
         Expect::Refused(status, words) => {
             assert_eq!(answer.status, status, "{name}: {}", answer.body);
             let message = answer.body["error"].as_str().unwrap_or_default();
-            assert!(message.starts_with("photo 1: ") && message.contains(words), "{name}: {message:?} should say {words:?}");
+            assert!(
+                message.starts_with("photo 1: ") && message.contains(words),
+                "{name}: {message:?} should say {words:?}"
+            );
             assert_eq!(app.records().await.len(), before, "{name}: a refused record must store nothing");
         }
         Expect::Accepted => {
@@ -36,7 +39,10 @@ async fn check(app: &TestApp, name: &str, bytes: Vec<u8>, expect: Expect) {
             let records = app.records().await;
             let sha = records.last().unwrap()["photos"][0]["sha256"].as_str().unwrap().to_owned();
             let display = app.get(&format!("/photos/{sha}")).await.bytes().await.unwrap();
-            assert!(image::load_from_memory_with_format(&display, image::ImageFormat::Jpeg).is_ok(), "{name}: display copy");
+            assert!(
+                image::load_from_memory_with_format(&display, image::ImageFormat::Jpeg).is_ok(),
+                "{name}: display copy"
+            );
         }
     }
     assert_eq!(app.get("/healthz").await.status(), 200, "{name}: the server must still be serving");
@@ -48,20 +54,48 @@ async fn hostile_files_are_refused_cleanly_or_accepted_harmlessly() {
     let jpeg = sized_jpeg(400, 300);
     let cases: Vec<(&str, Vec<u8>, Expect)> = vec![
         ("zero bytes", Vec::new(), Expect::Refused(415, "empty")),
-        ("text renamed .jpg", b"Dear reviewer, this is not a photo.\n".to_vec(), Expect::Refused(415, "not a JPEG or PNG")),
-        ("JPEG magic then text", [&[0xFF, 0xD8, 0xFF][..], b"<html><script>alert(1)</script>"].concat(), Expect::Refused(422, "header could not be read")),
+        (
+            "text renamed .jpg",
+            b"Dear reviewer, this is not a photo.\n".to_vec(),
+            Expect::Refused(415, "not a JPEG or PNG"),
+        ),
+        (
+            "JPEG magic then text",
+            [&[0xFF, 0xD8, 0xFF][..], b"<html><script>alert(1)</script>"].concat(),
+            Expect::Refused(422, "header could not be read"),
+        ),
         ("truncated JPEG (header only)", jpeg[..200].to_vec(), Expect::Refused(422, "could not be")),
         ("truncated JPEG (half the scan)", jpeg[..jpeg.len() / 2].to_vec(), Expect::Accepted),
-        ("PNG declaring 100 000 × 100 000", png_declaring(100_000, 100_000), Expect::Refused(413, "100000 × 100000 pixels")),
+        (
+            "PNG declaring 100 000 × 100 000",
+            png_declaring(100_000, 100_000),
+            Expect::Refused(413, "100000 × 100000 pixels"),
+        ),
         ("PNG declaring 0 × 0", png_declaring(0, 0), Expect::Refused(422, "header could not be read")),
-        ("JPEG declaring 65 500 × 65 500", jpeg_declaring(&jpeg, 65_500, 65_500), Expect::Refused(413, "65500 × 65500 pixels")),
-        ("JPEG declaring 20 000 × 4 000 (too long a side)", jpeg_declaring(&jpeg, 20_000, 4_000), Expect::Refused(413, "16384 px a side")),
+        (
+            "JPEG declaring 65 500 × 65 500",
+            jpeg_declaring(&jpeg, 65_500, 65_500),
+            Expect::Refused(413, "65500 × 65500 pixels"),
+        ),
+        (
+            "JPEG declaring 20 000 × 4 000 (too long a side)",
+            jpeg_declaring(&jpeg, 20_000, 4_000),
+            Expect::Refused(413, "16384 px a side"),
+        ),
         ("EXIF IFD loop (IFD0 points to itself)", with_app1(&jpeg, &tiff_ifd_loop()), Expect::Accepted),
         ("EXIF with huge declared counts", with_app1(&jpeg, &tiff_huge_counts()), Expect::Accepted),
         ("PNG chunk declaring 2 GiB of data", png_with_huge_chunk(), Expect::Refused(422, "could not be")),
-        ("JPEG segment declaring more bytes than the file", jpeg_with_long_segment(&jpeg), Expect::Refused(422, "could not be")),
+        (
+            "JPEG segment declaring more bytes than the file",
+            jpeg_with_long_segment(&jpeg),
+            Expect::Refused(422, "could not be"),
+        ),
         ("polyglot: JPEG with a ZIP appended", [jpeg.clone(), zip_with_html()].concat(), Expect::Accepted),
-        ("polyglot: HTML that starts like a PNG", [&png_declaring(16, 16)[..33], b"<html><body>hi</body></html>"].concat(), Expect::Refused(422, "could not be")),
+        (
+            "polyglot: HTML that starts like a PNG",
+            [&png_declaring(16, 16)[..33], b"<html><body>hi</body></html>"].concat(),
+            Expect::Refused(422, "could not be"),
+        ),
     ];
     for (name, bytes, expect) in cases {
         check(&app, name, bytes, expect).await;
@@ -97,7 +131,13 @@ async fn a_photo_one_byte_over_the_limit_and_a_record_with_one_photo_too_many_ar
     let app = spawn_app().await;
     let mut over = sized_jpeg(400, 300);
     over.resize(25 * 1024 * 1024 + 1, 0);
-    check_over_limit(&app, "one byte over 25 MiB", &[over], "photo 1: 26214401 bytes is over the limit of 25 MiB (26214400 bytes)").await;
+    check_over_limit(
+        &app,
+        "one byte over 25 MiB",
+        &[over],
+        "photo 1: 26214401 bytes is over the limit of 25 MiB (26214400 bytes)",
+    )
+    .await;
     let thirteen: Vec<Vec<u8>> = (0..13).map(|i| plain_jpeg(i as u8)).collect();
     check_over_limit(&app, "13 photos", &thirteen, "at most 12 photos, this one has 13").await;
     // The limits themselves pass: exactly 25 MiB is not refused for its size, 12 photos are fine.
@@ -126,7 +166,8 @@ async fn a_bad_second_photo_refuses_the_record_and_stores_no_file() {
     assert_eq!(answer.status, 413, "{}", answer.body);
     assert!(answer.body["error"].as_str().unwrap().starts_with("photo 2: "), "{}", answer.body);
     assert!(app.records().await.is_empty());
-    let files = std::fs::read_dir(app.data_dir.join("photos")).unwrap().flatten().filter(|e| e.file_name() != "tmp").count();
+    let files =
+        std::fs::read_dir(app.data_dir.join("photos")).unwrap().flatten().filter(|e| e.file_name() != "tmp").count();
     assert_eq!(files, 0, "the good first photo must not be written before the bad second one is found");
 }
 
@@ -224,7 +265,13 @@ fn tiff_huge_counts() -> Vec<u8> {
 }
 
 fn entry(tag: u16, kind: u16, count: u32, value: u32) -> Vec<u8> {
-    [tag.to_be_bytes().to_vec(), kind.to_be_bytes().to_vec(), count.to_be_bytes().to_vec(), value.to_be_bytes().to_vec()].concat()
+    [
+        tag.to_be_bytes().to_vec(),
+        kind.to_be_bytes().to_vec(),
+        count.to_be_bytes().to_vec(),
+        value.to_be_bytes().to_vec(),
+    ]
+    .concat()
 }
 
 /// A stored (uncompressed) ZIP holding `index.html` (PKWARE APPNOTE 4.3: local header,

@@ -41,7 +41,11 @@ async fn nearby_counts_confirmed_records_per_species_and_never_says_where() {
     // From 52.2 N 4.26 W both confirmed records are within 50 km.
     let (status, near) = nearby(&app, "lat=52.2&lon=-4.26").await;
     assert_eq!(status, 200, "{near}");
-    assert_eq!(near["counts"], json!({"Scyliorhinus canicula": 1, "Squatina squatina": 1}), "the record awaiting review is not counted");
+    assert_eq!(
+        near["counts"],
+        json!({"Scyliorhinus canicula": 1, "Squatina squatina": 1}),
+        "the record awaiting review is not counted"
+    );
     assert_eq!(near["radius_km"], 50.0);
     let keys: Vec<&str> = near.as_object().unwrap().keys().map(String::as_str).collect();
     assert_eq!(keys, ["counts", "latitude", "longitude", "note", "radius_km"], "counts only: no record positions");
@@ -68,13 +72,43 @@ async fn a_pick_stopped_at_a_genus_is_exported_at_that_rank_and_generalised_like
     record["position"] = json!({"latitude": 52.3467, "longitude": -4.2611, "accuracy_m": 10.0, "source": "device"});
     record["key_choice"] = json!({"scientific_name": "Dipturus", "taxon_rank": "genus", "probability": 0.93, "answers": {"bodyForm": "rayLike"}});
     assert_eq!(app.submit(&record, &[]).await.status, 200);
-    let public: Value = app.client.get(format!("{}/api/export?format=geojson&state=any", app.base)).send().await.unwrap().json().await.unwrap();
+    let public: Value = app
+        .client
+        .get(format!("{}/api/export?format=geojson&state=any", app.base))
+        .send()
+        .await
+        .unwrap()
+        .json()
+        .await
+        .unwrap();
     let feature = &public["features"][0];
-    assert_eq!((feature["properties"]["scientificName"].as_str(), feature["properties"]["taxonRank"].as_str()), (Some("Dipturus"), Some("genus")));
-    assert_eq!(feature["geometry"]["coordinates"], json!([-4.3, 52.3]), "RFC 7946 lon, lat; rounded as its species are");
-    let skates: Value = app.client.get(format!("{}/api/export?format=geojson&state=any&taxon=Rajidae", app.base)).send().await.unwrap().json().await.unwrap();
+    assert_eq!(
+        (feature["properties"]["scientificName"].as_str(), feature["properties"]["taxonRank"].as_str()),
+        (Some("Dipturus"), Some("genus"))
+    );
+    assert_eq!(
+        feature["geometry"]["coordinates"],
+        json!([-4.3, 52.3]),
+        "RFC 7946 lon, lat; rounded as its species are"
+    );
+    let skates: Value = app
+        .client
+        .get(format!("{}/api/export?format=geojson&state=any&taxon=Rajidae", app.base))
+        .send()
+        .await
+        .unwrap()
+        .json()
+        .await
+        .unwrap();
     assert_eq!(skates["features"].as_array().unwrap().len(), 1, "a genus record is in its family");
-    let one_species: Value =
-        app.client.get(format!("{}/api/export?format=geojson&state=any&taxon=Dipturus%20batis", app.base)).send().await.unwrap().json().await.unwrap();
+    let one_species: Value = app
+        .client
+        .get(format!("{}/api/export?format=geojson&state=any&taxon=Dipturus%20batis", app.base))
+        .send()
+        .await
+        .unwrap()
+        .json()
+        .await
+        .unwrap();
     assert_eq!(one_species["features"].as_array().unwrap().len(), 0, "but not in one of its species");
 }

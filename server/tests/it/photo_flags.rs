@@ -27,7 +27,8 @@ async fn a_photo_three_days_older_than_the_record_is_flagged() {
 
 #[tokio::test]
 async fn a_photo_five_kilometres_away_is_flagged() {
-    let check = check_of(&["-GPSLatitude=52.46", "-GPSLatitudeRef=N", "-GPSLongitude=4.0829", "-GPSLongitudeRef=W"]).await;
+    let check =
+        check_of(&["-GPSLatitude=52.46", "-GPSLatitudeRef=N", "-GPSLongitude=4.0829", "-GPSLongitudeRef=W"]).await;
     // GeographicLib 2.0: 52.4153,-4.0829 → 52.46,-4.0829 is 4974.0217 m; exiftool's
     // rationals keep ~1e-6° (≈ 0.1 m).
     assert!(near(&check["metres_from_record"], 4974.0217, 0.5), "{check}");
@@ -82,7 +83,14 @@ async fn the_phones_reading_is_kept_apart_and_used_when_the_file_has_no_exif() {
 
 #[tokio::test]
 async fn the_files_own_reading_wins_and_says_so() {
-    let check = check_of(&["-DateTimeOriginal=2025:06:01 14:00:00", "-GPSLatitude=52.4153", "-GPSLatitudeRef=N", "-GPSLongitude=4.0829", "-GPSLongitudeRef=W"]).await;
+    let check = check_of(&[
+        "-DateTimeOriginal=2025:06:01 14:00:00",
+        "-GPSLatitude=52.4153",
+        "-GPSLatitudeRef=N",
+        "-GPSLongitude=4.0829",
+        "-GPSLongitudeRef=W",
+    ])
+    .await;
     assert_eq!((&check["time_reading"], &check["place_reading"]), (&"received_file".into(), &"received_file".into()));
 }
 
@@ -121,7 +129,11 @@ async fn a_file_with_gps_but_no_time_keeps_the_phones_time() {
         serde_json::json!({"taken_local": "2025:05:29 14:10:00", "offset": "+01:00"}),
     )
     .await;
-    assert_eq!((&check["time_reading"], &check["place_reading"]), (&"phone".into(), &"received_file".into()), "{check}");
+    assert_eq!(
+        (&check["time_reading"], &check["place_reading"]),
+        (&"phone".into(), &"received_file".into()),
+        "{check}"
+    );
     assert!(near(&check["seconds_before_record"], 3.0 * 86_400.0, 1e-9), "{check}");
     assert_eq!(check["flags"], serde_json::json!(["taken_long_before_record"]));
 }
@@ -137,12 +149,16 @@ async fn a_photo_taken_before_a_clock_change_keeps_the_phones_offset_at_that_tim
     record["observed_at"] = "2025-03-31T10:00:00+01:00".into();
     record["photo_exif"] = serde_json::json!([{"taken_local": "2025:03:29 14:00:00", "device_offset": "+00:00"}]);
     // The file itself (an original, as an older app sent) has the same time, no offset.
-    let jpeg = with_exiftool(&plain_jpeg(9), &["-DateTimeOriginal=2025:03:29 14:00:00"], app.data_dir.parent().unwrap());
+    let jpeg =
+        with_exiftool(&plain_jpeg(9), &["-DateTimeOriginal=2025:03:29 14:00:00"], app.data_dir.parent().unwrap());
     let answer = app.submit(&record, &[jpeg]).await;
     assert_eq!(answer.status, 200, "{}", answer.body);
     let photo = &app.records().await[0]["photos"][0];
     for reading in [&photo["phone_exif"], &photo["exif"]] {
-        assert_eq!(reading["taken_at"], "2025-03-29T14:00:00Z", "14:00 at +00:00, not 13:00Z as the record's +01:00 would make it: {photo}");
+        assert_eq!(
+            reading["taken_at"], "2025-03-29T14:00:00Z",
+            "14:00 at +00:00, not 13:00Z as the record's +01:00 would make it: {photo}"
+        );
         assert_eq!(reading["offset_source"], "device", "{photo}");
     }
     assert_eq!(photo["phone_exif"]["device_offset"], "+00:00");

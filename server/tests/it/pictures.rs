@@ -52,7 +52,11 @@ fn the_range_map_draws_every_record_every_occupied_cell_the_hull_and_the_coast()
     let figures = &report["taxa"][0]["periods"][0]["figures"];
     let counts = elements(&svg);
     assert_eq!(counts["circle"], 5, "one dot per record");
-    assert_eq!(counts["rect #e9a23b"], figures["aoo"]["occupied_cells"].as_u64().unwrap() as usize, "one square per occupied cell");
+    assert_eq!(
+        counts["rect #e9a23b"],
+        figures["aoo"]["occupied_cells"].as_u64().unwrap() as usize,
+        "one square per occupied cell"
+    );
     assert_eq!(counts["polygon"], 1, "the hull");
     assert_eq!(counts.get("path #dcd6c4"), Some(&1), "the bundled coastline");
     let text = std::fs::read_to_string(&svg).unwrap();
@@ -70,7 +74,16 @@ fn the_trend_chart_draws_a_point_per_year_the_fitted_line_and_its_band() {
     }
     std::fs::write(&csv, text).unwrap();
     let svg = dir.path().join("trend.svg");
-    run(&["trend", "--json", "--from", csv.to_str().unwrap(), "--generation-length", "6", "--svg", svg.to_str().unwrap()]);
+    run(&[
+        "trend",
+        "--json",
+        "--from",
+        csv.to_str().unwrap(),
+        "--generation-length",
+        "6",
+        "--svg",
+        svg.to_str().unwrap(),
+    ]);
     let counts_seen = elements(&svg);
     assert_eq!(counts_seen["circle"], counts.len());
     assert_eq!(counts_seen["polyline"], 1, "the fitted line");

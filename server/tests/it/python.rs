@@ -13,7 +13,9 @@ fn workspace() -> PathBuf {
 
 /// The Python that has the reference packages.
 pub fn python() -> PathBuf {
-    let python = std::env::var_os("WRACKLINE_PYTHON").map(PathBuf::from).unwrap_or_else(|| workspace().join("target/venv/bin/python"));
+    let python = std::env::var_os("WRACKLINE_PYTHON")
+        .map(PathBuf::from)
+        .unwrap_or_else(|| workspace().join("target/venv/bin/python"));
     assert!(
         python.exists(),
         "{} does not exist. These tests need python-dwca-reader and shapely from PyPI: run `cargo xtask test` \

@@ -15,7 +15,13 @@ fn record(id: &str, guess: &str, length_cm: f64, observed_at: &str) -> Value {
 }
 
 async fn act(app: &TestApp, id: &str, action: Value) -> (u16, Value) {
-    let response = app.reviewer.sign(app.client.post(format!("{}/api/review/records/{id}/actions", app.base))).json(&action).send().await.unwrap();
+    let response = app
+        .reviewer
+        .sign(app.client.post(format!("{}/api/review/records/{id}/actions", app.base)))
+        .json(&action)
+        .send()
+        .await
+        .unwrap();
     (response.status().as_u16(), response.json().await.unwrap_or(Value::Null))
 }
 
@@ -35,7 +41,8 @@ async fn the_queue_puts_sensitive_and_flagged_records_first_then_the_oldest() {
     // Angelshark: "tenthDegree" sensitivity in the demo checklist (illustrative, from memory).
     app.submit(&record(ANGELSHARK, "angelshark", 120.0, "2025-09-10T10:00:00Z"), &[]).await;
     let queue: Vec<Value> = app.get("/api/review/queue").await.json().await.unwrap();
-    let order: Vec<&str> = queue.iter().map(|item| item["record"]["submission"]["client_id"].as_str().unwrap()).collect();
+    let order: Vec<&str> =
+        queue.iter().map(|item| item["record"]["submission"]["client_id"].as_str().unwrap()).collect();
     assert_eq!(order, [ANGELSHARK, BIG_CATSHARK, OLD_CATSHARK]);
     let reasons = queue[0]["priority_reasons"].to_string();
     assert!(reasons.contains("protected") && reasons.contains("sensitive"), "{reasons}");
@@ -58,7 +65,9 @@ async fn the_queue_puts_sensitive_and_flagged_records_first_then_the_oldest() {
 async fn every_action_is_audited_and_identifications_are_superseded_not_deleted() {
     let app = spawn_app().await;
     app.submit(&record(OLD_CATSHARK, "small-spotted catshark", 50.0, "2025-01-10T10:00:00Z"), &[]).await;
-    let (status, body) = act(&app, OLD_CATSHARK, json!({"action": "request_details", "message": "Is there a photo of the underside?"})).await;
+    let (status, body) =
+        act(&app, OLD_CATSHARK, json!({"action": "request_details", "message": "Is there a photo of the underside?"}))
+            .await;
     assert_eq!((status, body["review_state"].as_str()), (200, Some("details_requested")));
     let (status, _) = act(&app, OLD_CATSHARK, json!({"action": "confirm", "scientific_name": "Scyliorhinus stellaris", "taxon_rank": "species", "remark": "large spots: nursehound"})).await;
     assert_eq!(status, 200);
@@ -66,16 +75,33 @@ async fn every_action_is_audited_and_identifications_are_superseded_not_deleted(
     assert_eq!(view["record"]["review_state"], "confirmed");
     let ids = view["identifications"].as_array().unwrap();
     assert_eq!(ids.len(), 2);
-    assert_eq!((ids[0]["taxon_name"].as_str(), ids[0]["current"].as_bool()), (Some("Scyliorhinus canicula"), Some(false)));
-    assert_eq!((ids[1]["taxon_name"].as_str(), ids[1]["current"].as_bool()), (Some("Scyliorhinus stellaris"), Some(true)));
+    assert_eq!(
+        (ids[0]["taxon_name"].as_str(), ids[0]["current"].as_bool()),
+        (Some("Scyliorhinus canicula"), Some(false))
+    );
+    assert_eq!(
+        (ids[1]["taxon_name"].as_str(), ids[1]["current"].as_bool()),
+        (Some("Scyliorhinus stellaris"), Some(true))
+    );
     assert_eq!(ids[1]["identified_by"], "Test reviewer");
     let events = view["events"].as_array().unwrap();
-    let steps: Vec<(&str, &str, &str)> = events.iter().map(|e| (e["action"].as_str().unwrap(), e["from_state"].as_str().unwrap(), e["to_state"].as_str().unwrap())).collect();
-    assert_eq!(steps, [("request_details", "awaiting_review", "details_requested"), ("confirm", "details_requested", "confirmed")]);
+    let steps: Vec<(&str, &str, &str)> = events
+        .iter()
+        .map(|e| (e["action"].as_str().unwrap(), e["from_state"].as_str().unwrap(), e["to_state"].as_str().unwrap()))
+        .collect();
+    assert_eq!(
+        steps,
+        [("request_details", "awaiting_review", "details_requested"), ("confirm", "details_requested", "confirmed")]
+    );
     assert!(events.iter().all(|e| e["by"] == "Test reviewer" && e["at"].is_string()));
     assert_eq!(view["messages"][0]["body"], "Is there a photo of the underside?");
 
-    let (status, body) = act(&app, OLD_CATSHARK, json!({"action": "confirm", "scientific_name": "Scyliorhinus", "taxon_rank": "kingdom"})).await;
+    let (status, body) = act(
+        &app,
+        OLD_CATSHARK,
+        json!({"action": "confirm", "scientific_name": "Scyliorhinus", "taxon_rank": "kingdom"}),
+    )
+    .await;
     assert_eq!(status, 409, "{body}");
     assert!(body["error"].as_str().unwrap().contains("taxon_rank"));
     let (status, _) = act(&app, OLD_CATSHARK, json!({"action": "approve"})).await;
@@ -88,7 +114,8 @@ async fn a_question_reaches_the_observer_and_their_answer_with_a_photo_reaches_t
     let app = spawn_app().await;
     let phone = app.new_device().await;
     assert_eq!(app.submit_as(&phone, &submission(OLD_CATSHARK), &[plain_jpeg(1)]).await.status, 200);
-    act(&app, OLD_CATSHARK, json!({"action": "request_details", "message": "Can you photograph the head from below?"})).await;
+    act(&app, OLD_CATSHARK, json!({"action": "request_details", "message": "Can you photograph the head from below?"}))
+        .await;
 
     let mine = || {
         let request = app.client.get(format!("{}/api/my/records", app.base)).bearer_auth(&phone);
@@ -101,9 +128,16 @@ async fn a_question_reaches_the_observer_and_their_answer_with_a_photo_reaches_t
 
     let reply = || {
         let form = reqwest::multipart::Form::new()
-            .text("reply", json!({"client_id": "9a8b7c6d-5e4f-4a3b-8c2d-1e0f9a8b7c6d", "message": "Here it is."}).to_string())
+            .text(
+                "reply",
+                json!({"client_id": "9a8b7c6d-5e4f-4a3b-8c2d-1e0f9a8b7c6d", "message": "Here it is."}).to_string(),
+            )
             .part("photo", reqwest::multipart::Part::bytes(plain_jpeg(2)).file_name("head.jpg"));
-        app.client.post(format!("{}/api/my/records/{OLD_CATSHARK}/replies", app.base)).bearer_auth(&phone).multipart(form).send()
+        app.client
+            .post(format!("{}/api/my/records/{OLD_CATSHARK}/replies", app.base))
+            .bearer_auth(&phone)
+            .multipart(form)
+            .send()
     };
     assert_eq!(reply().await.unwrap().status(), 200);
     assert_eq!(reply().await.unwrap().status(), 200, "a resend is not a second reply");
@@ -113,7 +147,12 @@ async fn a_question_reaches_the_observer_and_their_answer_with_a_photo_reaches_t
     assert_eq!(view["messages"].as_array().unwrap().len(), 2);
     assert_eq!(view["events"].as_array().unwrap().last().unwrap()["action"], "observer_reply");
 
-    act(&app, OLD_CATSHARK, json!({"action": "confirm", "scientific_name": "Scyliorhinus canicula", "taxon_rank": "species"})).await;
+    act(
+        &app,
+        OLD_CATSHARK,
+        json!({"action": "confirm", "scientific_name": "Scyliorhinus canicula", "taxon_rank": "species"}),
+    )
+    .await;
     let seen = mine().await;
     assert_eq!(seen[0]["record"]["review_state"], "confirmed");
     assert_eq!(seen[0]["current_taxon"], "Scyliorhinus canicula");
@@ -124,14 +163,23 @@ async fn the_record_map_shows_the_phone_the_photo_and_a_possible_duplicate() {
     let app = spawn_app().await;
     let dir = tempfile::tempdir().unwrap();
     // A photo whose own GPS (written by exiftool) is 300 m from the phone's position.
-    let photo = crate::helpers::with_exiftool(&plain_jpeg(8), &["-GPSLatitude=52.4180", "-GPSLatitudeRef=N", "-GPSLongitude=4.0829", "-GPSLongitudeRef=W"], dir.path());
+    let photo = crate::helpers::with_exiftool(
+        &plain_jpeg(8),
+        &["-GPSLatitude=52.4180", "-GPSLatitudeRef=N", "-GPSLongitude=4.0829", "-GPSLongitudeRef=W"],
+        dir.path(),
+    );
     app.submit(&record(OLD_CATSHARK, "small-spotted catshark", 50.0, "2025-01-10T10:00:00Z"), &[photo]).await;
     app.submit(&record(BIG_CATSHARK, "small-spotted catshark", 52.0, "2025-01-10T12:00:00Z"), &[]).await;
     let response = app.get(&format!("/api/review/records/{OLD_CATSHARK}/map.svg")).await;
     assert_eq!(response.status(), 200);
     assert_eq!(response.headers()["content-type"], "image/svg+xml");
     let svg = response.text().await.unwrap();
-    assert!(svg.contains("this record (phone)") && svg.contains("photo 1 (its own GPS)") && svg.contains("possibly the same animal"), "{svg}");
+    assert!(
+        svg.contains("this record (phone)")
+            && svg.contains("photo 1 (its own GPS)")
+            && svg.contains("possibly the same animal"),
+        "{svg}"
+    );
     assert!(svg.contains("<path d=\"M"), "the coastline is drawn");
 }
 
@@ -194,13 +242,23 @@ async fn the_taxon_filter_takes_in_records_identified_at_any_rank_below() {
     assert_eq!(status, 200);
     let found = |query: &'static str| {
         let app = &app;
-        async move { ids(&queue(app, &format!("state=any&{query}")).await).into_iter().map(str::to_owned).collect::<Vec<_>>() }
+        async move {
+            ids(&queue(app, &format!("state=any&{query}")).await).into_iter().map(str::to_owned).collect::<Vec<_>>()
+        }
     };
     // Placement as in demo-records/checklist.json.
-    assert_eq!(found("taxon=Scyliorhinidae").await, [OLD_CATSHARK, BIG_CATSHARK], "the genus record is found by its family");
+    assert_eq!(
+        found("taxon=Scyliorhinidae").await,
+        [OLD_CATSHARK, BIG_CATSHARK],
+        "the genus record is found by its family"
+    );
     assert_eq!(found("taxon=Carcharhiniformes").await, [OLD_CATSHARK, BIG_CATSHARK], "both by their order");
     assert_eq!(found("taxon=Scyliorhinus").await, [OLD_CATSHARK, BIG_CATSHARK]);
-    assert_eq!(found("taxon=Scyliorhinus%20canicula").await, [OLD_CATSHARK], "a genus record is not one of its species");
+    assert_eq!(
+        found("taxon=Scyliorhinus%20canicula").await,
+        [OLD_CATSHARK],
+        "a genus record is not one of its species"
+    );
     assert_eq!(found("taxon=nursehound").await, Vec::<String>::new());
     assert_eq!(found("taxon=Rajidae").await, Vec::<String>::new());
 }
@@ -233,14 +291,23 @@ async fn the_record_view_replays_the_guided_key_with_reasons() {
     let key = &view["key"];
     let answers = key["answers"].to_string();
     // Questions and state names as demo-records/checklist.json words them.
-    assert!(answers.contains("How many gill openings are there on each side?") && answers.contains("not sure"), "{answers}");
+    assert!(
+        answers.contains("How many gill openings are there on each side?") && answers.contains("not sure"),
+        "{answers}"
+    );
     let suggestions = key["suggestions"].as_array().unwrap();
     assert!(!suggestions.is_empty() && suggestions.len() <= 5, "{key}");
     let total: f64 = suggestions.iter().map(|s| s["probability"].as_f64().unwrap()).sum();
     assert!(total > 0.0 && total <= 1.0 + 1e-9, "{total}");
-    assert!(suggestions.iter().all(|s| s["probability"].as_f64() <= suggestions[0]["probability"].as_f64()), "most probable first");
+    assert!(
+        suggestions.iter().all(|s| s["probability"].as_f64() <= suggestions[0]["probability"].as_f64()),
+        "most probable first"
+    );
     assert!(suggestions[0]["reasons"].as_array().is_some_and(|r| !r.is_empty()), "{}", suggestions[0]);
-    assert!(suggestions.iter().all(|s| !s["scientific_name"].as_str().unwrap().starts_with("Raja")), "rays are ruled out by a shark's body");
+    assert!(
+        suggestions.iter().all(|s| !s["scientific_name"].as_str().unwrap().starts_with("Raja")),
+        "rays are ruled out by a shark's body"
+    );
 
     app.submit(&record(BIG_CATSHARK, "small-spotted catshark", 50.0, "2025-01-10T10:00:00Z"), &[]).await;
     assert_eq!(detail(&app, BIG_CATSHARK).await["key"], Value::Null, "no key used, nothing replayed");
@@ -255,21 +322,51 @@ fn recent(at: &Value) -> bool {
 async fn every_review_action_writes_who_when_what_changed_and_why() {
     let app = spawn_app().await;
     let phone = app.new_device().await;
-    assert_eq!(app.submit_as(&phone, &record(OLD_CATSHARK, "small-spotted catshark", 50.0, "2025-01-10T10:00:00Z"), &[]).await.status, 200);
+    assert_eq!(
+        app.submit_as(&phone, &record(OLD_CATSHARK, "small-spotted catshark", 50.0, "2025-01-10T10:00:00Z"), &[])
+            .await
+            .status,
+        200
+    );
     act(&app, OLD_CATSHARK, json!({"action": "request_details", "message": "Is the underside pale?"})).await;
-    let form = reqwest::multipart::Form::new().text("reply", json!({"client_id": "9a8b7c6d-5e4f-4a3b-8c2d-1e0f9a8b7c6e", "message": "Yes, pale."}).to_string());
-    assert_eq!(app.client.post(format!("{}/api/my/records/{OLD_CATSHARK}/replies", app.base)).bearer_auth(&phone).multipart(form).send().await.unwrap().status(), 200);
+    let form = reqwest::multipart::Form::new().text(
+        "reply",
+        json!({"client_id": "9a8b7c6d-5e4f-4a3b-8c2d-1e0f9a8b7c6e", "message": "Yes, pale."}).to_string(),
+    );
+    assert_eq!(
+        app.client
+            .post(format!("{}/api/my/records/{OLD_CATSHARK}/replies", app.base))
+            .bearer_auth(&phone)
+            .multipart(form)
+            .send()
+            .await
+            .unwrap()
+            .status(),
+        200
+    );
     act(&app, OLD_CATSHARK, json!({"action": "not_confirmable", "reason": "photo too dark to see the spots"})).await;
     act(&app, OLD_CATSHARK, json!({"action": "confirm", "scientific_name": "Scyliorhinus stellaris", "taxon_rank": "species", "remark": "large spots after all"})).await;
     // The same animal reported again; merged, then the merge undone.
     app.submit(&record(BIG_CATSHARK, "small-spotted catshark", 50.0, "2025-01-10T12:00:00Z"), &[]).await;
     let pair = format!("{}/api/review/records/{OLD_CATSHARK}/duplicates/{BIG_CATSHARK}", app.base);
-    let merged: Value = app.reviewer.sign(app.client.post(&pair)).json(&json!({"same_animal": true})).send().await.unwrap().json().await.unwrap();
+    let merged: Value = app
+        .reviewer
+        .sign(app.client.post(&pair))
+        .json(&json!({"same_animal": true}))
+        .send()
+        .await
+        .unwrap()
+        .json()
+        .await
+        .unwrap();
     let undo = format!("{}/api/review/merges/{}/undo", app.base, merged["merge_id"]);
     assert_eq!(app.reviewer.sign(app.client.post(undo)).send().await.unwrap().status(), 200);
 
     let events = detail(&app, OLD_CATSHARK).await["events"].as_array().unwrap().clone();
-    let rows: Vec<(&str, &str, &str)> = events.iter().map(|e| (e["action"].as_str().unwrap(), e["from_state"].as_str().unwrap(), e["to_state"].as_str().unwrap())).collect();
+    let rows: Vec<(&str, &str, &str)> = events
+        .iter()
+        .map(|e| (e["action"].as_str().unwrap(), e["from_state"].as_str().unwrap(), e["to_state"].as_str().unwrap()))
+        .collect();
     assert_eq!(
         rows,
         [
@@ -281,17 +378,31 @@ async fn every_review_action_writes_who_when_what_changed_and_why() {
             ("undo_merge", "confirmed", "confirmed"),
         ]
     );
-    assert!(events.iter().all(|e| recent(&e["at"]) && e["detail"].as_str().is_some_and(|d| !d.is_empty())), "when and what, every row: {events:?}");
+    assert!(
+        events.iter().all(|e| recent(&e["at"]) && e["detail"].as_str().is_some_and(|d| !d.is_empty())),
+        "when and what, every row: {events:?}"
+    );
     let by: Vec<&str> = events.iter().map(|e| e["by"].as_str().unwrap_or_default()).collect();
     assert_eq!(by, ["Test reviewer", "Test Phone", "Test reviewer", "Test reviewer", "Test reviewer", "Test reviewer"]);
     let why: Vec<Option<&str>> = events.iter().map(|e| e["reason"].as_str()).collect();
-    assert_eq!(why[..4], [Some("Is the underside pale?"), Some("Yes, pale."), Some("photo too dark to see the spots"), Some("large spots after all")]);
+    assert_eq!(
+        why[..4],
+        [
+            Some("Is the underside pale?"),
+            Some("Yes, pale."),
+            Some("photo too dark to see the spots"),
+            Some("large spots after all")
+        ]
+    );
     assert_eq!(events[2]["detail"], "marked not confirmable");
     assert_eq!(events[3]["detail"], "identified as Scyliorhinus stellaris (species); was Scyliorhinus canicula");
     let other = detail(&app, BIG_CATSHARK).await["events"].as_array().unwrap().clone();
     let steps: Vec<&str> = other.iter().map(|e| e["action"].as_str().unwrap()).collect();
     assert_eq!(steps, ["merge", "undo_merge"]);
-    assert_eq!((other[0]["to_state"].as_str(), other[1]["to_state"].as_str()), (Some("merged"), Some("awaiting_review")));
+    assert_eq!(
+        (other[0]["to_state"].as_str(), other[1]["to_state"].as_str()),
+        (Some("merged"), Some("awaiting_review"))
+    );
 }
 
 #[tokio::test]
@@ -302,21 +413,40 @@ async fn reply_photos_get_the_records_offset_and_the_photo_checks() {
     assert_eq!(app.submit_as(&phone, &submission(OLD_CATSHARK), &[]).await.status, 200);
     let dir = tempfile::tempdir().unwrap();
     // exiftool writes a DateTimeOriginal with no offset: the record's offset applies.
-    let own_time = crate::helpers::with_exiftool(&plain_jpeg(5), &["-DateTimeOriginal=2025:06:01 13:00:00"], dir.path());
-    let phone_read = json!({"taken_local": "2025:05:20 09:00:00", "offset": "+01:00", "latitude": 52.4153, "longitude": -4.0829});
+    let own_time =
+        crate::helpers::with_exiftool(&plain_jpeg(5), &["-DateTimeOriginal=2025:06:01 13:00:00"], dir.path());
+    let phone_read =
+        json!({"taken_local": "2025:05:20 09:00:00", "offset": "+01:00", "latitude": 52.4153, "longitude": -4.0829});
     let form = reqwest::multipart::Form::new()
         .text("reply", json!({"client_id": "9a8b7c6d-5e4f-4a3b-8c2d-1e0f9a8b7c6f", "message": "two more", "photo_exif": [json!({}), phone_read]}).to_string())
         .part("photo", reqwest::multipart::Part::bytes(own_time).file_name("a.jpg"))
         .part("photo", reqwest::multipart::Part::bytes(plain_jpeg(6)).file_name("b.jpg"));
-    let answer = app.client.post(format!("{}/api/my/records/{OLD_CATSHARK}/replies", app.base)).bearer_auth(&phone).multipart(form).send().await.unwrap();
+    let answer = app
+        .client
+        .post(format!("{}/api/my/records/{OLD_CATSHARK}/replies", app.base))
+        .bearer_auth(&phone)
+        .multipart(form)
+        .send()
+        .await
+        .unwrap();
     assert_eq!(answer.status(), 200, "{}", answer.text().await.unwrap());
     let view = detail(&app, OLD_CATSHARK).await;
     let photos = view["record"]["photos"].as_array().unwrap();
     assert_eq!(photos[0]["exif"]["taken_at"], "2025-06-01T13:00:00+01:00", "read with the record's offset, not as UTC");
     assert_eq!(photos[0]["exif"]["offset_source"], "record");
-    assert_eq!((photos[0]["check"]["time_reading"].as_str(), photos[0]["check"]["seconds_before_record"].as_f64()), (Some("received_file"), Some(4200.0)));
+    assert_eq!(
+        (photos[0]["check"]["time_reading"].as_str(), photos[0]["check"]["seconds_before_record"].as_f64()),
+        (Some("received_file"), Some(4200.0))
+    );
     assert_eq!(photos[1]["phone_exif"]["taken_at"], "2025-05-20T09:00:00+01:00");
-    assert_eq!((&photos[1]["check"]["time_reading"], &photos[1]["check"]["place_reading"]), (&json!("phone"), &json!("phone")));
+    assert_eq!(
+        (&photos[1]["check"]["time_reading"], &photos[1]["check"]["place_reading"]),
+        (&json!("phone"), &json!("phone"))
+    );
     assert_eq!(photos[1]["check"]["flags"], json!(["taken_long_before_record"]));
-    assert!(view["priority_reasons"].to_string().contains("photo older than the record: photo 2"), "{}", view["priority_reasons"]);
+    assert!(
+        view["priority_reasons"].to_string().contains("photo older than the record: photo 2"),
+        "{}",
+        view["priority_reasons"]
+    );
 }

@@ -50,7 +50,9 @@ async fn the_csv_export_uses_darwin_core_terms_and_links_photos() {
     let header = reader.headers().unwrap().clone();
     let rows: Vec<csv::StringRecord> = reader.records().map(Result::unwrap).collect();
     assert_eq!(rows.len(), 1);
-    let cell = |name: &str| rows[0][header.iter().position(|h| h == name).unwrap_or_else(|| panic!("column {name}"))].to_owned();
+    let cell = |name: &str| {
+        rows[0][header.iter().position(|h| h == name).unwrap_or_else(|| panic!("column {name}"))].to_owned()
+    };
     // Term names and vocabularies from the TDWG Darwin Core term list.
     assert_eq!(cell("occurrenceID"), format!("urn:uuid:{id}"));
     assert_eq!(cell("basisOfRecord"), "HumanObservation");

@@ -52,7 +52,9 @@ async fn concurrent_resends_of_one_record_store_it_once() {
     assert_eq!(app.records().await.len(), 1);
 }
 
-async fn futures_join(handles: impl Iterator<Item = tokio::task::JoinHandle<crate::helpers::Answer>>) -> Vec<crate::helpers::Answer> {
+async fn futures_join(
+    handles: impl Iterator<Item = tokio::task::JoinHandle<crate::helpers::Answer>>,
+) -> Vec<crate::helpers::Answer> {
     let mut out = Vec::new();
     for handle in handles {
         out.push(handle.await.unwrap());
@@ -108,12 +110,14 @@ async fn bad_submissions_are_refused_with_the_field_named() {
     check_refused("{not json".into(), 400, None, "not valid JSON").await;
     check_refused(without("observed_at"), 422, Some("observed_at"), "missing field").await;
     check_refused(without("condition"), 422, Some("condition"), "missing field").await;
-    check_refused(with(&["position", "latitude"], json!(95.0)), 422, Some("position.latitude"), "between -90 and 90").await;
+    check_refused(with(&["position", "latitude"], json!(95.0)), 422, Some("position.latitude"), "between -90 and 90")
+        .await;
     check_refused(with(&["count"], json!(0)), 422, Some("count"), "count must be between 1").await;
     check_refused(with(&["length", "kind"], json!("wingspan")), 422, Some("length.kind"), "unknown variant").await;
     check_refused(with(&["length", "value"], json!(-3)), 422, Some("length"), "positive").await;
     check_refused(with(&["client_id"], json!("not-a-uuid")), 422, Some("client_id"), "UUID").await;
-    check_refused(with(&["observed_at"], json!("2999-01-01T00:00:00Z")), 422, Some("observed_at"), "in the future").await;
+    check_refused(with(&["observed_at"], json!("2999-01-01T00:00:00Z")), 422, Some("observed_at"), "in the future")
+        .await;
     check_refused(with(&["colour"], json!("grey")), 422, Some("colour"), "unknown field `colour`").await;
 }
 
@@ -149,7 +153,10 @@ async fn one_photo_in_two_records_is_stored_once() {
     app.submit(&submission("0b7e6d5c-4b3a-4291-8f7e-6d5c4b3a2910"), &[plain_jpeg(3)]).await;
     let records = app.records().await;
     assert_eq!(records[0]["photos"][0]["sha256"], records[1]["photos"][0]["sha256"]);
-    let files = walk(&app.data_dir.join("photos")).into_iter().filter(|p| !p.starts_with(app.data_dir.join("photos/tmp"))).count();
+    let files = walk(&app.data_dir.join("photos"))
+        .into_iter()
+        .filter(|p| !p.starts_with(app.data_dir.join("photos/tmp")))
+        .count();
     assert_eq!(files, 3, "one original, one display copy, one thumbnail");
 }
 

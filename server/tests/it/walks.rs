@@ -148,7 +148,11 @@ async fn records_join_their_walk_when_made_on_it_or_after_the_fact() {
     assert_eq!(app.post_walk_as(&phone, &walk(track_json(&beach_track(), 20))).await.status, 200);
 
     let link = |token: &str, id: &str, walk: &str| {
-        let request = app.client.put(format!("{}/api/observations/{id}/walk", app.base)).bearer_auth(token).json(&json!({"walk_client_id": walk}));
+        let request = app
+            .client
+            .put(format!("{}/api/observations/{id}/walk", app.base))
+            .bearer_auth(token)
+            .json(&json!({"walk_client_id": walk}));
         async move { request.send().await.unwrap().status().as_u16() }
     };
     assert_eq!(link(&phone, later, WALK).await, 200);
@@ -172,7 +176,8 @@ async fn nobody_else_can_put_records_on_a_walk() {
     assert_eq!(app.submit_as(&phone, &submission(mine), &[]).await.status, 200);
     assert_eq!(app.submit_as(&stranger, &submission(theirs), &[]).await.status, 200);
     let link = |token: Option<&str>, id: &str| {
-        let mut request = app.client.put(format!("{}/api/observations/{id}/walk", app.base)).json(&json!({"walk_client_id": WALK}));
+        let mut request =
+            app.client.put(format!("{}/api/observations/{id}/walk", app.base)).json(&json!({"walk_client_id": WALK}));
         if let Some(token) = token {
             request = request.bearer_auth(token);
         }
@@ -189,7 +194,13 @@ async fn nobody_else_can_put_records_on_a_walk() {
     assert_eq!(walks[0]["record_client_ids"], json!([]), "nothing joined the walk");
 
     // A reviewer may link any record (a correction the observer asked for).
-    let by_reviewer = app.reviewer.sign(app.client.put(format!("{}/api/observations/{mine}/walk", app.base))).json(&json!({"walk_client_id": WALK})).send().await.unwrap();
+    let by_reviewer = app
+        .reviewer
+        .sign(app.client.put(format!("{}/api/observations/{mine}/walk", app.base)))
+        .json(&json!({"walk_client_id": WALK}))
+        .send()
+        .await
+        .unwrap();
     assert_eq!(by_reviewer.status(), 200);
     let walks: Vec<Value> = app.get("/api/walks").await.json().await.unwrap();
     assert_eq!(walks[0]["record_client_ids"], json!([mine]));
@@ -259,8 +270,12 @@ async fn trends_on_stored_records_are_encounter_rates_per_kilometre_of_all_finds
     assert!(report["notes"].to_string().contains("encounter rates per kilometre"), "{}", report["notes"]);
     // Beside the rates, the animals recorded each year whatever the effort: 2025 has one
     // on a walk and one outside, 2026 three on a walk where not every find was reported.
-    let counts: Vec<(i64, u64)> =
-        report["yearly_counts"].as_array().unwrap().iter().map(|y| (y["year"].as_i64().unwrap(), y["count"].as_u64().unwrap())).collect();
+    let counts: Vec<(i64, u64)> = report["yearly_counts"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .map(|y| (y["year"].as_i64().unwrap(), y["count"].as_u64().unwrap()))
+        .collect();
     assert_eq!(counts, [(2024, 2), (2025, 2), (2026, 3)], "{report}");
     let hours: Value = app.get("/api/trend?state=any&generation_length=8&effort=hours").await.json().await.unwrap();
     assert_eq!(hours["years"][0]["effort"], 2.0, "two hours walked in 2024");

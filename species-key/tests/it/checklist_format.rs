@@ -9,37 +9,19 @@ use crate::support::{demo_checklist, tiny_checklist_value};
 #[test]
 fn demo_checklist_has_at_least_thirty_species_and_says_it_is_illustrative() {
     let checklist = demo_checklist();
-    assert!(
-        checklist.taxa().len() >= 30,
-        "only {} taxa",
-        checklist.taxa().len()
-    );
+    assert!(checklist.taxa().len() >= 30, "only {} taxa", checklist.taxa().len());
     let notice = checklist.metadata().notice.to_lowercase();
-    assert!(
-        notice.contains("invented") && notice.contains("illustrative"),
-        "{notice}"
-    );
+    assert!(notice.contains("invented") && notice.contains("illustrative"), "{notice}");
 }
 
 #[test]
 fn demo_checklist_covers_sharks_rays_skates_and_chimaeras() {
     let checklist = demo_checklist();
     // Superorders as commonly used for elasmobranchs and chimaeras (common practice).
-    for superorder in [
-        "Galeomorphii",
-        "Squalomorphii",
-        "Batoidea",
-        "Holocephalimorpha",
-    ] {
-        assert!(
-            checklist.taxa().iter().any(|t| t.superorder == superorder),
-            "no taxon in {superorder}"
-        );
+    for superorder in ["Galeomorphii", "Squalomorphii", "Batoidea", "Holocephalimorpha"] {
+        assert!(checklist.taxa().iter().any(|t| t.superorder == superorder), "no taxon in {superorder}");
     }
-    assert!(
-        checklist.taxa().iter().any(|t| t.family == "Rajidae"),
-        "no skates"
-    );
+    assert!(checklist.taxa().iter().any(|t| t.family == "Rajidae"), "no skates");
 }
 
 #[test]
@@ -55,11 +37,7 @@ fn rays_measured_across_the_disc_say_so() {
 #[test]
 fn every_demo_species_names_a_source_for_its_characters() {
     for taxon in demo_checklist().taxa() {
-        assert!(
-            !taxon.character_source.trim().is_empty(),
-            "{}",
-            taxon.scientific_name
-        );
+        assert!(!taxon.character_source.trim().is_empty(), "{}", taxon.scientific_name);
         assert_eq!(taxon.taxon_rank, TaxonRank::Species);
     }
 }
@@ -85,9 +63,7 @@ fn the_tiny_checklist_is_valid_before_it_is_broken() {
 fn check_taxon_error(edit: impl FnOnce(&mut Value), expected: &[&str]) {
     let mut value = tiny_checklist_value();
     edit(&mut value["taxa"][1]);
-    let message = Checklist::from_json(&value.to_string())
-        .expect_err("broken checklist must be refused")
-        .to_string();
+    let message = Checklist::from_json(&value.to_string()).expect_err("broken checklist must be refused").to_string();
     for fragment in expected {
         assert!(message.contains(fragment), "{message:?} lacks {fragment:?}");
     }
@@ -121,18 +97,12 @@ fn a_state_outside_the_character_names_species_character_and_state() {
 
 #[test]
 fn an_empty_state_list_is_refused() {
-    check_taxon_error(
-        |taxon| taxon["characters"]["gillSlits"] = serde_json::json!([]),
-        &["Sixus beta", "gillSlits"],
-    );
+    check_taxon_error(|taxon| taxon["characters"]["gillSlits"] = serde_json::json!([]), &["Sixus beta", "gillSlits"]);
 }
 
 #[test]
 fn a_zero_max_length_is_refused() {
-    check_taxon_error(
-        |taxon| taxon["maxLength"]["cm"] = serde_json::json!(0.0),
-        &["Sixus beta", "maxLength.cm"],
-    );
+    check_taxon_error(|taxon| taxon["maxLength"]["cm"] = serde_json::json!(0.0), &["Sixus beta", "maxLength.cm"]);
 }
 
 #[test]
@@ -153,26 +123,17 @@ fn a_blank_character_source_asks_for_a_source() {
 
 #[test]
 fn an_unknown_area_code_is_refused() {
-    check_taxon_error(
-        |taxon| taxon["presence"] = serde_json::json!(["z"]),
-        &["Sixus beta", "presence", "z"],
-    );
+    check_taxon_error(|taxon| taxon["presence"] = serde_json::json!(["z"]), &["Sixus beta", "presence", "z"]);
 }
 
 #[test]
 fn a_misspelt_field_is_refused_with_the_species_named() {
-    check_taxon_error(
-        |taxon| taxon["protectd"] = serde_json::json!(true),
-        &["Sixus beta", "protectd"],
-    );
+    check_taxon_error(|taxon| taxon["protectd"] = serde_json::json!(true), &["Sixus beta", "protectd"]);
 }
 
 #[test]
 fn an_unknown_sensitivity_category_is_refused() {
-    check_taxon_error(
-        |taxon| taxon["sensitivity"] = serde_json::json!("secret"),
-        &["Sixus beta", "secret"],
-    );
+    check_taxon_error(|taxon| taxon["sensitivity"] = serde_json::json!("secret"), &["Sixus beta", "secret"]);
 }
 
 #[test]
@@ -198,18 +159,10 @@ fn a_species_listed_twice_is_refused() {
 #[test]
 fn a_character_with_one_state_is_refused() {
     let mut value = tiny_checklist_value();
-    value["characters"][0]["states"]
-        .as_array_mut()
-        .unwrap()
-        .pop();
+    value["characters"][0]["states"].as_array_mut().unwrap().pop();
     value["taxa"][1]["characters"]["gillSlits"] = serde_json::json!(["five"]);
-    let message = Checklist::from_json(&value.to_string())
-        .unwrap_err()
-        .to_string();
-    assert!(
-        message.contains("gillSlits") && message.contains("two states"),
-        "{message}"
-    );
+    let message = Checklist::from_json(&value.to_string()).unwrap_err().to_string();
+    assert!(message.contains("gillSlits") && message.contains("two states"), "{message}");
 }
 
 #[test]

@@ -8,9 +8,7 @@ use crate::support::{demo_checklist, demo_key};
 fn best(answers: &Answers, min_probability: f64) -> (String, TaxonRank) {
     let key = demo_key();
     let ranked = key.rank(answers, &Context::default()).unwrap();
-    let best = key
-        .best_supported_taxon(&ranked, min_probability)
-        .expect("some rank is supported");
+    let best = key.best_supported_taxon(&ranked, min_probability).expect("some rank is supported");
     (best.scientific_name, best.taxon_rank)
 }
 
@@ -21,10 +19,7 @@ fn a_clear_species_is_offered_as_the_species() {
         .with("dorsalFins", "one")
         .with("headShape", "pointed")
         .with("snout", "medium");
-    assert_eq!(
-        best(&answers, 0.9),
-        ("Heptranchias perlo".into(), TaxonRank::Species)
-    );
+    assert_eq!(best(&answers, 0.9), ("Heptranchias perlo".into(), TaxonRank::Species));
 }
 
 #[test]
@@ -47,10 +42,7 @@ fn unseparable_sharks_of_two_families_stop_at_the_order() {
         .with("colour", "blackish")
         .with("bodyForm", "sharkLike")
         .with("snout", "short");
-    assert_eq!(
-        best(&answers, 0.9),
-        ("Squaliformes".into(), TaxonRank::Order)
-    );
+    assert_eq!(best(&answers, 0.9), ("Squaliformes".into(), TaxonRank::Order));
 }
 
 #[test]
@@ -64,26 +56,15 @@ fn no_answers_support_no_taxon_strongly() {
 fn support_at_a_rank_sums_the_species_probabilities() {
     let key = demo_key();
     let checklist = demo_checklist();
-    let ranked = key
-        .rank(
-            &Answers::new().with("bodyForm", "rayLike"),
-            &Context::default(),
-        )
-        .unwrap();
+    let ranked = key.rank(&Answers::new().with("bodyForm", "rayLike"), &Context::default()).unwrap();
     let families = key.support_at(TaxonRank::Family, &ranked);
     for family in &families {
         let sum: f64 = ranked
             .iter()
-            .filter(|c| {
-                checklist.taxon(&c.scientific_name).unwrap().family == family.scientific_name
-            })
+            .filter(|c| checklist.taxon(&c.scientific_name).unwrap().family == family.scientific_name)
             .map(|c| c.probability)
             .sum();
-        assert!(
-            (family.probability - sum).abs() < 1e-12,
-            "{}",
-            family.scientific_name
-        );
+        assert!((family.probability - sum).abs() < 1e-12, "{}", family.scientific_name);
         assert_eq!(family.taxon_rank, TaxonRank::Family);
     }
     assert_eq!(families[0].scientific_name, "Rajidae");

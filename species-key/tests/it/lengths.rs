@@ -10,20 +10,11 @@ use species_key::{LengthConversion, LengthKind, Measurement};
 use crate::support::demo_checklist;
 
 fn conversion(species: &str, measure: LengthKind) -> LengthConversion {
-    demo_checklist()
-        .taxon(species)
-        .unwrap()
-        .conversion_for(measure)
-        .unwrap()
-        .clone()
+    demo_checklist().taxon(species).unwrap().conversion_for(measure).unwrap().clone()
 }
 
 fn taped(kind: LengthKind, cm: f64) -> Measurement {
-    Measurement {
-        kind,
-        cm,
-        estimated: false,
-    }
+    Measurement { kind, cm, estimated: false }
 }
 
 #[test]
@@ -34,10 +25,7 @@ fn shortfin_mako_fork_length_converts_by_kohler_casey_and_turner() {
     assert_eq!((mako.slope, mako.intercept_cm), (0.9286, -1.7101));
     for total in [100.0, 250.0, 400.0] {
         let fork = 0.9286 * total - 1.7101;
-        assert!(
-            (total_length_by_equation(fork, &mako) - total).abs() < 1e-9,
-            "TL {total}"
-        );
+        assert!((total_length_by_equation(fork, &mako) - total).abs() < 1e-9, "TL {total}");
     }
     assert_eq!(equation_text(&mako), "FL = 0.9286 × TL − 1.7101");
     assert!(mako.source.contains("Kohler, Casey & Turner 1995"));
@@ -61,10 +49,7 @@ fn a_thresher_fork_length_uses_its_own_equation_not_the_generic_ratio() {
     let thresher = checklist.taxon("Alopias vulpinus").unwrap();
     let length = comparable_length(&taped(LengthKind::ForkLength, 250.0), thresher).unwrap();
     assert!((length.cm - (250.0 - 7.0262) / 0.5474).abs() < 1e-9);
-    assert!(matches!(
-        length.method,
-        ConversionMethod::SpeciesEquation { .. }
-    ));
+    assert!(matches!(length.method, ConversionMethod::SpeciesEquation { .. }));
 }
 
 #[test]
@@ -76,12 +61,7 @@ fn without_a_species_equation_the_generic_ratio_is_used_and_named() {
     let spurdog = checklist.taxon("Squalus acanthias").unwrap();
     let length = comparable_length(&taped(LengthKind::ForkLength, 90.0), spurdog).unwrap();
     assert!((length.cm - 100.0).abs() < 1e-9);
-    assert_eq!(
-        length.method,
-        ConversionMethod::CommonPractice {
-            equation: "FL ≈ 0.90 × TL".into()
-        }
-    );
+    assert_eq!(length.method, ConversionMethod::CommonPractice { equation: "FL ≈ 0.90 × TL".into() });
     let precaudal = comparable_length(&taped(LengthKind::PrecaudalLength, 80.0), spurdog).unwrap();
     assert!((precaudal.cm - 100.0).abs() < 1e-9);
 }
@@ -91,10 +71,7 @@ fn a_length_of_the_same_kind_as_the_maximum_is_taken_as_measured() {
     let checklist = demo_checklist();
     let stingray = checklist.taxon("Dasyatis pastinaca").unwrap();
     let length = comparable_length(&taped(LengthKind::DiscWidth, 45.0), stingray).unwrap();
-    assert_eq!(
-        (length.cm, length.method),
-        (45.0, ConversionMethod::AsMeasured)
-    );
+    assert_eq!((length.cm, length.method), (45.0, ConversionMethod::AsMeasured));
 }
 
 #[test]
@@ -102,15 +79,9 @@ fn lengths_that_cannot_be_compared_are_not() {
     let checklist = demo_checklist();
     // A total length against a maximum disc width, and a disc length against a total length.
     let stingray = checklist.taxon("Dasyatis pastinaca").unwrap();
-    assert_eq!(
-        comparable_length(&taped(LengthKind::TotalLength, 100.0), stingray),
-        None
-    );
+    assert_eq!(comparable_length(&taped(LengthKind::TotalLength, 100.0), stingray), None);
     let catshark = checklist.taxon("Scyliorhinus canicula").unwrap();
-    assert_eq!(
-        comparable_length(&taped(LengthKind::DiscLength, 30.0), catshark),
-        None
-    );
+    assert_eq!(comparable_length(&taped(LengthKind::DiscLength, 30.0), catshark), None);
 }
 
 #[test]

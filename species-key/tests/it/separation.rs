@@ -21,16 +21,8 @@ const EXPECTED_UNSEPARABLE: [(&str, &str); 3] = [
 ];
 
 /// States a taxon allows for a character; a missing character allows all.
-fn allowed<'a>(
-    checklist: &'a Checklist,
-    species: &'a str,
-    character: &'a str,
-) -> BTreeSet<&'a str> {
-    let definition = checklist
-        .characters()
-        .iter()
-        .find(|c| c.name == character)
-        .unwrap();
+fn allowed<'a>(checklist: &'a Checklist, species: &'a str, character: &'a str) -> BTreeSet<&'a str> {
+    let definition = checklist.characters().iter().find(|c| c.name == character).unwrap();
     match checklist.taxon(species).unwrap().characters.get(character) {
         Some(states) => states.iter().map(String::as_str).collect(),
         None => definition.states.iter().map(|s| s.name.as_str()).collect(),
@@ -38,36 +30,28 @@ fn allowed<'a>(
 }
 
 fn share_a_state_everywhere(checklist: &Checklist, first: &str, second: &str) -> bool {
-    checklist.characters().iter().all(|c| {
-        !allowed(checklist, first, &c.name).is_disjoint(&allowed(checklist, second, &c.name))
-    })
+    checklist
+        .characters()
+        .iter()
+        .all(|c| !allowed(checklist, first, &c.name).is_disjoint(&allowed(checklist, second, &c.name)))
 }
 
 fn key_pairs(key: &Key) -> BTreeSet<(String, String)> {
-    key.unseparable_pairs()
-        .iter()
-        .map(|p| (p.first.clone(), p.second.clone()))
-        .collect()
+    key.unseparable_pairs().iter().map(|p| (p.first.clone(), p.second.clone())).collect()
 }
 
 #[test]
 fn the_key_lists_exactly_the_expected_unseparable_pairs() {
     let key = Key::new(&demo_checklist());
-    let expected: BTreeSet<(String, String)> = EXPECTED_UNSEPARABLE
-        .iter()
-        .map(|(a, b)| (a.to_string(), b.to_string()))
-        .collect();
+    let expected: BTreeSet<(String, String)> =
+        EXPECTED_UNSEPARABLE.iter().map(|(a, b)| (a.to_string(), b.to_string())).collect();
     assert_eq!(key_pairs(&key), expected);
 }
 
 #[test]
 fn the_unseparable_pairs_agree_with_a_pairwise_comparison() {
     let checklist = demo_checklist();
-    let names: Vec<&str> = checklist
-        .taxa()
-        .iter()
-        .map(|t| t.scientific_name.as_str())
-        .collect();
+    let names: Vec<&str> = checklist.taxa().iter().map(|t| t.scientific_name.as_str()).collect();
     let mut brute = BTreeSet::new();
     for (i, first) in names.iter().enumerate() {
         for second in &names[i + 1..] {
@@ -86,31 +70,21 @@ fn every_species_is_reached_by_its_own_characters() {
     for taxon in checklist.taxa() {
         let name = taxon.scientific_name.as_str();
         // For each character pick the species' state that the fewest other species allow.
-        let answers = checklist
-            .characters()
-            .iter()
-            .fold(Answers::new(), |answers, character| {
-                let state = allowed(&checklist, name, &character.name)
-                    .into_iter()
-                    .min_by_key(|state| {
-                        checklist
-                            .taxa()
-                            .iter()
-                            .filter(|other| {
-                                allowed(&checklist, &other.scientific_name, &character.name)
-                                    .contains(state)
-                            })
-                            .count()
-                    })
-                    .unwrap();
-                answers.with(&character.name, state)
-            });
+        let answers = checklist.characters().iter().fold(Answers::new(), |answers, character| {
+            let state = allowed(&checklist, name, &character.name)
+                .into_iter()
+                .min_by_key(|state| {
+                    checklist
+                        .taxa()
+                        .iter()
+                        .filter(|other| allowed(&checklist, &other.scientific_name, &character.name).contains(state))
+                        .count()
+                })
+                .unwrap();
+            answers.with(&character.name, state)
+        });
         let ranked = key.rank(&answers, &Context::default()).unwrap();
-        let own = ranked
-            .iter()
-            .find(|c| c.scientific_name == name)
-            .unwrap()
-            .probability;
+        let own = ranked.iter().find(|c| c.scientific_name == name).unwrap().probability;
         let partners = key.cannot_separate_from(name);
         for above in ranked.iter().filter(|c| c.probability > own + 1e-12) {
             assert!(
@@ -119,35 +93,20 @@ fn every_species_is_reached_by_its_own_characters() {
                 above.scientific_name
             );
         }
-        assert!(
-            ranked
-                .iter()
-                .position(|c| c.scientific_name == name)
-                .unwrap()
-                <= partners.len()
-        );
+        assert!(ranked.iter().position(|c| c.scientific_name == name).unwrap() <= partners.len());
         let with_partners: f64 = ranked
             .iter()
             .filter(|c| c.scientific_name == name || partners.contains(&c.scientific_name.as_str()))
             .map(|c| c.probability)
             .sum();
-        assert!(
-            with_partners > 0.5,
-            "{name} and its partners reached only {with_partners}"
-        );
+        assert!(with_partners > 0.5, "{name} and its partners reached only {with_partners}");
     }
 }
 
 #[test]
 fn cannot_separate_from_names_the_partner_both_ways() {
     let key = Key::new(&demo_checklist());
-    assert_eq!(
-        key.cannot_separate_from("Raja montagui"),
-        vec!["Raja brachyura"]
-    );
-    assert_eq!(
-        key.cannot_separate_from("Raja brachyura"),
-        vec!["Raja montagui"]
-    );
+    assert_eq!(key.cannot_separate_from("Raja montagui"), vec!["Raja brachyura"]);
+    assert_eq!(key.cannot_separate_from("Raja brachyura"), vec!["Raja montagui"]);
     assert!(key.cannot_separate_from("Raja clavata").is_empty());
 }

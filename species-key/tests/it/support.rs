@@ -10,11 +10,7 @@ pub fn demo_checklist() -> Checklist {
 
 /// The demo checklist's text.
 pub fn demo_json() -> String {
-    include_str!(concat!(
-        env!("CARGO_MANIFEST_DIR"),
-        "/../demo-records/checklist.json"
-    ))
-    .to_owned()
+    include_str!(concat!(env!("CARGO_MANIFEST_DIR"), "/../demo-records/checklist.json")).to_owned()
 }
 
 /// A key over the demo checklist.
@@ -63,9 +59,5 @@ pub fn key_from_value(value: &serde_json::Value) -> Key {
 
 /// Shannon entropy in bits, written here so tests do not lean on the crate's own.
 pub fn entropy(probabilities: &[f64]) -> f64 {
-    probabilities
-        .iter()
-        .filter(|p| **p > 0.0)
-        .map(|p| -p * p.log2())
-        .sum()
+    probabilities.iter().filter(|p| **p > 0.0).map(|p| -p * p.log2()).sum()
 }

@@ -19,31 +19,20 @@ fn rust_files(dir: &Path) -> Vec<std::path::PathBuf> {
 
 fn crate_files() -> Vec<std::path::PathBuf> {
     let root = Path::new(env!("CARGO_MANIFEST_DIR"));
-    ["src", "tests", "benches"]
-        .iter()
-        .flat_map(|dir| rust_files(&root.join(dir)))
-        .collect()
+    ["src", "tests", "benches"].iter().flat_map(|dir| rust_files(&root.join(dir))).collect()
 }
 
 #[test]
 fn every_module_opens_with_a_doc_comment() {
     for file in crate_files() {
         let text = fs::read_to_string(&file).unwrap();
-        assert!(
-            text.starts_with("//!"),
-            "{} does not open with //!",
-            file.display()
-        );
+        assert!(text.starts_with("//!"), "{} does not open with //!", file.display());
     }
 }
 
 #[test]
 fn no_file_leaves_unfinished_work_behind() {
-    let banned = [
-        concat!("todo", "!("),
-        concat!("unimplemented", "!("),
-        concat!("dbg", "!("),
-    ];
+    let banned = [concat!("todo", "!("), concat!("unimplemented", "!("), concat!("dbg", "!(")];
     for file in crate_files() {
         let text = fs::read_to_string(&file).unwrap();
         for word in banned {

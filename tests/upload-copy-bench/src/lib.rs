@@ -15,7 +15,8 @@ pub fn upload_copy(bytes: &[u8], long_edge: u32, quality: u8) -> Result<Vec<u8>,
         .and_then(|o| u8::try_from(o).ok())
         .and_then(Orientation::from_exif)
         .unwrap_or(Orientation::NoTransforms);
-    let mut image = image::load_from_memory_with_format(bytes, ImageFormat::Jpeg).map_err(|err| JsError::new(&err.to_string()))?;
+    let mut image =
+        image::load_from_memory_with_format(bytes, ImageFormat::Jpeg).map_err(|err| JsError::new(&err.to_string()))?;
     image.apply_orientation(orientation);
     let copy = if image.width().max(image.height()) > long_edge {
         image.resize(long_edge, long_edge, image::imageops::FilterType::Triangle)

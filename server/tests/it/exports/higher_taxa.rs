@@ -29,7 +29,10 @@ async fn csv_rows(app: &TestApp, query: &str) -> Vec<std::collections::HashMap<S
     let text = app.get(&format!("/api/export?format=csv&{query}")).await.text().await.unwrap();
     let mut reader = csv::Reader::from_reader(text.as_bytes());
     let headers = reader.headers().unwrap().clone();
-    reader.records().map(|r| headers.iter().map(str::to_owned).zip(r.unwrap().iter().map(str::to_owned)).collect()).collect()
+    reader
+        .records()
+        .map(|r| headers.iter().map(str::to_owned).zip(r.unwrap().iter().map(str::to_owned)).collect())
+        .collect()
 }
 
 #[tokio::test]
@@ -42,7 +45,11 @@ async fn a_genus_or_family_pick_exports_its_name_and_rank_generalised_like_its_s
     assert_eq!((by_id(FAMILY)["scientificName"].as_str(), by_id(FAMILY)["taxonRank"].as_str()), ("Rajidae", "family"));
     // Demo checklist: every Dipturus is tenthDegree; Rajidae holds them. Chapman 2020 (GBIF): 0.1° grid.
     for id in [GENUS, FAMILY] {
-        assert_eq!((by_id(id)["decimalLatitude"].as_str(), by_id(id)["decimalLongitude"].as_str()), ("52.3", "-4.1"), "{id}");
+        assert_eq!(
+            (by_id(id)["decimalLatitude"].as_str(), by_id(id)["decimalLongitude"].as_str()),
+            ("52.3", "-4.1"),
+            "{id}"
+        );
         assert!(by_id(id)["dataGeneralizations"].contains("0.1 degree"), "{id}");
     }
     let full = app.get("/api/export?format=csv&audience=full").await.text().await.unwrap();
@@ -57,8 +64,16 @@ async fn a_taxon_filter_takes_in_identifications_at_or_below_its_rank() {
         ids.sort();
         ids
     };
-    assert_eq!(ids(csv_rows(&app, "taxon=Rajidae").await).len(), 2, "a genus and the family itself are inside the family");
-    assert_eq!(ids(csv_rows(&app, "taxon=Dipturus").await), [format!("urn:uuid:{GENUS}")], "the family may be another genus");
+    assert_eq!(
+        ids(csv_rows(&app, "taxon=Rajidae").await).len(),
+        2,
+        "a genus and the family itself are inside the family"
+    );
+    assert_eq!(
+        ids(csv_rows(&app, "taxon=Dipturus").await),
+        [format!("urn:uuid:{GENUS}")],
+        "the family may be another genus"
+    );
     assert!(ids(csv_rows(&app, "taxon=Dipturus%20batis").await).is_empty(), "a genus may be the other species");
 }
 
@@ -73,5 +88,8 @@ async fn the_review_queue_puts_a_genus_of_protected_species_first() {
     assert_eq!(items.len(), 3);
     let reasons = items[0]["priority_reasons"].to_string();
     assert!(reasons.contains("Dipturus is protected") || reasons.contains("Rajidae is protected"), "{reasons}");
-    assert_eq!(items[2]["record"]["submission"]["client_id"], "1b2c3d4e-0000-4000-8000-0000000000c3", "the catshark last");
+    assert_eq!(
+        items[2]["record"]["submission"]["client_id"], "1b2c3d4e-0000-4000-8000-0000000000c3",
+        "the catshark last"
+    );
 }

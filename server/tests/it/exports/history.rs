@@ -14,12 +14,23 @@ const REVIEWER_CONTACT: &str = "reviewer.private@example.org";
 
 async fn confirm(app: &TestApp, id: &str, name: &str, remark: &str) {
     let action = json!({"action": "confirm", "scientific_name": name, "taxon_rank": "species", "remark": remark});
-    let response = app.reviewer.sign(app.client.post(format!("{}/api/review/records/{id}/actions", app.base))).json(&action).send().await.unwrap();
+    let response = app
+        .reviewer
+        .sign(app.client.post(format!("{}/api/review/records/{id}/actions", app.base)))
+        .json(&action)
+        .send()
+        .await
+        .unwrap();
     assert_eq!(response.status(), 200, "{}", response.text().await.unwrap());
 }
 
 fn identifications(occurrence: &Value) -> Vec<&Value> {
-    occurrence["extensions"].as_array().unwrap().iter().filter(|e| e["rowtype"] == format!("{DWC}Identification")).collect()
+    occurrence["extensions"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .filter(|e| e["rowtype"] == format!("{DWC}Identification"))
+        .collect()
 }
 
 fn field<'a>(extension: &'a Value, name: &str) -> &'a str {
@@ -58,22 +69,38 @@ async fn a_confirmation_is_in_the_occurrence_and_every_identification_in_the_his
     assert_eq!(term(occurrence, "identifiedBy"), "Test reviewer");
     // TDWG Darwin Core dateIdentified: ISO 8601, here the moment the reviewer confirmed.
     let identified = chrono::DateTime::parse_from_rfc3339(term(occurrence, "dateIdentified")).unwrap();
-    assert!(identified >= before - chrono::Duration::seconds(1), "{identified} is the confirmation, not the submission");
+    assert!(
+        identified >= before - chrono::Duration::seconds(1),
+        "{identified} is the confirmation, not the submission"
+    );
     assert_eq!(term(occurrence, "identificationVerificationStatus"), "confirmed");
     assert!(term(occurrence, "identificationRemarks").contains("large spots: nursehound"));
     assert!(term(occurrence, "identificationRemarks").starts_with("identified by a reviewer"), "says how, in words");
 
     let history = identifications(occurrence);
     assert_eq!(history.len(), 2, "the observer's guess and the reviewer's identification: {history:?}");
-    let guess = history.iter().find(|h| field(h, "identificationVerificationStatus") == "superseded").expect("the superseded guess");
+    let guess = history
+        .iter()
+        .find(|h| field(h, "identificationVerificationStatus") == "superseded")
+        .expect("the superseded guess");
     assert_eq!((field(guess, "scientificName"), field(guess, "taxonRank")), ("Scyliorhinus canicula", "species"));
     assert_eq!(field(guess, "identifiedBy"), "Test Observer");
     assert!(field(guess, "identificationRemarks").contains("as typed: small-spotted catshark"));
-    let current = history.iter().find(|h| field(h, "identificationVerificationStatus") == "confirmed").expect("the current identification");
-    assert_eq!((field(current, "scientificName"), field(current, "identifiedBy")), ("Scyliorhinus stellaris", "Test reviewer"));
+    let current = history
+        .iter()
+        .find(|h| field(h, "identificationVerificationStatus") == "confirmed")
+        .expect("the current identification");
+    assert_eq!(
+        (field(current, "scientificName"), field(current, "identifiedBy")),
+        ("Scyliorhinus stellaris", "Test reviewer")
+    );
     assert!(field(current, "identificationID").starts_with(&format!("urn:uuid:{RECORD}#identification-")));
 
-    assert_eq!(term(row(&archive, SECOND), "identifiedBy"), "test-reviewer", "the username when there is no display name");
+    assert_eq!(
+        term(row(&archive, SECOND), "identifiedBy"),
+        "test-reviewer",
+        "the username when there is no display name"
+    );
     let everything = unzip_all(&std::fs::read(&zip).unwrap());
     assert!(!everything.contains(REVIEWER_CONTACT), "a reviewer's contact never leaves the server");
 }

@@ -27,11 +27,17 @@ async fn a_life_stage_reaches_csv_geojson_and_the_archive() {
     // Darwin Core lifeStage with the GBIF Life Stage vocabulary (rs.gbif.org/vocabulary/gbif/life_stage):
     // `egg` (listed under embryo), `juvenile`.
     let dir = tempfile::tempdir().unwrap();
-    let archive = run_script("read_dwca.py", &[&download(&app, "format=dwca", dir.path(), "stages.zip").await, &terms_extract()]);
+    let archive =
+        run_script("read_dwca.py", &[&download(&app, "format=dwca", dir.path(), "stages.zip").await, &terms_extract()]);
     let egg_row = row(&archive, EGG_CASES);
     assert_eq!((term(egg_row, "lifeStage"), term(egg_row, "individualCount")), ("egg", "4"));
     assert_eq!(term(egg_row, "scientificName"), "Raja clavata");
-    let measurements = egg_row["extensions"].as_array().unwrap().iter().filter(|e| e["rowtype"].as_str().unwrap().ends_with("MeasurementOrFact")).count();
+    let measurements = egg_row["extensions"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .filter(|e| e["rowtype"].as_str().unwrap().ends_with("MeasurementOrFact"))
+        .count();
     assert_eq!(measurements, 0, "no length row for egg cases");
     assert_eq!(term(row(&archive, JUVENILE), "lifeStage"), "juvenile");
 
@@ -43,7 +49,8 @@ async fn a_life_stage_reaches_csv_geojson_and_the_archive() {
     assert_eq!(stages, ["egg", "juvenile"]);
 
     let geojson: Value = app.get("/api/export?format=geojson").await.json().await.unwrap();
-    let feature = geojson["features"].as_array().unwrap().iter().find(|f| f["id"] == format!("urn:uuid:{EGG_CASES}")).unwrap();
+    let feature =
+        geojson["features"].as_array().unwrap().iter().find(|f| f["id"] == format!("urn:uuid:{EGG_CASES}")).unwrap();
     assert_eq!(feature["properties"]["lifeStage"], "egg");
 }
 

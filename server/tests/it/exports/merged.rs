@@ -30,7 +30,12 @@ async fn merged_and_confirmed() -> TestApp {
     earlier["position"] = json!({"latitude": 52.4153, "longitude": -4.0829, "accuracy_m": 35.0, "source": "device"});
     earlier["observer_name"] = json!("Walker Two");
     assert_eq!(app.submit(&earlier, &[]).await.status, 200);
-    let (status, body) = post_json(&app, &format!("/api/review/records/{SEEN_LATER}/duplicates/{SEEN_EARLIER}"), json!({"same_animal": true})).await;
+    let (status, body) = post_json(
+        &app,
+        &format!("/api/review/records/{SEEN_LATER}/duplicates/{SEEN_EARLIER}"),
+        json!({"same_animal": true}),
+    )
+    .await;
     assert_eq!((status, body["decision"].as_str()), (200, Some("same animal")), "{body}");
     // The merge keeps the report seen earliest; the reviewer confirms that one.
     let confirm = json!({"action": "confirm", "scientific_name": "Scyliorhinus canicula", "taxon_rank": "species"});
@@ -55,7 +60,11 @@ async fn a_merged_animal_is_the_kept_report_with_the_best_position_and_every_obs
     // TDWG Darwin Core recordedBy: a list with " | " between, the primary observer first.
     assert_eq!(term(animal, "recordedBy"), "Walker Two | Walker One");
     assert_eq!(term(animal, "associatedOccurrences"), format!("same organism: urn:uuid:{SEEN_LATER}"));
-    assert_eq!(term(animal, "eventDate"), "2025-06-01T13:10:00Z/2025-06-03T08:00:00Z", "ISO 8601 interval over both reports");
+    assert_eq!(
+        term(animal, "eventDate"),
+        "2025-06-01T13:10:00Z/2025-06-03T08:00:00Z",
+        "ISO 8601 interval over both reports"
+    );
 }
 
 #[tokio::test]

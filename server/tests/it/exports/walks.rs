@@ -64,7 +64,13 @@ async fn a_filtered_archive_takes_what_each_walk_found_from_all_its_records() {
     find_on(&app, &phone, CATSHARK, BORTH, "small-spotted catshark").await;
     find_on(&app, &phone, RAY, BORTH, "thornback ray").await;
     let confirm = json!({"action": "confirm", "scientific_name": "Raja clavata", "taxon_rank": "species"});
-    let response = app.reviewer.sign(app.client.post(format!("{}/api/review/records/{RAY}/actions", app.base))).json(&confirm).send().await.unwrap();
+    let response = app
+        .reviewer
+        .sign(app.client.post(format!("{}/api/review/records/{RAY}/actions", app.base)))
+        .json(&confirm)
+        .send()
+        .await
+        .unwrap();
     assert_eq!(response.status(), 200);
     // Only the confirmed ray passes the filter, but the catshark was found on the walk all the same.
     for query in ["format=dwca&state=confirmed", "format=dwca&taxon=Rajidae", "format=dwca"] {
@@ -100,7 +106,10 @@ async fn the_area_filter_applies_to_walks() {
     let dir = tempfile::tempdir().unwrap();
     let none = download(&app, "format=dwca&bbox=10,10,11,11", dir.path(), "none.zip").await;
     let archive = run_script("read_dwca.py", &[&none, &terms_extract()]);
-    assert_eq!(archive["core_row_type"], "http://rs.tdwg.org/dwc/terms/Occurrence", "no walk in the box: an occurrence core");
+    assert_eq!(
+        archive["core_row_type"], "http://rs.tdwg.org/dwc/terms/Occurrence",
+        "no walk in the box: an occurrence core"
+    );
 }
 
 #[tokio::test]
@@ -116,9 +125,17 @@ async fn a_walk_that_found_a_sensitive_species_is_generalised_in_public() {
     // that found it, and the stretch's name, which would place it, is withheld.
     assert_eq!(term(sensitive, "locality"), "");
     assert_eq!((term(sensitive, "decimalLatitude"), term(sensitive, "decimalLongitude")), ("51.6", "-5.1"));
-    assert!(term(sensitive, "dataGeneralizations").contains("Locality withheld"), "{}", term(sensitive, "dataGeneralizations"));
+    assert!(
+        term(sensitive, "dataGeneralizations").contains("Locality withheld"),
+        "{}",
+        term(sensitive, "dataGeneralizations")
+    );
     assert!(term(sensitive, "informationWithheld").contains("stretch"), "{}", term(sensitive, "informationWithheld"));
-    assert_eq!(term(row(&public, BORTH), "locality"), "Borth to Ynyslas", "a walk with no sensitive find keeps its name");
+    assert_eq!(
+        term(row(&public, BORTH), "locality"),
+        "Borth to Ynyslas",
+        "a walk with no sensitive find keeps its name"
+    );
     let full = archive(&app, "format=dwca&audience=full").await;
     assert_eq!(term(row(&full, ELSEWHERE), "locality"), "Freshwater West", "assessors see it as recorded");
     assert_eq!(term(row(&full, ELSEWHERE), "decimalLatitude"), "51.621000");
@@ -134,12 +151,21 @@ async fn range_from_an_event_core_archive_counts_finds_not_absences() {
     let dir = tempfile::tempdir().unwrap();
     let zip = download(&app, "format=dwca&audience=full", dir.path(), "events.zip").await;
     let archive = run_script("read_dwca.py", &[&zip, &terms_extract()]);
-    let status = |walk: &str| extension_rows(row(&archive, walk)).iter().map(|o| ext_term(o, "occurrenceStatus").to_owned()).collect::<Vec<_>>();
+    let status = |walk: &str| {
+        extension_rows(row(&archive, walk))
+            .iter()
+            .map(|o| ext_term(o, "occurrenceStatus").to_owned())
+            .collect::<Vec<_>>()
+    };
     assert_eq!(status(ELSEWHERE), ["notDetected", "notDetected"], "the archive does hold absences");
-    let output = Command::new(env!("CARGO_BIN_EXE_wrackline")).args(["range", "--json", "--from"]).arg(&zip).output().unwrap();
+    let output =
+        Command::new(env!("CARGO_BIN_EXE_wrackline")).args(["range", "--json", "--from"]).arg(&zip).output().unwrap();
     assert!(output.status.success(), "{}", String::from_utf8_lossy(&output.stderr));
     let report: Value = serde_json::from_slice(&output.stdout).unwrap();
-    assert_eq!(report["records_read"], 1, "the catshark; the three absences (individualCount 0, notDetected) are not records");
+    assert_eq!(
+        report["records_read"], 1,
+        "the catshark; the three absences (individualCount 0, notDetected) are not records"
+    );
     let taxa: Vec<&str> = report["taxa"].as_array().unwrap().iter().map(|t| t["taxon"].as_str().unwrap()).collect();
     assert_eq!(taxa, ["Scyliorhinus canicula"]);
 }
