@@ -7,7 +7,7 @@
 use axum::Json;
 use axum::http::StatusCode;
 use axum::response::{IntoResponse, Response};
-use serde::Serialize;
+use shared_types::ErrorBody;
 
 #[derive(Debug, thiserror::Error)]
 pub enum ApiError {
@@ -42,13 +42,6 @@ pub enum ApiError {
     Internal(#[from] anyhow::Error),
 }
 
-#[derive(Serialize)]
-struct ErrorBody<'a> {
-    error: &'a str,
-    #[serde(skip_serializing_if = "Option::is_none")]
-    field: Option<&'a str>,
-}
-
 impl ApiError {
     fn status(&self) -> StatusCode {
         match self {
@@ -73,24 +66,85 @@ impl From<crate::store::StoreError> for ApiError {
     }
 }
 
+/// The only sentence a client gets for an internal failure. It claims nothing about what
+/// was or was not stored, since the failure may come after a commit.
+pub const INTERNAL_MESSAGE: &str = "the server could not finish this request; try again later";
+
+impl ApiError {
+    /// The body the client receives: the message and field for bad input, only
+    /// [`INTERNAL_MESSAGE`] for an internal failure (its details go to the log).
+    fn body(&self) -> ErrorBody {
+        match self {
+            Self::Internal(_) => ErrorBody { error: INTERNAL_MESSAGE.to_owned(), field: None },
+            Self::InvalidField { field, message } => ErrorBody { error: message.clone(), field: Some(field.clone()) },
+            other => ErrorBody { error: other.to_string(), field: None },
+        }
+    }
+}
+
 impl IntoResponse for ApiError {
     fn into_response(self) -> Response {
-        let status = self.status();
-        let message = match &self {
-            Self::Internal(err) => {
-                tracing::error!(error = ?err, "internal error");
-                "the server could not finish this request; nothing was stored".to_owned()
-            }
-            other => other.to_string(),
-        };
-        let field = match &self {
-            Self::InvalidField { field, .. } => Some(field.as_str()),
-            _ => None,
-        };
-        let message = match &self {
-            Self::InvalidField { message, .. } => message.clone(),
-            _ => message,
-        };
-        (status, Json(ErrorBody { error: &message, field })).into_response()
+        if let Self::Internal(err) = &self {
+            tracing::error!(error = ?err, "internal error");
+        }
+        (self.status(), Json(self.body())).into_response()
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    fn answer(err: ApiError) -> (StatusCode, ErrorBody) {
+        (err.status(), err.body())
+    }
+
+    #[test]
+    fn each_kind_of_refusal_has_its_status() {
+        let cases = [
+            (ApiError::BadRequest("x".into()), 400),
+            (ApiError::InvalidField { field: "f".into(), message: "m".into() }, 422),
+            (ApiError::Conflict("x".into()), 409),
+            (ApiError::NotFound("x".into()), 404),
+            (ApiError::TooLarge("x".into()), 413),
+            (ApiError::UnsupportedMedia("x".into()), 415),
+            (ApiError::Unauthorized("x".into()), 401),
+            (ApiError::Forbidden("x".into()), 403),
+            (ApiError::TooManyRequests("x".into()), 429),
+            (ApiError::Unprocessable("x".into()), 422),
+            (ApiError::Internal(anyhow::anyhow!("x")), 500),
+        ];
+        for (err, status) in cases {
+            let shown = format!("{err:?}");
+            assert_eq!(err.status().as_u16(), status, "{shown}");
+        }
+    }
+
+    #[test]
+    fn a_refused_field_is_named_apart_from_its_message() {
+        let (status, body) =
+            answer(ApiError::InvalidField { field: "position.latitude".into(), message: "must be at most 90".into() });
+        assert_eq!(status, StatusCode::UNPROCESSABLE_ENTITY);
+        assert_eq!(body.error, "must be at most 90");
+        assert_eq!(body.field.as_deref(), Some("position.latitude"));
+    }
+
+    #[test]
+    fn an_internal_failure_leaks_nothing_of_its_cause() {
+        let secret = "/var/lib/wrackline/wrackline.sqlite3: disk I/O error at page 4711";
+        let err = ApiError::Internal(anyhow::anyhow!(secret).context("inserting observation 12"));
+        let (status, body) = answer(err);
+        assert_eq!(status, StatusCode::INTERNAL_SERVER_ERROR);
+        assert_eq!(body, ErrorBody { error: INTERNAL_MESSAGE.to_owned(), field: None });
+        let json = serde_json::to_string(&body).unwrap();
+        for fragment in ["sqlite", "4711", "/var/lib", "observation 12", "disk"] {
+            assert!(!json.contains(fragment), "{json} leaks {fragment}");
+        }
+    }
+
+    #[test]
+    fn an_internal_failure_does_not_claim_nothing_was_stored() {
+        // It may come after a commit (a failure in follow-up work), so it must not say so.
+        assert!(!INTERNAL_MESSAGE.contains("nothing was stored"));
     }
 }

@@ -7,11 +7,13 @@
 
 pub mod codes;
 pub mod exif;
+pub mod problem;
 pub mod record;
 pub mod review;
 pub mod values;
 pub mod walk;
 
+pub use problem::ErrorBody;
 pub use record::*;
 pub use review::*;
 pub use values::*;
