@@ -67,7 +67,7 @@ pub enum StaffRole {
 #[derive(Debug, clap::Args)]
 pub struct EffortArgs {
     #[arg(long, value_enum, default_value = "year")]
-    pub by: crate::effort::Period,
+    pub by: crate::assess::effort::Period,
     /// Print JSON for scripts instead of a table.
     #[arg(long)]
     pub json: bool,
@@ -108,7 +108,7 @@ fn serve(data_dir: &std::path::Path, args: ServeArgs, with_demo: bool) -> anyhow
     if app_dir.is_none() {
         eprintln!("note: no built app at {} (run `cargo xtask build`); serving the API only", args.app_dir.display());
     }
-    let state = AppState::open(data_dir, app_dir, crate::load_checklist(args.checklist.as_deref())?)?;
+    let state = AppState::open(data_dir, app_dir, crate::taxa::load_checklist(args.checklist.as_deref())?)?;
     let runtime = tokio::runtime::Runtime::new().context("starting the async runtime")?;
     runtime.block_on(async move {
         if with_demo {
@@ -128,9 +128,9 @@ fn serve(data_dir: &std::path::Path, args: ServeArgs, with_demo: bool) -> anyhow
 }
 
 fn print_effort(data_dir: &std::path::Path, args: &EffortArgs) -> anyhow::Result<()> {
-    let state = AppState::open(data_dir, None, crate::load_checklist(None)?)?;
+    let state = AppState::open(data_dir, None, crate::taxa::load_checklist(None)?)?;
     let walks = state.store.run_here(|conn| crate::store::walks::list_walks(conn))?;
-    let rows = crate::effort::summarise(&walks, args.by);
+    let rows = crate::assess::effort::summarise(&walks, args.by);
     if args.json {
         println!("{}", serde_json::to_string_pretty(&rows)?);
         return Ok(());
@@ -152,7 +152,7 @@ fn print_effort(data_dir: &std::path::Path, args: &EffortArgs) -> anyhow::Result
 }
 
 fn user(data_dir: &std::path::Path, command: UserCommand) -> anyhow::Result<()> {
-    let state = AppState::open(data_dir, None, crate::load_checklist(None)?)?;
+    let state = AppState::open(data_dir, None, crate::taxa::load_checklist(None)?)?;
     let runtime = tokio::runtime::Runtime::new().context("starting the async runtime")?;
     match command {
         UserCommand::Add { username, role, display_name } => {
@@ -170,7 +170,7 @@ fn user(data_dir: &std::path::Path, command: UserCommand) -> anyhow::Result<()> 
             };
             let display = display_name.unwrap_or_else(|| username.clone());
             runtime
-                .block_on(crate::handlers::people::add_staff(&state, username.clone(), role, display, password))
+                .block_on(crate::people::add_staff(&state.store, None, &username, role, display, password))
                 .map_err(|err| anyhow::anyhow!("{err}"))?;
             println!("added {username} ({})", role.code());
         }

@@ -42,13 +42,13 @@ pub async fn load_if_empty(state: &AppState) -> anyhow::Result<usize> {
             .map(|name| photo_bytes(name).map(<[u8]>::to_vec))
             .collect::<anyhow::Result<Vec<_>>>()?;
         let upload = Upload { record_json: serde_json::to_vec(&record.submission)?, photos };
-        intake::accept(state, upload, None, Utc::now())
+        crate::arrival::receive(state, upload, None, Utc::now())
             .await
             .map_err(|err| anyhow::anyhow!("demo record {}: {err}", index + 1))?;
     }
     let walks: Vec<serde_json::Value> = serde_json::from_str(WALKS_JSON)?;
     for (index, walk) in walks.iter().enumerate() {
-        intake::walks::accept_walk(state, &serde_json::to_vec(walk)?, None, Utc::now())
+        intake::walks::accept_walk(&state.store, &serde_json::to_vec(walk)?, None, Utc::now())
             .await
             .map_err(|err| anyhow::anyhow!("demo walk {}: {err}", index + 1))?;
     }
@@ -73,16 +73,17 @@ pub const DEMO_PEOPLE: &[(&str, &str, shared_types::Role)] = &[
 /// Adds the demo sign-ins unless they exist; returns them for printing.
 pub async fn ensure_demo_people(state: &AppState) -> anyhow::Result<Vec<(&'static str, &'static str, &'static str)>> {
     for (username, password, role) in DEMO_PEOPLE {
-        match crate::handlers::people::add_staff(
-            state,
-            (*username).to_owned(),
+        match crate::people::add_staff(
+            &state.store,
+            None,
+            username,
             *role,
             format!("Demo {}", role.code()),
             (*password).to_owned(),
         )
         .await
         {
-            Ok(_) | Err(crate::error::ApiError::Conflict(_)) => {}
+            Ok(_) | Err(crate::people::PeopleError::Taken(_)) => {}
             Err(err) => anyhow::bail!("adding the demo sign-in {username}: {err}"),
         }
     }

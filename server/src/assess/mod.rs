@@ -2,24 +2,24 @@
 //! later the HTTP handlers) call these functions.
 //!
 //! - [`input`]: records from the database, a CSV file or a Darwin Core Archive.
-//! - [`taxa`]: which checklist taxon a name stands for.
 //! - [`range`]: records, sites, EOO and AOO per taxon and period, side by side.
 //! - [`trend`]: effort-corrected yearly trends over the assessment window.
 //! - [`map`], [`chart`]: the range map and the trend chart as SVG.
 //! - [`dates`], [`meta`]: dates and periods; reading an archive's `meta.xml`.
 //! - [`nearby`]: confirmed records near a place per species, for the guided key's prior.
+//! - [`effort`]: survey effort per stretch and period, for encounter rates.
 //!
 //! Every figure is an input to an assessment, not a listing decision; the reports carry
 //! that caution with them.
 
 pub mod chart;
 pub mod dates;
+pub mod effort;
 pub mod input;
 pub mod map;
 pub mod meta;
 pub mod nearby;
 pub mod range;
-pub mod taxa;
 pub mod trend;
 
 use shared_types::ReviewState;

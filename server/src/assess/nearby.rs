@@ -15,8 +15,8 @@ use geo::{Distance as _, Geodesic, Point};
 use serde::Serialize;
 
 use super::input::PointRecord;
-use super::taxa::TaxonIndex;
-use crate::export::generalise::public_place;
+use crate::protect::generalise::public_place;
+use crate::taxa::TaxonIndex;
 
 /// Confirmed records within this distance (geodesic, WGS84) of the query point count as
 /// nearby: about a day's stretch of coast either way, and the same distance the out-of-range

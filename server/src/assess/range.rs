@@ -13,7 +13,7 @@ use serde::Serialize;
 
 use super::dates::Period;
 use super::input::PointRecord;
-use super::taxa::{TaxonFilter, TaxonIndex};
+use crate::taxa::{TaxonFilter, TaxonIndex};
 
 /// Positions closer than this (in degrees, on both axes) are one site (common practice:
 /// about 10 m, inside the GPS uncertainty of a phone).

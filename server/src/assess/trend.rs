@@ -15,7 +15,7 @@ use chrono::Datelike as _;
 use serde::Serialize;
 
 use super::input::{InputError, PointRecord};
-use super::taxa::{TaxonFilter, TaxonIndex};
+use crate::taxa::{TaxonFilter, TaxonIndex};
 
 /// Where the generation length came from.
 #[derive(Debug, Clone, Serialize)]

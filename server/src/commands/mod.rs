@@ -11,8 +11,8 @@ use anyhow::Context as _;
 
 use crate::AppState;
 use crate::assess::input::{self, PointRecord};
-use crate::assess::taxa::{TaxonFilter, TaxonIndex};
 use crate::assess::{describe_states, parse_states};
+use crate::taxa::{TaxonFilter, TaxonIndex};
 
 /// Where records come from and which of them to take; shared by `range` and `trend`.
 #[derive(Debug, clap::Args)]
@@ -59,7 +59,7 @@ impl RecordSource {
             Some(path) => (input::read_file(path)?, format!("every record in {}", path.display())),
             None => {
                 let states = parse_states(&self.states).map_err(anyhow::Error::msg)?;
-                let state = AppState::open(data_dir, None, crate::load_checklist(None)?)?;
+                let state = AppState::open(data_dir, None, crate::taxa::load_checklist(None)?)?;
                 let used = describe_states(&states);
                 (state.store.run_here(|conn| input::read_store(conn, states))?, used)
             }

@@ -27,7 +27,7 @@ pub struct TrendArgs {
 }
 
 pub fn run(data_dir: &Path, args: TrendArgs) -> anyhow::Result<()> {
-    let names = crate::assess::taxa::TaxonIndex::load(args.source.checklist.as_deref())?;
+    let names = crate::taxa::TaxonIndex::load(args.source.checklist.as_deref())?;
     let taxon = args.source.taxon.as_deref().map(|n| names.filter(n)).unwrap_or(None);
     if let (Some(name), None) = (&args.source.taxon, &taxon) {
         anyhow::bail!("`{name}` is not a species, genus, family, order or superorder on the checklist");
@@ -41,7 +41,7 @@ pub fn run(data_dir: &Path, args: TrendArgs) -> anyhow::Result<()> {
         }
         None => {
             let loaded = args.source.load(data_dir)?;
-            let state = crate::AppState::open(data_dir, None, crate::load_checklist(None)?)?;
+            let state = crate::AppState::open(data_dir, None, crate::taxa::load_checklist(None)?)?;
             let walks = state.store.run_here(|conn| crate::store::walks::list_walks(conn))?;
             let (years, counts, notes) =
                 stored_trend_input(&loaded.records, &walks, taxon.as_ref(), &names, args.effort);

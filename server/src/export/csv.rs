@@ -8,7 +8,7 @@ use rusqlite::Connection;
 
 use super::terms::OCCURRENCE_TERMS;
 use super::{ExportError, ExportRequest, ExportSummary, each_occurrence};
-use crate::assess::taxa::TaxonIndex;
+use crate::taxa::TaxonIndex;
 
 /// Our own columns after the Darwin Core ones.
 pub const OWN_COLUMNS: &[&str] =

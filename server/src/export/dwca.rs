@@ -27,9 +27,9 @@ use super::terms::{
     MEASUREMENT_EXTENSION, OCCURRENCE_CORE, OCCURRENCE_EXTENSION, Table,
 };
 use super::{ExportError, ExportRequest, ExportSummary, Occurrence, each_occurrence};
-use crate::assess::taxa::TaxonIndex;
 use crate::export::csv::method;
 use crate::store::occurrences::{self, RowFilter};
+use crate::taxa::TaxonIndex;
 
 /// Deflate level 1: a third of the default's time for a slightly larger archive.
 const COMPRESSION_LEVEL: i64 = 1;

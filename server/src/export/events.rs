@@ -28,9 +28,9 @@ use shared_types::WalkSubmission;
 use species_key::{Checklist, Sensitivity};
 
 use super::Audience;
-use super::generalise::{as_recorded, public_place};
 use super::terms::OCCURRENCE_TERMS;
-use crate::assess::taxa::{NamedTaxon, stricter};
+use crate::protect::generalise::{as_recorded, public_place};
+use crate::taxa::{NamedTaxon, stricter};
 
 /// Event terms, in column order; the first is the row's id.
 pub const EVENT_TERMS: &[&str] = &[

@@ -12,7 +12,7 @@ use serde_json::{Map, Value};
 
 use super::terms::OCCURRENCE_TERMS;
 use super::{ExportError, ExportRequest, ExportSummary, Occurrence, each_occurrence};
-use crate::assess::taxa::TaxonIndex;
+use crate::taxa::TaxonIndex;
 
 pub fn write<W: Write>(
     conn: &Connection,

@@ -11,7 +11,7 @@
 pub mod csv;
 pub mod dwca;
 pub mod events;
-pub mod generalise;
+pub mod filters;
 pub mod geojson;
 pub mod occurrence;
 pub mod terms;
@@ -22,9 +22,9 @@ use rusqlite::Connection;
 
 pub use occurrence::{Audience, ExportSummary, Occurrence};
 
-use crate::assess::taxa::{TaxonFilter, TaxonIndex};
 use crate::store::StoreError;
 use crate::store::occurrences::{self, RowFilter};
+use crate::taxa::{TaxonFilter, TaxonIndex};
 use occurrence::Builder;
 
 /// The formats an export can take.

@@ -4,10 +4,10 @@
 
 use std::collections::BTreeMap;
 
-use crate::assess::taxa::{NamedTaxon, TaxonFilter, TaxonIndex};
 use crate::store::occurrences::{IdentificationRow, LengthRow, OccurrenceRow};
+use crate::taxa::{NamedTaxon, TaxonFilter, TaxonIndex};
 
-use super::generalise::{PublicPlace, as_recorded, public_place};
+use crate::protect::generalise::{PublicPlace, as_recorded, public_place};
 
 /// Who an export is for.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]

@@ -16,8 +16,8 @@ use chrono::Utc;
 use shared_types::Role;
 
 use crate::AppState;
-use crate::auth::token_sha256;
 use crate::error::ApiError;
+use crate::people::auth::token_sha256;
 use crate::store::people::{self, Person};
 
 pub const SESSION_COOKIE: &str = "wrackline_session";

@@ -20,11 +20,11 @@ use crate::assess::dates::Period;
 use crate::assess::input::read_store;
 use crate::assess::map::taxon_map;
 use crate::assess::range::{GridBasis, RangeOptions, RangeReport, choose_grid, parse_centre, range_report};
-use crate::assess::taxa::TaxonFilter;
 use crate::assess::trend::{EffortUnit, TrendReport, generation_length, stored_trend_input, trend_report};
 use crate::assess::{describe_states, parse_states};
 use crate::error::ApiError;
 use crate::handlers::access::Caller;
+use crate::taxa::TaxonFilter;
 
 #[derive(Deserialize)]
 pub struct FigureQuery {

@@ -24,12 +24,12 @@ use tokio::sync::mpsc;
 
 use crate::AppState;
 use crate::assess::parse_states;
-use crate::assess::taxa::TaxonIndex;
-use crate::commands::export::{day_bounds, parse_bbox};
 use crate::error::ApiError;
+use crate::export::filters::{day_bounds, parse_bbox};
 use crate::export::{self, Audience, ExportRequest, Format};
 use crate::handlers::access::Caller;
 use crate::store::occurrences::RowFilter;
+use crate::taxa::TaxonIndex;
 
 #[derive(Deserialize)]
 pub struct ExportQuery {

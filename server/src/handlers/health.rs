@@ -6,6 +6,6 @@ use crate::AppState;
 use crate::error::ApiError;
 
 pub async fn healthz(State(state): State<AppState>) -> Result<&'static str, ApiError> {
-    state.store.run(|conn| Ok(conn.query_row("SELECT 1", [], |_| Ok(()))?)).await?;
+    state.store.ping().await?;
     Ok("ok")
 }

@@ -73,8 +73,9 @@ pub async fn reply(
             format!("lists EXIF for {} photos but {} came with the reply", reply.photo_exif.len(), photos.len());
         return Err(ApiError::InvalidField { field: "photo_exif".into(), message });
     }
-    let mut stored =
-        intake::store_photos(&state, photos, *view.submission.observed_at.offset()).await.map_err(intake_error)?;
+    let mut stored = intake::store_photos(&state.intake(), photos, *view.submission.observed_at.offset())
+        .await
+        .map_err(intake_error)?;
     intake::compare_photos(&view.submission, &mut stored, &reply.photo_exif);
     let observer = me.id;
     let outcome = state

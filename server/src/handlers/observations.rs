@@ -11,7 +11,7 @@ use crate::AppState;
 use crate::error::ApiError;
 use crate::handlers::access::{Caller, Reviewer};
 use crate::intake::images::ImageProblem;
-use crate::intake::{self, IntakeError, PhotoProblem, Upload};
+use crate::intake::{IntakeError, PhotoProblem, Upload};
 use crate::store::observations;
 
 /// `POST /api/observations`. Answers 200 with a receipt only once the record and its
@@ -24,8 +24,9 @@ pub async fn submit(
 ) -> Result<Json<Receipt>, ApiError> {
     let (record_json, photos) = read_parts(multipart, "record").await?;
     let observer = caller.person.filter(|p| p.role == shared_types::Role::Observer).map(|p| p.id);
-    let accepted =
-        intake::accept(&state, Upload { record_json, photos }, observer, Utc::now()).await.map_err(intake_error)?;
+    let accepted = crate::arrival::receive(&state, Upload { record_json, photos }, observer, Utc::now())
+        .await
+        .map_err(intake_error)?;
     if accepted.replayed {
         tracing::info!(client_id = %accepted.receipt.client_id, "resend of a stored record");
     }

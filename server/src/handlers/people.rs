@@ -10,11 +10,11 @@ use serde::Deserialize;
 use shared_types::{PersonEvent, Role};
 
 use crate::AppState;
-use crate::auth;
 use crate::error::ApiError;
 use crate::handlers::access::Admin;
 use crate::handlers::observations::intake_error;
 use crate::intake::parse_json;
+use crate::people::{PeopleError, hashed, staff_role};
 use crate::store::people::{self, Person, RoleChange};
 
 /// `GET /api/people`.
@@ -36,57 +36,13 @@ pub struct NewPerson {
     password: String,
 }
 
-fn invalid(field: &str, message: String) -> ApiError {
-    ApiError::InvalidField { field: field.into(), message }
-}
-
-fn staff_role(role: Role) -> Result<Role, ApiError> {
-    if role == Role::Observer {
-        return Err(invalid("role", "observers need no sign-in: their phone gets an identity of its own".into()));
+/// The admin's words for what was refused.
+pub fn people_error(err: PeopleError) -> ApiError {
+    match err {
+        PeopleError::Invalid { field, message } => ApiError::InvalidField { field: field.into(), message },
+        PeopleError::Taken(_) => ApiError::Conflict(err.to_string()),
+        PeopleError::Internal(err) => ApiError::Internal(err),
     }
-    Ok(role)
-}
-
-/// Checks a password's length and hashes it (argon2, on the blocking pool).
-async fn hashed(password: String) -> Result<String, ApiError> {
-    if password.chars().count() < auth::MIN_PASSWORD_CHARS {
-        return Err(invalid("password", format!("at least {} characters", auth::MIN_PASSWORD_CHARS)));
-    }
-    Ok(tokio::task::spawn_blocking(move || auth::hash_password(&password))
-        .await
-        .map_err(|err| ApiError::Internal(err.into()))??)
-}
-
-/// Checks and adds a reviewer or admin on the server itself (`wrackline user add`, the
-/// demo): the audit row names no admin.
-pub async fn add_staff(
-    state: &AppState,
-    username: String,
-    role: Role,
-    display_name: String,
-    password: String,
-) -> Result<i64, ApiError> {
-    add_staff_as(state, None, username, role, display_name, password).await
-}
-
-async fn add_staff_as(
-    state: &AppState,
-    by: Option<i64>,
-    username: String,
-    role: Role,
-    display_name: String,
-    password: String,
-) -> Result<i64, ApiError> {
-    let role = staff_role(role)?;
-    let username = username.trim().to_lowercase();
-    if username.is_empty() || !username.chars().all(|c| c.is_ascii_alphanumeric() || "-_.".contains(c)) {
-        return Err(invalid("username", "use letters, digits, '-', '_' or '.'".into()));
-    }
-    let hash = hashed(password).await?;
-    let name = username.clone();
-    let added =
-        state.store.run(move |conn| people::add_staff(conn, &name, role, &display_name, &hash, by, Utc::now())).await?;
-    added.ok_or_else(|| ApiError::Conflict(format!("the username {username} is taken")))
 }
 
 /// `POST /api/people`.
@@ -96,7 +52,10 @@ pub async fn add(
     body: Bytes,
 ) -> Result<Json<serde_json::Value>, ApiError> {
     let new: NewPerson = parse_json(&body).map_err(intake_error)?;
-    let id = add_staff_as(&state, Some(admin.id), new.username, new.role, new.display_name, new.password).await?;
+    let id =
+        crate::people::add_staff(&state.store, Some(admin.id), &new.username, new.role, new.display_name, new.password)
+            .await
+            .map_err(people_error)?;
     Ok(Json(serde_json::json!({"id": id})))
 }
 
@@ -145,7 +104,7 @@ pub async fn set_role(
     body: Bytes,
 ) -> Result<Json<serde_json::Value>, ApiError> {
     let NewRole { role } = parse_json(&body).map_err(intake_error)?;
-    let role = staff_role(role)?;
+    let role = staff_role(role).map_err(people_error)?;
     if is_self(&admin, &username) {
         return Err(ApiError::Conflict("an admin cannot change their own role; ask another admin".into()));
     }
@@ -174,7 +133,7 @@ pub async fn reset_password(
     body: Bytes,
 ) -> Result<Json<serde_json::Value>, ApiError> {
     let NewPassword { password } = parse_json(&body).map_err(intake_error)?;
-    let hash = hashed(password).await?;
+    let hash = hashed(password).await.map_err(people_error)?;
     let name = username.clone();
     let changed =
         state.store.run(move |conn| people::set_password(conn, &name, &hash, Some(admin.id), Utc::now())).await?;

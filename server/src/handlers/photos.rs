@@ -48,12 +48,12 @@ pub async fn similar(
     Path(sha256): Path<String>,
 ) -> Result<Json<Vec<SimilarPhoto>>, ApiError> {
     let key = sha256.clone();
-    state
+    let (own, others) = state
         .store
-        .run(move |conn| observations::similar_photos(conn, &key, images::NEAR_DUPLICATE_BITS))
+        .run(move |conn| observations::photo_hashes(conn, &key))
         .await?
-        .map(Json)
-        .ok_or_else(|| ApiError::NotFound(format!("no photo {sha256} with a perceptual hash")))
+        .ok_or_else(|| ApiError::NotFound(format!("no photo {sha256} with a perceptual hash")))?;
+    Ok(Json(crate::duplicates::photos::similar_photos(&own, others)))
 }
 
 async fn serve(

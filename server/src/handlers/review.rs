@@ -15,6 +15,7 @@ use crate::handlers::access::Reviewer;
 use crate::handlers::observations::intake_error;
 use crate::intake::parse_json;
 use crate::review;
+use crate::review::queue::Wanted;
 use crate::store::{duplicates as duplicates_store, observations, review as review_store};
 
 fn record_id(text: &str) -> Result<Uuid, ApiError> {
@@ -81,7 +82,6 @@ pub async fn queue(
     let states = states_asked(filter.state.as_deref())?;
     let flag = flag_asked(filter.flag.as_deref())?;
     let (from, to) = (date_asked("from", filter.from.as_deref())?, date_asked("to", filter.to.as_deref())?);
-    let limit = filter.limit.unwrap_or(QUEUE_PAGE).min(QUEUE_PAGE_MAX);
     let rows = state
         .store
         .run(move |conn| {
@@ -93,39 +93,16 @@ pub async fn queue(
                 .collect::<Vec<_>>())
         })
         .await?;
-    let taxa = state.taxa.clone();
-    let checklist = taxa.checklist();
-    let wanted = filter.taxon.as_deref().filter(|t| !t.trim().is_empty()).map(|t| review::WantedTaxon::new(&taxa, t));
-    let mut items: Vec<_> = rows
-        .into_iter()
-        .filter(|(possible, record, taxon)| {
-            let day = record.submission.observed_at.format("%Y-%m-%d").to_string();
-            wanted.as_ref().is_none_or(|w| w.takes_in(&taxa, taxon.as_deref()))
-                && in_area(record, filter.area.as_deref(), checklist)
-                && flag.is_none_or(|f| review::queue_flags(record, *possible).contains(&f))
-                && from.as_deref().is_none_or(|from| day.as_str() >= from)
-                && to.as_deref().is_none_or(|to| day.as_str() <= to)
-        })
-        .map(|(possible, record, taxon)| {
-            let (score, reasons) = review::priority(&record, taxon.as_deref(), checklist, possible);
-            (score, record, reasons, taxon)
-        })
-        .collect();
-    review::order(&mut items);
-    let page = items.into_iter().skip(filter.offset.unwrap_or(0)).take(limit);
-    Ok(Json(
-        page.map(|(_, record, priority_reasons, current_taxon)| QueueItem { record, current_taxon, priority_reasons })
-            .collect(),
-    ))
-}
-
-fn in_area(record: &shared_types::RecordView, area: Option<&str>, checklist: &species_key::Checklist) -> bool {
-    area.filter(|a| !a.is_empty()).is_none_or(|code| {
-        record
-            .submission
-            .position
-            .is_some_and(|p| checklist.area_at(p.latitude.get(), p.longitude.get()).is_some_and(|a| a.code == code))
-    })
+    let wanted = Wanted {
+        taxon: filter.taxon.clone(),
+        flag,
+        from,
+        to,
+        area: filter.area.clone(),
+        offset: filter.offset.unwrap_or(0),
+        limit: filter.limit.unwrap_or(QUEUE_PAGE).min(QUEUE_PAGE_MAX),
+    };
+    Ok(Json(review::queue::select(rows, &wanted, &state.taxa)))
 }
 
 /// `GET /api/review/records/{client_id}`.
@@ -141,7 +118,7 @@ pub async fn detail(
             let Some(record) = observations::record_by_client_id(conn, id)? else { return Ok(None) };
             let observation = record.observation_id;
             let taxon = review_store::current_taxon(conn, observation)?;
-            let duplicates = duplicate_views(conn, &record)?;
+            let duplicates = review::duplicate_views(conn, &record)?;
             let possible = !duplicates.is_empty() && duplicates.iter().any(|d| d.decision.is_none());
             Ok(Some((
                 record,
@@ -159,30 +136,6 @@ pub async fn detail(
     let (_, priority_reasons) = review::priority(&record, taxon.as_deref(), state.checklist(), possible);
     let key = review::key_replay(state.checklist(), &record.submission);
     Ok(Json(ReviewDetail { record, identifications, messages, events, priority_reasons, duplicates, key }))
-}
-
-fn duplicate_views(
-    conn: &rusqlite::Connection,
-    record: &shared_types::RecordView,
-) -> Result<Vec<shared_types::DuplicateView>, crate::store::StoreError> {
-    let mut views = Vec::new();
-    for candidate in duplicates_store::candidates_of(conn, record.observation_id)? {
-        let Some(other) = observations::record_by_observation_id(conn, candidate.other)? else { continue };
-        let here = record.submission.position.map(|p| (p.latitude.get(), p.longitude.get()));
-        let there = other.submission.position.map(|p| (p.latitude.get(), p.longitude.get()));
-        let gap_hours =
-            (other.submission.observed_at - record.submission.observed_at).num_seconds().abs() as f64 / 3600.0;
-        views.push(shared_types::DuplicateView {
-            distance_m: here.zip(there).map(|(a, b)| crate::duplicates::geodesic_m(a, b)),
-            gap_hours,
-            other,
-            score: candidate.score,
-            reasons: candidate.reasons,
-            decision: candidate.decision,
-            merge_id: candidate.merge_id,
-        });
-    }
-    Ok(views)
 }
 
 /// `POST /api/review/records/{client_id}/duplicates/{other_client_id}`: the same animal
@@ -269,7 +222,7 @@ pub async fn place_map(
         .store
         .run(move |conn| {
             let Some(record) = observations::record_by_client_id(conn, id)? else { return Ok(None) };
-            let duplicates = duplicate_views(conn, &record)?;
+            let duplicates = review::duplicate_views(conn, &record)?;
             Ok(Some((record, duplicates)))
         })
         .await?;

@@ -12,7 +12,7 @@ use shared_types::{WalkLink, WalkReceipt};
 use uuid::Uuid;
 
 use crate::AppState;
-use crate::effort::{self, EffortRow, Period};
+use crate::assess::effort::{self, EffortRow, Period};
 use crate::error::ApiError;
 use crate::handlers::access::{Observer, Reviewer, Someone, check_owner};
 use crate::handlers::observations::intake_error;
@@ -28,7 +28,7 @@ pub async fn submit(
     Observer(me): Observer,
     body: Bytes,
 ) -> Result<Json<WalkReceipt>, ApiError> {
-    match intake_walks::accept_walk(&state, &body, Some(me.id), Utc::now()).await {
+    match intake_walks::accept_walk(&state.store, &body, Some(me.id), Utc::now()).await {
         Ok(receipt) => Ok(Json(receipt)),
         Err(WalkRefused::Intake(err)) => Err(intake_error(err)),
         Err(refused @ WalkRefused::NotYours(_)) => Err(ApiError::Forbidden(refused.to_string())),

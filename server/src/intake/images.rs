@@ -131,19 +131,6 @@ pub fn perceptual_hash(image: &DynamicImage) -> String {
     hex::encode(hasher.hash_image(image).as_bytes())
 }
 
-/// Hashes at most this many bits apart are listed as near duplicates. For a 64-bit
-/// pHash, 10 or fewer differing bits is the usual "same picture" cut (from memory,
-/// common practice); the test in `tests/it/similar.rs` shows a half-size re-encoded copy
-/// well inside it and other photos well outside.
-pub const NEAR_DUPLICATE_BITS: u32 = 10;
-
-/// Bits that differ between two hashes from [`perceptual_hash`]; `None` if either is
-/// not 16 hex digits.
-pub fn hash_distance(a: &str, b: &str) -> Option<u32> {
-    let parse = |text: &str| (text.len() == 16).then(|| u64::from_str_radix(text, 16).ok()).flatten();
-    Some((parse(a)? ^ parse(b)?).count_ones())
-}
-
 fn reader(bytes: &[u8], format: PhotoFormat) -> ImageReader<Cursor<&[u8]>> {
     let format = match format {
         PhotoFormat::Jpeg => ImageFormat::Jpeg,
@@ -182,13 +169,6 @@ fn encode_jpeg(image: &DynamicImage) -> Result<Vec<u8>, ImageProblem> {
 #[cfg(test)]
 mod tests {
     use super::*;
-
-    #[test]
-    fn hash_distance_counts_differing_bits() {
-        assert_eq!(hash_distance("0000000000000000", "000000000000000f"), Some(4));
-        assert_eq!(hash_distance("ffffffffffffffff", "ffffffffffffffff"), Some(0));
-        assert_eq!(hash_distance("short", "ffffffffffffffff"), None);
-    }
 
     #[test]
     fn orientation_outside_one_to_eight_means_as_stored() {

@@ -2,6 +2,7 @@
 //! names what is wrong. Nothing is half-stored: photo files are written (by content,
 //! so a retry rewrites nothing) before the one database transaction that links them.
 
+pub mod flags;
 pub mod gate;
 pub mod images;
 pub mod photo_checks;
@@ -13,10 +14,21 @@ use sha2::{Digest as _, Sha256};
 pub use shared_types::exif;
 use shared_types::{Receipt, Submission};
 
-use crate::AppState;
+use crate::store::Store;
 use crate::store::observations::{self, Insertion, NewObservation, StoredPhoto};
+use crate::taxa::TaxonIndex;
 use images::ImageProblem;
 use photos::{MAX_PHOTO_BYTES, MAX_PHOTOS_PER_RECORD, PhotoFormat, Rendition};
+
+/// What intake needs of the server: the store, the photo folder, the turns for decoding
+/// and the checklist. Cheap to clone (each part is shared).
+#[derive(Clone)]
+pub struct Intake {
+    pub store: Store,
+    pub photos: photos::PhotoFiles,
+    pub decode_gate: gate::DecodeGate,
+    pub taxa: std::sync::Arc<TaxonIndex>,
+}
 
 /// The raw parts of one submission.
 #[derive(Debug, Default)]
@@ -102,9 +114,10 @@ fn missing_field(message: &str) -> Option<&str> {
     message.strip_prefix("missing field `")?.split('`').next()
 }
 
-/// Checks, stores and links everything in `upload`.
+/// Checks, stores and links everything in `upload`. The follow-up stages (the search for
+/// duplicates) are `crate::arrival`'s.
 pub async fn accept(
-    state: &AppState,
+    state: &Intake,
     upload: Upload,
     observer_id: Option<i64>,
     now: DateTime<Utc>,
@@ -139,15 +152,8 @@ pub async fn accept(
         .await
         .map_err(anyhow::Error::from)?;
     match outcome {
-        Insertion::Created(receipt) => {
-            find_duplicates(state, receipt.observation_id, Utc::now()).await?;
-            Ok(Accepted { receipt, replayed: false })
-        }
-        Insertion::Replayed(receipt) => {
-            // The first arrival may have stored the record and then failed to search.
-            find_duplicates(state, receipt.observation_id, Utc::now()).await?;
-            Ok(Accepted { receipt, replayed: true })
-        }
+        Insertion::Created(receipt) => Ok(Accepted { receipt, replayed: false }),
+        Insertion::Replayed(receipt) => Ok(Accepted { receipt, replayed: true }),
         Insertion::Conflict => Err(IntakeError::Conflict(client_id)),
     }
 }
@@ -155,7 +161,7 @@ pub async fn accept(
 /// Refuses a record that names a walk another phone sent (walk ids are public in
 /// exports). A walk not stored yet may be named: records can arrive before their walk.
 async fn check_walk_owner(
-    state: &AppState,
+    state: &Intake,
     submission: &Submission,
     observer_id: Option<i64>,
 ) -> Result<(), IntakeError> {
@@ -187,66 +193,12 @@ pub fn compare_photos(record: &Submission, stored: &mut [StoredPhoto], phone: &[
     }
 }
 
-/// Looks for other reports of the same animal among stored records and keeps the
-/// candidates for reviewers, unless that was done already (a resend).
-async fn find_duplicates(state: &AppState, observation_id: i64, now: DateTime<Utc>) -> Result<(), IntakeError> {
-    let names = state.taxa.clone();
-    let index = state.duplicates.clone();
-    state
-        .store
-        .run(move |conn| {
-            if crate::store::duplicates::searched(conn, observation_id)? {
-                return Ok(());
-            }
-            search_duplicates(conn, &index, &names, observation_id, now)
-        })
-        .await
-        .map_err(anyhow::Error::from)?;
-    Ok(())
-}
-
-/// The search for one stored record: records holding the same photo (file or original)
-/// at any time and place, and the index's neighbours of each of its places; the record's
-/// places join the index. The index lock covers the query and the insert together, so of
-/// two arrivals of one animal the second always finds the first. Marks the search done
-/// in the transaction that keeps the candidates.
-pub fn search_duplicates(
-    conn: &mut rusqlite::Connection,
-    index: &std::sync::Mutex<crate::duplicates::Index>,
-    names: &crate::assess::taxa::TaxonIndex,
-    observation_id: i64,
-    now: DateTime<Utc>,
-) -> Result<(), crate::store::StoreError> {
-    use crate::duplicates::{candidates, from_raw, index_points};
-    use crate::store::duplicates::{raw_records, save_candidates, sharing_a_photo};
-    let Some(new) = raw_records(conn, &[observation_id])?.pop().and_then(|raw| from_raw(&raw, names)) else {
-        // Merged already, or its stored codes do not read: nothing to look for.
-        return save_candidates(conn, observation_id, &[], now);
-    };
-    // The same photo file is a candidate at any distance and time, with or without a position.
-    let mut near = sharing_a_photo(conn, observation_id)?;
-    {
-        let mut index = index.lock().unwrap_or_else(|p| p.into_inner());
-        for point in index_points(&new) {
-            near.extend(index.possible_pairs(point.1, point.2, point.3));
-        }
-        for point in index_points(&new) {
-            index.insert(point);
-        }
-    }
-    near.sort_unstable();
-    near.dedup();
-    let others: Vec<_> = raw_records(conn, &near)?.iter().filter_map(|r| from_raw(r, names)).collect();
-    let found: Vec<_> = candidates(&new, &others).into_iter().map(|(id, c)| (id, c.score, c.reasons)).collect();
-    save_candidates(conn, observation_id, &found, now)
-}
-
 /// Checks and writes photo files. The cheap checks (count, bytes, magic) run on every
 /// photo first; then each is decoded in turn through the server's decode gate (hashing,
 /// EXIF, decoding and derivatives are blocking work); only when all have passed are the
 /// files written, so a bad photo refuses the record before any file is stored.
 pub async fn store_photos(
-    state: &AppState,
+    state: &Intake,
     photos: Vec<Vec<u8>>,
     record_offset: chrono::FixedOffset,
 ) -> Result<Vec<StoredPhoto>, IntakeError> {
@@ -271,10 +223,10 @@ pub async fn store_photos(
 /// Flags for reviewers and the species' scientific name, when the record names a
 /// checklist species.
 async fn arrival_flags(
-    state: &AppState,
+    state: &Intake,
     submission: &Submission,
 ) -> Result<(Vec<shared_types::RecordFlag>, Option<String>), IntakeError> {
-    let Some(taxon) = crate::flags::species_of(&state.taxa, submission) else {
+    let Some(taxon) = crate::intake::flags::species_of(&state.taxa, submission) else {
         return Ok((Vec::new(), None));
     };
     let name = taxon.scientific_name.clone();
@@ -284,7 +236,7 @@ async fn arrival_flags(
         .run(move |conn| observations::confirmed_positions(conn, &query_name))
         .await
         .map_err(anyhow::Error::from)?;
-    Ok((crate::flags::raise(state.checklist(), submission, taxon, &confirmed), Some(name)))
+    Ok((crate::intake::flags::raise(state.taxa.checklist(), submission, taxon, &confirmed), Some(name)))
 }
 
 /// Writes each checked photo's original and derivatives durably.

@@ -5,7 +5,7 @@ use sha2::{Digest as _, Sha256};
 use shared_types::{WalkProblem, WalkReceipt, WalkSubmission};
 
 use super::{IntakeError, parse_json};
-use crate::AppState;
+use crate::store::Store;
 use crate::store::walks::{self, WalkInsertion};
 
 fn field_of(problem: &WalkProblem) -> &'static str {
@@ -36,7 +36,7 @@ pub enum WalkRefused {
 /// Stores a walk under the phone that sent it (`observer_id`); a resend gets the first
 /// receipt, a changed resend a conflict, another phone's walk a refusal.
 pub async fn accept_walk(
-    state: &AppState,
+    store: &Store,
     json: &[u8],
     observer_id: Option<i64>,
     now: DateTime<Utc>,
@@ -44,8 +44,7 @@ pub async fn accept_walk(
     let walk = parse_walk(json)?;
     let content = hex::encode(Sha256::digest(serde_json::to_vec(&walk).unwrap_or_default()));
     let client_id = walk.client_id;
-    let outcome = state
-        .store
+    let outcome = store
         .run(move |conn| walks::insert_walk(conn, &walk, &content, observer_id, now))
         .await
         .map_err(|err| IntakeError::Storage(err.into()))?;

@@ -124,6 +124,11 @@ impl Store {
         let mut guard = self.conn.lock().unwrap_or_else(|poisoned| poisoned.into_inner());
         work(&mut guard)
     }
+
+    /// Whether the database answers a trivial query (for the health check).
+    pub async fn ping(&self) -> Result<(), StoreError> {
+        self.run(|conn| Ok(conn.query_row("SELECT 1", [], |_| Ok(()))?)).await
+    }
 }
 
 /// A read-only connection to the database at `path` (already created and migrated by

@@ -8,12 +8,11 @@ use chrono::{DateTime, Utc};
 use rusqlite::{Connection, OptionalExtension, Transaction, params};
 use shared_types::{
     FlagKind, OffsetSource, PhotoCheck, PhotoExif, PhotoFlag, PhotoView, Receipt, RecordFlag, RecordView, ReviewState,
-    SimilarPhoto, Submission,
+    Submission,
 };
 use uuid::Uuid;
 
 use super::StoreError;
-use crate::intake::images::hash_distance;
 
 /// A photo whose file is already durably on disk, ready to be linked to a record.
 #[derive(Debug, Clone)]
@@ -34,6 +33,14 @@ pub struct StoredPhoto {
 }
 
 /// Everything intake has checked and is ready to store.
+/// A stored photo's perceptual hash, with the observations that carry the photo.
+#[derive(Debug, Clone)]
+pub struct HashedPhoto {
+    pub sha256: String,
+    pub phash: String,
+    pub observation_ids: Vec<i64>,
+}
+
 #[derive(Debug, Clone)]
 pub struct NewObservation {
     pub submission: Submission,
@@ -521,10 +528,9 @@ fn parse_utc(text: &str) -> Result<DateTime<Utc>, StoreError> {
         .map_err(|err| StoreError::Corrupt(format!("timestamp {text}: {err}")))
 }
 
-/// Stored photos whose perceptual hash is within `max_bits` of this photo's, nearest
-/// first, with the observations each belongs to. A linear scan: fine for the tens of
-/// thousands of photos a regional network gathers; an index (BK-tree) can come later.
-pub fn similar_photos(conn: &Connection, sha256: &str, max_bits: u32) -> Result<Option<Vec<SimilarPhoto>>, StoreError> {
+/// A stored photo's perceptual hash and every other stored photo's, each with the
+/// observations it belongs to; `None` when the photo is not stored or has no hash.
+pub fn photo_hashes(conn: &Connection, sha256: &str) -> Result<Option<(String, Vec<HashedPhoto>)>, StoreError> {
     let Some(Some(own)) = conn
         .query_row("SELECT phash FROM photos WHERE sha256 = ?1", [sha256], |row| row.get::<_, Option<String>>(0))
         .optional()?
@@ -537,15 +543,12 @@ pub fn similar_photos(conn: &Connection, sha256: &str, max_bits: u32) -> Result<
          WHERE p.phash IS NOT NULL AND p.sha256 <> ?1 GROUP BY p.sha256",
     )?;
     let rows = stmt.query_map([sha256], |row| {
-        Ok((row.get::<_, String>(0)?, row.get::<_, String>(1)?, row.get::<_, Option<String>>(2)?))
+        let observations: Option<String> = row.get(2)?;
+        Ok(HashedPhoto {
+            sha256: row.get(0)?,
+            phash: row.get(1)?,
+            observation_ids: observations.unwrap_or_default().split(',').filter_map(|id| id.parse().ok()).collect(),
+        })
     })?;
-    let mut near = Vec::new();
-    for row in rows {
-        let (other, phash, observations) = row?;
-        let Some(distance_bits) = hash_distance(&own, &phash).filter(|d| *d <= max_bits) else { continue };
-        let observation_ids = observations.unwrap_or_default().split(',').filter_map(|id| id.parse().ok()).collect();
-        near.push(SimilarPhoto { sha256: other, distance_bits, observation_ids });
-    }
-    near.sort_by(|a, b| a.distance_bits.cmp(&b.distance_bits).then_with(|| a.sha256.cmp(&b.sha256)));
-    Ok(Some(near))
+    Ok(Some((own, rows.collect::<Result<_, _>>()?)))
 }

@@ -350,7 +350,7 @@ async fn a_search_that_failed_after_the_record_was_stored_runs_again_on_a_resend
     assert_eq!(resent.status, 200, "{}", resent.body);
     assert!(reasons_between(&detail(&app, SECOND).await, FIRST).contains("24.0 h apart"));
     // The third is never resent: the next start searches for it.
-    let checklist = wrackline_server::load_checklist(None).unwrap();
+    let checklist = wrackline_server::taxa::load_checklist(None).unwrap();
     assert_eq!(detail(&app, THIRD).await["duplicates"], json!([]));
     wrackline_server::AppState::open(&app.data_dir, None, checklist).unwrap();
     assert!(
@@ -362,7 +362,7 @@ async fn a_search_that_failed_after_the_record_was_stored_runs_again_on_a_resend
 
 /// Starts a second server on the same data directory, as a restart would.
 async fn restart(app: &TestApp) -> String {
-    let checklist = wrackline_server::load_checklist(None).unwrap();
+    let checklist = wrackline_server::taxa::load_checklist(None).unwrap();
     let state = wrackline_server::AppState::open(&app.data_dir, None, checklist).unwrap();
     let listener = tokio::net::TcpListener::bind("127.0.0.1:0").await.unwrap();
     let base = format!("http://{}", listener.local_addr().unwrap());

@@ -50,7 +50,7 @@ pub async fn spawn_app_with_decode_turns(turns: usize) -> TestApp {
 async fn spawn(app_dir: Option<PathBuf>, decode_turns: Option<usize>) -> TestApp {
     let dir = tempfile::tempdir().expect("temp dir");
     let data_dir = dir.path().join("data");
-    let checklist = wrackline_server::load_checklist(None).expect("demo checklist");
+    let checklist = wrackline_server::taxa::load_checklist(None).expect("demo checklist");
     let mut state = AppState::open(&data_dir, app_dir, checklist).expect("open state");
     if let Some(turns) = decode_turns {
         state.decode_gate = wrackline_server::intake::gate::DecodeGate::new(turns);
@@ -58,9 +58,10 @@ async fn spawn(app_dir: Option<PathBuf>, decode_turns: Option<usize>) -> TestApp
     let decode_gate = state.decode_gate.clone();
     for (username, role) in [("test-reviewer", shared_types::Role::Reviewer), ("test-admin", shared_types::Role::Admin)]
     {
-        wrackline_server::handlers::people::add_staff(
-            &state,
-            username.into(),
+        wrackline_server::people::add_staff(
+            &state.store,
+            None,
+            username,
             role,
             format!("Test {}", role.code()),
             REVIEWER_PASSWORD.into(),

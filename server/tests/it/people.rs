@@ -17,8 +17,8 @@ fn wrackline(data_dir: &std::path::Path) -> Command {
 
 /// Serves `data_dir` on 127.0.0.1:0 in this process; the address.
 async fn serve(data_dir: &std::path::Path) -> String {
-    let state =
-        wrackline_server::AppState::open(data_dir, None, wrackline_server::load_checklist(None).unwrap()).unwrap();
+    let state = wrackline_server::AppState::open(data_dir, None, wrackline_server::taxa::load_checklist(None).unwrap())
+        .unwrap();
     let listener = tokio::net::TcpListener::bind("127.0.0.1:0").await.unwrap();
     let base = format!("http://{}", listener.local_addr().unwrap());
     tokio::spawn(async move { axum::serve(listener, wrackline_server::app(state)).await.unwrap() });

@@ -3,7 +3,8 @@
 //! drawings in `demo-records/photos/`.
 
 use image::GenericImageView as _;
-use wrackline_server::intake::images::{self, NEAR_DUPLICATE_BITS};
+use wrackline_server::duplicates::photos::{NEAR_DUPLICATE_BITS, hash_distance};
+use wrackline_server::intake::images;
 
 use crate::helpers::{TestApp, sized_jpeg, spawn_app, submission};
 
@@ -39,16 +40,16 @@ fn hash_of(jpeg: &[u8]) -> String {
 #[test]
 fn a_resized_reencoded_copy_is_near_and_other_photos_are_far() {
     let original = demo_photo("catshark.jpg");
-    let near = images::hash_distance(&hash_of(&original), &hash_of(&resized_copy(&original))).unwrap();
+    let near = hash_distance(&hash_of(&original), &hash_of(&resized_copy(&original))).unwrap();
     assert!(near <= 4, "resized copy is {near} bits away");
     // Not spurdog.jpg: it is drawn from the same template in the same pose, and is only
     // 4 bits away. pHash sees layout, not species; that is why duplicate review weighs
     // time, place and size too, and a person decides.
     for other in ["ray.jpg", "tope.jpg", "stingray.jpg"] {
-        let far = images::hash_distance(&hash_of(&original), &hash_of(&demo_photo(other))).unwrap();
+        let far = hash_distance(&hash_of(&original), &hash_of(&demo_photo(other))).unwrap();
         assert!(far > NEAR_DUPLICATE_BITS, "{other} is only {far} bits away");
     }
-    let pattern = images::hash_distance(&hash_of(&original), &hash_of(&sized_jpeg(960, 720))).unwrap();
+    let pattern = hash_distance(&hash_of(&original), &hash_of(&sized_jpeg(960, 720))).unwrap();
     assert!(pattern > NEAR_DUPLICATE_BITS, "a synthetic pattern is only {pattern} bits away");
 }
 

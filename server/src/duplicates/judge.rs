@@ -1,64 +1,16 @@
-//! Finding the same animal reported twice: plain data in, plain data out.
-//!
-//! A pair of records is judged on four things, each with a documented window, and
-//! ruled out on a hard contradiction:
-//!
-//! - **place**: geodesic distance against the allowed gap, the two positions'
-//!   uncertainties added in quadrature plus a drift allowance — [`DRIFT_CARCASS_M`] for
-//!   beach strandings and animals floating at sea (tides move a carcass), [`DRIFT_LANDED_M`]
-//!   for landed fish. A position known only to worse than [`MAX_USEFUL_UNCERTAINTY_M`] is
-//!   not used for place at all;
-//! - **time**: the gap against [`WINDOW_CARCASS_H`] (a carcass lies for days) or
-//!   [`WINDOW_LANDED_H`] (a landed fish for hours); and condition never gets fresher: the
-//!   later report may not be in a better condition than the earlier (alive < fresh dead <
-//!   decomposed < remains only);
-//! - **species**: the same taxon, or one a higher rank of the other (by the checklist);
-//!   two different taxa contradict. An unnamed record, or one whose name is not on the
-//!   checklist (free text such as "big ray"), neither supports nor contradicts;
-//! - **length**: within the tolerance of its kind ([`length_tolerance`]; taped or
-//!   estimated). Lengths of different kinds are converted to the species' own measure
-//!   with the checklist's equation (or the key's generic ratio) when the species is
-//!   known, with [`CONVERSION_ALLOWANCE`] more slack; otherwise they are not comparable.
-//!
-//! When a record has no position, or one of its photos is flagged as taken long before
-//! or far from the record, the photo's own EXIF time and place (the chosen reading: the
-//! server's of the received file, else the phone's of the original; GPSHPositioningError
-//! as its uncertainty) are tried as well, and the better of the two is kept with a
-//! reason saying which was used.
-//!
-//! The same photo file (SHA-256), or the same original photo on the phone (the SHA-256
-//! the phone sends of the file it picked), in both is decisive on its own: a candidate
-//! whatever else, with score 1. Otherwise
-//!
-//! score = 0.35 place + 0.35 time + 0.15 species + 0.15 length (+ [`PHOTOS_ALIKE_BONUS`])
-//!
-//! where place = 1 − distance / allowed, time = 1 − gap / window, species is 1 (same),
-//! 0.7 (one contains the other) or 0.5 (unnamed or not on the checklist), length is
-//! 1 − difference / tolerance or 0.5 when it cannot be compared, and the bonus is added
-//! when two of their photos look alike (perceptual hashes within
-//! `intake::images::NEAR_DUPLICATE_BITS`). A pair is a candidate at [`CANDIDATE_SCORE`]
-//! or more. Photos that look alike never override a contradiction: the hash sees
-//! layout, not species. Every verdict keeps its reasons in words. Thresholds are
-//! wrackline's own (common practice for plausibility windows), checked by the pair
-//! table in the tests.
-//!
-//! Candidates are found through an R-tree ([`Index`]) over place and time: unit-sphere
-//! points (so distances follow the globe, with no seam at the antimeridian) plus the day.
-//! Each stored place is a box as wide as its own reach (its uncertainty plus half the
-//! carcass drift), so a record with a large uncertainty widens only its own box, never
-//! every search.
+//! Judging one pair of records: the windows, weights and tolerances, and the verdict
+//! with its reasons in words. Plain data in, plain data out.
 
 use std::sync::Arc;
 
 use chrono::{DateTime, Utc};
 use geo::{Distance, Geodesic, Point};
-use rstar::primitives::{GeomWithData, Rectangle};
-use rstar::{AABB, Envelope as _, RTree, RTreeObject as _};
 use serde::Serialize;
-use shared_types::codes::from_code;
-use shared_types::{Condition, LengthKind, PhotoExif, Setting};
+use shared_types::{Condition, LengthKind, Setting};
+use species_key::Taxon;
 use species_key::length::ConversionMethod;
-use species_key::{Taxon, TaxonRank};
+
+use super::photos::{NEAR_DUPLICATE_BITS, hash_distance};
 
 pub const DRIFT_CARCASS_M: f64 = 2_000.0;
 pub const DRIFT_LANDED_M: f64 = 200.0;
@@ -89,10 +41,10 @@ pub const LENGTH_TOLERANCES: [(LengthKind, f64, f64); 5] = [
     (LengthKind::DiscLength, 0.15, 0.30),
 ];
 
-const EARTH_RADIUS_M: f64 = 6_371_008.8;
+pub(super) const EARTH_RADIUS_M: f64 = 6_371_008.8;
 /// Geodesic (WGS84) and great-circle distances differ by under 0.6% (common practice);
 /// search boxes are this much wider so the sphere never misses an ellipsoid pair.
-const SPHERE_MARGIN: f64 = 0.01;
+pub(super) const SPHERE_MARGIN: f64 = 0.01;
 
 /// The tolerance for a length of `kind`, taped or estimated.
 pub fn length_tolerance(kind: LengthKind, estimated: bool) -> f64 {
@@ -199,7 +151,7 @@ fn freshness(condition: Condition) -> u8 {
     }
 }
 
-fn effective_uncertainty(u: Option<f64>) -> f64 {
+pub(super) fn effective_uncertainty(u: Option<f64>) -> f64 {
     u.filter(|u| u.is_finite() && *u >= 0.0).unwrap_or(UNKNOWN_UNCERTAINTY_M)
 }
 
@@ -319,7 +271,7 @@ fn judge_sightings(a: &DupRecord, sa: &Sighting, b: &DupRecord, sb: &Sighting) -
     reasons.extend([sa, sb].iter().filter_map(|s| s.from_photo.clone()));
     let mut total =
         0.35 * (1.0 - distance / allowed) + 0.35 * (1.0 - gap_hours / window) + 0.15 * species + 0.15 * length;
-    if let Some(bits) = nearest_photos(a, b).filter(|bits| *bits <= crate::intake::images::NEAR_DUPLICATE_BITS) {
+    if let Some(bits) = nearest_photos(a, b).filter(|bits| *bits <= NEAR_DUPLICATE_BITS) {
         total += PHOTOS_ALIKE_BONUS;
         reasons.push(format!("two of their photos look alike (perceptual hashes {bits} bits apart)"));
     }
@@ -335,10 +287,7 @@ fn judge_sightings(a: &DupRecord, sa: &Sighting, b: &DupRecord, sb: &Sighting) -
 }
 
 fn nearest_photos(a: &DupRecord, b: &DupRecord) -> Option<u32> {
-    a.photo_phashes
-        .iter()
-        .flat_map(|x| b.photo_phashes.iter().filter_map(move |y| crate::intake::images::hash_distance(x, y)))
-        .min()
+    a.photo_phashes.iter().flat_map(|x| b.photo_phashes.iter().filter_map(move |y| hash_distance(x, y))).min()
 }
 
 fn unnamed_reason(species: &Species) -> Option<String> {
@@ -459,260 +408,6 @@ fn method_words(method: &ConversionMethod) -> Option<String> {
     }
 }
 
-/// A stored record as scoring sees it; `None` when its stored codes do not read.
-pub fn from_raw(raw: &crate::store::duplicates::RawDup, names: &crate::assess::taxa::TaxonIndex) -> Option<DupRecord> {
-    let at = DateTime::parse_from_rfc3339(&raw.at_utc).ok()?.with_timezone(&Utc);
-    let length = match &raw.length {
-        Some((kind, cm, method)) => Some((from_code(kind)?, *cm, method == "estimated")),
-        None => None,
-    };
-    Some(DupRecord {
-        observation_id: raw.observation_id,
-        sightings: sightings(raw, at),
-        setting: from_code(&raw.setting)?,
-        condition: from_code(&raw.condition)?,
-        species: raw.taxon_name.as_deref().map_or(Species::Unnamed, |name| species_named(name, names)),
-        length,
-        photo_hashes: raw.photos.iter().map(|p| p.sha256.clone()).collect(),
-        original_hashes: raw.photos.iter().filter_map(|p| p.original_sha256.clone()).collect(),
-        photo_phashes: raw.photos.iter().filter_map(|p| p.phash.clone()).collect(),
-    })
-}
-
-const RANKS: [TaxonRank; 5] =
-    [TaxonRank::Species, TaxonRank::Genus, TaxonRank::Family, TaxonRank::Order, TaxonRank::Superorder];
-
-/// A checklist species (by scientific or common name), a higher taxon the checklist
-/// names (genus to superorder), or a name it does not know.
-pub fn species_named(name: &str, names: &crate::assess::taxa::TaxonIndex) -> Species {
-    let lineage_from = |taxon: &Taxon, rank: TaxonRank| {
-        let mut unique: Vec<String> = Vec::new();
-        for name in RANKS.iter().skip_while(|r| **r != rank).map(|r| taxon.name_at(*r).to_owned()) {
-            if !unique.contains(&name) {
-                unique.push(name);
-            }
-        }
-        unique
-    };
-    if let Some(taxon) = names.resolve(name) {
-        return Species::Named {
-            lineage: lineage_from(taxon, TaxonRank::Species),
-            taxon: Some(Arc::new(taxon.clone())),
-        };
-    }
-    let higher = names
-        .filter(name)
-        .and_then(|f| names.checklist().taxa().iter().find(|t| t.name_at(f.rank) == f.name).map(|t| (t, f.rank)));
-    match higher {
-        Some((taxon, rank)) => Species::Named { lineage: lineage_from(taxon, rank), taxon: None },
-        None => Species::NotOnChecklist(name.trim().to_owned()),
-    }
-}
-
-/// A photo's EXIF time and place as the chosen reading gives them.
-struct PhotoSays {
-    at: Option<DateTime<Utc>>,
-    position: Option<(f64, f64)>,
-    error_m: Option<f64>,
-    reading: &'static str,
-}
-
-fn valid_position(lat: Option<f64>, lon: Option<f64>) -> Option<(f64, f64)> {
-    lat.zip(lon).filter(|(lat, lon)| {
-        lat.is_finite() && lon.is_finite() && (-90.0..=90.0).contains(lat) && (-180.0..=180.0).contains(lon)
-    })
-}
-
-/// What the photo's EXIF says, field by field from the reading intake compared with the
-/// record (`time_reading`, `place_reading`): the server's of the file it received, or
-/// the phone's of the original.
-fn photo_says(photo: &crate::store::duplicates::RawPhoto) -> Option<PhotoSays> {
-    let phone: Option<PhotoExif> = photo.phone_exif_json.as_deref().and_then(|json| serde_json::from_str(json).ok());
-    let time_from = photo.time_reading.as_deref();
-    let place_from = photo.place_reading.as_deref();
-    let at = match time_from {
-        Some("phone") => phone.as_ref().and_then(|exif| exif.taken_at).map(|t| t.with_timezone(&Utc)),
-        Some("received_file") => photo
-            .file_taken_at
-            .as_deref()
-            .and_then(|t| DateTime::parse_from_rfc3339(t).ok())
-            .map(|t| t.with_timezone(&Utc)),
-        _ => None,
-    };
-    let (position, error_m) = match place_from {
-        Some("phone") => phone
-            .as_ref()
-            .map_or((None, None), |exif| (valid_position(exif.latitude, exif.longitude), exif.horizontal_error_m)),
-        Some("received_file") => {
-            (valid_position(photo.file_position.map(|p| p.0), photo.file_position.map(|p| p.1)), photo.file_error_m)
-        }
-        _ => (None, None),
-    };
-    let reading =
-        match (at.is_some().then_some(time_from).flatten(), position.is_some().then_some(place_from).flatten()) {
-            (Some("phone"), Some("received_file")) => {
-                "the phone's reading of the original for the time, the EXIF of the file received for the place"
-            }
-            (Some("received_file"), Some("phone")) => {
-                "the EXIF of the file received for the time, the phone's reading of the original for the place"
-            }
-            (Some("phone"), _) | (None, Some("phone")) => "the phone's reading of the original",
-            (Some(_), _) | (None, Some(_)) => "the EXIF of the file received",
-            (None, None) => return None,
-        };
-    Some(PhotoSays { at, position, error_m: error_m.filter(|e| e.is_finite() && *e >= 0.0), reading })
-}
-
-/// The record's own time and place, and a photo's when the record has no position or
-/// the photo is flagged as taken long before or far from it (the first such photo with
-/// a reading). The photo's time and place are used where it has them, the record's
-/// otherwise.
-pub fn sightings(raw: &crate::store::duplicates::RawDup, at: DateTime<Utc>) -> Vec<Sighting> {
-    let own = Sighting::own(at, raw.position, raw.accuracy_m);
-    let from_photo = raw.photos.iter().find_map(|photo| {
-        let long_before = photo.flags.iter().any(|f| f == "taken_long_before_record");
-        let far = photo.flags.iter().any(|f| f == "taken_far_from_record");
-        let no_place = raw.position.is_none();
-        if !(no_place || long_before || far) {
-            return None;
-        }
-        let says = photo_says(photo)?;
-        let position = says.position.or(raw.position)?;
-        let what = match (says.at.is_some(), says.position.is_some()) {
-            (true, true) => "time and place",
-            (false, true) => "place",
-            (true, false) => "time",
-            (false, false) => return None,
-        };
-        let why = match (no_place, long_before, far) {
-            (true, false, _) => "the record has no position".to_owned(),
-            (_, true, true) => {
-                format!("photo {} was flagged as taken long before and far from the record", photo.number)
-            }
-            (_, true, false) => format!("photo {} was flagged as taken long before the record", photo.number),
-            (false, false, _) => format!("photo {} was flagged as taken far from the record's place", photo.number),
-        };
-        let error =
-            says.error_m.filter(|_| says.position.is_some()).map(|e| format!(", ±{e:.0} m")).unwrap_or_default();
-        Some(Sighting {
-            at: says.at.unwrap_or(at),
-            position: Some(position),
-            uncertainty_m: if says.position.is_some() { says.error_m } else { raw.accuracy_m },
-            from_photo: Some(format!(
-                "for one report the {what} of photo {}'s EXIF ({}{error}) was used, because {why}",
-                photo.number, says.reading
-            )),
-        })
-    });
-    std::iter::once(own).chain(from_photo).collect()
-}
-
-/// A point on the unit sphere, so straight-line distance follows great-circle distance
-/// everywhere (no seams at the antimeridian or the poles).
-fn unit_vector((lat, lon): (f64, f64)) -> [f64; 3] {
-    let (lat, lon) = (lat.to_radians(), lon.to_radians());
-    [lat.cos() * lon.cos(), lat.cos() * lon.sin(), lat.sin()]
-}
-
-/// A stored place for the index: id, (latitude, longitude), uncertainty in metres if
-/// known, and when.
-pub type IndexedPoint = (i64, (f64, f64), Option<f64>, DateTime<Utc>);
-
-type Entry = GeomWithData<Rectangle<[f64; 4]>, i64>;
-
-/// The places and times of stored records. Each place is a box of half-width
-/// `reach(u) = (u + DRIFT_CARCASS_M / 2) × 1.01` (as a chord of the unit sphere), so two
-/// boxes meet whenever the two places are within u₁ + u₂ + DRIFT_CARCASS_M ≥ the
-/// quadrature gap [`judge`] allows; a search is the new record's box over ± the carcass
-/// window. A record with a large uncertainty makes only its own box large.
-#[derive(Default)]
-pub struct Index {
-    tree: RTree<Entry>,
-}
-
-fn days(at: DateTime<Utc>) -> f64 {
-    at.timestamp() as f64 / 86_400.0
-}
-
-/// Half the side of a place's box, as a chord of the unit sphere.
-fn half_width(uncertainty_m: f64) -> f64 {
-    let reach = (uncertainty_m + DRIFT_CARCASS_M / 2.0) * (1.0 + SPHERE_MARGIN);
-    2.0 * (reach / (2.0 * EARTH_RADIUS_M)).min(std::f64::consts::FRAC_PI_2).sin()
-}
-
-/// The box of a place over the days `from..=to`; `None` when the place is too uncertain
-/// to compare.
-fn place_box(position: (f64, f64), uncertainty_m: Option<f64>, from: f64, to: f64) -> Option<AABB<[f64; 4]>> {
-    let u = effective_uncertainty(uncertainty_m);
-    if u > MAX_USEFUL_UNCERTAINTY_M {
-        return None;
-    }
-    let h = half_width(u);
-    let [x, y, z] = unit_vector(position);
-    Some(AABB::from_corners([x - h, y - h, z - h, from], [x + h, y + h, z + h, to]))
-}
-
-fn entry((id, position, uncertainty_m, at): IndexedPoint) -> Option<Entry> {
-    place_box(position, uncertainty_m, days(at), days(at)).map(|aabb| GeomWithData::new(Rectangle::from(aabb), id))
-}
-
-impl Index {
-    /// Builds the index at once (bulk loading is much faster than one by one).
-    pub fn build(points: impl IntoIterator<Item = IndexedPoint>) -> Self {
-        Self { tree: RTree::bulk_load(points.into_iter().filter_map(entry).collect()) }
-    }
-
-    /// Adds a place; adding the same place of the same record again changes nothing.
-    pub fn insert(&mut self, point: IndexedPoint) {
-        let Some(new) = entry(point) else { return };
-        let centre = new.geom().envelope().center();
-        if !self.tree.locate_all_at_point(&centre).any(|e| e == &new) {
-            self.tree.insert(new);
-        }
-    }
-
-    /// Every stored record [`judge`] could place beside this place: boxes that meet, in
-    /// the longest time window. (A record with the very same photo is a candidate at any
-    /// distance; those are found by hash, not here.)
-    pub fn possible_pairs(&self, position: (f64, f64), uncertainty_m: Option<f64>, at: DateTime<Utc>) -> Vec<i64> {
-        let window = WINDOW_CARCASS_H / 24.0;
-        let Some(envelope) = place_box(position, uncertainty_m, days(at) - window, days(at) + window) else {
-            return Vec::new();
-        };
-        let mut ids: Vec<i64> = self.tree.locate_in_envelope_intersecting(&envelope).map(|e| e.data).collect();
-        ids.sort_unstable();
-        ids.dedup();
-        ids
-    }
-
-    pub fn len(&self) -> usize {
-        self.tree.size()
-    }
-
-    pub fn is_empty(&self) -> bool {
-        self.tree.size() == 0
-    }
-}
-
-/// The places of a record the index keeps: each of its sightings with a position.
-pub fn index_points(record: &DupRecord) -> Vec<IndexedPoint> {
-    record
-        .sightings
-        .iter()
-        .filter_map(|s| s.position.map(|p| (record.observation_id, p, s.uncertainty_m, s.at)))
-        .collect()
-}
-
-/// The places of a stored record the index keeps, read straight from the store (no
-/// names looked up); empty when its time does not read.
-pub fn raw_index_points(raw: &crate::store::duplicates::RawDup) -> Vec<IndexedPoint> {
-    let Ok(at) = DateTime::parse_from_rfc3339(&raw.at_utc) else { return Vec::new() };
-    sightings(raw, at.with_timezone(&Utc))
-        .iter()
-        .filter_map(|s| s.position.map(|p| (raw.observation_id, p, s.uncertainty_m, s.at)))
-        .collect()
-}
-
 /// Candidates for `new` among `others` (already narrowed by the index), best first.
 pub fn candidates<'a>(new: &DupRecord, others: impl IntoIterator<Item = &'a DupRecord>) -> Vec<(i64, Candidate)> {
     let mut found: Vec<(i64, Candidate)> = others
@@ -723,7 +418,3 @@ pub fn candidates<'a>(new: &DupRecord, others: impl IntoIterator<Item = &'a DupR
     found.sort_by(|a, b| b.1.score.total_cmp(&a.1.score));
     found
 }
-
-#[cfg(test)]
-#[path = "duplicates_tests.rs"]
-mod tests;

@@ -11,7 +11,7 @@ use geo::{Distance, Geodesic, Point};
 use shared_types::{FlagKind, RecordFlag, Submission};
 use species_key::{Checklist, Measurement, Taxon, TaxonRank};
 
-use crate::assess::taxa::TaxonIndex;
+use crate::taxa::TaxonIndex;
 
 /// A taped length this many times the species' maximum is flagged.
 pub const OVERSIZE_MEASURED: f64 = 1.2;

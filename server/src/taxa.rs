@@ -25,6 +25,21 @@ pub enum ChecklistLoadError {
     Invalid { path: String, source: species_key::ChecklistError },
 }
 
+/// The demo checklist, built in; `--checklist FILE` replaces it.
+pub const DEMO_CHECKLIST: &str = include_str!("../../demo-records/checklist.json");
+
+/// Reads and checks a checklist file, or the built-in demo checklist when `path` is `None`.
+pub fn load_checklist(path: Option<&Path>) -> Result<Checklist, ChecklistLoadError> {
+    let Some(path) = path else {
+        return Checklist::from_json(DEMO_CHECKLIST)
+            .map_err(|source| ChecklistLoadError::Invalid { path: "the built-in demo checklist".into(), source });
+    };
+    let shown = path.display().to_string();
+    let text =
+        std::fs::read_to_string(path).map_err(|source| ChecklistLoadError::Read { path: shown.clone(), source })?;
+    Checklist::from_json(&text).map_err(|source| ChecklistLoadError::Invalid { path: shown, source })
+}
+
 /// A checklist with a case-insensitive index of every scientific and common name, and of
 /// every higher taxon its species are placed in.
 #[derive(Debug, Clone)]
@@ -133,17 +148,7 @@ pub struct TaxonFilter {
 impl TaxonIndex {
     /// A checklist file, or the built-in demo checklist when `path` is `None`.
     pub fn load(path: Option<&Path>) -> Result<Self, ChecklistLoadError> {
-        let Some(path) = path else {
-            let checklist = Checklist::from_json(crate::DEMO_CHECKLIST)
-                .expect("the built-in checklist is checked by its own tests");
-            return Ok(Self::new(checklist));
-        };
-        let shown = path.display().to_string();
-        let text =
-            std::fs::read_to_string(path).map_err(|source| ChecklistLoadError::Read { path: shown.clone(), source })?;
-        let checklist =
-            Checklist::from_json(&text).map_err(|source| ChecklistLoadError::Invalid { path: shown, source })?;
-        Ok(Self::new(checklist))
+        load_checklist(path).map(Self::new)
     }
 
     /// Indexes every scientific and common name of `checklist`, and every higher taxon.

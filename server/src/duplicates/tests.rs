@@ -1,11 +1,14 @@
-//! The pair table and the index checks for `duplicates.rs`: each row is a change from
+//! The pair table and the index checks for the duplicates stage: each row is a change from
 //! one base pair (a thornback ray stranded twice at Borth), the verdict it must get, the
 //! range its score must fall in, and words its reasons must carry — with a near-miss on
 //! each side of every threshold.
 
+use chrono::{DateTime, Utc};
+use shared_types::{Condition, LengthKind, Setting};
+
 use super::*;
-use crate::assess::taxa::TaxonIndex;
 use crate::store::duplicates::{RawDup, RawPhoto};
+use crate::taxa::TaxonIndex;
 
 fn at(hours: f64) -> DateTime<Utc> {
     DateTime::parse_from_rfc3339("2026-03-01T08:00:00Z").unwrap().with_timezone(&Utc)
@@ -13,7 +16,7 @@ fn at(hours: f64) -> DateTime<Utc> {
 }
 
 fn demo_names() -> TaxonIndex {
-    TaxonIndex::new(crate::load_checklist(None).unwrap())
+    TaxonIndex::new(crate::taxa::load_checklist(None).unwrap())
 }
 
 /// Raja clavata as the demo checklist has it (DW = 0.7 × TL, common practice there).

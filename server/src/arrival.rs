@@ -1,0 +1,26 @@
+//! What happens when a record arrives, stage after stage: intake checks and stores it
+//! with its photos, then the search for other reports of the same animal runs. The
+//! handlers and the demo loader both come through here, so a record is treated the
+//! same however it arrives.
+
+use chrono::{DateTime, Utc};
+
+use crate::AppState;
+use crate::duplicates::search::search_once;
+use crate::intake::{self, Accepted, IntakeError, Upload};
+
+/// Accepts one submission from the phone `observer_id` (none for the demo loader).
+pub async fn receive(
+    state: &AppState,
+    upload: Upload,
+    observer_id: Option<i64>,
+    now: DateTime<Utc>,
+) -> Result<Accepted, IntakeError> {
+    let accepted = intake::accept(&state.intake(), upload, observer_id, now).await?;
+    // A resend runs the search too: the first arrival may have stored the record and
+    // then failed to search.
+    search_once(&state.store, &state.duplicates, &state.taxa, accepted.receipt.observation_id, Utc::now())
+        .await
+        .map_err(anyhow::Error::from)?;
+    Ok(accepted)
+}

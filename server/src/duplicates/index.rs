@@ -1,0 +1,115 @@
+//! The R-tree over place and time that narrows the search for duplicates to the
+//! records that could be the same animal.
+
+use chrono::{DateTime, Utc};
+use rstar::primitives::{GeomWithData, Rectangle};
+use rstar::{AABB, Envelope as _, RTree, RTreeObject as _};
+
+use super::judge::*;
+use super::records::sightings;
+
+/// A point on the unit sphere, so straight-line distance follows great-circle distance
+/// everywhere (no seams at the antimeridian or the poles).
+fn unit_vector((lat, lon): (f64, f64)) -> [f64; 3] {
+    let (lat, lon) = (lat.to_radians(), lon.to_radians());
+    [lat.cos() * lon.cos(), lat.cos() * lon.sin(), lat.sin()]
+}
+
+/// A stored place for the index: id, (latitude, longitude), uncertainty in metres if
+/// known, and when.
+pub type IndexedPoint = (i64, (f64, f64), Option<f64>, DateTime<Utc>);
+
+type Entry = GeomWithData<Rectangle<[f64; 4]>, i64>;
+
+/// The places and times of stored records. Each place is a box of half-width
+/// `reach(u) = (u + DRIFT_CARCASS_M / 2) × 1.01` (as a chord of the unit sphere), so two
+/// boxes meet whenever the two places are within u₁ + u₂ + DRIFT_CARCASS_M ≥ the
+/// quadrature gap [`judge`] allows; a search is the new record's box over ± the carcass
+/// window. A record with a large uncertainty makes only its own box large.
+#[derive(Default)]
+pub struct Index {
+    tree: RTree<Entry>,
+}
+
+fn days(at: DateTime<Utc>) -> f64 {
+    at.timestamp() as f64 / 86_400.0
+}
+
+/// Half the side of a place's box, as a chord of the unit sphere.
+fn half_width(uncertainty_m: f64) -> f64 {
+    let reach = (uncertainty_m + DRIFT_CARCASS_M / 2.0) * (1.0 + SPHERE_MARGIN);
+    2.0 * (reach / (2.0 * EARTH_RADIUS_M)).min(std::f64::consts::FRAC_PI_2).sin()
+}
+
+/// The box of a place over the days `from..=to`; `None` when the place is too uncertain
+/// to compare.
+fn place_box(position: (f64, f64), uncertainty_m: Option<f64>, from: f64, to: f64) -> Option<AABB<[f64; 4]>> {
+    let u = effective_uncertainty(uncertainty_m);
+    if u > MAX_USEFUL_UNCERTAINTY_M {
+        return None;
+    }
+    let h = half_width(u);
+    let [x, y, z] = unit_vector(position);
+    Some(AABB::from_corners([x - h, y - h, z - h, from], [x + h, y + h, z + h, to]))
+}
+
+fn entry((id, position, uncertainty_m, at): IndexedPoint) -> Option<Entry> {
+    place_box(position, uncertainty_m, days(at), days(at)).map(|aabb| GeomWithData::new(Rectangle::from(aabb), id))
+}
+
+impl Index {
+    /// Builds the index at once (bulk loading is much faster than one by one).
+    pub fn build(points: impl IntoIterator<Item = IndexedPoint>) -> Self {
+        Self { tree: RTree::bulk_load(points.into_iter().filter_map(entry).collect()) }
+    }
+
+    /// Adds a place; adding the same place of the same record again changes nothing.
+    pub fn insert(&mut self, point: IndexedPoint) {
+        let Some(new) = entry(point) else { return };
+        let centre = new.geom().envelope().center();
+        if !self.tree.locate_all_at_point(&centre).any(|e| e == &new) {
+            self.tree.insert(new);
+        }
+    }
+
+    /// Every stored record [`judge`] could place beside this place: boxes that meet, in
+    /// the longest time window. (A record with the very same photo is a candidate at any
+    /// distance; those are found by hash, not here.)
+    pub fn possible_pairs(&self, position: (f64, f64), uncertainty_m: Option<f64>, at: DateTime<Utc>) -> Vec<i64> {
+        let window = WINDOW_CARCASS_H / 24.0;
+        let Some(envelope) = place_box(position, uncertainty_m, days(at) - window, days(at) + window) else {
+            return Vec::new();
+        };
+        let mut ids: Vec<i64> = self.tree.locate_in_envelope_intersecting(&envelope).map(|e| e.data).collect();
+        ids.sort_unstable();
+        ids.dedup();
+        ids
+    }
+
+    pub fn len(&self) -> usize {
+        self.tree.size()
+    }
+
+    pub fn is_empty(&self) -> bool {
+        self.tree.size() == 0
+    }
+}
+
+/// The places of a record the index keeps: each of its sightings with a position.
+pub fn index_points(record: &DupRecord) -> Vec<IndexedPoint> {
+    record
+        .sightings
+        .iter()
+        .filter_map(|s| s.position.map(|p| (record.observation_id, p, s.uncertainty_m, s.at)))
+        .collect()
+}
+
+/// The places of a stored record the index keeps, read straight from the store (no
+/// names looked up); empty when its time does not read.
+pub fn raw_index_points(raw: &crate::store::duplicates::RawDup) -> Vec<IndexedPoint> {
+    let Ok(at) = DateTime::parse_from_rfc3339(&raw.at_utc) else { return Vec::new() };
+    sightings(raw, at.with_timezone(&Utc))
+        .iter()
+        .filter_map(|s| s.position.map(|p| (raw.observation_id, p, s.uncertainty_m, s.at)))
+        .collect()
+}

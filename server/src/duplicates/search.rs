@@ -1,0 +1,84 @@
+//! The search for duplicates of one stored record, and the index built at start-up.
+//!
+//! A search runs after its record is stored and is marked done in the transaction that
+//! keeps its candidates (`duplicate_searches`), so one that failed is run again on the
+//! phone's resend and at the next start.
+
+use std::sync::{Arc, Mutex};
+
+use chrono::{DateTime, Utc};
+
+use super::{Index, candidates, from_raw, index_points, raw_index_points};
+use crate::store::duplicates::{raw_records, save_candidates, searched, sharing_a_photo};
+use crate::store::{self, Store, StoreError};
+use crate::taxa::TaxonIndex;
+
+/// Searches for other reports of the same animal as the stored record `observation_id`
+/// and keeps the candidates for reviewers, unless that was done already (a resend).
+pub async fn search_once(
+    store: &Store,
+    index: &Arc<Mutex<Index>>,
+    names: &Arc<TaxonIndex>,
+    observation_id: i64,
+    now: DateTime<Utc>,
+) -> Result<(), StoreError> {
+    let (index, names) = (index.clone(), names.clone());
+    store
+        .run(move |conn| {
+            if searched(conn, observation_id)? {
+                return Ok(());
+            }
+            search(conn, &index, &names, observation_id, now)
+        })
+        .await
+}
+
+/// The search for one stored record: records holding the same photo (file or original)
+/// at any time and place, and the index's neighbours of each of its places; the record's
+/// places join the index. The index lock covers the query and the insert together, so of
+/// two arrivals of one animal the second always finds the first. Marks the search done
+/// in the transaction that keeps the candidates.
+pub fn search(
+    conn: &mut rusqlite::Connection,
+    index: &Mutex<Index>,
+    names: &TaxonIndex,
+    observation_id: i64,
+    now: DateTime<Utc>,
+) -> Result<(), StoreError> {
+    let Some(new) = raw_records(conn, &[observation_id])?.pop().and_then(|raw| from_raw(&raw, names)) else {
+        // Merged already, or its stored codes do not read: nothing to look for.
+        return save_candidates(conn, observation_id, &[], now);
+    };
+    // The same photo file is a candidate at any distance and time, with or without a position.
+    let mut near = sharing_a_photo(conn, observation_id)?;
+    {
+        let mut index = index.lock().unwrap_or_else(|p| p.into_inner());
+        for point in index_points(&new) {
+            near.extend(index.possible_pairs(point.1, point.2, point.3));
+        }
+        for point in index_points(&new) {
+            index.insert(point);
+        }
+    }
+    near.sort_unstable();
+    near.dedup();
+    let others: Vec<_> = raw_records(conn, &near)?.iter().filter_map(|r| from_raw(r, names)).collect();
+    let found: Vec<_> = candidates(&new, &others).into_iter().map(|(id, c)| (id, c.score, c.reasons)).collect();
+    save_candidates(conn, observation_id, &found, now)
+}
+
+/// The index of every stored record's places, merged records too (an undo brings them
+/// back), with the search run for any record stored without one (it failed after the
+/// record was stored). A search that fails again is logged and tried again at the next
+/// start or resend; the server still starts.
+pub fn build_index(store: &Store, taxa: &TaxonIndex) -> Result<Index, StoreError> {
+    let raws = store.run_here(|conn| store::duplicates::all_records(conn))?;
+    let index = Mutex::new(Index::build(raws.iter().flat_map(raw_index_points)));
+    let now = Utc::now();
+    for id in store.run_here(|conn| store::duplicates::unsearched(conn))? {
+        if let Err(err) = store.run_here(|conn| search(conn, &index, taxa, id, now)) {
+            tracing::warn!(observation = id, error = %err, "search for duplicates failed at start-up");
+        }
+    }
+    Ok(index.into_inner().unwrap_or_else(|p| p.into_inner()))
+}

@@ -1,0 +1,194 @@
+//! The review queue's order and filters: why a record stands where it does (protected,
+//! then sensitive species, then each kind of flag, then age) and which records a taxon
+//! filter takes in (downward only).
+
+use shared_types::{PhotoFlag, QueueFlag, QueueItem, RecordView, distance_words, hours_words};
+use species_key::{Checklist, Sensitivity};
+
+use crate::intake::photo_checks::{FAR_LIMIT_M, TAKEN_BEFORE_LIMIT_HOURS};
+use crate::taxa::{TaxonFilter, TaxonIndex};
+
+/// Every flag a record carries for the queue: arrival flags, an undecided possible
+/// duplicate, and its photos' checks (each kind once).
+pub fn queue_flags(record: &RecordView, possible_duplicate: bool) -> Vec<QueueFlag> {
+    let mut flags: Vec<QueueFlag> = record
+        .flags
+        .iter()
+        .map(|flag| match flag.kind {
+            shared_types::FlagKind::Oversize => QueueFlag::Oversize,
+            shared_types::FlagKind::OutOfRange => QueueFlag::OutOfRange,
+        })
+        .collect();
+    if possible_duplicate {
+        flags.push(QueueFlag::PossibleDuplicate);
+    }
+    for flag in record.photos.iter().flat_map(|photo| &photo.check.flags) {
+        flags.push(match flag {
+            PhotoFlag::TakenLongBeforeRecord => QueueFlag::TakenLongBeforeRecord,
+            PhotoFlag::TakenFarFromRecord => QueueFlag::TakenFarFromRecord,
+        });
+    }
+    flags.sort();
+    flags.dedup();
+    flags
+}
+
+/// Each photo flag in words, with the numbers behind it.
+fn photo_reasons(record: &RecordView) -> Vec<String> {
+    let mut reasons = Vec::new();
+    for (index, photo) in record.photos.iter().enumerate() {
+        let number = index + 1;
+        for flag in &photo.check.flags {
+            reasons.push(match flag {
+                PhotoFlag::TakenLongBeforeRecord => format!(
+                    "photo older than the record: photo {number} was taken {} before it (more than {TAKEN_BEFORE_LIMIT_HOURS} h): an older photo reused?",
+                    photo.check.seconds_before_record.map_or("long".into(), hours_words)
+                ),
+                PhotoFlag::TakenFarFromRecord => format!(
+                    "photo far from the record: photo {number} was taken {} from its place (more than {:.0} km beyond both uncertainties)",
+                    photo.check.metres_from_record.map_or("far".into(), distance_words),
+                    FAR_LIMIT_M / 1000.0
+                ),
+            });
+        }
+    }
+    reasons
+}
+
+/// A record's place in the queue: a sort key (higher first) and the reasons in words.
+pub fn priority(
+    record: &RecordView,
+    current_taxon: Option<&str>,
+    checklist: &Checklist,
+    possible_duplicate: bool,
+) -> (u32, Vec<String>) {
+    let mut score = 0;
+    let mut reasons = Vec::new();
+    // At any rank: a genus or family counts as protected or sensitive if any of its species is.
+    if let Some(taxon) = current_taxon.and_then(|name| crate::taxa::NamedTaxon::find(checklist, name)) {
+        let may_be = if taxon.rank == species_key::TaxonRank::Species { "" } else { " (or holds species that are)" };
+        if taxon.protected {
+            score += 1000;
+            reasons.push(format!("{} is protected{may_be}", taxon.scientific_name));
+        }
+        if taxon.sensitivity != Sensitivity::None {
+            score += 500;
+            reasons
+                .push(format!("{} is sensitive{may_be}: its public locations are generalised", taxon.scientific_name));
+        }
+    }
+    score += 100 * queue_flags(record, possible_duplicate).len() as u32;
+    reasons.extend(record.flags.iter().map(|flag| flag.reason.clone()));
+    if possible_duplicate {
+        reasons.push("possibly the same animal as another report: compare them".into());
+    }
+    reasons.extend(photo_reasons(record));
+    (score, reasons)
+}
+
+/// Orders queue items: by score, then oldest observation first.
+pub fn order(items: &mut [(u32, RecordView, Vec<String>, Option<String>)]) {
+    items.sort_by(|a, b| b.0.cmp(&a.0).then(a.1.submission.observed_at.cmp(&b.1.submission.observed_at)));
+}
+
+/// A taxon filter as asked for: the checklist taxon it names, if any, and the words.
+pub struct WantedTaxon {
+    filter: Option<TaxonFilter>,
+    asked: String,
+}
+
+impl WantedTaxon {
+    pub fn new(taxa: &TaxonIndex, asked: &str) -> Self {
+        Self { filter: taxa.filter(asked), asked: asked.trim().to_owned() }
+    }
+
+    /// Whether a record whose current identification is `name` belongs to this taxon.
+    /// Downward only: a record named to a genus is in its family and order, not in one
+    /// of its species; a record named to a species is in its genus, family, order and
+    /// superorder. A name the checklist does not know matches only itself.
+    pub fn takes_in(&self, taxa: &TaxonIndex, name: Option<&str>) -> bool {
+        let Some(name) = name else { return false };
+        let Some(wanted) = &self.filter else { return name.trim().eq_ignore_ascii_case(&self.asked) };
+        taxa.named(name).is_some_and(|own| wanted.contains_named(own, taxa.checklist()))
+    }
+}
+
+/// What a reviewer asked of the queue, already read: each filter optional.
+#[derive(Debug, Clone, Default)]
+pub struct Wanted {
+    /// A species or higher taxon, scientific or common name: records identified to it
+    /// or to anything below it.
+    pub taxon: Option<String>,
+    pub flag: Option<QueueFlag>,
+    /// Observed on or after / on or before, `YYYY-MM-DD` (the record's own date).
+    pub from: Option<String>,
+    pub to: Option<String>,
+    /// A checklist area code.
+    pub area: Option<String>,
+    /// Paging over the ordered queue: skip `offset` items, give at most `limit`.
+    pub offset: usize,
+    pub limit: usize,
+}
+
+/// The page of the queue `wanted` asks for, most important first, from every record in
+/// the asked states: (whether a possible duplicate is undecided, the record, its taxon).
+pub fn select(rows: Vec<(bool, RecordView, Option<String>)>, wanted: &Wanted, taxa: &TaxonIndex) -> Vec<QueueItem> {
+    let checklist = taxa.checklist();
+    let taxon = wanted.taxon.as_deref().filter(|t| !t.trim().is_empty()).map(|t| WantedTaxon::new(taxa, t));
+    let mut items: Vec<_> = rows
+        .into_iter()
+        .filter(|(possible, record, current)| {
+            let day = record.submission.observed_at.format("%Y-%m-%d").to_string();
+            taxon.as_ref().is_none_or(|w| w.takes_in(taxa, current.as_deref()))
+                && in_area(record, wanted.area.as_deref(), checklist)
+                && wanted.flag.is_none_or(|f| queue_flags(record, *possible).contains(&f))
+                && wanted.from.as_deref().is_none_or(|from| day.as_str() >= from)
+                && wanted.to.as_deref().is_none_or(|to| day.as_str() <= to)
+        })
+        .map(|(possible, record, current)| {
+            let (score, reasons) = priority(&record, current.as_deref(), checklist, possible);
+            (score, record, reasons, current)
+        })
+        .collect();
+    order(&mut items);
+    items
+        .into_iter()
+        .skip(wanted.offset)
+        .take(wanted.limit)
+        .map(|(_, record, priority_reasons, current_taxon)| QueueItem { record, current_taxon, priority_reasons })
+        .collect()
+}
+
+fn in_area(record: &RecordView, area: Option<&str>, checklist: &Checklist) -> bool {
+    area.filter(|a| !a.is_empty()).is_none_or(|code| {
+        record
+            .submission
+            .position
+            .is_some_and(|p| checklist.area_at(p.latitude.get(), p.longitude.get()).is_some_and(|a| a.code == code))
+    })
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::taxa::TaxonIndex;
+
+    #[test]
+    fn the_taxon_filter_works_downward_only() {
+        let taxa = TaxonIndex::load(None).unwrap();
+        let wanted = |name: &str| WantedTaxon::new(&taxa, name);
+        // As demo-records/checklist.json places them: Scyliorhinus canicula in
+        // Scyliorhinus, Scyliorhinidae, Carcharhiniformes.
+        assert!(wanted("Scyliorhinidae").takes_in(&taxa, Some("Scyliorhinus")), "a genus is found by its family");
+        assert!(wanted("Carcharhiniformes").takes_in(&taxa, Some("Scyliorhinus canicula")), "a species by its order");
+        assert!(wanted("scyliorhinus").takes_in(&taxa, Some("Scyliorhinus canicula")), "a species by its genus");
+        assert!(wanted("small-spotted catshark").takes_in(&taxa, Some("Scyliorhinus canicula")), "common names work");
+        assert!(
+            !wanted("Scyliorhinus canicula").takes_in(&taxa, Some("Scyliorhinus")),
+            "a genus is not in one of its species"
+        );
+        assert!(!wanted("Rajidae").takes_in(&taxa, Some("Scyliorhinus")));
+        assert!(wanted("a fish").takes_in(&taxa, Some("A Fish")), "unknown names match themselves");
+        assert!(!wanted("Scyliorhinidae").takes_in(&taxa, None));
+    }
+}
