@@ -5,9 +5,9 @@
 
 use chrono::{DateTime, Utc};
 
-use crate::AppState;
 use crate::duplicates::search::search_once;
 use crate::intake::{self, Accepted, IntakeError, Upload};
+use crate::state::AppState;
 
 /// Accepts one submission from the phone `observer_id` (none for the demo loader).
 pub async fn receive(

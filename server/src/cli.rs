@@ -7,7 +7,8 @@ use std::path::PathBuf;
 use anyhow::Context as _;
 use clap::{Parser, Subcommand, ValueEnum};
 
-use crate::{AppState, commands, demo};
+use crate::state::AppState;
+use crate::{commands, demo};
 
 #[derive(Debug, Parser)]
 #[command(
@@ -123,7 +124,7 @@ fn serve(data_dir: &std::path::Path, args: ServeArgs, with_demo: bool) -> anyhow
         let address = listener.local_addr()?;
         println!("wrackline listening on http://{address}");
         println!("data directory: {}", data_dir.display());
-        crate::serve(listener, state).await
+        crate::router::serve(listener, state).await
     })
 }
 

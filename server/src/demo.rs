@@ -5,8 +5,8 @@
 use chrono::Utc;
 use serde::Deserialize;
 
-use crate::AppState;
 use crate::intake::{self, Upload};
+use crate::state::AppState;
 use crate::store::observations;
 
 const RECORDS_JSON: &str = include_str!("../../demo-records/records.json");

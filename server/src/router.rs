@@ -10,10 +10,10 @@ use tower::Layer as _;
 use tower_http::services::{ServeDir, ServeFile};
 use tower_http::set_header::{SetResponseHeader, SetResponseHeaderLayer};
 
-use crate::AppState;
 use crate::error::ApiError;
 use crate::handlers::{assess, checklist, export, health, mine, observations, people, photos, review, session, walks};
 use crate::intake::photos::{MAX_PHOTO_BYTES, MAX_PHOTOS_PER_RECORD};
+use crate::state::AppState;
 
 /// Who may use a route. Handlers enforce it with the extractors in
 /// `handlers::access` (and, for the owner-scoped kinds, by comparing the caller with
@@ -174,4 +174,17 @@ fn app_files(dir: &std::path::Path) -> SetResponseHeader<ServeDir<ServeFile>, He
 
 async fn api_not_found() -> ApiError {
     ApiError::NotFound("no such API route".into())
+}
+
+/// Serves the app on an already bound listener until Ctrl-C, so tests can bind
+/// port 0 and read the port back.
+pub async fn serve(listener: tokio::net::TcpListener, state: AppState) -> anyhow::Result<()> {
+    // With each connection's address, for the sign-in rate limit.
+    let router = app(state).into_make_service_with_connect_info::<std::net::SocketAddr>();
+    axum::serve(listener, router)
+        .with_graceful_shutdown(async {
+            let _ = tokio::signal::ctrl_c().await;
+        })
+        .await?;
+    Ok(())
 }

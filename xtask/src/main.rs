@@ -4,17 +4,21 @@
 //! - `build [--dev]`: the app (wasm + bindings + static files + service worker) into
 //!   `target/app-dist`.
 //! - `demo [ARGS…]`: build everything, then run `wrackline demo` (ARGS go to it).
-//! - `test`: install what the tests need (wasm target, Chromium, exiftool, npm
-//!   packages, a Python venv in target/venv), build, and run every test: Rust unit and
+//! - `test`: install what the tests need (wasm target, rustfmt and clippy, Chromium,
+//!   exiftool, npm packages, a Python venv in target/venv), check formatting and lints
+//!   (`cargo fmt --check`, `cargo clippy -D warnings`; the tidy rules run as a test of
+//!   xtask), build, and run every test: Rust unit and
 //!   integration tests, then the browser tests, then the intake fuzz loop for 15 s. `ci`
 //!   is the same.
 //! - `fuzz [--seconds N] [--seed N]`: the intake fuzz loop (`server/examples/fuzz_intake.rs`).
+//! - `tidy`: the workspace's written rules and module layers ([`tidy`]), printed.
 //! - `bench`: the benchmarks, each printing ratios against a baseline measured in the
 //!   same run (never timed tests: machines here are shared and noisy).
 
 mod app;
 mod prerequisites;
 mod run;
+mod tidy;
 
 use std::path::PathBuf;
 
@@ -30,8 +34,9 @@ fn main() -> Result<()> {
         "test" | "ci" => test(),
         "fuzz" => fuzz(&rest),
         "bench" => bench(),
+        "tidy" => tidy::run(&root()),
         _ => bail!(
-            "usage: cargo xtask <build [--dev] | demo [wrackline demo options] | test | ci | fuzz [--seconds N] [--seed N] | bench>\n  unknown task `{task}`"
+            "usage: cargo xtask <build [--dev] | demo [wrackline demo options] | test | ci | fuzz [--seconds N] [--seed N] | bench | tidy>\n  unknown task `{task}`"
         ),
     }
 }
@@ -59,6 +64,7 @@ fn test() -> Result<()> {
     let started = std::time::Instant::now();
     prerequisites::all()?;
     let python = prerequisites::python_venv()?;
+    lint()?;
     let dist = app::build(app::Profile::Release)?;
     run::cargo_with_env(
         &["test", "--workspace", "--exclude", "wrackline-app", "--exclude", "upload-copy-bench"],
@@ -69,6 +75,36 @@ fn test() -> Result<()> {
     fuzz(&["--seconds".into(), "15".into()])?;
     println!("xtask test: every suite passed in {:.0} s", started.elapsed().as_secs_f64());
     Ok(())
+}
+
+/// The written rules first, cheapest first: formatting, then lints (native crates and the
+/// wasm-only ones for their own target), each failing the run on any finding.
+fn lint() -> Result<()> {
+    run::cargo(&["fmt", "--all", "--", "--check"])?;
+    run::cargo(&[
+        "clippy",
+        "--workspace",
+        "--exclude",
+        "wrackline-app",
+        "--exclude",
+        "upload-copy-bench",
+        "--all-targets",
+        "--",
+        "-D",
+        "warnings",
+    ])?;
+    run::cargo(&[
+        "clippy",
+        "-p",
+        "wrackline-app",
+        "-p",
+        "upload-copy-bench",
+        "--target",
+        "wasm32-unknown-unknown",
+        "--",
+        "-D",
+        "warnings",
+    ])
 }
 
 /// The intake fuzz loop; it exits non-zero on a finding (saved in `target/fuzz-findings/`).

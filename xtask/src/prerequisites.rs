@@ -12,6 +12,7 @@ use crate::{root, run};
 
 pub fn all() -> Result<()> {
     wasm_target()?;
+    rust_components()?;
     debian_packages()?;
     npm_packages()
 }
@@ -33,6 +34,21 @@ pub fn wasm_target() -> Result<()> {
     command.args(["target", "add", "wasm32-unknown-unknown"]);
     run::check(command)
         .context("the wasm32 target is missing; install it with `rustup target add wasm32-unknown-unknown`")
+}
+
+/// rustfmt and clippy, which the test command runs before any test.
+fn rust_components() -> Result<()> {
+    for (component, probe) in [("rustfmt", ["fmt", "--version"]), ("clippy", ["clippy", "--version"])] {
+        let present = Command::new("cargo").args(probe).output().map(|o| o.status.success()).unwrap_or(false);
+        if !present {
+            let mut command = Command::new("rustup");
+            command.args(["component", "add", component]);
+            run::check(command).with_context(|| {
+                format!("{component} is missing; install it with `rustup component add {component}`")
+            })?;
+        }
+    }
+    Ok(())
 }
 
 fn on_path(program: &str) -> bool {

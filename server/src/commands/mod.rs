@@ -9,9 +9,9 @@ use std::path::{Path, PathBuf};
 
 use anyhow::Context as _;
 
-use crate::AppState;
 use crate::assess::input::{self, PointRecord};
 use crate::assess::{describe_states, parse_states};
+use crate::state::AppState;
 use crate::taxa::{TaxonFilter, TaxonIndex};
 
 /// Where records come from and which of them to take; shared by `range` and `trend`.

@@ -28,7 +28,7 @@ pub struct RangeArgs {
     /// mean rounded to 5° (for stored records, the checklist's areas' mean, so it stays fixed).
     #[arg(long, value_name = "LAT,LON", value_parser = parse_centre, allow_hyphen_values = true)]
     pub grid_centre: Option<analysis::LatLon>,
-    /// Also draw a map (SVG) of each taxon: FILE, or FILE-<taxon>.svg when there are several.
+    /// Also draw a map (SVG) of each taxon: FILE, or `FILE-<taxon>.svg` when there are several.
     #[arg(long, value_name = "FILE")]
     pub svg: Option<PathBuf>,
 }

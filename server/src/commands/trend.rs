@@ -41,7 +41,7 @@ pub fn run(data_dir: &Path, args: TrendArgs) -> anyhow::Result<()> {
         }
         None => {
             let loaded = args.source.load(data_dir)?;
-            let state = crate::AppState::open(data_dir, None, crate::taxa::load_checklist(None)?)?;
+            let state = crate::state::AppState::open(data_dir, None, crate::taxa::load_checklist(None)?)?;
             let walks = state.store.run_here(|conn| crate::store::walks::list_walks(conn))?;
             let (years, counts, notes) =
                 stored_trend_input(&loaded.records, &walks, taxon.as_ref(), &names, args.effort);

@@ -12,12 +12,35 @@ use species_key::length::ConversionMethod;
 
 use super::photos::{NEAR_DUPLICATE_BITS, hash_distance};
 
+/// How far tides and scavengers may move a carcass between two reports (beach
+/// strandings and animals floating at sea), metres (common practice).
 pub const DRIFT_CARCASS_M: f64 = 2_000.0;
+/// How far apart two reports of one landed fish may be, metres: a quay or a beach
+/// mark (common practice).
 pub const DRIFT_LANDED_M: f64 = 200.0;
+/// How long a carcass lies where people may find it again, hours (common practice).
 pub const WINDOW_CARCASS_H: f64 = 7.0 * 24.0;
+/// How long a landed fish stays where people may see it again, hours (common practice).
 pub const WINDOW_LANDED_H: f64 = 12.0;
+/// A pair scoring this much or more is offered to reviewers as a candidate.
 pub const CANDIDATE_SCORE: f64 = 0.5;
+/// Added when two of the pair's photos look alike (never against a contradiction).
 pub const PHOTOS_ALIKE_BONUS: f64 = 0.2;
+/// The score's weight on place (1 − distance / allowed).
+pub const WEIGHT_PLACE: f64 = 0.35;
+/// The score's weight on time (1 − gap / window).
+pub const WEIGHT_TIME: f64 = 0.35;
+/// The score's weight on species ([`SPECIES_SAME`], [`SPECIES_CONTAINS`] or [`NO_EVIDENCE`]).
+pub const WEIGHT_SPECIES: f64 = 0.15;
+/// The score's weight on length (1 − difference / tolerance, or [`NO_EVIDENCE`]).
+pub const WEIGHT_LENGTH: f64 = 0.15;
+/// Species score when both name the same taxon.
+pub const SPECIES_SAME: f64 = 1.0;
+/// Species score when one taxon contains the other (a genus and one of its species).
+pub const SPECIES_CONTAINS: f64 = 0.7;
+/// Species or length score when the pair says nothing either way (a name not on the
+/// checklist, no length, lengths that cannot be converted to one measure).
+pub const NO_EVIDENCE: f64 = 0.5;
 /// Uncertainty assumed for a position given without one (common practice for phone fixes).
 pub const UNKNOWN_UNCERTAINTY_M: f64 = 100.0;
 /// A position known only to worse than this says which town, not which beach: such fixes
@@ -49,7 +72,7 @@ pub(super) const SPHERE_MARGIN: f64 = 0.01;
 /// The tolerance for a length of `kind`, taped or estimated.
 pub fn length_tolerance(kind: LengthKind, estimated: bool) -> f64 {
     let (_, taped, by_eye) =
-        LENGTH_TOLERANCES.iter().find(|(k, _, _)| *k == kind).copied().unwrap_or((kind, 0.15, 0.30));
+        LENGTH_TOLERANCES.iter().find(|(k, _, _)| *k == kind).copied().unwrap_or(LENGTH_TOLERANCES[0]);
     if estimated { by_eye } else { taped }
 }
 
@@ -269,8 +292,10 @@ fn judge_sightings(a: &DupRecord, sa: &Sighting, b: &DupRecord, sb: &Sighting) -
         Err(why) => return Verdict::RuledOut(why),
     };
     reasons.extend([sa, sb].iter().filter_map(|s| s.from_photo.clone()));
-    let mut total =
-        0.35 * (1.0 - distance / allowed) + 0.35 * (1.0 - gap_hours / window) + 0.15 * species + 0.15 * length;
+    let mut total = WEIGHT_PLACE * (1.0 - distance / allowed)
+        + WEIGHT_TIME * (1.0 - gap_hours / window)
+        + WEIGHT_SPECIES * species
+        + WEIGHT_LENGTH * length;
     if let Some(bits) = nearest_photos(a, b).filter(|bits| *bits <= NEAR_DUPLICATE_BITS) {
         total += PHOTOS_ALIKE_BONUS;
         reasons.push(format!("two of their photos look alike (perceptual hashes {bits} bits apart)"));
@@ -308,17 +333,17 @@ fn compare_species<'a>(a: &'a Species, b: &'a Species) -> Result<SpeciesMatch<'a
     match (a, b) {
         (Species::Named { lineage: x, taxon: tx }, Species::Named { lineage: y, taxon: ty }) => {
             if x[0] == y[0] {
-                Ok((1.0, vec![format!("the same taxon, {}", x[0])], tx.as_deref().or(ty.as_deref())))
+                Ok((SPECIES_SAME, vec![format!("the same taxon, {}", x[0])], tx.as_deref().or(ty.as_deref())))
             } else if x.contains(&y[0]) {
-                Ok((0.7, vec![format!("{} and {}: one contains the other", y[0], x[0])], ty.as_deref()))
+                Ok((SPECIES_CONTAINS, vec![format!("{} and {}: one contains the other", y[0], x[0])], ty.as_deref()))
             } else if y.contains(&x[0]) {
-                Ok((0.7, vec![format!("{} and {}: one contains the other", x[0], y[0])], tx.as_deref()))
+                Ok((SPECIES_CONTAINS, vec![format!("{} and {}: one contains the other", x[0], y[0])], tx.as_deref()))
             } else {
                 Err(format!("{} and {} are different taxa", x[0], y[0]))
             }
         }
         (Species::Named { taxon, .. }, other) | (other, Species::Named { taxon, .. }) => {
-            Ok((0.5, unnamed_reason(other).into_iter().collect(), taxon.as_deref()))
+            Ok((NO_EVIDENCE, unnamed_reason(other).into_iter().collect(), taxon.as_deref()))
         }
         (x, y) => {
             let mut reasons: Vec<String> = [x, y].iter().filter_map(|s| unnamed_reason(s)).collect();
@@ -326,7 +351,7 @@ fn compare_species<'a>(a: &'a Species, b: &'a Species) -> Result<SpeciesMatch<'a
                 reasons = vec!["neither of them is named".into()];
             }
             reasons.dedup();
-            Ok((0.5, reasons, None))
+            Ok((NO_EVIDENCE, reasons, None))
         }
     }
 }
@@ -339,7 +364,7 @@ fn compare_lengths(
     b: Option<Length>,
     taxon: Option<&Taxon>,
 ) -> Result<(f64, Option<String>), String> {
-    let (Some((ka, la, ea)), Some((kb, lb, eb))) = (a, b) else { return Ok((0.5, None)) };
+    let (Some((ka, la, ea)), Some((kb, lb, eb))) = (a, b) else { return Ok((NO_EVIDENCE, None)) };
     let estimated = ea || eb;
     let how = if estimated { "estimated" } else { "taped" };
     if ka == kb {
@@ -356,7 +381,7 @@ fn compare_lengths(
     }
     let Some(taxon) = taxon else {
         return Ok((
-            0.5,
+            NO_EVIDENCE,
             Some(format!("a {} and a {} are not comparable without a known species", ka.label(), kb.label())),
         ));
     };
@@ -368,7 +393,7 @@ fn compare_lengths(
     };
     let (Some(ca), Some(cb)) = (convert(ka, la, ea), convert(kb, lb, eb)) else {
         return Ok((
-            0.5,
+            NO_EVIDENCE,
             Some(format!(
                 "a {} and a {} cannot be converted to one measure for {}",
                 ka.label(),

@@ -30,19 +30,20 @@
 //! the phone sends of the file it picked), in both is decisive on its own: a candidate
 //! whatever else, with score 1. Otherwise
 //!
-//! score = 0.35 place + 0.35 time + 0.15 species + 0.15 length (+ [`PHOTOS_ALIKE_BONUS`])
+//! score = [`WEIGHT_PLACE`] × place + [`WEIGHT_TIME`] × time + [`WEIGHT_SPECIES`] × species
+//!         + [`WEIGHT_LENGTH`] × length (+ [`PHOTOS_ALIKE_BONUS`])
 //!
-//! where place = 1 − distance / allowed, time = 1 − gap / window, species is 1 (same),
-//! 0.7 (one contains the other) or 0.5 (unnamed or not on the checklist), length is
-//! 1 − difference / tolerance or 0.5 when it cannot be compared, and the bonus is added
-//! when two of their photos look alike (perceptual hashes within
-//! `intake::images::NEAR_DUPLICATE_BITS`). A pair is a candidate at [`CANDIDATE_SCORE`]
+//! where place = 1 − distance / allowed, time = 1 − gap / window, species is
+//! [`SPECIES_SAME`], [`SPECIES_CONTAINS`] or [`NO_EVIDENCE`] (unnamed or not on the
+//! checklist), length is 1 − difference / tolerance or [`NO_EVIDENCE`] when it cannot be
+//! compared, and the bonus is added when two of their photos look alike (perceptual
+//! hashes within [`photos::NEAR_DUPLICATE_BITS`]). A pair is a candidate at [`CANDIDATE_SCORE`]
 //! or more. Photos that look alike never override a contradiction: the hash sees
 //! layout, not species. Every verdict keeps its reasons in words. Thresholds are
 //! wrackline's own (common practice for plausibility windows), checked by the pair
 //! table in the tests.
 //!
-//! Candidates are found through an R-tree ([`Index`]) over place and time: unit-sphere
+//! Candidates are found through an R-tree ([`Index`], in `index.rs`) over place and time: unit-sphere
 //! points (so distances follow the globe, with no seam at the antimeridian) plus the day.
 //! Each stored place is a box as wide as its own reach (its uncertainty plus half the
 //! carcass drift), so a record with a large uncertainty widens only its own box, never

@@ -5,7 +5,7 @@
 //! ([`crate::store::occurrences::for_each`]), turned into an [`Occurrence`] and written at
 //! once, so memory stays flat however many records there are.
 //!
-//! Public exports generalise sensitive species ([`generalise`]); full exports are for
+//! Public exports generalise sensitive species ([`crate::protect::generalise`]); full exports are for
 //! assessors. Observer contacts are never read, so they cannot leave the server.
 
 pub mod csv;

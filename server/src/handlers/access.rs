@@ -15,9 +15,9 @@ use axum::http::{Method, header};
 use chrono::Utc;
 use shared_types::Role;
 
-use crate::AppState;
 use crate::error::ApiError;
 use crate::people::auth::token_sha256;
+use crate::state::AppState;
 use crate::store::people::{self, Person};
 
 pub const SESSION_COOKIE: &str = "wrackline_session";

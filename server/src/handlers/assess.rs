@@ -14,7 +14,6 @@ use axum::http::header;
 use axum::response::{IntoResponse, Response};
 use serde::Deserialize;
 
-use crate::AppState;
 use crate::assess::chart;
 use crate::assess::dates::Period;
 use crate::assess::input::read_store;
@@ -24,6 +23,7 @@ use crate::assess::trend::{EffortUnit, TrendReport, generation_length, stored_tr
 use crate::assess::{describe_states, parse_states};
 use crate::error::ApiError;
 use crate::handlers::access::Caller;
+use crate::state::AppState;
 use crate::taxa::TaxonFilter;
 
 #[derive(Deserialize)]

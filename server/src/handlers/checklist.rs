@@ -9,10 +9,10 @@ use axum::extract::{Query, State};
 use serde::Deserialize;
 use shared_types::ReviewState;
 
-use crate::AppState;
 use crate::assess::input::read_store;
 use crate::assess::nearby::{NearbyCounts, nearby_counts};
 use crate::error::ApiError;
+use crate::state::AppState;
 
 pub async fn get(State(state): State<AppState>) -> Json<species_key::Checklist> {
     Json(species_key::Checklist::clone(state.checklist()))

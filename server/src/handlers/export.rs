@@ -22,12 +22,12 @@ use chrono::NaiveDate;
 use serde::Deserialize;
 use tokio::sync::mpsc;
 
-use crate::AppState;
 use crate::assess::parse_states;
 use crate::error::ApiError;
 use crate::export::filters::{day_bounds, parse_bbox};
 use crate::export::{self, Audience, ExportRequest, Format};
 use crate::handlers::access::Caller;
+use crate::state::AppState;
 use crate::store::occurrences::RowFilter;
 use crate::taxa::TaxonIndex;
 

@@ -2,8 +2,8 @@
 
 use axum::extract::State;
 
-use crate::AppState;
 use crate::error::ApiError;
+use crate::state::AppState;
 
 pub async fn healthz(State(state): State<AppState>) -> Result<&'static str, ApiError> {
     state.store.ping().await?;

@@ -10,11 +10,11 @@ use chrono::Utc;
 use shared_types::{DeviceRequest, MyRecord, Reply};
 use uuid::Uuid;
 
-use crate::AppState;
 use crate::error::ApiError;
 use crate::handlers::access::{Observer, check_owner};
 use crate::handlers::observations::{intake_error, read_parts};
 use crate::intake::{self, parse_json};
+use crate::state::AppState;
 use crate::store::review::{self as review_store, ReplyOutcome};
 use crate::store::{observations, people};
 

@@ -7,11 +7,11 @@ use chrono::Utc;
 use shared_types::{Receipt, RecordView};
 use uuid::Uuid;
 
-use crate::AppState;
 use crate::error::ApiError;
 use crate::handlers::access::{Caller, Reviewer};
 use crate::intake::images::ImageProblem;
 use crate::intake::{IntakeError, PhotoProblem, Upload};
+use crate::state::AppState;
 use crate::store::observations;
 
 /// `POST /api/observations`. Answers 200 with a receipt only once the record and its

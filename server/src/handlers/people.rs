@@ -9,12 +9,12 @@ use chrono::Utc;
 use serde::Deserialize;
 use shared_types::{PersonEvent, Role};
 
-use crate::AppState;
 use crate::error::ApiError;
 use crate::handlers::access::Admin;
 use crate::handlers::observations::intake_error;
 use crate::intake::parse_json;
 use crate::people::{PeopleError, hashed, staff_role};
+use crate::state::AppState;
 use crate::store::people::{self, Person, RoleChange};
 
 /// `GET /api/people`.

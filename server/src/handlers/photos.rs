@@ -18,11 +18,11 @@ use axum::extract::{Path, State};
 use axum::http::header;
 use axum::response::{IntoResponse, Response};
 
-use crate::AppState;
 use crate::error::ApiError;
 use crate::handlers::access::Reviewer;
 use crate::intake::images;
 use crate::intake::photos::{PhotoFormat, Rendition};
+use crate::state::AppState;
 use crate::store::observations;
 use shared_types::SimilarPhoto;
 

@@ -9,13 +9,13 @@ use shared_types::codes::{code as code_of, from_code};
 use shared_types::{QueueFlag, QueueItem, ReviewAction, ReviewDetail, ReviewState};
 use uuid::Uuid;
 
-use crate::AppState;
 use crate::error::ApiError;
 use crate::handlers::access::Reviewer;
 use crate::handlers::observations::intake_error;
 use crate::intake::parse_json;
 use crate::review;
 use crate::review::queue::Wanted;
+use crate::state::AppState;
 use crate::store::{duplicates as duplicates_store, observations, review as review_store};
 
 fn record_id(text: &str) -> Result<Uuid, ApiError> {

@@ -16,12 +16,12 @@ use axum::response::{IntoResponse, Response};
 use chrono::Utc;
 use shared_types::{DeviceIdentity, DeviceRequest, LoginRequest, SessionInfo};
 
-use crate::AppState;
 use crate::error::ApiError;
 use crate::handlers::access::{Caller, ClientAddress, SESSION_COOKIE, came_over_https};
 use crate::handlers::observations::intake_error;
 use crate::intake::parse_json;
 use crate::people::auth::{self, SESSION_HOURS, new_token, token_sha256};
+use crate::state::AppState;
 use crate::store::people;
 
 /// `POST /api/session`: signs in; sets the session cookie and returns the CSRF token.

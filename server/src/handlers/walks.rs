@@ -11,13 +11,13 @@ use serde::Deserialize;
 use shared_types::{WalkLink, WalkReceipt};
 use uuid::Uuid;
 
-use crate::AppState;
 use crate::assess::effort::{self, EffortRow, Period};
 use crate::error::ApiError;
 use crate::handlers::access::{Observer, Reviewer, Someone, check_owner};
 use crate::handlers::observations::intake_error;
 use crate::intake::walks::WalkRefused;
 use crate::intake::{parse_json, walks as intake_walks};
+use crate::state::AppState;
 use crate::store::review as review_store;
 use crate::store::walks::{self, LinkOutcome, StoredWalk};
 

@@ -7,4 +7,3 @@ mod questions;
 mod ranking;
 mod separation;
 mod support;
-mod tidy;

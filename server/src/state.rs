@@ -1,0 +1,70 @@
+//! What every handler may reach: the store, the photo folder, the checklist, the
+//! duplicate index, the sign-in limits and the turns for decoding photos, opened
+//! together at start-up.
+
+use crate::{duplicates, intake, people, store, taxa};
+
+use std::path::PathBuf;
+
+/// What every handler may reach.
+#[derive(Clone)]
+pub struct AppState {
+    pub store: store::Store,
+    pub photos: intake::photos::PhotoFiles,
+    /// Where the built app (index.html, wasm, service worker) lives, if it is served.
+    pub app_dir: Option<PathBuf>,
+    /// The species checklist the key, the flags, review and the exports use, indexed by
+    /// every scientific and common name.
+    pub taxa: std::sync::Arc<taxa::TaxonIndex>,
+    /// Failed sign-ins by username and client address, for the rate limit.
+    pub logins: people::auth::LoginLimiter,
+    /// Positions of stored records, for finding duplicates. A `std` mutex held only
+    /// for a query plus an insert, never across an `.await`, so that two arrivals of one
+    /// animal always see each other.
+    pub duplicates: std::sync::Arc<std::sync::Mutex<duplicates::Index>>,
+    /// Turns for decoding photos (one per core), so parallel uploads cannot take all
+    /// the memory; see `intake::gate`.
+    pub decode_gate: intake::gate::DecodeGate,
+}
+
+impl AppState {
+    /// The checklist in use.
+    pub fn checklist(&self) -> &species_key::Checklist {
+        self.taxa.checklist()
+    }
+
+    /// The parts of the server intake works with.
+    pub fn intake(&self) -> intake::Intake {
+        intake::Intake {
+            store: self.store.clone(),
+            photos: self.photos.clone(),
+            decode_gate: self.decode_gate.clone(),
+            taxa: self.taxa.clone(),
+        }
+    }
+
+    /// Opens (and migrates) the database in `data_dir` and the photo folder beside it.
+    pub fn open(
+        data_dir: &std::path::Path,
+        app_dir: Option<PathBuf>,
+        checklist: species_key::Checklist,
+    ) -> anyhow::Result<Self> {
+        use anyhow::Context as _;
+        std::fs::create_dir_all(data_dir)
+            .with_context(|| format!("creating the data directory {}", data_dir.display()))?;
+        let store = store::Store::open(&data_dir.join("wrackline.sqlite3"))?;
+        let photos = intake::photos::PhotoFiles::open(&data_dir.join("photos"))?;
+        let taxa = std::sync::Arc::new(taxa::TaxonIndex::new(checklist));
+        let duplicates = std::sync::Arc::new(std::sync::Mutex::new(duplicates::search::build_index(&store, &taxa)?));
+        let decode_gate = intake::gate::DecodeGate::sized_to_cores();
+        Ok(Self {
+            store,
+            photos,
+            app_dir,
+            taxa,
+            logins: people::auth::LoginLimiter::default(),
+            duplicates,
+            decode_gate,
+        })
+    }
+}
