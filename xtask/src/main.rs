@@ -22,7 +22,7 @@ mod tidy;
 
 use std::path::PathBuf;
 
-use anyhow::{Result, bail};
+use anyhow::{Context as _, Result, bail};
 
 fn main() -> Result<()> {
     let mut args = std::env::args().skip(1);
@@ -128,5 +128,15 @@ fn bench() -> Result<()> {
     run::cargo(&["build", "--release", "-p", "wrackline-server"])?;
     let server = root().join("target/release/wrackline");
     run::browser_script("bench_key.mjs", &dist, &server)?;
-    run::browser_bench(&dist, &bench_wasm, &server)
+    run::browser_bench(&dist, &bench_wasm, &server)?;
+    print_recorded_figures()
+}
+
+/// The figures recorded in `docs/benchmarks.md`, printed after a run to compare with.
+fn print_recorded_figures() -> Result<()> {
+    let file = root().join("docs/benchmarks.md");
+    let text = std::fs::read_to_string(&file).with_context(|| format!("reading {}", file.display()))?;
+    println!("\nRecorded figures ({}), to compare with this run:\n", file.display());
+    text.lines().filter(|line| line.starts_with('|')).for_each(|line| println!("{line}"));
+    Ok(())
 }
