@@ -1,7 +1,9 @@
 //! `spawn_app()`: a freshly migrated database in a temp dir and the server on port 0,
 //! with typed request helpers.
 
+use std::future::Future;
 use std::path::{Path, PathBuf};
+use std::sync::Arc;
 
 use reqwest::multipart::{Form, Part};
 use serde_json::{Value, json};
@@ -76,6 +78,32 @@ async fn spawn(app_dir: Option<PathBuf>, decode_turns: Option<usize>) -> TestApp
     let client = reqwest::Client::new();
     let reviewer = sign_in(&client, &base, "test-reviewer", REVIEWER_PASSWORD).await.expect("reviewer signs in");
     TestApp { base, client, data_dir, reviewer, decode_gate, _dir: dir }
+}
+
+/// Runs the `requests` on tasks of their own that wait at one barrier, so they all start
+/// together — on a multi-thread runtime, in parallel — and returns their outputs in order.
+/// For tests of what happens when requests really arrive at once.
+pub async fn all_at_once<T, F>(requests: Vec<F>) -> Vec<T>
+where
+    T: Send + 'static,
+    F: Future<Output = T> + Send + 'static,
+{
+    let barrier = Arc::new(tokio::sync::Barrier::new(requests.len()));
+    let tasks: Vec<_> = requests
+        .into_iter()
+        .map(|request| {
+            let barrier = barrier.clone();
+            tokio::spawn(async move {
+                barrier.wait().await;
+                request.await
+            })
+        })
+        .collect();
+    let mut outputs = Vec::with_capacity(tasks.len());
+    for task in tasks {
+        outputs.push(task.await.expect("a request task panicked"));
+    }
+    outputs
 }
 
 /// Signs in over HTTP, or says what the server answered.
