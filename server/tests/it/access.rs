@@ -384,6 +384,22 @@ async fn one_address_trying_many_names_is_stopped() {
     );
 }
 
+/// Guesses sent in parallel get no more tries than guesses sent one after another: the
+/// lock counts a guess before its (slow) password check, not after.
+#[tokio::test(flavor = "multi_thread", worker_threads = 4)]
+async fn wrong_passwords_sent_at_once_get_no_more_tries_than_the_lock_allows() {
+    let app = std::sync::Arc::new(spawn_app().await);
+    let guess = || {
+        let app = app.clone();
+        async move { sign_in_from(&app, "203.0.113.77", "test-reviewer", "not the password").await }
+    };
+    let limit = wrackline_server::auth::MAX_FAILURES;
+    let statuses = crate::helpers::all_at_once((0..3 * limit).map(|_| guess()).collect()).await;
+    let tried = statuses.iter().filter(|s| **s == 401).count();
+    let refused = statuses.iter().filter(|s| **s == 429).count();
+    assert_eq!((tried, refused), (limit, 2 * limit), "{} guesses at once: {statuses:?}", 3 * limit);
+}
+
 /// An unknown username costs the same argon2 work as a known one with a wrong
 /// password, so the answer's timing does not say which names exist.
 #[tokio::test]
