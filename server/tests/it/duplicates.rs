@@ -2,7 +2,6 @@
 //! shown to reviewers with reasons, merged into one organism or kept apart, and a merge
 //! undone exactly. Nothing is ever deleted. Thresholds: `server/src/duplicates.rs`.
 
-use std::future::Future;
 use std::sync::Arc;
 
 use serde_json::{Value, json};
@@ -110,8 +109,8 @@ async fn a_carcass_reported_twice_is_found_with_its_reasons_both_ways() {
 }
 
 /// Sends `record` from the phone with `token`; the answer's status.
-fn send_from(app: Arc<TestApp>, token: String, record: Value) -> impl Future<Output = u16> + Send + 'static {
-    async move { app.submit_as(&token, &record, &[]).await.status }
+async fn send_from(app: Arc<TestApp>, token: String, record: Value) -> u16 {
+    app.submit_as(&token, &record, &[]).await.status
 }
 
 /// The client ids of the records offered as the same animal as `id`.
@@ -136,8 +135,16 @@ async fn two_devices_sending_the_same_animal_at_once_become_candidates_of_each_o
         ])
         .await;
         assert_eq!(statuses, [200, 200], "round {round}");
-        assert_eq!(partners(&app, &first).await, [second.clone()], "round {round}: the first finds the second");
-        assert_eq!(partners(&app, &second).await, [first.clone()], "round {round}: the second finds the first");
+        assert_eq!(
+            partners(&app, &first).await,
+            std::slice::from_ref(&second),
+            "round {round}: the first finds the second"
+        );
+        assert_eq!(
+            partners(&app, &second).await,
+            std::slice::from_ref(&first),
+            "round {round}: the second finds the first"
+        );
     }
 }
 
