@@ -41,18 +41,27 @@ pub async fn spawn_app() -> TestApp {
 }
 
 pub async fn spawn_app_with(app_dir: Option<PathBuf>) -> TestApp {
-    spawn(app_dir, None).await
+    spawn(app_dir, None, None).await
 }
 
 /// The server with room for `turns` photo decodes at once (the default is one per core).
 pub async fn spawn_app_with_decode_turns(turns: usize) -> TestApp {
-    spawn(None, Some(turns)).await
+    spawn(None, Some(turns), None).await
 }
 
-async fn spawn(app_dir: Option<PathBuf>, decode_turns: Option<usize>) -> TestApp {
+/// The server started with `checklist` instead of the built-in demo checklist.
+pub async fn spawn_app_with_checklist(checklist: species_key::Checklist) -> TestApp {
+    spawn(None, None, Some(checklist)).await
+}
+
+async fn spawn(
+    app_dir: Option<PathBuf>,
+    decode_turns: Option<usize>,
+    checklist: Option<species_key::Checklist>,
+) -> TestApp {
     let dir = tempfile::tempdir().expect("temp dir");
     let data_dir = dir.path().join("data");
-    let checklist = wrackline_server::load_checklist(None).expect("demo checklist");
+    let checklist = checklist.unwrap_or_else(|| wrackline_server::load_checklist(None).expect("demo checklist"));
     let mut state = AppState::open(&data_dir, app_dir, checklist).expect("open state");
     if let Some(turns) = decode_turns {
         state.decode_gate = wrackline_server::intake::gate::DecodeGate::new(turns);
