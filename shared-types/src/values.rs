@@ -265,7 +265,8 @@ mod tests {
     fn latitude_outside_the_globe_is_refused_with_its_value() {
         let err = Latitude::parse(91.5).unwrap_err();
         assert!(err.to_string().contains("91.5"), "{err}");
-        assert!(Latitude::parse(f64::NAN).is_err());
+        let err = Latitude::parse(f64::NAN).unwrap_err();
+        assert_eq!(err.to_string(), "latitude must be between -90 and 90 degrees, got NaN");
         assert_eq!(Latitude::parse(-90.0).unwrap().get(), -90.0);
     }
 
@@ -284,14 +285,17 @@ mod tests {
         // 1 in = 2.54 cm exactly (international yard and pound agreement, 1959).
         assert_eq!(LengthValue::parse(10.0, LengthUnit::Inch).unwrap().centimetres(), 25.4);
         assert_eq!(LengthValue::parse(1.5, LengthUnit::M).unwrap().centimetres(), 150.0);
-        assert!(LengthValue::parse(26.0, LengthUnit::M).is_err());
-        assert!(LengthValue::parse(0.0, LengthUnit::Cm).is_err());
+        let err = LengthValue::parse(26.0, LengthUnit::M).unwrap_err();
+        assert!(err.to_string().contains("is 2600 cm, longer than any shark or ray"), "{err}");
+        let err = LengthValue::parse(0.0, LengthUnit::Cm).unwrap_err();
+        assert_eq!(err.to_string(), "length must be a positive number, got 0");
     }
 
     #[test]
     fn text_is_trimmed_and_bounded() {
         assert_eq!(Text::parse("  spurdog \n").unwrap().as_str(), "spurdog");
-        assert!(Text::parse(&"x".repeat(Text::MAX_CHARS + 1)).is_err());
+        let err = Text::parse(&"x".repeat(Text::MAX_CHARS + 1)).unwrap_err();
+        assert_eq!(err.to_string(), "text is 4001 characters long; at most 4000 are allowed");
     }
 
     #[test]
@@ -300,8 +304,10 @@ mod tests {
         // empty input (FIPS 180-4 test vectors, common practice to quote).
         let empty = "E3B0C44298FC1C149AFBF4C8996FB92427AE41E4649B934CA495991B7852B855";
         assert_eq!(Sha256Hex::parse(empty).unwrap().as_str(), empty.to_ascii_lowercase());
-        assert!(Sha256Hex::parse(&empty[..63]).is_err(), "63 digits");
-        assert!(Sha256Hex::parse(&format!("{}g", &empty[..63])).is_err(), "not hex");
+        for (wrong, why) in [(empty[..63].to_owned(), "63 digits"), (format!("{}g", &empty[..63]), "not hex")] {
+            let err = Sha256Hex::parse(&wrong).unwrap_err();
+            assert!(err.to_string().starts_with("a SHA-256 digest must be 64 hexadecimal digits"), "{why}: {err}");
+        }
         let err = serde_json::from_str::<Sha256Hex>("\"abc\"").unwrap_err();
         assert!(err.to_string().contains("64 hexadecimal digits"), "{err}");
     }

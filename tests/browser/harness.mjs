@@ -101,3 +101,29 @@ export async function openOnPhone(context, server) {
   await page.waitForFunction(() => navigator.serviceWorker?.controller, null, { timeout: 15000 });
   return page;
 }
+
+// Asks `check` (sync or async) again every `every` ms until it returns something truthy,
+// and returns that. After `timeout` ms it throws an Error naming `what` never happened
+// and the last answer seen. For conditions outside the page (the server's state); inside
+// the page, `page.waitForFunction` does the same.
+export async function eventually(what, check, { timeout = 15000, every = 100 } = {}) {
+  const deadline = Date.now() + timeout;
+  for (;;) {
+    const answer = await check();
+    if (answer) return answer;
+    if (Date.now() >= deadline) {
+      throw new Error(`${what}: not seen within ${timeout} ms (last answer: ${JSON.stringify(answer)})`);
+    }
+    await new Promise((resolve) => setTimeout(resolve, every));
+  }
+}
+
+// Presses "Send now" and returns once that sync round has finished: a round ends by
+// asking the server for the phone's records (GET /api/my/records), and the status line
+// says "sending…" until the last round has ended.
+export async function sendNowAndWait(page) {
+  const asked = page.waitForRequest((request) => new URL(request.url()).pathname === '/api/my/records', { timeout: 15000 });
+  await page.click('#send-now');
+  await (await asked).response();
+  await page.waitForFunction(() => document.querySelector('#sync-status')?.textContent !== 'sending…', null, { timeout: 15000 });
+}

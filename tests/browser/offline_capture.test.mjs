@@ -2,12 +2,13 @@
 // photos, the page is reloaded while still offline (the app and its outbox must
 // survive), the connection returns, and the server holds each record exactly once.
 //
-// Two negative controls show the test can fail: with the service worker blocked the
-// offline reload cannot open the app, and with IndexedDB taken away the outbox keeps
-// nothing; in both cases the same scenario must fail.
+// Two negative controls show the test can fail, each at the step it is about: with the
+// service worker blocked the offline reload cannot open the app, and with IndexedDB taken
+// away the phone refuses to save the record. The journey stops with a `JourneyStopped`
+// naming its step, and each control checks that it stopped there, for that reason.
 import { test, before, after } from 'node:test';
 import assert from 'node:assert/strict';
-import { startServer, launchBrowser, screenshotPath, demoPhoto } from './harness.mjs';
+import { startServer, launchBrowser, screenshotPath, demoPhoto, sendNowAndWait } from './harness.mjs';
 
 let browser;
 before(async () => { browser = await launchBrowser(); });
@@ -18,7 +19,24 @@ const FINDS = [
   { species: 'thornback ray', length: '47', condition: 'decomposed', setting: 'beach_stranding', photo: 'ray.jpg' },
 ];
 
-async function fillRecord(page, find) {
+// The steps of the journey a negative control may stop at.
+const STEP = {
+  save: 'save the record in the outbox while offline',
+  reload: 'reload the app while offline',
+};
+
+// The journey did not get past `step`; `detail` says what the page showed instead.
+class JourneyStopped extends Error {
+  constructor(step, detail) {
+    super(`${step}: ${detail}`);
+    this.name = 'JourneyStopped';
+    this.step = step;
+  }
+}
+
+// Fills the form and saves; resolves once the outbox lists `expected` entries, or throws
+// JourneyStopped with the phone's own words when it says the record was not saved.
+async function saveRecord(page, find, expected) {
   await page.fill('#species', find.species);
   await page.fill('#length', find.length);
   await page.selectOption('#condition', find.condition);
@@ -26,6 +44,13 @@ async function fillRecord(page, find) {
   await page.setInputFiles('#photo-input', demoPhoto(find.photo));
   await page.waitForSelector('.thumbs img');
   await page.click('#save-send');
+  const outcome = await page.waitForFunction((n) => {
+    if (document.querySelectorAll('.outbox-entry').length === n) return 'saved';
+    const note = document.querySelector('#saved-note')?.textContent ?? '';
+    return note.startsWith('Could not save') ? note : null;
+  }, expected, { timeout: 8000 });
+  const said = await outcome.jsonValue();
+  if (said !== 'saved') throw new JourneyStopped(STEP.save, said);
 }
 
 async function entryStates(page) {
@@ -57,13 +82,14 @@ async function offlineJourney(server, { serviceWorkers = 'allow', withoutIndexed
     await page.waitForFunction(() => document.querySelector('#position-note')?.textContent.includes('±'), null, { timeout: 10000 });
 
     await context.setOffline(true);
-    for (const [index, find] of FINDS.entries()) {
-      await fillRecord(page, find);
-      await page.waitForFunction((n) => document.querySelectorAll('.outbox-entry').length === n, index + 1, { timeout: 8000 });
-    }
+    for (const [index, find] of FINDS.entries()) await saveRecord(page, find, index + 1);
     if (shots) await page.screenshot({ path: screenshotPath('offline-two-records'), fullPage: true });
 
-    await page.reload({ timeout: 10000 });
+    try {
+      await page.reload({ timeout: 10000 });
+    } catch (err) {
+      throw new JourneyStopped(STEP.reload, err.message.split('\n')[0]);
+    }
     await page.waitForFunction(() => document.querySelectorAll('.outbox-entry').length === 2, null, { timeout: 10000 });
     const offlineStates = await entryStates(page);
     assert.ok(offlineStates.every((e) => e.text.includes('waiting to send')), JSON.stringify(offlineStates));
@@ -77,8 +103,7 @@ async function offlineJourney(server, { serviceWorkers = 'allow', withoutIndexed
     if (shots) await page.screenshot({ path: screenshotPath('synced'), fullPage: true });
 
     // Ask for another round: a resend must not make a second copy.
-    await page.click('#send-now');
-    await page.waitForTimeout(1500);
+    await sendNowAndWait(page);
     return { ids: (await entryStates(page)).map((e) => e.id), records: await server.records() };
   } finally {
     await context.close();
@@ -107,16 +132,22 @@ test('two records made offline survive a reload and reach the server exactly onc
 test('negative control: without the service worker the offline reload fails', async () => {
   const server = await startServer();
   try {
-    await assert.rejects(offlineJourney(server, { serviceWorkers: 'block' }));
+    // Without the worker's cache the browser has nothing to show offline.
+    await assert.rejects(offlineJourney(server, { serviceWorkers: 'block' }),
+      { name: 'JourneyStopped', step: STEP.reload, message: /net::ERR_INTERNET_DISCONNECTED/ });
   } finally {
     server.stop();
   }
 });
 
-test('negative control: without the IndexedDB outbox nothing survives', async () => {
+test('negative control: without IndexedDB the phone refuses to save, saying why', async () => {
   const server = await startServer();
   try {
-    await assert.rejects(offlineJourney(server, { withoutIndexedDb: true }));
+    await assert.rejects(offlineJourney(server, { withoutIndexedDb: true }), {
+      name: 'JourneyStopped',
+      step: STEP.save,
+      message: /Could not save on this phone: this browser offers no offline storage \(IndexedDB\)\. Your form is kept/,
+    });
     assert.equal((await server.records()).length, 0);
   } finally {
     server.stop();

@@ -5,7 +5,7 @@
 // both records on it — and a record sent later can still be added to it.
 import { test, before, after } from 'node:test';
 import assert from 'node:assert/strict';
-import { startServer, launchBrowser, phone, openOnPhone } from './harness.mjs';
+import { startServer, launchBrowser, phone, openOnPhone, eventually, sendNowAndWait } from './harness.mjs';
 
 let browser;
 before(async () => { browser = await launchBrowser(); });
@@ -39,12 +39,18 @@ test('a walk made offline reaches the server once, with its route and its record
     await page.check('#walk-all-finds');
     await page.click('#start-walk');
     await page.waitForSelector('#walk-active');
-    // Move along the route; the phone keeps at most one fix every 10 s.
-    for (const [lat, lon] of ROUTE.slice(1)) {
-      await page.waitForTimeout(10500);
-      await context.setGeolocation({ latitude: lat, longitude: lon, accuracy: 6 });
+    await page.waitForFunction(() => /\b1 fixes kept/.test(document.querySelector('#walk-progress')?.textContent));
+    // Move along the route. The phone keeps at most one fix every 10 s, timed by the
+    // browser's own position timestamps (a fake page clock does not move them), so each
+    // next position is offered again until the phone keeps it.
+    for (let fix = 1; fix < ROUTE.length; fix++) {
+      const [latitude, longitude] = ROUTE[fix];
+      const kept = new RegExp(`\\b${fix + 1} fixes kept`);
+      await eventually(`the phone keeps fix ${fix + 1} of the route`, async () => {
+        await context.setGeolocation({ latitude, longitude, accuracy: 6 });
+        return kept.test(await page.textContent('#walk-progress'));
+      }, { timeout: 20000, every: 500 });
     }
-    await page.waitForFunction(() => /3 fixes kept/.test(document.querySelector('#walk-progress')?.textContent), null, { timeout: 15000 }).catch(async (e) => { console.log('PROGRESS', await page.textContent('#walk-active'), await page.textContent('#walk-note')); throw e; });
     await record(page, 'small-spotted catshark');
     await page.click('#end-walk');
     await page.waitForSelector('.walk-entry');
@@ -63,8 +69,8 @@ test('a walk made offline reaches the server once, with its route and its record
     await context.setOffline(false);
     await page.waitForFunction(() => document.querySelector('.walk-entry')?.textContent.includes('received by the server')
       && [...document.querySelectorAll('.outbox-entry')].every((li) => li.textContent.includes('received by the server')), null, { timeout: 30000 });
-    await page.click('#send-now');
-    await page.waitForTimeout(1000);
+    // Ask for another round: a walk sent again must stay one walk.
+    await sendNowAndWait(page);
 
     const walks = await server.get('/api/walks');
     assert.equal(walks.length, 1, 'a walk sent twice is one walk');
@@ -83,13 +89,10 @@ test('a walk made offline reaches the server once, with its route and its record
     await page.waitForFunction(() => document.querySelector('.outbox-entry')?.textContent.includes('received by the server'), null, { timeout: 15000 });
     const late = page.locator('.outbox-entry', { hasText: 'spurdog' });
     await late.locator('select.add-to-walk').selectOption({ index: 1 });
-    for (let tries = 0; ; tries++) {
+    await eventually('the server links the late record to the walk', async () => {
       const [w] = await server.get('/api/walks');
-      if (w.record_client_ids.length === 3) break;
-      if (tries >= 30) console.log('STATE', await page.textContent('#outbox-list'), await page.textContent('#sync-status'));
-      assert.ok(tries < 30, `the late link never arrived: ${JSON.stringify(w.record_client_ids)}`);
-      await page.waitForTimeout(500);
-    }
+      return w.record_client_ids.length === 3;
+    });
     // Once the server has linked it, the record still says it is on the walk and offers
     // no second link (which the server would refuse).
     await page.waitForFunction(() => {

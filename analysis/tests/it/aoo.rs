@@ -37,8 +37,10 @@ fn cell_counts_match_pyproj_for_the_fixed_and_shifted_grids() {
 
 #[test]
 fn square_corners_give_four_cells_or_one_depending_on_the_origin() {
-    // IUCN Guidelines / shared/REFERENCES.md: four corners of a 1.5 km square give 1 or 4
-    // cells. The corners are placed by pyproj's inverse projection across a cell corner.
+    // Guidelines for Using the IUCN Red List Categories and Criteria (v16, 2024): the grid's
+    // origin is not fixed and changes the count [checked]. Arithmetic: the four corners of a
+    // 1.5 km square fit in one 2 km cell, or fall in four when the square straddles a cell
+    // corner. The corners are placed by pyproj's inverse projection across a cell corner.
     let set = fixtures::point_set("square_corners");
     let result = aoo(&set.lat_lons(), &set.grid()).unwrap();
     assert_eq!(result.occupied_cells, 4);

@@ -13,8 +13,9 @@ fn limits(table: &[analysis::criteria::Threshold; 3]) -> Vec<(Category, f64)> {
 
 #[test]
 fn tables_hold_the_published_limits() {
-    // IUCN Criteria v3.1: B1 < 100 / 5,000 / 20,000 km²; B2 < 10 / 500 / 2,000 km²
-    // (CR, EN checked; VU from memory per REFERENCES.md); A1 ≥ 90/70/50 %; A2–A4 ≥ 80/50/30 %.
+    // IUCN Red List Categories and Criteria v3.1 (2nd ed., 2012): B1 < 100 / 5,000 /
+    // 20,000 km²; B2 < 10 / 500 / 2,000 km² (CR and EN checked; VU from memory);
+    // A1 ≥ 90/70/50 %; A2–A4 ≥ 80/50/30 % [checked].
     assert_eq!(limits(&B1_EOO_KM2), [(Cr, 100.0), (En, 5_000.0), (Vu, 20_000.0)]);
     assert_eq!(limits(&B2_AOO_KM2), [(Cr, 10.0), (En, 500.0), (Vu, 2_000.0)]);
     assert_eq!(limits(&A1_REDUCTION_PERCENT), [(Cr, 90.0), (En, 70.0), (Vu, 50.0)]);
@@ -41,7 +42,7 @@ fn texts_name_the_band_and_the_cautions() {
     assert!(b.text.contains("EOO 4,000 km² is within the Endangered (EN) threshold for B1"), "{}", b.text);
     assert!(b.text.contains("inputs to a threatened-species assessment"), "{}", b.text);
 
-    // REFERENCES.md [checked, arithmetic]: 20% in 10 years is 48.8% over 30 years.
+    // Arithmetic: a steady 20% in 10 years is 1 − 0.8³ = 48.8% over 30 years.
     let a = criterion_a(-0.488, 30.0);
     assert_eq!((a.a1_band, a.a2_to_a4_band), (None, Some(Vu)));
     assert!(a.text.contains("a reduction of 48.8% over 30 years"), "{}", a.text);

@@ -12,9 +12,9 @@ fn design(rows: &[Vec<f64>]) -> Design {
 
 #[test]
 fn british_doctors_example_reproduces_the_published_coefficients() {
-    // Dobson & Barnett, An Introduction to Generalized Linear Models, British doctors
-    // (values in REFERENCES.md, checked with statsmodels 0.15): terms 1, agecat, agecat²,
-    // smoke, smoke×agecat; offset log(person-years).
+    // Dobson & Barnett, An Introduction to Generalized Linear Models, British doctors data
+    // (the values checked with statsmodels 0.15; the textbook section from memory): terms
+    // 1, agecat, agecat², smoke, smoke×agecat; offset log(person-years).
     let data = fixtures::trend().dobson;
     let offsets: Vec<f64> = data.person_years.iter().map(|p| p.ln()).collect();
     let fit = poisson_glm(&design(&data.rows), &data.deaths, &offsets).unwrap();

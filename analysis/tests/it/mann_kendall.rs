@@ -6,7 +6,7 @@ use crate::{assert_close, fixtures};
 
 #[test]
 fn worked_series_with_ties_gives_the_published_values() {
-    // Hirsch et al. 1982; Gilbert 1987 (REFERENCES.md, checked with pymannkendall and scipy):
+    // Hirsch et al. 1982; Gilbert 1987, the worked values checked with pymannkendall and scipy:
     // y = 5,7,7,6,4,4,3,5,2,2 → S = −29, Var(S) = 121, Z = −2.545455, p = 0.010914, Sen −0.5.
     let result = mann_kendall(&[5.0, 7.0, 7.0, 6.0, 4.0, 4.0, 3.0, 5.0, 2.0, 2.0]).unwrap();
     assert_eq!(result.s, -29);

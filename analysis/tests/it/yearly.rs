@@ -71,8 +71,8 @@ fn five_overdispersed_years_get_the_wider_t_interval() {
 
 #[test]
 fn a_fifth_lost_per_decade_is_about_half_over_three_generations() {
-    // REFERENCES.md [checked, arithmetic]: a 20% decline in 10 years is 1 − 0.8³ = 48.8%
-    // over 30 years. Counts follow that rate exactly (rounded on a large effort).
+    // Arithmetic: a 20% decline in 10 years is 1 − 0.8³ = 48.8% over 30 years. Counts
+    // follow that rate exactly (rounded on a large effort).
     let data: Vec<YearCount> = (0..12)
         .map(|i| {
             let effort = 1e6;

@@ -35,9 +35,11 @@ pub async fn search_once(
 
 /// The search for one stored record: records holding the same photo (file or original)
 /// at any time and place, and the index's neighbours of each of its places; the record's
-/// places join the index. The index lock covers the query and the insert together, so of
-/// two arrivals of one animal the second always finds the first. Marks the search done
-/// in the transaction that keeps the candidates.
+/// places join the index. Searches run one at a time on the store's one writer
+/// connection (`Store::run`), which covers the index query and insert together, so of
+/// two arrivals of one animal the second always finds the first (the race test in
+/// `tests/it/duplicates.rs` fails when the insert moves outside it). Marks the search
+/// done in the transaction that keeps the candidates.
 pub fn search(
     conn: &mut rusqlite::Connection,
     index: &Mutex<Index>,

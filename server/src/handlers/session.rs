@@ -33,7 +33,9 @@ pub async fn login(
 ) -> Result<Response, ApiError> {
     let request: LoginRequest = parse_json(&body).map_err(intake_error)?;
     let username = request.username.trim().to_owned();
-    if let Some((wait, lock)) = state.logins.locked_for(&username, address, Instant::now()) {
+    // Counted as a failure from here on, so parallel guesses cannot all pass this check.
+    let began = Instant::now();
+    if let Err((wait, lock)) = state.logins.begin_attempt(&username, address, began) {
         let minutes = wait.as_secs().div_ceil(60);
         let whose = match lock {
             auth::Lock::NameFromAddress => format!("for {username} from this address"),
@@ -55,10 +57,9 @@ pub async fn login(
     .await
     .map_err(|err| ApiError::Internal(anyhow::anyhow!("password check failed: {err}")))?;
     let Some((person, _)) = verified.filter(|(p, _)| !p.disabled) else {
-        state.logins.record_failure(&username, address, Instant::now());
         return Err(ApiError::Unauthorized("wrong username or password".into()));
     };
-    state.logins.succeeded(&username, address);
+    state.logins.succeeded(&username, address, began);
     let (token, csrf_token) = (new_token(), new_token());
     let (hash, csrf, id, now) = (token_sha256(&token), csrf_token.clone(), person.id, Utc::now());
     state

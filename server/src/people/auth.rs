@@ -13,7 +13,9 @@
 //! - one username from all addresses: [`MAX_FAILURES_PER_NAME`] — a spread-out attack.
 //!
 //! So a stranger can lock a reviewer out only from many addresses at once, not from
-//! one. Each count keeps at most [`MAX_TRACKED`] keys: expired ones are pruned first,
+//! one. A sign-in is counted as a failure when it starts, before its slow password
+//! check, and a right password takes that back: guesses sent in parallel get no more
+//! tries than guesses sent one after another. Each count keeps at most [`MAX_TRACKED`] keys: expired ones are pruned first,
 //! then the key whose last failure is oldest is forgotten.
 
 use std::collections::{HashMap, VecDeque};
@@ -103,6 +105,18 @@ impl<K: Eq + Hash + Clone> Tracker<K> {
         (times.len() >= self.limit).then(|| FAILURE_WINDOW.saturating_sub(now.duration_since(times[0])))
     }
 
+    /// Takes back one failure recorded for `key` at `at` (an attempt that succeeded).
+    fn take_back(&mut self, key: &K, at: Instant) {
+        if let Some(times) = self.recent.get_mut(key) {
+            if let Some(position) = times.iter().rposition(|t| *t == at) {
+                times.remove(position);
+            }
+            if times.is_empty() {
+                self.recent.remove(key);
+            }
+        }
+    }
+
     fn record(&mut self, key: K, now: Instant) {
         if !self.recent.contains_key(&key) && self.recent.len() >= MAX_TRACKED {
             self.make_room(now);
@@ -154,6 +168,24 @@ struct Failures {
     name: Tracker<String>,
 }
 
+impl Failures {
+    fn locked_for(&mut self, name: &str, address: IpAddr, now: Instant) -> Option<(Duration, Lock)> {
+        let pair = self
+            .name_and_address
+            .locked_for(&(name.to_owned(), address), now)
+            .map(|wait| (wait, Lock::NameFromAddress));
+        let from_address = self.address.locked_for(&address, now).map(|wait| (wait, Lock::Address));
+        let for_name = self.name.locked_for(&name.to_owned(), now).map(|wait| (wait, Lock::Name));
+        pair.into_iter().chain(from_address).chain(for_name).max_by_key(|(wait, _)| *wait)
+    }
+
+    fn record(&mut self, name: &str, address: IpAddr, now: Instant) {
+        self.name_and_address.record((name.to_owned(), address), now);
+        self.address.record(address, now);
+        self.name.record(name.to_owned(), now);
+    }
+}
+
 /// Failed sign-ins by username and client address.
 #[derive(Clone)]
 pub struct LoginLimiter {
@@ -180,29 +212,36 @@ impl LoginLimiter {
 
     /// How long until `username` may try again from `address`, and which count says so.
     pub fn locked_for(&self, username: &str, address: IpAddr, now: Instant) -> Option<(Duration, Lock)> {
-        let name = username.to_lowercase();
-        let mut failures = self.lock();
-        let pair = failures
-            .name_and_address
-            .locked_for(&(name.clone(), address), now)
-            .map(|wait| (wait, Lock::NameFromAddress));
-        let from_address = failures.address.locked_for(&address, now).map(|wait| (wait, Lock::Address));
-        let for_name = failures.name.locked_for(&name, now).map(|wait| (wait, Lock::Name));
-        pair.into_iter().chain(from_address).chain(for_name).max_by_key(|(wait, _)| *wait)
+        self.lock().locked_for(&username.to_lowercase(), address, now)
     }
 
     pub fn record_failure(&self, username: &str, address: IpAddr, now: Instant) {
-        let name = username.to_lowercase();
-        let mut failures = self.lock();
-        failures.name_and_address.record((name.clone(), address), now);
-        failures.address.record(address, now);
-        failures.name.record(name, now);
+        self.lock().record(&username.to_lowercase(), address, now);
     }
 
-    /// A successful sign-in forgets that username's failures from that address; the
-    /// address's and the name's totals stand until they expire.
-    pub fn succeeded(&self, username: &str, address: IpAddr) {
-        self.lock().name_and_address.recent.remove(&(username.to_lowercase(), address));
+    /// Starts a sign-in at `now`: refused while a count is locked, else counted as a
+    /// failure at once, in the same step, so that guesses sent in parallel are each
+    /// counted before any password is checked. A right password takes the count back
+    /// ([`LoginLimiter::succeeded`] with the same `now`).
+    pub fn begin_attempt(&self, username: &str, address: IpAddr, now: Instant) -> Result<(), (Duration, Lock)> {
+        let name = username.to_lowercase();
+        let mut failures = self.lock();
+        if let Some(lock) = failures.locked_for(&name, address, now) {
+            return Err(lock);
+        }
+        failures.record(&name, address, now);
+        Ok(())
+    }
+
+    /// The attempt begun at `began` had the right password: that username's failures
+    /// from that address are forgotten, and the attempt is taken back from the address's
+    /// and the name's totals (their earlier failures stand until they expire).
+    pub fn succeeded(&self, username: &str, address: IpAddr, began: Instant) {
+        let name = username.to_lowercase();
+        let mut failures = self.lock();
+        failures.name_and_address.recent.remove(&(name.clone(), address));
+        failures.address.take_back(&address, began);
+        failures.name.take_back(&name, began);
     }
 
     /// How many keys the three counts hold together.
@@ -242,6 +281,30 @@ mod tests {
         assert!(limiter.locked_for("reviewer", AWAY, start).is_none(), "the reviewer can still sign in from elsewhere");
         assert!(limiter.locked_for("admin", HOME, start).is_none());
         assert!(limiter.locked_for("reviewer", HOME, start + FAILURE_WINDOW + Duration::from_secs(1)).is_none());
+    }
+
+    #[test]
+    fn an_attempt_counts_when_it_begins_and_a_right_password_takes_it_back() {
+        let limiter = LoginLimiter::default();
+        let start = Instant::now();
+        for n in 0..MAX_FAILURES {
+            let at = start + Duration::from_millis(n as u64);
+            assert_eq!(
+                limiter.begin_attempt("reviewer", HOME, at),
+                Ok(()),
+                "attempt {n}, its password not yet checked"
+            );
+        }
+        let refused = limiter.begin_attempt("reviewer", HOME, start + Duration::from_secs(1));
+        assert_eq!(refused.map_err(|l| l.1), Err(Lock::NameFromAddress), "every attempt begun counts");
+        // Signing in many times over from one address locks nothing.
+        let fresh = LoginLimiter::default();
+        for n in 0..(2 * MAX_FAILURES_PER_ADDRESS) {
+            let at = start + Duration::from_millis(n as u64);
+            assert_eq!(fresh.begin_attempt("reviewer", HOME, at), Ok(()), "sign-in {n}");
+            fresh.succeeded("Reviewer", HOME, at);
+        }
+        assert_eq!(fresh.tracked(), 0, "each right password took its attempt back");
     }
 
     #[test]

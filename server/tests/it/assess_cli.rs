@@ -107,9 +107,10 @@ fn a_bad_cell_is_named_by_file_line_and_column() {
 #[test]
 fn trend_from_a_file_extrapolates_over_three_generations() {
     let dir = tempfile::tempdir().unwrap();
-    // A steady 20% decline per 10 years, counts rounded to whole animals. IUCN Guidelines
-    // (REFERENCES, arithmetic): 20% in 10 years is 1 − 0.8³ = 48.8% over 30 years
-    // (window = max(10, 3 × 10-year generation)).
+    // A steady 20% decline per 10 years, counts rounded to whole animals. The window is
+    // the longer of 10 years and three generations (IUCN Red List Categories and Criteria
+    // v3.1, criterion A [checked]): here 30 years; and 20% in 10 years is 1 − 0.8³ = 48.8%
+    // over 30 years (arithmetic).
     let mut csv = String::from("year,count,effort\n");
     for (i, year) in (2010..=2020).enumerate() {
         csv.push_str(&format!("{year},{},2.5\n", (10_000.0 * 0.8_f64.powf(i as f64 / 10.0)).round()));
@@ -133,7 +134,8 @@ fn trend_from_a_file_extrapolates_over_three_generations() {
 #[test]
 fn trend_reports_mann_kendall_and_takes_the_generation_length_from_the_checklist() {
     let dir = tempfile::tempdir().unwrap();
-    // Mann–Kendall worked values (REFERENCES, checked with pymannkendall and scipy):
+    // Mann–Kendall with tie correction and Sen's slope (Hirsch et al. 1982; Gilbert 1987),
+    // worked values checked with pymannkendall and scipy:
     // y = 5, 7, 7, 6, 4, 4, 3, 5, 2, 2 → S = −29, Var(S) = 121, Z = −2.545455, p = 0.010914, Sen −0.5.
     let counts = [5, 7, 7, 6, 4, 4, 3, 5, 2, 2];
     let mut csv = String::from("year,count,effort\n");

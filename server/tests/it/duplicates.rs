@@ -2,9 +2,11 @@
 //! shown to reviewers with reasons, merged into one organism or kept apart, and a merge
 //! undone exactly. Nothing is ever deleted. Thresholds: `server/src/duplicates.rs`.
 
+use std::sync::Arc;
+
 use serde_json::{Value, json};
 
-use crate::helpers::{TestApp, plain_jpeg, spawn_app, submission};
+use crate::helpers::{TestApp, all_at_once, plain_jpeg, spawn_app, submission};
 
 const FIRST: &str = "d0000000-0000-4000-8000-000000000001";
 const SECOND: &str = "d0000000-0000-4000-8000-000000000002";
@@ -106,18 +108,61 @@ async fn a_carcass_reported_twice_is_found_with_its_reasons_both_ways() {
     assert_eq!(detail(&app, THIRD).await["duplicates"], json!([]));
 }
 
-#[tokio::test]
+/// Sends `record` from the phone with `token`; the answer's status.
+async fn send_from(app: Arc<TestApp>, token: String, record: Value) -> u16 {
+    app.submit_as(&token, &record, &[]).await.status
+}
+
+/// The client ids of the records offered as the same animal as `id`.
+async fn partners(app: &TestApp, id: &str) -> Vec<String> {
+    let found = detail(app, id).await;
+    let duplicates = found["duplicates"].as_array().unwrap();
+    duplicates.iter().map(|d| d["other"]["submission"]["client_id"].as_str().unwrap().to_owned()).collect()
+}
+
+#[tokio::test(flavor = "multi_thread", worker_threads = 4)]
 async fn two_devices_sending_the_same_animal_at_once_become_candidates_of_each_other() {
-    let app = std::sync::Arc::new(spawn_app().await);
-    let (phone_a, phone_b) = (app.new_device().await, app.new_device().await);
-    let (a, b) = (app.clone(), app.clone());
-    let first =
-        tokio::spawn(async move { a.submit_as(&phone_a, &carcass(FIRST, 0, 0.0), &[plain_jpeg(3)]).await.status });
-    let second =
-        tokio::spawn(async move { b.submit_as(&phone_b, &carcass(SECOND, 0, 50.0), &[plain_jpeg(4)]).await.status });
-    assert_eq!((first.await.unwrap(), second.await.unwrap()), (200, 200));
-    assert_eq!(detail(&app, FIRST).await["duplicates"][0]["other"]["submission"]["client_id"], SECOND);
-    assert_eq!(detail(&app, SECOND).await["duplicates"][0]["other"]["submission"]["client_id"], FIRST);
+    let app = Arc::new(spawn_app().await);
+    // Each round is another animal, 20 km along the coast from the last: beyond any
+    // drift allowance, so the rounds never meet.
+    for round in 0..6 {
+        let (first, second) = (uuid::Uuid::new_v4().to_string(), uuid::Uuid::new_v4().to_string());
+        let (phone_a, phone_b) = (app.new_device().await, app.new_device().await);
+        let north_m = f64::from(round) * 20_000.0;
+        let statuses = all_at_once(vec![
+            send_from(app.clone(), phone_a, carcass(&first, 0, north_m)),
+            send_from(app.clone(), phone_b, carcass(&second, 0, north_m + 50.0)),
+        ])
+        .await;
+        assert_eq!(statuses, [200, 200], "round {round}");
+        assert_eq!(
+            partners(&app, &first).await,
+            std::slice::from_ref(&second),
+            "round {round}: the first finds the second"
+        );
+        assert_eq!(
+            partners(&app, &second).await,
+            std::slice::from_ref(&first),
+            "round {round}: the second finds the first"
+        );
+    }
+}
+
+#[tokio::test(flavor = "multi_thread", worker_threads = 4)]
+async fn one_pair_merged_by_three_requests_at_once_is_merged_once() {
+    let app = Arc::new(spawn_app().await);
+    app.submit(&carcass(FIRST, 0, 0.0), &[]).await;
+    app.submit(&carcass(SECOND, 1, 300.0), &[]).await;
+    let merge = || {
+        let app = app.clone();
+        async move { decide(&app, SECOND, FIRST, true).await.0 }
+    };
+    let mut statuses = all_at_once(vec![merge(), merge(), merge()]).await;
+    statuses.sort_unstable();
+    assert_eq!(statuses, [200, 409, 409], "one merge; the others find the record merged already");
+    let conn = rusqlite::Connection::open(app.data_dir.join("wrackline.sqlite3")).unwrap();
+    let merges: i64 = conn.query_row("SELECT COUNT(*) FROM merges", [], |r| r.get(0)).unwrap();
+    assert_eq!(merges, 1);
 }
 
 #[tokio::test]

@@ -1,7 +1,9 @@
 //! `spawn_app()`: a freshly migrated database in a temp dir and the server on port 0,
 //! with typed request helpers.
 
+use std::future::Future;
 use std::path::{Path, PathBuf};
+use std::sync::Arc;
 
 use reqwest::multipart::{Form, Part};
 use serde_json::{Value, json};
@@ -39,18 +41,27 @@ pub async fn spawn_app() -> TestApp {
 }
 
 pub async fn spawn_app_with(app_dir: Option<PathBuf>) -> TestApp {
-    spawn(app_dir, None).await
+    spawn(app_dir, None, None).await
 }
 
 /// The server with room for `turns` photo decodes at once (the default is one per core).
 pub async fn spawn_app_with_decode_turns(turns: usize) -> TestApp {
-    spawn(None, Some(turns)).await
+    spawn(None, Some(turns), None).await
 }
 
-async fn spawn(app_dir: Option<PathBuf>, decode_turns: Option<usize>) -> TestApp {
+/// The server started with `checklist` instead of the built-in demo checklist.
+pub async fn spawn_app_with_checklist(checklist: species_key::Checklist) -> TestApp {
+    spawn(None, None, Some(checklist)).await
+}
+
+async fn spawn(
+    app_dir: Option<PathBuf>,
+    decode_turns: Option<usize>,
+    checklist: Option<species_key::Checklist>,
+) -> TestApp {
     let dir = tempfile::tempdir().expect("temp dir");
     let data_dir = dir.path().join("data");
-    let checklist = wrackline_server::taxa::load_checklist(None).expect("demo checklist");
+    let checklist = checklist.unwrap_or_else(|| wrackline_server::taxa::load_checklist(None).expect("demo checklist"));
     let mut state = AppState::open(&data_dir, app_dir, checklist).expect("open state");
     if let Some(turns) = decode_turns {
         state.decode_gate = wrackline_server::intake::gate::DecodeGate::new(turns);
@@ -77,6 +88,32 @@ async fn spawn(app_dir: Option<PathBuf>, decode_turns: Option<usize>) -> TestApp
     let client = reqwest::Client::new();
     let reviewer = sign_in(&client, &base, "test-reviewer", REVIEWER_PASSWORD).await.expect("reviewer signs in");
     TestApp { base, client, data_dir, reviewer, decode_gate, _dir: dir }
+}
+
+/// Runs the `requests` on tasks of their own that wait at one barrier, so they all start
+/// together — on a multi-thread runtime, in parallel — and returns their outputs in order.
+/// For tests of what happens when requests really arrive at once.
+pub async fn all_at_once<T, F>(requests: Vec<F>) -> Vec<T>
+where
+    T: Send + 'static,
+    F: Future<Output = T> + Send + 'static,
+{
+    let barrier = Arc::new(tokio::sync::Barrier::new(requests.len()));
+    let tasks: Vec<_> = requests
+        .into_iter()
+        .map(|request| {
+            let barrier = barrier.clone();
+            tokio::spawn(async move {
+                barrier.wait().await;
+                request.await
+            })
+        })
+        .collect();
+    let mut outputs = Vec::with_capacity(tasks.len());
+    for task in tasks {
+        outputs.push(task.await.expect("a request task panicked"));
+    }
+    outputs
 }
 
 /// Signs in over HTTP, or says what the server answered.

@@ -17,6 +17,7 @@ mod people;
 mod photo_flags;
 mod pictures;
 mod python;
+mod regressions;
 mod review;
 mod routes;
 mod similar;

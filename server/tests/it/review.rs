@@ -158,6 +158,30 @@ async fn a_question_reaches_the_observer_and_their_answer_with_a_photo_reaches_t
     assert_eq!(seen[0]["current_taxon"], "Scyliorhinus canicula");
 }
 
+#[tokio::test(flavor = "multi_thread", worker_threads = 4)]
+async fn one_answer_resent_four_times_at_once_is_one_message() {
+    let app = std::sync::Arc::new(spawn_app().await);
+    let phone = app.new_device().await;
+    assert_eq!(app.submit_as(&phone, &submission(OLD_CATSHARK), &[]).await.status, 200);
+    act(&app, OLD_CATSHARK, json!({"action": "request_details", "message": "Which beach?"})).await;
+    let send = || {
+        let (app, phone) = (app.clone(), phone.clone());
+        async move {
+            let reply =
+                json!({"client_id": "3c2b1a09-8f7e-4d6c-9b5a-4e3d2c1b0a9f", "message": "Borth, below the cliff."});
+            let form = reqwest::multipart::Form::new().text("reply", reply.to_string());
+            let url = format!("{}/api/my/records/{OLD_CATSHARK}/replies", app.base);
+            app.client.post(url).bearer_auth(&phone).multipart(form).send().await.unwrap().status().as_u16()
+        }
+    };
+    let statuses = crate::helpers::all_at_once((0..4).map(|_| send()).collect()).await;
+    assert_eq!(statuses, [200; 4]);
+    let view = detail(&app, OLD_CATSHARK).await;
+    assert_eq!(view["messages"].as_array().unwrap().len(), 2, "the question and one answer: {}", view["messages"]);
+    let replies = view["events"].as_array().unwrap().iter().filter(|e| e["action"] == "observer_reply").count();
+    assert_eq!(replies, 1, "one reply in the audit trail");
+}
+
 #[tokio::test]
 async fn the_record_map_shows_the_phone_the_photo_and_a_possible_duplicate() {
     let app = spawn_app().await;

@@ -3,7 +3,7 @@
 
 use serde_json::json;
 
-use crate::helpers::{plain_jpeg, spawn_app, submission};
+use crate::helpers::{all_at_once, plain_jpeg, spawn_app, submission};
 
 const ID: &str = "6f9a4c2e-1d3b-4e5f-8a7b-9c0d1e2f3a4b";
 
@@ -39,27 +39,25 @@ async fn a_resend_gets_the_same_receipt_and_makes_no_second_record() {
     assert_eq!(app.records().await.len(), 1);
 }
 
-#[tokio::test]
+#[tokio::test(flavor = "multi_thread", worker_threads = 4)]
 async fn concurrent_resends_of_one_record_store_it_once() {
     let app = std::sync::Arc::new(spawn_app().await);
-    let sends = (0..6).map(|_| {
-        let app = app.clone();
-        tokio::spawn(async move { app.submit(&submission(ID), &[plain_jpeg(2)]).await })
-    });
-    let answers = futures_join(sends).await;
-    assert!(answers.iter().all(|a| a.status == 200));
-    assert!(answers.windows(2).all(|w| w[0].body == w[1].body));
-    assert_eq!(app.records().await.len(), 1);
-}
-
-async fn futures_join(
-    handles: impl Iterator<Item = tokio::task::JoinHandle<crate::helpers::Answer>>,
-) -> Vec<crate::helpers::Answer> {
-    let mut out = Vec::new();
-    for handle in handles {
-        out.push(handle.await.unwrap());
+    // Each round is another record, sent six times at once.
+    for round in 0..4u8 {
+        let id = uuid::Uuid::new_v4().to_string();
+        let send = || {
+            let (app, id) = (app.clone(), id.clone());
+            async move { app.submit(&submission(&id), &[plain_jpeg(round)]).await }
+        };
+        let answers = all_at_once((0..6).map(|_| send()).collect()).await;
+        assert!(
+            answers.iter().all(|a| a.status == 200),
+            "round {round}: {:?}",
+            answers.iter().map(|a| &a.body).collect::<Vec<_>>()
+        );
+        assert!(answers.windows(2).all(|w| w[0].body == w[1].body), "round {round}: one receipt for all");
+        assert_eq!(app.records().await.len(), usize::from(round) + 1, "round {round}: stored once");
     }
-    out
 }
 
 #[tokio::test]

@@ -5,7 +5,7 @@
 
 use serde_json::{Value, json};
 
-use crate::helpers::{TestApp, spawn_app, submission};
+use crate::helpers::{TestApp, all_at_once, spawn_app, submission};
 
 const WALK: &str = "7a1b2c3d-4e5f-4a6b-8c7d-9e0f1a2b3c4d";
 
@@ -110,6 +110,22 @@ async fn a_walk_with_no_finds_is_kept_and_a_resend_is_one_walk() {
     assert!(claimed.body["error"].as_str().unwrap().contains("another phone"), "{}", claimed.body);
     let anonymous = app.client.post(format!("{}/api/walks", app.base)).json(&body).send().await.unwrap();
     assert_eq!(anonymous.status(), 401, "a walk needs the phone's identity");
+}
+
+#[tokio::test(flavor = "multi_thread", worker_threads = 4)]
+async fn a_walk_resent_six_times_at_once_is_stored_once() {
+    let app = std::sync::Arc::new(spawn_app().await);
+    let phone = app.new_device().await;
+    let body = walk(track_json(&beach_track(), 20));
+    let send = || {
+        let (app, phone, body) = (app.clone(), phone.clone(), body.clone());
+        async move { app.post_walk_as(&phone, &body).await }
+    };
+    let answers = all_at_once((0..6).map(|_| send()).collect()).await;
+    assert!(answers.iter().all(|a| a.status == 200), "{:?}", answers.iter().map(|a| &a.body).collect::<Vec<_>>());
+    assert!(answers.windows(2).all(|w| w[0].body == w[1].body), "one receipt for all");
+    let walks: Vec<Value> = app.get("/api/walks").await.json().await.unwrap();
+    assert_eq!(walks.len(), 1);
 }
 
 #[tokio::test]

@@ -167,7 +167,10 @@ fn a_character_with_one_state_is_refused() {
 
 #[test]
 fn text_that_is_not_json_is_refused() {
-    assert!(Checklist::from_json("{ not json").is_err());
+    let err = Checklist::from_json("{ not json").unwrap_err();
+    assert!(matches!(err, species_key::ChecklistError::Format(_)), "{err:?}");
+    // serde_json says where the text stops being JSON.
+    assert!(err.to_string().starts_with("checklist is not valid: key must be a string at line 1 column 3"), "{err}");
 }
 
 #[test]

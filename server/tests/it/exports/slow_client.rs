@@ -27,8 +27,11 @@ async fn a_stalled_export_does_not_hold_up_submissions() {
     stream.write_all(request.as_bytes()).await.unwrap();
     let head = read_head(&mut stream).await;
     assert!(head.starts_with("HTTP/1.1 200"), "{head}");
-    // The export is under way; give it time to fill the buffers and block on this client.
-    tokio::time::sleep(Duration::from_millis(800)).await;
+    // The export is under way once rows of its body arrive. They are only peeked at: this
+    // client reads nothing more until the end, so the export soon blocks on it.
+    let mut first = [0u8; 1];
+    let arrived = tokio::time::timeout(Duration::from_secs(20), stream.peek(&mut first)).await;
+    assert_eq!(arrived.expect("the export's first rows never arrived").unwrap(), 1);
 
     let late = "1b2c3d4e-0000-4000-8000-00000000aaaa";
     let answer = tokio::time::timeout(Duration::from_secs(20), app.submit(&submission(late), &[])).await;
