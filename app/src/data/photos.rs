@@ -10,8 +10,8 @@ use chrono::NaiveDateTime;
 use shared_types::PhotoExif;
 use shared_types::exif;
 
-use crate::device::{self, PrepareError};
-use crate::form::offset_at;
+use crate::data::device::{self, PrepareError};
+use crate::data::time::{self, BrowserZone, Zone};
 
 /// Long edge of the upload copy, pixels: enough for a reviewer to count gill slits and
 /// see spines, a fifth of a 12 MP original's bytes (common practice for evidence photos).
@@ -44,8 +44,8 @@ const EXIF_HEAD_BYTES: f64 = 256.0 * 1024.0;
 /// Reads and prepares one picked file; the error is a sentence for the observer.
 pub async fn pick(file: web_sys::File) -> Result<PickedPhoto, String> {
     let name = file.name();
-    let mut exif =
-        with_device_offset(read_exif(&file).await.map_err(|err| format!("“{name}” could not be read: {err}"))?);
+    let read = read_exif(&file).await.map_err(|err| format!("“{name}” could not be read: {err}"))?;
+    let mut exif = with_device_offset(read, &BrowserZone, &time::now().naive_local());
     // Names the original, which is never sent, so the same photo picked on two phones is
     // recognised though their upload copies differ. A browser without a digest sends none.
     let digest = device::original_sha256(&file).await.map_err(|err| format!("“{name}” could not be read: {err}"))?;
@@ -73,15 +73,23 @@ async fn read_exif(file: &web_sys::File) -> Result<PhotoExif, String> {
 }
 
 /// Resolves the photo's time. A photo with no offset of its own (no
-/// OffsetTimeOriginal) gets this device's UTC offset at the photo's local time, which
+/// OffsetTimeOriginal) gets the zone's UTC offset at the photo's local time, which
 /// travels with the reading (`device_offset`): a photo taken before a daylight-saving
-/// change and recorded after it keeps the offset it was taken under.
-fn with_device_offset(mut read: PhotoExif) -> PhotoExif {
+/// change and recorded after it keeps the offset it was taken under. `now` is the
+/// phone's local time now, for the offset used when the photo has no time at all.
+pub fn with_device_offset(mut read: PhotoExif, zone: &impl Zone, now: &NaiveDateTime) -> PhotoExif {
     let local = read.taken_local.as_deref().and_then(|t| NaiveDateTime::parse_from_str(t, "%Y:%m:%d %H:%M:%S%.f").ok());
     if let (None, Some(local)) = (&read.offset, local) {
-        read.device_offset = Some(offset_at(&local).to_string());
+        read.device_offset = Some(time::offset_at(zone, &local).to_string());
     }
-    exif::resolve_time(read, offset_at(&chrono::Local::now().naive_local()))
+    exif::resolve_time(read, time::offset_at(zone, now))
+}
+
+/// True when a photo whose upload copy has the SHA-256 `picked` is already among
+/// `on_form` (the same photo picked twice makes the same copy; the server would keep
+/// it once). Without a hash nothing can be told apart.
+pub fn already_added<'a>(mut on_form: impl Iterator<Item = Option<&'a str>>, picked: Option<&str>) -> bool {
+    picked.is_some() && on_form.any(|sha| sha == picked)
 }
 
 /// What to tell the observer when the browser cannot open a photo.

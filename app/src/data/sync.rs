@@ -1,4 +1,5 @@
-//! Sending the outbox: one record at a time, oldest first, each with its photos.
+//! Sending the outbox: one record at a time, oldest first, each with its photos; then
+//! ended walks, late walk links and answers to reviewers; then fetching "My records".
 //!
 //! A record is marked `sent` before its request goes out and `received` only when the
 //! server's receipt arrives; a record stuck in `sent` (the browser closed mid-send) is
@@ -12,25 +13,13 @@ use std::time::Duration;
 use leptos::prelude::*;
 use shared_types::Receipt;
 
-use crate::device;
-use crate::identity;
-use crate::mine::{self, ReplyEntry};
-use crate::outbox::{self, Entry, SyncState};
-use crate::walks::{self, WalkEntry, WalkState};
-
-pub const SUBMIT_URL: &str = "/api/observations";
-pub const WALKS_URL: &str = "/api/walks";
-
-/// What the phone keeps and what the screen shows of it, handed around together.
-#[derive(Clone, Copy)]
-pub struct Outbox {
-    pub entries: RwSignal<Vec<Entry>>,
-    pub walks: RwSignal<Vec<WalkEntry>>,
-    pub replies: RwSignal<Vec<ReplyEntry>>,
-    /// The observer's records as the server last described them.
-    pub my_records: RwSignal<Vec<shared_types::MyRecord>>,
-    pub status: RwSignal<SyncStatus>,
-}
+use crate::data::api::{self, ApiError};
+use crate::data::device;
+use crate::data::identity;
+use crate::data::my_records;
+use crate::data::outbox::{self, Entry, Outbox, SyncState};
+use crate::data::replies;
+use crate::data::walks::{self, WalkState};
 
 /// First retry delay; doubled after each failed round up to [`MAX_DELAY`].
 const FIRST_DELAY: Duration = Duration::from_secs(2);
@@ -47,14 +36,6 @@ thread_local! {
     static AGAIN: Cell<bool> = const { Cell::new(false) };
     static FAILURES: Cell<u32> = const { Cell::new(0) };
     static TIMER_GENERATION: Cell<u64> = const { Cell::new(0) };
-}
-
-/// What the sync loop tells the screen.
-#[derive(Debug, Clone, Default, PartialEq)]
-pub struct SyncStatus {
-    pub running: bool,
-    pub next_retry: Option<Duration>,
-    pub last_problem: Option<String>,
 }
 
 /// Starts a sync round now unless one is running (then one more follows it).
@@ -118,22 +99,41 @@ async fn round(outbox: Outbox) -> Option<String> {
     // Without its identity the phone sends nothing, so that every record is its own.
     let token = match identity::ensure_token().await {
         Ok(token) => token,
-        Err(err) => return Some(format!("no connection ({err})")),
+        Err(err) => return Some(err),
     };
     let profile_problem = identity::send_profile_if_changed(&token).await;
     let walk_problem = send_walks(outbox, &token).await;
     let record_problem = send_records(outbox, &token).await;
     let link_problem = send_links(outbox, &token).await;
-    let reply_problem = mine::send_replies(&token).await;
-    let fetch_problem = match mine::fetch_records(&token).await {
+    let reply_problem = replies::send_waiting(&token).await;
+    let fetch_problem = match my_records::fetch(&token).await {
         Ok(records) => {
             outbox.my_records.set(records);
             None
         }
         Err(err) => Some(err),
     };
-    refresh(outbox).await;
+    outbox.reload().await;
     walk_problem.or(record_problem).or(link_problem).or(reply_problem).or(fetch_problem).or(profile_problem)
+}
+
+/// What one attempt to send a record leaves it as: received with its receipt, refused
+/// with the server's reason, or waiting again with the reason to show (and retry).
+pub fn record_state_after(outcome: Result<Receipt, ApiError>) -> (SyncState, Option<String>) {
+    match outcome {
+        Ok(receipt) => (SyncState::Received { receipt }, None),
+        Err(err) if err.is_temporary() => (SyncState::Waiting, Some(err.to_string())),
+        Err(err) => (SyncState::Refused { reason: err.to_string() }, None),
+    }
+}
+
+/// What one attempt to send a walk leaves it as (the same rules as a record's).
+pub fn walk_state_after(outcome: Result<shared_types::WalkReceipt, ApiError>) -> (WalkState, Option<String>) {
+    match outcome {
+        Ok(receipt) => (WalkState::Received { receipt }, None),
+        Err(err) if err.is_temporary() => (WalkState::Waiting, Some(err.to_string())),
+        Err(err) => (WalkState::Refused { reason: err.to_string() }, None),
+    }
 }
 
 async fn send_records(outbox: Outbox, token: &str) -> Option<String> {
@@ -152,27 +152,29 @@ async fn send_records(outbox: Outbox, token: &str) -> Option<String> {
             problem.get_or_insert(err);
             continue;
         }
-        refresh(outbox).await;
-        let outcome = send(&entry, token).await;
-        let saved = outbox::update(&id, |e| match outcome {
-            RecordOutcome::Received(receipt) => {
-                e.sync = SyncState::Received { receipt };
-                e.last_error = None;
-            }
-            RecordOutcome::Refused(reason) => e.sync = SyncState::Refused { reason },
-            RecordOutcome::TryLater(reason) => {
-                e.sync = SyncState::Waiting;
-                problem.get_or_insert(reason.clone());
-                e.last_error = Some(reason);
-            }
-        })
-        .await;
-        if let Err(err) = saved {
+        outbox.reload().await;
+        let (state, retry_because) = match photos_to_send(&entry).await {
+            Ok(photos) => record_state_after(api::send_record(token, &entry.submission, &photos).await),
+            Err(missing) => (SyncState::Waiting, Some(missing)),
+        };
+        if let Some(reason) = &retry_because {
+            problem.get_or_insert(reason.clone());
+        }
+        if let Err(err) = outbox::update(&id, |e| e.note_attempt(state, retry_because)).await {
             problem.get_or_insert(err);
         }
-        refresh(outbox).await;
+        outbox.reload().await;
     }
     problem
+}
+
+/// A record's photos as kept on the phone; never fewer than the observer took.
+async fn photos_to_send(entry: &Entry) -> Result<Vec<web_sys::Blob>, String> {
+    let photos = device::photos_of(&entry.id()).await.map_err(|err| format!("photos could not be read: {err}"))?;
+    if photos.len() != entry.photo_count {
+        return Err(format!("{} of {} photos found on this phone", photos.len(), entry.photo_count));
+    }
+    Ok(photos)
 }
 
 /// Sends ended walks with the phone's identity: the server keeps each walk as this
@@ -185,35 +187,26 @@ async fn send_walks(outbox: Outbox, token: &str) -> Option<String> {
     let mut problem = None;
     for mut walk in stored.into_iter().filter(|w| w.state.wants_sending()) {
         let Some(submission) = walk.submission() else { continue };
-        let json = serde_json::to_string(&submission).unwrap_or_default();
         walk.state = WalkState::Sent;
         if let Err(err) = walks::save(&walk).await {
             problem.get_or_insert(err);
             continue;
         }
-        match device::send_json("POST", WALKS_URL, Some(&json), &[("authorization", &identity::bearer(token))]).await {
-            Err(err) => {
-                walk.state = WalkState::Waiting;
-                walk.last_error = Some(format!("no connection ({err})"));
-                problem.get_or_insert(format!("no connection ({err})"));
-            }
-            Ok(answer) => match classify(answer) {
-                Sent::Received(body) => match serde_json::from_str(&body) {
-                    Ok(receipt) => walk.state = WalkState::Received { receipt },
-                    Err(err) => walk.state = WalkState::Refused { reason: format!("unreadable receipt: {err}") },
-                },
-                Sent::Refused(reason) => walk.state = WalkState::Refused { reason },
-                Sent::TryLater(reason) => {
-                    walk.state = WalkState::Waiting;
-                    problem.get_or_insert(reason);
-                }
-            },
+        let outcome = api::send_walk(token, &submission).await;
+        // A walk that got no answer at all shows why beside it.
+        if let Err(err @ ApiError::NoAnswer(_)) = &outcome {
+            walk.last_error = Some(err.to_string());
+        }
+        let (state, retry_because) = walk_state_after(outcome);
+        walk.state = state;
+        if let Some(reason) = retry_because {
+            problem.get_or_insert(reason);
         }
         if let Err(err) = walks::save(&walk).await {
             problem.get_or_insert(err);
         }
     }
-    refresh(outbox).await;
+    outbox.reload().await;
     problem
 }
 
@@ -223,22 +216,18 @@ async fn send_walks(outbox: Outbox, token: &str) -> Option<String> {
 async fn send_links(outbox: Outbox, token: &str) -> Option<String> {
     let stored = outbox::load_all().await.ok()?;
     let mut problem = None;
-    let auth = identity::bearer(token);
     // A link waits until its record is received: the record's own send comes first.
     let ready =
         stored.into_iter().filter(|e| e.walk_link_pending.is_some() && matches!(e.sync, SyncState::Received { .. }));
     for entry in ready {
         let Some(walk) = entry.walk_link_pending else { continue };
-        let url = format!("{SUBMIT_URL}/{}/walk", entry.id());
-        let body = serde_json::json!({ "walk_client_id": walk }).to_string();
-        let refused = match device::send_json("PUT", &url, Some(&body), &[("authorization", &auth)]).await.map(classify)
-        {
-            Ok(Sent::Received(_)) => None,
-            Ok(Sent::Refused(reason)) => Some(format!("could not add to the walk: {reason}")),
-            Ok(Sent::TryLater(reason)) | Err(reason) => {
-                problem.get_or_insert(reason);
+        let refused = match api::link_to_walk(token, &entry.id(), walk).await {
+            Ok(()) => None,
+            Err(err) if err.is_temporary() => {
+                problem.get_or_insert(err.to_string());
                 continue;
             }
+            Err(err) => Some(format!("could not add to the walk: {err}")),
         };
         let saved = outbox::update(&entry.id(), |e| {
             e.walk_link_pending = None;
@@ -252,81 +241,6 @@ async fn send_links(outbox: Outbox, token: &str) -> Option<String> {
             problem.get_or_insert(err);
         }
     }
-    refresh(outbox).await;
+    outbox.reload().await;
     problem
-}
-
-/// Re-reads the outbox and walks into the screen's lists.
-pub async fn refresh(outbox: Outbox) {
-    if let Ok(list) = outbox::load_all().await {
-        outbox.entries.set(list);
-    }
-    if let Ok(list) = walks::load_all().await {
-        outbox.walks.set(list);
-    }
-    if let Ok(list) = mine::load_replies().await {
-        outbox.replies.set(list);
-    }
-}
-
-/// What an answer means for the thing sent.
-enum Sent {
-    /// 2xx, with the body.
-    Received(String),
-    Refused(String),
-    TryLater(String),
-}
-
-/// What became of one record's upload.
-enum RecordOutcome {
-    Received(Receipt),
-    Refused(String),
-    TryLater(String),
-}
-
-async fn send(entry: &Entry, token: &str) -> RecordOutcome {
-    let photos = match device::photos_of(&entry.id()).await {
-        Ok(photos) => photos,
-        Err(err) => return RecordOutcome::TryLater(format!("photos could not be read: {err}")),
-    };
-    if photos.len() != entry.photo_count {
-        // Never send a record short of a photo the observer took.
-        return RecordOutcome::TryLater(format!(
-            "{} of {} photos found on this phone",
-            photos.len(),
-            entry.photo_count
-        ));
-    }
-    let json = match serde_json::to_string(&entry.submission) {
-        Ok(json) => json,
-        Err(err) => return RecordOutcome::Refused(err.to_string()),
-    };
-    let auth = identity::bearer(token);
-    match device::send_form(SUBMIT_URL, "record", &json, &photos, &[("authorization", &auth)]).await.map(classify) {
-        Err(err) => RecordOutcome::TryLater(format!("no connection ({err})")),
-        Ok(Sent::Received(body)) => match serde_json::from_str::<Receipt>(&body) {
-            Ok(receipt) => RecordOutcome::Received(receipt),
-            Err(err) => RecordOutcome::TryLater(format!("unreadable receipt: {err}")),
-        },
-        Ok(Sent::Refused(reason)) => RecordOutcome::Refused(reason),
-        Ok(Sent::TryLater(reason)) => RecordOutcome::TryLater(reason),
-    }
-}
-
-fn classify(answer: device::Answer) -> Sent {
-    match answer.status {
-        200..=299 => Sent::Received(answer.body),
-        // Timeouts and rate limits are worth another try; so is any server fault.
-        408 | 429 | 500..=599 => Sent::TryLater(format!("server answered {}", answer.status)),
-        _ => Sent::Refused(server_message(&answer.body).unwrap_or_else(|| format!("status {}", answer.status))),
-    }
-}
-
-fn server_message(body: &str) -> Option<String> {
-    let value: serde_json::Value = serde_json::from_str(body).ok()?;
-    let error = value.get("error")?.as_str()?;
-    Some(match value.get("field").and_then(|f| f.as_str()) {
-        Some(field) => format!("{field}: {error}"),
-        None => error.to_owned(),
-    })
 }

@@ -7,25 +7,17 @@
 //! about the cell's centre, so one answer serves the whole cell. The server counts within
 //! 50 km, far wider than a cell, so the answer fits anywhere in it.
 
-use std::collections::BTreeMap;
-
 use leptos::prelude::*;
-use serde::Deserialize;
 
-use crate::device;
+use crate::data::api::{self, NearbyCounts};
+use crate::data::local;
 
 /// The side of one cached area, in degrees (about 11 km north–south).
 pub const AREA_DEGREES: f64 = 0.1;
 const STORED_PREFIX: &str = "wrackline.nearby.";
 
 /// Confirmed records per scientific name near one area.
-pub type Counts = BTreeMap<String, u32>;
-
-/// The part of the server's answer the key uses.
-#[derive(Deserialize)]
-struct Answer {
-    counts: Counts,
-}
+pub type Counts = std::collections::BTreeMap<String, u32>;
 
 /// The centre of the cell holding a position, as the text used in the URL and the
 /// storage key (so the same area always has the same name).
@@ -44,25 +36,18 @@ fn storage_key((lat, lon): &(String, String)) -> String {
     format!("{STORED_PREFIX}{lat},{lon}")
 }
 
-fn storage() -> Option<web_sys::Storage> {
-    web_sys::window()?.local_storage().ok().flatten()
-}
-
 /// The counts kept for this area, if the phone has asked about it before.
 pub fn cached(area: &(String, String)) -> Option<Counts> {
-    let text = storage()?.get_item(&storage_key(area)).ok().flatten()?;
-    serde_json::from_str::<Answer>(&text).ok().map(|a| a.counts)
+    serde_json::from_str::<NearbyCounts>(&local::get(&storage_key(area))?).ok().map(|a| a.counts)
 }
 
 /// Asks the server about `area`, keeps the answer and sets `into`; with no answer the
 /// cached counts (or none) stay.
 pub fn refresh(area: (String, String), into: RwSignal<Option<Counts>>) {
     leptos::task::spawn_local(async move {
-        let url = format!("/api/checklist/nearby?lat={}&lon={}", area.0, area.1);
-        let Ok(text) = device::fetch_text(&url).await else { return };
-        let Ok(answer) = serde_json::from_str::<Answer>(&text) else { return };
-        if let Some(storage) = storage() {
-            let _ = storage.set_item(&storage_key(&area), &text);
+        let Ok(answer) = api::nearby(&area.0, &area.1).await else { return };
+        if let Ok(text) = serde_json::to_string(&answer) {
+            local::set(&storage_key(&area), &text);
         }
         into.set(Some(answer.counts));
     });
