@@ -16,7 +16,7 @@ use serde::de::DeserializeOwned;
 use serde::{Deserialize, Serialize};
 use shared_types::{
     DeviceIdentity, DeviceRequest, ErrorBody, LoginRequest, MyRecord, PairDecision, PersonEvent, QueueItem, Receipt,
-    Reply, ReviewDetail, Role, SessionInfo, Submission, WalkReceipt, WalkSubmission,
+    Reply, ReviewDetail, Role, SessionInfo, Submission, WalkLink, WalkReceipt, WalkSubmission,
 };
 
 use crate::data::device::{self, Answer};
@@ -165,7 +165,8 @@ pub async fn send_record(token: &str, record: &Submission, photos: &[web_sys::Bl
 /// `PUT /api/observations/{id}/walk`: puts a record the server has on one of this phone's walks.
 pub async fn link_to_walk(token: &str, record: &str, walk: uuid::Uuid) -> Result<(), ApiError> {
     let url = format!("/api/observations/{record}/walk");
-    act("PUT", &url, Some(serde_json::json!({ "walk_client_id": walk })), Caller::Phone(token)).await
+    let body = to_json(&WalkLink { walk_client_id: walk })?;
+    call("PUT", &url, Some(body), Caller::Phone(token)).await.map(|_| ())
 }
 
 /// `POST /api/walks`: an ended walk; the server's receipt.
@@ -302,16 +303,16 @@ impl QueueFilters {
     }
 }
 
-/// One page of the queue, and whether there is more after it.
+/// One page of a list, and whether there is more after it.
 #[derive(Debug, Clone, PartialEq)]
-pub struct QueuePage {
-    pub items: Vec<QueueItem>,
+pub struct Page<T> {
+    pub items: Vec<T>,
     pub more: bool,
 }
 
-impl QueuePage {
+impl<T> Page<T> {
     /// The page from what the server sent for [`QueueFilters::query`] (a page and one more).
-    pub fn from_answer(mut items: Vec<QueueItem>) -> Self {
+    pub fn from_answer(mut items: Vec<T>) -> Self {
         let more = items.len() > QUEUE_PAGE;
         items.truncate(QUEUE_PAGE);
         Self { items, more }
@@ -319,8 +320,8 @@ impl QueuePage {
 }
 
 /// `GET /api/review/queue`: the page of the queue starting at `offset`.
-pub async fn review_queue(filters: &QueueFilters, offset: usize) -> Result<QueuePage, ApiError> {
-    get(&format!("/api/review/queue?{}", filters.query(offset)), Caller::Reviewer).await.map(QueuePage::from_answer)
+pub async fn review_queue(filters: &QueueFilters, offset: usize) -> Result<Page<QueueItem>, ApiError> {
+    get(&format!("/api/review/queue?{}", filters.query(offset)), Caller::Reviewer).await.map(Page::from_answer)
 }
 
 /// `GET /api/review/records/{id}`: everything a reviewer needs to decide.
@@ -406,4 +407,141 @@ pub async fn set_password(username: &str, password: String) -> Result<(), ApiErr
 pub async fn set_disabled(username: &str, disabled: bool) -> Result<(), ApiError> {
     let body = serde_json::json!({ "disabled": disabled });
     act("PUT", &format!("/api/people/{username}/disabled"), Some(body), Caller::Reviewer).await
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    fn answer(status: u16, body: &str) -> Result<Answer, String> {
+        Ok(Answer { status, body: body.to_owned() })
+    }
+
+    /// The body the server sends for an internal failure (server/src/error.rs).
+    const INTERNAL: &str = r#"{"error":"the server could not finish this request; try again later"}"#;
+
+    #[test]
+    fn a_2xx_answer_is_its_body() {
+        assert_eq!(body_of(answer(200, "[]")), Ok("[]".to_owned()));
+        assert_eq!(body_of(answer(201, r#"{"token":"t"}"#)), Ok(r#"{"token":"t"}"#.to_owned()));
+        assert_eq!(body_of(answer(204, "")), Ok(String::new()));
+    }
+
+    #[test]
+    fn a_refusal_says_the_servers_words_and_names_the_field() {
+        let refused =
+            body_of(answer(422, r#"{"error":"must be at most 90","field":"position.latitude"}"#)).unwrap_err();
+        assert_eq!(refused.to_string(), "position.latitude: must be at most 90");
+        assert!(!refused.is_temporary());
+        let conflict =
+            body_of(answer(409, r#"{"error":"this record was sent before with other content"}"#)).unwrap_err();
+        assert_eq!(conflict.to_string(), "this record was sent before with other content");
+        assert!(!conflict.is_temporary());
+    }
+
+    #[test]
+    fn a_server_fault_says_only_the_servers_sentence_and_is_tried_again() {
+        let fault = body_of(answer(500, INTERNAL)).unwrap_err();
+        assert_eq!(fault.to_string(), "the server could not finish this request; try again later");
+        assert!(fault.is_temporary());
+    }
+
+    #[test]
+    fn a_proxy_page_or_empty_body_is_not_taken_for_the_servers_words() {
+        let page = body_of(answer(502, "<html><body>Bad Gateway</body></html>")).unwrap_err();
+        assert_eq!(page, ApiError::Status { status: 502, body: None });
+        assert_eq!(page.to_string(), "the server answered 502");
+        assert!(page.is_temporary());
+        let empty = body_of(answer(403, "")).unwrap_err();
+        assert_eq!(empty.to_string(), "the server answered 403");
+        assert!(!empty.is_temporary());
+    }
+
+    #[test]
+    fn no_answer_at_all_is_a_missing_connection_and_is_tried_again() {
+        let lost = body_of(Err("Failed to fetch".to_owned())).unwrap_err();
+        assert_eq!(lost, ApiError::NoAnswer("Failed to fetch".to_owned()));
+        assert_eq!(lost.to_string(), "no connection (Failed to fetch)");
+        assert!(lost.is_temporary());
+    }
+
+    #[test]
+    fn only_timeouts_rate_limits_and_server_faults_are_worth_repeating() {
+        // RFC 9110 §15.5.9: after 408 the client may repeat the request; RFC 6585 §4:
+        // 429 asks the client to slow down; RFC 9110 §15.6: 5xx are the server's fault.
+        // Every other 4xx refuses the request as sent (RFC 9110 §15.5).
+        for status in [408, 429, 500, 502, 503, 504] {
+            assert!(ApiError::Status { status, body: None }.is_temporary(), "{status}");
+        }
+        for status in [400, 401, 403, 404, 409, 413, 415, 422] {
+            assert!(!ApiError::Status { status, body: None }.is_temporary(), "{status}");
+        }
+        assert!(!ApiError::Unsendable("x".into()).is_temporary());
+    }
+
+    #[test]
+    fn a_2xx_body_that_is_not_the_answer_type_is_unreadable_and_tried_again() {
+        let portal = read::<Receipt>("<html>Sign in to the café wifi</html>").unwrap_err();
+        assert!(matches!(portal, ApiError::Unreadable(_)), "{portal:?}");
+        assert!(portal.to_string().starts_with("the server's answer could not be read: "), "{portal}");
+        assert!(portal.is_temporary());
+        let identity: DeviceIdentity = read(r#"{"token":"abc"}"#).unwrap();
+        assert_eq!(identity.token, "abc");
+    }
+
+    #[test]
+    fn query_parts_are_encoded_as_encode_uri_component_does() {
+        // Expected values as ECMA-262's encodeURIComponent gives them (checked in node).
+        let cases = [
+            ("Rajidae, tope", "Rajidae%2C%20tope"),
+            ("a&b=c+d", "a%26b%3Dc%2Bd"),
+            ("é", "%C3%A9"),
+            ("-_.!~*'()", "-_.!~*'()"),
+            ("52.1,-4.2", "52.1%2C-4.2"),
+            ("50%/x?#", "50%25%2Fx%3F%23"),
+            ("🦈", "%F0%9F%A6%88"),
+        ];
+        for (text, encoded) in cases {
+            assert_eq!(query_part(text), encoded, "{text:?}");
+        }
+    }
+
+    #[test]
+    fn the_queue_query_leaves_out_blank_filters_and_asks_for_one_more_than_a_page() {
+        assert_eq!(QueueFilters::default().query(0), "limit=51&offset=0");
+        let filters = QueueFilters {
+            state: "confirmed".into(),
+            taxon: " Rajidae, tope ".into(),
+            from: "2025-01-01".into(),
+            flag: "   ".into(),
+            ..QueueFilters::default()
+        };
+        assert_eq!(filters.query(50), "state=confirmed&taxon=Rajidae%2C%20tope&from=2025-01-01&limit=51&offset=50");
+    }
+
+    #[test]
+    fn a_page_and_one_more_means_there_is_more() {
+        let full = Page::from_answer((0..=QUEUE_PAGE).collect::<Vec<_>>());
+        assert_eq!((full.items.len(), full.more), (QUEUE_PAGE, true));
+        assert_eq!(full.items.last(), Some(&(QUEUE_PAGE - 1)));
+        let last = Page::from_answer((0..QUEUE_PAGE).collect::<Vec<_>>());
+        assert_eq!((last.items.len(), last.more), (QUEUE_PAGE, false));
+        assert!(!Page::from_answer(Vec::<u8>::new()).more);
+    }
+
+    #[test]
+    fn only_a_signed_in_reviewer_or_admin_is_staff() {
+        // As `GET /api/session` answers (server/src/handlers/session.rs).
+        let session = |json: &str| read::<Session>(json).unwrap().staff_role();
+        assert_eq!(session(r#"{"signed_in":false}"#), None);
+        assert_eq!(session(r#"{"signed_in":true,"role":"reviewer","display_name":"R"}"#), Some(Role::Reviewer));
+        assert_eq!(session(r#"{"signed_in":true,"role":"admin","display_name":"A"}"#), Some(Role::Admin));
+        assert_eq!(session(r#"{"signed_in":true,"role":"observer","display_name":"O"}"#), None);
+    }
+
+    #[test]
+    fn the_phone_sends_its_identity_as_a_bearer_token() {
+        assert_eq!(Caller::Phone("abc").headers(), vec![("authorization", "Bearer abc".to_owned())]);
+        assert!(Caller::Anyone.headers().is_empty());
+    }
 }

@@ -77,3 +77,35 @@ pub fn areas_with_box(checklist: &Checklist) -> Vec<(String, String)> {
 pub fn download_areas() -> Vec<(String, String)> {
     areas_with_box(&current())
 }
+
+#[cfg(test)]
+pub(crate) mod tests {
+    use super::*;
+
+    pub(crate) fn built_in() -> Checklist {
+        Checklist::from_json(BUILT_IN_CHECKLIST).expect("built-in checklist is valid")
+    }
+
+    #[test]
+    fn the_taxon_filter_offers_species_common_names_and_every_higher_rank_once() {
+        let names = taxon_names(&built_in());
+        for name in ["Raja clavata", "small-spotted catshark", "Raja", "Rajidae", "Rajiformes", "Batoidea"] {
+            assert!(names.iter().any(|n| n == name), "{name} is offered");
+        }
+        assert_eq!(names.iter().filter(|n| *n == "Rajidae").count(), 1);
+        assert!(names.windows(2).all(|w| w[0] < w[1]), "sorted, without repeats");
+    }
+
+    #[test]
+    fn an_areas_box_is_given_in_the_order_the_export_reads_it() {
+        // The checklist keeps [west, south, east, north]; `/api/export?bbox=` reads
+        // SOUTH,WEST,NORTH,EAST (server/src/commands/export.rs, parse_bbox).
+        let areas = areas_with_box(&built_in());
+        let cardigan = areas.iter().find(|(name, _)| name == "Cardigan Bay").expect("Cardigan Bay has a box");
+        assert_eq!(cardigan.1, "51.95,-5,52.85,-3.9");
+        for (name, bbox) in &areas {
+            let v: Vec<f64> = bbox.split(',').map(|x| x.parse().unwrap()).collect();
+            assert!(v[0] <= v[2] && (-90.0..=90.0).contains(&v[0]) && (-90.0..=90.0).contains(&v[2]), "{name}: {bbox}");
+        }
+    }
+}

@@ -67,3 +67,37 @@ impl ExportFilters {
         format!("wrackline-{audience}.{suffix}")
     }
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn the_default_download_is_the_public_archive_of_confirmed_records() {
+        let filters = ExportFilters::default();
+        assert_eq!(filters.url(), "/api/export?format=dwca&state=confirmed");
+        assert_eq!(filters.file_name(), "wrackline-public.zip");
+    }
+
+    #[test]
+    fn filters_given_are_encoded_and_blank_ones_left_out() {
+        let filters = ExportFilters {
+            format: "csv".into(),
+            taxon: " Raja clavata ".into(),
+            from: "2025-01-01".into(),
+            area: "51.95,-5,52.85,-3.9".into(),
+            state: String::new(),
+            full: true,
+            ..ExportFilters::default()
+        };
+        assert_eq!(
+            filters.url(),
+            "/api/export?format=csv&taxon=Raja%20clavata&from=2025-01-01&bbox=51.95%2C-5%2C52.85%2C-3.9&audience=full"
+        );
+        assert_eq!(filters.file_name(), "wrackline-full.csv");
+        assert_eq!(
+            ExportFilters { format: "geojson".into(), ..ExportFilters::default() }.file_name(),
+            "wrackline-public.geojson"
+        );
+    }
+}

@@ -158,3 +158,93 @@ pub fn trend_query(taxon: &str, state: &str, generation_years: &str) -> String {
         years => format!("{base}&generation_length={}", query_part(years)),
     }
 }
+
+#[cfg(test)]
+mod tests {
+    use serde_json::json;
+
+    use super::*;
+
+    #[test]
+    fn areas_and_changes_have_their_unit_and_a_sensible_precision() {
+        assert_eq!(km2(Some(1234.4)), "1234 km²");
+        assert_eq!(km2(Some(12.34)), "12.3 km²");
+        assert_eq!(km2(None), "–");
+        assert_eq!(signed_km2(Some(-8.0), Some(-25.0)), "-8.0 km² (-25%)");
+        assert_eq!(signed_km2(Some(4.0), None), "+4.0 km²");
+        assert_eq!(percent(Some(0.1234)), "+12.3%");
+        assert_eq!(percent(Some(-0.5)), "-50.0%");
+        assert_eq!(percent(Some(150.0)), "over +10,000%");
+        assert_eq!(percent(Some(-150.0)), "below −10,000%");
+        assert_eq!(percent(None), "–");
+    }
+
+    #[test]
+    fn the_range_table_has_a_column_per_period_and_the_change() {
+        let taxon = json!({
+            "taxon": "Raja clavata",
+            "periods": [
+                {"period": "2015-2019", "records": 12, "sites": 9, "figures": {"eoo_km2": 2450.2, "aoo": {"area_km2": 36.0, "min_area_km2": 32.0}}},
+                {"period": "2020-2024", "records": 20, "sites": 14, "figures": {"eoo_km2": 3120.9, "aoo": {"area_km2": 48.0, "min_area_km2": 44.0}}}
+            ],
+            "changes": [{"records": 8, "sites": 5, "eoo_km2": 670.7, "eoo_percent": 27.4, "aoo_km2": 12.0, "aoo_percent": 33.3}]
+        });
+        let (headers, rows) = range_rows(&taxon);
+        assert_eq!(headers, ["2015-2019", "2020-2024"]);
+        let table: Vec<(&str, Vec<String>, String)> = rows.into_iter().map(|r| (r.label, r.cells, r.change)).collect();
+        assert_eq!(
+            table,
+            [
+                ("Records", vec!["12".to_owned(), "20".to_owned()], "+8".to_owned()),
+                ("Distinct sites", vec!["9".to_owned(), "14".to_owned()], "+5".to_owned()),
+                ("EOO", vec!["2450 km²".to_owned(), "3121 km²".to_owned()], "+670.7 km² (+27%)".to_owned()),
+                ("AOO", vec!["36.0 km²".to_owned(), "48.0 km²".to_owned()], "+12.0 km² (+33%)".to_owned()),
+                ("Least AOO (shifted grids)", vec!["32.0 km²".to_owned(), "44.0 km²".to_owned()], String::new()),
+            ]
+        );
+    }
+
+    #[test]
+    fn the_trend_lines_say_the_model_the_window_and_the_counts() {
+        let report = json!({
+            "trend": {
+                "annual_change": {"estimate": -0.08, "lower": -0.15, "upper": -0.01},
+                "window_change": {"estimate": -0.87, "lower": -0.98, "upper": -0.2},
+                "window_years": 24.0,
+                "window_exceeds_data": true,
+                "error_model": "QuasiPoisson",
+                "interval": {"degrees_of_freedom": 9},
+                "fit": {"dispersion": 1.8},
+                "mann_kendall": {"tau": -0.45, "p_value": 0.031, "sen_slope": -0.5}
+            },
+            "generation_length": {"years": 8, "source": "checklist"},
+            "yearly_counts": [{"year": 2015, "count": 4}, {"year": 2016, "count": 3}]
+        });
+        let lines: std::collections::BTreeMap<&str, String> = trend_lines(&report).into_iter().collect();
+        assert_eq!(lines["Rate of change per year"], "-8.0% (95% interval -15.0% to -1.0%)");
+        assert_eq!(
+            lines["Change over the assessment window"],
+            "-87.0% (95% interval -98.0% to -20.0%) over 24 years, extrapolated beyond the years covered"
+        );
+        assert!(
+            lines["How the window was chosen"]
+                .starts_with("24 years = the longer of 10 years and 3 × generation length (8 years; checklist)")
+        );
+        assert!(lines["Dispersion and model"].ends_with("Student's t with 9 degrees of freedom"));
+        assert_eq!(lines["Mann–Kendall (tie-corrected)"], "tau = -0.450, p = 0.0310; Sen's slope -0.5000 per year");
+        assert_eq!(lines["Animals recorded per year"], "2015 4, 2016 3");
+    }
+
+    #[test]
+    fn the_queries_carry_the_taxon_state_periods_and_generation_length() {
+        let periods = ["2015-2019".to_owned(), " ".to_owned()];
+        assert_eq!(range_query("Raja clavata", "any", &periods), "taxon=Raja%20clavata&state=any&period=2015-2019");
+        let both = ["2015-2019".to_owned(), "2020-2024".to_owned()];
+        assert_eq!(
+            range_query("Rajidae", "confirmed", &both),
+            "taxon=Rajidae&state=confirmed&period=2015-2019%2C2020-2024"
+        );
+        assert_eq!(trend_query("Rajidae", "any", " "), "taxon=Rajidae&state=any");
+        assert_eq!(trend_query("Rajidae", "any", " 7.5 "), "taxon=Rajidae&state=any&generation_length=7.5");
+    }
+}

@@ -224,3 +224,151 @@ impl FormFields {
         )
     }
 }
+
+#[cfg(test)]
+pub(crate) mod tests {
+    use super::*;
+    use crate::data::time::tests::LONDON;
+
+    /// A form filled in as an observer would: a thornback ray on the strandline at
+    /// Aberystwyth on 1 June 2025, 62,5 cm total length (comma decimal).
+    pub(crate) fn filled() -> FormFields {
+        FormFields {
+            latitude: "52.4153".into(),
+            longitude: " -4.0829 ".into(),
+            accuracy_m: "9".into(),
+            position_source: Some(PositionSource::Device),
+            species_guess: "thornback ray".into(),
+            length_value: "62,5".into(),
+            condition: Some(Condition::ALL[0]),
+            setting: Some(Setting::ALL[0]),
+            ..FormFields::fresh("2025-06-01T14:10".into(), "Sam".into())
+        }
+    }
+
+    fn submission(fields: &FormFields) -> Submission {
+        fields.to_submission(Uuid::nil(), &LONDON).expect("a complete form")
+    }
+
+    #[test]
+    fn a_complete_form_becomes_the_submission_with_the_offset_of_its_date() {
+        let sub = submission(&filled());
+        assert_eq!(sub.observed_at.to_rfc3339(), "2025-06-01T14:10:00+01:00");
+        let position = sub.position.expect("a position");
+        assert_eq!((position.latitude.get(), position.longitude.get()), (52.4153, -4.0829));
+        assert_eq!(position.accuracy_m.map(|a| a.get()), Some(9.0));
+        assert_eq!(position.source, PositionSource::Device);
+        let length = sub.length.expect("a length");
+        assert_eq!(
+            (length.value.centimetres(), length.kind, length.method),
+            (62.5, LengthKind::Total, MeasureMethod::Measured)
+        );
+        assert_eq!(sub.count.get(), 1);
+        assert_eq!(sub.sex, Sex::Unknown);
+        assert_eq!(sub.species_guess.as_ref().map(Text::as_str), Some("thornback ray"));
+        assert_eq!(sub.observer_name.as_ref().map(Text::as_str), Some("Sam"));
+        assert_eq!((sub.notes, sub.walk_client_id, sub.life_stage), (None, None, None));
+        // In winter the same wall-clock time is kept with the winter offset.
+        let winter = submission(&FormFields { when: "2025-12-01T14:10".into(), ..filled() });
+        assert_eq!(winter.observed_at.to_rfc3339(), "2025-12-01T14:10:00+00:00");
+    }
+
+    #[test]
+    fn every_problem_is_listed_at_once() {
+        let fields = FormFields {
+            when: String::new(),
+            latitude: "north".into(),
+            count: "two".into(),
+            condition: None,
+            setting: None,
+            ..filled()
+        };
+        let problems = fields.to_submission(Uuid::nil(), &LONDON).unwrap_err();
+        assert_eq!(
+            problems,
+            [
+                "date and time: choose when the animal was seen",
+                "latitude: a number in decimal degrees, e.g. 52.4153",
+                "count: a whole number",
+                "condition: choose how the animal was found",
+                "where: choose how it came to be seen",
+            ]
+        );
+    }
+
+    #[test]
+    fn values_out_of_range_are_refused_with_the_shared_checks() {
+        let far_north = FormFields { latitude: "91".into(), ..filled() };
+        let problems = far_north.to_submission(Uuid::nil(), &LONDON).unwrap_err();
+        assert_eq!(problems.len(), 1, "{problems:?}");
+        assert!(problems[0].contains("90"), "{problems:?}");
+        let too_long = FormFields { length_value: "40".into(), length_unit: Some(LengthUnit::M), ..filled() };
+        let problems = too_long.to_submission(Uuid::nil(), &LONDON).unwrap_err();
+        assert!(problems[0].starts_with("length: "), "{problems:?}");
+        let none = FormFields { count: "0".into(), ..filled() };
+        assert!(none.to_submission(Uuid::nil(), &LONDON).unwrap_err()[0].starts_with("count: "));
+        let bad_accuracy = FormFields { accuracy_m: "-3".into(), ..filled() };
+        assert_eq!(
+            bad_accuracy.to_submission(Uuid::nil(), &LONDON).unwrap_err(),
+            ["accuracy: a positive number of metres"]
+        );
+    }
+
+    #[test]
+    fn an_egg_case_has_a_count_and_no_length() {
+        let egg_case = FormFields { life_stage: Some(LifeStage::EggCase), ..filled() };
+        let problems = egg_case.to_submission(Uuid::nil(), &LONDON).unwrap_err();
+        assert_eq!(problems, [SubmissionProblem::LengthOfEggCase.to_string()]);
+        let counted = FormFields { length_value: String::new(), count: "12".into(), ..egg_case };
+        assert_eq!(submission(&counted).count.get(), 12);
+    }
+
+    #[test]
+    fn no_position_and_blank_texts_are_left_out() {
+        let fields = FormFields {
+            latitude: " ".into(),
+            longitude: String::new(),
+            species_guess: String::new(),
+            observer_name: String::new(),
+            length_value: String::new(),
+            ..filled()
+        };
+        let sub = submission(&fields);
+        assert_eq!((sub.position, sub.species_guess, sub.observer_name, sub.length), (None, None, None, None));
+    }
+
+    #[test]
+    fn a_photos_gps_fills_only_an_empty_position_and_goes_with_the_photo() {
+        let exif = PhotoExif {
+            latitude: Some(52.41531),
+            longitude: Some(-4.08291),
+            horizontal_error_m: Some(7.4),
+            ..PhotoExif::default()
+        };
+        let mut typed = filled();
+        assert!(!typed.fill_from_photo(&exif, "blob:1"), "a position already there stays");
+        let mut empty = FormFields { latitude: String::new(), longitude: String::new(), ..filled() };
+        assert!(empty.fill_from_photo(&exif, "blob:1"));
+        assert_eq!(
+            (empty.latitude.as_str(), empty.longitude.as_str(), empty.accuracy_m.as_str()),
+            ("52.415310", "-4.082910", "7")
+        );
+        assert_eq!(empty.position_source, Some(PositionSource::Photo));
+        assert!(!empty.clone().forget_photo_position("blob:2"), "another photo's removal leaves it");
+        assert!(empty.forget_photo_position("blob:1"));
+        assert_eq!((empty.latitude.as_str(), empty.position_source), ("", None));
+        assert!(!typed.forget_photo_position("blob:1"), "a device position stays");
+        let no_gps = PhotoExif::default();
+        assert!(!FormFields::default().fill_from_photo(&no_gps, "blob:3"));
+    }
+
+    #[test]
+    fn the_device_says_its_time_with_the_offset_and_only_its_own_fix() {
+        assert_eq!(
+            filled().device_says(&LONDON),
+            "this device says: 2025-06-01 14:10 (UTC+01:00) · 52.4153, -4.0829 ±9 m"
+        );
+        let typed = FormFields { position_source: Some(PositionSource::Typed), ..filled() };
+        assert_eq!(typed.device_says(&LONDON), "this device says: 2025-06-01 14:10 (UTC+01:00) · no position");
+    }
+}

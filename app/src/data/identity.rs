@@ -93,3 +93,19 @@ pub async fn send_profile_if_changed(token: &str) -> Option<String> {
         }
     }
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn blank_answers_are_left_out_of_the_profile() {
+        let given = profile_request("  Sam Jones ", " sam@example.org ");
+        assert_eq!(given.display_name.as_ref().map(Text::as_str), Some("Sam Jones"));
+        assert_eq!(given.contact.as_ref().map(Text::as_str), Some("sam@example.org"));
+        let nothing = profile_request("   ", "");
+        assert_eq!((nothing.display_name, nothing.contact), (None, None));
+        // The server reads a blank profile as no profile (`POST /api/devices`).
+        assert_eq!(serde_json::to_string(&profile_request("", "")).unwrap(), r#"{"display_name":null,"contact":null}"#);
+    }
+}

@@ -154,3 +154,91 @@ pub fn bench_next_question(species: usize, rounds: usize) -> f64 {
     batches.sort_by(f64::total_cmp);
     batches[batches.len() / 2]
 }
+
+#[cfg(test)]
+mod tests {
+    use shared_types::{LengthKind, MeasureMethod};
+
+    use super::*;
+    use crate::data::checklist::tests::built_in;
+    use crate::data::form_fields::FormFields;
+
+    fn key() -> Key {
+        Key::new(&built_in())
+    }
+
+    #[test]
+    fn the_record_tells_the_key_its_area_and_its_length_in_centimetres() {
+        let fields = FormFields {
+            latitude: "52,4153".into(),
+            longitude: "-4.0829".into(),
+            length_value: "24.5".into(),
+            length_unit: Some(LengthUnit::Inch),
+            length_kind: Some(LengthKind::DiscWidth),
+            length_method: Some(MeasureMethod::Estimated),
+            ..FormFields::default()
+        };
+        let nearby: nearby::Counts = [("Raja clavata".to_owned(), 3)].into();
+        let context = context_for(&key(), &fields, Some(nearby.clone()));
+        assert_eq!(context.area_code.as_deref(), Some("cardigan-bay"));
+        assert_eq!(context.nearby_confirmed, Some(nearby));
+        let measured = context.measurement.expect("a length");
+        // The inch is exactly 2.54 cm (international yard and pound agreement, 1959).
+        assert!((measured.cm - 62.23).abs() < 1e-9, "{}", measured.cm);
+        assert_eq!((measured.kind, measured.estimated), (species_key::LengthKind::DiscWidth, true));
+    }
+
+    #[test]
+    fn no_position_no_area_and_no_length_no_measurement() {
+        let context = context_for(&key(), &FormFields { length_value: "0".into(), ..FormFields::default() }, None);
+        assert_eq!((context.area_code, context.measurement), (None, None));
+        let far_away = FormFields { latitude: "-33.9".into(), longitude: "18.4".into(), ..FormFields::default() };
+        assert_eq!(context_for(&key(), &far_away, None).area_code, None, "outside every checklist area");
+    }
+
+    #[test]
+    fn a_pick_keeps_its_rank_its_probability_to_two_places_and_the_answers() {
+        let answers = Answers::new().with("bodyForm", "rayLike").with("gillSlits", "five");
+        let choice = key_choice("Rajidae", TaxonRank::Family, 0.87654, &answers).unwrap();
+        assert_eq!(
+            (choice.scientific_name.as_str(), choice.taxon_rank.as_str(), choice.probability),
+            ("Rajidae", "family", 0.88)
+        );
+        assert_eq!(choice.answers.get("bodyForm").map(String::as_str), Some("rayLike"));
+        let unsure = key_choice("Raja clavata", TaxonRank::Species, 0.5, &Answers::new().with("bodyForm", "rayLike"));
+        assert_eq!(unsure.map(|c| c.taxon_rank), Some("species".to_owned()));
+    }
+
+    #[test]
+    fn when_the_best_species_is_unsure_a_higher_taxon_is_offered_and_suggested() {
+        let key = key();
+        let answers = Answers::new().with("bodyForm", "rayLike");
+        let ranking = key.rank(&answers, &Context::default()).unwrap();
+        let offered = higher_taxa(&key, &ranking);
+        assert!(
+            offered.iter().any(|t| t.scientific_name == "Rajidae" && t.taxon_rank == TaxonRank::Family),
+            "{offered:?}"
+        );
+        let ranks: Vec<TaxonRank> = offered.iter().map(|t| t.taxon_rank).collect();
+        let mut in_order = ranks.clone();
+        in_order.sort_by_key(|r| {
+            [TaxonRank::Genus, TaxonRank::Family, TaxonRank::Order, TaxonRank::Superorder].iter().position(|x| x == r)
+        });
+        assert_eq!(ranks, in_order, "genera first, superorders last");
+        assert!(ranking[0].probability < SURE_ENOUGH);
+        let stop = suggested_stop(&key, &ranking).expect("a suggested stop");
+        assert!(stop.probability >= SURE_ENOUGH, "{stop:?}");
+    }
+
+    #[test]
+    fn an_answer_the_checklist_no_longer_knows_is_said_in_words() {
+        let key = key();
+        let gone = AnswerError::UnknownCharacter("finColour".into());
+        assert_eq!(set_aside_text(&key, &gone), "your answer about finColour (the checklist no longer asks it)");
+        let changed = AnswerError::UnknownState { character: "bodyForm".into(), state: "eelLike".into() };
+        assert_eq!(
+            set_aside_text(&key, &changed),
+            "your answer \"eelLike\" to \"What shape is the body?\" (no longer one of its answers)"
+        );
+    }
+}

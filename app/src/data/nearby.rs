@@ -52,3 +52,29 @@ pub fn refresh(area: (String, String), into: RwSignal<Option<Counts>>) {
         into.set(Some(answer.counts));
     });
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn a_position_is_named_by_the_centre_of_its_cell() {
+        // The browser test keeps the answer for a record at 52.4153, -4.0829 under
+        // `wrackline.nearby.52.45,-4.05` (tests/browser/species_key.test.mjs).
+        let area = area_of(52.4153, -4.0829).unwrap();
+        assert_eq!(area, ("52.45".to_owned(), "-4.05".to_owned()));
+        assert_eq!(storage_key(&area), "wrackline.nearby.52.45,-4.05");
+        // Every position in the same cell shares its name.
+        assert_eq!(area_of(52.4001, -4.0999), Some(area.clone()));
+        assert_ne!(area_of(52.3999, -4.0829), Some(area));
+        assert_eq!(area_of(-33.91, 18.42), Some(("-33.95".to_owned(), "18.45".to_owned())));
+    }
+
+    #[test]
+    fn a_position_off_the_globe_has_no_area() {
+        for (lat, lon) in [(91.0, 0.0), (0.0, 180.5), (f64::NAN, 0.0), (0.0, f64::INFINITY)] {
+            assert_eq!(area_of(lat, lon), None, "{lat}, {lon}");
+        }
+        assert_eq!(area_of(90.0, 180.0), Some(("90.00".to_owned(), "180.00".to_owned())), "clamped to the globe");
+    }
+}

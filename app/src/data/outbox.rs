@@ -278,3 +278,125 @@ pub async fn storage_room(new_bytes: f64) -> Result<Option<String>, String> {
         None => Ok(None),
     }
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::data::form_fields::tests::filled;
+    use crate::data::time::tests::LONDON;
+
+    fn entry(sync: SyncState) -> Entry {
+        Entry::new(filled().to_submission(uuid::Uuid::nil(), &LONDON).unwrap(), sync, 2)
+    }
+
+    fn receipt() -> Receipt {
+        serde_json::from_str(
+            r#"{"client_id":"00000000-0000-0000-0000-000000000000","observation_id":1,"received_at":"2025-06-01T13:10:00Z","photo_count":2}"#,
+        )
+        .unwrap()
+    }
+
+    #[test]
+    fn each_state_has_its_words_and_its_class() {
+        let cases = [
+            (SyncState::Draft, "draft", "state draft", false),
+            (SyncState::Waiting, "waiting to send", "state waiting", true),
+            (SyncState::Sent, "sent, awaiting the server", "state waiting", true),
+            (SyncState::Received { receipt: receipt() }, "received by the server", "state received", false),
+            (
+                SyncState::Refused { reason: "position.latitude: must be at most 90".into() },
+                "refused by the server: position.latitude: must be at most 90",
+                "state refused",
+                false,
+            ),
+        ];
+        for (state, label, class, sent) in cases {
+            assert_eq!((state.label().as_str(), state.css_class(), state.wants_sending()), (label, class, sent));
+        }
+    }
+
+    #[test]
+    fn the_summary_says_what_how_big_when_and_how_many_photos() {
+        assert_eq!(
+            entry(SyncState::Waiting).summary(),
+            "thornback ray, 62 cm total length · 2025-06-01 14:10 · 2 photo(s)"
+        );
+        let mut unnamed = entry(SyncState::Draft);
+        unnamed.submission.species_guess = None;
+        unnamed.submission.length = None;
+        assert_eq!(unnamed.summary(), "unnamed animal · 2025-06-01 14:10 · 2 photo(s)");
+    }
+
+    #[test]
+    fn an_unsent_record_goes_on_a_walk_inside_itself_a_sent_one_by_a_link() {
+        let walk = uuid::Uuid::from_u128(7);
+        for state in [SyncState::Draft, SyncState::Waiting, SyncState::Refused { reason: "x".into() }] {
+            let mut unsent = entry(state);
+            unsent.put_on_walk(walk);
+            assert_eq!((unsent.submission.walk_client_id, unsent.walk_link_pending), (Some(walk), None));
+            assert_eq!(unsent.walk(), Some(walk));
+        }
+        for state in [SyncState::Sent, SyncState::Received { receipt: receipt() }] {
+            let mut sent = entry(state);
+            sent.put_on_walk(walk);
+            assert_eq!((sent.submission.walk_client_id, sent.walk_link_pending), (None, Some(walk)));
+            assert_eq!(sent.walk(), Some(walk));
+        }
+    }
+
+    #[test]
+    fn an_attempt_keeps_the_reason_to_retry_and_a_receipt_clears_it() {
+        let mut record = entry(SyncState::Sent);
+        record.note_attempt(SyncState::Waiting, Some("no connection (Failed to fetch)".into()));
+        assert_eq!(record.sync, SyncState::Waiting);
+        assert_eq!(record.problem_shown(), Some("no connection (Failed to fetch)"));
+        let refused = SyncState::Refused { reason: "count: must be between 1 and 10000".into() };
+        let mut refused_record = record.clone();
+        refused_record.note_attempt(refused.clone(), None);
+        assert_eq!(refused_record.sync, refused);
+        assert_eq!(refused_record.problem_shown(), None, "a refusal shows its own reason, not the last problem");
+        record.note_attempt(SyncState::Received { receipt: receipt() }, None);
+        assert_eq!((record.last_error.as_deref(), record.problem_shown()), (None, None));
+    }
+
+    #[test]
+    fn a_refused_walk_link_is_shown_beside_the_received_record() {
+        let mut received = entry(SyncState::Received { receipt: receipt() });
+        received.last_error = Some("could not add to the walk: this walk belongs to another phone".into());
+        assert_eq!(received.problem_shown(), Some("could not add to the walk: this walk belongs to another phone"));
+    }
+
+    #[test]
+    fn a_record_kept_before_walks_existed_still_reads() {
+        let mut json: serde_json::Value = serde_json::to_value(entry(SyncState::Waiting)).unwrap();
+        for field in ["last_error", "walk_link_pending", "walk_linked"] {
+            json.as_object_mut().unwrap().remove(field);
+        }
+        let read: Entry = serde_json::from_value(json).unwrap();
+        assert_eq!(read, entry(SyncState::Waiting));
+    }
+
+    #[test]
+    fn a_record_is_refused_before_storage_is_full_and_warned_about_before_that() {
+        let mb = 1e6;
+        assert_eq!(room_for(10.0 * mb, 100.0 * mb, 5.0 * mb), Ok(None));
+        let warning = room_for(78.0 * mb, 100.0 * mb, 5.0 * mb).unwrap().expect("a warning over 80%");
+        assert!(warning.contains("nearly full (83 of 100 MB)"), "{warning}");
+        let full = room_for(95.0 * mb, 100.0 * mb, 5.0 * mb).unwrap_err();
+        assert!(full.starts_with("Not saved: this phone's storage for wrackline is full (100 of 100 MB"), "{full}");
+        assert!(full.ends_with("Your form is kept as it is."), "{full}");
+        assert_eq!(room_for(95.0 * mb, 0.0, 5.0 * mb), Ok(None), "no quota known: no warning");
+    }
+
+    #[test]
+    fn the_status_line_says_sending_or_the_problem_and_the_next_try() {
+        assert_eq!(SyncStatus::default().words(), "");
+        assert_eq!(SyncStatus { running: true, ..SyncStatus::default() }.words(), "sending…");
+        let waiting = SyncStatus {
+            running: false,
+            next_retry: Some(Duration::from_secs(8)),
+            last_problem: Some("no connection (Failed to fetch)".into()),
+        };
+        assert_eq!(waiting.words(), "no connection (Failed to fetch); trying again in 8 s");
+    }
+}

@@ -142,3 +142,74 @@ pub fn photo_says(exif: &PhotoExif) -> String {
     };
     format!("photo says: {when} · {place}")
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::data::time::tests::LONDON;
+
+    fn read_at(taken_local: &str, offset: Option<&str>) -> PhotoExif {
+        PhotoExif { taken_local: Some(taken_local.into()), offset: offset.map(str::to_owned), ..PhotoExif::default() }
+    }
+
+    fn now_local(text: &str) -> NaiveDateTime {
+        NaiveDateTime::parse_from_str(text, "%Y-%m-%d %H:%M").unwrap()
+    }
+
+    #[test]
+    fn a_photo_without_an_offset_keeps_the_one_in_force_when_it_was_taken() {
+        // Taken on 29 March 2025 (GMT), recorded on 2 April (BST): the photo's instant
+        // uses +00:00, not the +01:00 of the day it was recorded.
+        let resolved =
+            with_device_offset(read_at("2025:03:29 14:00:00", None), &LONDON, &now_local("2025-04-02 10:00"));
+        assert_eq!(resolved.device_offset.as_deref(), Some("+00:00"));
+        assert_eq!(resolved.taken_at.map(|t| t.to_rfc3339()).as_deref(), Some("2025-03-29T14:00:00+00:00"));
+        assert_eq!(resolved.offset_source, Some(shared_types::OffsetSource::Device));
+        assert_eq!(
+            photo_says(&resolved),
+            "photo says: 2025-03-29 14:00:00 (+00:00, this phone's offset on that date) · no position"
+        );
+    }
+
+    #[test]
+    fn a_photo_with_its_own_offset_keeps_it() {
+        let read = read_at("2025:06:01 14:05:09", Some("+02:00"));
+        let resolved = with_device_offset(read, &LONDON, &now_local("2025-06-01 14:10"));
+        assert_eq!(resolved.device_offset, None);
+        assert_eq!(resolved.taken_at.map(|t| t.to_rfc3339()).as_deref(), Some("2025-06-01T14:05:09+02:00"));
+        let placed =
+            PhotoExif { latitude: Some(52.4153), longitude: Some(-4.0829), horizontal_error_m: Some(7.0), ..resolved };
+        assert_eq!(
+            photo_says(&placed),
+            "photo says: 2025-06-01 14:05:09 (+02:00, its own offset) · 52.41530, -4.08290 ±7 m"
+        );
+    }
+
+    #[test]
+    fn a_photo_with_no_time_says_so() {
+        let resolved = with_device_offset(PhotoExif::default(), &LONDON, &now_local("2025-06-01 14:10"));
+        assert_eq!((resolved.taken_at, resolved.device_offset.as_deref()), (None, None));
+        assert_eq!(photo_says(&resolved), "photo says: no time · no position");
+    }
+
+    #[test]
+    fn the_same_upload_copy_twice_is_one_photo() {
+        let on_form = [Some("aa"), None, Some("bb")];
+        assert!(already_added(on_form.into_iter(), Some("bb")));
+        assert!(!already_added(on_form.into_iter(), Some("cc")));
+        assert!(!already_added(on_form.into_iter(), None), "without a hash nothing is told apart");
+    }
+
+    #[test]
+    fn a_heic_photo_the_browser_cannot_open_gets_what_to_do() {
+        for (name, media_type) in [("IMG_0001.HEIC", ""), ("ray.jpg", "image/heic"), ("skate.heif", "image/heif")] {
+            let said = cannot_open(name, media_type, "decode failed");
+            assert!(said.contains("is a HEIC photo") && said.contains("Most Compatible"), "{said}");
+        }
+        let other = cannot_open("ray.tiff", "image/tiff", "decode failed");
+        assert_eq!(
+            other,
+            "“ray.tiff” could not be opened as a picture by this browser (decode failed). Pick a JPEG or PNG photo instead."
+        );
+    }
+}

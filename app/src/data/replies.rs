@@ -82,3 +82,20 @@ pub async fn send_waiting(token: &str) -> Option<String> {
     }
     problem
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn an_answer_needs_words_or_a_photo_and_no_more_words_than_a_text_holds() {
+        let record = Uuid::from_u128(1);
+        assert_eq!(ReplyEntry::new(record, "  ", &[]).unwrap_err(), "Write an answer or add a photo.");
+        let too_long = "x".repeat(Text::MAX_CHARS + 1);
+        assert_eq!(ReplyEntry::new(record, &too_long, &[]).unwrap_err(), "That answer is too long.");
+        let entry = ReplyEntry::new(record, "It had a spine on its tail.", &[]).unwrap();
+        assert_eq!((entry.record_client_id, entry.photo_count, entry.state), (record, 0, ReplyState::Waiting));
+        assert_eq!(entry.reply.message.as_str(), "It had a spine on its tail.");
+        assert_ne!(entry.reply.client_id, ReplyEntry::new(record, "again", &[]).unwrap().reply.client_id);
+    }
+}

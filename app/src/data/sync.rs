@@ -244,3 +244,98 @@ async fn send_links(outbox: Outbox, token: &str) -> Option<String> {
     outbox.reload().await;
     problem
 }
+
+#[cfg(test)]
+mod tests {
+    use shared_types::{DistanceSource, ErrorBody, TrackLength, WalkEffort, WalkReceipt};
+
+    use super::*;
+
+    fn receipt() -> Receipt {
+        api::read(
+            r#"{"client_id":"6f1c9a52-3b7e-4d0a-9c55-2a1e8f0b7d41","observation_id":7,"received_at":"2025-06-01T13:10:00Z","photo_count":2}"#,
+        )
+        .unwrap()
+    }
+
+    fn status(status: u16, body: Option<(&str, Option<&str>)>) -> ApiError {
+        let body = body.map(|(error, field)| ErrorBody { error: error.into(), field: field.map(str::to_owned) });
+        ApiError::Status { status, body }
+    }
+
+    #[test]
+    fn the_delay_doubles_from_two_seconds_up_to_five_minutes() {
+        let delays: Vec<u64> = (1..=10).map(|n| backoff_delay(n).as_secs()).collect();
+        assert_eq!(delays, [2, 4, 8, 16, 32, 64, 128, 256, 300, 300]);
+        // No failure counted yet (or an absurd count) neither waits nothing nor overflows.
+        assert_eq!(backoff_delay(0), Duration::from_secs(2));
+        assert_eq!(backoff_delay(u32::MAX), Duration::from_secs(300));
+    }
+
+    #[test]
+    fn a_receipt_makes_the_record_received() {
+        let (state, retry) = record_state_after(Ok(receipt()));
+        assert_eq!(state, SyncState::Received { receipt: receipt() });
+        assert_eq!(retry, None);
+        assert_eq!(state.label(), "received by the server");
+    }
+
+    #[test]
+    fn a_refusal_keeps_the_servers_message_and_is_not_retried() {
+        let (state, retry) =
+            record_state_after(Err(status(422, Some(("must be at most 90", Some("position.latitude"))))));
+        assert_eq!(state, SyncState::Refused { reason: "position.latitude: must be at most 90".into() });
+        assert_eq!(retry, None);
+        assert_eq!(state.label(), "refused by the server: position.latitude: must be at most 90");
+        assert!(!state.wants_sending());
+        let (state, _) = record_state_after(Err(status(413, None)));
+        assert_eq!(state, SyncState::Refused { reason: "the server answered 413".into() });
+    }
+
+    #[test]
+    fn no_answer_a_timeout_a_rate_limit_or_a_server_fault_puts_it_back_to_waiting() {
+        let cases = [
+            (ApiError::NoAnswer("Failed to fetch".into()), "no connection (Failed to fetch)"),
+            (status(408, None), "the server answered 408"),
+            (
+                status(429, Some(("too many requests; try again in a minute", None))),
+                "too many requests; try again in a minute",
+            ),
+            (
+                status(500, Some(("the server could not finish this request; try again later", None))),
+                "the server could not finish this request; try again later",
+            ),
+            (status(503, None), "the server answered 503"),
+            (
+                ApiError::Unreadable("expected value at line 1 column 1".into()),
+                "the server's answer could not be read: expected value at line 1 column 1",
+            ),
+        ];
+        for (err, shown) in cases {
+            let (state, retry) = record_state_after(Err(err.clone()));
+            assert_eq!(state, SyncState::Waiting, "{err:?}");
+            assert!(state.wants_sending(), "{err:?}");
+            assert_eq!(retry.as_deref(), Some(shown), "{err:?}");
+        }
+    }
+
+    #[test]
+    fn a_walk_follows_the_same_rules() {
+        let walk_receipt = WalkReceipt {
+            client_id: receipt().client_id,
+            walk_id: 3,
+            received_at: receipt().received_at,
+            effort: WalkEffort {
+                distance_m: 1200.0,
+                distance_source: DistanceSource::Typed,
+                duration_s: 3600.0,
+                track: TrackLength::default(),
+            },
+        };
+        assert_eq!(walk_state_after(Ok(walk_receipt.clone())), (WalkState::Received { receipt: walk_receipt }, None));
+        let (state, retry) = walk_state_after(Err(status(502, None)));
+        assert_eq!((state, retry.as_deref()), (WalkState::Waiting, Some("the server answered 502")));
+        let (state, retry) = walk_state_after(Err(status(403, Some(("this walk belongs to another phone", None)))));
+        assert_eq!((state, retry), (WalkState::Refused { reason: "this walk belongs to another phone".into() }, None));
+    }
+}

@@ -176,3 +176,87 @@ pub fn track_point(fix: device::TimedFix, offset: &FixedOffset) -> Option<TrackP
         at: utc.with_timezone(offset),
     })
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::data::time::tests::LONDON;
+
+    fn typed(from: &str, to: &str, km: &str) -> Result<WalkEntry, &'static str> {
+        WalkEntry::typed(&LONDON, " North beach ", true, (from, to, km))
+    }
+
+    fn fix(latitude: f64, at_ms: f64) -> device::TimedFix {
+        device::TimedFix { latitude, longitude: -4.0829, accuracy: 0.0, at: at_ms }
+    }
+
+    #[test]
+    fn a_past_walk_typed_by_hand_is_checked_and_waits_to_be_sent() {
+        let walk = typed("2025-06-01T09:00", "2025-06-01T10:30", "2,4").unwrap();
+        assert_eq!(walk.started_at.to_rfc3339(), "2025-06-01T09:00:00+01:00");
+        assert_eq!(walk.ended_at.map(|t| t.to_rfc3339()).as_deref(), Some("2025-06-01T10:30:00+01:00"));
+        assert_eq!((walk.typed_distance_m, walk.kilometres()), (Some(2400.0), 2.4));
+        assert_eq!(
+            (walk.state.clone(), walk.stretch.as_ref().map(Text::as_str)),
+            (WalkState::Waiting, Some("North beach"))
+        );
+        assert!(walk.state.wants_sending());
+        let sent = walk.submission().expect("an ended walk is sent");
+        assert_eq!(
+            (sent.client_id, sent.typed_distance_m, sent.all_finds_reported),
+            (walk.client_id, Some(2400.0), true)
+        );
+    }
+
+    #[test]
+    fn a_typed_walk_with_a_problem_says_which() {
+        assert_eq!(typed("", "2025-06-01T10:30", "2").unwrap_err(), "Give the walk's start and end.");
+        assert_eq!(
+            typed("2025-06-01T09:00", "2025-06-01T10:30", "far").unwrap_err(),
+            "Give the distance walked in kilometres (0 to 100)."
+        );
+        assert_eq!(
+            typed("2025-06-01T09:00", "2025-06-01T10:30", "100.5").unwrap_err(),
+            "Give the distance walked in kilometres (0 to 100)."
+        );
+        assert_eq!(
+            typed("2025-06-01T09:00", "2025-06-01T10:30", "-1").unwrap_err(),
+            "Give the distance walked in kilometres (0 to 100)."
+        );
+        assert_eq!(typed("2025-06-01T10:30", "2025-06-01T09:00", "2").unwrap_err(), "The walk ends before it starts.");
+        assert!(typed("2025-06-01T09:00", "2025-06-01T09:00", "0").is_ok(), "an empty walk is still effort");
+    }
+
+    #[test]
+    fn a_walk_going_on_is_not_sent_until_it_ends() {
+        let start = crate::data::time::parse_input(&LONDON, "2025-06-01T09:00").unwrap();
+        let mut walk = WalkEntry::start("", false, start);
+        assert_eq!((walk.state.label(), walk.stretch.is_none()), ("walking now".to_owned(), true));
+        assert!(!walk.state.wants_sending());
+        assert_eq!(walk.submission(), None);
+        assert_eq!(walk.title(), "walk, 2025-06-01 09:00");
+        walk.end(start + chrono::Duration::minutes(40));
+        assert_eq!(walk.state, WalkState::Waiting);
+        assert_eq!(walk.submission().map(|s| s.ended_at - s.started_at), Some(chrono::Duration::minutes(40)));
+    }
+
+    #[test]
+    fn a_fix_is_kept_at_most_every_ten_seconds() {
+        let offset = FixedOffset::east_opt(3600).unwrap();
+        let first = track_point(fix(52.4153, 1_748_768_400_000.0), &offset).unwrap();
+        assert_eq!(first.at.to_rfc3339(), "2025-06-01T10:00:00+01:00");
+        let mut walk = WalkEntry::start("", false, first.at);
+        assert!(walk.fix_is_due(first.at));
+        walk.track.push(first);
+        assert!(!walk.fix_is_due(first.at + chrono::Duration::seconds(SAMPLE_EVERY_S - 1)));
+        assert!(walk.fix_is_due(first.at + chrono::Duration::seconds(SAMPLE_EVERY_S)));
+    }
+
+    #[test]
+    fn a_fix_out_of_range_is_no_point() {
+        let offset = FixedOffset::east_opt(0).unwrap();
+        assert!(track_point(fix(91.0, 0.0), &offset).is_none());
+        let point = track_point(fix(52.0, 0.0), &offset).unwrap();
+        assert_eq!(point.accuracy_m.map(|a| a.get()), Some(0.01), "a zero accuracy is kept as the least");
+    }
+}
