@@ -6,8 +6,8 @@
 //! - `demo [ARGS…]`: build everything, then run `wrackline demo` (ARGS go to it).
 //! - `test`: install what the tests need (wasm target, Chromium, exiftool, npm
 //!   packages, a Python venv in target/venv), build, and run every test: Rust unit and
-//!   integration tests, then the browser tests, then the intake fuzz loop for 15 s. `ci`
-//!   is the same.
+//!   integration tests, the app's own unit tests (natively), then the browser tests,
+//!   then the intake fuzz loop for 15 s. `ci` is the same.
 //! - `fuzz [--seconds N] [--seed N]`: the intake fuzz loop (`server/examples/fuzz_intake.rs`).
 //! - `bench`: the benchmarks, each printing ratios against a baseline measured in the
 //!   same run (never timed tests: machines here are shared and noisy).
@@ -64,6 +64,8 @@ fn test() -> Result<()> {
         &["test", "--workspace", "--exclude", "wrackline-app", "--exclude", "upload-copy-bench"],
         &[("WRACKLINE_PYTHON", &python)],
     )?;
+    // The app's data layer (sync states, backoff, error decoding, time), natively: no browser.
+    run::cargo(&["test", "-p", "wrackline-app"])?;
     run::cargo(&["build", "-p", "wrackline-server"])?;
     run::browser_tests(&dist, &root().join("target/debug/wrackline"))?;
     fuzz(&["--seconds".into(), "15".into()])?;
