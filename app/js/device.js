@@ -134,13 +134,6 @@ export async function sendRecord(url, json, blobs, part = 'record', headers = {}
   return { status: response.status, body: await response.text() };
 }
 
-// GETs a URL's text; rejects when no answer came or the status is not 2xx.
-export async function fetchText(url) {
-  const response = await fetch(url);
-  if (!response.ok) throw new Error(`${url} answered ${response.status}`);
-  return await response.text();
-}
-
 // Saves a survey walk's JSON.
 export async function saveWalk(id, json) {
   const d = await db();

@@ -1,35 +1,22 @@
 //! wrackline's phone app: capture a record with no signal, keep it in an outbox that
-//! survives closing the browser, and send it when a connection appears.
+//! survives closing the browser, and send it when a connection appears. The app never
+//! decides what the server decides: it shows the server's receipts.
 //!
-//! Modules: [`device`] (browser storage, position, upload, via `js/device.js`),
-//! [`nearby`] (confirmed records near the record, for the key's prior, kept per area),
-//! [`outbox`] (what the phone keeps and each record's sync state), [`sync`] (sending,
-//! retries with backoff), [`form`] (the record form), [`photos`] (EXIF read on the phone,
-//! the upload copy), [`key`] (the guided species key and its [`pictures`]), [`walks`]
-//! (survey walks and their tracks), [`identity`] (the phone's device identity), [`mine`]
-//! (the observer's records and answers to reviewers), [`review`] (the reviewers'
-//! screens), [`figures`] (range and trend figures), [`exports`] (downloads of the records),
-//! [`screens`] (the page around it), [`readable`] (times and photo readings as people read them).
-//! The app never decides what the server decides: it shows the server's receipts.
+//! Two layers, and imports go one way only:
+//!
+//! - [`data`]: the phone's data and logic — what it keeps (IndexedDB, localStorage), what
+//!   it sends and when (the outbox and the sync loop with its backoff), the one client
+//!   for the server's routes, local time and daylight saving, the checks a record must
+//!   pass, the guided key's logic, and the words that need no screen. No view code, and
+//!   it never imports [`screens`], so its pure parts are tested natively
+//!   (`cargo test -p wrackline-app`).
+//! - [`screens`]: the page and every screen, as Leptos views. They read and change the
+//!   phone's state only through [`data`].
 
-mod device;
-mod exports;
-mod figures;
-mod form;
-mod identity;
-mod key;
-mod mine;
-mod nearby;
-mod outbox;
-mod photos;
-mod pictures;
-mod readable;
-mod review;
+mod data;
 mod screens;
-mod sync;
-mod walks;
 
-pub use key::bench_next_question;
+pub use data::key::bench_next_question;
 
 /// Runs when the module is loaded: mounts the app.
 #[wasm_bindgen::prelude::wasm_bindgen(start)]

@@ -7,9 +7,9 @@
 //! - `test`: install what the tests need (wasm target, rustfmt and clippy, Chromium,
 //!   exiftool, npm packages, a Python venv in target/venv), check formatting and lints
 //!   (`cargo fmt --check`, `cargo clippy -D warnings`; the tidy rules run as a test of
-//!   xtask), build, and run every test: Rust unit and
-//!   integration tests, then the browser tests, then the intake fuzz loop for 15 s. `ci`
-//!   is the same.
+//!   xtask), build, and run every test: Rust unit and integration tests, the app's own
+//!   unit tests (natively), then the browser tests, then the intake fuzz loop for 15 s.
+//!   `ci` is the same.
 //! - `fuzz [--seconds N] [--seed N]`: the intake fuzz loop (`server/examples/fuzz_intake.rs`).
 //! - `tidy`: the workspace's written rules and module layers ([`tidy`]), printed.
 //! - `bench`: the benchmarks, each printing ratios against a baseline measured in the
@@ -70,6 +70,8 @@ fn test() -> Result<()> {
         &["test", "--workspace", "--exclude", "wrackline-app", "--exclude", "upload-copy-bench"],
         &[("WRACKLINE_PYTHON", &python)],
     )?;
+    // The app's data layer (sync states, backoff, error decoding, time), natively: no browser.
+    run::cargo(&["test", "-p", "wrackline-app"])?;
     run::cargo(&["build", "-p", "wrackline-server"])?;
     run::browser_tests(&dist, &root().join("target/debug/wrackline"))?;
     fuzz(&["--seconds".into(), "15".into()])?;

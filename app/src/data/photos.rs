@@ -10,8 +10,8 @@ use chrono::NaiveDateTime;
 use shared_types::PhotoExif;
 use shared_types::exif;
 
-use crate::device::{self, PrepareError};
-use crate::form::offset_at;
+use crate::data::device::{self, PrepareError};
+use crate::data::time::{self, BrowserZone, Zone};
 
 /// Long edge of the upload copy, pixels: enough for a reviewer to count gill slits and
 /// see spines, a fifth of a 12 MP original's bytes (common practice for evidence photos).
@@ -44,8 +44,8 @@ const EXIF_HEAD_BYTES: f64 = 256.0 * 1024.0;
 /// Reads and prepares one picked file; the error is a sentence for the observer.
 pub async fn pick(file: web_sys::File) -> Result<PickedPhoto, String> {
     let name = file.name();
-    let mut exif =
-        with_device_offset(read_exif(&file).await.map_err(|err| format!("“{name}” could not be read: {err}"))?);
+    let read = read_exif(&file).await.map_err(|err| format!("“{name}” could not be read: {err}"))?;
+    let mut exif = with_device_offset(read, &BrowserZone, &time::now().naive_local());
     // Names the original, which is never sent, so the same photo picked on two phones is
     // recognised though their upload copies differ. A browser without a digest sends none.
     let digest = device::original_sha256(&file).await.map_err(|err| format!("“{name}” could not be read: {err}"))?;
@@ -73,15 +73,23 @@ async fn read_exif(file: &web_sys::File) -> Result<PhotoExif, String> {
 }
 
 /// Resolves the photo's time. A photo with no offset of its own (no
-/// OffsetTimeOriginal) gets this device's UTC offset at the photo's local time, which
+/// OffsetTimeOriginal) gets the zone's UTC offset at the photo's local time, which
 /// travels with the reading (`device_offset`): a photo taken before a daylight-saving
-/// change and recorded after it keeps the offset it was taken under.
-fn with_device_offset(mut read: PhotoExif) -> PhotoExif {
+/// change and recorded after it keeps the offset it was taken under. `now` is the
+/// phone's local time now, for the offset used when the photo has no time at all.
+pub fn with_device_offset(mut read: PhotoExif, zone: &impl Zone, now: &NaiveDateTime) -> PhotoExif {
     let local = read.taken_local.as_deref().and_then(|t| NaiveDateTime::parse_from_str(t, "%Y:%m:%d %H:%M:%S%.f").ok());
     if let (None, Some(local)) = (&read.offset, local) {
-        read.device_offset = Some(offset_at(&local).to_string());
+        read.device_offset = Some(time::offset_at(zone, &local).to_string());
     }
-    exif::resolve_time(read, offset_at(&chrono::Local::now().naive_local()))
+    exif::resolve_time(read, time::offset_at(zone, now))
+}
+
+/// True when a photo whose upload copy has the SHA-256 `picked` is already among
+/// `on_form` (the same photo picked twice makes the same copy; the server would keep
+/// it once). Without a hash nothing can be told apart.
+pub fn already_added<'a>(mut on_form: impl Iterator<Item = Option<&'a str>>, picked: Option<&str>) -> bool {
+    picked.is_some() && on_form.any(|sha| sha == picked)
 }
 
 /// What to tell the observer when the browser cannot open a photo.
@@ -133,4 +141,75 @@ pub fn photo_says(exif: &PhotoExif) -> String {
         _ => "no position".to_owned(),
     };
     format!("photo says: {when} · {place}")
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::data::time::tests::LONDON;
+
+    fn read_at(taken_local: &str, offset: Option<&str>) -> PhotoExif {
+        PhotoExif { taken_local: Some(taken_local.into()), offset: offset.map(str::to_owned), ..PhotoExif::default() }
+    }
+
+    fn now_local(text: &str) -> NaiveDateTime {
+        NaiveDateTime::parse_from_str(text, "%Y-%m-%d %H:%M").unwrap()
+    }
+
+    #[test]
+    fn a_photo_without_an_offset_keeps_the_one_in_force_when_it_was_taken() {
+        // Taken on 29 March 2025 (GMT), recorded on 2 April (BST): the photo's instant
+        // uses +00:00, not the +01:00 of the day it was recorded.
+        let resolved =
+            with_device_offset(read_at("2025:03:29 14:00:00", None), &LONDON, &now_local("2025-04-02 10:00"));
+        assert_eq!(resolved.device_offset.as_deref(), Some("+00:00"));
+        assert_eq!(resolved.taken_at.map(|t| t.to_rfc3339()).as_deref(), Some("2025-03-29T14:00:00+00:00"));
+        assert_eq!(resolved.offset_source, Some(shared_types::OffsetSource::Device));
+        assert_eq!(
+            photo_says(&resolved),
+            "photo says: 2025-03-29 14:00:00 (+00:00, this phone's offset on that date) · no position"
+        );
+    }
+
+    #[test]
+    fn a_photo_with_its_own_offset_keeps_it() {
+        let read = read_at("2025:06:01 14:05:09", Some("+02:00"));
+        let resolved = with_device_offset(read, &LONDON, &now_local("2025-06-01 14:10"));
+        assert_eq!(resolved.device_offset, None);
+        assert_eq!(resolved.taken_at.map(|t| t.to_rfc3339()).as_deref(), Some("2025-06-01T14:05:09+02:00"));
+        let placed =
+            PhotoExif { latitude: Some(52.4153), longitude: Some(-4.0829), horizontal_error_m: Some(7.0), ..resolved };
+        assert_eq!(
+            photo_says(&placed),
+            "photo says: 2025-06-01 14:05:09 (+02:00, its own offset) · 52.41530, -4.08290 ±7 m"
+        );
+    }
+
+    #[test]
+    fn a_photo_with_no_time_says_so() {
+        let resolved = with_device_offset(PhotoExif::default(), &LONDON, &now_local("2025-06-01 14:10"));
+        assert_eq!((resolved.taken_at, resolved.device_offset.as_deref()), (None, None));
+        assert_eq!(photo_says(&resolved), "photo says: no time · no position");
+    }
+
+    #[test]
+    fn the_same_upload_copy_twice_is_one_photo() {
+        let on_form = [Some("aa"), None, Some("bb")];
+        assert!(already_added(on_form.into_iter(), Some("bb")));
+        assert!(!already_added(on_form.into_iter(), Some("cc")));
+        assert!(!already_added(on_form.into_iter(), None), "without a hash nothing is told apart");
+    }
+
+    #[test]
+    fn a_heic_photo_the_browser_cannot_open_gets_what_to_do() {
+        for (name, media_type) in [("IMG_0001.HEIC", ""), ("ray.jpg", "image/heic"), ("skate.heif", "image/heif")] {
+            let said = cannot_open(name, media_type, "decode failed");
+            assert!(said.contains("is a HEIC photo") && said.contains("Most Compatible"), "{said}");
+        }
+        let other = cannot_open("ray.tiff", "image/tiff", "decode failed");
+        assert_eq!(
+            other,
+            "“ray.tiff” could not be opened as a picture by this browser (decode failed). Pick a JPEG or PNG photo instead."
+        );
+    }
 }

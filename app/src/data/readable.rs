@@ -39,3 +39,45 @@ pub fn offset_words(exif: &PhotoExif) -> &'static str {
         Some(OffsetSource::Record) | None => "record's offset",
     }
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    fn check(time: Option<ExifReading>, place: Option<ExifReading>) -> PhotoCheck {
+        PhotoCheck {
+            time_reading: time,
+            place_reading: place,
+            seconds_before_record: None,
+            metres_from_record: None,
+            flags: Vec::new(),
+        }
+    }
+
+    #[test]
+    fn a_time_is_the_minute_and_the_offset() {
+        let at = DateTime::parse_from_rfc3339("2025-06-01T09:30:59.75+01:00").unwrap();
+        assert_eq!(time(&at), "2025-06-01 09:30 +01:00");
+    }
+
+    #[test]
+    fn the_reading_compared_is_named_and_both_when_they_differ() {
+        use ExifReading::{Phone, ReceivedFile};
+        assert_eq!(readings_words(&check(Some(ReceivedFile), Some(ReceivedFile))), "the file's EXIF");
+        assert_eq!(readings_words(&check(None, Some(Phone))), "the phone's reading of the original");
+        assert_eq!(
+            readings_words(&check(Some(ReceivedFile), Some(Phone))),
+            "time from the file's EXIF, place from the phone's reading of the original"
+        );
+        assert_eq!(readings_words(&check(None, None)), "no EXIF");
+    }
+
+    #[test]
+    fn whose_offset_made_the_instant_is_said() {
+        let with = |source| PhotoExif { offset_source: source, ..PhotoExif::default() };
+        assert_eq!(offset_words(&with(Some(OffsetSource::Photo))), "photo's offset");
+        assert_eq!(offset_words(&with(Some(OffsetSource::Device))), "phone's offset then");
+        assert_eq!(offset_words(&with(Some(OffsetSource::Record))), "record's offset");
+        assert_eq!(offset_words(&with(None)), "record's offset");
+    }
+}

@@ -1,6 +1,6 @@
 //! Typed Rust calls over `js/device.js`: the outbox in IndexedDB, the device's
-//! position, storage persistence, a photo's bytes and its upload copy, and the upload
-//! itself. Errors come back as the
+//! position, storage persistence, a photo's bytes and its upload copy, and the requests
+//! themselves (what their answers mean is `api`'s business). Errors come back as the
 //! browser's own message.
 
 use serde::Deserialize;
@@ -33,8 +33,6 @@ extern "C" {
     fn stop_watching_js(id: i32);
     #[wasm_bindgen(js_name = sendJson)]
     fn send_json_js(method: &str, url: &str, json: JsValue, headers: JsValue) -> js_sys::Promise;
-    #[wasm_bindgen(js_name = fetchText)]
-    fn fetch_text_js(url: &str) -> js_sys::Promise;
     #[wasm_bindgen(js_name = sendRecord)]
     fn send_record_js(url: &str, json: &str, blobs: js_sys::Array, part: &str, headers: JsValue) -> js_sys::Promise;
     #[wasm_bindgen(js_name = readBytes)]
@@ -155,11 +153,6 @@ pub async fn send_form(
     let blobs = photos.iter().map(JsValue::from).collect::<js_sys::Array>();
     let value = wait(send_record_js(url, json, blobs, part, headers(header_pairs))).await?;
     serde_wasm_bindgen::from_value(value).map_err(|err| err.to_string())
-}
-
-/// The body of a GET, when the server answered 2xx.
-pub async fn fetch_text(url: &str) -> Result<String, String> {
-    wait(fetch_text_js(url)).await?.as_string().ok_or_else(|| "not text".to_owned())
 }
 
 pub async fn save_walk(id: &str, json: &str) -> Result<(), String> {

@@ -1,0 +1,111 @@
+//! The checklist the app carries: built in, replaced by the server's (`/api/checklist`)
+//! whenever one answers, and kept in localStorage so the guided key works in flight
+//! mode. The review queue's taxon filter and the downloads' areas read it too.
+
+use std::collections::BTreeSet;
+use std::sync::Arc;
+
+use leptos::prelude::*;
+use species_key::{Checklist, Key};
+
+use crate::data::api;
+use crate::data::local;
+
+const STORED_CHECKLIST: &str = "wrackline.checklist";
+const BUILT_IN_CHECKLIST: &str = include_str!("../../../demo-records/checklist.json");
+
+/// The checklist kept from the server's last answer, or else the built-in one.
+fn current() -> Checklist {
+    let stored = local::get(STORED_CHECKLIST).and_then(|text| Checklist::from_json(&text).ok());
+    // The built-in checklist is checked by the species-key and server tests.
+    stored.unwrap_or_else(|| Checklist::from_json(BUILT_IN_CHECKLIST).expect("built-in checklist is valid"))
+}
+
+/// The key over the last checklist the server sent, or the built-in one.
+pub fn initial_key() -> Arc<Key> {
+    Arc::new(Key::new(&current()))
+}
+
+/// Fetches the server's checklist and keeps it for offline use; quietly keeps the
+/// current one when there is no answer or it does not check out.
+pub fn refresh_from_server(key: RwSignal<Arc<Key>>) {
+    leptos::task::spawn_local(async move {
+        let Ok(text) = api::checklist_text().await else { return };
+        let Ok(checklist) = Checklist::from_json(&text) else { return };
+        local::set(STORED_CHECKLIST, &text);
+        key.set(Arc::new(Key::new(&checklist)));
+    });
+}
+
+/// Every species (scientific and common names) and every genus, family, order and
+/// superorder of `checklist`, sorted, for the queue's taxon filter.
+pub fn taxon_names(checklist: &Checklist) -> Vec<String> {
+    let mut names = BTreeSet::new();
+    for taxon in checklist.taxa() {
+        names.insert(taxon.scientific_name.clone());
+        names.extend(taxon.common_names.iter().cloned());
+        for higher in [&taxon.genus, &taxon.family, &taxon.order, &taxon.superorder] {
+            names.insert(higher.clone());
+        }
+    }
+    names.into_iter().collect()
+}
+
+/// Names for the queue's taxon filter, from the checklist the app carries.
+pub fn known_taxon_names() -> Vec<String> {
+    taxon_names(&current())
+}
+
+/// The checklist's areas as (code, name).
+pub fn areas() -> Vec<(String, String)> {
+    current().areas().iter().map(|a| (a.code.clone(), a.name.clone())).collect()
+}
+
+/// The areas that have a bounding box, as (name, `SOUTH,WEST,NORTH,EAST`) — the order
+/// the export's `bbox` filter reads.
+pub fn areas_with_box(checklist: &Checklist) -> Vec<(String, String)> {
+    checklist
+        .areas()
+        .iter()
+        .filter_map(|a| {
+            a.bounds.map(|[west, south, east, north]| (a.name.clone(), format!("{south},{west},{north},{east}")))
+        })
+        .collect()
+}
+
+/// [`areas_with_box`] of the checklist the app carries.
+pub fn download_areas() -> Vec<(String, String)> {
+    areas_with_box(&current())
+}
+
+#[cfg(test)]
+pub(crate) mod tests {
+    use super::*;
+
+    pub(crate) fn built_in() -> Checklist {
+        Checklist::from_json(BUILT_IN_CHECKLIST).expect("built-in checklist is valid")
+    }
+
+    #[test]
+    fn the_taxon_filter_offers_species_common_names_and_every_higher_rank_once() {
+        let names = taxon_names(&built_in());
+        for name in ["Raja clavata", "small-spotted catshark", "Raja", "Rajidae", "Rajiformes", "Batoidea"] {
+            assert!(names.iter().any(|n| n == name), "{name} is offered");
+        }
+        assert_eq!(names.iter().filter(|n| *n == "Rajidae").count(), 1);
+        assert!(names.windows(2).all(|w| w[0] < w[1]), "sorted, without repeats");
+    }
+
+    #[test]
+    fn an_areas_box_is_given_in_the_order_the_export_reads_it() {
+        // The checklist keeps [west, south, east, north]; `/api/export?bbox=` reads
+        // SOUTH,WEST,NORTH,EAST (server/src/commands/export.rs, parse_bbox).
+        let areas = areas_with_box(&built_in());
+        let cardigan = areas.iter().find(|(name, _)| name == "Cardigan Bay").expect("Cardigan Bay has a box");
+        assert_eq!(cardigan.1, "51.95,-5,52.85,-3.9");
+        for (name, bbox) in &areas {
+            let v: Vec<f64> = bbox.split(',').map(|x| x.parse().unwrap()).collect();
+            assert!(v[0] <= v[2] && (-90.0..=90.0).contains(&v[0]) && (-90.0..=90.0).contains(&v[2]), "{name}: {bbox}");
+        }
+    }
+}

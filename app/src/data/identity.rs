@@ -1,0 +1,111 @@
+//! The phone's identity: a random token the server hands out on first sync
+//! (`POST /api/devices`), kept in localStorage and sent as `Authorization: Bearer`
+//! with everything the phone sends, so the observer sees the review of their own
+//! records and nobody else's, and nobody else can put records on their walks. No
+//! password is needed to start recording.
+//!
+//! Before the first sync the observer is asked, once and optionally, for a name and a
+//! contact ("About you"). The contact is only for reviewers with a question about a
+//! record: the server never publishes or exports it. Given later, or changed, it is
+//! sent with the next sync (`PUT /api/my/profile`).
+
+use shared_types::{DeviceRequest, Text};
+
+use crate::data::api::{self, ApiError};
+use crate::data::local;
+
+const TOKEN_KEY: &str = "wrackline.device-token";
+const OBSERVER_NAME_KEY: &str = "wrackline.observer-name";
+const CONTACT_KEY: &str = "wrackline.observer-contact";
+/// `unsent` (answered, not yet on the server), `sent`, or `skipped`; absent: not asked yet.
+const PROFILE_KEY: &str = "wrackline.about-you";
+
+pub fn observer_name() -> String {
+    local::get(OBSERVER_NAME_KEY).unwrap_or_default()
+}
+
+pub fn remember_observer_name(name: &str) {
+    local::set(OBSERVER_NAME_KEY, name);
+}
+
+/// The contact the observer gave, if any.
+pub fn contact() -> String {
+    local::get(CONTACT_KEY).unwrap_or_default()
+}
+
+/// Whether "About you" has been answered or skipped.
+pub fn profile_answered() -> bool {
+    local::get(PROFILE_KEY).is_some()
+}
+
+/// Keeps the name and contact given in "About you", to send with the next sync.
+pub fn keep_profile(name: &str, contact: &str) {
+    remember_observer_name(name.trim());
+    local::set(CONTACT_KEY, contact.trim());
+    local::set(PROFILE_KEY, "unsent");
+}
+
+/// "About you" was skipped: it is not asked again.
+pub fn skip_profile() {
+    local::set(PROFILE_KEY, "skipped");
+}
+
+/// What the observer chose to give, as the server takes it: blank answers left out.
+pub fn profile_request(name: &str, contact: &str) -> DeviceRequest {
+    let text = |value: &str| Text::parse(value.trim()).ok().filter(|t| !t.as_str().is_empty());
+    DeviceRequest { display_name: text(name), contact: text(contact) }
+}
+
+fn profile() -> DeviceRequest {
+    profile_request(&observer_name(), &contact())
+}
+
+/// The identity, asking the server for one if this phone has none yet (with the name
+/// and contact the observer gave, if any). The error is the sentence to show.
+pub async fn ensure_token() -> Result<String, String> {
+    if let Some(token) = local::get(TOKEN_KEY) {
+        return Ok(token);
+    }
+    let identity = api::new_identity(&profile()).await.map_err(|err| match err {
+        ApiError::NoAnswer(_) => err.to_string(),
+        _ => format!("the server gave no identity: {err}"),
+    })?;
+    local::try_set(TOKEN_KEY, &identity.token)
+        .map_err(|err| format!("could not keep the identity on this phone: {err}"))?;
+    if local::get(PROFILE_KEY).as_deref() == Some("unsent") {
+        local::set(PROFILE_KEY, "sent");
+    }
+    Ok(identity.token)
+}
+
+/// Sends a name and contact given (or changed) since the identity was made; the
+/// problem, if it should be tried again.
+pub async fn send_profile_if_changed(token: &str) -> Option<String> {
+    if local::get(PROFILE_KEY).as_deref() != Some("unsent") {
+        return None;
+    }
+    match api::send_profile(token, &profile()).await {
+        Err(err) if err.is_temporary() => Some(err.to_string()),
+        // Sent, or refused (a name too long?): keep it on the phone and stop asking the server.
+        Ok(()) | Err(_) => {
+            local::set(PROFILE_KEY, "sent");
+            None
+        }
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn blank_answers_are_left_out_of_the_profile() {
+        let given = profile_request("  Sam Jones ", " sam@example.org ");
+        assert_eq!(given.display_name.as_ref().map(Text::as_str), Some("Sam Jones"));
+        assert_eq!(given.contact.as_ref().map(Text::as_str), Some("sam@example.org"));
+        let nothing = profile_request("   ", "");
+        assert_eq!((nothing.display_name, nothing.contact), (None, None));
+        // The server reads a blank profile as no profile (`POST /api/devices`).
+        assert_eq!(serde_json::to_string(&profile_request("", "")).unwrap(), r#"{"display_name":null,"contact":null}"#);
+    }
+}

@@ -1,0 +1,51 @@
+//! Following the position while a walk goes on: each fix from the browser's
+//! `watchPosition` that is good enough and due is added to the walk's track and saved,
+//! so a walk survives the page closing. Kept apart from `walks` because it works on the
+//! [`Outbox`] lists, which themselves hold walks.
+
+use leptos::prelude::*;
+
+use crate::data::device;
+use crate::data::outbox::Outbox;
+use crate::data::time;
+use crate::data::walks::{self, track_point};
+
+thread_local! {
+    static WATCH: std::cell::Cell<Option<i32>> = const { std::cell::Cell::new(None) };
+}
+
+/// Follows the position for the walk going on, adding fixes to its track; `note` says
+/// how good the position is.
+pub fn follow(outbox: Outbox, note: RwSignal<String>) {
+    if WATCH.get().is_some() {
+        return;
+    }
+    let id = device::watch_position(
+        move |fix| {
+            let Some(point) = track_point(fix, time::now().offset()) else { return };
+            if fix.accuracy > shared_types::MAX_FIX_ACCURACY_M {
+                note.set(format!("position too rough (±{:.0} m), waiting for a better fix", fix.accuracy));
+                return;
+            }
+            note.set(format!("position ±{:.0} m", fix.accuracy));
+            let Some(mut walk) = outbox.walk_going_on() else { return };
+            if walk.fix_is_due(point.at) {
+                walk.track.push(point);
+                leptos::task::spawn_local(async move {
+                    if walks::save(&walk).await.is_ok() {
+                        outbox.reload().await;
+                    }
+                });
+            }
+        },
+        move |err| note.set(format!("no position ({err}); the walk goes on, but its track will be short")),
+    );
+    WATCH.set(Some(id));
+}
+
+/// Stops following the position (the walk has ended).
+pub fn stop_following() {
+    if let Some(id) = WATCH.take() {
+        device::stop_watching(id);
+    }
+}

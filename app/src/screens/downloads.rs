@@ -1,0 +1,59 @@
+//! "Download records", under the figures: the public form — a Darwin Core Archive, CSV
+//! or GeoJSON with sensitive species generalised — for anyone, and the full form
+//! (positions as recorded) offered to a signed-in reviewer or admin, with filters for
+//! taxon, dates, area and review state. The link itself is `data::downloads`.
+
+use leptos::prelude::*;
+
+use crate::data::downloads::ExportFilters;
+use crate::data::{api, checklist};
+
+#[component]
+pub fn ExportSection() -> impl IntoView {
+    let filters = RwSignal::new(ExportFilters::default());
+    let staff = RwSignal::new(false);
+    leptos::task::spawn_local(async move { staff.set(api::session().await.is_ok_and(|s| s.staff_role().is_some())) });
+    let set = move |change: fn(&mut ExportFilters, String)| {
+        move |ev: leptos::ev::Event| filters.update(|f| change(f, event_target_value(&ev)))
+    };
+    let area_options = checklist::download_areas()
+        .into_iter()
+        .map(|(name, bbox)| view! { <option value=bbox>{name}</option> })
+        .collect_view();
+    let full_choice = move || {
+        staff.get().then(|| view! {
+            <label class="check"><input id="export-full" type="checkbox" prop:checked=move || filters.get().full
+                on:change=move |ev| filters.update(|f| f.full = event_target_checked(&ev)) />
+                " Full form: positions as recorded, sensitive species included (reviewers and admins only; do not pass it on)"</label>
+        })
+    };
+    view! {
+        <section class="card exports">
+            <h2>"Download records"</h2>
+            <p class="hint">"The public form generalises sensitive species (Chapman 2020, GBIF): their positions are rounded or withheld, and say so. Observers' contacts are never included."</p>
+            <div class="stack">
+                <label>"Format" <select id="export-format" prop:value=move || filters.get().format on:change=set(|f, v| f.format = v)>
+                    <option value="dwca">"Darwin Core Archive (zip)"</option>
+                    <option value="csv">"CSV"</option>
+                    <option value="geojson">"GeoJSON"</option>
+                </select></label>
+                <label>"Taxon (blank: all)" <input id="export-taxon" prop:value=move || filters.get().taxon on:input=set(|f, v| f.taxon = v) /></label>
+                <div class="row">
+                    <label>"From" <input id="export-from" type="date" prop:value=move || filters.get().from on:input=set(|f, v| f.from = v) /></label>
+                    <label>"To" <input id="export-to" type="date" prop:value=move || filters.get().to on:input=set(|f, v| f.to = v) /></label>
+                </div>
+                <label>"Area" <select id="export-area" prop:value=move || filters.get().area on:change=set(|f, v| f.area = v)>
+                    <option value="">"anywhere"</option>
+                    {area_options}
+                </select></label>
+                <label>"Records" <select id="export-state" prop:value=move || filters.get().state on:change=set(|f, v| f.state = v)>
+                    <option value="confirmed">"confirmed only"</option>
+                    <option value="any">"all, reviewed or not"</option>
+                    <option value="awaiting_review">"awaiting review"</option>
+                </select></label>
+                {full_choice}
+            </div>
+            <a id="export-download" class="button primary" href=move || filters.with(|f| f.url()) download=move || filters.with(|f| f.file_name())>"Download"</a>
+        </section>
+    }
+}

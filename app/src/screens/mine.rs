@@ -1,0 +1,124 @@
+//! "My records": the observer's records as the server last described them (readable
+//! offline), the reviewers' messages, and a way to answer with text and photos that
+//! goes through the outbox like a record.
+
+use leptos::prelude::*;
+use shared_types::{MyRecord, Role};
+
+use crate::data::outbox::Outbox;
+use crate::data::photos::{self, PickedPhoto};
+use crate::data::replies::{self, ReplyEntry, ReplyState};
+use crate::data::sync;
+
+fn state_label(record: &MyRecord) -> String {
+    record.record.review_state.label().to_owned()
+}
+
+/// The observer's records with the reviewers' messages, and a way to answer.
+#[component]
+pub fn MyRecords(outbox: Outbox) -> impl IntoView {
+    view! {
+        <section class="card my-records">
+            <h2>"My records"</h2>
+            <p class="hint">"As the reviewers last saw them; updated each time this phone syncs."</p>
+            <ul id="my-records">
+                {move || outbox.my_records.get().into_iter().map(|record| view! { <MyRecordItem record=record outbox=outbox /> }).collect_view()}
+            </ul>
+        </section>
+    }
+}
+
+#[component]
+fn MyRecordItem(record: MyRecord, outbox: Outbox) -> impl IntoView {
+    let client_id = record.record.submission.client_id;
+    let what = record
+        .current_taxon
+        .clone()
+        .or_else(|| record.record.submission.species_guess.as_ref().map(|g| g.as_str().to_owned()))
+        .unwrap_or_else(|| "unnamed animal".into());
+    let when = record.record.submission.observed_at.format("%Y-%m-%d").to_string();
+    let answer = RwSignal::new(String::new());
+    let picked = RwSignal::new_local(Vec::<PickedPhoto>::new());
+    let note = RwSignal::new(String::new());
+    let pending = move || {
+        outbox
+            .replies
+            .with(|r| r.iter().filter(|e| e.record_client_id == client_id && e.state == ReplyState::Waiting).count())
+    };
+    let add_photos = move |ev: leptos::ev::Event| {
+        let input: web_sys::HtmlInputElement = event_target(&ev);
+        let Some(list) = input.files() else { return };
+        let files: Vec<web_sys::File> = (0..list.length()).filter_map(|i| list.item(i)).collect();
+        input.set_value("");
+        leptos::task::spawn_local(async move {
+            let mut refused = Vec::new();
+            for file in files {
+                note.set(format!("preparing “{}”…", file.name()));
+                match photos::pick(file).await {
+                    Ok(photo) => picked.update(|p| p.push(photo)),
+                    Err(reason) => refused.push(reason),
+                }
+            }
+            note.set(refused.join(" "));
+        });
+    };
+    let send = move |_| {
+        let chosen = picked.get_untracked();
+        let entry = match ReplyEntry::new(client_id, &answer.get_untracked(), &chosen) {
+            Ok(entry) => entry,
+            Err(problem) => {
+                note.set(problem.into());
+                return;
+            }
+        };
+        leptos::task::spawn_local(async move {
+            let blobs: Vec<web_sys::Blob> = chosen.iter().map(|p| p.upload.clone()).collect();
+            match replies::save(&entry, Some(&blobs)).await {
+                Ok(()) => {
+                    answer.set(String::new());
+                    picked.set(Vec::new());
+                    note.set("Answer kept on this phone; it goes with the next sync.".into());
+                    outbox.reload().await;
+                    sync::request(outbox);
+                }
+                Err(err) => note.set(format!("Could not keep the answer on this phone: {err}")),
+            }
+        });
+    };
+    // An answer when a reviewer has asked something; otherwise more detail, unasked.
+    let asked = record.messages.iter().any(|m| m.author_role != Role::Observer);
+    let add_label = if asked { "Answer the reviewer" } else { "Add a note or photo for the reviewers" };
+    let messages = record
+        .messages
+        .iter()
+        .map(|m| {
+            let who = match m.author_role {
+                Role::Observer => "you".to_owned(),
+                _ => m.author.clone().unwrap_or_else(|| "a reviewer".into()),
+            };
+            view! { <li class="message"><b>{who}": "</b>{m.body.clone()}</li> }
+        })
+        .collect_view();
+    view! {
+        <li class="my-record" data-client-id=client_id.to_string()>
+            <div><b>{what}</b>" · "{when}" · "<span class="review-state">{state_label(&record)}</span></div>
+            <ul class="messages">{messages}</ul>
+            <details class="answer">
+                <summary>{add_label}</summary>
+                <textarea class="answer-text" rows="2" prop:value=move || answer.get() on:input=move |ev| answer.set(event_target_value(&ev))></textarea>
+                <label class="button small">"Add photo"
+                    <input class="answer-photo" type="file" accept="image/*" capture="environment" multiple on:change=add_photos /></label>
+                <ul class="answer-photos">
+                    {move || picked.get().into_iter().map(|photo| view! {
+                        <li><img class="answer-thumb" src=photo.preview_url.clone() alt=format!("photo: {}", photo.name) />
+                            <span class="hint photo-says">{photos::photo_says(&photo.exif)}</span></li>
+                    }).collect_view()}
+                </ul>
+                <span class="hint">{move || format!("{} photo(s)", picked.with(|p| p.len()))}</span>
+                <button type="button" class="small send-answer" on:click=send>"Send answer"</button>
+            </details>
+            <p class="hint">{move || note.get()}</p>
+            {move || (pending() > 0).then(|| view! { <p class="hint answer-waiting">{format!("{} answer(s) waiting to send", pending())}</p> })}
+        </li>
+    }
+}

@@ -1,0 +1,212 @@
+//! The record form: photos, time, position, what and how big, condition and setting.
+//! Saving puts the record (and its photos) in the outbox first, or keeps it as a
+//! draft; sending happens afterwards, whatever the signal. The fields and their checks
+//! are `data::form_fields`; this file only lays them out.
+
+use leptos::prelude::*;
+use shared_types::codes::{code, from_code};
+use shared_types::{
+    Condition, HumanSign, LengthKind, LengthUnit, LifeStage, MeasureMethod, PositionSource, Setting, Sex, Submission,
+};
+use uuid::Uuid;
+
+use crate::data::form_fields::FormFields;
+use crate::data::outbox::{self, Entry, Outbox, SyncState};
+use crate::data::photos::PickedPhoto;
+use crate::data::time::{self, BrowserZone};
+use crate::data::{checklist, device, identity, sync};
+use crate::screens::record::key::KeyPanel;
+use crate::screens::record::photos::PhotoPicker;
+
+/// Fills the position from the device, telling the observer how it went.
+fn locate(fields: RwSignal<FormFields>, note: RwSignal<String>) {
+    note.set("finding your position…".into());
+    leptos::task::spawn_local(async move {
+        match device::current_position().await {
+            Ok(fix) => {
+                fields.update(|f| f.set_device_position(fix.latitude, fix.longitude, fix.accuracy));
+                note.set(format!("from this device, ±{:.0} m", fix.accuracy));
+            }
+            Err(err) => note.set(format!("no position from the device ({err}); type it, or try again")),
+        }
+    });
+}
+
+/// The form. Saving puts the record (and its photos) in the outbox first; sending
+/// happens afterwards, whatever the signal.
+#[component]
+pub fn RecordForm(outbox: Outbox) -> impl IntoView {
+    let fields = RwSignal::new(FormFields::fresh(time::now_for_input(), identity::observer_name()));
+    let photos = RwSignal::new_local(Vec::<PickedPhoto>::new());
+    let photo_note = RwSignal::new(String::new());
+    let client_id = RwSignal::new(Uuid::new_v4());
+    let problems = RwSignal::new(Vec::<String>::new());
+    let position_note = RwSignal::new(String::new());
+    let saved_note = RwSignal::new(String::new());
+    let species_key = RwSignal::new(checklist::initial_key());
+    let key_open = RwSignal::new(false);
+    checklist::refresh_from_server(species_key);
+    locate(fields, position_note);
+
+    let save = move |state: SyncState| {
+        let submission = match fields.with(|f| f.to_submission(client_id.get(), &BrowserZone)) {
+            // A record made while a walk goes on belongs to it.
+            Ok(s) => Submission { walk_client_id: outbox.walk_going_on().map(|w| w.client_id), ..s },
+            Err(list) => {
+                problems.set(list);
+                return;
+            }
+        };
+        problems.set(Vec::new());
+        let picked = photos.get();
+        leptos::task::spawn_local(async move {
+            let mut submission = submission;
+            submission.photo_exif = picked.iter().map(|p| p.exif.clone()).collect();
+            let blobs: Vec<web_sys::Blob> = picked.iter().map(|p| p.upload.clone()).collect();
+            let new_bytes: f64 = blobs.iter().map(|b| b.size()).sum();
+            let warning = match outbox::storage_room(new_bytes).await {
+                Ok(warning) => warning.unwrap_or_default(),
+                Err(full) => {
+                    saved_note.set(full);
+                    return;
+                }
+            };
+            let waiting = state == SyncState::Waiting;
+            let entry = Entry::new(submission, state, blobs.len());
+            match outbox::save(&entry, Some(&blobs)).await {
+                Ok(()) => {
+                    identity::remember_observer_name(&fields.with_untracked(|f| f.observer_name.clone()));
+                    let saved = if waiting {
+                        "Saved on this phone; it will be sent when there is a connection."
+                    } else {
+                        "Saved as a draft on this phone."
+                    };
+                    saved_note.set(format!("{saved}{warning}"));
+                    fields.set(FormFields::fresh(time::now_for_input(), identity::observer_name()));
+                    key_open.set(false);
+                    photos.set(Vec::new());
+                    photo_note.set(String::new());
+                    client_id.set(Uuid::new_v4());
+                    locate(fields, position_note);
+                    outbox.reload().await;
+                    if waiting {
+                        sync::request(outbox);
+                    }
+                }
+                // Nothing is cleared: the observer can free space and save again.
+                Err(err) => saved_note.set(format!("Could not save on this phone: {err}. Your form is kept as it is.")),
+            }
+        });
+    };
+
+    view! {
+        <form class="record-form" on:submit=move |ev| { ev.prevent_default(); save(SyncState::Waiting); }>
+            <h2>"New record"</h2>
+            <PhotoPicker photos=photos fields=fields photo_note=photo_note position_note=position_note />
+
+            <fieldset>
+                <legend>"When"</legend>
+                <input id="when" type="datetime-local" prop:value=move || fields.with(|f| f.when.clone())
+                    on:input=move |ev| fields.update(|f| f.when = event_target_value(&ev)) />
+                <span class="hint">{move || fields.with(|f| time::offset_label(&BrowserZone, &f.when))}</span>
+            </fieldset>
+
+            <fieldset>
+                <legend>"Where"</legend>
+                <div class="row">
+                    <label>"Latitude" <input id="latitude" inputmode="decimal" prop:value=move || fields.with(|f| f.latitude.clone())
+                        on:input=move |ev| fields.update(|f| { f.latitude = event_target_value(&ev); f.position_source = Some(PositionSource::Typed); }) /></label>
+                    <label>"Longitude" <input id="longitude" inputmode="decimal" prop:value=move || fields.with(|f| f.longitude.clone())
+                        on:input=move |ev| fields.update(|f| { f.longitude = event_target_value(&ev); f.position_source = Some(PositionSource::Typed); }) /></label>
+                    <label>"± metres" <input id="accuracy" inputmode="decimal" prop:value=move || fields.with(|f| f.accuracy_m.clone())
+                        on:input=move |ev| fields.update(|f| f.accuracy_m = event_target_value(&ev)) /></label>
+                </div>
+                <button type="button" class="small" on:click=move |_| locate(fields, position_note)>"Use my position"</button>
+                <span id="position-note" class="hint">{move || position_note.get()}</span>
+            </fieldset>
+
+            <fieldset>
+                <legend>"What"</legend>
+                <label>"Species (your best guess)"
+                    <input id="species" placeholder="e.g. small-spotted catshark" prop:value=move || fields.with(|f| f.species_guess.clone())
+                        on:input=move |ev| fields.update(|f| { f.species_guess = event_target_value(&ev); f.key_choice = None; }) /></label>
+                {move || fields.with(|f| f.key_choice.as_ref().map(|c| view! {
+                    <p id="key-choice" class="hint">{format!("Picked with the key: {} ({}, {:.0}%)", c.scientific_name.as_str(), c.taxon_rank, c.probability * 100.0)}</p>
+                }))}
+                <button id="open-key" type="button" class="small" on:click=move |_| key_open.update(|o| *o = !*o)>
+                    {move || if key_open.get() { "Hide the key" } else { "Help me identify" }}
+                </button>
+                <Show when=move || key_open.get()>
+                    <KeyPanel key=species_key fields=fields open=key_open />
+                </Show>
+                <div class="row">
+                    <label>"Length" <input id="length" inputmode="decimal" prop:value=move || fields.with(|f| f.length_value.clone())
+                        on:input=move |ev| fields.update(|f| f.length_value = event_target_value(&ev)) /></label>
+                    <label>"Unit" <select id="length-unit" prop:value=move || fields.with(|f| code(&f.length_unit.unwrap_or(LengthUnit::Cm))) on:change=move |ev| fields.update(|f| f.length_unit = from_code(&event_target_value(&ev)))>
+                        {LengthUnit::ALL.into_iter().map(|u| view! { <option value=code(&u)>{u.code()}</option> }).collect_view()}
+                    </select></label>
+                </div>
+                <div class="row">
+                    <label>"Which length" <select id="length-kind" prop:value=move || fields.with(|f| code(&f.length_kind.unwrap_or(LengthKind::Total))) on:change=move |ev| fields.update(|f| f.length_kind = from_code(&event_target_value(&ev)))>
+                        {LengthKind::ALL.into_iter().map(|k| view! { <option value=code(&k)>{k.label()}</option> }).collect_view()}
+                    </select></label>
+                    <label>"How" <select id="length-method" prop:value=move || fields.with(|f| code(&f.length_method.unwrap_or(MeasureMethod::Measured))) on:change=move |ev| fields.update(|f| f.length_method = from_code(&event_target_value(&ev)))>
+                        <option value="measured">"measured"</option>
+                        <option value="estimated">"estimated"</option>
+                    </select></label>
+                </div>
+                <div class="row">
+                    <label>"Sex" <select id="sex" prop:value=move || fields.with(|f| code(&f.sex.unwrap_or(Sex::Unknown))) on:change=move |ev| fields.update(|f| f.sex = from_code(&event_target_value(&ev)))>
+                        <option value="unknown">"not known"</option>
+                        <option value="male">"male (claspers seen)"</option>
+                        <option value="female">"female (no claspers)"</option>
+                    </select></label>
+                    <label>"How many" <input id="count" type="number" min="1" prop:value=move || fields.with(|f| f.count.clone())
+                        on:input=move |ev| fields.update(|f| f.count = event_target_value(&ev)) /></label>
+                    <label>"Life stage" <select id="life-stage" prop:value=move || fields.with(|f| f.life_stage.map(|s| code(&s)).unwrap_or_default()) on:change=move |ev| fields.update(|f| f.life_stage = from_code(&event_target_value(&ev)))>
+                        <option value="">"not sure"</option>
+                        {LifeStage::ALL.into_iter().map(|s| view! { <option value=code(&s)>{s.label()}</option> }).collect_view()}
+                    </select></label>
+                </div>
+                <Show when=move || fields.with(|f| f.life_stage == Some(LifeStage::EggCase))>
+                    <p id="egg-case-hint" class="hint">"Egg cases: count them in “How many”; no length needed (write a case's size in the notes)."</p>
+                </Show>
+            </fieldset>
+
+            <fieldset>
+                <legend>"State and setting"</legend>
+                <label>"Condition" <select id="condition" prop:value=move || fields.with(|f| f.condition.map(|c| code(&c)).unwrap_or_default()) on:change=move |ev| fields.update(|f| f.condition = from_code(&event_target_value(&ev)))>
+                    <option value="">"choose…"</option>
+                    {Condition::ALL.into_iter().map(|c| view! { <option value=code(&c)>{c.label()}</option> }).collect_view()}
+                </select></label>
+                <label>"How it was seen" <select id="setting" prop:value=move || fields.with(|f| f.setting.map(|s| code(&s)).unwrap_or_default()) on:change=move |ev| fields.update(|f| f.setting = from_code(&event_target_value(&ev)))>
+                    <option value="">"choose…"</option>
+                    {Setting::ALL.into_iter().map(|s| view! { <option value=code(&s)>{s.label()}</option> }).collect_view()}
+                </select></label>
+                <div class="checks">
+                    <span>"Signs of fishing or people:"</span>
+                    {HumanSign::ALL.into_iter().map(|sign| view! {
+                        <label class="check"><input type="checkbox" prop:checked=move || fields.with(|f| f.human_signs.contains(&sign))
+                            on:change=move |ev| {
+                                let on = event_target_checked(&ev);
+                                fields.update(|f| { f.human_signs.retain(|s| *s != sign); if on { f.human_signs.push(sign); } });
+                            } />{sign.label()}</label>
+                    }).collect_view()}
+                </div>
+                <label>"Notes" <textarea id="notes" rows="3" prop:value=move || fields.with(|f| f.notes.clone())
+                    on:input=move |ev| fields.update(|f| f.notes = event_target_value(&ev))></textarea></label>
+                <label>"Your name (shown with your records)" <input id="observer-name" prop:value=move || fields.with(|f| f.observer_name.clone())
+                    on:input=move |ev| fields.update(|f| f.observer_name = event_target_value(&ev)) /></label>
+            </fieldset>
+
+            <ul class="problems" role="alert">
+                {move || problems.get().into_iter().map(|p| view! { <li>{p}</li> }).collect_view()}
+            </ul>
+            <div class="actions">
+                <button id="save-send" type="submit" class="primary">"Save and send"</button>
+                <button id="save-draft" type="button" on:click=move |_| save(SyncState::Draft)>"Keep as draft"</button>
+            </div>
+            <p id="saved-note" class="hint" role="status">{move || saved_note.get()}</p>
+        </form>
+    }
+}

@@ -1,0 +1,7 @@
+//! The record form and its parts: the form itself, its photos, the guided key panel
+//! and the key's pictures.
+
+pub mod form;
+mod key;
+mod photos;
+mod pictures;

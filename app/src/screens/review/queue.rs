@@ -1,0 +1,120 @@
+//! The review queue: records in the order that matters, each with why — filtered by
+//! state, species or higher taxon, area, dates and flag, a page at a time — and the
+//! record a reviewer opens from it.
+
+use leptos::prelude::*;
+use shared_types::codes::code;
+use shared_types::{QueueFlag, QueueItem, Role};
+
+use crate::data::api::{self, QueueFilters};
+use crate::data::checklist;
+use crate::screens::review::record::RecordReview;
+
+/// The queue: filters, a page of records in the order that matters with why, and
+/// the record opened from it.
+#[component]
+pub fn Queue(role: Role, signed_out: impl Fn() + Copy + 'static) -> impl IntoView {
+    let items = RwSignal::new(Vec::<QueueItem>::new());
+    let more = RwSignal::new(false);
+    let open = RwSignal::new(None::<String>);
+    let filters = RwSignal::new(QueueFilters::default());
+    let problem = RwSignal::new(String::new());
+    // Only the newest request's answer is shown (filters may change while one is out).
+    let asked_last = StoredValue::new(0u32);
+    let fetch = move |append: bool| {
+        let asked = filters.get_untracked();
+        let offset = if append { items.with_untracked(|i| i.len()) } else { 0 };
+        let this = asked_last.get_value().wrapping_add(1);
+        asked_last.set_value(this);
+        leptos::task::spawn_local(async move {
+            let answer = api::review_queue(&asked, offset).await;
+            if asked_last.get_value() != this {
+                return;
+            }
+            match answer {
+                Ok(page) => {
+                    more.set(page.more);
+                    problem.set(String::new());
+                    if append { items.update(|i| i.extend(page.items)) } else { items.set(page.items) }
+                }
+                Err(err) => problem.set(err.to_string()),
+            }
+        });
+    };
+    fetch(false);
+    let sign_out = move |_| {
+        leptos::task::spawn_local(async move {
+            let _ = api::sign_out().await;
+            signed_out();
+        });
+    };
+    // Each filter control writes its field; selects and dates apply at once.
+    let set = move |field: fn(&mut QueueFilters) -> &mut String, value: String, apply: bool| {
+        filters.update(|f| *field(f) = value);
+        if apply {
+            fetch(false);
+        }
+    };
+    let clear = move |_| {
+        filters.set(QueueFilters::default());
+        fetch(false);
+    };
+    view! {
+        <div class="row spread">
+            {(role == Role::Admin).then(|| view! { <a href="#people">"People"</a> })}
+            <button type="button" class="small" on:click=sign_out>"Sign out"</button>
+        </div>
+        <form id="queue-filters" class="filters" on:submit=move |ev: leptos::ev::SubmitEvent| { ev.prevent_default(); fetch(false); }>
+            <label>"Show" <select id="queue-state" prop:value=move || filters.with(|f| f.state.clone()) on:change=move |ev| set(|f| &mut f.state, event_target_value(&ev), true)>
+                <option value="">"to review"</option>
+                <option value="awaiting_review">"awaiting review"</option>
+                <option value="details_requested">"details requested"</option>
+                <option value="confirmed">"confirmed"</option>
+                <option value="not_confirmable">"not confirmable"</option>
+                <option value="merged">"merged"</option>
+                <option value="any">"all"</option>
+            </select></label>
+            <label>"Species or group" <input id="queue-taxon" list="taxon-names" placeholder="e.g. Rajidae, tope"
+                prop:value=move || filters.with(|f| f.taxon.clone()) on:input=move |ev| set(|f| &mut f.taxon, event_target_value(&ev), false) on:change=move |_| fetch(false) /></label>
+            <datalist id="taxon-names">{checklist::known_taxon_names().into_iter().map(|n| view! { <option value=n></option> }).collect_view()}</datalist>
+            <label>"Area" <select id="queue-area" prop:value=move || filters.with(|f| f.area.clone()) on:change=move |ev| set(|f| &mut f.area, event_target_value(&ev), true)>
+                <option value="">"anywhere"</option>
+                {checklist::areas().into_iter().map(|(code, name)| view! { <option value=code>{name}</option> }).collect_view()}
+            </select></label>
+            <label>"From" <input id="queue-from" type="date" prop:value=move || filters.with(|f| f.from.clone()) on:change=move |ev| set(|f| &mut f.from, event_target_value(&ev), true) /></label>
+            <label>"To" <input id="queue-to" type="date" prop:value=move || filters.with(|f| f.to.clone()) on:change=move |ev| set(|f| &mut f.to, event_target_value(&ev), true) /></label>
+            <label>"Flag" <select id="queue-flag" prop:value=move || filters.with(|f| f.flag.clone()) on:change=move |ev| set(|f| &mut f.flag, event_target_value(&ev), true)>
+                <option value="">"any or none"</option>
+                {QueueFlag::ALL.iter().map(|flag| view! { <option value=code(flag)>{flag.label()}</option> }).collect_view()}
+            </select></label>
+            <div class="actions">
+                <button id="queue-apply" type="submit" class="small">"Filter"</button>
+                <button id="queue-clear" type="button" class="small" on:click=clear>"Clear"</button>
+            </div>
+        </form>
+        <p class="problems">{move || problem.get()}</p>
+        {move || match open.get() {
+            Some(id) => view! { <RecordReview client_id=id back=move || { open.set(None); fetch(false); } /> }.into_any(),
+            None => view! {
+                <p id="queue-count" class="hint">{move || format!("{} record(s){}", items.with(|i| i.len()), if more.get() { ", more below" } else { "" })}</p>
+                <ol id="queue">
+                    {move || items.get().into_iter().map(|item| {
+                        let id = item.record.submission.client_id.to_string();
+                        let what = item.current_taxon.clone().or_else(|| item.record.submission.species_guess.as_ref().map(|g| g.as_str().to_owned())).unwrap_or_else(|| "unnamed".into());
+                        let when = item.record.submission.observed_at.format("%Y-%m-%d").to_string();
+                        let open_id = id.clone();
+                        view! {
+                            <li class="queue-item" data-client-id=id>
+                                <button type="button" class="link" on:click=move |_| open.set(Some(open_id.clone()))>{format!("{what} · {when} · {}", item.record.review_state.label())}</button>
+                                <ul class="reasons">{item.priority_reasons.iter().map(|r| view! { <li>{r.clone()}</li> }).collect_view()}</ul>
+                            </li>
+                        }
+                    }).collect_view()}
+                </ol>
+                <Show when=move || more.get()>
+                    <button id="queue-more" type="button" on:click=move |_| fetch(true)>"Load more"</button>
+                </Show>
+            }.into_any(),
+        }}
+    }
+}

@@ -1,0 +1,268 @@
+//! One record as a reviewer sees it: photos (a tap opens one large), the device's and
+//! the photos' own time and place (the file's EXIF, or the phone's reading of the
+//! original when the upload copy carries none), each photo's gap and distance from the
+//! record with its flags, all fields, the guided key's answers and its suggestions
+//! replayed on the server, flags, possible duplicates, identification history,
+//! messages and audit trail — and the decisions.
+
+use leptos::prelude::*;
+use shared_types::{KeyReplay, PhotoExif, PhotoFlag, PhotoView, QueueFlag, ReviewDetail, distance_words, hours_words};
+
+use crate::data::{api, readable};
+use crate::screens::review::duplicates::DuplicatesOf;
+use crate::screens::review::zoom::PhotoZoom;
+
+fn says_something(exif: &PhotoExif) -> bool {
+    exif.taken_at.is_some() || exif.taken_local.is_some() || (exif.latitude.is_some() && exif.longitude.is_some())
+}
+
+/// One row of the when/where table.
+fn time_and_place(
+    class: &str,
+    label: String,
+    when: Option<String>,
+    lat: Option<f64>,
+    lon: Option<f64>,
+    extra: Option<String>,
+) -> impl IntoView + use<> {
+    let place = match (lat, lon) {
+        (Some(lat), Some(lon)) => format!("{lat:.5}, {lon:.5}"),
+        _ => "—".into(),
+    };
+    view! { <tr class=class.to_owned()><th>{label}</th><td>{when.unwrap_or_else(|| "—".into())}</td><td>{place}</td><td>{extra.unwrap_or_default()}</td></tr> }
+}
+
+/// A photo's EXIF as a row: the instant (and whose offset made it), place and error.
+fn exif_row(class: &str, label: String, exif: &PhotoExif) -> impl IntoView + use<> {
+    let when = exif
+        .taken_at
+        .map(|t| readable::time(&t))
+        .or_else(|| exif.taken_local.clone().map(|t| format!("{t} (no offset)")));
+    let offset = exif.offset_source.is_some().then(|| readable::offset_words(exif).to_owned());
+    let error = exif.horizontal_error_m.map(|e| format!("±{e:.0} m"));
+    let extra = [offset, error].into_iter().flatten().collect::<Vec<_>>().join(" · ");
+    time_and_place(class, label, when, exif.latitude, exif.longitude, Some(extra))
+}
+
+/// Rows for each photo: the file's own EXIF, the phone's reading of the original
+/// (upload copies carry none), or a row saying there is neither.
+fn photo_rows(photos: &[PhotoView]) -> impl IntoView + use<> {
+    photos
+        .iter()
+        .enumerate()
+        .map(|(i, photo)| {
+            let n = i + 1;
+            let own = says_something(&photo.exif)
+                .then(|| exif_row("exif-file", format!("photo {n} (the file's EXIF)"), &photo.exif).into_any());
+            let phone = photo.phone_exif.as_ref().filter(|p| says_something(p)).map(|p| {
+                exif_row("exif-phone", format!("photo {n} (the phone's reading of the original)"), p).into_any()
+            });
+            let neither = (own.is_none() && phone.is_none()).then(|| {
+                time_and_place(
+                    "exif-none",
+                    format!("photo {n}"),
+                    Some("no EXIF time".into()),
+                    None,
+                    None,
+                    Some("no EXIF place".into()),
+                )
+                .into_any()
+            });
+            view! { {own}{phone}{neither} }
+        })
+        .collect_view()
+}
+
+/// Each photo against the record: hours before it, metres from it, and its flags.
+fn photo_checks(photos: &[PhotoView]) -> impl IntoView + use<> {
+    photos
+        .iter()
+        .enumerate()
+        .filter(|(_, p)| p.check.time_reading.is_some() || p.check.place_reading.is_some())
+        .map(|(i, photo)| {
+            let check = &photo.check;
+            let reading = readable::readings_words(check);
+            let gap = check.seconds_before_record.map(|s| {
+                if s >= 0.0 {
+                    format!("taken {} before the record", hours_words(s))
+                } else {
+                    format!("taken {} after the record", hours_words(-s))
+                }
+            });
+            let far = check.metres_from_record.map(|m| format!("{} from the record's place", distance_words(m)));
+            let facts = [gap, far].into_iter().flatten().collect::<Vec<_>>().join(", ");
+            let flags = check.flags.iter().map(|flag| match flag {
+                PhotoFlag::TakenLongBeforeRecord => QueueFlag::TakenLongBeforeRecord.label(),
+                PhotoFlag::TakenFarFromRecord => QueueFlag::TakenFarFromRecord.label(),
+            });
+            let flags = flags.map(|label| view! { <span class="flag">{label}</span> }).collect_view();
+            view! { <li class="photo-check">{format!("photo {} ({reading}): {facts} ", i + 1)}{flags}</li> }
+        })
+        .collect_view()
+}
+
+/// The guided key as the observer used it, replayed on the server.
+fn key_section(choice: Option<shared_types::KeyChoice>, replay: Option<KeyReplay>) -> impl IntoView + use<> {
+    let choice = choice?;
+    let picked = format!(
+        "The observer picked {} ({}, {:.0}% when picked).",
+        choice.scientific_name.as_str(),
+        choice.taxon_rank,
+        choice.probability * 100.0
+    );
+    let replay = replay.unwrap_or(KeyReplay { answers: Vec::new(), suggestions: Vec::new(), problem: None });
+    let answers =
+        replay.answers.into_iter().map(|a| view! { <tr><th>{a.question}</th><td>{a.answer}</td></tr> }).collect_view();
+    let suggestions = replay
+        .suggestions
+        .into_iter()
+        .map(|s| {
+            let name = match &s.common_name {
+                Some(common) => format!("{} ({common})", s.scientific_name),
+                None => s.scientific_name.clone(),
+            };
+            let reasons = s.reasons.into_iter().map(|r| view! { <li class=format!("reason {}", r.effect)>{r.text}</li> }).collect_view();
+            view! { <li class="key-suggestion"><b>{name}</b>{format!(" · {:.0}%", s.probability * 100.0)}<ul class="reasons">{reasons}</ul></li> }
+        })
+        .collect_view();
+    Some(view! {
+        <section class="key-replay">
+            <h4>"Guided key"</h4>
+            <p>{picked}</p>
+            <table class="key-answers">{answers}</table>
+            {replay.problem.map(|p| view! { <p class="problems">{p}</p> })}
+            <p class="hint">"What the key suggests for these answers now, most likely first:"</p>
+            <ol class="key-suggestions">{suggestions}</ol>
+        </section>
+    })
+}
+
+/// One record with everything needed to decide, and the decisions: confirm (at any
+/// rank, possibly changing the species), ask the observer, or not confirmable.
+#[component]
+pub fn RecordReview(client_id: String, back: impl Fn() + Copy + 'static) -> impl IntoView {
+    let detail = RwSignal::new(None::<ReviewDetail>);
+    let problem = RwSignal::new(String::new());
+    let zoomed = RwSignal::new(None::<String>);
+    // Bumping `reloads` fetches the record again (after every decision).
+    let reloads = RwSignal::new(0u32);
+    let id = client_id.clone();
+    Effect::new(move |_| {
+        reloads.track();
+        let id = id.clone();
+        leptos::task::spawn_local(async move {
+            match api::review_record(&id).await {
+                Ok(d) => detail.set(Some(d)),
+                Err(err) => problem.set(err.to_string()),
+            }
+        });
+    });
+    let load = move || reloads.update(|n| *n = n.wrapping_add(1));
+    let species = RwSignal::new(String::new());
+    let rank = RwSignal::new("species".to_owned());
+    let remark = RwSignal::new(String::new());
+    let message = RwSignal::new(String::new());
+    // Each decision: send it, then clear the message and show the record as it is now.
+    let decided = move |outcome: Result<(), api::ApiError>| match outcome {
+        Ok(()) => {
+            problem.set(String::new());
+            message.set(String::new());
+            load();
+        }
+        Err(err) => problem.set(err.to_string()),
+    };
+    let confirm = {
+        let id = client_id.clone();
+        move |_| {
+            let (id, name, taxon_rank, remark) =
+                (id.clone(), species.get_untracked(), rank.get_untracked(), remark.get_untracked());
+            leptos::task::spawn_local(async move { decided(api::confirm(&id, name, taxon_rank, remark).await) });
+        }
+    };
+    let ask = {
+        let id = client_id.clone();
+        move |_| {
+            let (id, text) = (id.clone(), message.get_untracked());
+            leptos::task::spawn_local(async move { decided(api::ask_observer(&id, text).await) });
+        }
+    };
+    let refuse = move |_| {
+        let (id, reason) = (client_id.clone(), message.get_untracked());
+        leptos::task::spawn_local(async move { decided(api::not_confirmable(&id, reason).await) });
+    };
+
+    view! {
+        <button type="button" class="small" on:click=move |_| back()>"← Back to the queue"</button>
+        <p class="problems" role="alert">{move || problem.get()}</p>
+        <PhotoZoom photo=zoomed />
+        {move || detail.get().map(|d| {
+            let sub = d.record.submission.clone();
+            if species.get_untracked().is_empty()
+                && let Some(current) = d.identifications.iter().find(|i| i.current)
+            {
+                species.set(current.taxon_name.clone());
+            }
+            let position = sub.position;
+            let photos = d.record.photos.iter().enumerate().map(|(i, p)| {
+                // The display copy on the page; a tap opens it large, zoomable.
+                let sha = p.sha256.clone();
+                view! {
+                    <button type="button" class="photo-open" on:click=move |_| zoomed.set(Some(sha.clone()))>
+                        <img class="review-photo" src=format!("/photos/{}", p.sha256) alt=format!("photo {} of the record: tap to open it large", i + 1) />
+                    </button>
+                }
+            }).collect_view();
+            view! {
+                <article id="record-review" data-state=d.record.review_state.code()>
+                    <h3>{format!("{} · {}", sub.species_guess.as_ref().map(|g| g.as_str().to_owned()).unwrap_or_else(|| "unnamed".into()), d.record.review_state.label())}</h3>
+                    <div class="photos">{photos}</div>
+                    <img class="place-map" src=format!("/api/review/records/{}/map.svg", sub.client_id) alt="map of where the record and its photos were made" />
+                    <table class="when-where">
+                        <tr><th></th><th>"when"</th><th>"where"</th><th></th></tr>
+                        {time_and_place("device", "device".into(), Some(readable::time(&sub.observed_at)), position.map(|p| p.latitude.get()), position.map(|p| p.longitude.get()),
+                            position.and_then(|p| p.accuracy_m).map(|a| format!("±{:.0} m", a.get())))}
+                        {photo_rows(&d.record.photos)}
+                    </table>
+                    <ul class="photo-checks">{photo_checks(&d.record.photos)}</ul>
+                    <ul class="fields">
+                        <li>{format!("count {} · {} · {} · sex {}", sub.count.get(), sub.condition.label(), sub.setting.label(), sub.sex.dwc())}</li>
+                        {sub.length.map(|l| view! { <li>{format!("{:.1} cm {} ({:?})", l.value.centimetres(), l.kind.label(), l.method).to_lowercase()}</li> })}
+                        {(!sub.human_signs.is_empty()).then(|| view! { <li>{format!("signs: {}", sub.human_signs.iter().map(|s| s.label()).collect::<Vec<_>>().join(", "))}</li> })}
+                        {sub.notes.as_ref().map(|n| view! { <li>{format!("notes: {}", n.as_str())}</li> })}
+                        {sub.observer_name.as_ref().map(|n| view! { <li>{format!("observer: {}", n.as_str())}</li> })}
+                    </ul>
+                    {key_section(sub.key_choice.clone(), d.key.clone())}
+                    <h4>"Flags and priority"</h4>
+                    <ul class="flags">{d.priority_reasons.iter().map(|r| view! { <li>{r.clone()}</li> }).collect_view()}</ul>
+                    <DuplicatesOf detail=d.clone() reloads=reloads problem=problem />
+                    <h4>"Identifications"</h4>
+                    <ol class="identifications">{d.identifications.iter().map(|i| view! {
+                        <li class=if i.current { "current" } else { "superseded" }>{format!("{} ({}) by {} on {} [{}]{}", i.taxon_name, i.taxon_rank.clone().unwrap_or_else(|| "rank not given".into()),
+                            i.identified_by.clone().unwrap_or_else(|| "an observer who gave no name".into()), i.identified_at.format("%Y-%m-%d"), i.basis, i.remarks.as_ref().map(|r| format!(": {r}")).unwrap_or_default())}</li>
+                    }).collect_view()}</ol>
+                    <h4>"Messages"</h4>
+                    <ul class="messages">{d.messages.iter().map(|m| view! { <li>{format!("{}: {}", m.author.clone().unwrap_or_else(|| m.author_role.code().into()), m.body)}</li> }).collect_view()}</ul>
+                    <h4>"History"</h4>
+                    <ol class="events">{d.events.iter().map(|e| view! { <li>{format!("{} {} → {} by {}: {}{}", e.at.format("%Y-%m-%d %H:%M"), e.from_state.label(), e.to_state.label(), e.by.clone().unwrap_or_default(),
+                        e.detail.clone().unwrap_or_default(), e.reason.as_ref().map(|r| format!(" — “{r}”")).unwrap_or_default())}</li> }).collect_view()}</ol>
+                </article>
+            }
+        })}
+        <fieldset class="actions-review">
+            <legend>"Decide"</legend>
+            <div class="row">
+                <label>"Scientific name" <input id="confirm-name" prop:value=move || species.get() on:input=move |ev| species.set(event_target_value(&ev)) /></label>
+                <label>"Rank" <select id="confirm-rank" on:change=move |ev| rank.set(event_target_value(&ev))>
+                    {shared_types::KEY_RANKS.iter().map(|r| view! { <option value=*r>{*r}</option> }).collect_view()}
+                </select></label>
+            </div>
+            <label>"Remark" <input id="confirm-remark" prop:value=move || remark.get() on:input=move |ev| remark.set(event_target_value(&ev)) /></label>
+            <button id="confirm" type="button" class="primary" on:click=confirm>"Confirm"</button>
+            <label>"Message to the observer, or the reason" <textarea id="review-message" rows="2" prop:value=move || message.get() on:input=move |ev| message.set(event_target_value(&ev))></textarea></label>
+            <div class="actions">
+                <button id="ask-details" type="button" on:click=ask>"Ask the observer"</button>
+                <button id="not-confirmable" type="button" on:click=refuse>"Not confirmable"</button>
+            </div>
+        </fieldset>
+    }
+}
