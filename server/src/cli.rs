@@ -85,6 +85,8 @@ pub struct ServeArgs {
     /// The species checklist (JSON, see species-key/README.md); the demo checklist if not given.
     #[arg(long)]
     pub checklist: Option<PathBuf>,
+    #[command(flatten)]
+    pub settings: crate::settings::Settings,
 }
 
 fn default_data_dir() -> PathBuf {
@@ -109,7 +111,8 @@ fn serve(data_dir: &std::path::Path, args: ServeArgs, with_demo: bool) -> anyhow
     if app_dir.is_none() {
         eprintln!("note: no built app at {} (run `cargo xtask build`); serving the API only", args.app_dir.display());
     }
-    let state = AppState::open(data_dir, app_dir, crate::taxa::load_checklist(args.checklist.as_deref())?)?;
+    let mut state = AppState::open(data_dir, app_dir, crate::taxa::load_checklist(args.checklist.as_deref())?)?;
+    state.settings = args.settings;
     let runtime = tokio::runtime::Runtime::new().context("starting the async runtime")?;
     runtime.block_on(async move {
         if with_demo {

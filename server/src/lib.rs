@@ -12,7 +12,8 @@
 //!   [`assess`] → [`protect`] → [`review`] → [`duplicates`] → [`intake`], beside
 //!   them [`people`] (sign-ins);
 //! - [`store`]: the only code that runs SQL;
-//! - [`taxa`]: names to checklist taxa, the lookup every stage shares.
+//! - [`taxa`]: names to checklist taxa, the lookup every stage shares; [`settings`],
+//!   the operator's settings.
 
 pub mod arrival;
 pub mod assess;
@@ -28,6 +29,7 @@ pub mod people;
 pub mod protect;
 pub mod review;
 pub mod router;
+pub mod settings;
 pub mod state;
 pub mod store;
 pub mod taxa;

@@ -2,6 +2,7 @@
 //! duplicate index, the sign-in limits and the turns for decoding photos, opened
 //! together at start-up.
 
+use crate::settings::Settings;
 use crate::{duplicates, intake, people, store, taxa};
 
 use std::path::PathBuf;
@@ -25,6 +26,8 @@ pub struct AppState {
     /// Turns for decoding photos (one per core), so parallel uploads cannot take all
     /// the memory; see `intake::gate`.
     pub decode_gate: intake::gate::DecodeGate,
+    /// The operator's settings.
+    pub settings: Settings,
 }
 
 impl AppState {
@@ -65,6 +68,7 @@ impl AppState {
             logins: people::auth::LoginLimiter::default(),
             duplicates,
             decode_gate,
+            settings: Settings::default(),
         })
     }
 }

@@ -10,7 +10,8 @@ use clap::ValueEnum;
 
 use crate::assess::{describe_states, parse_states};
 use crate::export::filters::{day_bounds, parse_bbox};
-use crate::export::{self, Audience, ExportRequest, Format, LICENCE_VARIABLE, Licence};
+use crate::export::{self, Audience, ExportRequest, Format, Licence};
+use crate::settings::LICENCE_VARIABLE;
 use crate::store::Store;
 use crate::store::occurrences::{Area, RowFilter};
 use crate::taxa::TaxonIndex;

@@ -20,6 +20,7 @@ use std::io::Write;
 
 use rusqlite::Connection;
 
+pub use crate::settings::Licence;
 pub use occurrence::{Audience, ExportSummary, Occurrence};
 
 use crate::store::StoreError;
@@ -67,53 +68,6 @@ pub struct ExportRequest {
     pub base_url: String,
     /// The licence the archive's metadata states.
     pub licence: Licence,
-}
-
-/// The licence an archive is published under: one of the three GBIF accepts for
-/// occurrence data (GBIF data licensing policy, from memory). The operator chooses with
-/// `WRACKLINE_LICENCE` (`cc0`, `cc-by`, `cc-by-nc`; default `cc-by`), or `--licence` on
-/// `wrackline export`.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Default, clap::ValueEnum)]
-pub enum Licence {
-    #[value(name = "cc0")]
-    Cc0,
-    #[default]
-    #[value(name = "cc-by")]
-    CcBy,
-    #[value(name = "cc-by-nc")]
-    CcByNc,
-}
-
-/// The environment variable that sets the licence for the server and the command line.
-pub const LICENCE_VARIABLE: &str = "WRACKLINE_LICENCE";
-
-impl Licence {
-    /// The licence `WRACKLINE_LICENCE` names, or the default (CC BY 4.0) when it is unset.
-    pub fn from_env() -> Result<Self, String> {
-        match std::env::var(LICENCE_VARIABLE) {
-            Err(_) => Ok(Self::default()),
-            Ok(text) => <Self as clap::ValueEnum>::from_str(text.trim(), true)
-                .map_err(|_| format!("{LICENCE_VARIABLE} is `{text}`; use cc0, cc-by or cc-by-nc")),
-        }
-    }
-
-    /// The legal code's address.
-    pub fn url(self) -> &'static str {
-        match self {
-            Self::Cc0 => "http://creativecommons.org/publicdomain/zero/1.0/legalcode",
-            Self::CcBy => "http://creativecommons.org/licenses/by/4.0/legalcode",
-            Self::CcByNc => "http://creativecommons.org/licenses/by-nc/4.0/legalcode",
-        }
-    }
-
-    /// Its name in words.
-    pub fn title(self) -> &'static str {
-        match self {
-            Self::Cc0 => "Public Domain (CC0 1.0)",
-            Self::CcBy => "Creative Commons Attribution (CC-BY) 4.0 License",
-            Self::CcByNc => "Creative Commons Attribution Non Commercial (CC-BY-NC) 4.0 License",
-        }
-    }
 }
 
 /// Why an export stopped.

@@ -54,7 +54,7 @@ pub async fn export(
 ) -> Result<Response, ApiError> {
     let host = headers.get(header::HOST).and_then(|h| h.to_str().ok()).unwrap_or("127.0.0.1:8080");
     let mut request = read_request(&query, format!("http://{host}"), &state.taxa)?;
-    request.licence = export::Licence::from_env().map_err(|problem| ApiError::Internal(anyhow::anyhow!(problem)))?;
+    request.licence = state.settings.licence;
     if query.audience.as_deref() == Some("full") {
         let staff = caller
             .person

@@ -26,7 +26,7 @@ pub const LAYERINGS: &[Layering] = &[
         name: "wrackline-server",
         src: "server/src",
         ranks: &[
-            &["taxa"],
+            &["taxa", "settings"],
             &["store"],
             &["intake", "people"],
             &["duplicates"],
