@@ -79,7 +79,7 @@ async function offlineJourney(server, { serviceWorkers = 'allow', withoutIndexed
     if (serviceWorkers === 'allow') {
       await page.waitForFunction(() => navigator.serviceWorker?.controller, null, { timeout: 15000 });
     }
-    await page.waitForFunction(() => document.querySelector('#position-note')?.textContent.includes('±'), null, { timeout: 10000 });
+    await page.waitForFunction(() => document.querySelector('#position-note')?.textContent.includes('within'), null, { timeout: 10000 });
 
     await context.setOffline(true);
     for (const [index, find] of FINDS.entries()) await saveRecord(page, find, index + 1);

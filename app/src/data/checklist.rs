@@ -51,6 +51,19 @@ pub fn taxon_names(checklist: &Checklist) -> Vec<String> {
     names.into_iter().collect()
 }
 
+/// The preferred common name of a species or group in `checklist`, if it gives one.
+pub fn common_name_in(checklist: &Checklist, scientific_name: &str) -> Option<String> {
+    checklist
+        .taxon(scientific_name)
+        .and_then(|t| t.common_names.first().cloned())
+        .or_else(|| checklist.group_common_name(scientific_name).map(str::to_owned))
+}
+
+/// [`common_name_in`] the checklist the app carries.
+pub fn common_name(scientific_name: &str) -> Option<String> {
+    common_name_in(&current(), scientific_name)
+}
+
 /// Names for the queue's taxon filter, from the checklist the app carries.
 pub fn known_taxon_names() -> Vec<String> {
     taxon_names(&current())
@@ -94,6 +107,14 @@ pub(crate) mod tests {
         }
         assert_eq!(names.iter().filter(|n| *n == "Rajidae").count(), 1);
         assert!(names.windows(2).all(|w| w[0] < w[1]), "sorted, without repeats");
+    }
+
+    #[test]
+    fn species_and_groups_have_their_common_names() {
+        let checklist = built_in();
+        assert_eq!(common_name_in(&checklist, "Scyliorhinus stellaris").as_deref(), Some("nursehound"));
+        assert_eq!(common_name_in(&checklist, "Rajidae").as_deref(), Some("skates"));
+        assert_eq!(common_name_in(&checklist, "Felis catus"), None);
     }
 
     #[test]

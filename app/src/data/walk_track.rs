@@ -24,10 +24,10 @@ pub fn follow(outbox: Outbox, note: RwSignal<String>) {
         move |fix| {
             let Some(point) = track_point(fix, time::now().offset()) else { return };
             if fix.accuracy > shared_types::MAX_FIX_ACCURACY_M {
-                note.set(format!("position too rough (±{:.0} m), waiting for a better fix", fix.accuracy));
+                note.set(format!("position too rough (within {:.0} m only), waiting for a better one", fix.accuracy));
                 return;
             }
-            note.set(format!("position ±{:.0} m", fix.accuracy));
+            note.set(format!("position known to within {:.0} m", fix.accuracy));
             let Some(mut walk) = outbox.walk_going_on() else { return };
             if walk.fix_is_due(point.at) {
                 walk.track.push(point);

@@ -141,7 +141,7 @@ pub fn trend_chart(title: &str, years: &[YearCount], trend: &TrendSummary) -> St
         svg,
         "<text x=\"{LEFT}\" y=\"{:.0}\" fill=\"#1f2a36\">{}</text>\n\
          <text x=\"{LEFT}\" y=\"{:.0}\" fill=\"#1f2a36\">{}</text>\n\
-         <text x=\"{LEFT}\" y=\"{:.0}\" fill=\"#8a4b2d\">Inputs to an assessment, not a listing decision; a change in records can be a change in effort or reporting.</text>\n</svg>\n",
+         <text class=\"caveat\" x=\"{LEFT}\" y=\"{:.0}\" fill=\"#8a4b2d\">Inputs to an assessment, not a listing decision; a change in records can be a change in effort or reporting.</text>\n</svg>\n",
         HEIGHT - 56.0,
         escape(&summary),
         HEIGHT - 38.0,

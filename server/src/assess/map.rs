@@ -85,7 +85,7 @@ pub fn taxon_map(taxon: &TaxonRange, grid: &AooGrid) -> String {
     let _ = write!(
         svg,
         "<text x=\"{MARGIN}\" y=\"{:.0}\" fill=\"#4a5561\">Lambert azimuthal equal-area grid centred on {}° N, {}° E. Coastline: Natural Earth 1:10m (public domain).</text>\n\
-         <text x=\"{MARGIN}\" y=\"{:.0}\" fill=\"#8a4b2d\">Inputs to an assessment, not a listing decision; stranding and landing records show where people look.</text>\n</svg>\n",
+         <text class=\"caveat\" x=\"{MARGIN}\" y=\"{:.0}\" fill=\"#8a4b2d\">Inputs to an assessment, not a listing decision; stranding and landing records show where people look.</text>\n</svg>\n",
         HEADER + PANEL + 60.0,
         grid.centre().lat(),
         grid.centre().lon(),
@@ -147,7 +147,7 @@ fn panel(period: &PeriodRange, grid: &AooGrid, extent: &Extent, coast: &str, x: 
         Some(f) => (
             format!("{}: {} records at {} sites", period.period, period.records, period.sites),
             format!(
-                "EOO {:.0} km²{} · AOO {:.0} km² (fewest over shifted grids {:.0})",
+                "EOO {:.0} km²{} · AOO {:.0} km² (least over shifted grids {:.0} km²)",
                 f.eoo_km2,
                 if f.eoo_raised_to_aoo { " (raised to AOO)" } else { "" },
                 f.aoo.area_km2,
