@@ -44,8 +44,8 @@ async function visit(browser, server, acceptEncoding) {
     const sent = [...encodings.values()];
     // Offline reload: the service worker answers from its cache.
     await page.waitForFunction(() => navigator.serviceWorker?.controller, null, { timeout: 120000 });
+    await cdp.send('Network.emulateNetworkConditions', { offline: false, latency: 0, downloadThroughput: -1, uploadThroughput: -1 });
     await context.setOffline(true);
-    await cdp.send('Network.emulateNetworkConditions', { ...LINK, offline: true });
     await page.reload({ waitUntil: 'commit' });
     await page.waitForSelector('#safety-ok', { timeout: 30000 });
     const offlineReload = await page.evaluate(() => performance.now());

@@ -191,7 +191,7 @@ pub async fn list_walks() -> Result<Vec<String>, String> {
 }
 
 /// A fix from following the position; `at` is milliseconds since 1970.
-#[derive(Debug, Clone, Copy, Deserialize)]
+#[derive(Debug, Clone, Copy, PartialEq, Deserialize)]
 pub struct TimedFix {
     pub latitude: f64,
     pub longitude: f64,

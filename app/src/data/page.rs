@@ -94,5 +94,6 @@ mod tests {
         assert_eq!(fix_words(8.4, 1_000.0, 4_000.0), "within 8 m, 3 s old");
         assert_eq!(fix_words(0.2, 0.0, 0.0), "within 1 m, 0 s old");
         assert_eq!(fix_words(25.0, 0.0, 290_000.0), "within 25 m, 4 min old");
+        assert_eq!(fix_words(7.0, 0.0, 172_800_000.0), "within 7 m, 2 days old");
     }
 }

@@ -18,6 +18,9 @@ const LEFT: f64 = 64.0;
 const RIGHT: f64 = 24.0;
 const TOP: f64 = 56.0;
 const BOTTOM: f64 = 96.0;
+/// Where the captions under the chart start: near the left edge, so a long interval
+/// still fits the drawing's width.
+const CAPTION_X: f64 = 12.0;
 
 /// The fitted line and its band: (year, rate, lower, upper) at many points along the years.
 pub fn fitted_band(years: &[YearCount], trend: &TrendSummary) -> Vec<(f64, f64, f64, f64)> {
@@ -139,9 +142,9 @@ pub fn trend_chart(title: &str, years: &[YearCount], trend: &TrendSummary) -> St
     );
     let _ = write!(
         svg,
-        "<text x=\"{LEFT}\" y=\"{:.0}\" fill=\"#1f2a36\">{}</text>\n\
-         <text x=\"{LEFT}\" y=\"{:.0}\" fill=\"#1f2a36\">{}</text>\n\
-         <text class=\"caveat\" x=\"{LEFT}\" y=\"{:.0}\" fill=\"#8a4b2d\">Inputs to an assessment, not a listing decision; a change in records can be a change in effort or reporting.</text>\n</svg>\n",
+        "<text x=\"{CAPTION_X}\" y=\"{:.0}\" font-size=\"11\" fill=\"#1f2a36\">{}</text>\n\
+         <text x=\"{CAPTION_X}\" y=\"{:.0}\" font-size=\"11\" fill=\"#1f2a36\">{}</text>\n\
+         <text class=\"caveat\" x=\"{CAPTION_X}\" y=\"{:.0}\" font-size=\"11\" fill=\"#8a4b2d\">Inputs to an assessment, not a listing decision; a change in records can be a change in effort or reporting.</text>\n</svg>\n",
         HEIGHT - 56.0,
         escape(&summary),
         HEIGHT - 38.0,

@@ -14,7 +14,7 @@ use crate::data::form_fields::{Control, FormFields, Problem, WhenSource};
 use crate::data::outbox::{self, Entry, Outbox, SyncState};
 use crate::data::photos::PickedPhoto;
 use crate::data::time::{self, BrowserZone};
-use crate::data::{checklist, device, identity, page, sync};
+use crate::data::{checklist, device, identity, page, sync, walk_track};
 use crate::screens::record::key::KeyPanel;
 use crate::screens::record::photos::PhotoPicker;
 
@@ -54,26 +54,35 @@ fn first_fix(fields: RwSignal<FormFields>, note: RwSignal<String>) {
     });
 }
 
-/// On a walk the walker moves on between finds: a fix taken now, at saving, replaces
-/// the one from when the form opened (unless the place is a photo's or typed).
-async fn fresh_fix_on_walk(fields: RwSignal<FormFields>, note: RwSignal<String>) {
+/// A fix younger than this, from the walk's position watch, is fresh enough for a find.
+const FRESH_FIX_SECONDS: f64 = 30.0;
+
+/// On a walk the walker moves on between finds: a fix taken at saving (the walk's watch's
+/// latest if it is fresh, else one asked for now) replaces the one from when the form
+/// opened, unless the place is a photo's or typed. The words say how good and how old it
+/// is, or why there is none.
+async fn fresh_fix_on_walk(fields: RwSignal<FormFields>) -> Option<String> {
     let from_device = fields.with_untracked(|f| matches!(f.position_source, None | Some(PositionSource::Device)));
     if !from_device {
-        return;
+        return None;
     }
-    note.set("taking a fresh position for this find…".into());
-    match device::fresh_position().await {
-        Ok(fix) => {
+    let now = js_sys::Date::now();
+    let watched = walk_track::latest_fix()
+        .filter(|fix| now - fix.at <= FRESH_FIX_SECONDS * 1000.0)
+        .map(|fix| (fix.latitude, fix.longitude, fix.accuracy, fix.at));
+    let fix = match watched {
+        Some(fix) => Ok(fix),
+        None => device::fresh_position().await.map(|fix| (fix.latitude, fix.longitude, fix.accuracy, fix.at)),
+    };
+    Some(match fix {
+        Ok((latitude, longitude, accuracy, at)) => {
             fields.update(|f| {
-                f.note_device_fix(fix.latitude, fix.longitude, fix.accuracy);
+                f.note_device_fix(latitude, longitude, accuracy);
             });
-            note.set(format!(
-                "fresh position at saving, {}",
-                page::fix_words(fix.accuracy, fix.at, js_sys::Date::now())
-            ));
+            format!("Position at saving: {}.", page::fix_words(accuracy, at, js_sys::Date::now()))
         }
-        Err(err) => note.set(format!("no fresh position ({err}); the record keeps the one from when the form opened")),
-    }
+        Err(err) => format!("No fresh position at saving ({err}): the record keeps the one from when the form opened."),
+    })
 }
 
 /// The words about one control, shown right under it.
@@ -161,9 +170,10 @@ pub fn RecordForm(outbox: Outbox) -> impl IntoView {
     let save = move |state: SyncState| {
         leptos::task::spawn_local(async move {
             let walk = outbox.walk_going_on();
-            if walk.is_some() {
-                fresh_fix_on_walk(fields, position_note).await;
-            }
+            let fix_words = match walk {
+                Some(_) => fresh_fix_on_walk(fields).await,
+                None => None,
+            };
             let name = identity::observer_name();
             let built = fields.with_untracked(|f| {
                 FormFields { observer_name: name, ..f.clone() }.to_submission(
@@ -203,7 +213,8 @@ pub fn RecordForm(outbox: Outbox) -> impl IntoView {
                     } else {
                         "Saved as a draft on this phone."
                     };
-                    saved_note.set(format!("{saved}{warning}"));
+                    let fix_words = fix_words.map(|w| format!(" {w}")).unwrap_or_default();
+                    saved_note.set(format!("{saved}{fix_words}{warning}"));
                     fields.set(FormFields::fresh(time::now_for_input(), identity::observer_name()));
                     key_open.set(false);
                     photos.set(Vec::new());

@@ -62,7 +62,7 @@ pub fn Queue(role: Role, signed_out: impl Fn() + Copy + 'static) -> impl IntoVie
     view! {
         <div class="row spread">
             {(role == Role::Admin).then(|| view! { <a href="#people">"People"</a> })}
-            <button type="button" class="small" on:click=sign_out>"Sign out"</button>
+            <button id="queue-sign-out" type="button" class="small" on:click=sign_out>"Sign out"</button>
         </div>
         <details id="filters-fold" class="filters-fold" prop:open=page::wide_screen()>
         <summary>{move || filters.with(|f| format!("Filters{}", api::filters_set_words(f)))}</summary>
