@@ -81,6 +81,11 @@ fn profile() -> DeviceRequest {
     profile_request(&observer_name(), &contact())
 }
 
+/// Whether this phone has its identity already.
+pub fn has_token() -> bool {
+    local::get(TOKEN_KEY).is_some()
+}
+
 /// The identity, asking the server for one if this phone has none yet (with the name
 /// and contact the observer gave, if any). The error is the sentence to show.
 pub async fn ensure_token() -> Result<String, String> {

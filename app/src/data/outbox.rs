@@ -251,6 +251,13 @@ impl Outbox {
         }
     }
 
+    /// Whether nothing at all is kept on the phone: no record, walk or answer.
+    pub fn holds_nothing(self) -> bool {
+        self.entries.with_untracked(Vec::is_empty)
+            && self.walks.with_untracked(Vec::is_empty)
+            && self.replies.with_untracked(Vec::is_empty)
+    }
+
     /// The walk going on now, if any.
     pub fn walk_going_on(self) -> Option<WalkEntry> {
         self.walks.with_untracked(|w| w.iter().find(|e| e.state == walks::WalkState::Walking).cloned())

@@ -96,6 +96,11 @@ fn finish_round(problem: Option<String>, outbox: Outbox) {
 /// record's walk is usually there before it); returns the first problem that calls for
 /// a retry, if any.
 async fn round(outbox: Outbox) -> Option<String> {
+    // A phone that has sent nothing yet and has nothing to send asks for no identity: a
+    // visit that records nothing leaves nothing on the server (and costs no requests).
+    if !identity::has_token() && outbox.holds_nothing() {
+        return None;
+    }
     // Without its identity the phone sends nothing, so that every record is its own.
     let token = match identity::ensure_token().await {
         Ok(token) => token,
