@@ -65,7 +65,7 @@ test('the caveat is said once on the screen, every figure has its unit, and no c
     assert.equal(caveats.length, 1, `the caveat is said once, not ${caveats.length} times`);
     const mapText = await page.$eval('#range-map svg', (svg) => svg.textContent);
     assert.match(mapText, /least over shifted grids \d+ km²/, 'the least AOO has its unit');
-    assert.match(await page.textContent('.figures'), /animals per km walked/, 'the encounter rate says per what');
+    assert.match(await page.textContent('.figures'), /animals per km walked/i, 'the encounter rate says per what');
     // Each drawing's text stays inside the drawing (SVG user units, getBBox).
     for (const selector of ['#range-map svg', '#trend-chart svg']) {
       const overflow = await page.$eval(selector, (svg) => {

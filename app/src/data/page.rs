@@ -67,8 +67,12 @@ pub fn on_installable(act: impl Fn() + 'static) {
 /// milliseconds since 1970).
 pub fn fix_words(accuracy_m: f64, taken_ms: f64, now_ms: f64) -> String {
     let age_s = ((now_ms - taken_ms) / 1000.0).max(0.0).round();
-    let age =
-        if age_s < 120.0 { format!("{age_s:.0} s old") } else { format!("{:.0} min old", (age_s / 60.0).floor()) };
+    let age = match age_s {
+        s if s < 120.0 => format!("{s:.0} s old"),
+        s if s < 7200.0 => format!("{:.0} min old", (s / 60.0).floor()),
+        s if s < 172_800.0 => format!("{:.0} h old", (s / 3600.0).floor()),
+        s => format!("{:.0} days old", (s / 86_400.0).floor()),
+    };
     format!("within {:.0} m, {age}", accuracy_m.max(1.0))
 }
 

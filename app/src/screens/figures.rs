@@ -155,7 +155,8 @@ pub fn FiguresScreen() -> impl IntoView {
             <h3>"Where: records, hull (EOO) and occupied 2 × 2 km cells (AOO)"</h3>
             {figure(map, "range-map")}
             {shown(trend, trend_view, "trend-section")}
-            <h3>"Encounter rate by year: animals per km walked on all-finds walks (per year where no such walk is stored), with the fitted trend and its 95% band"</h3>
+            <h3>"Encounter rate by year"</h3>
+            <p class="hint">"Animals per km walked on walks where every find was reported (per year where no such walk is stored), with the fitted trend and its 95% band."</p>
             {figure(chart, "trend-chart")}
             <ul id="figure-cautions" class="cautions">{caution_list}</ul>
             <p class="hint">"Stranding and landing records show where people walk, fish and report, and where currents carry carcasses; a gap in the records is not a gap in the range."</p>

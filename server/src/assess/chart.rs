@@ -124,7 +124,13 @@ pub fn trend_chart(title: &str, years: &[YearCount], trend: &TrendSummary) -> St
             py(*rate)
         );
     }
-    let percent = |x: f64| format!("{:+.1}%", 100.0 * x);
+    // A short series extrapolated over a long window can give absurd percentages: past
+    // ±10,000% they are said in words, so the caption stays readable and on the drawing.
+    let percent = |x: f64| match 100.0 * x {
+        p if p > 10_000.0 => "over +10,000%".to_owned(),
+        p if p < -10_000.0 => "below −10,000%".to_owned(),
+        p => format!("{p:+.1}%"),
+    };
     let summary = format!(
         "Change {} a year (95% interval {} to {}), Pearson dispersion {:.2}.",
         percent(trend.annual_change.estimate),

@@ -112,7 +112,9 @@ pub fn PhotoPicker(
                     }).collect_view()}
                 </ul>
                 <p class="hint">{move || format!("{} photo(s)", photos.with(|p| p.len()))}</p>
-                <p id="device-says" class="hint">{move || fields.with(|f| f.device_says(&BrowserZone))}</p>
+                <Show when=move || photos.with(|p| !p.is_empty())>
+                    <p id="device-says" class="hint">{move || fields.with(|f| f.device_says(&BrowserZone))}</p>
+                </Show>
                 <p id="photo-note" class="problems" role="alert">{move || photo_note.get()}</p>
             </fieldset>
     }

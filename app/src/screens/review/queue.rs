@@ -103,7 +103,8 @@ pub fn Queue(role: Role, signed_out: impl Fn() + Copy + 'static) -> impl IntoVie
                 <ol id="queue">
                     {move || items.get().into_iter().map(|item| {
                         let id = item.record.submission.client_id.to_string();
-                        let what = item.current_taxon.clone().or_else(|| item.record.submission.species_guess.as_ref().map(|g| g.as_str().to_owned())).unwrap_or_else(|| "unnamed".into());
+                        let what = item.current_taxon.as_deref().map(|name| checklist::common_name(name).map_or_else(|| name.to_owned(), |common| format!("{common} ({name})")))
+                            .or_else(|| item.record.submission.species_guess.as_ref().map(|g| g.as_str().to_owned())).unwrap_or_else(|| "unnamed".into());
                         let when = item.record.submission.observed_at.format("%Y-%m-%d").to_string();
                         let open_id = id.clone();
                         view! {
