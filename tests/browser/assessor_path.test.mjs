@@ -66,6 +66,9 @@ test('the caveat is said once on the screen, every figure has its unit, and no c
     const mapText = await page.$eval('#range-map svg', (svg) => svg.textContent);
     assert.match(mapText, /least over shifted grids \d+ km²/, 'the least AOO has its unit');
     assert.match(await page.textContent('.figures'), /animals per km walked/i, 'the encounter rate says per what');
+    const chartText = await page.$eval('#trend-chart svg', (svg) => svg.textContent);
+    assert.doesNotMatch(chartText, /per unit effort/, 'the chart says per what, too');
+    assert.match(chartText, /Animals (recorded each year|per km walked each year)/);
     // Each drawing's text stays inside the drawing (SVG user units, getBBox).
     for (const selector of ['#range-map svg', '#trend-chart svg']) {
       const overflow = await page.$eval(selector, (svg) => {

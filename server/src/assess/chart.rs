@@ -63,7 +63,8 @@ pub fn covariance(years: &[YearCount], trend: &TrendSummary, mean_year: f64) -> 
 }
 
 /// The chart as a complete SVG document.
-pub fn trend_chart(title: &str, years: &[YearCount], trend: &TrendSummary) -> String {
+/// `rate` says what the points are ("Animals per km walked each year").
+pub fn trend_chart(title: &str, rate: &str, years: &[YearCount], trend: &TrendSummary) -> String {
     let band = fitted_band(years, trend);
     let rates: Vec<(f64, f64)> = years.iter().map(|y| (f64::from(y.year), y.count as f64 / y.effort)).collect();
     let top = rates.iter().map(|r| r.1).chain(band.iter().map(|b| b.3)).fold(0.0_f64, f64::max).max(1e-9) * 1.1;
@@ -76,8 +77,9 @@ pub fn trend_chart(title: &str, years: &[YearCount], trend: &TrendSummary) -> St
         "<svg xmlns=\"http://www.w3.org/2000/svg\" width=\"{WIDTH}\" height=\"{HEIGHT}\" viewBox=\"0 0 {WIDTH} {HEIGHT}\" font-family=\"system-ui, sans-serif\" font-size=\"12\">\n\
          <rect width=\"100%\" height=\"100%\" fill=\"#fbfaf6\"/>\n\
          <text x=\"{LEFT}\" y=\"24\" font-size=\"17\" font-weight=\"600\" fill=\"#1f2a36\">{}</text>\n\
-         <text x=\"{LEFT}\" y=\"42\" fill=\"#4a5561\">Encounter rate per unit effort each year, fitted Poisson trend and its 95% interval</text>\n",
-        escape(title)
+         <text x=\"{LEFT}\" y=\"42\" fill=\"#4a5561\">{}, fitted Poisson trend and its 95% interval</text>\n",
+        escape(title),
+        escape(rate)
     );
     let tick_step = nice_step(top / 4.0);
     let ticks = (top / tick_step).floor() as i32;
