@@ -4,7 +4,8 @@
 // down, 750 kbit/s up, 150 ms round trip — a slow 3G-class link (common practice for
 // "slow mobile" in web performance work; the figures are the issue's).
 //
-// Printed beside their targets: bytes transferred for the first load (≤ 400 KB), time to
+// Printed beside their targets: bytes transferred for the first load, the page's and the
+// service worker's copy for flight mode together (≤ 400 KB), time to
 // the first text on screen (first contentful paint, ≤ 3 s), time until the app's first
 // screen is ready, and the offline reload once the service worker keeps the app (≤ 1 s).
 // The baseline in the same run is the same build sent as-is (Accept-Encoding: identity),
@@ -85,8 +86,10 @@ try {
   const compressed = await measure(browser, server, null);
   console.log(`first load on a simulated slow link (1.6 Mbit/s down, 150 ms RTT), 390 px phone, headless Chromium; median of ${RUNS}`);
   console.log('                          as-is (baseline)   as served      target');
-  console.log(`bytes transferred         ${kb(baseline.bytes).padEnd(19)}${kb(compressed.bytes).padEnd(15)}≤ ${kb(TARGET.bytes)} (${verdict(compressed.bytes, TARGET.bytes)})`);
-  console.log(`+ service worker's copy   ${kb(baseline.workerBytes).padEnd(19)}${kb(compressed.workerBytes).padEnd(15)}(kept for flight mode; mostly revalidations)`);
+  const total = (r) => r.bytes + r.workerBytes;
+  console.log(`bytes transferred, all   ${kb(total(baseline)).padEnd(19)}${kb(total(compressed)).padEnd(15)}≤ ${kb(TARGET.bytes)} (${verdict(total(compressed), TARGET.bytes)})`);
+  console.log(`  of which the page's     ${kb(baseline.bytes).padEnd(19)}${kb(compressed.bytes).padEnd(15)}`);
+  console.log(`  the service worker's    ${kb(baseline.workerBytes).padEnd(19)}${kb(compressed.workerBytes).padEnd(15)}(its copy for flight mode; mostly revalidations)`);
   console.log(`first text on screen      ${s(baseline.firstText).padEnd(19)}${s(compressed.firstText).padEnd(15)}≤ ${s(TARGET.firstText)} (${verdict(compressed.firstText, TARGET.firstText)})`);
   console.log(`app's first screen ready  ${s(baseline.ready).padEnd(19)}${s(compressed.ready).padEnd(15)}(no target)`);
   console.log(`offline reload            ${s(baseline.offlineReload).padEnd(19)}${s(compressed.offlineReload).padEnd(15)}≤ ${s(TARGET.offlineReload)} (${verdict(compressed.offlineReload, TARGET.offlineReload)})`);
