@@ -26,9 +26,18 @@ pub fn initial_key() -> Arc<Key> {
     Arc::new(Key::new(&current()))
 }
 
-/// Fetches the server's checklist and keeps it for offline use; quietly keeps the
-/// current one when there is no answer or it does not check out.
+thread_local! {
+    static ASKED: std::cell::Cell<bool> = const { std::cell::Cell::new(false) };
+}
+
+/// Fetches the server's checklist and keeps it for offline use, once per page and only
+/// when the key is opened (the first load stays small: the built-in checklist serves
+/// until then); quietly keeps the current one when there is no answer or it does not
+/// check out.
 pub fn refresh_from_server(key: RwSignal<Arc<Key>>) {
+    if ASKED.replace(true) {
+        return;
+    }
     leptos::task::spawn_local(async move {
         let Ok(text) = api::checklist_text().await else { return };
         let Ok(checklist) = Checklist::from_json(&text) else { return };

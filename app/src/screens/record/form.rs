@@ -159,7 +159,6 @@ pub fn RecordForm(outbox: Outbox) -> impl IntoView {
     let saved_note = RwSignal::new(String::new());
     let species_key = RwSignal::new(checklist::initial_key());
     let key_open = RwSignal::new(false);
-    checklist::refresh_from_server(species_key);
     first_fix(fields, position_note);
     Effect::new(move |_| {
         if let Some(id) = outbox.editing.get() {

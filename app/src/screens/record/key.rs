@@ -18,7 +18,7 @@ use crate::data::key::{
     SHOWN_CANDIDATES, context_for, display_name, group_label, higher_taxa, key_choice, next_question, position_of,
     rank_code, set_aside_text, suggested_stop,
 };
-use crate::data::nearby;
+use crate::data::{checklist, nearby};
 use crate::screens::record::pictures::picture;
 
 /// Keeps `counts` to the confirmed records near the record's area: the cached answer at
@@ -41,6 +41,7 @@ fn follow_nearby(fields: RwSignal<FormFields>, counts: RwSignal<Option<nearby::C
 /// The key, shown under the species field.
 #[component]
 pub fn KeyPanel(key: RwSignal<Arc<Key>>, fields: RwSignal<FormFields>, open: RwSignal<bool>) -> impl IntoView {
+    checklist::refresh_from_server(key);
     let answers = RwSignal::new(Answers::new());
     let nearby_counts = RwSignal::new(None::<nearby::Counts>);
     follow_nearby(fields, nearby_counts);
