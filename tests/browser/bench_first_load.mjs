@@ -41,6 +41,7 @@ async function visit(browser, server, acceptEncoding) {
       if (sizes) workerBytes += sizes.responseBodySize + sizes.responseHeadersSize;
     });
     cdp.on('Network.responseReceived', (event) => {
+      if (!event.response.url.startsWith('http')) return; // the browser's own data: icons
       const encoding = Object.entries(event.response.headers).find(([name]) => name.toLowerCase() === 'content-encoding')?.[1];
       encodings.set(event.requestId, `${new URL(event.response.url).pathname} ${encoding || 'as-is'}`);
     });
