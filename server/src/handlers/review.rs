@@ -16,7 +16,7 @@ use crate::intake::parse_json;
 use crate::review;
 use crate::review::queue::Wanted;
 use crate::state::AppState;
-use crate::store::{duplicates as duplicates_store, observations, review as review_store};
+use crate::store::{duplicates as duplicates_store, observations, people as people_store, review as review_store};
 
 fn record_id(text: &str) -> Result<Uuid, ApiError> {
     Uuid::parse_str(text).map_err(|_| ApiError::BadRequest(format!("`{text}` is not a record id (a UUID)")))
@@ -120,22 +120,20 @@ pub async fn detail(
             let taxon = review_store::current_taxon(conn, observation)?;
             let duplicates = review::duplicate_views(conn, &record)?;
             let possible = !duplicates.is_empty() && duplicates.iter().any(|d| d.decision.is_none());
-            Ok(Some((
-                record,
-                taxon,
+            let history = (
                 review_store::identifications(conn, observation)?,
                 review_store::messages(conn, observation)?,
                 review_store::events(conn, observation)?,
-                duplicates,
-                possible,
-            )))
+            );
+            let observer = people_store::observer_of_observation(conn, observation)?;
+            Ok(Some((record, taxon, history, duplicates, possible, observer)))
         })
         .await?;
-    let (record, taxon, identifications, messages, events, duplicates, possible) =
+    let (record, taxon, (identifications, messages, events), duplicates, possible, observer) =
         found.ok_or_else(|| ApiError::NotFound(format!("no record with id {id}")))?;
     let (_, priority_reasons) = review::priority(&record, taxon.as_deref(), state.checklist(), possible);
     let key = review::key_replay(state.checklist(), &record.submission);
-    Ok(Json(ReviewDetail { record, identifications, messages, events, priority_reasons, duplicates, key }))
+    Ok(Json(ReviewDetail { record, identifications, messages, events, priority_reasons, duplicates, key, observer }))
 }
 
 /// `POST /api/review/records/{client_id}/duplicates/{other_client_id}`: the same animal
