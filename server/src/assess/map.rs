@@ -1,8 +1,10 @@
 //! A map of one taxon's records as SVG: the bundled coastline, the occupied AOO cells and
 //! the EOO hull, one panel per period, side by side.
 //!
-//! Everything is drawn in the AOO grid's own Lambert azimuthal equal-area projection, so
-//! the cells are true squares and areas look as large as they are. The coastline is
+//! Everything is drawn in the Lambert azimuthal equal-area projection of the taxon's first
+//! AOO grid, so the cells are true squares and areas look as large as they are; the hull's
+//! edges are drawn along their great circles, as they run on the globe. Records counted on
+//! another zone's grid (far away) are left off the map, and the map says how many. The coastline is
 //! Natural Earth 1:10m land (public domain) for the Irish Sea region, compiled in (see
 //! `server/assets/README.md`), so maps work offline; outside that region the map shows
 //! records, cells and hull on open background.
@@ -11,7 +13,7 @@ use std::collections::BTreeSet;
 use std::fmt::Write as _;
 
 use analysis::LatLon;
-use analysis::range::AooGrid;
+use analysis::range::{AooGrid, hull_outline};
 
 use super::range::{PeriodRange, TaxonRange};
 
@@ -61,8 +63,13 @@ impl Extent {
     }
 }
 
+/// Pieces each hull edge is drawn in, along its great circle.
+const STEPS_PER_HULL_EDGE: usize = 24;
+
 /// The map of one taxon as a complete SVG document.
-pub fn taxon_map(taxon: &TaxonRange, grid: &AooGrid) -> String {
+pub fn taxon_map(taxon: &TaxonRange) -> String {
+    let grid = taxon.grids.first().copied().unwrap_or_default();
+    let grid = &grid;
     let project = |p: &LatLon| grid.project(*p).ok();
     let all: Vec<[f64; 2]> = taxon.periods.iter().flat_map(|p| p.points.iter().filter_map(project)).collect();
     let extent =
@@ -82,13 +89,20 @@ pub fn taxon_map(taxon: &TaxonRange, grid: &AooGrid) -> String {
         let x = MARGIN + i as f64 * (PANEL + MARGIN);
         svg.push_str(&panel(period, grid, &extent, &coast, x, i));
     }
+    let off_map: usize = taxon.periods.iter().map(|p| p.points.iter().filter(|x| project(x).is_none()).count()).sum();
+    let elsewhere = if taxon.grids.len() > 1 {
+        format!(" {} more grids hold records far from here ({off_map} beyond this map).", taxon.grids.len() - 1)
+    } else {
+        String::new()
+    };
     let _ = write!(
         svg,
-        "<text x=\"{MARGIN}\" y=\"{:.0}\" fill=\"#4a5561\">Lambert azimuthal equal-area grid centred on {}° N, {}° E. Coastline: Natural Earth 1:10m (public domain).</text>\n\
+        "<text x=\"{MARGIN}\" y=\"{:.0}\" fill=\"#4a5561\">Lambert azimuthal equal-area grid centred on {}° N, {}° E.{} Coastline: Natural Earth 1:10m (public domain).</text>\n\
          <text x=\"{MARGIN}\" y=\"{:.0}\" fill=\"#8a4b2d\">Inputs to an assessment, not a listing decision; stranding and landing records show where people look.</text>\n</svg>\n",
         HEADER + PANEL + 60.0,
         grid.centre().lat(),
         grid.centre().lon(),
+        escape(&elsewhere),
         HEADER + PANEL + 78.0,
     );
     svg
@@ -115,10 +129,8 @@ fn panel(period: &PeriodRange, grid: &AooGrid, extent: &Extent, coast: &str, x: 
             "<rect x=\"{left:.2}\" y=\"{top:.2}\" width=\"{side:.2}\" height=\"{side:.2}\" fill=\"#e9a23b\" fill-opacity=\"0.45\" stroke=\"#b9771a\" stroke-width=\"0.8\"/>"
         );
     }
-    if let Some(figures) = &period.figures {
-        let corners: Vec<String> = figures
-            .eoo
-            .hull
+    if let Some(eoo) = period.figures.as_ref().and_then(|f| f.eoo.as_ref()).filter(|e| e.hull.len() >= 3) {
+        let corners: Vec<String> = hull_outline(&eoo.hull, STEPS_PER_HULL_EDGE)
             .iter()
             .filter_map(|c| grid.project(*c).ok())
             .map(|p| {
@@ -147,8 +159,8 @@ fn panel(period: &PeriodRange, grid: &AooGrid, extent: &Extent, coast: &str, x: 
         Some(f) => (
             format!("{}: {} records at {} sites", period.period, period.records, period.sites),
             format!(
-                "EOO {:.0} km²{} · AOO {:.0} km² (fewest over shifted grids {:.0})",
-                f.eoo_km2,
+                "EOO {}{} · AOO {:.0} km² (fewest over shifted grids {:.0})",
+                f.eoo_km2.map_or("not given".into(), |e| format!("{e:.0} km²")),
                 if f.eoo_raised_to_aoo { " (raised to AOO)" } else { "" },
                 f.aoo.area_km2,
                 f.aoo.min_area_km2
