@@ -77,7 +77,9 @@ pub struct Coefficient {
     /// Two-sided p-value of `z` under the standard normal (Poisson errors).
     pub p_value: f64,
     /// The same coefficient tested with quasi-Poisson errors; `None` with no residual
-    /// degrees of freedom.
+    /// degrees of freedom, or when the Pearson dispersion is below 1 (scaled errors are for
+    /// overdispersion; below 1 they would shrink the Poisson errors, down to nothing for
+    /// counts that fit exactly, and their t would be rounding over rounding).
     pub quasi: Option<QuasiTest>,
 }
 
@@ -237,7 +239,7 @@ fn finish(
         .map(|(name, (&estimate, &variance))| {
             let std_error = variance.sqrt();
             let z = estimate / std_error;
-            let quasi = dispersion.map(|d| {
+            let quasi = dispersion.filter(|d| *d >= 1.0).map(|d| {
                 let scaled = std_error * d.sqrt();
                 let t = estimate / scaled;
                 QuasiTest { std_error: scaled, t, p_value: two_sided_t_p(t, df_residual) }

@@ -424,6 +424,11 @@ def generated_sets():
     sets.append(("on_the_equator", np.zeros(6), np.array([-40.0, -20.0, 0.0, 15.0, 30.0, 50.0]), None, 2.0, False))
     lat, lon = coastline_points(rng, 80, -10.0, 10.0, 170.0, 200.0, 0.1)
     sets.append(("wide_across_the_antimeridian", lat, wrap(lon), None, 2.0, False))
+    # Within one hemisphere, but the mean direction leaves the few far records behind its
+    # horizon, so a centre must be searched for (linprog confirms the hemisphere).
+    lat = np.concatenate([rng.normal(0, 2, 200), rng.uniform(-5, 5, 3)])
+    lon = np.concatenate([rng.normal(0, 2, 200), rng.uniform(150, 160, 3)])
+    sets.append(("many_here_a_few_far_east", lat, lon, None, 2.0, False))
     # AOO anywhere: records in two oceans, and round the world.
     lat = np.concatenate([rng.uniform(45, 55, 40), rng.uniform(-35, -25, 40)])
     lon = np.concatenate([rng.uniform(-10, 0, 40), rng.uniform(100, 115, 40)])
