@@ -548,5 +548,11 @@ async fn stored_records_keep_the_fixed_grid_and_take_a_centre_over_http() {
     assert!(moved["taxa"][0]["periods"][0]["figures"]["method"].as_str().unwrap().contains("centred on 52.4°, -4.1°"));
     let refused = app.get("/api/range?grid_centre=95,0").await;
     assert_eq!(refused.status(), 422);
+    for bad in ["cluster_km=-3", "outlier_km=far"] {
+        let refused = app.get(&format!("/api/range?{bad}")).await;
+        assert_eq!(refused.status(), 422, "{bad}");
+        let body: Value = refused.json().await.unwrap();
+        assert!(body.to_string().contains("is not a distance between 0.001 and 20000 km"), "{body}");
+    }
     assert_eq!(refused.json::<Value>().await.unwrap()["field"], "grid_centre");
 }
