@@ -11,7 +11,7 @@ use serde::Serialize;
 
 use super::TrendError;
 use super::linalg::Cholesky;
-use crate::normal::two_sided_p;
+use crate::distributions::{ln_factorial, two_sided_p, two_sided_t_p};
 
 /// IRLS stops when the deviance changes by less than this, relative to its size.
 const CONVERGENCE_TOLERANCE: f64 = 1e-12;
@@ -57,7 +57,7 @@ impl Design {
         self.names.len()
     }
 
-    fn row(&self, i: usize) -> &[f64] {
+    pub(crate) fn row(&self, i: usize) -> &[f64] {
         let p = self.columns();
         &self.values[i * p..(i + 1) * p]
     }
@@ -72,12 +72,26 @@ pub struct Coefficient {
     pub estimate: f64,
     /// The Poisson (model-based) standard error.
     pub std_error: f64,
-    /// The standard error scaled by √dispersion (quasi-Poisson); `None` with no residual
-    /// degrees of freedom.
-    pub quasi_std_error: Option<f64>,
-    /// Wald statistic `estimate / std_error`.
+    /// Wald statistic `estimate / std_error` (Poisson errors).
     pub z: f64,
-    /// Two-sided p-value of `z` under the standard normal.
+    /// Two-sided p-value of `z` under the standard normal (Poisson errors).
+    pub p_value: f64,
+    /// The same coefficient tested with quasi-Poisson errors; `None` with no residual
+    /// degrees of freedom, or when the Pearson dispersion is below 1 (scaled errors are for
+    /// overdispersion; below 1 they would shrink the Poisson errors, down to nothing for
+    /// counts that fit exactly, and their t would be rounding over rounding).
+    pub quasi: Option<QuasiTest>,
+}
+
+/// A coefficient tested with errors scaled by the Pearson dispersion (quasi-Poisson):
+/// t on the residual degrees of freedom, as statsmodels does with `scale="X2", use_t=True`.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+pub struct QuasiTest {
+    /// `std_error × √dispersion`.
+    pub std_error: f64,
+    /// `estimate / std_error`.
+    pub t: f64,
+    /// Two-sided p-value of `t` under Student's t with the residual degrees of freedom.
     pub p_value: f64,
 }
 
@@ -94,10 +108,17 @@ pub struct GlmFit {
     pub df_residual: usize,
     /// Pearson dispersion `pearson_chi2 / df_residual`; near 1 for Poisson counts.
     pub dispersion: Option<f64>,
+    /// The Poisson log-likelihood at the fit, `Σ [y log μ − μ − log y!]`.
+    pub log_likelihood: f64,
+    /// Akaike's information criterion, `−2 log-likelihood + 2 × coefficients`.
+    pub aic: f64,
     /// Fitted means μ, one per observation.
     pub fitted: Vec<f64>,
     /// IRLS iterations used.
     pub iterations: usize,
+    /// The inverse Fisher information (the Poisson covariance of the coefficients), row-major.
+    #[serde(skip)]
+    pub covariance: Vec<f64>,
 }
 
 /// Fits `log E[counts] = offsets + design · β` by IRLS.
@@ -205,7 +226,9 @@ fn finish(
     deviance: f64,
     iterations: usize,
 ) -> Result<GlmFit, TrendError> {
-    let variances = information_factor(design, &fitted)?.inverse_diagonal();
+    let covariance = information_factor(design, &fitted)?.inverse();
+    let p = design.columns();
+    let variances: Vec<f64> = (0..p).map(|a| covariance[a * p + a]).collect();
     let pearson_chi2: f64 = counts.iter().zip(&fitted).map(|(y, mu)| (y - mu).powi(2) / mu).sum();
     let df_residual = design.rows() - design.columns();
     let dispersion = (df_residual > 0).then(|| pearson_chi2 / df_residual as f64);
@@ -216,15 +239,31 @@ fn finish(
         .map(|(name, (&estimate, &variance))| {
             let std_error = variance.sqrt();
             let z = estimate / std_error;
-            Coefficient {
-                name: name.clone(),
-                estimate,
-                std_error,
-                quasi_std_error: dispersion.map(|d| std_error * d.sqrt()),
-                z,
-                p_value: two_sided_p(z),
-            }
+            let quasi = dispersion.filter(|d| *d >= 1.0).map(|d| {
+                let scaled = std_error * d.sqrt();
+                let t = estimate / scaled;
+                QuasiTest { std_error: scaled, t, p_value: two_sided_t_p(t, df_residual) }
+            });
+            Coefficient { name: name.clone(), estimate, std_error, z, p_value: two_sided_p(z), quasi }
         })
         .collect();
-    Ok(GlmFit { coefficients, deviance, pearson_chi2, df_residual, dispersion, fitted, iterations })
+    let log_likelihood = poisson_log_likelihood(counts, &fitted);
+    let aic = -2.0 * log_likelihood + 2.0 * design.columns() as f64;
+    Ok(GlmFit {
+        coefficients,
+        deviance,
+        pearson_chi2,
+        df_residual,
+        dispersion,
+        log_likelihood,
+        aic,
+        fitted,
+        iterations,
+        covariance,
+    })
+}
+
+/// `Σ [y log μ − μ − log y!]`.
+pub(crate) fn poisson_log_likelihood(counts: &[f64], fitted: &[f64]) -> f64 {
+    counts.iter().zip(fitted).map(|(y, mu)| if *y > 0.0 { y * mu.ln() } else { 0.0 } - mu - ln_factorial(*y)).sum()
 }

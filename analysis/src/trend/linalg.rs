@@ -59,14 +59,16 @@ impl Cholesky {
         x
     }
 
-    /// The diagonal of `A⁻¹`, column by column.
-    pub(crate) fn inverse_diagonal(&self) -> Vec<f64> {
-        (0..self.size)
+    /// The whole of `A⁻¹`, row-major.
+    pub(crate) fn inverse(&self) -> Vec<f64> {
+        let n = self.size;
+        let columns: Vec<Vec<f64>> = (0..n)
             .map(|j| {
-                let unit: Vec<f64> = (0..self.size).map(|i| if i == j { 1.0 } else { 0.0 }).collect();
-                self.solve(&unit)[j]
+                let unit: Vec<f64> = (0..n).map(|i| if i == j { 1.0 } else { 0.0 }).collect();
+                self.solve(&unit)
             })
-            .collect()
+            .collect();
+        (0..n * n).map(|k| columns[k % n][k / n]).collect()
     }
 }
 
@@ -80,8 +82,10 @@ mod tests {
         let chol = Cholesky::factor(&[4.0, 2.0, 2.0, 3.0], 2).unwrap();
         let x = chol.solve(&[2.0, 1.0]);
         assert!((x[0] - 0.5).abs() < 1e-12 && x[1].abs() < 1e-12, "{x:?}");
-        let d = chol.inverse_diagonal();
-        assert!((d[0] - 0.375).abs() < 1e-12 && (d[1] - 0.5).abs() < 1e-12, "{d:?}");
+        let inverse = chol.inverse();
+        for (got, want) in inverse.iter().zip([0.375, -0.25, -0.25, 0.5]) {
+            assert!((got - want).abs() < 1e-12, "{inverse:?}");
+        }
     }
 
     #[test]

@@ -10,7 +10,7 @@
 use serde::Serialize;
 
 use super::TrendError;
-use crate::normal::two_sided_p;
+use crate::distributions::two_sided_p;
 
 /// The result of a Mann–Kendall test on one series.
 #[derive(Debug, Clone, PartialEq, Serialize)]

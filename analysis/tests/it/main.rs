@@ -2,10 +2,13 @@
 //!
 //! Each check names its source: published worked examples (GeographicLib's test polygons,
 //! Dobson & Barnett's British doctors data, a Mann–Kendall worked series), the IUCN
-//! Guidelines, and fixtures computed by `tests/reference/make_reference.py` with shapely,
-//! pyproj, statsmodels and scipy on generated data. No fixture holds output of this crate.
+//! Guidelines, and fixtures computed by `tests/reference/make_reference.py` with scipy
+//! (qhull, linprog, cKDTree, hierarchy, binomtest), pyproj, shapely, statsmodels and
+//! pymannkendall on generated data, by methods other than the crate's. No fixture holds
+//! output of this crate.
 
 mod aoo;
+mod checks;
 mod coordinates;
 mod criteria;
 mod eoo;

@@ -1,4 +1,4 @@
-//! Mann–Kendall and Sen's slope against a worked series and scipy.
+//! Mann–Kendall and Sen's slope against a worked series, pymannkendall and scipy.
 
 use analysis::trend::{mann_kendall, mann_kendall_with_times};
 
@@ -17,9 +17,9 @@ fn worked_series_with_ties_gives_the_published_values() {
 }
 
 #[test]
-fn generated_series_match_scipy() {
-    // Reference: S and Var(S) recovered from scipy.stats.kendalltau against time; Sen's
-    // slope from scipy.stats.theilslopes (trend.json "mann_kendall").
+fn generated_series_match_pymannkendall_and_scipy() {
+    // Reference: pymannkendall.original_test for equally spaced series; for the gappy one, S
+    // and Var(S) recovered from scipy.stats.kendalltau and Sen's slope from scipy's Theil–Sen.
     for series in fixtures::trend().mann_kendall {
         let result = mann_kendall_with_times(&series.times, &series.values).unwrap();
         assert_eq!(result.s, series.s, "{} S", series.name);

@@ -94,6 +94,9 @@ pub fn trend_lines(report: &Value) -> Vec<(&'static str, String)> {
             "quasi-Poisson: errors scaled by the dispersion, intervals from Student's t with {df} degrees of freedom"
         ),
         (Some("QuasiPoisson"), None) => "quasi-Poisson: errors scaled by the dispersion".into(),
+        (Some("NegativeBinomial"), _) => {
+            "negative binomial (its AIC is lower than the Poisson's), intervals from the normal distribution".into()
+        }
         _ => "Poisson errors, intervals from the normal distribution".into(),
     };
     let mk = &t["mann_kendall"];
@@ -106,14 +109,26 @@ pub fn trend_lines(report: &Value) -> Vec<(&'static str, String)> {
         ("Rate of change per year", change(&t["annual_change"])),
         (
             "Change over the assessment window",
+            if t["window_change"].is_null() {
+                // The server gives no change when the years fitted are too few for the window.
+                format!("not given over {window:.0} years: {}", t["extrapolation"].as_str().unwrap_or(""))
+            } else {
+                format!(
+                    "{} over {window:.0} years{}",
+                    change(&t["window_change"]),
+                    if t["window_exceeds_data"].as_bool() == Some(true) {
+                        ", extrapolated beyond the years covered"
+                    } else {
+                        ""
+                    }
+                )
+            },
+        ),
+        (
+            "Years fitted",
             format!(
-                "{} over {window:.0} years{}",
-                change(&t["window_change"]),
-                if t["window_exceeds_data"].as_bool() == Some(true) {
-                    ", extrapolated beyond the years covered"
-                } else {
-                    ""
-                }
+                "{}–{} (the most recent assessment window; earlier years are not fitted)",
+                t["first_year"], t["last_year"]
             ),
         ),
         (
@@ -258,6 +273,33 @@ mod tests {
             without_caveat("These figures are inputs to a threatened-species assessment, not a listing decision."),
             ""
         );
+    }
+
+    #[test]
+    fn a_window_too_long_for_the_data_says_why_instead_of_a_number() {
+        let report = json!({
+            "trend": {
+                "annual_change": {"estimate": 4.39, "lower": 1.3, "upper": 11.6},
+                "window_change": null,
+                "extrapolation": "the fitted years 2022–2024 cover 2 years, and the 24-year window is more than 3 times that",
+                "window_years": 24.0,
+                "first_year": 2022,
+                "last_year": 2024,
+                "error_model": "NegativeBinomial",
+                "interval": {"degrees_of_freedom": null},
+                "fit": {"dispersion": 0.3},
+                "mann_kendall": {"tau": 1.0, "p_value": 0.3, "sen_slope": 9.5}
+            },
+            "generation_length": {"years": 8, "source": "checklist"},
+            "yearly_counts": []
+        });
+        let lines: std::collections::BTreeMap<&str, String> = trend_lines(&report).into_iter().collect();
+        assert_eq!(
+            lines["Change over the assessment window"],
+            "not given over 24 years: the fitted years 2022–2024 cover 2 years, and the 24-year window is more than 3 times that"
+        );
+        assert!(lines["Dispersion and model"].contains("negative binomial"), "{}", lines["Dispersion and model"]);
+        assert!(lines["Years fitted"].starts_with("2022–2024"), "{}", lines["Years fitted"]);
     }
 
     #[test]

@@ -1,14 +1,15 @@
 //! A trend chart as SVG: each year's encounter rate (count ÷ effort) as a point, the
-//! fitted Poisson trend as a line, and its 95% interval as a band.
+//! fitted trend as a line over the years fitted, and its 95% interval as a band.
 //!
-//! The band is the normal interval on the linear predictor η = a + b (year − mean year),
-//! whose variance comes from the fit's information matrix Σ μᵢ xᵢ xᵢᵀ (the inverse is the
-//! Poisson covariance of a and b; scaled by the dispersion when the errors are), then
-//! taken through exp. The slope's variance from it equals the standard error the fit reports.
+//! The band is the interval on the linear predictor η = a + b (year − mean year), whose
+//! variance comes from the covariance of (a, b) under the chosen model (Poisson,
+//! quasi-Poisson or negative binomial), taken through exp, with the same quantile as the
+//! trend's intervals. Years before the assessment window are drawn but not fitted.
 
 use std::fmt::Write as _;
 
 use analysis::trend::{ErrorModel, TrendSummary, YearCount};
+use analysis::words::signed_change;
 
 use super::map::escape;
 
@@ -22,53 +23,31 @@ const BOTTOM: f64 = 96.0;
 /// still fits the drawing's width.
 const CAPTION_X: f64 = 12.0;
 
-/// The fitted line and its band: (year, rate, lower, upper) at many points along the years.
-pub fn fitted_band(years: &[YearCount], trend: &TrendSummary) -> Vec<(f64, f64, f64, f64)> {
-    let mean_year = years.iter().map(|y| f64::from(y.year)).sum::<f64>() / years.len() as f64;
-    let [v00, v01, v11] = covariance(years, trend, mean_year);
-    let (a, b) = (trend.fit.coefficients[0].estimate, trend.fit.coefficients[1].estimate);
+/// The fitted line and its band: (year, rate, lower, upper) at many points over the years fitted.
+pub fn fitted_band(trend: &TrendSummary) -> Vec<(f64, f64, f64, f64)> {
     let (first, last) = (f64::from(trend.first_year), f64::from(trend.last_year));
     let steps = 60;
-    // The same quantile as the trend's intervals: normal, or t when the dispersion is estimated.
-    let q = trend.interval.quantile;
-    (0..=steps)
-        .map(|i| {
-            let year = first + (last - first) * f64::from(i) / f64::from(steps);
-            let x = year - mean_year;
-            let eta = a + b * x;
-            let se = (v00 + 2.0 * x * v01 + x * x * v11).max(0.0).sqrt();
-            (year, eta.exp(), (eta - q * se).exp(), (eta + q * se).exp())
-        })
-        .collect()
+    (0..=steps).map(|i| band_at(trend, first + (last - first) * f64::from(i) / f64::from(steps))).collect()
 }
 
-/// Covariance of (intercept, slope): the inverse of Σ μᵢ [1, xᵢ; xᵢ, xᵢ²], scaled by the
-/// dispersion under quasi-Poisson errors. Returned as [var a, cov ab, var b].
-pub fn covariance(years: &[YearCount], trend: &TrendSummary, mean_year: f64) -> [f64; 3] {
-    let mut sorted = years.to_vec();
-    sorted.sort_by_key(|y| y.year);
-    let (mut s0, mut s1, mut s2) = (0.0, 0.0, 0.0);
-    for (y, mu) in sorted.iter().zip(&trend.fit.fitted) {
-        let x = f64::from(y.year) - mean_year;
-        s0 += mu;
-        s1 += mu * x;
-        s2 += mu * x * x;
-    }
-    let det = s0 * s2 - s1 * s1;
-    let scale = match trend.error_model {
-        ErrorModel::QuasiPoisson => trend.fit.dispersion.unwrap_or(1.0),
-        ErrorModel::Poisson => 1.0,
-    };
-    [scale * s2 / det, -scale * s1 / det, scale * s0 / det]
+/// (year, rate, lower, upper) of the fitted line at `year`.
+fn band_at(trend: &TrendSummary, year: f64) -> (f64, f64, f64, f64) {
+    let line = &trend.line;
+    let [v00, v01, v11] = line.covariance;
+    let x = year - line.mean_year;
+    let eta = line.intercept + line.slope * x;
+    let se = (v00 + 2.0 * x * v01 + x * x * v11).max(0.0).sqrt();
+    (year, eta.exp(), (eta - line.quantile * se).exp(), (eta + line.quantile * se).exp())
 }
 
 /// The chart as a complete SVG document.
 /// `rate` says what the points are ("Animals per km walked each year").
 pub fn trend_chart(title: &str, rate: &str, years: &[YearCount], trend: &TrendSummary) -> String {
-    let band = fitted_band(years, trend);
+    let band = fitted_band(trend);
     let rates: Vec<(f64, f64)> = years.iter().map(|y| (f64::from(y.year), y.count as f64 / y.effort)).collect();
     let top = rates.iter().map(|r| r.1).chain(band.iter().map(|b| b.3)).fold(0.0_f64, f64::max).max(1e-9) * 1.1;
-    let (first, last) = (f64::from(trend.first_year) - 0.5, f64::from(trend.last_year) + 0.5);
+    let data_first = years.iter().map(|y| y.year).min().unwrap_or(trend.first_year);
+    let (first, last) = (f64::from(data_first) - 0.5, f64::from(trend.last_year) + 0.5);
     let plot_w = WIDTH - LEFT - RIGHT;
     let plot_h = HEIGHT - TOP - BOTTOM;
     let px = |year: f64| LEFT + (year - first) / (last - first) * plot_w;
@@ -77,9 +56,12 @@ pub fn trend_chart(title: &str, rate: &str, years: &[YearCount], trend: &TrendSu
         "<svg xmlns=\"http://www.w3.org/2000/svg\" width=\"{WIDTH}\" height=\"{HEIGHT}\" viewBox=\"0 0 {WIDTH} {HEIGHT}\" font-family=\"system-ui, sans-serif\" font-size=\"12\">\n\
          <rect width=\"100%\" height=\"100%\" fill=\"#fbfaf6\"/>\n\
          <text x=\"{LEFT}\" y=\"24\" font-size=\"17\" font-weight=\"600\" fill=\"#1f2a36\">{}</text>\n\
-         <text x=\"{LEFT}\" y=\"42\" fill=\"#4a5561\">{}, fitted Poisson trend and its 95% interval</text>\n",
+         <text x=\"{LEFT}\" y=\"42\" fill=\"#4a5561\">{}, {} trend fitted on {}–{}, 95% interval</text>\n",
         escape(title),
-        escape(rate)
+        escape(rate),
+        model_name(trend.error_model),
+        trend.first_year,
+        trend.last_year
     );
     let tick_step = nice_step(top / 4.0);
     let ticks = (top / tick_step).floor() as i32;
@@ -96,7 +78,7 @@ pub fn trend_chart(title: &str, rate: &str, years: &[YearCount], trend: &TrendSu
         );
     }
     let step = ((last - first) / 10.0).ceil().max(1.0) as i32;
-    for year in (trend.first_year..=trend.last_year).step_by(step as usize) {
+    for year in (data_first..=trend.last_year).step_by(step as usize) {
         let _ = writeln!(
             svg,
             "<text x=\"{:.1}\" y=\"{:.1}\" text-anchor=\"middle\" fill=\"#4a5561\">{year}</text>",
@@ -126,28 +108,27 @@ pub fn trend_chart(title: &str, rate: &str, years: &[YearCount], trend: &TrendSu
             py(*rate)
         );
     }
-    // A short series extrapolated over a long window can give absurd percentages: past
-    // ±10,000% they are said in words, so the caption stays readable and on the drawing.
-    let percent = |x: f64| match 100.0 * x {
-        p if p > 10_000.0 => "over +10,000%".to_owned(),
-        p if p < -10_000.0 => "below −10,000%".to_owned(),
-        p => format!("{p:+.1}%"),
-    };
     let summary = format!(
-        "Change {} a year (95% interval {} to {}), Pearson dispersion {:.2}.",
-        percent(trend.annual_change.estimate),
-        percent(trend.annual_change.lower),
-        percent(trend.annual_change.upper),
-        trend.fit.dispersion.unwrap_or(f64::NAN)
+        "Change {} a year (95% interval {} to {}), {}.",
+        signed_change(trend.annual_change.estimate),
+        signed_change(trend.annual_change.lower),
+        signed_change(trend.annual_change.upper),
+        model_name(trend.error_model)
     );
-    let window = format!(
-        "Over the {:.0}-year assessment window: {} (95% interval {} to {}){}.",
-        trend.window_years,
-        percent(trend.window_change.estimate),
-        percent(trend.window_change.lower),
-        percent(trend.window_change.upper),
-        if trend.window_exceeds_data { ", extrapolated" } else { "" }
-    );
+    let window = match &trend.window_change {
+        Some(c) => format!(
+            "Over the {:.0}-year assessment window: {} (95% interval {} to {}){}.",
+            trend.window_years,
+            signed_change(c.estimate),
+            signed_change(c.lower),
+            signed_change(c.upper),
+            if trend.window_exceeds_data { ", carried beyond the years fitted" } else { "" }
+        ),
+        None => format!(
+            "No change over the {:.0}-year window: the years fitted are too few to carry the trend that far.",
+            trend.window_years
+        ),
+    };
     let _ = write!(
         svg,
         "<text x=\"{CAPTION_X}\" y=\"{:.0}\" font-size=\"11\" fill=\"#1f2a36\">{}</text>\n\
@@ -160,6 +141,14 @@ pub fn trend_chart(title: &str, rate: &str, years: &[YearCount], trend: &TrendSu
         HEIGHT - 18.0
     );
     svg
+}
+
+fn model_name(model: ErrorModel) -> &'static str {
+    match model {
+        ErrorModel::Poisson => "Poisson",
+        ErrorModel::QuasiPoisson => "quasi-Poisson",
+        ErrorModel::NegativeBinomial => "negative binomial",
+    }
 }
 
 /// 1, 2, 2.5 or 5 times a power of ten, at least `rough`.
@@ -192,26 +181,29 @@ mod tests {
     }
 
     #[test]
-    fn the_band_covariance_gives_the_slope_error_the_fit_reports() {
-        // Two ways to one number: the fit's reported standard error of the slope, and the
-        // inverse information matrix built here from its fitted means.
+    fn the_band_at_the_mean_year_is_the_intercepts_interval_under_the_chosen_model() {
+        // Two ways to one number: the band's half-width (on the log scale) at the mean year,
+        // and the chosen model's own standard error of the intercept times the quantile.
+        let mut models = Vec::new();
         for counts in [&[30, 28, 25, 27, 20, 22, 18, 15, 16, 12][..], &[3, 19, 2, 25, 1, 30, 4, 28, 2, 24][..]] {
-            let data = years(counts);
-            let trend = yearly_trend(&data, 5.0).unwrap();
-            let mean = data.iter().map(|y| f64::from(y.year)).sum::<f64>() / data.len() as f64;
-            let [_, _, var_slope] = covariance(&data, &trend, mean);
-            assert!(
-                (var_slope.sqrt() - trend.slope_std_error).abs() < 1e-9 * trend.slope_std_error.max(1.0),
-                "{counts:?}"
-            );
+            let trend = yearly_trend(&years(counts), 3.0).unwrap();
+            let (_, rate, _, upper) = band_at(&trend, trend.line.mean_year);
+            let intercept_se = match trend.error_model {
+                ErrorModel::Poisson => trend.fit.coefficients[0].std_error,
+                ErrorModel::QuasiPoisson => trend.fit.coefficients[0].quasi.unwrap().std_error,
+                ErrorModel::NegativeBinomial => trend.negative_binomial.as_ref().unwrap().coefficients[0].std_error,
+            };
+            let half_width = (upper / rate).ln();
+            assert!((half_width - trend.interval.quantile * intercept_se).abs() < 1e-9, "{counts:?}");
+            models.push(trend.error_model);
         }
+        assert_ne!(models[0], models[1], "one series is overdispersed, the other not");
     }
 
     #[test]
     fn the_band_holds_the_fitted_line() {
-        let data = years(&[30, 28, 25, 27, 20, 22, 18, 15, 16, 12]);
-        let trend = yearly_trend(&data, 5.0).unwrap();
-        for (_, rate, lower, upper) in fitted_band(&data, &trend) {
+        let trend = yearly_trend(&years(&[30, 28, 25, 27, 20, 22, 18, 15, 16, 12]), 3.0).unwrap();
+        for (_, rate, lower, upper) in fitted_band(&trend) {
             assert!(lower < rate && rate < upper);
         }
     }

@@ -26,6 +26,9 @@ use crate::store::occurrences::{self, OccurrenceRow, RowFilter};
 /// One record as the figures need it.
 #[derive(Debug, Clone, PartialEq)]
 pub struct PointRecord {
+    /// What a reviewer looks the record up by: `urn:uuid:<client id>` for stored records
+    /// (the exports' occurrenceID), the file's occurrenceID, or its line.
+    pub label: String,
     /// The name as written (a scientific name, or an observer's guess).
     pub name: Option<String>,
     /// Where; `None` when the record has no position.
@@ -56,6 +59,7 @@ const NAME: &str = "scientificName";
 const DATE: &str = "eventDate";
 const COUNT: &str = "individualCount";
 const STATUS: &str = "occurrenceStatus";
+const OCCURRENCE_ID: &str = "occurrenceID";
 
 /// `occurrenceStatus` values that say nothing was found: `absent` (Darwin Core before the
 /// 2025-2026 revision), `notDetected` (after it); compared ignoring case and spaces.
@@ -98,6 +102,7 @@ fn stored_point(row: &OccurrenceRow) -> PointRecord {
     // The observer's own calendar day, from the offset the phone recorded.
     let when = row.observed_at.get(..10).and_then(|day| DateSpan::parse(day).ok());
     PointRecord {
+        label: format!("urn:uuid:{}", row.client_id),
         name: row.identification.as_ref().map(|i| i.taxon_name.clone()),
         position,
         when,
@@ -115,6 +120,7 @@ struct Columns {
     date: Option<Source>,
     count: Option<Source>,
     status: Option<Source>,
+    id: Option<Source>,
 }
 
 #[derive(Clone)]
@@ -162,6 +168,7 @@ impl Columns {
             date: find(DATE),
             count: find(COUNT),
             status: find(STATUS),
+            id: find(OCCURRENCE_ID),
             names,
         }
     }
@@ -252,7 +259,9 @@ impl Cells<'_> {
             }
             None => None,
         };
+        let line = self.row.position().map(|p| p.line()).unwrap_or(0);
         Ok(PointRecord {
+            label: c.id.as_ref().and_then(|s| self.text(s)).unwrap_or_else(|| format!("{} line {line}", self.file)),
             name: c.name.as_ref().and_then(|s| self.text(s)),
             position,
             when,

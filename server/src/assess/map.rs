@@ -1,8 +1,10 @@
 //! A map of one taxon's records as SVG: the bundled coastline, the occupied AOO cells and
 //! the EOO hull, one panel per period, side by side.
 //!
-//! Everything is drawn in the AOO grid's own Lambert azimuthal equal-area projection, so
-//! the cells are true squares and areas look as large as they are. The coastline is
+//! Everything is drawn in the Lambert azimuthal equal-area projection of the taxon's first
+//! AOO grid, so the cells are true squares and areas look as large as they are; the hull's
+//! edges are drawn along their great circles, as they run on the globe. Records counted on
+//! another zone's grid (far away) are left off the map, and the map says how many. The coastline is
 //! Natural Earth 1:10m land (public domain) for the Irish Sea region, compiled in (see
 //! `server/assets/README.md`), so maps work offline; outside that region the map shows
 //! records, cells and hull on open background.
@@ -11,7 +13,7 @@ use std::collections::BTreeSet;
 use std::fmt::Write as _;
 
 use analysis::LatLon;
-use analysis::range::AooGrid;
+use analysis::range::{AooGrid, hull_outline};
 
 use super::range::{PeriodRange, TaxonRange};
 
@@ -19,7 +21,7 @@ const COASTLINE: &str = include_str!("../../assets/coastline-irish-sea.geojson")
 const PANEL: f64 = 420.0;
 const MARGIN: f64 = 16.0;
 const HEADER: f64 = 54.0;
-const FOOTER: f64 = 128.0;
+const FOOTER: f64 = 144.0;
 
 /// Projected bounds in metres: west, south, east, north.
 #[derive(Debug, Clone, Copy)]
@@ -61,8 +63,13 @@ impl Extent {
     }
 }
 
+/// Pieces each hull edge is drawn in, along its great circle.
+const STEPS_PER_HULL_EDGE: usize = 24;
+
 /// The map of one taxon as a complete SVG document.
-pub fn taxon_map(taxon: &TaxonRange, grid: &AooGrid) -> String {
+pub fn taxon_map(taxon: &TaxonRange) -> String {
+    let grid = taxon.grids.first().copied().unwrap_or_default();
+    let grid = &grid;
     let project = |p: &LatLon| grid.project(*p).ok();
     let all: Vec<[f64; 2]> = taxon.periods.iter().flat_map(|p| p.points.iter().filter_map(project)).collect();
     let extent =
@@ -82,9 +89,18 @@ pub fn taxon_map(taxon: &TaxonRange, grid: &AooGrid) -> String {
         let x = MARGIN + i as f64 * (PANEL + MARGIN);
         svg.push_str(&panel(period, grid, &extent, &coast, x, i));
     }
+    let off_map: usize = taxon.periods.iter().map(|p| p.points.iter().filter(|x| project(x).is_none()).count()).sum();
+    let elsewhere = if taxon.grids.len() > 1 {
+        format!("{} more grids hold records far from here ({off_map} beyond this map).", taxon.grids.len() - 1)
+    } else {
+        String::new()
+    };
+    // The line about other grids, when there are any, pushes the lines below it down.
+    let shift = if elsewhere.is_empty() { 0.0 } else { 16.0 };
     let _ = write!(
         svg,
         "<text x=\"{MARGIN}\" y=\"{:.0}\" fill=\"#4a5561\">Equal-area grid (Lambert azimuthal) centred on {}° N, {}° E.</text>\n\
+         <text x=\"{MARGIN}\" y=\"{:.0}\" fill=\"#4a5561\">{}</text>\n\
          <text x=\"{MARGIN}\" y=\"{:.0}\" fill=\"#4a5561\">Coastline: Natural Earth 1:10m (public domain).</text>\n\
          <text class=\"caveat\" x=\"{MARGIN}\" y=\"{:.0}\" fill=\"#8a4b2d\">Inputs to an assessment, not a listing decision;</text>\n\
          <text class=\"caveat\" x=\"{MARGIN}\" y=\"{:.0}\" fill=\"#8a4b2d\">stranding and landing records show where people look.</text>\n</svg>\n",
@@ -92,8 +108,10 @@ pub fn taxon_map(taxon: &TaxonRange, grid: &AooGrid) -> String {
         grid.centre().lat(),
         grid.centre().lon(),
         HEADER + PANEL + 76.0,
-        HEADER + PANEL + 96.0,
-        HEADER + PANEL + 112.0,
+        escape(elsewhere.trim()),
+        HEADER + PANEL + 76.0 + shift,
+        HEADER + PANEL + 96.0 + shift,
+        HEADER + PANEL + 112.0 + shift,
     );
     svg
 }
@@ -119,10 +137,8 @@ fn panel(period: &PeriodRange, grid: &AooGrid, extent: &Extent, coast: &str, x: 
             "<rect x=\"{left:.2}\" y=\"{top:.2}\" width=\"{side:.2}\" height=\"{side:.2}\" fill=\"#e9a23b\" fill-opacity=\"0.45\" stroke=\"#b9771a\" stroke-width=\"0.8\"/>"
         );
     }
-    if let Some(figures) = &period.figures {
-        let corners: Vec<String> = figures
-            .eoo
-            .hull
+    if let Some(eoo) = period.figures.as_ref().and_then(|f| f.eoo.as_ref()).filter(|e| e.hull.len() >= 3) {
+        let corners: Vec<String> = hull_outline(&eoo.hull, STEPS_PER_HULL_EDGE)
             .iter()
             .filter_map(|c| grid.project(*c).ok())
             .map(|p| {
@@ -151,8 +167,8 @@ fn panel(period: &PeriodRange, grid: &AooGrid, extent: &Extent, coast: &str, x: 
         Some(f) => (
             format!("{}: {} records at {} sites", period.period, period.records, period.sites),
             format!(
-                "EOO {:.0} km²{} · AOO {:.0} km² (least over shifted grids {:.0} km²)",
-                f.eoo_km2,
+                "EOO {}{} · AOO {:.0} km² (least over shifted grids {:.0} km²)",
+                f.eoo_km2.map_or("not given".into(), |e| format!("{e:.0} km²")),
                 if f.eoo_raised_to_aoo { " (raised to AOO)" } else { "" },
                 f.aoo.area_km2,
                 f.aoo.min_area_km2

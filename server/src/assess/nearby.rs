@@ -71,6 +71,7 @@ mod tests {
 
     fn record(name: &str, lat: f64, lon: f64) -> PointRecord {
         PointRecord {
+            label: format!("{name} at {lat}, {lon}"),
             name: Some(name.into()),
             position: LatLon::new(lat, lon).ok(),
             when: None,

@@ -1,14 +1,20 @@
-//! Range figures per taxon and per period: records, distinct sites, EOO and AOO, and the
-//! change between periods, with the criterion-B text and its cautions.
+//! Range figures per taxon and per period: records, distinct sites, EOO and AOO, the checks
+//! beside them (resampling intervals, influential places, outliers, the location guide) and
+//! the change between periods with its uncertainty, with the criterion-B text and cautions.
 //!
 //! The figures themselves come from the `analysis` crate; this module only decides which
-//! records go into which group and period, and says what was left out and why.
+//! records go into which group and period, which grids each taxon is counted on, turns
+//! record numbers into the record ids a reviewer can look up, and says what was left out
+//! and why.
 
 use std::collections::{BTreeMap, BTreeSet};
 
 use analysis::LatLon;
 use analysis::criteria::{ASSESSMENT_CAUTION, RECORDING_CAUTION};
-use analysis::range::{AooGrid, CENTRE_STEP_DEGREES, FAR_FROM_DEFAULT_DEGREES, RangeSummary, summary};
+use analysis::range::{
+    AooGrid, CENTRE_STEP_DEGREES, DEFAULT_SEED, FigureOptions, GridPlan, LocationGuide, PeriodComparison, RangeFigures,
+    RangeSummary, Stability, ZONE_REACH_DEGREES, compare_periods, figures,
+};
 use serde::Serialize;
 
 use super::dates::Period;
@@ -18,6 +24,17 @@ use crate::taxa::{TaxonFilter, TaxonIndex};
 /// Positions closer than this (in degrees, on both axes) are one site (common practice:
 /// about 10 m, inside the GPS uncertainty of a phone).
 pub const SITE_DEGREES: f64 = 1e-4;
+/// Days in a year, for the length of a period in years (the Julian year).
+const DAYS_PER_YEAR: f64 = 365.25;
+
+/// How a taxon's first AOO grid is chosen; records no grid reaches get zones of their own.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub enum FirstGrid {
+    /// The same first grid for every taxon (asked for, or fixed for the deployment).
+    Fixed(AooGrid),
+    /// By the rule on each taxon's own records (records read from a file).
+    PerTaxon,
+}
 
 /// What to compute.
 #[derive(Debug, Clone)]
@@ -26,12 +43,36 @@ pub struct RangeOptions {
     pub taxon: Option<TaxonFilter>,
     /// The periods, side by side; empty means every record, whatever its date.
     pub periods: Vec<Period>,
-    /// The grid AOO is counted on (see [`choose_grid`]).
-    pub grid: AooGrid,
-    /// Why that grid, in words.
+    /// How each taxon's first grid is chosen (see [`choose_grid`]).
+    pub first_grid: FirstGrid,
+    /// Why, in words.
     pub grid_choice: String,
     /// Which records were read, in words (e.g. "stored records in review state confirmed").
     pub records_used: String,
+    /// The linking distance of the location guide's clusters, km.
+    pub cluster_km: f64,
+    /// Records farther than this from every other record are listed as outliers, km.
+    pub outlier_km: f64,
+    /// Resamples behind the stability intervals and the period comparisons.
+    pub resamples: usize,
+}
+
+/// A place a reviewer should look at, with the records made there.
+#[derive(Debug, Clone, Serialize)]
+pub struct PlaceToCheck {
+    pub position: LatLon,
+    /// The records' ids (`urn:uuid:…` for stored records, as in the exports; the file's
+    /// occurrenceID or line for a file).
+    pub records: Vec<String>,
+    /// For an outlier: the distance to the nearest other record, km.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub nearest_km: Option<f64>,
+    /// For an influential place: the change in the hull area without it, km².
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub eoo_change_km2: Option<f64>,
+    /// For an influential place: the change in AOO without it, km².
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub aoo_change_km2: Option<f64>,
 }
 
 /// Figures for one taxon in one period.
@@ -40,8 +81,20 @@ pub struct PeriodRange {
     pub period: String,
     pub records: usize,
     pub sites: usize,
-    /// `None` when the period has no record with a position.
+    /// EOO, AOO and criterion B; `None` when the period has no record with a position.
     pub figures: Option<RangeSummary>,
+    /// How the figures vary when the records are resampled.
+    pub stability: Option<Stability>,
+    /// The places whose removal changes EOO most: check these first.
+    pub influential_places: Vec<PlaceToCheck>,
+    /// Places alone in their AOO cell (each one cell of the AOO).
+    pub places_alone_in_their_cell: usize,
+    /// Records far from all others, for review; they are in the figures.
+    pub outliers: Vec<PlaceToCheck>,
+    /// EOO without the outliers, for comparison.
+    pub eoo_km2_without_outliers: Option<f64>,
+    /// Clusters at a stated distance, as a guide to locations.
+    pub location_guide: Option<LocationGuide>,
     /// The positions that went in (for maps; not part of the JSON).
     #[serde(skip)]
     pub points: Vec<LatLon>,
@@ -60,6 +113,9 @@ pub struct PeriodChange {
     /// The same as a percentage of the earlier figure.
     pub eoo_percent: Option<f64>,
     pub aoo_percent: Option<f64>,
+    /// The change with its uncertainty: records per year, and EOO and AOO at equal numbers
+    /// of records; `None` when a period has no record with a position.
+    pub comparison: Option<PeriodComparison>,
 }
 
 /// One taxon's figures.
@@ -68,6 +124,8 @@ pub struct TaxonRange {
     pub taxon: String,
     /// Whether the name is on the checklist (a name from elsewhere may not be).
     pub on_checklist: bool,
+    /// The grids AOO is counted on for this taxon, zone by zone (the same in every period).
+    pub grids: Vec<AooGrid>,
     pub periods: Vec<PeriodRange>,
     pub changes: Vec<PeriodChange>,
 }
@@ -85,9 +143,10 @@ pub struct LeftOut {
 #[derive(Debug, Clone, Serialize)]
 pub struct RangeReport {
     pub records_used: String,
-    /// The grid AOO was counted on (cell size and projection centre), for every taxon and period.
-    pub grid: AooGrid,
-    /// Why that grid, in words.
+    /// The first grid every taxon starts from, when it is the same for all (stored records
+    /// or a centre asked for); each taxon lists its own grids.
+    pub grid: Option<AooGrid>,
+    /// How grids were chosen, in words.
     pub grid_choice: String,
     pub records_read: usize,
     pub left_out: LeftOut,
@@ -97,47 +156,61 @@ pub struct RangeReport {
     pub cautions: Vec<String>,
 }
 
-/// Where the positions that decide a grid's centre come from.
+/// Where the positions that decide the first grid come from.
 pub enum GridBasis<'a> {
-    /// Stored records: the checklist's areas decide, never the records, so the grid stays
-    /// the same for a deployment and periods and later reports compare.
+    /// Stored records: the checklist's areas decide, never the records, so the first grid
+    /// stays the same for a deployment and periods and later reports compare.
     Stored(&'a species_key::Checklist),
-    /// Records from a file: their own positions.
-    File(&'a [PointRecord]),
+    /// Records from a file: each taxon's own positions.
+    File,
 }
 
-/// The grid AOO is counted on, and why: the centre asked for (`--grid-centre`,
-/// `grid_centre=`); else the rule of `AooGrid::near` (the default grid centred on
-/// 52° N, 10° E while every position lies within 60° of arc of it; else centred on the
-/// positions' mean rounded to 5°) applied to the checklist's area boxes for stored
-/// records and to the records themselves for a file.
-pub fn choose_grid(given: Option<LatLon>, basis: GridBasis<'_>) -> Result<(AooGrid, String), RangeError> {
+/// How the first grid is chosen, and why: the centre asked for (`--grid-centre`,
+/// `grid_centre=`); for stored records the rule of `AooGrid::near` applied to the
+/// checklist's area boxes (the default grid centred on 52° N, 10° E while it reaches them
+/// all, else their mean rounded to 5°); for a file, the same rule on each taxon's records.
+/// Records no grid reaches get zones of their own (`analysis::range::GridPlan`).
+pub fn choose_grid(given: Option<LatLon>, basis: GridBasis<'_>) -> Result<(FirstGrid, String), RangeError> {
     let default = AooGrid::default();
+    let zones = format!(
+        " Records more than {ZONE_REACH_DEGREES}° of arc from every grid so far are counted on a grid of their own, \
+         centred on their mean position rounded to whole {CENTRE_STEP_DEGREES}°."
+    );
     if let Some(centre) = given {
         let grid = AooGrid::new(default.cell_size_km(), centre)?;
-        return Ok((grid, format!("AOO grid centred on {}°, {}° as asked.", centre.lat(), centre.lon())));
+        return Ok((
+            FirstGrid::Fixed(grid),
+            format!("AOO grid centred on {}°, {}° as asked.{zones}", centre.lat(), centre.lon()),
+        ));
     }
-    let (positions, whose): (Vec<LatLon>, &str) = match basis {
-        GridBasis::Stored(checklist) => (area_positions(checklist), "the checklist's areas lie"),
-        GridBasis::File(records) => (records.iter().filter_map(|r| r.position).collect(), "these records lie"),
-    };
-    Ok(match AooGrid::near(&positions) {
-        None => (
-            default,
-            format!(
-                "AOO grid: the fixed default, centred on {}° N, {}° E (the centre of the European equal-area grid, \
-                 EPSG:3035), used while every position lies within {FAR_FROM_DEFAULT_DEGREES}° of arc of it.",
-                default.centre().lat(),
-                default.centre().lon()
+    Ok(match basis {
+        GridBasis::Stored(checklist) => match AooGrid::near(&area_positions(checklist)) {
+            None => (
+                FirstGrid::Fixed(default),
+                format!(
+                    "AOO grid: the fixed default, centred on {}° N, {}° E (the centre of the European equal-area grid, \
+                     EPSG:3035), which reaches every area of the checklist.{zones}",
+                    default.centre().lat(),
+                    default.centre().lon()
+                ),
             ),
-        ),
-        Some(grid) => (
-            grid,
+            Some(grid) => (
+                FirstGrid::Fixed(grid),
+                format!(
+                    "AOO grid centred on {}°, {}°: the checklist's areas lie more than {ZONE_REACH_DEGREES}° of arc from \
+                     the default centre (52° N, 10° E), so the grid is centred on their mean position rounded to whole \
+                     {CENTRE_STEP_DEGREES}°.{zones}",
+                    grid.centre().lat(),
+                    grid.centre().lon()
+                ),
+            ),
+        },
+        GridBasis::File => (
+            FirstGrid::PerTaxon,
             format!(
-                "AOO grid centred on {}°, {}°: {whose} more than {FAR_FROM_DEFAULT_DEGREES}° of arc from the default centre \
-                 (52° N, 10° E), so the grid is centred on their mean position rounded to whole {CENTRE_STEP_DEGREES}°.",
-                grid.centre().lat(),
-                grid.centre().lon()
+                "AOO grids chosen per taxon: the default grid centred on 52° N, 10° E when it reaches all of a taxon's \
+                 records (within {ZONE_REACH_DEGREES}° of arc), else grids centred on the records' mean position rounded \
+                 to whole {CENTRE_STEP_DEGREES}°.{zones}"
             ),
         ),
     })
@@ -164,6 +237,15 @@ pub fn parse_centre(text: &str) -> Result<LatLon, String> {
     LatLon::new(lat, lon).map_err(|err| format!("`{text}`: {err}"))
 }
 
+/// Reads a distance in km for the clusters or outliers, naming what is wrong.
+pub fn parse_distance_km(text: &str) -> Result<f64, String> {
+    text.trim()
+        .parse::<f64>()
+        .ok()
+        .filter(|km| (0.001..=20_000.0).contains(km))
+        .ok_or_else(|| format!("`{text}` is not a distance between 0.001 and 20000 km"))
+}
+
 /// Why figures could not be computed.
 #[derive(Debug, thiserror::Error)]
 pub enum RangeError {
@@ -172,11 +254,7 @@ pub enum RangeError {
 }
 
 /// Groups `records` by taxon and period and computes each group's figures.
-pub fn range_report(
-    records: &[PointRecord],
-    names: &TaxonIndex,
-    options: &RangeOptions,
-) -> Result<RangeReport, RangeError> {
+pub fn range_report(records: &[PointRecord], names: &TaxonIndex, options: &RangeOptions) -> RangeReport {
     let mut left_out = LeftOut::default();
     let mut not_listed = BTreeMap::new();
     let mut groups: BTreeMap<(String, bool), Vec<&PointRecord>> = BTreeMap::new();
@@ -205,30 +283,53 @@ pub fn range_report(
         }
         groups.entry(group).or_default().push(record);
     }
-    let periods = if options.periods.is_empty() { vec![Period::between(None, None)] } else { options.periods.clone() };
+    let every_record = options.periods.is_empty();
+    let periods = if every_record { vec![Period::between(None, None)] } else { options.periods.clone() };
     let mut taxa = Vec::new();
     for ((taxon, on_checklist), members) in groups {
-        let mut figures = Vec::new();
+        let all_points: Vec<LatLon> = members.iter().filter_map(|r| r.position).collect();
+        let plan = match options.first_grid {
+            FirstGrid::Fixed(grid) => GridPlan::starting_with(grid).covering(&all_points),
+            FirstGrid::PerTaxon => GridPlan::for_points(&all_points),
+        };
+        let figure_options = FigureOptions {
+            plan: plan.clone(),
+            cluster_km: options.cluster_km,
+            outlier_km: options.outlier_km,
+            resamples: options.resamples,
+            seed: DEFAULT_SEED,
+            influence_places: 10,
+        };
+        let mut by_period = Vec::new();
         for period in &periods {
             let inside: Vec<&PointRecord> =
-                members.iter().copied().filter(|r| in_period(r, period, options.periods.is_empty())).collect();
-            figures.push(period_range(period, &inside, &options.grid)?);
+                members.iter().copied().filter(|r| in_period(r, period, every_record)).collect();
+            by_period.push(period_range(period, &inside, &figure_options));
         }
         left_out.outside_every_period +=
-            members.iter().filter(|r| !periods.iter().any(|p| in_period(r, p, options.periods.is_empty()))).count();
-        let changes = figures.windows(2).map(|pair| change(&pair[0], &pair[1])).collect();
-        taxa.push(TaxonRange { taxon, on_checklist, periods: figures, changes });
+            members.iter().filter(|r| !periods.iter().any(|p| in_period(r, p, every_record))).count();
+        let changes = by_period
+            .windows(2)
+            .zip(periods.windows(2))
+            .map(|(pair, spans)| {
+                change(&pair[0], &pair[1], years_of(&spans[0]).zip(years_of(&spans[1])), &figure_options)
+            })
+            .collect();
+        taxa.push(TaxonRange { taxon, on_checklist, grids: plan.grids().to_vec(), periods: by_period, changes });
     }
-    Ok(RangeReport {
+    RangeReport {
         records_used: options.records_used.clone(),
-        grid: options.grid,
+        grid: match options.first_grid {
+            FirstGrid::Fixed(grid) => Some(grid),
+            FirstGrid::PerTaxon => None,
+        },
         grid_choice: options.grid_choice.clone(),
         records_read: records.len(),
         left_out,
         names_not_on_checklist: not_listed,
         taxa,
         cautions: vec![ASSESSMENT_CAUTION.to_owned(), RECORDING_CAUTION.to_owned()],
-    })
+    }
 }
 
 /// With no periods asked for, every record counts, dated or not.
@@ -236,24 +337,99 @@ fn in_period(record: &PointRecord, period: &Period, every_record: bool) -> bool 
     every_record || record.when.is_some_and(|span| period.holds(span))
 }
 
-fn period_range(period: &Period, records: &[&PointRecord], grid: &AooGrid) -> Result<PeriodRange, RangeError> {
+/// A period's length in years, when both its ends are dates.
+fn years_of(period: &Period) -> Option<f64> {
+    let open = period.first == chrono::NaiveDate::MIN || period.last == chrono::NaiveDate::MAX;
+    (!open).then(|| ((period.last - period.first).num_days() + 1) as f64 / DAYS_PER_YEAR)
+}
+
+fn period_range(period: &Period, records: &[&PointRecord], options: &FigureOptions) -> PeriodRange {
     let points: Vec<LatLon> = records.iter().filter_map(|r| r.position).collect();
+    let labels: Vec<&str> = records.iter().filter(|r| r.position.is_some()).map(|r| r.label.as_str()).collect();
     let sites: BTreeSet<(i64, i64)> = points
         .iter()
         .map(|p| ((p.lat() / SITE_DEGREES).round() as i64, (p.lon() / SITE_DEGREES).round() as i64))
         .collect();
-    let figures = if points.is_empty() { None } else { Some(summary(&points, grid)?) };
-    Ok(PeriodRange { period: period.label.clone(), records: records.len(), sites: sites.len(), figures, points })
+    let empty = PeriodRange {
+        period: period.label.clone(),
+        records: records.len(),
+        sites: sites.len(),
+        figures: None,
+        stability: None,
+        influential_places: Vec::new(),
+        places_alone_in_their_cell: 0,
+        outliers: Vec::new(),
+        eoo_km2_without_outliers: None,
+        location_guide: None,
+        points: Vec::new(),
+    };
+    if points.is_empty() {
+        return empty;
+    }
+    let RangeFigures {
+        summary,
+        stability,
+        influence,
+        places_alone_in_their_cell,
+        outliers,
+        eoo_km2_without_outliers,
+        location_guide,
+    } = figures(&points, options);
+    let ids = |indices: &[usize]| indices.iter().map(|&i| labels[i].to_owned()).collect();
+    PeriodRange {
+        figures: Some(summary),
+        stability,
+        influential_places: influence
+            .iter()
+            .map(|i| PlaceToCheck {
+                position: i.position,
+                records: ids(&i.records),
+                nearest_km: None,
+                eoo_change_km2: i.eoo_change_km2,
+                aoo_change_km2: Some(i.aoo_change_km2),
+            })
+            .collect(),
+        places_alone_in_their_cell,
+        outliers: outliers
+            .iter()
+            .map(|o| PlaceToCheck {
+                position: o.position,
+                records: ids(&o.records),
+                nearest_km: Some(o.nearest_km),
+                eoo_change_km2: None,
+                aoo_change_km2: None,
+            })
+            .collect(),
+        eoo_km2_without_outliers,
+        location_guide: Some(location_guide),
+        points,
+        ..empty
+    }
 }
 
-fn change(earlier: &PeriodRange, later: &PeriodRange) -> PeriodChange {
-    let pick = |p: &PeriodRange, f: fn(&RangeSummary) -> f64| p.figures.as_ref().map(f);
-    let difference = |f: fn(&RangeSummary) -> f64| match (pick(earlier, f), pick(later, f)) {
+fn change(
+    earlier: &PeriodRange,
+    later: &PeriodRange,
+    years: Option<(f64, f64)>,
+    options: &FigureOptions,
+) -> PeriodChange {
+    let pick = |p: &PeriodRange, f: fn(&RangeSummary) -> Option<f64>| p.figures.as_ref().and_then(f);
+    let difference = |f: fn(&RangeSummary) -> Option<f64>| match (pick(earlier, f), pick(later, f)) {
         (Some(a), Some(b)) => (Some(b - a), (a > 0.0).then(|| 100.0 * (b - a) / a)),
         _ => (None, None),
     };
     let (eoo_km2, eoo_percent) = difference(|s| s.eoo_km2);
-    let (aoo_km2, aoo_percent) = difference(|s| s.aoo.area_km2);
+    let (aoo_km2, aoo_percent) = difference(|s| Some(s.aoo.area_km2));
+    let comparison = (!earlier.points.is_empty() && !later.points.is_empty()).then(|| {
+        compare_periods(
+            &earlier.points,
+            &later.points,
+            years.map(|(a, b)| [a, b]),
+            &options.plan,
+            options.resamples,
+            options.seed,
+        )
+    });
     PeriodChange {
         from: earlier.period.clone(),
         to: later.period.clone(),
@@ -263,6 +439,20 @@ fn change(earlier: &PeriodRange, later: &PeriodRange) -> PeriodChange {
         aoo_km2,
         eoo_percent,
         aoo_percent,
+        comparison,
+    }
+}
+
+/// Hides where a sensitive taxon's records are: hull corners, the projection centre and
+/// the positions of places to check (their record ids stay, for reviewers to look up).
+pub fn hide_places(taxon: &mut TaxonRange) {
+    for period in &mut taxon.periods {
+        if let Some(eoo) = period.figures.as_mut().and_then(|f| f.eoo.as_mut()) {
+            eoo.hull.clear();
+            eoo.projection_centre = None;
+        }
+        period.influential_places.clear();
+        period.outliers.clear();
     }
 }
 
@@ -309,7 +499,8 @@ fn render_taxon(taxon: &TaxonRange) -> String {
     for p in &taxon.periods {
         let (eoo, aoo, min) = match &p.figures {
             Some(f) => (
-                format!("{:.1}{}", f.eoo_km2, if f.eoo_raised_to_aoo { "*" } else { "" }),
+                f.eoo_km2
+                    .map_or("not given".into(), |e| format!("{e:.1}{}", if f.eoo_raised_to_aoo { "*" } else { "" })),
                 format!("{:.0}", f.aoo.area_km2),
                 format!("{:.0}", f.aoo.min_area_km2),
             ),
@@ -335,14 +526,63 @@ fn render_taxon(taxon: &TaxonRange) -> String {
             signed(c.eoo_km2, c.eoo_percent),
             signed(c.aoo_km2, c.aoo_percent)
         ));
+        if let Some(comparison) = &c.comparison {
+            out.push_str(&format!("  {}\n", comparison.text));
+        }
     }
     if taxon.periods.iter().any(|p| p.figures.as_ref().is_some_and(|f| f.eoo_raised_to_aoo)) {
         out.push_str("* EOO raised to the AOO because the hull is smaller (IUCN Guidelines §4.9).\n");
     }
     for p in &taxon.periods {
-        if let Some(f) = &p.figures {
-            out.push_str(&format!("{}: {}\n{}: {}\n", p.period, f.method, p.period, f.criterion_b.text));
+        out.push_str(&render_checks(p));
+    }
+    out
+}
+
+fn render_checks(p: &PeriodRange) -> String {
+    let Some(f) = &p.figures else { return String::new() };
+    let mut out = format!("{}: {}\n{}: {}\n", p.period, f.method, p.period, f.criterion_b.text);
+    if let Some(eoo_problem) = &f.eoo_problem {
+        out.push_str(&format!("{}: {eoo_problem}\n", p.period));
+    }
+    if let Some(stability) = &p.stability {
+        out.push_str(&format!("{}: {}\n", p.period, stability.text));
+    }
+    if !p.outliers.is_empty() {
+        out.push_str(&format!(
+            "{}: {} far from every other record (listed for review; they are in the figures{}):\n",
+            p.period,
+            if p.outliers.len() == 1 { "1 place lies".to_owned() } else { format!("{} places lie", p.outliers.len()) },
+            p.eoo_km2_without_outliers.map(|e| format!("; EOO without them {e:.0} km²")).unwrap_or_default()
+        ));
+        for o in &p.outliers {
+            out.push_str(&format!(
+                "  {:.4}, {:.4}: {:.0} km from the nearest other record; {}\n",
+                o.position.lat(),
+                o.position.lon(),
+                o.nearest_km.unwrap_or(f64::NAN),
+                o.records.join(", ")
+            ));
         }
+    }
+    if !p.influential_places.is_empty() {
+        out.push_str(&format!(
+            "{}: the places EOO rests on most (check these first; {} places are alone in their AOO cell):\n",
+            p.period, p.places_alone_in_their_cell
+        ));
+        for i in p.influential_places.iter().take(5) {
+            out.push_str(&format!(
+                "  {:.4}, {:.4}: without it EOO {:+.0} km², AOO {:+.0} km²; {}\n",
+                i.position.lat(),
+                i.position.lon(),
+                i.eoo_change_km2.unwrap_or(0.0),
+                i.aoo_change_km2.unwrap_or(0.0),
+                i.records.join(", ")
+            ));
+        }
+    }
+    if let Some(guide) = &p.location_guide {
+        out.push_str(&format!("{}: {}\n", p.period, guide.text));
     }
     out
 }

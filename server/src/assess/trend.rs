@@ -10,7 +10,8 @@ use std::collections::BTreeMap;
 use std::fs::File;
 use std::path::Path;
 
-use analysis::trend::{TrendSummary, YearCount, yearly_trend};
+use analysis::trend::{TrendSummary, YearCount, p_text, yearly_trend};
+use analysis::words::signed_change;
 use chrono::Datelike as _;
 use serde::Serialize;
 
@@ -304,47 +305,78 @@ pub fn render_text(report: &TrendReport) -> String {
     }
     out.push_str(&format!("{:>6} {:>8} {:>12} {:>12}\n", "year", "count", "effort", "rate"));
     for y in &report.years {
-        out.push_str(&format!("{:>6} {:>8} {:>12.2} {:>12.4}\n", y.year, y.count, y.effort, y.count as f64 / y.effort));
+        let fitted = if y.year >= t.first_year { "" } else { "  (before the window: not fitted)" };
+        out.push_str(&format!(
+            "{:>6} {:>8} {:>12.2} {:>12.4}{fitted}\n",
+            y.year,
+            y.count,
+            y.effort,
+            y.count as f64 / y.effort
+        ));
     }
     let counts: Vec<String> = report.yearly_counts.iter().map(|y| format!("{} {}", y.year, y.count)).collect();
     out.push_str(&format!(
         "Animals recorded per year, whatever the effort: {}.\n",
         if counts.is_empty() { "none".into() } else { counts.join(", ") }
     ));
-    // Beyond ±10,000% a percentage says nothing a person can use (it comes from
-    // extrapolating a short series); say so instead of printing a 20-digit number.
-    let percent = |x: f64| {
-        if (100.0 * x).abs() > 10_000.0 {
-            format!("{}10,000%", if x > 0.0 { "over +" } else { "below −" })
-        } else {
-            format!("{:+.1}%", 100.0 * x)
+    out.push_str(&format!(
+        "\nAssessment window: {:.0} years = max(10, 3 × generation length {} years; {}); fitted on {}–{} \
+         ({} years with effort).\n",
+        t.window_years,
+        report.generation_length.years,
+        report.generation_length.source,
+        t.first_year,
+        t.last_year,
+        t.years
+    ));
+    out.push_str(&format!("Models: {}\n", t.model_choice.reason));
+    if let Some(nb) = &t.negative_binomial {
+        out.push_str(&format!(
+            "Negative binomial beside it: slope {:.4} a year (SE {:.4}), α = {:.4}{}.\n",
+            nb.coefficients[1].estimate,
+            nb.coefficients[1].std_error,
+            nb.alpha,
+            if nb.at_poisson_boundary { " (at 0: the Poisson model)" } else { "" }
+        ));
+    }
+    let test = &t.slope_test;
+    out.push_str(&format!(
+        "Change per year: {} (95% interval {} to {}); {} = {:.2}{}, p {}.\n",
+        signed_change(t.annual_change.estimate),
+        signed_change(t.annual_change.lower),
+        signed_change(t.annual_change.upper),
+        test.statistic,
+        test.value,
+        test.degrees_of_freedom.map(|df| format!(" on {df} degrees of freedom")).unwrap_or_default(),
+        p_text(test.p_value)
+    ));
+    match &t.window_change {
+        Some(c) => out.push_str(&format!(
+            "Change over the window: {} (95% interval {} to {}){}.\n",
+            signed_change(c.estimate),
+            signed_change(c.lower),
+            signed_change(c.upper),
+            if t.window_exceeds_data { ", carrying the fitted trend beyond the years fitted" } else { "" }
+        )),
+        None => {
+            out.push_str(&format!("Change over the window: not given: {}\n", t.extrapolation.as_deref().unwrap_or("")))
         }
-    };
-    out.push_str(&format!(
-        "\nPoisson log-linear model with log(effort) offset: Pearson dispersion {:.2} ({:?} errors).\n",
-        t.fit.dispersion.unwrap_or(f64::NAN),
-        t.error_model
-    ));
-    out.push_str(&format!(
-        "Change per year: {} (95% interval {} to {}).\n",
-        percent(t.annual_change.estimate),
-        percent(t.annual_change.lower),
-        percent(t.annual_change.upper)
-    ));
-    out.push_str(&format!(
-        "Assessment window: {:.0} years = max(10, 3 × generation length {} years; {}).\n",
-        t.window_years, report.generation_length.years, report.generation_length.source
-    ));
-    out.push_str(&format!(
-        "Change over the window: {} (95% interval {} to {}){}.\n",
-        percent(t.window_change.estimate),
-        percent(t.window_change.lower),
-        percent(t.window_change.upper),
-        if t.window_exceeds_data { ", extrapolated beyond the years covered" } else { "" }
-    ));
+    }
+    if t.projection_years < t.window_years
+        && let Some(p) = &t.projected_change
+    {
+        out.push_str(&format!(
+            "Projected (A3), capped at {:.0} years: {} (95% interval {} to {}).\n",
+            t.projection_years,
+            signed_change(p.estimate),
+            signed_change(p.lower),
+            signed_change(p.upper)
+        ));
+    }
     let mk = &t.mann_kendall;
     out.push_str(&format!(
-        "Mann–Kendall (tie-corrected) on yearly rates: S = {}, Var(S) = {:.1}, Z = {:.3}, p = {:.4}; Sen's slope {} per year.\n",
+        "Mann–Kendall (tie-corrected) on the fitted years' rates: S = {}, Var(S) = {:.1}, Z = {:.3}, p = {:.4}; \
+         Sen's slope {} per year.\n",
         mk.s,
         mk.var_s,
         mk.z,

@@ -8,7 +8,9 @@ use chrono::NaiveDate;
 use super::{RecordSource, print};
 use crate::assess::dates::Period;
 use crate::assess::map::taxon_map;
-use crate::assess::range::{GridBasis, RangeOptions, choose_grid, parse_centre, range_report, render_text};
+use crate::assess::range::{
+    GridBasis, RangeOptions, choose_grid, parse_centre, parse_distance_km, range_report, render_text,
+};
 
 #[derive(Debug, clap::Args)]
 pub struct RangeArgs {
@@ -23,11 +25,18 @@ pub struct RangeArgs {
     /// Only records on or before this day (YYYY-MM-DD).
     #[arg(long)]
     pub to_date: Option<NaiveDate>,
-    /// Centre of the AOO grid's equal-area projection, LAT,LON in degrees (e.g. -17,179).
-    /// Default: 52,10 while every position lies within 60° of arc of it; else the records'
-    /// mean rounded to 5° (for stored records, the checklist's areas' mean, so it stays fixed).
+    /// Centre of the first AOO grid's equal-area projection, LAT,LON in degrees (e.g. -17,179).
+    /// Default: for stored records 52,10 while it reaches every area of the checklist, else
+    /// their mean rounded to 5°; for a file, the same rule on each taxon's records. Records
+    /// more than 60° of arc from every grid get a grid of their own.
     #[arg(long, value_name = "LAT,LON", value_parser = parse_centre, allow_hyphen_values = true)]
     pub grid_centre: Option<analysis::LatLon>,
+    /// Records linked by steps of at most this many km form one cluster (the location guide).
+    #[arg(long, value_name = "KM", value_parser = parse_distance_km, default_value = "10")]
+    pub cluster_km: f64,
+    /// Records farther than this many km from every other record are listed for review.
+    #[arg(long, value_name = "KM", value_parser = parse_distance_km, default_value = "500")]
+    pub outlier_km: f64,
     /// Also draw a map (SVG) of each taxon: FILE, or `FILE-<taxon>.svg` when there are several.
     #[arg(long, value_name = "FILE")]
     pub svg: Option<PathBuf>,
@@ -44,17 +53,25 @@ pub fn run(data_dir: &Path, args: RangeArgs) -> anyhow::Result<()> {
         periods.push(Period::between(args.from_date, args.to_date));
     }
     let basis = match args.source.from_file {
-        Some(_) => GridBasis::File(&loaded.records),
+        Some(_) => GridBasis::File,
         None => GridBasis::Stored(loaded.names.checklist()),
     };
-    let (grid, grid_choice) = choose_grid(args.grid_centre, basis).context("choosing the AOO grid")?;
-    let options = RangeOptions { taxon: loaded.taxon, periods, grid, grid_choice, records_used: loaded.records_used };
-    let report = range_report(&loaded.records, &loaded.names, &options).context("computing range figures")?;
+    let (first_grid, grid_choice) = choose_grid(args.grid_centre, basis).context("choosing the AOO grid")?;
+    let options = RangeOptions {
+        taxon: loaded.taxon,
+        periods,
+        first_grid,
+        grid_choice,
+        records_used: loaded.records_used,
+        cluster_km: args.cluster_km,
+        outlier_km: args.outlier_km,
+        resamples: analysis::range::DEFAULT_RESAMPLES,
+    };
+    let report = range_report(&loaded.records, &loaded.names, &options);
     if let Some(path) = &args.svg {
         for taxon in &report.taxa {
             let file = if report.taxa.len() == 1 { path.clone() } else { suffixed(path, &taxon.taxon) };
-            std::fs::write(&file, taxon_map(taxon, &options.grid))
-                .with_context(|| format!("writing {}", file.display()))?;
+            std::fs::write(&file, taxon_map(taxon)).with_context(|| format!("writing {}", file.display()))?;
             eprintln!("map of {} written to {}", taxon.taxon, file.display());
         }
     }

@@ -6,7 +6,11 @@
 //! absences) as its extension ([`super::events`]).
 //!
 //! Data files are tab-separated with one header line and no quoting; tabs and line
-//! breaks inside values become spaces. The zip is written as a stream (no seeking), so
+//! breaks inside values become spaces. The EML `packageId` is `<dataset>/<version>`: the
+//! dataset a UUID derived from this installation's identifier and the export's definition
+//! (audience, review states, dates, area, taxon), so the same export always has the same
+//! one; the version the first 16 hex digits of the SHA-256 of the data files' bytes, so it
+//! changes exactly when the data do ([`package_id`]). The zip is written as a stream (no seeking), so
 //! it can go straight to a file, to standard output or down an HTTP response.
 //! The records are read once: extension rows wait in temporary files until the core
 //! file is complete. What each walk found is read first, from every record made on it
@@ -18,6 +22,7 @@ use std::io::{BufWriter, Seek as _, Write};
 
 use chrono::Utc;
 use rusqlite::Connection;
+use sha2::{Digest as _, Sha256};
 use shared_types::WalkSubmission;
 use zip::write::SimpleFileOptions;
 
@@ -36,6 +41,37 @@ const COMPRESSION_LEVEL: i64 = 1;
 
 type Zip<W> = zip::ZipWriter<zip::write::StreamWriter<W>>;
 
+/// The archive being written, with a running SHA-256 of every data file's bytes (the
+/// package's version); `meta.xml` and `eml.xml` are written past it.
+struct Archive<W: Write> {
+    zip: Zip<W>,
+    digest: Sha256,
+}
+
+impl<W: Write> Archive<W> {
+    fn new(out: W) -> Self {
+        Self { zip: zip::ZipWriter::new_stream(out), digest: Sha256::new() }
+    }
+
+    fn start_file(&mut self, name: &str) -> Result<(), ExportError> {
+        self.digest.update(name.as_bytes());
+        self.zip.start_file(name, zip_options())?;
+        Ok(())
+    }
+}
+
+impl<W: Write> Write for Archive<W> {
+    fn write(&mut self, buf: &[u8]) -> std::io::Result<usize> {
+        let written = self.zip.write(buf)?;
+        self.digest.update(&buf[..written]);
+        Ok(written)
+    }
+
+    fn flush(&mut self) -> std::io::Result<()> {
+        self.zip.flush()
+    }
+}
+
 pub fn write<W: Write>(
     conn: &Connection,
     names: &TaxonIndex,
@@ -48,8 +84,8 @@ pub fn write<W: Write>(
     if !walks.is_empty() {
         return write_with_events(conn, names, request, &walks, out, progress);
     }
-    let mut zip = zip::ZipWriter::new_stream(out);
-    zip.start_file(OCCURRENCE_CORE.file, zip_options())?;
+    let mut zip = Archive::new(out);
+    zip.start_file(OCCURRENCE_CORE.file)?;
     write_line(&mut zip, OCCURRENCE_CORE.terms.iter().copied())?;
     let mut lengths = Spool::new(&MEASUREMENT_EXTENSION)?;
     let mut identifications = Spool::new(&IDENTIFICATION_EXTENSION)?;
@@ -68,7 +104,8 @@ pub fn write<W: Write>(
     summary.identifications = identifications.rows;
     lengths.copy_into(&mut zip)?;
     identifications.copy_into(&mut zip)?;
-    finish(zip, &meta_xml(&OCCURRENCE_CORE, &[&MEASUREMENT_EXTENSION, &IDENTIFICATION_EXTENSION]), &summary, request)
+    let meta = meta_xml(&OCCURRENCE_CORE, &[&MEASUREMENT_EXTENSION, &IDENTIFICATION_EXTENSION]);
+    finish(conn, zip, &meta, &summary, request)
 }
 
 fn zip_options() -> SimpleFileOptions {
@@ -79,17 +116,50 @@ fn zip_options() -> SimpleFileOptions {
 
 /// `meta.xml` and `eml.xml`, then the zip's directory.
 fn finish<W: Write>(
-    mut zip: Zip<W>,
+    conn: &Connection,
+    archive: Archive<W>,
     meta: &str,
     summary: &ExportSummary,
     request: &ExportRequest,
 ) -> Result<ExportSummary, ExportError> {
+    let Archive { mut zip, digest } = archive;
+    let package = package_id(&crate::store::deployment::id(conn)?, request, digest);
     zip.start_file("meta.xml", zip_options())?;
     zip.write_all(meta.as_bytes())?;
     zip.start_file("eml.xml", zip_options())?;
-    zip.write_all(eml_xml(summary, request).as_bytes())?;
+    zip.write_all(eml_xml(summary, request, &package).as_bytes())?;
     zip.finish()?.flush()?;
     Ok(summary.clone())
+}
+
+/// The EML packageId: `<dataset UUID>/<version>` (see the module notes).
+pub fn package_id(deployment: &str, request: &ExportRequest, data: Sha256) -> String {
+    let version: String = data.finalize().iter().take(8).map(|b| format!("{b:02x}")).collect();
+    format!("{}/{version}", dataset_uuid(deployment, request))
+}
+
+/// A UUID (version 8: made from our own bytes) of the SHA-256 of the installation's
+/// identifier and the export's definition: the same for the same export, every time.
+pub fn dataset_uuid(deployment: &str, request: &ExportRequest) -> uuid::Uuid {
+    let filter = &request.filter;
+    let states: Vec<&str> = filter.states.as_ref().map_or(vec!["any"], |s| {
+        let mut codes: Vec<&str> = s.iter().map(|state| state.code()).collect();
+        codes.sort_unstable();
+        codes
+    });
+    let definition = format!(
+        "wrackline dataset\ndeployment {deployment}\naudience {:?}\nstates {}\nfrom {}\nuntil {}\nbbox {}\ntaxon {}\n",
+        request.audience,
+        states.join(","),
+        filter.from_utc.as_deref().unwrap_or("-"),
+        filter.until_utc.as_deref().unwrap_or("-"),
+        filter.bbox.map_or("-".to_owned(), |b| format!("{},{},{},{}", b.south, b.west, b.north, b.east)),
+        request.taxon.as_ref().map_or("-", |t| t.name.as_str()),
+    );
+    let hash = Sha256::digest(definition.as_bytes());
+    let mut bytes = [0u8; 16];
+    bytes.copy_from_slice(&hash[..16]);
+    uuid::Builder::from_custom_bytes(bytes).into_uuid()
 }
 
 /// Rows of one extension waiting in an unnamed temporary file (on disk, so memory stays
@@ -112,10 +182,10 @@ impl Spool {
         write_line(&mut self.file, values)
     }
 
-    fn copy_into<W: Write>(self, zip: &mut Zip<W>) -> Result<(), ExportError> {
+    fn copy_into<W: Write>(self, zip: &mut Archive<W>) -> Result<(), ExportError> {
         let mut file = self.file.into_inner().map_err(|err| err.into_error())?;
         file.seek(std::io::SeekFrom::Start(0))?;
-        zip.start_file(self.table.file, zip_options())?;
+        zip.start_file(self.table.file)?;
         std::io::copy(&mut file, zip)?;
         Ok(())
     }
@@ -179,8 +249,8 @@ fn write_with_events<W: Write>(
     out: W,
     progress: &mut dyn FnMut(),
 ) -> Result<ExportSummary, ExportError> {
-    let mut zip = zip::ZipWriter::new_stream(out);
-    zip.start_file(EVENT_CORE.file, zip_options())?;
+    let mut zip = Archive::new(out);
+    zip.start_file(EVENT_CORE.file)?;
     write_line(&mut zip, EVENT_CORE.terms.iter().copied())?;
     for walk in walks {
         write_line(&mut zip, walk.event.iter().map(String::as_str))?;
@@ -224,12 +294,9 @@ fn write_with_events<W: Write>(
     for spool in [occurrences, lengths, identifications] {
         spool.copy_into(&mut zip)?;
     }
-    finish(
-        zip,
-        &meta_xml(&EVENT_CORE, &[&OCCURRENCE_EXTENSION, &EVENT_MEASUREMENT_EXTENSION, &EVENT_IDENTIFICATION_EXTENSION]),
-        &summary,
-        request,
-    )
+    let meta =
+        meta_xml(&EVENT_CORE, &[&OCCURRENCE_EXTENSION, &EVENT_MEASUREMENT_EXTENSION, &EVENT_IDENTIFICATION_EXTENSION]);
+    finish(conn, zip, &meta, &summary, request)
 }
 
 fn write_line<'a>(out: &mut impl Write, values: impl Iterator<Item = &'a str>) -> std::io::Result<()> {
@@ -299,7 +366,7 @@ fn table_xml(element: &str, id_element: &str, table: &Table, id_is_first_term: b
 /// and, in the profile's order, `intellectualRights` (the licence, as GBIF's tools write
 /// it: a sentence with a `ulink` to the legal code) and `methods` (how records are made,
 /// checked and generalised, and the occurrenceStatus vocabulary).
-fn eml_xml(summary: &ExportSummary, request: &ExportRequest) -> String {
+fn eml_xml(summary: &ExportSummary, request: &ExportRequest, package: &str) -> String {
     let audience = match request.audience {
         super::Audience::Public => {
             "Public export: sensitive species are generalised as Chapman 2020 (GBIF) recommends."
@@ -330,8 +397,9 @@ fn eml_xml(summary: &ExportSummary, request: &ExportRequest) -> String {
 <eml:eml xmlns:eml=\"eml://ecoinformatics.org/eml-2.1.1\" xmlns:dc=\"http://purl.org/dc/terms/\" \
 xmlns:xsi=\"http://www.w3.org/2001/XMLSchema-instance\" \
 xsi:schemaLocation=\"eml://ecoinformatics.org/eml-2.1.1 http://rs.gbif.org/schema/eml-gbif-profile/1.2/eml.xsd\" \
-packageId=\"urn:uuid:{package}\" system=\"wrackline\" scope=\"system\" xml:lang=\"en\">\n\
+packageId=\"{package}\" system=\"wrackline\" scope=\"system\" xml:lang=\"en\">\n\
   <dataset>\n\
+    <alternateIdentifier>urn:uuid:{dataset}</alternateIdentifier>\n\
     <title>wrackline records of stranded and landed elasmobranchs</title>\n\
     <creator><organizationName>{organisation}</organizationName></creator>\n\
     <pubDate>{date}</pubDate>\n\
@@ -342,7 +410,8 @@ packageId=\"urn:uuid:{package}\" system=\"wrackline\" scope=\"system\" xml:lang=
     <methods>\n{methods}    </methods>\n\
   </dataset>\n\
 </eml:eml>\n",
-        package = uuid::Uuid::new_v4(),
+        package = escape(package),
+        dataset = package.split('/').next().unwrap_or_default(),
         date = Utc::now().format("%Y-%m-%d"),
         url = licence.url(),
         title = escape(licence.title()),

@@ -4,9 +4,12 @@
 //!
 //! Query: `taxon` (a checklist name), `state` (review-state codes separated by commas, or
 //! `any`; default `confirmed`), for range `period` (e.g. `2015-2019`, repeatable as
-//! `period=2015-2019,2020-2024`) and `grid_centre` (`LAT,LON` of the AOO grid; default the
-//! documented rule), for trend `generation_length` (years; default the checklist's for the
-//! taxon).
+//! `period=2015-2019,2020-2024`), `grid_centre` (`LAT,LON` of the first AOO grid; default the
+//! documented rule), `cluster_km` (default 10) and `outlier_km` (default 500), for trend
+//! `generation_length` (years; default the checklist's for the taxon).
+//!
+//! Range figures resample the records (200 times), so their cost grows with the records
+//! stored for a taxon; the server's request time limit bounds it.
 
 use axum::Json;
 use axum::extract::{Query, State};
@@ -18,7 +21,9 @@ use crate::assess::chart;
 use crate::assess::dates::Period;
 use crate::assess::input::read_store;
 use crate::assess::map::taxon_map;
-use crate::assess::range::{GridBasis, RangeOptions, RangeReport, choose_grid, parse_centre, range_report};
+use crate::assess::range::{
+    GridBasis, RangeOptions, RangeReport, choose_grid, hide_places, parse_centre, parse_distance_km, range_report,
+};
 use crate::assess::trend::{EffortUnit, TrendReport, generation_length, rate_words, stored_trend_input, trend_report};
 use crate::assess::{DEFAULT_STATE, describe_states, parse_states};
 use crate::error::ApiError;
@@ -31,8 +36,12 @@ pub struct FigureQuery {
     taxon: Option<String>,
     state: Option<String>,
     period: Option<String>,
-    /// `LAT,LON`: the AOO grid's centre (default: the documented rule, see `assess::range::choose_grid`).
+    /// `LAT,LON`: the first AOO grid's centre (default: the documented rule, see `assess::range::choose_grid`).
     grid_centre: Option<String>,
+    /// The location guide's linking distance, km (default 10).
+    cluster_km: Option<String>,
+    /// The distance beyond which a record is listed as an outlier, km (default 500).
+    outlier_km: Option<String>,
     generation_length: Option<f64>,
     /// `km` (default) or `hours`: the walking effort encounter rates are per.
     effort: Option<EffortUnit>,
@@ -74,8 +83,8 @@ fn sensitive(state: &AppState, name: &str) -> bool {
     state.taxa.named(name).is_some_and(|taxon| taxon.sensitivity != species_key::Sensitivity::None)
 }
 
-/// `GET /api/range`: figures for everyone; for a sensitive species the hull's corners
-/// (exact record positions) only for signed-in reviewers.
+/// `GET /api/range`: figures for everyone; for a sensitive species the places (hull
+/// corners, outliers, influential places: exact record positions) only for signed-in reviewers.
 pub async fn range(
     State(state): State<AppState>,
     caller: Caller,
@@ -84,9 +93,7 @@ pub async fn range(
     let mut report = range_of(&state, &query).await?;
     if !sees_sensitive_places(&caller) {
         for taxon in report.taxa.iter_mut().filter(|t| sensitive(&state, &t.taxon)) {
-            for figures in taxon.periods.iter_mut().filter_map(|p| p.figures.as_mut()) {
-                figures.eoo.hull.clear();
-            }
+            hide_places(taxon);
         }
     }
     Ok(Json(report))
@@ -109,7 +116,7 @@ pub async fn range_map(
         [] => return Err(ApiError::NotFound(format!("no records to map ({})", report.records_used))),
         _ => return Err(ApiError::BadRequest("the records hold several taxa; choose one with `taxon`".into())),
     };
-    Ok(svg(taxon_map(taxon, &report.grid)))
+    Ok(svg(taxon_map(taxon)))
 }
 
 /// `GET /api/trend/chart.svg`: the trend chart.
@@ -146,10 +153,30 @@ async fn range_of(state: &AppState, query: &FigureQuery) -> Result<RangeReport, 
         .map(parse_centre)
         .transpose()
         .map_err(|message| ApiError::InvalidField { field: "grid_centre".into(), message })?;
-    let (grid, grid_choice) = choose_grid(given, GridBasis::Stored(state.checklist()))
+    let (first_grid, grid_choice) = choose_grid(given, GridBasis::Stored(state.checklist()))
         .map_err(|err| ApiError::BadRequest(err.to_string()))?;
-    let options = RangeOptions { taxon, periods, grid, grid_choice, records_used };
-    range_report(&records, &state.taxa, &options).map_err(|err| ApiError::BadRequest(err.to_string()))
+    let distance = |field: &str, value: &Option<String>, default: f64| {
+        value
+            .as_deref()
+            .map(parse_distance_km)
+            .transpose()
+            .map(|km| km.unwrap_or(default))
+            .map_err(|message| ApiError::InvalidField { field: field.into(), message })
+    };
+    let options = RangeOptions {
+        taxon,
+        periods,
+        first_grid,
+        grid_choice,
+        records_used,
+        cluster_km: distance("cluster_km", &query.cluster_km, analysis::range::DEFAULT_CLUSTER_KM)?,
+        outlier_km: distance("outlier_km", &query.outlier_km, analysis::range::DEFAULT_OUTLIER_KM)?,
+        resamples: analysis::range::DEFAULT_RESAMPLES,
+    };
+    let taxa = state.taxa.clone();
+    tokio::task::spawn_blocking(move || range_report(&records, &taxa, &options))
+        .await
+        .map_err(|err| ApiError::Internal(anyhow::anyhow!("range figures stopped: {err}")))
 }
 
 pub async fn trend(

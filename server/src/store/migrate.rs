@@ -25,6 +25,8 @@ const MIGRATIONS: &[(&str, &str)] = &[
         "0012_review_reasons_and_people_audit",
         include_str!("../../../migrations/0012_review_reasons_and_people_audit.sql"),
     ),
+    ("0013_observer_identification_time", include_str!("../../../migrations/0013_observer_identification_time.sql")),
+    ("0014_deployment_id", include_str!("../../../migrations/0014_deployment_id.sql")),
 ];
 
 pub(super) fn apply(conn: &mut Connection) -> Result<(), StoreError> {

@@ -12,6 +12,7 @@
 //! writer work at the same time, each reader seeing the database as it was when its read
 //! began. At most [`MAX_READERS`] run at once; more wait their turn.
 
+pub mod deployment;
 pub mod duplicates;
 mod migrate;
 pub mod observations;

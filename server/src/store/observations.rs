@@ -81,7 +81,7 @@ pub fn insert_observation(
     tx.execute("INSERT INTO organisms (created_at) VALUES (?1)", [&received_at])?;
     let organism_id = tx.last_insert_rowid();
     let observation_id = insert_observation_row(&tx, new, organism_id, &received_at)?;
-    insert_details(&tx, observation_id, new, &received_at)?;
+    insert_details(&tx, observation_id, new)?;
     for (position, photo) in new.photos.iter().enumerate() {
         link_photo(&tx, observation_id, position, photo, &received_at)?;
     }
@@ -168,12 +168,7 @@ fn insert_observation_row(
     Ok(tx.last_insert_rowid())
 }
 
-fn insert_details(
-    tx: &Transaction,
-    observation_id: i64,
-    new: &NewObservation,
-    received_at: &str,
-) -> Result<(), StoreError> {
+fn insert_details(tx: &Transaction, observation_id: i64, new: &NewObservation) -> Result<(), StoreError> {
     let sub = &new.submission;
     if let Some(length) = &sub.length {
         tx.execute(
@@ -188,6 +183,9 @@ fn insert_details(
         )?;
     }
     let observer = sub.observer_name.as_ref().map(|n| n.as_str());
+    // The observer named the record when they made it: the submission's own time (as an
+    // instant in UTC, like every identification time), not the server's receipt.
+    let named_at = sub.observed_at.with_timezone(&Utc).to_rfc3339_opts(chrono::SecondsFormat::Millis, true);
     if let Some(choice) = &sub.key_choice {
         tx.execute(
             "INSERT INTO identifications (observation_id, taxon_name, taxon_rank, identified_by, identified_at, remarks, basis)
@@ -197,7 +195,7 @@ fn insert_details(
                 choice.scientific_name.as_str(),
                 choice.taxon_rank,
                 observer,
-                received_at,
+                named_at,
                 format!("guided key probability {:.2}", choice.probability)
             ],
         )?;
@@ -210,7 +208,7 @@ fn insert_details(
         tx.execute(
             "INSERT INTO identifications (observation_id, taxon_name, taxon_rank, identified_by, identified_at, remarks, basis)
              VALUES (?1, ?2, ?3, ?4, ?5, ?6, 'observer guess')",
-            params![observation_id, name, rank, observer, received_at, format!("as typed: {}", guess.as_str())],
+            params![observation_id, name, rank, observer, named_at, format!("as typed: {}", guess.as_str())],
         )?;
     }
     Ok(())

@@ -76,6 +76,21 @@ fn two_periods_are_set_side_by_side_with_the_change() {
         .map(|p| p["figures"]["aoo"]["area_km2"].as_f64().unwrap())
         .collect();
     assert_eq!(change["aoo_km2"].as_f64().unwrap(), aoo[1] - aoo[0]);
+    // Records per year, later against earlier, with the periods' lengths in days ÷ 365.25
+    // (1,826 and 1,827): scipy.stats.binomtest(3, 5, share of years) gives p = 1 and the
+    // Clopper–Pearson interval that makes a rate ratio of 0.1717 to 17.949 around 1.4992.
+    let records = &change["comparison"]["records"];
+    let close = |key: &str, want: f64| {
+        let got = records[key].as_f64().unwrap();
+        assert!((got - want).abs() < 1e-4 * want, "{key}: {got} vs {want}");
+    };
+    close("rate_ratio", 1.499_179);
+    close("lower", 0.171_734);
+    close("upper", 17.949_33);
+    close("p_value", 1.0);
+    let text = change["comparison"]["text"].as_str().unwrap();
+    assert!(text.contains("at 2 records each"), "{text}");
+    assert!(text.contains("no clear change"), "{text}");
 }
 
 #[test]
@@ -129,6 +144,64 @@ fn trend_from_a_file_extrapolates_over_three_generations() {
             && change < trend["window_change"]["upper"].as_f64().unwrap()
     );
     assert!(trend["criterion_a"]["text"].as_str().unwrap().contains("not a listing decision"));
+}
+
+/// One yearly series of the analysis crate's trend fixture (statsmodels, see
+/// `analysis/tests/reference/make_reference.py`), as a `year,count,effort` file.
+fn reference_series(dir: &Path, name: &str) -> (std::path::PathBuf, Value) {
+    let path = concat!(env!("CARGO_MANIFEST_DIR"), "/../analysis/tests/reference/trend.json");
+    let fixture: Value = serde_json::from_str(&std::fs::read_to_string(path).unwrap()).unwrap();
+    let series = fixture["yearly"].as_array().unwrap().iter().find(|s| s["name"] == name).cloned().unwrap();
+    let mut csv = String::from("year,count,effort\n");
+    for k in 0..series["years"].as_array().unwrap().len() {
+        csv.push_str(&format!("{},{},{}\n", series["years"][k], series["counts"][k], series["effort"][k]));
+    }
+    (write(dir, &format!("{name}.csv"), &csv), series)
+}
+
+#[test]
+fn a_long_series_is_fitted_on_its_most_recent_window() {
+    let dir = tempfile::tempdir().unwrap();
+    // Forty years whose last ten fell by three quarters, generation length 3: criterion A's
+    // window is the last 10 years (IUCN Criteria v3.1); statsmodels fitted on 2014–2024
+    // gives the window change in trend.json, within the Endangered band for A2.
+    let (file, series) = reference_series(dir.path(), "forty_years_last_ten_falling");
+    let args = ["trend", "--from", file.to_str().unwrap(), "--generation-length", "3"];
+    let report = json_of(&wrackline(dir.path(), &[&args[..], &["--json"]].concat()));
+    let trend = &report["trend"];
+    assert_eq!((trend["first_year"].as_i64(), trend["last_year"].as_i64()), (Some(2014), Some(2024)));
+    let want = series["expected"]["window_change"][0].as_f64().unwrap();
+    let got = trend["window_change"]["estimate"].as_f64().unwrap();
+    assert!((got - want).abs() < 1e-5 * want.abs(), "{got} vs statsmodels {want}");
+    assert_eq!(trend["criterion_a"]["a2_to_a4_band"], "Endangered");
+    let text = String::from_utf8_lossy(&wrackline(dir.path(), &args).stdout).into_owned();
+    assert!(text.contains("fitted on 2014–2024"), "{text}");
+    assert!(text.contains("(before the window: not fitted)"), "{text}");
+}
+
+#[test]
+fn finds_in_one_year_are_refused_with_the_reason_in_words() {
+    let dir = tempfile::tempdir().unwrap();
+    let file = write(dir.path(), "one.csv", "year,count,effort\n2020,0,5\n2021,0,5\n2022,0,5\n2023,0,5\n2024,7,5\n");
+    let output = wrackline(dir.path(), &["trend", "--from", file.to_str().unwrap(), "--generation-length", "8"]);
+    assert!(!output.status.success());
+    let message = String::from_utf8_lossy(&output.stderr);
+    assert!(message.contains("all 7 animals in 2020–2024 were found in one year (2024)"), "{message}");
+    assert!(!message.contains("linear combination"), "{message}");
+}
+
+#[test]
+fn three_years_are_not_stretched_over_a_24_year_window() {
+    let dir = tempfile::tempdir().unwrap();
+    // Before: +71,728,862,701% "over 24 years" and a band taken from the point estimate.
+    let file = write(dir.path(), "three.csv", "year,count,effort\n2022,1,1\n2023,3,1\n2024,20,1\n");
+    let args = ["trend", "--from", file.to_str().unwrap(), "--generation-length", "8"];
+    let report = json_of(&wrackline(dir.path(), &[&args[..], &["--json"]].concat()));
+    assert_eq!(report["trend"]["window_change"], Value::Null);
+    assert_eq!(report["trend"]["criterion_a"]["a2_to_a4_band"], Value::Null);
+    let text = String::from_utf8_lossy(&wrackline(dir.path(), &args).stdout).into_owned();
+    assert!(text.contains("does not carry a trend that far beyond its data"), "{text}");
+    assert!(!text.contains("71,728"), "{text}");
 }
 
 #[test]
@@ -302,9 +375,14 @@ async fn a_family_with_a_sensitive_species_keeps_its_places_for_reviewers() {
         let figures = &public["taxa"][0]["periods"][0]["figures"];
         assert!(figures["eoo_km2"].as_f64().unwrap() > 0.0, "{taxon}: the figures stay public");
         assert_eq!(figures["eoo"]["hull"], serde_json::json!([]), "{taxon}: the hull's corners are record positions");
+        assert_eq!(figures["eoo"]["projection_centre"], Value::Null, "{taxon}: the records' middle");
+        let period = &public["taxa"][0]["periods"][0];
+        assert_eq!(period["influential_places"], serde_json::json!([]), "{taxon}: places are record positions");
         assert_eq!(anonymous(format!("/api/range/map.svg?{query}")).await.unwrap().status(), 403, "{taxon}: the map");
         let reviewer: Value = app.get(&format!("/api/range?{query}")).await.json().await.unwrap();
-        assert_eq!(reviewer["taxa"][0]["periods"][0]["figures"]["eoo"]["hull"].as_array().unwrap().len(), 3, "{taxon}");
+        let period = &reviewer["taxa"][0]["periods"][0];
+        assert_eq!(period["figures"]["eoo"]["hull"].as_array().unwrap().len(), 3, "{taxon}");
+        assert_eq!(period["influential_places"].as_array().unwrap().len(), 3, "{taxon}: every corner, for reviewers");
     }
 }
 
@@ -333,40 +411,36 @@ fn range_from_records_across_the_antimeridian_centres_its_grid_on_them() {
     }
     let file = write(dir.path(), "pacific.csv", &csv);
     let from = file.to_str().unwrap();
-    let eoo_reference = set["eoo_km2"].as_f64().unwrap();
+    let expected = &set["expected"];
+    let eoo_reference = expected["eoo_km2"].as_f64().unwrap();
 
-    // The documented rule: far from 52° N 10° E, so centred on the records' mean rounded to 5°.
+    // The documented rule per taxon: far from 52° N 10° E, so centred on the records' mean
+    // rounded to 5° (range.json, the rule written again in numpy).
     let report = json_of(&wrackline(dir.path(), &["range", "--from", from, "--json"]));
-    assert_eq!(
-        report["grid"]["centre"],
-        serde_json::json!({"lat": set["rule_centre"][0], "lon": set["rule_centre"][1]}),
-        "{}",
-        report["grid_choice"]
-    );
-    assert!(
-        report["grid_choice"].as_str().unwrap().contains("these records lie more than 60° of arc"),
-        "{}",
-        report["grid_choice"]
-    );
+    assert_eq!(report["grid"], Value::Null, "a file's grids are chosen per taxon");
+    let zone = &expected["zones"][0];
+    let centre = &report["taxa"][0]["grids"][0]["centre"];
+    assert_eq!([centre["lat"].clone(), centre["lon"].clone()], [zone["centre"][0].clone(), zone["centre"][1].clone()]);
+    assert!(report["grid_choice"].as_str().unwrap().contains("chosen per taxon"), "{}", report["grid_choice"]);
     let figures = &report["taxa"][0]["periods"][0]["figures"];
-    // EOO: shapely hull + pyproj geodesic area in the [0, 360) frame (range.json).
+    // EOO: qhull's hull of the unit vectors measured by pyproj.Geod on WGS84 (range.json).
     assert!(
         (figures["eoo_km2"].as_f64().unwrap() - eoo_reference).abs() < 1e-6 * eoo_reference,
         "{}",
         figures["eoo_km2"]
     );
-    let (fixed, least) = fixed_and_least(&set["aoo_cells_by_shift_rule_grid"]);
+    let (fixed, least) = fixed_and_least(&zone["cells_by_shift"]);
     assert_eq!(
         (figures["aoo"]["occupied_cells"].as_u64(), figures["aoo"]["min_occupied_cells"].as_u64()),
         (Some(fixed), Some(least))
     );
     assert!(figures["method"].as_str().unwrap().contains("centred on -15°, 180°"), "{}", figures["method"]);
 
-    // A centre given on the command line, the one the reference counted cells on.
+    // A centre given on the command line: cells on it from pyproj laea + numpy (range.json).
     let given = json_of(&wrackline(dir.path(), &["range", "--from", from, "--grid-centre", "-17,179", "--json"]));
     assert_eq!(given["grid"]["centre"], serde_json::json!({"lat": -17.0, "lon": 179.0}));
     let figures = &given["taxa"][0]["periods"][0]["figures"];
-    let (fixed, least) = fixed_and_least(&set["aoo_cells_by_shift"]);
+    let (fixed, least) = fixed_and_least(&expected["cells_on_grid_at_-17_179"]);
     assert_eq!(
         (figures["aoo"]["occupied_cells"].as_u64(), figures["aoo"]["min_occupied_cells"].as_u64()),
         (Some(fixed), Some(least))
@@ -380,6 +454,82 @@ fn range_from_records_across_the_antimeridian_centres_its_grid_on_them() {
         "{}",
         String::from_utf8_lossy(&refused.stderr)
     );
+}
+
+#[test]
+fn one_far_away_record_stops_no_taxon_and_a_taxon_round_the_globe_gets_its_aoo() {
+    let dir = tempfile::tempdir().unwrap();
+    // A coast of thornback rays, one spurdog on the far side of the globe, and blue sharks
+    // round the world: before, the one grid for the whole file refused the far records and
+    // the run stopped for every taxon.
+    let mut csv = String::from("occurrenceID,scientificName,decimalLatitude,decimalLongitude,eventDate\n");
+    for i in 0..20 {
+        csv.push_str(&format!(
+            "ray-{i},Raja clavata,{},{},2020-06-01\n",
+            52.0 + 0.02 * f64::from(i),
+            -4.0 - 0.03 * f64::from(i)
+        ));
+    }
+    csv.push_str("dogfish-1,Squalus acanthias,-40.0,174.0,2021-03-01\n");
+    for (i, (lat, lon)) in
+        [(50, -5), (35, 140), (-34, 18), (-33, 151), (20, -157), (40, -70), (-23, -43)].iter().enumerate()
+    {
+        csv.push_str(&format!("blue-{i},Prionace glauca,{lat},{lon},2021-01-01\n"));
+    }
+    let file = write(dir.path(), "far.csv", &csv);
+    let report = json_of(&wrackline(dir.path(), &["range", "--from", file.to_str().unwrap(), "--json"]));
+    let taxon = |name: &str| report["taxa"].as_array().unwrap().iter().find(|t| t["taxon"] == name).unwrap().clone();
+    let rays = taxon("Raja clavata");
+    assert_eq!(
+        rays["grids"][0]["centre"],
+        serde_json::json!({"lat": 52.0, "lon": 10.0}),
+        "the regional set keeps the default grid"
+    );
+    assert!(rays["periods"][0]["figures"]["eoo_km2"].as_f64().unwrap() > 0.0);
+    let dogfish = taxon("Squalus acanthias");
+    assert_eq!(dogfish["periods"][0]["figures"]["aoo"]["area_km2"], 4.0, "one record, one cell, on a grid of its own");
+    let sharks = taxon("Prionace glauca");
+    let figures = &sharks["periods"][0]["figures"];
+    // Seven records more than 60° apart: each its own zone, one cell each (IUCN 2 × 2 km cells).
+    assert_eq!(figures["aoo"]["area_km2"], 28.0);
+    assert!(sharks["grids"].as_array().unwrap().len() >= 3, "{}", sharks["grids"]);
+    assert_eq!(figures["eoo_km2"], Value::Null, "no hemisphere holds them");
+    assert!(figures["eoo_problem"].as_str().unwrap().contains("do not lie within one hemisphere"));
+    let text = wrackline(dir.path(), &["range", "--from", file.to_str().unwrap()]);
+    assert!(text.status.success());
+    assert!(String::from_utf8_lossy(&text.stdout).contains("not given"), "{}", String::from_utf8_lossy(&text.stdout));
+}
+
+#[test]
+fn a_stray_record_is_listed_for_review_by_its_id_beside_the_figures() {
+    let dir = tempfile::tempdir().unwrap();
+    // Records along 200 km of coast and one with its longitude mistyped, far inland.
+    let mut csv = String::from("occurrenceID,scientificName,decimalLatitude,decimalLongitude,eventDate\n");
+    for i in 0..30 {
+        csv.push_str(&format!(
+            "coast-{i},Raja clavata,{},{},2020-06-01\n",
+            50.2 + 0.01 * f64::from(i % 5),
+            -5.5 + 0.1 * f64::from(i)
+        ));
+    }
+    csv.push_str("stray-1,Raja clavata,50.3,8.1,2020-06-02\n");
+    let file = write(dir.path(), "stray.csv", &csv);
+    let report = json_of(&wrackline(dir.path(), &["range", "--from", file.to_str().unwrap(), "--json"]));
+    let period = &report["taxa"][0]["periods"][0];
+    let outliers = period["outliers"].as_array().unwrap();
+    assert_eq!(outliers.len(), 1, "{outliers:?}");
+    assert_eq!(outliers[0]["records"], serde_json::json!(["stray-1"]));
+    // Great-circle distance on the mean Earth radius (6,371.0088 km) from (50.3, 8.1) to the
+    // nearest coast record: 759.85 km (the haversine formula in Python's math module).
+    let nearest = outliers[0]["nearest_km"].as_f64().unwrap();
+    assert!((nearest - 759.85).abs() < 0.01, "{nearest}");
+    let with = period["figures"]["eoo_km2"].as_f64().unwrap();
+    let without = period["eoo_km2_without_outliers"].as_f64().unwrap();
+    assert!(without < with / 2.0, "the stray record more than doubles the hull: {without} vs {with}");
+    let influential = period["influential_places"].as_array().unwrap();
+    assert_eq!(influential[0]["records"], serde_json::json!(["stray-1"]), "the stray record is checked first");
+    assert!(period["stability"]["text"].as_str().unwrap().contains("Resampling the records 200 times"));
+    assert!(period["location_guide"]["text"].as_str().unwrap().contains("guide only"));
 }
 
 #[tokio::test]
@@ -398,5 +548,11 @@ async fn stored_records_keep_the_fixed_grid_and_take_a_centre_over_http() {
     assert!(moved["taxa"][0]["periods"][0]["figures"]["method"].as_str().unwrap().contains("centred on 52.4°, -4.1°"));
     let refused = app.get("/api/range?grid_centre=95,0").await;
     assert_eq!(refused.status(), 422);
+    for bad in ["cluster_km=-3", "outlier_km=far"] {
+        let refused = app.get(&format!("/api/range?{bad}")).await;
+        assert_eq!(refused.status(), 422, "{bad}");
+        let body: Value = refused.json().await.unwrap();
+        assert!(body.to_string().contains("is not a distance between 0.001 and 20000 km"), "{body}");
+    }
     assert_eq!(refused.json::<Value>().await.unwrap()["field"], "grid_centre");
 }

@@ -79,7 +79,8 @@ async fn the_archive_reads_back_with_python_dwca_reader_and_uses_only_tdwg_terms
     assert_eq!(archive["rows"].as_array().unwrap().len(), 3, "one row per organism");
     // GBIF metadata profile: packageId, scope="system", system; title, creator, pubDate, abstract, contact.
     let eml = &archive["metadata"];
-    assert!(eml["packageId"].as_str().unwrap().starts_with("urn:uuid:"));
+    let (dataset, version) = package_parts(eml["packageId"].as_str().unwrap());
+    assert_eq!((dataset.len(), version.len()), (36, 16), "a UUID and 16 hex digits: {}", eml["packageId"]);
     assert_eq!(eml["scope"], "system");
     assert_eq!(eml["system"], "wrackline");
     for field in ["title", "creator", "pubDate", "abstract", "contact"] {
@@ -250,6 +251,41 @@ async fn observer_contacts_never_leave_the_server() {
         assert!(text.contains("Test Observer"), "{format}: the display name is there");
         assert!(!text.contains(contact), "{format}: the contact is not");
     }
+}
+
+/// The dataset UUID and the version of a packageId `<dataset>/<version>`.
+fn package_parts(package: &str) -> (String, String) {
+    let (dataset, version) = package.split_once('/').unwrap_or_else(|| panic!("packageId {package}"));
+    assert!(uuid::Uuid::parse_str(dataset).is_ok(), "{dataset}");
+    assert!(version.chars().all(|c| c.is_ascii_hexdigit()), "{version}");
+    (dataset.to_owned(), version.to_owned())
+}
+
+/// The packageId of an archive's eml.xml, read with python-dwca-reader.
+async fn package_of(app: &TestApp, query: &str, dir: &Path, name: &str) -> (String, String) {
+    let zip = download(app, query, dir, name).await;
+    let archive = run_script("read_dwca.py", &[&zip, &terms_extract()]);
+    package_parts(archive["metadata"]["packageId"].as_str().unwrap())
+}
+
+#[tokio::test]
+async fn a_dataset_keeps_its_package_id_and_changes_its_version_only_with_its_data() {
+    // EML 2.1.1 packageId (GBIF metadata profile: required): the same dataset exported twice
+    // has the same id; a new record changes the version and not the dataset; another filter
+    // is another dataset.
+    let app = app_with_records().await;
+    let dir = tempfile::tempdir().unwrap();
+    let first = package_of(&app, "format=dwca&state=any", dir.path(), "a.zip").await;
+    let again = package_of(&app, "format=dwca&state=any", dir.path(), "b.zip").await;
+    assert_eq!(first, again, "nothing changed, nothing new");
+    let mut more = submission("1b2c3d4e-0000-4000-8000-00000000a0a1");
+    more["position"]["latitude"] = json!(52.2);
+    assert_eq!(app.submit(&more, &[]).await.status, 200);
+    let after = package_of(&app, "format=dwca&state=any", dir.path(), "c.zip").await;
+    assert_eq!(after.0, first.0, "the same dataset");
+    assert_ne!(after.1, first.1, "its data changed, so its version did");
+    let other = package_of(&app, "format=dwca&state=any&taxon=Scyliorhinus%20canicula", dir.path(), "d.zip").await;
+    assert_ne!(other.0, first.0, "another filter is another dataset");
 }
 
 fn unzip_all(bytes: &[u8]) -> String {

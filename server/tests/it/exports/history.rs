@@ -86,6 +86,10 @@ async fn a_confirmation_is_in_the_occurrence_and_every_identification_in_the_his
     assert_eq!((field(guess, "scientificName"), field(guess, "taxonRank")), ("Scyliorhinus canicula", "species"));
     assert_eq!(field(guess, "identifiedBy"), "Test Observer");
     assert!(field(guess, "identificationRemarks").contains("as typed: small-spotted catshark"));
+    // TDWG Darwin Core dateIdentified (ISO 8601): the observer named it when they made the
+    // record, the submission's 2025-06-01T14:10:00+01:00 as an instant in UTC; not the
+    // moment the server received it (regression: it was the receipt time).
+    assert_eq!(field(guess, "dateIdentified"), "2025-06-01T13:10:00.000Z");
     let current = history
         .iter()
         .find(|h| field(h, "identificationVerificationStatus") == "confirmed")
@@ -103,6 +107,28 @@ async fn a_confirmation_is_in_the_occurrence_and_every_identification_in_the_his
     );
     let everything = unzip_all(&std::fs::read(&zip).unwrap());
     assert!(!everything.contains(REVIEWER_CONTACT), "a reviewer's contact never leaves the server");
+}
+
+#[tokio::test]
+async fn observer_identifications_stored_with_their_receipt_time_are_redated_by_the_migration() {
+    let app = spawn_app().await;
+    assert_eq!(app.submit(&submission(RECORD), &[]).await.status, 200);
+    let database = app.data_dir.join("wrackline.sqlite3");
+    let stored = |conn: &rusqlite::Connection| -> String {
+        conn.query_row("SELECT identified_at FROM identifications WHERE basis = 'observer guess'", [], |r| r.get(0))
+            .unwrap()
+    };
+    {
+        // As a server before migrations 0013 and 0014 left it: the receipt time stored.
+        let conn = rusqlite::Connection::open(&database).unwrap();
+        conn.execute("UPDATE identifications SET identified_at = '2025-06-09T08:00:00.000Z'", []).unwrap();
+        conn.execute("DROP TABLE deployment", []).unwrap();
+        conn.pragma_update(None, "user_version", 12).unwrap();
+    }
+    let checklist = wrackline_server::taxa::load_checklist(None).unwrap();
+    wrackline_server::state::AppState::open(&app.data_dir, None, checklist).expect("migrations run on opening");
+    let conn = rusqlite::Connection::open(&database).unwrap();
+    assert_eq!(stored(&conn), "2025-06-01T13:10:00.000Z", "the submission's time, 14:10+01:00 in UTC");
 }
 
 #[tokio::test]
