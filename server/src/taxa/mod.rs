@@ -2,16 +2,26 @@
 //!
 //! A record's identification (`identifications.taxon_name`) is an observer's free-text
 //! guess, a pick of the guided key or a reviewer's decision, at species or a higher rank.
-//! A name matches a checklist species when it equals its scientific name or one of its
-//! common names, ignoring case and surrounding space, and a higher taxon when it equals a
-//! genus, family, order or superorder the checklist's species are placed in. A higher
-//! taxon stands for its member species: it is as sensitive as the strictest of them and
-//! protected if any is ([`NamedTaxon`]), so stopping the key at a genus never publishes
-//! what the species would hide. A name that matches nothing is kept as written and
-//! reported as unmatched; it is never guessed at. Files from elsewhere carry
-//! `scientificName`, matched the same way.
+//! [`TaxonIndex::resolution`] reads it in three steps, and says which one matched:
+//!
+//! 1. the whole text is one of a checklist entry's names — scientific, common, synonym
+//!    or local — or a genus, family, order or superorder its species are placed in,
+//!    compared after folding ([`names`]: case, spacing, hyphens, punctuation, accents,
+//!    compatibility forms);
+//! 2. the same after setting aside qualifiers ("cf.", "sp.", "spp.", "possibly", a
+//!    question mark) and a scientific name's authorship ("(Linnaeus, 1758)");
+//! 3. otherwise the name is **not resolved**: the checklist names found inside it, and the
+//!    words not understood, are reported for the reviewer, and nothing is guessed.
+//!
+//! A higher taxon stands for its member species: it is as sensitive as the strictest of
+//! them and protected if any is ([`NamedTaxon`]), so stopping the key at a genus never
+//! publishes what the species would hide. A name several entries share (the demo's
+//! "common skate") stands for the smallest group holding them all. What a name that is
+//! not resolved may publish is decided in `protect`, which fails closed.
 
-use std::collections::HashMap;
+pub mod names;
+
+use std::collections::{BTreeSet, HashMap};
 use std::path::Path;
 
 use species_key::{Checklist, Sensitivity, Taxon, TaxonRank};
@@ -26,7 +36,7 @@ pub enum ChecklistLoadError {
 }
 
 /// The demo checklist, built in; `--checklist FILE` replaces it.
-pub const DEMO_CHECKLIST: &str = include_str!("../../demo-records/checklist.json");
+pub const DEMO_CHECKLIST: &str = include_str!("../../../demo-records/checklist.json");
 
 /// Reads and checks a checklist file, or the built-in demo checklist when `path` is `None`.
 pub fn load_checklist(path: Option<&Path>) -> Result<Checklist, ChecklistLoadError> {
@@ -38,18 +48,6 @@ pub fn load_checklist(path: Option<&Path>) -> Result<Checklist, ChecklistLoadErr
     let text =
         std::fs::read_to_string(path).map_err(|source| ChecklistLoadError::Read { path: shown.clone(), source })?;
     Checklist::from_json(&text).map_err(|source| ChecklistLoadError::Invalid { path: shown, source })
-}
-
-/// A checklist with a case-insensitive index of every scientific and common name, and of
-/// every higher taxon its species are placed in.
-#[derive(Debug, Clone)]
-pub struct TaxonIndex {
-    checklist: Checklist,
-    /// Species entries by every name.
-    by_name: HashMap<String, usize>,
-    /// Every species and higher taxon by every name, into `named`.
-    by_any_name: HashMap<String, usize>,
-    named: Vec<NamedTaxon>,
 }
 
 /// A checklist taxon at any rank, with what its member species share.
@@ -67,22 +65,6 @@ pub struct NamedTaxon {
 }
 
 impl NamedTaxon {
-    /// The taxon `name` stands for in `checklist`: a species by a scientific or common
-    /// name, else a genus, family, order or superorder of its species. Works on the bare
-    /// checklist (the review queue uses it); [`TaxonIndex::named`] is the indexed form.
-    pub fn find(checklist: &Checklist, name: &str) -> Option<Self> {
-        let wanted = fold(name);
-        let taxa = checklist.taxa();
-        if let Some(index) = taxa
-            .iter()
-            .position(|t| fold(&t.scientific_name) == wanted)
-            .or_else(|| taxa.iter().position(|t| t.common_names.iter().any(|c| fold(c) == wanted)))
-        {
-            return Some(Self::species(taxa, index));
-        }
-        HIGHER_RANKS.into_iter().find_map(|rank| Self::higher(taxa, rank, &wanted))
-    }
-
     fn species(taxa: &[Taxon], index: usize) -> Self {
         let taxon = &taxa[index];
         Self {
@@ -94,18 +76,14 @@ impl NamedTaxon {
         }
     }
 
-    /// The taxon at `rank` whose folded name is `wanted`, with its member species.
-    fn higher(taxa: &[Taxon], rank: TaxonRank, wanted: &str) -> Option<Self> {
-        let members: Vec<usize> = (0..taxa.len()).filter(|&i| fold(taxa[i].name_at(rank)) == wanted).collect();
+    /// The taxon at `rank` called `name` (as the checklist writes it), with its member species.
+    fn higher(taxa: &[Taxon], rank: TaxonRank, name: &str) -> Option<Self> {
+        let members: Vec<usize> = (0..taxa.len()).filter(|&i| taxa[i].name_at(rank) == name).collect();
         let first = &taxa[*members.first()?];
         Some(Self {
             scientific_name: first.name_at(rank).to_owned(),
             rank,
-            sensitivity: members
-                .iter()
-                .map(|&i| taxa[i].sensitivity)
-                .max_by_key(|s| strictness(*s))
-                .unwrap_or(Sensitivity::None),
+            sensitivity: members.iter().map(|&i| taxa[i].sensitivity).fold(Sensitivity::None, stricter),
             protected: members.iter().any(|&i| taxa[i].protected),
             members,
         })
@@ -136,6 +114,122 @@ pub fn stricter(a: Sensitivity, b: Sensitivity) -> Sensitivity {
     if strictness(b) > strictness(a) { b } else { a }
 }
 
+/// Which of a taxon's names a text matched.
+#[derive(Debug, Clone, PartialEq, Eq)]
+pub enum NameKind {
+    Scientific,
+    Common,
+    /// A scientific name the species was known by.
+    Synonym,
+    /// A local name, with its language tag.
+    Local(String),
+    /// The name of a genus, family, order or superorder.
+    Higher,
+    /// A name several entries share: it stands for their smallest common group.
+    Shared,
+}
+
+impl NameKind {
+    fn words(&self) -> String {
+        match self {
+            Self::Scientific => "its scientific name".into(),
+            Self::Common => "a common name".into(),
+            Self::Synonym => "a synonym".into(),
+            Self::Local(language) => format!("a local name ({language})"),
+            Self::Higher => "the name of a higher taxon".into(),
+            Self::Shared => "a name several species share, so it stands for their group".into(),
+        }
+    }
+}
+
+/// One name in the index: the taxon it stands for and how.
+#[derive(Debug, Clone)]
+struct Entry {
+    /// Into `TaxonIndex::named`.
+    target: usize,
+    /// The name as the checklist writes it.
+    name: String,
+    kind: NameKind,
+}
+
+/// What was set aside to make a name match.
+#[derive(Debug, Clone, Default, PartialEq, Eq)]
+pub struct SetAside {
+    /// Case, spacing, hyphens, punctuation or accents differed from the checklist's name.
+    pub spelling: bool,
+    /// Qualifiers left out ("cf", "sp"…).
+    pub qualifiers: Vec<String>,
+    /// A scientific name's authorship, as written.
+    pub authority: Option<String>,
+}
+
+/// How a typed name was read.
+#[derive(Debug, Clone, PartialEq)]
+pub enum Resolution<'a> {
+    /// The name is a checklist taxon.
+    Resolved {
+        taxon: &'a NamedTaxon,
+        /// The checklist's name it matched, and which kind of name that is.
+        matched: &'a str,
+        kind: NameKind,
+        set_aside: SetAside,
+    },
+    /// The name is not a checklist taxon. `found` are checklist taxa named inside it,
+    /// `unread` the words that are not; the caller must not treat it as any of them.
+    NotResolved { found: Vec<&'a NamedTaxon>, unread: Vec<String> },
+}
+
+impl<'a> Resolution<'a> {
+    /// The taxon, when the name resolved.
+    pub fn taxon(&self) -> Option<&'a NamedTaxon> {
+        match self {
+            Self::Resolved { taxon, .. } => Some(taxon),
+            Self::NotResolved { .. } => None,
+        }
+    }
+
+    /// The resolution in words, for reviewers: what the name was read as, and how.
+    pub fn describe(&self) -> String {
+        match self {
+            Self::Resolved { taxon, matched, kind, set_aside } => {
+                let mut how = vec![format!("matched {} \u{201c}{matched}\u{201d}", kind.words())];
+                if set_aside.spelling {
+                    how.push("ignoring case, spaces, hyphens, punctuation and accents".into());
+                }
+                if !set_aside.qualifiers.is_empty() {
+                    how.push(format!("setting aside {}", set_aside.qualifiers.join(", ")));
+                }
+                if let Some(authority) = &set_aside.authority {
+                    how.push(format!("setting aside the authorship \u{201c}{authority}\u{201d}"));
+                }
+                format!("{} ({}): {}", taxon.scientific_name, rank_word(taxon.rank), how.join("; "))
+            }
+            Self::NotResolved { found, unread } => {
+                let mut text = "not resolved to a checklist taxon".to_owned();
+                if !found.is_empty() {
+                    let names: Vec<&str> = found.iter().map(|t| t.scientific_name.as_str()).collect();
+                    text.push_str(&format!("; it names {}", names.join(", ")));
+                }
+                if !unread.is_empty() {
+                    text.push_str(&format!("; not understood: {}", unread.join(" ")));
+                }
+                text
+            }
+        }
+    }
+}
+
+/// A rank in words.
+pub fn rank_word(rank: TaxonRank) -> &'static str {
+    match rank {
+        TaxonRank::Species => "species",
+        TaxonRank::Genus => "genus",
+        TaxonRank::Family => "family",
+        TaxonRank::Order => "order",
+        TaxonRank::Superorder => "superorder",
+    }
+}
+
 /// The taxa a filter such as `Rajidae` or `Raja clavata` stands for.
 #[derive(Debug, Clone, PartialEq)]
 pub struct TaxonFilter {
@@ -145,64 +239,179 @@ pub struct TaxonFilter {
     pub rank: TaxonRank,
 }
 
+/// A checklist with every name of its entries and of the higher taxa they are placed in,
+/// indexed by key ([`names::key`]).
+#[derive(Debug, Clone)]
+pub struct TaxonIndex {
+    checklist: Checklist,
+    by_key: HashMap<String, Entry>,
+    /// Species first, in checklist order (so a species' position is its index), then
+    /// higher taxa as they were first needed.
+    named: Vec<NamedTaxon>,
+    /// The strictest sensitivity of any species on the checklist.
+    strictest: Sensitivity,
+}
+
 impl TaxonIndex {
     /// A checklist file, or the built-in demo checklist when `path` is `None`.
     pub fn load(path: Option<&Path>) -> Result<Self, ChecklistLoadError> {
         load_checklist(path).map(Self::new)
     }
 
-    /// Indexes every scientific and common name of `checklist`, and every higher taxon.
+    /// Indexes every name of `checklist`'s entries and every higher taxon.
     pub fn new(checklist: Checklist) -> Self {
-        let mut by_name = HashMap::new();
-        let mut by_any_name = HashMap::new();
-        let mut named = Vec::new();
         let taxa = checklist.taxa();
-        for (index, taxon) in taxa.iter().enumerate() {
-            named.push(NamedTaxon::species(taxa, index));
-            by_name.entry(fold(&taxon.scientific_name)).or_insert(index);
-            by_any_name.entry(fold(&taxon.scientific_name)).or_insert(named.len() - 1);
-            for common in &taxon.common_names {
-                // A common name shared by two entries (e.g. "common skate (complex)") keeps
-                // its first entry; the scientific names stay unambiguous.
-                by_name.entry(fold(common)).or_insert(index);
-                by_any_name.entry(fold(common)).or_insert(named.len() - 1);
+        let mut named: Vec<NamedTaxon> = (0..taxa.len()).map(|i| NamedTaxon::species(taxa, i)).collect();
+        let mut higher_at: HashMap<(TaxonRank, String), usize> = HashMap::new();
+        let mut higher = |rank: TaxonRank, name: &str, named: &mut Vec<NamedTaxon>| -> Option<usize> {
+            if let Some(&index) = higher_at.get(&(rank, name.to_owned())) {
+                return Some(index);
             }
-        }
-        for rank in HIGHER_RANKS {
-            for taxon in taxa {
-                let key = fold(taxon.name_at(rank));
-                if !by_any_name.contains_key(&key)
-                    && let Some(higher) = NamedTaxon::higher(taxa, rank, &key)
-                {
-                    named.push(higher);
-                    by_any_name.insert(key, named.len() - 1);
+            named.push(NamedTaxon::higher(taxa, rank, name)?);
+            higher_at.insert((rank, name.to_owned()), named.len() - 1);
+            Some(named.len() - 1)
+        };
+        // Every species-level name, by key, with the species that carry it.
+        let mut species_names: HashMap<String, Vec<(usize, String, NameKind)>> = HashMap::new();
+        for (index, taxon) in taxa.iter().enumerate() {
+            let kinds = std::iter::once((taxon.scientific_name.clone(), NameKind::Scientific))
+                .chain(taxon.common_names.iter().map(|n| (n.clone(), NameKind::Common)))
+                .chain(taxon.synonyms.iter().map(|s| (s.name.clone(), NameKind::Synonym)))
+                .chain(taxon.local_names.iter().map(|l| (l.name.clone(), NameKind::Local(l.language.clone()))));
+            for (name, kind) in kinds {
+                let key = names::key(&name);
+                if !key.is_empty() {
+                    species_names.entry(key).or_default().push((index, name, kind));
                 }
             }
         }
-        Self { checklist, by_name, by_any_name, named }
+        let mut by_key = HashMap::new();
+        for (key, carriers) in species_names {
+            let species: BTreeSet<usize> = carriers.iter().map(|(i, _, _)| *i).collect();
+            let (_, name, kind) = carriers.into_iter().next().expect("a key has a carrier");
+            let entry = if species.len() == 1 {
+                Entry { target: *species.first().expect("one species"), name, kind }
+            } else {
+                // A shared name stands for the smallest group holding every species that carries it.
+                let Some((rank, group)) = smallest_group(taxa, &species) else { continue };
+                let Some(target) = higher(rank, &group, &mut named) else { continue };
+                Entry { target, name, kind: NameKind::Shared }
+            };
+            by_key.insert(key, entry);
+        }
+        for rank in HIGHER_RANKS {
+            for taxon in taxa {
+                let name = taxon.name_at(rank);
+                let key = names::key(name);
+                if key.is_empty() || by_key.contains_key(&key) {
+                    continue;
+                }
+                if let Some(target) = higher(rank, name, &mut named) {
+                    by_key.insert(key, Entry { target, name: name.to_owned(), kind: NameKind::Higher });
+                }
+            }
+        }
+        let strictest = taxa.iter().map(|t| t.sensitivity).fold(Sensitivity::None, stricter);
+        Self { checklist, by_key, named, strictest }
     }
 
-    /// The species a name stands for, if the checklist lists it.
-    pub fn resolve(&self, name: &str) -> Option<&Taxon> {
-        self.by_name.get(&fold(name)).map(|&index| &self.checklist.taxa()[index])
+    fn entry(&self, key: &str) -> Option<(&NamedTaxon, &Entry)> {
+        self.by_key.get(key).map(|entry| (&self.named[entry.target], entry))
     }
 
-    /// The taxon at any rank a name stands for: a species (scientific or common name) or a
-    /// genus, family, order or superorder of the checklist's species.
+    /// How `text` reads against the checklist (see the module's doc for the steps).
+    pub fn resolution(&self, text: &str) -> Resolution<'_> {
+        let words = names::words(text);
+        if let Some(found) = self.entry(&names::key_of(&words)) {
+            let spelling = !found.1.name.to_lowercase().eq(&text.trim().to_lowercase());
+            return resolved(found, SetAside { spelling, ..SetAside::default() });
+        }
+        let (kept, qualifiers) = names::without_qualifiers(&words);
+        let mut qualifiers: Vec<String> = qualifiers.into_iter().map(|q| format!("\u{201c}{q}\u{201d}")).collect();
+        if text.contains('?') {
+            qualifiers.push("a question mark".into());
+        }
+        if let Some(found) = self.entry(&names::key_of(&kept)) {
+            return resolved(found, SetAside { spelling: true, qualifiers, authority: None });
+        }
+        if let Some((name, authority)) = names::split_authority(text) {
+            let (kept, _) = names::without_qualifiers(&names::words(name));
+            if let Some(found) = self.entry(&names::key_of(&kept)) {
+                let set_aside = SetAside { spelling: true, qualifiers, authority: Some(authority.to_owned()) };
+                return resolved(found, set_aside);
+            }
+        }
+        self.not_resolved(&kept)
+    }
+
+    /// The checklist taxa named inside `words` (longest first, left to right) and the
+    /// words that name none.
+    fn not_resolved(&self, words: &[String]) -> Resolution<'_> {
+        let mut found: Vec<&NamedTaxon> = Vec::new();
+        let mut unread = Vec::new();
+        let mut start = 0;
+        while start < words.len() {
+            let longest = (start + 1..=words.len())
+                .rev()
+                .find_map(|end| self.entry(&names::key_of(&words[start..end])).map(|(taxon, _)| (end, taxon)));
+            match longest {
+                Some((end, taxon)) => {
+                    if !found.contains(&taxon) {
+                        found.push(taxon);
+                    }
+                    start = end;
+                }
+                None => {
+                    unread.push(words[start].clone());
+                    start += 1;
+                }
+            }
+        }
+        Resolution::NotResolved { found, unread }
+    }
+
+    /// The taxon at any rank a name stands for, when it resolves.
     pub fn named(&self, name: &str) -> Option<&NamedTaxon> {
-        self.by_any_name.get(&fold(name)).map(|&index| &self.named[index])
+        self.resolution(name).taxon()
     }
 
-    /// Reads a taxon filter: a species (scientific or common name) or a higher taxon
-    /// (genus, family, order or superorder) named in the checklist.
+    /// The checklist entry a name stands for, when it resolves to one species.
+    pub fn resolve(&self, name: &str) -> Option<&Taxon> {
+        let taxon = self.named(name)?;
+        match taxon.members.as_slice() {
+            [one] if taxon.rank == TaxonRank::Species => self.checklist.taxa().get(*one),
+            _ => None,
+        }
+    }
+
+    /// Reads a taxon filter: any name that resolves, at any rank.
     pub fn filter(&self, name: &str) -> Option<TaxonFilter> {
         self.named(name).map(|t| TaxonFilter { name: t.scientific_name.clone(), rank: t.rank })
+    }
+
+    /// The strictest sensitivity any species on the checklist has.
+    pub fn strictest_sensitivity(&self) -> Sensitivity {
+        self.strictest
     }
 
     /// The checklist itself.
     pub fn checklist(&self) -> &Checklist {
         &self.checklist
     }
+}
+
+/// A name that matched `entry` of `taxon`, with what was set aside.
+fn resolved<'a>((taxon, entry): (&'a NamedTaxon, &'a Entry), set_aside: SetAside) -> Resolution<'a> {
+    Resolution::Resolved { taxon, matched: entry.name.as_str(), kind: entry.kind.clone(), set_aside }
+}
+
+/// The most specific rank at which every species in `members` shares one taxon, and its name.
+fn smallest_group(taxa: &[Taxon], members: &BTreeSet<usize>) -> Option<(TaxonRank, String)> {
+    HIGHER_RANKS.into_iter().find_map(|rank| {
+        let mut names = members.iter().map(|&i| taxa[i].name_at(rank));
+        let first = names.next()?;
+        names.all(|n| n == first).then(|| (rank, first.to_owned()))
+    })
 }
 
 impl TaxonFilter {
@@ -218,63 +427,5 @@ impl TaxonFilter {
     }
 }
 
-fn fold(name: &str) -> String {
-    name.trim().to_lowercase()
-}
-
 #[cfg(test)]
-mod tests {
-    use super::*;
-
-    #[test]
-    fn common_and_scientific_names_match_whatever_their_case() {
-        let index = TaxonIndex::load(None).unwrap();
-        assert_eq!(index.resolve("Thornback Ray").unwrap().scientific_name, "Raja clavata");
-        assert_eq!(index.resolve("  raja CLAVATA ").unwrap().scientific_name, "Raja clavata");
-        assert!(index.resolve("thornback").is_none());
-    }
-
-    #[test]
-    fn a_higher_taxon_is_as_sensitive_as_its_strictest_species() {
-        let index = TaxonIndex::load(None).unwrap();
-        // Demo checklist: both Dipturus species are tenthDegree and protected; Rajidae
-        // mixes them with Raja species that are neither; Scyliorhinus has neither.
-        let dipturus = index.named("dipturus").unwrap();
-        assert_eq!((dipturus.scientific_name.as_str(), dipturus.rank), ("Dipturus", TaxonRank::Genus));
-        assert_eq!((dipturus.sensitivity, dipturus.protected), (Sensitivity::TenthDegree, true));
-        let rajidae = index.named("Rajidae").unwrap();
-        assert_eq!(
-            (rajidae.rank, rajidae.sensitivity, rajidae.protected),
-            (TaxonRank::Family, Sensitivity::TenthDegree, true)
-        );
-        assert!(rajidae.members(index.checklist()).all(|t| t.superorder == "Batoidea"));
-        let catsharks = index.named("Scyliorhinus").unwrap();
-        assert_eq!((catsharks.sensitivity, catsharks.protected), (Sensitivity::None, false));
-        assert_eq!(index.named("tope").unwrap().rank, TaxonRank::Species);
-        assert_eq!(NamedTaxon::find(index.checklist(), "rajidae").as_ref(), Some(rajidae), "the bare checklist agrees");
-        assert!(index.named("Felidae").is_none());
-    }
-
-    #[test]
-    fn a_filter_takes_in_identifications_at_or_below_its_rank() {
-        let index = TaxonIndex::load(None).unwrap();
-        let rajidae = index.filter("Rajidae").unwrap();
-        assert!(rajidae.contains_named(index.named("Dipturus").unwrap(), index.checklist()));
-        assert!(rajidae.contains_named(index.named("Rajidae").unwrap(), index.checklist()));
-        let thornback = index.filter("Raja clavata").unwrap();
-        assert!(
-            !thornback.contains_named(index.named("Raja").unwrap(), index.checklist()),
-            "a genus may be another species"
-        );
-        assert!(!rajidae.contains_named(index.named("Rajiformes").unwrap(), index.checklist()));
-    }
-
-    #[test]
-    fn a_family_filter_takes_in_its_species() {
-        let index = TaxonIndex::load(None).unwrap();
-        let filter = index.filter("rajidae").unwrap();
-        assert_eq!((filter.name.as_str(), filter.rank), ("Rajidae", TaxonRank::Family));
-        assert!(filter.contains(index.resolve("blonde ray").unwrap()));
-        assert!(!filter.contains(index.resolve("tope").unwrap()));
-    }
-}
+mod tests;
