@@ -134,7 +134,8 @@ fn serve(data_dir: &std::path::Path, args: ServeArgs, with_demo: bool) -> anyhow
 fn print_effort(data_dir: &std::path::Path, args: &EffortArgs) -> anyhow::Result<()> {
     let state = AppState::open(data_dir, None, crate::taxa::load_checklist(None)?)?;
     let walks = state.store.run_here(|conn| crate::store::walks::list_walks(conn))?;
-    let rows = crate::assess::effort::summarise(&walks, args.by);
+    // The operator's own command: every stretch named.
+    let rows = crate::assess::effort::summarise(&walks, args.by, &|_| false);
     if args.json {
         println!("{}", serde_json::to_string_pretty(&rows)?);
         return Ok(());

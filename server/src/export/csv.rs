@@ -1,11 +1,13 @@
 //! Records as CSV, one row per organism: the Darwin Core occurrence terms first (the same
 //! columns as the archive's occurrence file, TDWG Darwin Core term names), then columns
-//! with no Darwin Core term, with plain names of our own.
+//! with no Darwin Core term, with plain names of our own. Every value is made safe for
+//! spreadsheets ([`super::cells`]).
 
 use std::io::Write;
 
 use rusqlite::Connection;
 
+use super::cells::spreadsheet_safe;
 use super::terms::OCCURRENCE_TERMS;
 use super::{ExportError, ExportRequest, ExportSummary, each_occurrence};
 use crate::taxa::TaxonIndex;
@@ -34,7 +36,10 @@ pub fn write<W: Write>(
             length.map(|l| method(l.method).to_owned()).unwrap_or_default(),
             o.review_state.to_owned(),
         ];
-        writer.write_record(o.dwc.iter().chain(own.iter()))?;
+        for value in o.dwc.iter().chain(own.iter()) {
+            writer.write_field(spreadsheet_safe(value).as_bytes())?;
+        }
+        writer.write_record(None::<&[u8]>)?;
         Ok(())
     })?;
     writer.flush()?;

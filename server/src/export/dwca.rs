@@ -6,11 +6,14 @@
 //! absences) as its extension ([`super::events`]).
 //!
 //! Data files are tab-separated with one header line and no quoting; tabs and line
-//! breaks inside values become spaces. The zip is written as a stream (no seeking), so
+//! breaks inside values become spaces, and values are made safe for spreadsheets
+//! ([`super::cells`]). The zip is written as a stream (no seeking), so
 //! it can go straight to a file, to standard output or down an HTTP response.
 //! The records are read once: extension rows wait in temporary files until the core
 //! file is complete. What each walk found is read first, from every record made on it
 //! whatever the filters, so absences and generalised walks never depend on the filters.
+//! A walk passes the area filter by its published start, like a record by its published
+//! position.
 
 use std::collections::{HashMap, HashSet};
 use std::fs::File;
@@ -21,6 +24,7 @@ use rusqlite::Connection;
 use shared_types::WalkSubmission;
 use zip::write::SimpleFileOptions;
 
+use super::cells::spreadsheet_safe;
 use super::events::{self, Found};
 use super::terms::{
     DWC, EVENT_CORE, EVENT_IDENTIFICATION_EXTENSION, EVENT_MEASUREMENT_EXTENSION, IDENTIFICATION_EXTENSION,
@@ -28,7 +32,8 @@ use super::terms::{
 };
 use super::{ExportError, ExportRequest, ExportSummary, Occurrence, each_occurrence};
 use crate::export::csv::method;
-use crate::store::occurrences::{self, RowFilter};
+use crate::protect::{Audience, Publisher};
+use crate::store::occurrences::{self, ObserverRow, WalkFind};
 use crate::taxa::TaxonIndex;
 
 /// Deflate level 1: a third of the default's time for a slightly larger archive.
@@ -44,7 +49,8 @@ pub fn write<W: Write>(
     progress: &mut dyn FnMut(),
 ) -> Result<ExportSummary, ExportError> {
     let found = finds_on_walks(conn, names)?;
-    let walks = walks_in(conn, request, &found)?;
+    let publisher = Publisher::load(conn, names, request.audience)?;
+    let walks = walks_in(conn, request, &publisher, &found)?;
     if !walks.is_empty() {
         return write_with_events(conn, names, request, &walks, out, progress);
     }
@@ -124,9 +130,9 @@ impl Spool {
 /// What was found on each walk, from every record made on it (no filter applies).
 fn finds_on_walks(conn: &Connection, names: &TaxonIndex) -> Result<HashMap<String, Found>, ExportError> {
     let mut found: HashMap<String, Found> = HashMap::new();
-    occurrences::for_each_find_on_walks(conn, |walk, name| {
-        let named = name.and_then(|n| names.named(n));
-        found.entry(walk.to_owned()).or_default().add(named, names.checklist());
+    occurrences::for_each_find_on_walks(conn, |find: &WalkFind| {
+        let named = find.taxon_name.as_deref().and_then(|n| names.named(n));
+        found.entry(find.walk_client_id.clone()).or_default().add(named, names.checklist());
     })?;
     Ok(found)
 }
@@ -138,29 +144,35 @@ struct ExportedWalk {
     absences: Vec<Vec<String>>,
 }
 
-/// Whether a walk passes the request's date filter (by its start, UTC) and area filter
-/// (any fix of its track inside; a walk with no track has no place and falls outside).
-fn walk_passes(walk: &WalkSubmission, filter: &RowFilter) -> bool {
-    let start = walk.started_at.with_timezone(&Utc).format("%Y-%m-%dT%H:%M:%SZ").to_string();
-    filter.from_utc.as_ref().is_none_or(|from| start >= *from)
-        && filter.until_utc.as_ref().is_none_or(|until| start < *until)
-        && filter.bbox.is_none_or(|area| walk.track.iter().any(|p| area.contains(p.latitude.get(), p.longitude.get())))
+/// Whether a walk passes the request's date filter (by its start's UTC day) and area
+/// filter (its published start inside: for the public the rounded start, for a full
+/// export any fix of its track; a walk with no track has no place and falls outside).
+fn walk_passes(walk: &WalkSubmission, request: &ExportRequest, published_start: Option<(f64, f64)>) -> bool {
+    let day = walk.started_at.with_timezone(&Utc).date_naive();
+    let inside = |area: &super::filters::Area| match request.audience {
+        Audience::Public => published_start.is_some_and(|(lat, lon)| area.contains(lat, lon)),
+        Audience::Full => walk.track.iter().any(|p| area.contains(p.latitude.get(), p.longitude.get())),
+    };
+    request.days.touch(day, day) && request.bbox.as_ref().is_none_or(inside)
 }
 
 /// The walks that pass the request's filters, earliest first, with their event rows and absences.
 fn walks_in(
     conn: &Connection,
     request: &ExportRequest,
+    publisher: &Publisher,
     found: &HashMap<String, Found>,
 ) -> Result<Vec<ExportedWalk>, ExportError> {
     let mut walks = Vec::new();
-    crate::store::walks::for_each_walk(conn, |walk| {
-        if walk_passes(&walk, &request.filter) {
-            let client_id = walk.client_id.to_string();
+    crate::store::walks::for_each_walk(conn, |walk, observer: ObserverRow| {
+        let client_id = walk.client_id.to_string();
+        let sensitivity = publisher.walk_sensitivity(&client_id);
+        let event = events::walk_event(&walk, request.audience, sensitivity);
+        if walk_passes(&walk, request, event.start) {
             let walk_found = found.get(&client_id).copied().unwrap_or_default();
             walks.push(ExportedWalk {
-                event: events::walk_event(&walk, request.audience, walk_found),
-                absences: events::absences(&walk, walk_found),
+                event: event.row,
+                absences: events::absences(&walk, walk_found, &observer, request.audience),
                 client_id,
             });
         }
@@ -240,10 +252,11 @@ fn write_line<'a>(out: &mut impl Write, values: impl Iterator<Item = &'a str>) -
         }
         // Most values hold no tab or line break: copy them whole (char by char was a tenth
         // of an archive's CPU time).
+        let value = spreadsheet_safe(value);
         if value.bytes().any(|b| matches!(b, b'\t' | b'\n' | b'\r')) {
             line.extend(value.chars().map(|c| if matches!(c, '\t' | '\n' | '\r') { ' ' } else { c }));
         } else {
-            line.push_str(value);
+            line.push_str(&value);
         }
     }
     line.push('\n');
@@ -300,18 +313,26 @@ fn table_xml(element: &str, id_element: &str, table: &Table, id_is_first_term: b
 /// it: a sentence with a `ulink` to the legal code) and `methods` (how records are made,
 /// checked and generalised, and the occurrenceStatus vocabulary).
 fn eml_xml(summary: &ExportSummary, request: &ExportRequest) -> String {
+    let states = crate::assess::describe_states(&request.states);
     let audience = match request.audience {
-        super::Audience::Public => {
-            "Public export: sensitive species are generalised as Chapman 2020 (GBIF) recommends."
+        Audience::Public => format!(
+            "Public export of {states}. Public exports hold confirmed records unless another review state is asked \
+             for. A record is published where it was recorded only when a reviewer has confirmed it and its \
+             identification is a checklist taxon that is not sensitive; everything else is generalised as Chapman \
+             2020 (GBIF) recommends (see the methods). Observers are named only with their consent."
+        ),
+        Audience::Full => {
+            format!(
+                "Full export of {states} for assessors: positions and names as recorded. Do not publish it as it is."
+            )
         }
-        super::Audience::Full => "Full export for assessors: positions as recorded. Do not publish it as it is.",
     };
     let mut paragraphs = vec![
         "Sharks, rays, skates and chimaeras found stranded on beaches or landed by anglers and fishers, recorded by \
          citizen observers with wrackline. One occurrence per animal; lengths are in the MeasurementOrFact extension, \
          every identification (current and superseded) in the Identification extension."
             .to_owned(),
-        audience.to_owned(),
+        audience,
         "Stranding and landing records show where people look; they are inputs to an assessment, not a listing decision."
             .to_owned(),
     ];
@@ -365,7 +386,16 @@ const METHOD_STEPS: &[&str] = &[
      also says.",
     "Public exports generalise sensitive species as Chapman 2020 (GBIF) recommends (withheld, or rounded to 0.1, \
      0.01 or 0.001 degree with the uncertainty raised by the cell's diagonal), including the start and locality of \
-     a survey walk on which one was found; a taxon above species is treated as its most sensitive species.",
+     a survey walk on which one was found and every other find of that walk; a taxon above species is treated as \
+     its most sensitive species.",
+    "Public exports fail closed: a record not yet confirmed by a reviewer, or whose name does not resolve to a \
+     checklist taxon, may be of any species, so it is generalised as the strictest species on the checklist would \
+     be and never finer than 0.1 degree. A generalised record carries no photos, no free text and no observer, and \
+     its date only to the day. Area and date filters are applied to what is published.",
+    "Observers are named in recordedBy only when they agreed on their phone to be named in open data; otherwise a \
+     stable pseudonymous label (observer-followed by 12 hex digits of a random id) stands in. Reviewers' \
+     identifications are credited to \"wrackline reviewer\". Values that a spreadsheet would read as a formula \
+     start with an apostrophe.",
 ];
 
 fn escape(text: &str) -> String {

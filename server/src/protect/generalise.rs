@@ -23,7 +23,8 @@ pub struct PublicPlace {
     pub generalizations: Option<String>,
     /// What exists but is not shared (Darwin Core `informationWithheld`).
     pub withheld: Option<String>,
-    /// Whether photos and free-text remarks must be left out too (they can give the place away).
+    /// Whether photos and free text (remarks, names as typed) must be left out too: they
+    /// can give the place, or the species, away.
     pub hide_media_and_remarks: bool,
 }
 
@@ -39,17 +40,21 @@ pub fn as_recorded(position: Option<(f64, f64)>, uncertainty_m: Option<f64>) -> 
     }
 }
 
-/// The position to publish for a record of a species with `sensitivity`.
-pub fn public_place(position: Option<(f64, f64)>, uncertainty_m: Option<f64>, sensitivity: Sensitivity) -> PublicPlace {
+/// The position to publish at `sensitivity`; `why` says for what, in words ("a
+/// sensitive species"), for `dataGeneralizations` and `informationWithheld`.
+pub fn public_place(
+    position: Option<(f64, f64)>,
+    uncertainty_m: Option<f64>,
+    sensitivity: Sensitivity,
+    why: &str,
+) -> PublicPlace {
     if sensitivity.withholds_location() {
         return PublicPlace {
             position: None,
             decimals: 0,
             uncertainty_m: None,
-            generalizations: Some("Location withheld: sensitive species (Chapman 2020, GBIF).".into()),
-            withheld: Some(
-                "location, photos and remarks withheld for a sensitive species; assessors may ask the network".into(),
-            ),
+            generalizations: Some(format!("Location withheld for {why} (Chapman 2020, GBIF).")),
+            withheld: Some(format!("location, photos and free text withheld for {why}; assessors may ask the network")),
             hide_media_and_remarks: true,
         };
     }
@@ -65,13 +70,12 @@ pub fn public_place(position: Option<(f64, f64)>, uncertainty_m: Option<f64>, se
         decimals,
         uncertainty_m: Some(raised),
         generalizations: Some(format!(
-            "Coordinates rounded to the nearest {step} degree for a sensitive species (Chapman 2020, GBIF); \
+            "Coordinates rounded to the nearest {step} degree for {why} (Chapman 2020, GBIF); \
              coordinateUncertaintyInMeters raised by the cell diagonal, {diagonal:.0} m."
         )),
-        withheld: Some(
-            "precise location, photos and remarks withheld for a sensitive species; assessors may ask the network"
-                .into(),
-        ),
+        withheld: Some(format!(
+            "precise location, photos and free text withheld for {why}; assessors may ask the network"
+        )),
         hide_media_and_remarks: true,
     }
 }
@@ -117,7 +121,7 @@ mod tests {
             (Withhold, (52.4321, -4.0876), Some(8.0), None),
         ];
         for (category, recorded, uncertainty, published) in cases {
-            let place = public_place(Some(recorded), uncertainty, category);
+            let place = public_place(Some(recorded), uncertainty, category, "a sensitive species");
             assert_eq!(place.position, published, "{category:?} {recorded:?}");
             assert!(
                 place.generalizations.is_some() && place.withheld.is_some(),
@@ -149,9 +153,9 @@ mod tests {
 
     #[test]
     fn species_that_are_not_sensitive_keep_their_position() {
-        let place = public_place(Some((52.4321, -4.0876)), Some(8.0), Sensitivity::None);
+        let place = public_place(Some((52.4321, -4.0876)), Some(8.0), Sensitivity::None, "");
         assert_eq!(place, as_recorded(Some((52.4321, -4.0876)), Some(8.0)));
-        let no_position = public_place(None, None, Sensitivity::TenthDegree);
+        let no_position = public_place(None, None, Sensitivity::TenthDegree, "a sensitive species");
         assert_eq!(no_position.position, None);
     }
 }
