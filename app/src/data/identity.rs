@@ -5,9 +5,11 @@
 //! password is needed to start recording.
 //!
 //! Before the first sync the observer is asked, once and optionally, for a name and a
-//! contact ("About you"). The contact is only for reviewers with a question about a
-//! record: the server never publishes or exports it. Given later, or changed, it is
-//! sent with the next sync (`PUT /api/my/profile`).
+//! contact ("About you"), and whether their name may be published with their records in
+//! open data (default no: exports then carry an anonymous label instead). The contact is
+//! only for reviewers with a question about a record: the server never publishes or
+//! exports it. Given later, or changed, it is sent with the next sync
+//! (`PUT /api/my/profile`).
 
 use shared_types::{DeviceRequest, Text};
 
@@ -17,6 +19,8 @@ use crate::data::local;
 const TOKEN_KEY: &str = "wrackline.device-token";
 const OBSERVER_NAME_KEY: &str = "wrackline.observer-name";
 const CONTACT_KEY: &str = "wrackline.observer-contact";
+/// `yes` once the observer agreed to be named in open data; absent otherwise.
+const NAME_PUBLIC_KEY: &str = "wrackline.name-public";
 /// `unsent` (answered, not yet on the server), `sent`, or `skipped`; absent: not asked yet.
 const PROFILE_KEY: &str = "wrackline.about-you";
 
@@ -33,15 +37,21 @@ pub fn contact() -> String {
     local::get(CONTACT_KEY).unwrap_or_default()
 }
 
+/// Whether the observer agreed to have their name published with open data.
+pub fn name_public() -> bool {
+    local::get(NAME_PUBLIC_KEY).as_deref() == Some("yes")
+}
+
 /// Whether "About you" has been answered or skipped.
 pub fn profile_answered() -> bool {
     local::get(PROFILE_KEY).is_some()
 }
 
-/// Keeps the name and contact given in "About you", to send with the next sync.
-pub fn keep_profile(name: &str, contact: &str) {
+/// Keeps the name, contact and naming choice given in "About you", to send with the next sync.
+pub fn keep_profile(name: &str, contact: &str, name_public: bool) {
     remember_observer_name(name.trim());
     local::set(CONTACT_KEY, contact.trim());
+    local::set(NAME_PUBLIC_KEY, if name_public { "yes" } else { "no" });
     local::set(PROFILE_KEY, "unsent");
 }
 
@@ -51,13 +61,13 @@ pub fn skip_profile() {
 }
 
 /// What the observer chose to give, as the server takes it: blank answers left out.
-pub fn profile_request(name: &str, contact: &str) -> DeviceRequest {
+pub fn profile_request(name: &str, contact: &str, name_public: bool) -> DeviceRequest {
     let text = |value: &str| Text::parse(value.trim()).ok().filter(|t| !t.as_str().is_empty());
-    DeviceRequest { display_name: text(name), contact: text(contact) }
+    DeviceRequest { display_name: text(name), contact: text(contact), name_public }
 }
 
 fn profile() -> DeviceRequest {
-    profile_request(&observer_name(), &contact())
+    profile_request(&observer_name(), &contact(), name_public())
 }
 
 /// The identity, asking the server for one if this phone has none yet (with the name
@@ -100,12 +110,16 @@ mod tests {
 
     #[test]
     fn blank_answers_are_left_out_of_the_profile() {
-        let given = profile_request("  Sam Jones ", " sam@example.org ");
+        let given = profile_request("  Sam Jones ", " sam@example.org ", true);
         assert_eq!(given.display_name.as_ref().map(Text::as_str), Some("Sam Jones"));
         assert_eq!(given.contact.as_ref().map(Text::as_str), Some("sam@example.org"));
-        let nothing = profile_request("   ", "");
-        assert_eq!((nothing.display_name, nothing.contact), (None, None));
-        // The server reads a blank profile as no profile (`POST /api/devices`).
-        assert_eq!(serde_json::to_string(&profile_request("", "")).unwrap(), r#"{"display_name":null,"contact":null}"#);
+        assert!(given.name_public);
+        let nothing = profile_request("   ", "", false);
+        assert_eq!((nothing.display_name, nothing.contact, nothing.name_public), (None, None, false));
+        // The server reads a blank profile as no profile (`POST /api/devices`), and no consent as no.
+        assert_eq!(
+            serde_json::to_string(&profile_request("", "", false)).unwrap(),
+            r#"{"display_name":null,"contact":null,"name_public":false}"#
+        );
     }
 }
