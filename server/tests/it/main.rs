@@ -3,6 +3,7 @@
 
 mod access;
 mod assess_cli;
+mod attacker;
 mod cli;
 mod decode_gate;
 mod derivatives;
@@ -10,6 +11,7 @@ mod duplicates;
 mod exif;
 mod exports;
 mod flags;
+mod hardening;
 mod helpers;
 mod hostile;
 mod key_priors;
