@@ -2,8 +2,9 @@
 //! the photos' own time and place (the file's EXIF, or the phone's reading of the
 //! original when the upload copy carries none), each photo's gap and distance from the
 //! record with its flags, all fields, the guided key's answers and its suggestions
-//! replayed on the server, flags, possible duplicates, identification history,
-//! messages and audit trail — and the decisions.
+//! replayed on the server, how the current name reads against the checklist and what the
+//! public sees of the place because of it, flags, possible duplicates, identification
+//! history, messages and audit trail — and the decisions.
 
 use leptos::prelude::*;
 use shared_types::{KeyReplay, PhotoExif, PhotoFlag, PhotoView, QueueFlag, ReviewDetail, distance_words, hours_words};
@@ -215,6 +216,11 @@ pub fn RecordReview(client_id: String, back: impl Fn() + Copy + 'static) -> impl
             view! {
                 <article id="record-review" data-state=d.record.review_state.code()>
                     <h3>{format!("{} · {}", sub.species_guess.as_ref().map(|g| g.as_str().to_owned()).unwrap_or_else(|| "unnamed".into()), d.record.review_state.label())}</h3>
+                    {d.name_reading.clone().map(|n| view! {
+                        <p id="name-reading" class=if n.resolved { "name-reading" } else { "name-reading unresolved" }>
+                            {format!("Name \u{201c}{}\u{201d} → {}. Public place: {}", n.typed, n.reading, n.public_place)}
+                        </p>
+                    })}
                     <div class="photos">{photos}</div>
                     <img class="place-map" src=format!("/api/review/records/{}/map.svg", sub.client_id) alt="map of where the record and its photos were made" />
                     <table class="when-where">
