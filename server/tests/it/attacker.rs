@@ -7,9 +7,11 @@
 //! The method: every record is sent to two servers. On the first ("real") each is where
 //! it was found. On the second ("twin") each record the public may not see exactly is
 //! stored where the public sees it instead: rounded to Chapman 2020's 0.1° grid by this
-//! file's own rounding, or with no position where it is withheld. Every public request
-//! goes to both, and the answers must be the same (only times that differ between two
-//! servers are left out of the comparison). So every public answer depends on the
+//! file's own rounding, or with no position where it is withheld; its notes and
+//! observer's name are other words, and the survey walk has another stretch name and
+//! its track lies elsewhere in the same 0.1° cell. Every public request goes to both,
+//! and the answers must be the same (only times that differ between two servers are
+//! left out of the comparison). So every public answer depends on the
 //! published places alone, and no sequence of public requests can narrow a record down
 //! below its published uncertainty. A bisection attack then shows it concretely: it
 //! homes in on the published place, not on where the animal was.
@@ -168,12 +170,16 @@ fn checklist(angelsharks_withheld: bool) -> species_key::Checklist {
 async fn server(angelsharks_withheld: bool, twin: bool) -> TestApp {
     let app = spawn_app_with_checklist(checklist(angelsharks_withheld)).await;
     let phone = app.new_device().await;
+    // The twin's walk lies 0.02° further west: another track, the same 0.1° cell for its
+    // start, the same length (a shift in longitude keeps every geodesic distance).
+    let shift = if twin { -0.02 } else { 0.0 };
     let walk = json!({
         "client_id": WALK, "started_at": "2025-06-02T08:00:00+01:00", "ended_at": "2025-06-02T09:30:00+01:00",
-        "stretch": "Secret Cove", "all_finds_reported": true, "typed_distance_m": null, "observer_name": "Walker",
+        "stretch": if twin { "Somewhere Else" } else { "Secret Cove" }, "all_finds_reported": true,
+        "typed_distance_m": null, "observer_name": "Walker",
         "track": [
-            {"latitude": 52.4980, "longitude": -4.0580, "accuracy_m": 5.0, "at": "2025-06-02T08:00:00+01:00"},
-            {"latitude": 52.5020, "longitude": -4.0550, "accuracy_m": 5.0, "at": "2025-06-02T09:30:00+01:00"}
+            {"latitude": 52.4980, "longitude": -4.0580 + shift, "accuracy_m": 5.0, "at": "2025-06-02T08:00:00+01:00"},
+            {"latitude": 52.5020, "longitude": -4.0550 + shift, "accuracy_m": 5.0, "at": "2025-06-02T09:30:00+01:00"}
         ]
     });
     assert_eq!(app.post_walk_as(&phone, &walk).await.status, 200);
@@ -182,7 +188,10 @@ async fn server(angelsharks_withheld: bool, twin: bool) -> TestApp {
         let mut record = submission(find.id);
         record["species_guess"] = json!(find.guess);
         record["observed_at"] = json!(format!("2025-06-0{}T1{}:10:00+01:00", 1 + n % 3, n % 10));
-        record["notes"] = json!(format!("by the {} rock", find.guess));
+        let hidden = twin && seen != Exact;
+        record["notes"] =
+            json!(if hidden { "nothing to see".to_owned() } else { format!("by the {} rock", find.guess) });
+        record["observer_name"] = json!(if hidden { "Someone Else" } else { "Test Observer" });
         let (lat, lon) = match (twin, seen) {
             (true, Rounded) => (to_tenth(find.at.0), to_tenth(find.at.1)),
             _ => find.at,
@@ -347,6 +356,14 @@ async fn probe_everything(real: &TestApp, twin: &TestApp) {
                 ask_both(real, twin, &format!("/api/export?format={format}&{window}&bbox=52.12,-4.66,52.13,-4.65"))
                     .await;
             }
+        }
+    }
+    // A small box around where each record really was, and around the walk's track.
+    let walk_track = (52.5, -4.0565);
+    for (lat, lon) in FINDS.iter().map(|f| f.at).chain([walk_track]) {
+        let bbox = format!("bbox={},{},{},{}", lat - 0.005, lon - 0.005, lat + 0.005, lon + 0.005);
+        for format in ["geojson", "dwca"] {
+            ask_both(real, twin, &format!("/api/export?format={format}&state=any&{bbox}")).await;
         }
     }
     // Every name variant as a taxon filter.

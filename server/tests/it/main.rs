@@ -5,6 +5,7 @@ mod access;
 mod assess_cli;
 mod attacker;
 mod cli;
+mod consent;
 mod decode_gate;
 mod derivatives;
 mod duplicates;
