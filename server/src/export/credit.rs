@@ -1,10 +1,12 @@
 //! Whom an export names. Observers are named (Darwin Core `recordedBy`, `identifiedBy`)
-//! only when they agreed, on their phone, to be named in open data; otherwise public
-//! exports give a pseudonymous label made from their random public id — stable, so a
-//! data user can tell one observer's records from another's, and never derived from
-//! anything that identifies them. Records from no known phone carry no label. Reviewers'
-//! identifications are credited to the network's reviewers, not to a person. Full
-//! exports, for reviewers and assessors, carry the names as given.
+//! only when they agreed, on their phone, to be named in open data, and then by the
+//! name they gave beside that choice (their profile's), not whatever was typed on a
+//! record; otherwise public exports give a pseudonymous label made from their random
+//! public id — stable, so a data user can tell one observer's records from another's,
+//! and never derived from anything that identifies them. Records from no known phone
+//! carry no label. Reviewers' identifications are credited to the network's reviewers,
+//! not to a person. Full exports, for reviewers and assessors, carry the names as given
+//! on the records.
 
 use crate::protect::Audience;
 use crate::store::occurrences::{IdentificationRow, ObserverRow};
@@ -18,11 +20,12 @@ const LABEL_DIGITS: usize = 12;
 
 /// What an export prints for one observer, if anything.
 pub fn observer(observer: &ObserverRow, audience: Audience) -> Option<String> {
-    let name = observer.name.trim();
-    match audience {
-        Audience::Full => (!name.is_empty()).then(|| name.to_owned()),
-        Audience::Public if observer.name_public && !name.is_empty() => Some(name.to_owned()),
-        Audience::Public => observer.public_id.as_deref().map(pseudonym),
+    let typed = observer.name.trim();
+    let consented = observer.profile_name.as_deref().map(str::trim).filter(|n| observer.name_public && !n.is_empty());
+    match (audience, consented) {
+        (Audience::Full, _) => (!typed.is_empty()).then(|| typed.to_owned()),
+        (Audience::Public, Some(name)) => Some(name.to_owned()),
+        (Audience::Public, None) => observer.public_id.as_deref().map(pseudonym),
     }
 }
 
@@ -58,6 +61,7 @@ mod tests {
     fn gwen(name_public: bool) -> ObserverRow {
         ObserverRow {
             name: "Gwen Jones".into(),
+            profile_name: Some("Gwen Jones".into()),
             name_public,
             public_id: Some("3f9a2c1d4e5b6a7f8091a2b3c4d5e6f7".into()),
         }
@@ -68,7 +72,13 @@ mod tests {
         assert_eq!(observer(&gwen(true), Audience::Public).as_deref(), Some("Gwen Jones"));
         assert_eq!(observer(&gwen(false), Audience::Public).as_deref(), Some("observer-3f9a2c1d4e5b"));
         assert_eq!(observer(&gwen(false), Audience::Full).as_deref(), Some("Gwen Jones"), "reviewers see names");
-        let unknown_phone = ObserverRow { name: "Sam".into(), name_public: false, public_id: None };
+        let typed_for_a_friend = ObserverRow { name: "Tom Friend".into(), ..gwen(true) };
+        assert_eq!(
+            observer(&typed_for_a_friend, Audience::Public).as_deref(),
+            Some("Gwen Jones"),
+            "the consented name"
+        );
+        let unknown_phone = ObserverRow { name: "Sam".into(), profile_name: None, name_public: false, public_id: None };
         assert_eq!(observer(&unknown_phone, Audience::Public), None);
         let both = [gwen(false), gwen(false), unknown_phone];
         assert_eq!(recorded_by(&both, Audience::Public), "observer-3f9a2c1d4e5b");

@@ -9,8 +9,9 @@
 //! SQLite steps through them, so however many records are stored, only one row is in
 //! memory. Observer and reviewer contacts are never selected: names come from
 //! `observations.observer_name` and `people.display_name` / `people.username`, with each
-//! observer's consent to be named and random public id (`people.name_public`,
-//! `people.public_id`) for exports to choose what to print.
+//! observer's profile name, consent to be named and random public id
+//! (`people.display_name`, `people.name_public`, `people.public_id`) for exports to
+//! choose what to print.
 //!
 //! Filters here are the ones SQL can apply to stored values without giving anything
 //! away: review states and a span of time. Where a record is, and the day a generalised
@@ -39,7 +40,9 @@ pub struct RowFilter {
 pub struct ObserverRow {
     /// The name given on the record; empty when none was.
     pub name: String,
-    /// Whether the observer agreed to be named in open data.
+    /// The name the observer gave in their phone's profile, beside their consent.
+    pub profile_name: Option<String>,
+    /// Whether the observer agreed to have that name published in open data.
     pub name_public: bool,
     /// Their random public id, when the record came from a known phone.
     pub public_id: Option<String>,
@@ -155,7 +158,7 @@ SELECT o.organism_id, o.id, o.client_id, o.observed_at, o.observed_at_utc, o.obs
        (SELECT group_concat(s.sign, ' ') FROM human_signs s WHERE s.observation_id = o.id),
        (SELECT group_concat(op.photo_sha256, ' ' ORDER BY op.position) FROM observation_photos op WHERE op.observation_id = o.id),
        json_extract(o.submission_json, '$.species_guess'), o.walk_client_id, o.life_stage, i.id,
-       {identification_count}, COALESCE(q.name_public, 0), q.public_id
+       {identification_count}, COALESCE(q.name_public, 0), q.public_id, q.display_name
 FROM observations o
 LEFT JOIN identifications i ON i.id = (
     SELECT MAX(j.id) FROM identifications j WHERE j.observation_id = o.id AND j.superseded_by IS NULL)
@@ -185,13 +188,13 @@ fn merged_details(conn: &Connection, row: &mut OccurrenceRow) -> Result<(), Stor
         others.query_map([row.organism_id, row.observation_id], |r| r.get(0))?.collect::<Result<_, _>>()?;
     // The standing report's observer first (Darwin Core recordedBy: the primary observer first).
     let mut observers = conn.prepare_cached(
-        "SELECT COALESCE(x.observer_name, ''), COALESCE(q.name_public, 0), q.public_id
+        "SELECT COALESCE(x.observer_name, ''), COALESCE(q.name_public, 0), q.public_id, q.display_name
          FROM observations x LEFT JOIN people q ON q.id = x.observer_id
          WHERE x.organism_id = ?1 ORDER BY x.id != ?2, x.observed_at_utc, x.id",
     )?;
     let all: Vec<ObserverRow> = observers
         .query_map([row.organism_id, row.observation_id], |r| {
-            Ok(ObserverRow { name: r.get(0)?, name_public: r.get(1)?, public_id: r.get(2)? })
+            Ok(ObserverRow { name: r.get(0)?, name_public: r.get(1)?, public_id: r.get(2)?, profile_name: r.get(3)? })
         })?
         .collect::<Result<_, _>>()?;
     row.observers.clear();
@@ -219,7 +222,7 @@ fn merged_details(conn: &Connection, row: &mut OccurrenceRow) -> Result<(), Stor
 fn identification_history(conn: &Connection, organism_id: i64) -> Result<Vec<IdentificationRow>, StoreError> {
     let mut stmt = conn.prepare_cached(&format!(
         "SELECT i.id, x.client_id, i.taxon_name, i.taxon_rank, {IDENTIFIED_BY}, i.identified_at, i.basis, i.remarks, i.superseded_by IS NULL,
-                COALESCE(x.observer_name, ''), COALESCE(q.name_public, 0), q.public_id
+                COALESCE(x.observer_name, ''), COALESCE(q.name_public, 0), q.public_id, q.display_name
          FROM identifications i JOIN observations x ON x.id = i.observation_id LEFT JOIN people p ON p.id = i.identified_by_id
          LEFT JOIN people q ON q.id = x.observer_id
          WHERE x.organism_id = ?1 ORDER BY i.identified_at, i.id"
@@ -235,7 +238,12 @@ fn identification_history(conn: &Connection, organism_id: i64) -> Result<Vec<Ide
             basis: r.get(6)?,
             remarks: r.get(7)?,
             current: r.get(8)?,
-            observer: ObserverRow { name: r.get(9)?, name_public: r.get(10)?, public_id: r.get(11)? },
+            observer: ObserverRow {
+                name: r.get(9)?,
+                name_public: r.get(10)?,
+                public_id: r.get(11)?,
+                profile_name: r.get(12)?,
+            },
         })
     })?;
     Ok(rows.collect::<Result<_, _>>()?)
@@ -356,6 +364,7 @@ fn read_row(row: &Row) -> Result<OccurrenceRow, StoreError> {
         name: row.get::<_, Option<String>>(15)?.unwrap_or_default(),
         name_public: row.get(35)?,
         public_id: row.get(36)?,
+        profile_name: row.get(37)?,
     };
     let identification = row.get::<_, Option<String>>(17)?.map(|taxon_name| -> Result<_, StoreError> {
         Ok(IdentificationRow {

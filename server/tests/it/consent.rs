@@ -11,6 +11,7 @@ use crate::helpers::{TestApp, spawn_app, submission};
 
 const NAMED: &str = "c0a5e4f0-0000-4000-8000-000000000001";
 const UNNAMED: &str = "c0a5e4f0-0000-4000-8000-000000000002";
+const FOR_A_FRIEND: &str = "c0a5e4f0-0000-4000-8000-000000000003";
 const WALK: &str = "c0a5e4f0-0000-4000-8000-0000000000ff";
 
 /// A new phone identity with this profile; its token.
@@ -56,7 +57,10 @@ async fn a_name_is_published_only_with_the_observers_consent() {
     let gwen = phone(&app, json!({"display_name": "Gwen Named", "name_public": true})).await;
     // Asked nothing about naming: the conservative answer, no.
     let sam = phone(&app, json!({"display_name": "Sam Private", "contact": "sam@example.org"})).await;
-    for (token, id, name) in [(&gwen, NAMED, "Gwen Named"), (&sam, UNNAMED, "Sam Private")] {
+    // Gwen's second record names someone else; only the name she gave beside her consent is published.
+    for (token, id, name) in
+        [(&gwen, NAMED, "Gwen Named"), (&sam, UNNAMED, "Sam Private"), (&gwen, FOR_A_FRIEND, "Tom Friend")]
+    {
         let mut record = submission(id);
         record["observer_name"] = json!(name);
         assert_eq!(app.submit_as(token, &record, &[]).await.status, 200);
@@ -70,10 +74,12 @@ async fn a_name_is_published_only_with_the_observers_consent() {
     assert_eq!(app.post_walk_as(&sam, &walk).await.status, 200);
 
     assert_eq!(recorded_by(&app, NAMED).await, "Gwen Named");
+    assert_eq!(recorded_by(&app, FOR_A_FRIEND).await, "Gwen Named");
     let label = recorded_by(&app, UNNAMED).await;
     assert!(label.starts_with("observer-") && label.len() == "observer-".len() + 12, "{label}");
     let public = public_text(&app).await;
     assert!(!public.contains("Sam Private"), "no name without consent, in any format or the walk's absences");
+    assert!(!public.contains("Tom Friend"), "nor a name typed on a record");
     assert!(!public.contains("sam@example.org"));
     assert!(public.contains(&label), "the walk's absences carry the same label");
     // Not derived from the phone's token: neither it nor its SHA-256 holds the label's digits.
