@@ -10,6 +10,7 @@ use rusqlite::Connection;
 use super::cells::spreadsheet_safe;
 use super::terms::OCCURRENCE_TERMS;
 use super::{ExportError, ExportRequest, ExportSummary, each_occurrence};
+use crate::protect::Publisher;
 use crate::taxa::TaxonIndex;
 
 /// Our own columns after the Darwin Core ones.
@@ -25,7 +26,8 @@ pub fn write<W: Write>(
 ) -> Result<ExportSummary, ExportError> {
     let mut writer = ::csv::Writer::from_writer(out);
     writer.write_record(OCCURRENCE_TERMS.iter().chain(OWN_COLUMNS))?;
-    let summary = each_occurrence(conn, names, request, progress, |o| {
+    let publisher = Publisher::load(conn, names, request.audience)?;
+    let summary = each_occurrence(conn, &publisher, request, progress, |o| {
         let length = o.length.as_ref();
         let own = [
             o.condition.to_owned(),

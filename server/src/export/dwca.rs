@@ -33,7 +33,7 @@ use super::terms::{
 use super::{ExportError, ExportRequest, ExportSummary, Occurrence, each_occurrence};
 use crate::export::csv::method;
 use crate::protect::{Audience, Publisher};
-use crate::store::occurrences::{self, ObserverRow, WalkFind};
+use crate::store::occurrences::{ObserverRow, WalkFind};
 use crate::taxa::TaxonIndex;
 
 /// Deflate level 1: a third of the default's time for a slightly larger archive.
@@ -48,18 +48,23 @@ pub fn write<W: Write>(
     out: W,
     progress: &mut dyn FnMut(),
 ) -> Result<ExportSummary, ExportError> {
-    let found = finds_on_walks(conn, names)?;
-    let publisher = Publisher::load(conn, names, request.audience)?;
+    // One pass over what was found on walks: for absences, and for how far the public
+    // form generalises each walk's finds.
+    let mut found: HashMap<String, Found> = HashMap::new();
+    let publisher = Publisher::load_noting(conn, names, request.audience, &mut |find: &WalkFind| {
+        let named = find.taxon_name.as_deref().and_then(|n| names.named(n));
+        found.entry(find.walk_client_id.clone()).or_default().add(named, names.checklist());
+    })?;
     let walks = walks_in(conn, request, &publisher, &found)?;
     if !walks.is_empty() {
-        return write_with_events(conn, names, request, &walks, out, progress);
+        return write_with_events(conn, &publisher, request, &walks, out, progress);
     }
     let mut zip = zip::ZipWriter::new_stream(out);
     zip.start_file(OCCURRENCE_CORE.file, zip_options())?;
     write_line(&mut zip, OCCURRENCE_CORE.terms.iter().copied())?;
     let mut lengths = Spool::new(&MEASUREMENT_EXTENSION)?;
     let mut identifications = Spool::new(&IDENTIFICATION_EXTENSION)?;
-    let mut summary = each_occurrence(conn, names, request, progress, |o| {
+    let mut summary = each_occurrence(conn, &publisher, request, progress, |o| {
         write_line(&mut zip, o.dwc.iter().map(String::as_str))?;
         let id = o.dwc[0].as_str();
         if let Some(row) = measurement_row(o) {
@@ -127,16 +132,6 @@ impl Spool {
     }
 }
 
-/// What was found on each walk, from every record made on it (no filter applies).
-fn finds_on_walks(conn: &Connection, names: &TaxonIndex) -> Result<HashMap<String, Found>, ExportError> {
-    let mut found: HashMap<String, Found> = HashMap::new();
-    occurrences::for_each_find_on_walks(conn, |find: &WalkFind| {
-        let named = find.taxon_name.as_deref().and_then(|n| names.named(n));
-        found.entry(find.walk_client_id.clone()).or_default().add(named, names.checklist());
-    })?;
-    Ok(found)
-}
-
 /// A walk in the archive: its event row and its absences, made as it was read.
 struct ExportedWalk {
     client_id: String,
@@ -185,7 +180,7 @@ fn walks_in(
 /// absences, lengths and identifications wait in temporary files and follow the events.
 fn write_with_events<W: Write>(
     conn: &Connection,
-    names: &TaxonIndex,
+    publisher: &Publisher,
     request: &ExportRequest,
     walks: &[ExportedWalk],
     out: W,
@@ -201,7 +196,7 @@ fn write_with_events<W: Write>(
     let mut occurrences = Spool::new(&OCCURRENCE_EXTENSION)?;
     let mut lengths = Spool::new(&EVENT_MEASUREMENT_EXTENSION)?;
     let mut identifications = Spool::new(&EVENT_IDENTIFICATION_EXTENSION)?;
-    let mut summary = each_occurrence(conn, names, request, progress, |o| {
+    let mut summary = each_occurrence(conn, &publisher, request, progress, |o| {
         let occurrence_id = o.dwc[0].as_str();
         let core_id = match o.walk_client_id.as_deref().filter(|w| exported.contains(w)) {
             Some(walk) => events::walk_event_id(walk),

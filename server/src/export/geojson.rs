@@ -14,6 +14,7 @@ use serde_json::{Map, Value};
 use super::cells::spreadsheet_safe;
 use super::terms::OCCURRENCE_TERMS;
 use super::{ExportError, ExportRequest, ExportSummary, Occurrence, each_occurrence};
+use crate::protect::Publisher;
 use crate::taxa::TaxonIndex;
 
 pub fn write<W: Write>(
@@ -25,7 +26,8 @@ pub fn write<W: Write>(
 ) -> Result<ExportSummary, ExportError> {
     out.write_all(b"{\"type\":\"FeatureCollection\",\"features\":[\n")?;
     let mut first = true;
-    let summary = each_occurrence(conn, names, request, progress, |o| {
+    let publisher = Publisher::load(conn, names, request.audience)?;
+    let summary = each_occurrence(conn, &publisher, request, progress, |o| {
         if !first {
             out.write_all(b",\n")?;
         }

@@ -138,16 +138,16 @@ pub fn write_export<W: Write>(
     }
 }
 
-/// Walks the organisms of `request` once, handing each kept occurrence to `each`.
+/// Walks the organisms of `request` once, placing each as `publisher` says and handing
+/// each kept occurrence to `each`.
 fn each_occurrence(
     conn: &Connection,
-    names: &TaxonIndex,
+    publisher: &Publisher,
     request: &ExportRequest,
     progress: &mut dyn FnMut(),
     mut each: impl FnMut(&Occurrence) -> Result<(), ExportError>,
 ) -> Result<ExportSummary, ExportError> {
-    let publisher = Publisher::load(conn, names, request.audience)?;
-    let mut builder = Builder { publisher: &publisher, request, summary: ExportSummary::default() };
+    let mut builder = Builder { publisher, request, summary: ExportSummary::default() };
     // Only archives carry the identification history.
     let with_history = request.format == Format::Dwca;
     occurrences::for_each(conn, &request.row_filter(), with_history, |row| -> Result<(), ExportError> {

@@ -1,11 +1,14 @@
-//! Public locations of sensitive species, generalised as Chapman 2020 (*Current Best
-//! Practices for Generalizing Sensitive Species Occurrence Data*, GBIF) recommends:
-//! withhold, or round to a 0.1°, 0.01° or 0.001° grid.
+//! Public locations, generalised as Chapman 2020 (*Current Best Practices for
+//! Generalizing Sensitive Species Occurrence Data*, GBIF) recommends: withhold, or round
+//! to a 0.1°, 0.01° or 0.001° grid. [`super::published_place`] decides how far, and why.
 //!
 //! A rounded position lies in a cell one grid step wide around it, so the uncertainty
 //! is raised by that cell's diagonal, measured on the WGS84 ellipsoid at the cell (about
 //! 15.7 km, 1.57 km and 157 m at the equator, less further from it). The record says what
 //! was done in `dataGeneralizations` and what is missing in `informationWithheld`.
+
+use std::cell::RefCell;
+use std::collections::HashMap;
 
 use geo::{Distance as _, Geodesic, Point};
 use species_key::Sensitivity;
@@ -54,7 +57,7 @@ pub fn public_place(
             decimals: 0,
             uncertainty_m: None,
             generalizations: Some(format!("Location withheld for {why} (Chapman 2020, GBIF).")),
-            withheld: Some(format!("location, photos and free text withheld for {why}; assessors may ask the network")),
+            withheld: Some(format!("location, time of day, observer, photos and free text withheld for {why}; assessors may ask the network")),
             hide_media_and_remarks: true,
         };
     }
@@ -74,7 +77,7 @@ pub fn public_place(
              coordinateUncertaintyInMeters raised by the cell diagonal, {diagonal:.0} m."
         )),
         withheld: Some(format!(
-            "precise location, photos and free text withheld for {why}; assessors may ask the network"
+            "precise location, time of day, observer, photos and free text withheld for {why}; assessors may ask the network"
         )),
         hide_media_and_remarks: true,
     }
@@ -88,12 +91,29 @@ fn round_to(value: f64, step: f64) -> f64 {
 }
 
 /// Geodesic length (WGS84) of the diagonal of the `step`-wide cell centred on `centre`.
+/// It depends on the cell's latitude and size only, so each thread remembers the ones it
+/// has measured: an export generalises many records in few rows of cells.
 fn cell_diagonal_m((lat, lon): (f64, f64), step: f64) -> f64 {
-    let half = step / 2.0;
-    let south_west = Point::new(lon - half, (lat - half).max(-90.0));
-    let north_east = Point::new(lon + half, (lat + half).min(90.0));
-    Geodesic.distance(south_west, north_east)
+    thread_local! {
+        static MEASURED: RefCell<HashMap<(u64, u64), f64>> = RefCell::new(HashMap::new());
+    }
+    let measure = || {
+        let half = step / 2.0;
+        let south_west = Point::new(lon - half, (lat - half).max(-90.0));
+        let north_east = Point::new(lon + half, (lat + half).min(90.0));
+        Geodesic.distance(south_west, north_east)
+    };
+    MEASURED.with(|measured| {
+        let mut measured = measured.borrow_mut();
+        if measured.len() > MAX_REMEMBERED_ROWS {
+            measured.clear();
+        }
+        *measured.entry((lat.to_bits(), step.to_bits())).or_insert_with(measure)
+    })
 }
+
+/// How many rows of cells a thread remembers before it starts again (a few hundred kB).
+const MAX_REMEMBERED_ROWS: usize = 10_000;
 
 #[cfg(test)]
 mod tests {

@@ -115,15 +115,30 @@ pub struct Publisher<'a> {
 impl<'a> Publisher<'a> {
     /// Reads what was found on every walk (for the public only; reviewers see places as recorded).
     pub fn load(conn: &rusqlite::Connection, names: &'a TaxonIndex, audience: Audience) -> Result<Self, StoreError> {
+        if audience == Audience::Full {
+            return Ok(Self { audience, names, walks: HashMap::new() });
+        }
+        Self::load_noting(conn, names, audience, &mut |_| {})
+    }
+
+    /// As [`Publisher::load`], reading every find on a walk whatever the audience and
+    /// handing each to `note` too (an archive's absences need them): one pass for both.
+    pub fn load_noting(
+        conn: &rusqlite::Connection,
+        names: &'a TaxonIndex,
+        audience: Audience,
+        note: &mut dyn FnMut(&WalkFind),
+    ) -> Result<Self, StoreError> {
         let mut walks: HashMap<String, Sensitivity> = HashMap::new();
-        if audience == Audience::Public {
-            for_each_find_on_walks(conn, |find: &WalkFind| {
+        for_each_find_on_walks(conn, |find: &WalkFind| {
+            note(find);
+            if audience == Audience::Public {
                 let resolution = find.taxon_name.as_deref().map(|n| names.resolution(n));
                 let (sensitivity, _) = public_sensitivity(find.state, resolution.as_ref(), names);
                 let walk = walks.entry(find.walk_client_id.clone()).or_insert(Sensitivity::None);
                 *walk = stricter(*walk, sensitivity);
-            })?;
-        }
+            }
+        })?;
         Ok(Self { audience, names, walks })
     }
 

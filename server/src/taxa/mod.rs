@@ -245,6 +245,9 @@ pub struct TaxonFilter {
 pub struct TaxonIndex {
     checklist: Checklist,
     by_key: HashMap<String, Entry>,
+    /// Each entry's name exactly as the checklist writes it, to its key: most stored
+    /// names are written so, and are then found without folding.
+    as_written: HashMap<String, String>,
     /// Species first, in checklist order (so a species' position is its index), then
     /// higher taxa as they were first needed.
     named: Vec<NamedTaxon>,
@@ -312,7 +315,8 @@ impl TaxonIndex {
             }
         }
         let strictest = taxa.iter().map(|t| t.sensitivity).fold(Sensitivity::None, stricter);
-        Self { checklist, by_key, named, strictest }
+        let as_written = by_key.iter().map(|(key, entry)| (entry.name.clone(), key.clone())).collect();
+        Self { checklist, by_key, as_written, named, strictest }
     }
 
     fn entry(&self, key: &str) -> Option<(&NamedTaxon, &Entry)> {
@@ -321,6 +325,9 @@ impl TaxonIndex {
 
     /// How `text` reads against the checklist (see the module's doc for the steps).
     pub fn resolution(&self, text: &str) -> Resolution<'_> {
+        if let Some(found) = self.as_written.get(text).and_then(|key| self.entry(key)) {
+            return resolved(found, SetAside::default());
+        }
         let words = names::words(text);
         if let Some(found) = self.entry(&names::key_of(&words)) {
             let spelling = !found.1.name.to_lowercase().eq(&text.trim().to_lowercase());

@@ -152,6 +152,17 @@ async fn public_exports_generalise_a_sensitive_species_and_say_so() {
     assert_eq!(term(angel, "occurrenceRemarks"), "", "remarks can name the place");
     // Not sensitive: as recorded.
     assert_eq!(term(row(&archive, CATSHARK), "dataGeneralizations"), "");
+    // GBIF metadata profile: the abstract and methods say what the public gets, and the default.
+    let eml = &archive["metadata"];
+    let said = format!("{} {}", eml["abstract"], eml["methods"]);
+    for words in [
+        "Public exports hold confirmed records unless another review state is asked for",
+        "Chapman 2020",
+        "fail closed",
+        "Observers are named in recordedBy only when they agreed",
+    ] {
+        assert!(said.contains(words), "{words}: {said}");
+    }
 }
 
 #[tokio::test]
