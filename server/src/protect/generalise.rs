@@ -57,7 +57,9 @@ pub fn public_place(
             decimals: 0,
             uncertainty_m: None,
             generalizations: Some(format!("Location withheld for {why} (Chapman 2020, GBIF).")),
-            withheld: Some(format!("location, time of day, observer, photos and free text withheld for {why}; assessors may ask the network")),
+            withheld: Some(format!(
+                "location, time of day, observer, photos and free text withheld for {why}; assessors may ask the network"
+            )),
             hide_media_and_remarks: true,
         };
     }
