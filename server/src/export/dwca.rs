@@ -196,7 +196,7 @@ fn write_with_events<W: Write>(
     let mut occurrences = Spool::new(&OCCURRENCE_EXTENSION)?;
     let mut lengths = Spool::new(&EVENT_MEASUREMENT_EXTENSION)?;
     let mut identifications = Spool::new(&EVENT_IDENTIFICATION_EXTENSION)?;
-    let mut summary = each_occurrence(conn, &publisher, request, progress, |o| {
+    let mut summary = each_occurrence(conn, publisher, request, progress, |o| {
         let occurrence_id = o.dwc[0].as_str();
         let core_id = match o.walk_client_id.as_deref().filter(|w| exported.contains(w)) {
             Some(walk) => events::walk_event_id(walk),

@@ -248,6 +248,8 @@ pub struct TaxonIndex {
     /// Each entry's name exactly as the checklist writes it, to its key: most stored
     /// names are written so, and are then found without folding.
     as_written: HashMap<String, String>,
+    /// The longest key, in bytes: no run of words longer than it can match.
+    longest_key: usize,
     /// Species first, in checklist order (so a species' position is its index), then
     /// higher taxa as they were first needed.
     named: Vec<NamedTaxon>,
@@ -316,7 +318,8 @@ impl TaxonIndex {
         }
         let strictest = taxa.iter().map(|t| t.sensitivity).fold(Sensitivity::None, stricter);
         let as_written = by_key.iter().map(|(key, entry)| (entry.name.clone(), key.clone())).collect();
-        Self { checklist, by_key, as_written, named, strictest }
+        let longest_key = by_key.keys().map(String::len).max().unwrap_or(0);
+        Self { checklist, by_key, as_written, longest_key, named, strictest }
     }
 
     fn entry(&self, key: &str) -> Option<(&NamedTaxon, &Entry)> {
@@ -358,7 +361,14 @@ impl TaxonIndex {
         let mut unread = Vec::new();
         let mut start = 0;
         while start < words.len() {
-            let longest = (start + 1..=words.len())
+            // Runs of words from `start` no longer than the longest key, longest first.
+            let mut length = 0;
+            let last = words[start..].iter().take_while(|w| {
+                length += w.len();
+                length <= self.longest_key
+            });
+            let last = start + last.count();
+            let longest = (start + 1..=last)
                 .rev()
                 .find_map(|end| self.entry(&names::key_of(&words[start..end])).map(|(taxon, _)| (end, taxon)));
             match longest {
