@@ -127,6 +127,14 @@ fn serve(data_dir: &std::path::Path, args: ServeArgs, with_demo: bool) -> anyhow
         let address = listener.local_addr()?;
         println!("wrackline listening on http://{address}");
         println!("data directory: {}", data_dir.display());
+        let listening = crate::settings::PublicUrl::listening_on(address);
+        let public = state.settings.public_url.get_or_insert_with(|| listening.clone()).clone();
+        println!("public address: {} (links point under it; browsers must come from it)", public.origin());
+        if address.ip().is_unspecified() && public == listening {
+            eprintln!(
+                "note: listening on every interface; set --public-url to the address people use, or browsers' changes will be refused"
+            );
+        }
         crate::router::serve(listener, state).await
     })
 }
@@ -134,7 +142,8 @@ fn serve(data_dir: &std::path::Path, args: ServeArgs, with_demo: bool) -> anyhow
 fn print_effort(data_dir: &std::path::Path, args: &EffortArgs) -> anyhow::Result<()> {
     let state = AppState::open(data_dir, None, crate::taxa::load_checklist(None)?)?;
     let walks = state.store.run_here(|conn| crate::store::walks::list_walks(conn))?;
-    let rows = crate::assess::effort::summarise(&walks, args.by);
+    // The operator's own command: every stretch named.
+    let rows = crate::assess::effort::summarise(&walks, args.by, &|_| false);
     if args.json {
         println!("{}", serde_json::to_string_pretty(&rows)?);
         return Ok(());

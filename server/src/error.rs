@@ -2,7 +2,8 @@
 //!
 //! Bad input becomes a 4xx with a JSON body `{"error": "...", "field": "..."}` whose
 //! message names what is wrong, in words the observer's phone can show. Internal
-//! failures become a bare 500: the details go to the log, never to the client.
+//! failures become a bare 500: the details go to the log, never to the client. A 429
+//! says in `Retry-After` how many seconds to wait.
 
 use axum::Json;
 use axum::http::StatusCode;
@@ -32,9 +33,9 @@ pub enum ApiError {
     /// Signed in, but not allowed to do this.
     #[error("{0}")]
     Forbidden(String),
-    /// Too many failed sign-ins; try again later.
-    #[error("{0}")]
-    TooManyRequests(String),
+    /// Too many attempts; try again after `retry_after_s` seconds (sent as `Retry-After`).
+    #[error("{message}")]
+    TooManyRequests { message: String, retry_after_s: u64 },
     /// Well-formed request, content that cannot be used (a photo whose pixels do not decode).
     #[error("{0}")]
     Unprocessable(String),
@@ -53,7 +54,7 @@ impl ApiError {
             Self::UnsupportedMedia(_) => StatusCode::UNSUPPORTED_MEDIA_TYPE,
             Self::Unauthorized(_) => StatusCode::UNAUTHORIZED,
             Self::Forbidden(_) => StatusCode::FORBIDDEN,
-            Self::TooManyRequests(_) => StatusCode::TOO_MANY_REQUESTS,
+            Self::TooManyRequests { .. } => StatusCode::TOO_MANY_REQUESTS,
             Self::Unprocessable(_) => StatusCode::UNPROCESSABLE_ENTITY,
             Self::Internal(_) => StatusCode::INTERNAL_SERVER_ERROR,
         }
@@ -87,7 +88,11 @@ impl IntoResponse for ApiError {
         if let Self::Internal(err) = &self {
             tracing::error!(error = ?err, "internal error");
         }
-        (self.status(), Json(self.body())).into_response()
+        let mut response = (self.status(), Json(self.body())).into_response();
+        if let Self::TooManyRequests { retry_after_s, .. } = &self {
+            response.headers_mut().insert(axum::http::header::RETRY_AFTER, (*retry_after_s).into());
+        }
+        response
     }
 }
 
@@ -110,7 +115,7 @@ mod tests {
             (ApiError::UnsupportedMedia("x".into()), 415),
             (ApiError::Unauthorized("x".into()), 401),
             (ApiError::Forbidden("x".into()), 403),
-            (ApiError::TooManyRequests("x".into()), 429),
+            (ApiError::TooManyRequests { message: "x".into(), retry_after_s: 60 }, 429),
             (ApiError::Unprocessable("x".into()), 422),
             (ApiError::Internal(anyhow::anyhow!("x")), 500),
         ];
@@ -118,6 +123,14 @@ mod tests {
             let shown = format!("{err:?}");
             assert_eq!(err.status().as_u16(), status, "{shown}");
         }
+    }
+
+    #[test]
+    fn too_many_requests_says_when_to_try_again() {
+        // RFC 9110 §10.2.3: Retry-After as a number of seconds.
+        let response = ApiError::TooManyRequests { message: "wait".into(), retry_after_s: 840 }.into_response();
+        assert_eq!(response.status(), StatusCode::TOO_MANY_REQUESTS);
+        assert_eq!(response.headers()[axum::http::header::RETRY_AFTER], "840");
     }
 
     #[test]

@@ -1,6 +1,8 @@
 //! Every route the server answers, in one place: the [`ROUTES`] table names each
 //! route's method, path, who may use it and its handler, and [`app`] builds the router
-//! from that table alone, so the table cannot leave a route out.
+//! from that table alone, so the table cannot leave a route out. Every answer carries
+//! the security headers, and every state-changing request passes the origin check
+//! ([`crate::handlers::guard`]).
 
 use axum::Router;
 use axum::extract::DefaultBodyLimit;
@@ -12,7 +14,7 @@ use tower_http::set_header::{SetResponseHeader, SetResponseHeaderLayer};
 
 use crate::error::ApiError;
 use crate::handlers::{
-    assess, checklist, export, health, mine, observations, people, photos, review, session, site, walks,
+    assess, checklist, export, guard, health, mine, observations, people, photos, review, session, site, walks,
 };
 use crate::intake::photos::{MAX_PHOTO_BYTES, MAX_PHOTOS_PER_RECORD};
 use crate::state::AppState;
@@ -165,7 +167,11 @@ pub fn app(state: AppState) -> Router {
         Some(dir) => api.fallback_service(app_files(dir)),
         None => api,
     };
-    router.with_state(state).layer(tower_http::trace::TraceLayer::new_for_http())
+    router
+        .layer(axum::middleware::from_fn_with_state(state.clone(), guard::same_origin_only))
+        .with_state(state)
+        .layer(axum::middleware::from_fn(guard::security_headers))
+        .layer(tower_http::trace::TraceLayer::new_for_http())
 }
 
 /// Static files of the built app. `no-cache` makes the browser revalidate, so a new
@@ -184,8 +190,12 @@ async fn api_not_found() -> ApiError {
 }
 
 /// Serves the app on an already bound listener until Ctrl-C, so tests can bind
-/// port 0 and read the port back.
-pub async fn serve(listener: tokio::net::TcpListener, state: AppState) -> anyhow::Result<()> {
+/// port 0 and read the port back. With no public address set, it is `http://` and the
+/// address listened on.
+pub async fn serve(listener: tokio::net::TcpListener, mut state: AppState) -> anyhow::Result<()> {
+    if state.settings.public_url.is_none() {
+        state.settings.public_url = Some(crate::settings::PublicUrl::listening_on(listener.local_addr()?));
+    }
     // With each connection's address, for the sign-in rate limit.
     let router = app(state).into_make_service_with_connect_info::<std::net::SocketAddr>();
     axum::serve(listener, router)

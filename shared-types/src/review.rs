@@ -57,6 +57,10 @@ pub struct DeviceRequest {
     pub display_name: Option<Text>,
     /// Never exported, never shown to the public.
     pub contact: Option<Text>,
+    /// Whether the observer agreed to have their name published with their records in
+    /// open data. Absent means no: without it, exports carry a pseudonymous label instead.
+    #[serde(default)]
+    pub name_public: bool,
 }
 
 /// The phone's identity: sent back as `Authorization: Bearer <token>`.
@@ -231,6 +235,10 @@ pub struct ReviewDetail {
     /// reviewers only, never exported or shown to anyone else.
     #[serde(default)]
     pub observer: Option<ObserverContact>,
+    /// How the current identification reads against the checklist, and what the public
+    /// sees of the record's place because of it (`None`: no identification yet).
+    #[serde(default)]
+    pub name_reading: Option<NameReading>,
 }
 
 /// The name and contact an observer chose to give, shown to reviewers on their records.
@@ -238,6 +246,20 @@ pub struct ReviewDetail {
 pub struct ObserverContact {
     pub display_name: Option<String>,
     pub contact: Option<String>,
+}
+
+/// A typed name as the server reads it, for the reviewer.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct NameReading {
+    /// The current identification as written.
+    pub typed: String,
+    /// What it was read as and how ("Squatina squatina (species): matched a common
+    /// name …"), or that it did not resolve and why.
+    pub reading: String,
+    /// Whether it resolved to a checklist taxon.
+    pub resolved: bool,
+    /// Where the public sees the record, in words: as recorded, or generalised and why.
+    pub public_place: String,
 }
 
 /// Another report that may show the same animal, for the reviewer to compare.

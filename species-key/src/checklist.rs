@@ -215,6 +215,35 @@ pub struct Taxon {
     /// Length–length equations for this species, if any.
     #[serde(default)]
     pub length_conversions: Vec<LengthConversion>,
+    /// Scientific names this species has been known by, each with its source.
+    #[serde(default, skip_serializing_if = "Vec::is_empty")]
+    pub synonyms: Vec<Synonym>,
+    /// Names people use for it locally or in other languages, each with its source.
+    #[serde(default, skip_serializing_if = "Vec::is_empty")]
+    pub local_names: Vec<LocalName>,
+}
+
+/// A scientific name a species has been known by (an older combination, a name sunk
+/// into this one), so that records written with it find the species.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(rename_all = "camelCase", deny_unknown_fields)]
+pub struct Synonym {
+    /// The name, without authorship.
+    pub name: String,
+    /// Where the synonymy comes from, or "from memory".
+    pub source: String,
+}
+
+/// A name people use for a species in one place or language.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(rename_all = "camelCase", deny_unknown_fields)]
+pub struct LocalName {
+    /// The name as people write it.
+    pub name: String,
+    /// The language, as a BCP 47 tag (`cy`, `fr`, `en`…).
+    pub language: String,
+    /// Where the name comes from, "from memory", or "invented for the demo".
+    pub source: String,
 }
 
 impl Taxon {
@@ -227,6 +256,14 @@ impl Taxon {
             TaxonRank::Order => &self.order,
             TaxonRank::Superorder => &self.superorder,
         }
+    }
+
+    /// Every name this species may be written as: scientific, common, synonyms, local.
+    pub fn all_names(&self) -> impl Iterator<Item = &str> + '_ {
+        std::iter::once(self.scientific_name.as_str())
+            .chain(self.common_names.iter().map(String::as_str))
+            .chain(self.synonyms.iter().map(|s| s.name.as_str()))
+            .chain(self.local_names.iter().map(|l| l.name.as_str()))
     }
 
     /// The equation converting `measure` to total length, if the checklist gives one.
@@ -322,6 +359,7 @@ impl Checklist {
             return Err(ChecklistError::UnknownGroup(unknown.clone()));
         }
         let area_codes = unique_area_codes(&self.areas)?;
+        let names_in_use: BTreeSet<&str> = self.taxa.iter().map(|t| t.scientific_name.as_str()).collect();
         let mut names = BTreeSet::new();
         for taxon in &self.taxa {
             if !names.insert(taxon.scientific_name.as_str()) {
@@ -331,6 +369,7 @@ impl Checklist {
             check_taxon_numbers(taxon)?;
             check_taxon_sources(taxon)?;
             check_presence(taxon, &area_codes)?;
+            check_names(taxon, &names_in_use)?;
         }
         Ok(())
     }
@@ -442,13 +481,37 @@ fn check_taxon_sources(taxon: &Taxon) -> Result<(), ChecklistError> {
         ("generationLength.source", taxon.generation_length.source.as_str()),
     ]
     .into_iter()
-    .chain(taxon.length_conversions.iter().map(|c| ("lengthConversions.source", c.source.as_str())));
+    .chain(taxon.length_conversions.iter().map(|c| ("lengthConversions.source", c.source.as_str())))
+    .chain(taxon.synonyms.iter().map(|s| ("synonyms.source", s.source.as_str())))
+    .chain(taxon.local_names.iter().map(|l| ("localNames.source", l.source.as_str())));
     for (field, source) in sources {
         if source.trim().is_empty() {
             return Err(ChecklistError::BlankSource { species: taxon.scientific_name.clone(), field });
         }
     }
     Ok(())
+}
+
+/// Synonyms and local names must not be blank, and a synonym must not be the current
+/// name of another entry (a record written with it would mean two species at once).
+fn check_names(taxon: &Taxon, current_names: &BTreeSet<&str>) -> Result<(), ChecklistError> {
+    let species = &taxon.scientific_name;
+    let blank = |field: &'static str| ChecklistError::BlankName { species: species.clone(), field };
+    if taxon.synonyms.iter().any(|s| s.name.trim().is_empty()) {
+        return Err(blank("synonyms.name"));
+    }
+    if taxon.local_names.iter().any(|l| l.name.trim().is_empty()) {
+        return Err(blank("localNames.name"));
+    }
+    if taxon.local_names.iter().any(|l| l.language.trim().is_empty()) {
+        return Err(blank("localNames.language"));
+    }
+    match taxon.synonyms.iter().find(|s| current_names.contains(s.name.trim())) {
+        Some(synonym) => {
+            Err(ChecklistError::SynonymInUse { species: species.clone(), synonym: synonym.name.trim().to_owned() })
+        }
+        None => Ok(()),
+    }
 }
 
 fn check_presence(taxon: &Taxon, area_codes: &BTreeSet<&str>) -> Result<(), ChecklistError> {

@@ -105,6 +105,22 @@ pub enum ChecklistError {
         /// The field at fault.
         field: &'static str,
     },
+    /// A synonym or local name (or its language) is blank.
+    #[error("{species}: {field} is blank")]
+    BlankName {
+        /// The taxon's scientific name.
+        species: String,
+        /// The field at fault.
+        field: &'static str,
+    },
+    /// A synonym is the current scientific name of an entry of the checklist.
+    #[error("{species}: synonym {synonym} is the scientific name of an entry of this checklist")]
+    SynonymInUse {
+        /// The taxon's scientific name.
+        species: String,
+        /// The synonym at fault.
+        synonym: String,
+    },
     /// A maximum length must be a total length or a disc width.
     #[error("{species}: maxLength.measure must be totalLength or discWidth, found {measure}")]
     MaxLengthMeasure {

@@ -58,8 +58,8 @@ pub mod synthetic;
 
 pub use answers::{Answer, Answers, Context};
 pub use checklist::{
-    Area, Character, CharacterState, Checklist, GenerationLength, LengthConversion, MaxLength, Metadata, Sensitivity,
-    Taxon, TaxonRank,
+    Area, Character, CharacterState, Checklist, GenerationLength, LengthConversion, LocalName, MaxLength, Metadata,
+    Sensitivity, Synonym, Taxon, TaxonRank,
 };
 pub use error::{AnswerError, ChecklistError};
 pub use higher_taxa::TaxonSupport;

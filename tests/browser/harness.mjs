@@ -1,5 +1,7 @@
 // Shared pieces of the browser tests: the real wrackline binary on a free port with a
-// fresh data directory, and Debian's Chromium driven by playwright-core.
+// fresh data directory, and Debian's Chromium driven by playwright-core. Every page
+// runs under the Content-Security-Policy the server sends, and a test during which any
+// page reports a violation of it fails.
 import { spawn, execFileSync } from 'node:child_process';
 import { mkdtempSync, mkdirSync } from 'node:fs';
 import { tmpdir } from 'node:os';
@@ -68,14 +70,52 @@ export async function startServer({ demo = false, env = {} } = {}) {
   };
 }
 
-// Chromium as root in a closed network: no sandbox, no background traffic.
-export function launchBrowser() {
-  return chromium.launch({
+// Content-Security-Policy violations reported by any page since the last test ended,
+// each with the page it happened on. Chromium reports every violation on the console
+// ("Refused to … because it violates the following Content Security Policy directive").
+const cspViolations = [];
+
+export function isCspViolation(text) {
+  return /Content Security Policy/i.test(text);
+}
+
+function watchPage(page) {
+  page.on('console', (message) => {
+    if (isCspViolation(message.text())) cspViolations.push(`${page.url()}: ${message.text()}`);
+  });
+}
+
+// The violations seen so far, emptying the list.
+export function takeCspViolations() {
+  return cspViolations.splice(0);
+}
+
+// Under `node --test`, each test fails if a page reported a violation while it ran.
+if (process.env.NODE_TEST_CONTEXT) {
+  const { afterEach } = await import('node:test');
+  afterEach(() => {
+    const seen = takeCspViolations();
+    if (seen.length > 0) throw new Error(`Content-Security-Policy violations:\n${seen.join('\n')}`);
+  });
+}
+
+// Chromium as root in a closed network: no sandbox, no background traffic. Every page
+// of every context it opens is watched for CSP violations.
+export async function launchBrowser() {
+  const browser = await chromium.launch({
     executablePath: process.env.CHROMIUM || '/usr/bin/chromium',
     headless: true,
     args: ['--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking',
       '--disable-component-update', '--disable-sync'],
   });
+  // browser.newPage() goes through newContext() too.
+  const newContext = browser.newContext.bind(browser);
+  browser.newContext = async (...options) => {
+    const context = await newContext(...options);
+    context.on('page', watchPage);
+    return context;
+  };
+  return browser;
 }
 
 export function screenshotPath(name) {

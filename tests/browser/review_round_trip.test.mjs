@@ -169,6 +169,7 @@ test('a reviewer sees two reports of one carcass side by side, merges them, and 
     await page.click('.duplicate .same-animal');
     await page.waitForSelector('#record-review[data-state="merged"]');
     await page.waitForSelector('.undo-merge');
+    // Both reports await review, so every state is asked for (public exports default to confirmed records).
     const csv = await (await fetch(`${server.url}/api/export?format=csv&state=any`)).text();
     assert.equal(csv.trim().split('\n').length, 2, 'the export counts the animal once');
     await page.click('.undo-merge');

@@ -160,6 +160,8 @@ test("a phone's record shows the phone's EXIF reading and photo checks; photos o
     assert.match(await page.textContent('#queue'), /photo older than the record: photo 1 was taken .* days before it/);
     await page.click('.queue-item button.link');
     await page.waitForSelector('#record-review');
+    // How the name reads against the checklist, and where the public sees the record because of it.
+    assert.match(await page.textContent('#name-reading'), /Scyliorhinus canicula \(species\): matched .*Public place: .*0\.1 degree .*not yet confirmed/);
     // The upload copy carries no EXIF: the row is the phone's reading of the original
     // (the times and place exiftool reads from catshark.jpg).
     assert.equal(await page.$('.exif-file'), null);

@@ -5,9 +5,11 @@
 //! password is needed to start recording.
 //!
 //! Before the first sync the observer is asked, once and optionally, for a name and a
-//! contact ("About you"). The contact is only for reviewers with a question about a
-//! record: the server never publishes or exports it. Given later, or changed, it is
-//! sent with the next sync (`PUT /api/my/profile`).
+//! contact ("About you"), and whether their name may be published with their records in
+//! open data (default no: exports then carry an anonymous label instead). The contact is
+//! only for reviewers with a question about a record: the server never publishes or
+//! exports it. Given later, or changed, it is sent with the next sync
+//! (`PUT /api/my/profile`).
 
 use shared_types::{DeviceRequest, Text};
 
@@ -17,6 +19,8 @@ use crate::data::local;
 const TOKEN_KEY: &str = "wrackline.device-token";
 const OBSERVER_NAME_KEY: &str = "wrackline.observer-name";
 const CONTACT_KEY: &str = "wrackline.observer-contact";
+/// `yes` once the observer agreed to be named in open data; absent otherwise.
+const NAME_PUBLIC_KEY: &str = "wrackline.name-public";
 /// `unsent` (answered, not yet on the server), `sent`, or `skipped`; absent: not asked yet.
 const PROFILE_KEY: &str = "wrackline.about-you";
 
@@ -33,15 +37,21 @@ pub fn contact() -> String {
     local::get(CONTACT_KEY).unwrap_or_default()
 }
 
+/// Whether the observer agreed to have their name published with open data.
+pub fn name_public() -> bool {
+    local::get(NAME_PUBLIC_KEY).as_deref() == Some("yes")
+}
+
 /// Whether "About you" has been answered or skipped.
 pub fn profile_answered() -> bool {
     local::get(PROFILE_KEY).is_some()
 }
 
-/// Keeps the name and contact given in "About you", to send with the next sync.
-pub fn keep_profile(name: &str, contact: &str) {
+/// Keeps the name, contact and naming choice given in "About you", to send with the next sync.
+pub fn keep_profile(name: &str, contact: &str, name_public: bool) {
     remember_observer_name(name.trim());
     local::set(CONTACT_KEY, contact.trim());
+    local::set(NAME_PUBLIC_KEY, if name_public { "yes" } else { "no" });
     local::set(PROFILE_KEY, "unsent");
 }
 
@@ -51,7 +61,7 @@ pub fn skip_profile() {
 }
 
 /// What "About you" says once saved: what was kept and who sees it.
-pub fn saved_words(name: &str, contact: &str) -> String {
+pub fn saved_words(name: &str, contact: &str, name_public: bool) -> String {
     let named = match name.trim() {
         "" => "Saved: your records go without a name".to_owned(),
         name => format!("Saved: your records go as {name}"),
@@ -61,7 +71,12 @@ pub fn saved_words(name: &str, contact: &str) -> String {
     } else {
         "reviewers can reach you about your finds; your contact is never published".to_owned()
     };
-    format!("{named}; {reach}. It goes with the next sync.")
+    let open_data = match (name.trim().is_empty(), name_public) {
+        (false, true) => "; open data name you",
+        (false, false) => "; open data show an anonymous label instead of your name",
+        (true, _) => "",
+    };
+    format!("{named}; {reach}{open_data}. It goes with the next sync.")
 }
 
 /// The closed card's one line: "Sam · contact given".
@@ -72,13 +87,13 @@ pub fn summary_words(name: &str, contact: &str) -> String {
 }
 
 /// What the observer chose to give, as the server takes it: blank answers left out.
-pub fn profile_request(name: &str, contact: &str) -> DeviceRequest {
+pub fn profile_request(name: &str, contact: &str, name_public: bool) -> DeviceRequest {
     let text = |value: &str| Text::parse(value.trim()).ok().filter(|t| !t.as_str().is_empty());
-    DeviceRequest { display_name: text(name), contact: text(contact) }
+    DeviceRequest { display_name: text(name), contact: text(contact), name_public }
 }
 
 fn profile() -> DeviceRequest {
-    profile_request(&observer_name(), &contact())
+    profile_request(&observer_name(), &contact(), name_public())
 }
 
 /// Whether this phone has its identity already.
@@ -127,23 +142,32 @@ mod tests {
     #[test]
     fn saving_says_what_was_kept_and_who_sees_it() {
         assert_eq!(
-            saved_words(" Sam ", "sam@example.org"),
+            saved_words(" Sam ", "sam@example.org", false),
             "Saved: your records go as Sam; reviewers can reach you about your finds; your contact is never \
-             published. It goes with the next sync."
+             published; open data show an anonymous label instead of your name. It goes with the next sync."
         );
-        assert!(saved_words("", "").starts_with("Saved: your records go without a name; no contact given"));
+        assert!(saved_words("Sam", "", true).ends_with("; open data name you. It goes with the next sync."));
+        assert_eq!(
+            saved_words("", "", true),
+            "Saved: your records go without a name; no contact given, so reviewers cannot ask you about a find. \
+             It goes with the next sync."
+        );
         assert_eq!(summary_words("Sam", ""), "Sam · no contact");
         assert_eq!(summary_words(" ", "x"), "no name given · contact given");
     }
 
     #[test]
     fn blank_answers_are_left_out_of_the_profile() {
-        let given = profile_request("  Sam Jones ", " sam@example.org ");
+        let given = profile_request("  Sam Jones ", " sam@example.org ", true);
         assert_eq!(given.display_name.as_ref().map(Text::as_str), Some("Sam Jones"));
         assert_eq!(given.contact.as_ref().map(Text::as_str), Some("sam@example.org"));
-        let nothing = profile_request("   ", "");
-        assert_eq!((nothing.display_name, nothing.contact), (None, None));
-        // The server reads a blank profile as no profile (`POST /api/devices`).
-        assert_eq!(serde_json::to_string(&profile_request("", "")).unwrap(), r#"{"display_name":null,"contact":null}"#);
+        assert!(given.name_public);
+        let nothing = profile_request("   ", "", false);
+        assert_eq!((nothing.display_name, nothing.contact, nothing.name_public), (None, None, false));
+        // The server reads a blank profile as no profile (`POST /api/devices`), and no consent as no.
+        assert_eq!(
+            serde_json::to_string(&profile_request("", "", false)).unwrap(),
+            r#"{"display_name":null,"contact":null,"name_public":false}"#
+        );
     }
 }

@@ -1,7 +1,8 @@
 //! "About you": a name and a contact, asked once before the first sync and never
 //! required, then kept as one line that opens to change them. The name is asked here
 //! only (records carry it); the contact is only for reviewers with a question about a
-//! record. Saving says what was kept and who sees it.
+//! record; the name is published with open data only if the observer ticks the box
+//! (unticked by default). Saving says what was kept and who sees it.
 
 use leptos::prelude::*;
 
@@ -15,12 +16,13 @@ pub fn AboutYou(outbox: Outbox) -> impl IntoView {
     let answered = RwSignal::new(identity::profile_answered());
     let name = RwSignal::new(identity::observer_name());
     let contact = RwSignal::new(identity::contact());
+    let name_public = RwSignal::new(identity::name_public());
     let note = RwSignal::new(String::new());
     let something_to_send = move || outbox.entries.with(|e| !e.is_empty()) || outbox.walks.with(|w| !w.is_empty());
     let save = move |_| {
-        let (given_name, given_contact) = (name.get_untracked(), contact.get_untracked());
-        identity::keep_profile(&given_name, &given_contact);
-        note.set(identity::saved_words(&given_name, &given_contact));
+        let (given_name, given_contact, named) = (name.get_untracked(), contact.get_untracked(), name_public.get_untracked());
+        identity::keep_profile(&given_name, &given_contact, named);
+        note.set(identity::saved_words(&given_name, &given_contact, named));
         answered.set(true);
         sync::request(outbox);
     };
@@ -35,7 +37,9 @@ pub fn AboutYou(outbox: Outbox) -> impl IntoView {
             <details id="about-you" class="card about-you" prop:open=move || !answered.get()>
                 <summary><b>"About you"</b>" · "<span id="about-summary">{summary}</span></summary>
                 <p class="hint">"Both boxes may stay empty; your records are sent either way."</p>
-                <label>"Your name (shown with your records)" <input id="about-name" autocomplete="name" prop:value=move || name.get() on:input=move |ev| name.set(event_target_value(&ev)) /></label>
+                <label>"Your name (reviewers see it with your records)" <input id="about-name" autocomplete="name" prop:value=move || name.get() on:input=move |ev| name.set(event_target_value(&ev)) /></label>
+                <label class="check"><input id="about-name-public" type="checkbox" prop:checked=move || name_public.get() on:change=move |ev| name_public.set(event_target_checked(&ev)) />"Publish my name with my records in open data"</label>
+                <p class="hint">"Records are shared as open data for research. Unticked, they are shared without your name, under an anonymous label."</p>
                 <label>"Email or phone number" <input id="about-contact" autocomplete="email" prop:value=move || contact.get() on:input=move |ev| contact.set(event_target_value(&ev)) /></label>
                 <p class="hint">"Your contact is only for reviewers with a question about your records. It is never published, never exported and never shown to anyone else."</p>
                 <div class="actions">

@@ -1,6 +1,10 @@
 //! Effort summaries for trends: kilometres and hours walked per stretch of coast per
 //! month or year, with how many walks reported every find. Plain data in, plain data
 //! out. A walk counts in the month of its start, in the walk's own local time.
+//!
+//! A walk whose finds the public may not see exactly (`protect::Publisher`) counts
+//! under [`WITHHELD_STRETCH`] in public summaries: its stretch's name, matched with the
+//! exported walk's date and distance, would say where the find was.
 
 use std::collections::BTreeMap;
 
@@ -33,13 +37,20 @@ pub struct EffortRow {
 }
 
 pub const NO_STRETCH: &str = "(no stretch named)";
+/// Where walks whose stretch is withheld are counted.
+pub const WITHHELD_STRETCH: &str = "(stretch withheld: a find on the walk may be a sensitive species)";
 
-/// Sums the walks by stretch and period, in stretch then period order.
-pub fn summarise(walks: &[StoredWalk], by: Period) -> Vec<EffortRow> {
+/// Sums the walks by stretch and period, in stretch then period order; walks for which
+/// `withhold_stretch` says so count under [`WITHHELD_STRETCH`].
+pub fn summarise(walks: &[StoredWalk], by: Period, withhold_stretch: &dyn Fn(&StoredWalk) -> bool) -> Vec<EffortRow> {
     let mut rows: BTreeMap<(String, String), EffortRow> = BTreeMap::new();
     for stored in walks {
         let walk = &stored.walk;
-        let stretch = walk.stretch.as_ref().map_or(NO_STRETCH.to_owned(), |s| s.as_str().to_owned());
+        let stretch = if withhold_stretch(stored) {
+            WITHHELD_STRETCH.to_owned()
+        } else {
+            walk.stretch.as_ref().map_or(NO_STRETCH.to_owned(), |s| s.as_str().to_owned())
+        };
         let period = match by {
             Period::Month => walk.started_at.format("%Y-%m").to_string(),
             Period::Year => walk.started_at.format("%Y").to_string(),

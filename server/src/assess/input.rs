@@ -1,6 +1,12 @@
 //! Records read for range and trend figures: from the database, from a CSV file, or from
 //! a Darwin Core Archive made elsewhere.
 //!
+//! Stored records are read for an audience ([`crate::protect::Publisher`]): for the
+//! public each comes at its published position (generalised, or none when withheld)
+//! and under its resolved checklist name only, so every figure made from them — EOO,
+//! AOO, sites, hull corners, maps, nearby counts, yearly counts — is made from what the
+//! public export shows, and no sequence of requests can narrow a record down further.
+//!
 //! Every reader gives the same [`PointRecord`]s, so the figures do not care where the
 //! records came from. Errors name the file, the line and the column at fault.
 //!
@@ -20,6 +26,7 @@ use shared_types::ReviewState;
 
 use super::dates::DateSpan;
 use super::meta::{ArchiveTable, read_meta};
+use crate::protect::{Audience, Publisher};
 use crate::store::StoreError;
 use crate::store::occurrences::{self, OccurrenceRow, RowFilter};
 
@@ -80,30 +87,45 @@ pub fn read_file(path: &Path) -> Result<Vec<PointRecord>, InputError> {
     }
 }
 
-/// Stored organisms whose review state passes `states` (`None`: any state).
+/// Stored organisms whose review state passes `states` (`None`: any state), as
+/// `publisher`'s audience may see them.
 pub fn read_store(
     conn: &rusqlite::Connection,
     states: Option<Vec<ReviewState>>,
+    publisher: &Publisher,
 ) -> Result<Vec<PointRecord>, StoreError> {
     let filter = RowFilter { states, ..RowFilter::default() };
     let mut records = Vec::new();
     occurrences::for_each(conn, &filter, false, |row: OccurrenceRow| -> Result<(), StoreError> {
-        records.push(stored_point(&row));
+        records.push(stored_point(&row, publisher));
         Ok(())
     })?;
     Ok(records)
 }
 
-fn stored_point(row: &OccurrenceRow) -> PointRecord {
-    let position = match (row.latitude, row.longitude) {
-        (Some(lat), Some(lon)) => LatLon::new(lat, lon).ok(),
-        _ => None,
-    };
-    // The observer's own calendar day, from the offset the phone recorded.
+/// One organism as the figures need it: its published position, and for the public its
+/// resolved checklist name only (a name typed that resolves to nothing is free text).
+fn stored_point(row: &OccurrenceRow, publisher: &Publisher) -> PointRecord {
+    let names = publisher.names();
+    let resolution = row.identification.as_ref().map(|i| names.resolution(&i.taxon_name));
+    let place = publisher.place(
+        row.review_state,
+        resolution.as_ref(),
+        row.walk_client_id.as_deref(),
+        row.latitude.zip(row.longitude),
+        row.accuracy_m,
+    );
+    let position = place.position.and_then(|(lat, lon)| LatLon::new(lat, lon).ok());
+    // The observer's own calendar day, from the offset the phone recorded (what a
+    // generalised record is published under).
     let when = row.observed_at.get(..10).and_then(|day| DateSpan::parse(day).ok());
+    let name = match publisher.audience() {
+        Audience::Full => row.identification.as_ref().map(|i| i.taxon_name.clone()),
+        Audience::Public => resolution.as_ref().and_then(|r| r.taxon()).map(|t| t.scientific_name.clone()),
+    };
     PointRecord {
         label: format!("urn:uuid:{}", row.client_id),
-        name: row.identification.as_ref().map(|i| i.taxon_name.clone()),
+        name,
         position,
         when,
         count: row.count.max(0) as u64,

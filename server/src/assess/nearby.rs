@@ -2,11 +2,12 @@
 //! prior (`species_key::Context::nearby_confirmed`): a species often confirmed nearby is
 //! a likelier answer. No HTTP here; `GET /api/checklist/nearby` serves it.
 //!
-//! Only counts leave the server, never positions. A sensitive species is counted from
-//! its public, generalised position (Chapman 2020 categories in the checklist: rounded
-//! to 0.1°, 0.01° or 0.001°), so moving the query point around cannot narrow a record
-//! down further than the public export already shows; a species whose location is
-//! withheld is not counted at all.
+//! Only counts leave the server, never positions. The records come at their published
+//! positions ([`super::input::read_store`] for the public): a sensitive species is
+//! counted where the public export shows it (Chapman 2020 categories in the checklist:
+//! rounded to 0.1°, 0.01° or 0.001°), so moving the query point around cannot narrow a
+//! record down further than the export already does; a record whose location is
+//! withheld has no position and is not counted at all.
 
 use std::collections::BTreeMap;
 
@@ -15,7 +16,6 @@ use geo::{Distance as _, Geodesic, Point};
 use serde::Serialize;
 
 use super::input::PointRecord;
-use crate::protect::generalise::public_place;
 use crate::taxa::TaxonIndex;
 
 /// Confirmed records within this distance (geodesic, WGS84) of the query point count as
@@ -37,8 +37,8 @@ pub struct NearbyCounts {
     pub note: String,
 }
 
-/// Counts `confirmed` records (already filtered to the confirmed state) within
-/// [`NEARBY_RADIUS_KM`] of `centre`, per checklist species.
+/// Counts `confirmed` records (already filtered to the confirmed state, at their
+/// published positions) within [`NEARBY_RADIUS_KM`] of `centre`, per checklist species.
 pub fn nearby_counts(confirmed: &[PointRecord], names: &TaxonIndex, centre: LatLon) -> NearbyCounts {
     let here = Point::new(centre.lon(), centre.lat());
     let mut counts: BTreeMap<String, u32> = BTreeMap::new();
@@ -47,9 +47,7 @@ pub fn nearby_counts(confirmed: &[PointRecord], names: &TaxonIndex, centre: LatL
         else {
             continue;
         };
-        let public = public_place(Some((position.lat(), position.lon())), None, taxon.sensitivity);
-        let Some((lat, lon)) = public.position else { continue };
-        if Geodesic.distance(here, Point::new(lon, lat)) <= NEARBY_RADIUS_KM * 1000.0 {
+        if Geodesic.distance(here, Point::new(position.lon(), position.lat())) <= NEARBY_RADIUS_KM * 1000.0 {
             *counts.entry(taxon.scientific_name.clone()).or_insert(0) += 1;
         }
     }

@@ -443,19 +443,6 @@ fn change(
     }
 }
 
-/// Hides where a sensitive taxon's records are: hull corners, the projection centre and
-/// the positions of places to check (their record ids stay, for reviewers to look up).
-pub fn hide_places(taxon: &mut TaxonRange) {
-    for period in &mut taxon.periods {
-        if let Some(eoo) = period.figures.as_mut().and_then(|f| f.eoo.as_mut()) {
-            eoo.hull.clear();
-            eoo.projection_centre = None;
-        }
-        period.influential_places.clear();
-        period.outliers.clear();
-    }
-}
-
 /// The report as plain text for a terminal.
 pub fn render_text(report: &RangeReport) -> String {
     let mut out = String::new();

@@ -9,11 +9,10 @@ use chrono::NaiveDate;
 use clap::ValueEnum;
 
 use crate::assess::{describe_states, parse_states};
-use crate::export::filters::{day_bounds, parse_bbox};
+use crate::export::filters::{Area, Days, parse_bbox};
 use crate::export::{self, Audience, ExportRequest, Format, Licence};
-use crate::settings::LICENCE_VARIABLE;
+use crate::settings::{LICENCE_VARIABLE, PUBLIC_URL_VARIABLE, PublicUrl};
 use crate::store::Store;
-use crate::store::occurrences::{Area, RowFilter};
 use crate::taxa::TaxonIndex;
 
 #[derive(Debug, Clone, Copy, ValueEnum)]
@@ -30,9 +29,11 @@ pub struct ExportArgs {
     /// Write here instead of standard output.
     #[arg(long)]
     pub out: Option<PathBuf>,
-    /// The address photo links in the export point at.
-    #[arg(long, default_value = "http://127.0.0.1:8080")]
-    pub base_url: String,
+    /// The server's public address, which photo links in the export point under (the
+    /// same setting as `wrackline serve --public-url`).
+    #[arg(long = "public-url", env = PUBLIC_URL_VARIABLE, value_parser = PublicUrl::parse,
+          default_value = "http://127.0.0.1:8080")]
+    pub public_url: PublicUrl,
     /// Positions as recorded, sensitive species included: for assessors only, never to publish.
     #[arg(long)]
     pub full: bool,
@@ -72,18 +73,20 @@ pub fn run(data_dir: &Path, args: ExportArgs) -> anyhow::Result<()> {
                 .with_context(|| format!("`{n}` is not a species, genus, family, order or superorder on the checklist"))
         })
         .transpose()?;
+    let audience = if args.full { Audience::Full } else { Audience::Public };
     let states = parse_states(&args.states).map_err(anyhow::Error::msg)?;
-    let (from_utc, until_utc) = day_bounds(args.from_date, args.to_date);
     let request = ExportRequest {
         format: match args.format {
             ExportFormat::Csv => Format::Csv,
             ExportFormat::Dwca => Format::Dwca,
             ExportFormat::Geojson => Format::Geojson,
         },
-        audience: if args.full { Audience::Full } else { Audience::Public },
-        filter: RowFilter { states: states.clone(), from_utc, until_utc, bbox: args.bbox },
+        audience,
+        states: states.clone(),
+        days: Days { from: args.from_date, to: args.to_date },
+        bbox: args.bbox,
         taxon,
-        base_url: args.base_url.clone(),
+        base_url: args.public_url.origin().to_owned(),
         licence: args.licence,
     };
     let out: Box<dyn Write> = match &args.out {
@@ -109,7 +112,7 @@ pub fn run(data_dir: &Path, args: ExportArgs) -> anyhow::Result<()> {
     if !args.full {
         writeln!(
             err,
-            "public export: sensitive species generalised (use --full for assessors' positions as recorded)"
+            "public export: only confirmed records of taxa that are not sensitive at full precision, the rest generalised (use --full for assessors' positions as recorded)"
         )?;
     }
     for note in summary.notes() {

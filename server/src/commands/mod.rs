@@ -11,6 +11,7 @@ use anyhow::Context as _;
 
 use crate::assess::input::{self, PointRecord};
 use crate::assess::{describe_states, parse_states};
+use crate::protect::{Audience, Publisher};
 use crate::state::AppState;
 use crate::taxa::{TaxonFilter, TaxonIndex};
 
@@ -61,7 +62,12 @@ impl RecordSource {
                 let states = parse_states(&self.states).map_err(anyhow::Error::msg)?;
                 let state = AppState::open(data_dir, None, crate::taxa::load_checklist(None)?)?;
                 let used = describe_states(&states);
-                (state.store.run_here(|conn| input::read_store(conn, states))?, used)
+                // The operator's own command: places as recorded.
+                let read = |conn: &rusqlite::Connection| {
+                    let publisher = Publisher::load(conn, &names, Audience::Full)?;
+                    input::read_store(conn, states, &publisher)
+                };
+                (state.store.run_here(|conn| read(conn))?, used)
             }
         };
         Ok(Loaded { records, records_used, names, taxon })

@@ -6,7 +6,8 @@
 //! absences) as its extension ([`super::events`]).
 //!
 //! Data files are tab-separated with one header line and no quoting; tabs and line
-//! breaks inside values become spaces. The EML `packageId` is `<dataset>/<version>`: the
+//! breaks inside values become spaces, and values are made safe for spreadsheets
+//! ([`super::cells`]). The EML `packageId` is `<dataset>/<version>`: the
 //! dataset a UUID derived from this installation's identifier and the export's definition
 //! (audience, review states, dates, area, taxon), so the same export always has the same
 //! one; the version the first 16 hex digits of the SHA-256 of the data files' bytes, so it
@@ -15,6 +16,8 @@
 //! The records are read once: extension rows wait in temporary files until the core
 //! file is complete. What each walk found is read first, from every record made on it
 //! whatever the filters, so absences and generalised walks never depend on the filters.
+//! A walk passes the area filter by its published start, like a record by its published
+//! position.
 
 use std::collections::{HashMap, HashSet};
 use std::fs::File;
@@ -26,6 +29,7 @@ use sha2::{Digest as _, Sha256};
 use shared_types::WalkSubmission;
 use zip::write::SimpleFileOptions;
 
+use super::cells::spreadsheet_safe;
 use super::events::{self, Found};
 use super::terms::{
     DWC, EVENT_CORE, EVENT_IDENTIFICATION_EXTENSION, EVENT_MEASUREMENT_EXTENSION, IDENTIFICATION_EXTENSION,
@@ -33,7 +37,8 @@ use super::terms::{
 };
 use super::{ExportError, ExportRequest, ExportSummary, Occurrence, each_occurrence};
 use crate::export::csv::method;
-use crate::store::occurrences::{self, RowFilter};
+use crate::protect::{Audience, Publisher};
+use crate::store::occurrences::{ObserverRow, WalkFind};
 use crate::taxa::TaxonIndex;
 
 /// Deflate level 1: a third of the default's time for a slightly larger archive.
@@ -79,17 +84,23 @@ pub fn write<W: Write>(
     out: W,
     progress: &mut dyn FnMut(),
 ) -> Result<ExportSummary, ExportError> {
-    let found = finds_on_walks(conn, names)?;
-    let walks = walks_in(conn, request, &found)?;
+    // One pass over what was found on walks: for absences, and for how far the public
+    // form generalises each walk's finds.
+    let mut found: HashMap<String, Found> = HashMap::new();
+    let publisher = Publisher::load_noting(conn, names, request.audience, &mut |find: &WalkFind| {
+        let named = find.taxon_name.as_deref().and_then(|n| names.named(n));
+        found.entry(find.walk_client_id.clone()).or_default().add(named, names.checklist());
+    })?;
+    let walks = walks_in(conn, request, &publisher, &found)?;
     if !walks.is_empty() {
-        return write_with_events(conn, names, request, &walks, out, progress);
+        return write_with_events(conn, &publisher, request, &walks, out, progress);
     }
     let mut zip = Archive::new(out);
     zip.start_file(OCCURRENCE_CORE.file)?;
     write_line(&mut zip, OCCURRENCE_CORE.terms.iter().copied())?;
     let mut lengths = Spool::new(&MEASUREMENT_EXTENSION)?;
     let mut identifications = Spool::new(&IDENTIFICATION_EXTENSION)?;
-    let mut summary = each_occurrence(conn, names, request, progress, |o| {
+    let mut summary = each_occurrence(conn, &publisher, request, progress, |o| {
         write_line(&mut zip, o.dwc.iter().map(String::as_str))?;
         let id = o.dwc[0].as_str();
         if let Some(row) = measurement_row(o) {
@@ -141,8 +152,7 @@ pub fn package_id(deployment: &str, request: &ExportRequest, data: Sha256) -> St
 /// A UUID (version 8: made from our own bytes) of the SHA-256 of the installation's
 /// identifier and the export's definition: the same for the same export, every time.
 pub fn dataset_uuid(deployment: &str, request: &ExportRequest) -> uuid::Uuid {
-    let filter = &request.filter;
-    let states: Vec<&str> = filter.states.as_ref().map_or(vec!["any"], |s| {
+    let states: Vec<&str> = request.states.as_ref().map_or(vec!["any"], |s| {
         let mut codes: Vec<&str> = s.iter().map(|state| state.code()).collect();
         codes.sort_unstable();
         codes
@@ -151,9 +161,9 @@ pub fn dataset_uuid(deployment: &str, request: &ExportRequest) -> uuid::Uuid {
         "wrackline dataset\ndeployment {deployment}\naudience {:?}\nstates {}\nfrom {}\nuntil {}\nbbox {}\ntaxon {}\n",
         request.audience,
         states.join(","),
-        filter.from_utc.as_deref().unwrap_or("-"),
-        filter.until_utc.as_deref().unwrap_or("-"),
-        filter.bbox.map_or("-".to_owned(), |b| format!("{},{},{},{}", b.south, b.west, b.north, b.east)),
+        request.days.from.map_or("-".to_owned(), |d| d.to_string()),
+        request.days.to.map_or("-".to_owned(), |d| d.to_string()),
+        request.bbox.map_or("-".to_owned(), |b| format!("{},{},{},{}", b.south, b.west, b.north, b.east)),
         request.taxon.as_ref().map_or("-", |t| t.name.as_str()),
     );
     let hash = Sha256::digest(definition.as_bytes());
@@ -191,16 +201,6 @@ impl Spool {
     }
 }
 
-/// What was found on each walk, from every record made on it (no filter applies).
-fn finds_on_walks(conn: &Connection, names: &TaxonIndex) -> Result<HashMap<String, Found>, ExportError> {
-    let mut found: HashMap<String, Found> = HashMap::new();
-    occurrences::for_each_find_on_walks(conn, |walk, name| {
-        let named = name.and_then(|n| names.named(n));
-        found.entry(walk.to_owned()).or_default().add(named, names.checklist());
-    })?;
-    Ok(found)
-}
-
 /// A walk in the archive: its event row and its absences, made as it was read.
 struct ExportedWalk {
     client_id: String,
@@ -208,29 +208,35 @@ struct ExportedWalk {
     absences: Vec<Vec<String>>,
 }
 
-/// Whether a walk passes the request's date filter (by its start, UTC) and area filter
-/// (any fix of its track inside; a walk with no track has no place and falls outside).
-fn walk_passes(walk: &WalkSubmission, filter: &RowFilter) -> bool {
-    let start = walk.started_at.with_timezone(&Utc).format("%Y-%m-%dT%H:%M:%SZ").to_string();
-    filter.from_utc.as_ref().is_none_or(|from| start >= *from)
-        && filter.until_utc.as_ref().is_none_or(|until| start < *until)
-        && filter.bbox.is_none_or(|area| walk.track.iter().any(|p| area.contains(p.latitude.get(), p.longitude.get())))
+/// Whether a walk passes the request's date filter (by its start's UTC day) and area
+/// filter (its published start inside: for the public the rounded start, for a full
+/// export any fix of its track; a walk with no track has no place and falls outside).
+fn walk_passes(walk: &WalkSubmission, request: &ExportRequest, published_start: Option<(f64, f64)>) -> bool {
+    let day = walk.started_at.with_timezone(&Utc).date_naive();
+    let inside = |area: &super::filters::Area| match request.audience {
+        Audience::Public => published_start.is_some_and(|(lat, lon)| area.contains(lat, lon)),
+        Audience::Full => walk.track.iter().any(|p| area.contains(p.latitude.get(), p.longitude.get())),
+    };
+    request.days.touch(day, day) && request.bbox.as_ref().is_none_or(inside)
 }
 
 /// The walks that pass the request's filters, earliest first, with their event rows and absences.
 fn walks_in(
     conn: &Connection,
     request: &ExportRequest,
+    publisher: &Publisher,
     found: &HashMap<String, Found>,
 ) -> Result<Vec<ExportedWalk>, ExportError> {
     let mut walks = Vec::new();
-    crate::store::walks::for_each_walk(conn, |walk| {
-        if walk_passes(&walk, &request.filter) {
-            let client_id = walk.client_id.to_string();
+    crate::store::walks::for_each_walk(conn, |walk, observer: ObserverRow| {
+        let client_id = walk.client_id.to_string();
+        let sensitivity = publisher.walk_sensitivity(&client_id);
+        let event = events::walk_event(&walk, request.audience, sensitivity);
+        if walk_passes(&walk, request, event.start) {
             let walk_found = found.get(&client_id).copied().unwrap_or_default();
             walks.push(ExportedWalk {
-                event: events::walk_event(&walk, request.audience, walk_found),
-                absences: events::absences(&walk, walk_found),
+                event: event.row,
+                absences: events::absences(&walk, walk_found, &observer, request.audience),
                 client_id,
             });
         }
@@ -243,7 +249,7 @@ fn walks_in(
 /// absences, lengths and identifications wait in temporary files and follow the events.
 fn write_with_events<W: Write>(
     conn: &Connection,
-    names: &TaxonIndex,
+    publisher: &Publisher,
     request: &ExportRequest,
     walks: &[ExportedWalk],
     out: W,
@@ -259,7 +265,7 @@ fn write_with_events<W: Write>(
     let mut occurrences = Spool::new(&OCCURRENCE_EXTENSION)?;
     let mut lengths = Spool::new(&EVENT_MEASUREMENT_EXTENSION)?;
     let mut identifications = Spool::new(&EVENT_IDENTIFICATION_EXTENSION)?;
-    let mut summary = each_occurrence(conn, names, request, progress, |o| {
+    let mut summary = each_occurrence(conn, publisher, request, progress, |o| {
         let occurrence_id = o.dwc[0].as_str();
         let core_id = match o.walk_client_id.as_deref().filter(|w| exported.contains(w)) {
             Some(walk) => events::walk_event_id(walk),
@@ -307,10 +313,11 @@ fn write_line<'a>(out: &mut impl Write, values: impl Iterator<Item = &'a str>) -
         }
         // Most values hold no tab or line break: copy them whole (char by char was a tenth
         // of an archive's CPU time).
+        let value = spreadsheet_safe(value);
         if value.bytes().any(|b| matches!(b, b'\t' | b'\n' | b'\r')) {
             line.extend(value.chars().map(|c| if matches!(c, '\t' | '\n' | '\r') { ' ' } else { c }));
         } else {
-            line.push_str(value);
+            line.push_str(&value);
         }
     }
     line.push('\n');
@@ -367,18 +374,26 @@ fn table_xml(element: &str, id_element: &str, table: &Table, id_is_first_term: b
 /// it: a sentence with a `ulink` to the legal code) and `methods` (how records are made,
 /// checked and generalised, and the occurrenceStatus vocabulary).
 fn eml_xml(summary: &ExportSummary, request: &ExportRequest, package: &str) -> String {
+    let states = crate::assess::describe_states(&request.states);
     let audience = match request.audience {
-        super::Audience::Public => {
-            "Public export: sensitive species are generalised as Chapman 2020 (GBIF) recommends."
+        Audience::Public => format!(
+            "Public export of {states}. Public exports hold confirmed records unless another review state is asked \
+             for. A record is published where it was recorded only when a reviewer has confirmed it and its \
+             identification is a checklist taxon that is not sensitive; everything else is generalised as Chapman \
+             2020 (GBIF) recommends (see the methods). Observers are named only with their consent."
+        ),
+        Audience::Full => {
+            format!(
+                "Full export of {states} for assessors: positions and names as recorded. Do not publish it as it is."
+            )
         }
-        super::Audience::Full => "Full export for assessors: positions as recorded. Do not publish it as it is.",
     };
     let mut paragraphs = vec![
         "Sharks, rays, skates and chimaeras found stranded on beaches or landed by anglers and fishers, recorded by \
          citizen observers with wrackline. One occurrence per animal; lengths are in the MeasurementOrFact extension, \
          every identification (current and superseded) in the Identification extension."
             .to_owned(),
-        audience.to_owned(),
+        audience,
         "Stranding and landing records show where people look; they are inputs to an assessment, not a listing decision."
             .to_owned(),
     ];
@@ -434,7 +449,16 @@ const METHOD_STEPS: &[&str] = &[
      also says.",
     "Public exports generalise sensitive species as Chapman 2020 (GBIF) recommends (withheld, or rounded to 0.1, \
      0.01 or 0.001 degree with the uncertainty raised by the cell's diagonal), including the start and locality of \
-     a survey walk on which one was found; a taxon above species is treated as its most sensitive species.",
+     a survey walk on which one was found and every other find of that walk; a taxon above species is treated as \
+     its most sensitive species.",
+    "Public exports fail closed: a record not yet confirmed by a reviewer, or whose name does not resolve to a \
+     checklist taxon, may be of any species, so it is generalised as the strictest species on the checklist would \
+     be and never finer than 0.1 degree. A generalised record carries no photos, no free text and no observer, and \
+     its date only to the day. Area and date filters are applied to what is published.",
+    "Observers are named in recordedBy only when they agreed on their phone to be named in open data; otherwise a \
+     stable pseudonymous label (observer-followed by 12 hex digits of a random id) stands in. Reviewers' \
+     identifications are credited to \"wrackline reviewer\". Values that a spreadsheet would read as a formula \
+     start with an apostrophe.",
 ];
 
 fn escape(text: &str) -> String {

@@ -19,17 +19,22 @@
 //!
 //! A track is never exported. Public exports give the walk's start rounded to 0.1°
 //! (Chapman 2020 grid) with the cell diagonal added to its uncertainty; full exports give
-//! the start as recorded. A walk on which a sensitive species was found is generalised at
-//! least as far as that species' records: its stretch name (`locality`) is withheld, its
-//! start is rounded to the coarser of 0.1° and the species' grid, or withheld with the
-//! species' location, and `dataGeneralizations` / `informationWithheld` say so.
+//! the start as recorded. A walk with a find the public may not see exactly (a sensitive
+//! species, a name that does not resolve, a find not yet confirmed: see
+//! [`crate::protect::Publisher`]) is generalised at least as far as that find: its
+//! stretch name (`locality`) is withheld, its start is rounded to the coarser of 0.1°
+//! and the find's grid, or withheld with the find's location, and `dataGeneralizations`
+//! / `informationWithheld` say so. An absence names the walker as every record does
+//! ([`super::credit`]).
 
 use shared_types::WalkSubmission;
 use species_key::{Checklist, Sensitivity};
 
 use super::Audience;
+use super::credit;
 use super::terms::OCCURRENCE_TERMS;
 use crate::protect::generalise::{as_recorded, public_place};
+use crate::store::occurrences::ObserverRow;
 use crate::taxa::{NamedTaxon, stricter};
 
 /// Event terms, in column order; the first is the row's id.
@@ -106,17 +111,10 @@ pub fn placement(named: Option<&NamedTaxon>, checklist: &Checklist) -> Placement
     first.map_or(Placement::Outside, Placement::Group)
 }
 
-/// What was found on one walk: which groups, and how sensitive the most sensitive find is.
-#[derive(Debug, Clone, Copy)]
+/// What was found on one walk: which groups.
+#[derive(Debug, Clone, Copy, Default)]
 pub struct Found {
     groups: u8,
-    pub sensitivity: Sensitivity,
-}
-
-impl Default for Found {
-    fn default() -> Self {
-        Self { groups: 0, sensitivity: Sensitivity::None }
-    }
 }
 
 impl Found {
@@ -127,9 +125,6 @@ impl Found {
             Placement::Outside => 0,
             Placement::Unknown => u8::MAX,
         };
-        if let Some(named) = named {
-            self.sensitivity = stricter(self.sensitivity, named.sensitivity);
-        }
     }
 
     fn has(self, group: TargetGroup) -> bool {
@@ -151,8 +146,15 @@ fn hours_and_minutes(seconds: f64) -> String {
     format!("{} h {:02} min", minutes / 60, minutes % 60)
 }
 
-/// The event row of a walk; `found` says what was found on it (for generalising).
-pub fn walk_event(walk: &WalkSubmission, audience: Audience, found: Found) -> Vec<String> {
+/// A walk's event row and its start as published (for the area filter).
+pub struct WalkEvent {
+    pub row: Vec<String>,
+    pub start: Option<(f64, f64)>,
+}
+
+/// The event row of a walk; `sensitivity` is how far its most sensitive find is
+/// generalised for the public ([`crate::protect::Publisher::walk_sensitivity`]).
+pub fn walk_event(walk: &WalkSubmission, audience: Audience, sensitivity: Sensitivity) -> WalkEvent {
     let effort = walk.effort();
     let protocol = if walk.all_finds_reported {
         "beach survey walk; every shark, ray, skate and egg case found was reported"
@@ -161,16 +163,17 @@ pub fn walk_event(walk: &WalkSubmission, audience: Audience, found: Found) -> Ve
     };
     let start = walk.track.first().map(|p| (p.latitude.get(), p.longitude.get()));
     let accuracy = walk.track.first().and_then(|p| p.accuracy_m).map(|a| a.get());
-    let sensitive = audience == Audience::Public && found.sensitivity != Sensitivity::None;
+    let sensitive = audience == Audience::Public && sensitivity != Sensitivity::None;
     let (place, generalised) = match audience {
         Audience::Public => {
-            let place = public_place(start, accuracy, stricter(Sensitivity::TenthDegree, found.sensitivity));
+            let why = if sensitive { "a walk with a sensitive or unconfirmed find" } else { "a survey walk" };
+            let place = public_place(start, accuracy, stricter(Sensitivity::TenthDegree, sensitivity), why);
             // Never finer than 0.1°, so a sensitive find's grid (0.01°, 0.001°) changes nothing
             // here; a withheld one withholds the start too.
             let said = match (start, place.position) {
                 (None, _) => "",
                 (Some(_), None) => {
-                    "Start of the walk withheld: a sensitive species was found on it (Chapman 2020, GBIF)."
+                    "Start of the walk withheld: a find on it may be a sensitive species (Chapman 2020, GBIF)."
                 }
                 (Some(_), Some(_)) => {
                     "Start of the walk rounded to 0.1 degree; coordinateUncertaintyInMeters raised by the cell diagonal (Chapman 2020 grid)."
@@ -186,12 +189,13 @@ pub fn walk_event(walk: &WalkSubmission, audience: Audience, found: Found) -> Ve
     let mut generalizations = generalised;
     let mut withheld = "the walk's GPS track is not published".to_owned();
     if sensitive {
-        generalizations = format!("{generalizations} Locality withheld: a sensitive species was found on this walk.")
-            .trim()
-            .to_owned();
-        withheld.push_str("; the stretch's name and the precise start are withheld because a sensitive species was found on this walk; assessors may ask the network");
+        generalizations =
+            format!("{generalizations} Locality withheld: a find on this walk may be a sensitive species.")
+                .trim()
+                .to_owned();
+        withheld.push_str("; the stretch's name and the precise start are withheld because a find on this walk may be a sensitive species; assessors may ask the network");
     }
-    vec![
+    let row = vec![
         walk_event_id(&walk.client_id.to_string()),
         format!("{}/{}", walk.started_at.to_rfc3339(), walk.ended_at.to_rfc3339()),
         protocol.to_owned(),
@@ -217,7 +221,8 @@ pub fn walk_event(walk: &WalkSubmission, audience: Audience, found: Found) -> Ve
         place.uncertainty_m.map(|u| format!("{:.0}", u.ceil())).unwrap_or_default(),
         generalizations,
         withheld,
-    ]
+    ];
+    WalkEvent { row, start: place.position }
 }
 
 /// The event row of a record made outside a walk.
@@ -230,8 +235,8 @@ pub fn incidental_event(occurrence_id: &str, event_date: &str) -> Vec<String> {
 }
 
 /// Absence occurrences (as Occurrence-term rows) for the groups an all-finds walk did
-/// not find; none for a walk that did not promise every find.
-pub fn absences(walk: &WalkSubmission, found: Found) -> Vec<Vec<String>> {
+/// not find; none for a walk that did not promise every find. `observer` walked it.
+pub fn absences(walk: &WalkSubmission, found: Found, observer: &ObserverRow, audience: Audience) -> Vec<Vec<String>> {
     if !walk.all_finds_reported {
         return Vec::new();
     }
@@ -251,7 +256,7 @@ pub fn absences(walk: &WalkSubmission, found: Found) -> Vec<Vec<String>> {
                     "taxonRank" => rank.into(),
                     "individualCount" => "0".into(),
                     "occurrenceStatus" => "notDetected".into(),
-                    "recordedBy" => walk.observer_name.as_ref().map(|n| n.as_str().to_owned()).unwrap_or_default(),
+                    "recordedBy" => credit::observer(observer, audience).unwrap_or_default(),
                     "occurrenceRemarks" => "none found on a survey walk on which every find was reported".into(),
                     _ => String::new(),
                 }

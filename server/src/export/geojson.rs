@@ -3,15 +3,18 @@
 //! A feature whose location is withheld has a null geometry (RFC 7946 §3.2). The export's
 //! notes (what was generalised, names not on the checklist) follow the features as a
 //! foreign member `notes` (RFC 7946 §6.1). Records are points, so there are no polygons
-//! and no winding order to keep.
+//! and no winding order to keep. Property values are made safe for spreadsheets as in
+//! every format ([`super::cells`]), so a value reads the same whichever file it came from.
 
 use std::io::Write;
 
 use rusqlite::Connection;
 use serde_json::{Map, Value};
 
+use super::cells::spreadsheet_safe;
 use super::terms::OCCURRENCE_TERMS;
 use super::{ExportError, ExportRequest, ExportSummary, Occurrence, each_occurrence};
+use crate::protect::Publisher;
 use crate::taxa::TaxonIndex;
 
 pub fn write<W: Write>(
@@ -23,7 +26,8 @@ pub fn write<W: Write>(
 ) -> Result<ExportSummary, ExportError> {
     out.write_all(b"{\"type\":\"FeatureCollection\",\"features\":[\n")?;
     let mut first = true;
-    let summary = each_occurrence(conn, names, request, progress, |o| {
+    let publisher = Publisher::load(conn, names, request.audience)?;
+    let summary = each_occurrence(conn, &publisher, request, progress, |o| {
         if !first {
             out.write_all(b",\n")?;
         }
@@ -41,7 +45,7 @@ fn write_feature(out: &mut impl Write, o: &Occurrence) -> Result<(), ExportError
     let mut properties = Map::new();
     for (term, value) in OCCURRENCE_TERMS.iter().zip(&o.dwc) {
         if !value.is_empty() {
-            properties.insert((*term).to_owned(), Value::String(value.clone()));
+            properties.insert((*term).to_owned(), Value::String(spreadsheet_safe(value).into_owned()));
         }
     }
     write!(out, "{{\"type\":\"Feature\",\"id\":")?;

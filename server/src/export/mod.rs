@@ -5,9 +5,14 @@
 //! ([`crate::store::occurrences::for_each`]), turned into an [`Occurrence`] and written at
 //! once, so memory stays flat however many records there are.
 //!
-//! Public exports generalise sensitive species ([`crate::protect::generalise`]); full exports are for
-//! assessors. Observer contacts are never read, so they cannot leave the server.
+//! Public exports publish each record where [`crate::protect`] says, and every filter
+//! (area, days, taxon) works on that published form; full exports are for assessors.
+//! Observers are named only with their consent ([`credit`]); their contacts are never
+//! read, so they cannot leave the server. Every value is made safe for spreadsheets
+//! ([`cells`]).
 
+pub mod cells;
+pub mod credit;
 pub mod csv;
 pub mod dwca;
 pub mod events;
@@ -20,12 +25,17 @@ use std::io::Write;
 
 use rusqlite::Connection;
 
+pub use crate::protect::Audience;
 pub use crate::settings::Licence;
-pub use occurrence::{Audience, ExportSummary, Occurrence};
+pub use occurrence::{ExportSummary, Occurrence};
 
+use shared_types::ReviewState;
+
+use crate::protect::Publisher;
 use crate::store::StoreError;
 use crate::store::occurrences::{self, RowFilter};
 use crate::taxa::{TaxonFilter, TaxonIndex};
+use filters::{Area, Days};
 use occurrence::Builder;
 
 /// The formats an export can take.
@@ -62,7 +72,12 @@ impl Format {
 pub struct ExportRequest {
     pub format: Format,
     pub audience: Audience,
-    pub filter: RowFilter,
+    /// Review states to take (`None`: any; callers default to [`crate::assess::DEFAULT_STATE`]).
+    pub states: Option<Vec<ReviewState>>,
+    /// Days, tested on each record's published date.
+    pub days: Days,
+    /// An area, tested on each record's published position.
+    pub bbox: Option<Area>,
     pub taxon: Option<TaxonFilter>,
     /// Photo links in the export point under this address.
     pub base_url: String,
@@ -85,10 +100,18 @@ pub enum ExportError {
     Json(#[from] serde_json::Error),
 }
 
-/// How many organisms `request` will read (for a progress bar; the taxon filter may
-/// leave some of them out).
+impl ExportRequest {
+    /// What the store can filter on its own: states, and days one wider each side.
+    fn row_filter(&self) -> RowFilter {
+        let (from_utc, until_utc) = self.days.store_bounds();
+        RowFilter { states: self.states.clone(), from_utc, until_utc }
+    }
+}
+
+/// How many organisms `request` will read (for a progress bar; the filters on published
+/// places, days and taxa may leave some of them out).
 pub fn rows_to_read(conn: &Connection, request: &ExportRequest) -> Result<u64, StoreError> {
-    occurrences::count(conn, &request.filter)
+    occurrences::count(conn, &request.row_filter())
 }
 
 /// Writes the export to `out`; `progress` is called once for every row read.
@@ -106,24 +129,19 @@ pub fn write_export<W: Write>(
     }
 }
 
-/// Walks the organisms of `request` once, handing each kept occurrence to `each`.
+/// Walks the organisms of `request` once, placing each as `publisher` says and handing
+/// each kept occurrence to `each`.
 fn each_occurrence(
     conn: &Connection,
-    names: &TaxonIndex,
+    publisher: &Publisher,
     request: &ExportRequest,
     progress: &mut dyn FnMut(),
     mut each: impl FnMut(&Occurrence) -> Result<(), ExportError>,
 ) -> Result<ExportSummary, ExportError> {
-    let mut builder = Builder {
-        names,
-        audience: request.audience,
-        taxon: request.taxon.as_ref(),
-        base_url: &request.base_url,
-        summary: ExportSummary::default(),
-    };
+    let mut builder = Builder { publisher, request, summary: ExportSummary::default() };
     // Only archives carry the identification history.
     let with_history = request.format == Format::Dwca;
-    occurrences::for_each(conn, &request.filter, with_history, |row| -> Result<(), ExportError> {
+    occurrences::for_each(conn, &request.row_filter(), with_history, |row| -> Result<(), ExportError> {
         progress();
         match builder.build(&row) {
             Some(occurrence) => each(&occurrence),

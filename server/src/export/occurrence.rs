@@ -1,22 +1,22 @@
-//! One stored organism turned into the values an export writes: names matched on the
-//! checklist at any rank, the position generalised for the audience, links made
-//! absolute, and the organism's identification history.
+//! One stored organism turned into the values an export writes: names resolved on the
+//! checklist at any rank, the place as [`crate::protect`] publishes it for the audience,
+//! the filters on published places and days, observers named as they agreed
+//! ([`super::credit`]), links made absolute, and the organism's identification history.
+//!
+//! A record generalised for the public carries no free text (remarks, names as typed,
+//! photos), no observer label, and its date only to the day: an observer's exact
+//! records made shortly before and after would otherwise show where it was.
 
 use std::collections::BTreeMap;
 
+use chrono::NaiveDate;
+
+use super::ExportRequest;
+use super::credit;
+use crate::protect::generalise::PublicPlace;
+use crate::protect::{Audience, Publisher};
 use crate::store::occurrences::{IdentificationRow, LengthRow, OccurrenceRow};
-use crate::taxa::{NamedTaxon, TaxonFilter, TaxonIndex};
-
-use crate::protect::generalise::{PublicPlace, as_recorded, public_place};
-
-/// Who an export is for.
-#[derive(Debug, Clone, Copy, PartialEq, Eq)]
-pub enum Audience {
-    /// Anyone: sensitive species are generalised.
-    Public,
-    /// Assessors and admins: positions as recorded.
-    Full,
-}
+use crate::taxa::{Resolution, rank_word};
 
 /// An organism ready to write, Darwin Core values in [`super::terms::OCCURRENCE_TERMS`] order.
 #[derive(Debug, Clone)]
@@ -48,8 +48,9 @@ pub struct ExportSummary {
     pub measurements: u64,
     /// Rows of the archive's Identification extension (archives only).
     pub identifications: u64,
-    /// Identifications the checklist does not list, with their counts (at most
-    /// [`MAX_NAMES_SHOWN`] names; the rest are counted in `other_unmatched`).
+    /// Identifications that do not resolve to a checklist taxon, with their counts (full
+    /// exports only, at most [`MAX_NAMES_SHOWN`] names; the rest, and all of a public
+    /// export's, are counted in `other_unmatched`: typed names are free text).
     pub unmatched: BTreeMap<String, u64>,
     pub other_unmatched: u64,
     /// Survey walks written as events (archives with walks only).
@@ -65,7 +66,7 @@ impl ExportSummary {
     /// Lines for people: what was generalised, and which names were not matched.
     pub fn notes(&self) -> Vec<String> {
         let mut notes = vec![format!(
-            "{} records; {} with generalised coordinates and {} with the location withheld (sensitive species, Chapman 2020, GBIF).",
+            "{} records; {} with generalised coordinates and {} with the location withheld (Chapman 2020, GBIF).",
             self.records, self.generalised, self.withheld
         )];
         if self.measurements > 0 {
@@ -85,13 +86,14 @@ impl ExportSummary {
         }
         let unmatched: u64 = self.unmatched.values().sum::<u64>() + self.other_unmatched;
         if unmatched > 0 {
-            let names: Vec<String> = self.unmatched.iter().map(|(n, c)| format!("{n} ({c})")).collect();
-            let more =
-                if self.other_unmatched > 0 { format!(" and {} more", self.other_unmatched) } else { String::new() };
+            let mut names: Vec<String> = self.unmatched.iter().map(|(n, c)| format!("{n} ({c})")).collect();
+            if !names.is_empty() && self.other_unmatched > 0 {
+                names.push(format!("{} more", self.other_unmatched));
+            }
+            let listed = if names.is_empty() { String::new() } else { format!(": {}", names.join(", ")) };
             notes.push(format!(
-                "{unmatched} records have an identification the checklist does not list, so they are not generalised \
-                 even if sensitive: {}{more}.",
-                names.join(", ")
+                "{unmatched} records have a name not resolved to a checklist taxon; public exports generalise them as \
+                 the strictest species on the checklist would be{listed}."
             ));
         }
         notes
@@ -110,69 +112,89 @@ impl ExportSummary {
 
 /// Builds occurrences from rows, keeping the summary as it goes.
 pub struct Builder<'a> {
-    pub names: &'a TaxonIndex,
-    pub audience: Audience,
-    pub taxon: Option<&'a TaxonFilter>,
-    pub base_url: &'a str,
+    pub publisher: &'a Publisher<'a>,
+    pub request: &'a ExportRequest,
     pub summary: ExportSummary,
 }
 
 /// A stored identification in Darwin Core terms.
-struct Named<'a> {
-    /// The checklist taxon, at any rank, when the name is on the checklist.
-    taxon: Option<&'a NamedTaxon>,
-    /// `scientificName` and `taxonRank`: the checklist's, else as stored when a rank was
-    /// stored with it (the key or a reviewer), else empty (a free-text guess).
+struct Named {
+    /// `scientificName` and `taxonRank`: the checklist's when the name resolves; for a
+    /// name that does not, as stored when a rank was stored with it (the key or a
+    /// reviewer) and only where free text may be shown; else empty.
     scientific_name: String,
     rank: String,
+    resolved: bool,
 }
 
 impl Builder<'_> {
-    /// The occurrence for `row`, or `None` when the taxon filter leaves it out.
+    fn audience(&self) -> Audience {
+        self.publisher.audience()
+    }
+
+    /// The occurrence for `row`, or `None` when a filter leaves it out. Every filter is
+    /// tested on what is published: the resolved taxon, the published place and days.
     pub fn build(&mut self, row: &OccurrenceRow) -> Option<Occurrence> {
-        let names = self.names;
-        let named = row.identification.as_ref().map(|i| name_of(names, i));
-        let taxon = named.as_ref().and_then(|n| n.taxon);
-        if let Some(filter) = self.taxon
-            && !taxon.is_some_and(|t| filter.contains_named(t, self.names.checklist()))
+        let names = self.publisher.names();
+        let resolution = row.identification.as_ref().map(|i| names.resolution(&i.taxon_name));
+        let taxon = resolution.as_ref().and_then(Resolution::taxon);
+        if let Some(filter) = &self.request.taxon
+            && !taxon.is_some_and(|t| filter.contains_named(t, names.checklist()))
         {
             return None;
         }
         let position = row.latitude.zip(row.longitude);
-        let place = match (self.audience, taxon) {
-            (Audience::Public, Some(t)) => public_place(position, row.accuracy_m, t.sensitivity),
-            _ => as_recorded(position, row.accuracy_m),
-        };
+        let place = self.publisher.place(
+            row.review_state,
+            resolution.as_ref(),
+            row.walk_client_id.as_deref(),
+            position,
+            row.accuracy_m,
+        );
+        let (first, last) = published_days(row, place.hide_media_and_remarks)?;
+        if !self.request.days.touch(first, last) {
+            return None;
+        }
+        if let Some(area) = self.request.bbox
+            && !place.position.is_some_and(|(lat, lon)| area.contains(lat, lon))
+        {
+            return None;
+        }
         self.count(row.identification.as_ref(), taxon.is_some(), &place);
-        Some(self.occurrence(row, named, place))
+        Some(self.occurrence(row, resolution.as_ref(), place))
     }
 
-    fn count(&mut self, identification: Option<&IdentificationRow>, matched: bool, place: &PublicPlace) {
+    fn count(&mut self, identification: Option<&IdentificationRow>, resolved: bool, place: &PublicPlace) {
         self.summary.records += 1;
         if place.generalizations.is_some() {
             if place.position.is_some() { self.summary.generalised += 1 } else { self.summary.withheld += 1 }
         }
-        if let (Some(i), false) = (identification, matched) {
-            self.summary.note_unmatched(&i.taxon_name);
+        match (identification, resolved, self.audience()) {
+            (Some(i), false, Audience::Full) => self.summary.note_unmatched(&i.taxon_name),
+            (Some(_), false, Audience::Public) => self.summary.other_unmatched += 1,
+            _ => {}
         }
     }
 
-    fn occurrence(&self, row: &OccurrenceRow, named: Option<Named>, place: PublicPlace) -> Occurrence {
+    fn occurrence(&self, row: &OccurrenceRow, resolution: Option<&Resolution>, place: PublicPlace) -> Occurrence {
+        let audience = self.audience();
         let identification = row.identification.as_ref();
-        let text = |v: Option<&str>| v.unwrap_or_default().to_owned();
-        let media: Vec<String> = row.photo_hashes.iter().map(|h| format!("{}/photos/{h}", self.base_url)).collect();
+        let hide = place.hide_media_and_remarks;
+        let text = |v: Option<&str>| if hide { String::new() } else { v.unwrap_or_default().to_owned() };
+        let base_url = &self.request.base_url;
+        let media: Vec<String> = row.photo_hashes.iter().map(|h| format!("{base_url}/photos/{h}")).collect();
         let (lat, lon) = match place.position {
             Some((lat, lon)) => (format!("{lat:.*}", place.decimals), format!("{lon:.*}", place.decimals)),
             None => (String::new(), String::new()),
         };
-        let hide = place.hide_media_and_remarks;
-        let remarks = if hide { String::new() } else { text(row.notes.as_deref()) };
-        let matched = named.as_ref().is_some_and(|n| n.taxon.is_some());
+        let named = identification.zip(resolution).map(|(i, r)| named(i, r, hide));
+        let resolved = named.as_ref().is_some_and(|n| n.resolved);
         let (scientific_name, rank) = named.map(|n| (n.scientific_name, n.rank)).unwrap_or_default();
+        let date = event_date(row, hide);
         let dwc = vec![
             format!("urn:uuid:{}", row.client_id),
             "HumanObservation".into(),
-            event_date(row),
+            date.clone(),
             lat,
             lon,
             if place.position.is_some() { "EPSG:4326".into() } else { String::new() },
@@ -181,9 +203,9 @@ impl Builder<'_> {
             scientific_name,
             rank,
             text(row.species_guess.as_deref().or(identification.map(|i| i.taxon_name.as_str()))),
-            text(identification.and_then(|i| i.identified_by.as_deref())),
-            text(identification.map(|i| i.identified_at.as_str())),
-            identification.map(|i| identification_remarks(i, matched, hide)).unwrap_or_default(),
+            identification.map(|i| self.identified_by(i, hide)).unwrap_or_default(),
+            identification.map(|i| date_identified(i, hide)).unwrap_or_default(),
+            identification.map(|i| identification_remarks(i, resolved, hide, audience)).unwrap_or_default(),
             row.review_state.label().into(),
             row.count.to_string(),
             row.sex.dwc().into(),
@@ -193,8 +215,8 @@ impl Builder<'_> {
             // `detected` / `notDetected`, replacing `present` / `absent`. See DEVELOPERS.md.
             "detected".into(),
             // Darwin Core recordedBy: a list, " | " between, the primary observer first.
-            row.observer_names.join(" | "),
-            remarks,
+            if hide { String::new() } else { credit::recorded_by(&row.observers, audience) },
+            text(row.notes.as_deref()),
             if hide { String::new() } else { media.join(" | ") },
             format!("organism-{}", row.organism_id),
             place.generalizations.clone().unwrap_or_default(),
@@ -211,14 +233,22 @@ impl Builder<'_> {
             human_signs: row.human_signs.iter().map(|s| s.label()).collect::<Vec<_>>().join(" | "),
             review_state: row.review_state.label(),
             walk_client_id: row.walk_client_id.clone(),
-            event_date: event_date(row),
+            event_date: date,
             identifications: row.identifications.iter().map(|i| self.history_row(row, i, hide)).collect(),
         }
     }
 
+    /// Darwin Core `identifiedBy`: on a generalised record only the network's reviewers
+    /// are credited (an observer's label would link it to their other records).
+    fn identified_by(&self, identification: &IdentificationRow, hide: bool) -> String {
+        let credit = credit::identified_by(identification, self.audience());
+        if hide && credit != credit::REVIEWER_CREDIT { String::new() } else { credit }
+    }
+
     /// One identification as a row of the identification-history extension.
     fn history_row(&self, organism: &OccurrenceRow, identification: &IdentificationRow, hide: bool) -> Vec<String> {
-        let named = name_of(self.names, identification);
+        let resolution = self.publisher.names().resolution(&identification.taxon_name);
+        let named = named(identification, &resolution, hide);
         let status = if !identification.current {
             "superseded"
         } else if identification.report == organism.client_id {
@@ -231,34 +261,39 @@ impl Builder<'_> {
             format!("urn:uuid:{}#identification-{}", identification.report, identification.id),
             named.scientific_name,
             named.rank,
-            identification.taxon_name.clone(),
-            identification.identified_by.clone().unwrap_or_default(),
-            identification.identified_at.clone(),
-            identification_remarks(identification, named.taxon.is_some(), hide),
+            if hide { String::new() } else { identification.taxon_name.clone() },
+            self.identified_by(identification, hide),
+            date_identified(identification, hide),
+            identification_remarks(identification, named.resolved, hide, self.audience()),
             status.to_owned(),
         ]
     }
 }
 
-/// A stored identification's name on the checklist, at any rank.
-fn name_of<'n>(names: &'n TaxonIndex, identification: &IdentificationRow) -> Named<'n> {
-    match names.named(&identification.taxon_name) {
-        Some(taxon) => Named {
-            taxon: Some(taxon),
+/// A stored identification's name in Darwin Core terms (see [`Named`]).
+fn named(identification: &IdentificationRow, resolution: &Resolution, hide_free_text: bool) -> Named {
+    match (resolution.taxon(), &identification.taxon_rank) {
+        (Some(taxon), _) => Named {
             scientific_name: taxon.scientific_name.clone(),
-            rank: rank_code(taxon.rank).to_owned(),
+            rank: rank_word(taxon.rank).to_owned(),
+            resolved: true,
         },
-        None => match &identification.taxon_rank {
-            Some(rank) => Named { taxon: None, scientific_name: identification.taxon_name.clone(), rank: rank.clone() },
-            None => Named { taxon: None, scientific_name: String::new(), rank: String::new() },
-        },
+        (None, Some(rank)) if !hide_free_text => {
+            Named { scientific_name: identification.taxon_name.clone(), rank: rank.clone(), resolved: false }
+        }
+        (None, _) => Named { scientific_name: String::new(), rank: String::new(), resolved: false },
     }
 }
 
 /// Darwin Core `identificationRemarks`: how the identification was made, then its remark
-/// (left out where a sensitive record's free text is withheld), then a warning when the
-/// name is not on the checklist.
-fn identification_remarks(identification: &IdentificationRow, matched: bool, hide_free_text: bool) -> String {
+/// (left out where a generalised record's free text is withheld), then a note when the
+/// name does not resolve to a checklist taxon.
+fn identification_remarks(
+    identification: &IdentificationRow,
+    resolved: bool,
+    hide_free_text: bool,
+    audience: Audience,
+) -> String {
     let mut remarks = match identification.basis.as_str() {
         "reviewer" => "identified by a reviewer from the photos and details".to_owned(),
         basis => basis.to_owned(),
@@ -267,28 +302,49 @@ fn identification_remarks(identification: &IdentificationRow, matched: bool, hid
         remarks.push_str("; ");
         remarks.push_str(remark);
     }
-    if !matched {
-        remarks.push_str("; the name is not on the checklist, so the location is not generalised");
+    if !resolved {
+        remarks.push_str(match audience {
+            Audience::Public => {
+                "; the name is not resolved to a checklist taxon, so the location is generalised as the strictest species on the checklist would be"
+            }
+            Audience::Full => "; the name is not resolved to a checklist taxon",
+        });
     }
     remarks
 }
 
-/// One observation: its time with the observer's offset. Several (after a merge) that
-/// differ: the interval from the first to the last, in UTC (ISO 8601 `start/end`).
-fn event_date(row: &OccurrenceRow) -> String {
-    if row.observation_count > 1 && row.first_utc != row.last_utc {
-        format!("{}/{}", row.first_utc, row.last_utc)
-    } else {
-        row.observed_at.clone()
+/// Darwin Core `dateIdentified`: to the day on a generalised record.
+fn date_identified(identification: &IdentificationRow, to_the_day: bool) -> String {
+    let at = identification.identified_at.as_str();
+    if to_the_day { at.get(..10).unwrap_or(at).to_owned() } else { at.to_owned() }
+}
+
+/// The published `eventDate`. One observation: its time with the observer's offset, or
+/// on a generalised record only the observer's calendar day. Several (after a merge)
+/// that differ: the interval from the first to the last, in UTC (ISO 8601
+/// `start/end`); on a generalised record from the first day to the last.
+fn event_date(row: &OccurrenceRow, to_the_day: bool) -> String {
+    let day = |time: &str| time.get(..10).unwrap_or(time).to_owned();
+    let interval = row.observation_count > 1 && row.first_utc != row.last_utc;
+    match (interval, to_the_day) {
+        (true, false) => format!("{}/{}", row.first_utc, row.last_utc),
+        (true, true) if day(&row.first_utc) != day(&row.last_utc) => {
+            format!("{}/{}", day(&row.first_utc), day(&row.last_utc))
+        }
+        (true, true) => day(&row.first_utc),
+        (false, false) => row.observed_at.clone(),
+        (false, true) => day(&row.observed_at),
     }
 }
 
-fn rank_code(rank: species_key::TaxonRank) -> &'static str {
-    match rank {
-        species_key::TaxonRank::Species => "species",
-        species_key::TaxonRank::Genus => "genus",
-        species_key::TaxonRank::Family => "family",
-        species_key::TaxonRank::Order => "order",
-        species_key::TaxonRank::Superorder => "superorder",
+/// The first and last day a record is published under, for the day filter: the UTC days
+/// of its time span, or on a generalised record the days its `eventDate` shows.
+fn published_days(row: &OccurrenceRow, to_the_day: bool) -> Option<(NaiveDate, NaiveDate)> {
+    let day = |time: &str| time.get(..10).and_then(|d| d.parse::<NaiveDate>().ok());
+    let interval = row.observation_count > 1 && row.first_utc != row.last_utc;
+    if to_the_day && !interval {
+        let own = day(&row.observed_at)?;
+        return Some((own, own));
     }
+    Some((day(&row.first_utc)?, day(&row.last_utc)?))
 }

@@ -17,6 +17,7 @@ use shared_types::Role;
 
 use crate::error::ApiError;
 use crate::people::auth::token_sha256;
+use crate::protect::Audience;
 use crate::state::AppState;
 use crate::store::people::{self, Person};
 
@@ -31,6 +32,14 @@ pub struct Caller {
     /// The session's CSRF token, when the caller came with the cookie: `GET /api/session`
     /// hands it back, so a second tab or a restarted browser can act again.
     pub csrf_token: Option<String>,
+}
+
+impl Caller {
+    /// Signed-in reviewers and admins see places as recorded; everyone else the public form.
+    pub fn audience(&self) -> Audience {
+        let staff = self.person.as_ref().is_some_and(|p| matches!(p.role, Role::Reviewer | Role::Admin));
+        if staff { Audience::Full } else { Audience::Public }
+    }
 }
 
 fn bearer(parts: &Parts) -> Option<String> {
@@ -142,35 +151,52 @@ pub fn check_owner(person: &Person, owner: Option<i64>, staff_too: bool, what: &
     if allowed { Ok(()) } else { Err(ApiError::Forbidden(format!("{what} was sent from another phone"))) }
 }
 
-/// The client's address, for the sign-in rate limit: the peer of the connection, or,
-/// when the peer is this machine (a reverse proxy in front of the server), the last
-/// address the proxy added to `X-Forwarded-For`. Served without connection info (some
-/// tests), every client shares the unspecified address.
-pub struct ClientAddress(pub IpAddr);
+/// Where a request came from, as far as the server can tell without believing what a
+/// caller says about itself: the connection's peer address, unless that peer is a
+/// reverse proxy the operator listed (`Settings::trusted_proxies`). Then the client is
+/// the last address in `X-Forwarded-For` that is not itself a trusted proxy (each proxy
+/// appends the address it received from), and `X-Forwarded-Proto: https` says the
+/// request came over HTTPS. Anyone else's `X-Forwarded-For` is ignored, so a caller
+/// cannot pose as many addresses to dodge the sign-in limits, nor as a reviewer's
+/// address to lock them out. Served without connection info (some tests), every client
+/// shares the unspecified address.
+pub struct Client {
+    pub address: IpAddr,
+    /// Whether people reached the server over HTTPS: its public address is `https://`,
+    /// or a trusted proxy says so.
+    pub https: bool,
+}
 
-impl<S: Send + Sync> FromRequestParts<S> for ClientAddress {
+impl FromRequestParts<AppState> for Client {
     type Rejection = std::convert::Infallible;
 
-    async fn from_request_parts(parts: &mut Parts, _state: &S) -> Result<Self, Self::Rejection> {
+    async fn from_request_parts(parts: &mut Parts, state: &AppState) -> Result<Self, Self::Rejection> {
         let peer = parts.extensions.get::<ConnectInfo<SocketAddr>>().map(|info| info.0.ip());
+        let trusted = &state.settings.trusted_proxies;
+        let via_proxy = peer.is_some_and(|p| trusted.contains(&p));
         let forwarded = || {
-            let header = parts.headers.get_all("x-forwarded-for").iter().filter_map(|v| v.to_str().ok()).next_back()?;
-            header.rsplit(',').next()?.trim().parse::<IpAddr>().ok()
+            parts
+                .headers
+                .get_all("x-forwarded-for")
+                .iter()
+                .filter_map(|v| v.to_str().ok())
+                .flat_map(|v| v.split(','))
+                .filter_map(|a| a.trim().parse::<IpAddr>().ok())
+                .rev()
+                .find(|a| !trusted.contains(a))
         };
         let address = match peer {
-            Some(peer) if peer.is_loopback() => forwarded().unwrap_or(peer),
+            Some(peer) if via_proxy => forwarded().unwrap_or(peer),
             Some(peer) => peer,
             None => IpAddr::V4(Ipv4Addr::UNSPECIFIED),
         };
-        Ok(ClientAddress(address))
+        let proxy_says_https = via_proxy
+            && parts
+                .headers
+                .get("x-forwarded-proto")
+                .and_then(|v| v.to_str().ok())
+                .is_some_and(|proto| proto.trim().eq_ignore_ascii_case("https"));
+        let public_https = state.settings.public_url.as_ref().is_some_and(|u| u.is_https());
+        Ok(Client { address, https: public_https || proxy_says_https })
     }
-}
-
-/// Whether the request reached us over HTTPS, as the reverse proxy that ended TLS says
-/// (`X-Forwarded-Proto: https`); the server itself speaks plain HTTP.
-pub fn came_over_https(parts_headers: &axum::http::HeaderMap) -> bool {
-    parts_headers
-        .get("x-forwarded-proto")
-        .and_then(|v| v.to_str().ok())
-        .is_some_and(|proto| proto.trim().eq_ignore_ascii_case("https"))
 }

@@ -2,6 +2,11 @@
 //! the stored records, as JSON for the app and for scripts; `GET /api/range/map.svg` and
 //! `GET /api/trend/chart.svg` draw them, for the app to show.
 //!
+//! Every figure is made from the records as the caller may see them
+//! ([`crate::assess::input::read_store`]): for anyone but a signed-in reviewer or admin,
+//! at their published positions and under their resolved names, exactly what the
+//! public export shows.
+//!
 //! Query: `taxon` (a checklist name), `state` (review-state codes separated by commas, or
 //! `any`; default `confirmed`), for range `period` (e.g. `2015-2019`, repeatable as
 //! `period=2015-2019,2020-2024`), `grid_centre` (`LAT,LON` of the first AOO grid; default the
@@ -22,12 +27,13 @@ use crate::assess::dates::Period;
 use crate::assess::input::read_store;
 use crate::assess::map::taxon_map;
 use crate::assess::range::{
-    GridBasis, RangeOptions, RangeReport, choose_grid, hide_places, parse_centre, parse_distance_km, range_report,
+    GridBasis, RangeOptions, RangeReport, choose_grid, parse_centre, parse_distance_km, range_report,
 };
 use crate::assess::trend::{EffortUnit, TrendReport, generation_length, rate_words, stored_trend_input, trend_report};
 use crate::assess::{DEFAULT_STATE, describe_states, parse_states};
 use crate::error::ApiError;
 use crate::handlers::access::Caller;
+use crate::protect::{Audience, Publisher};
 use crate::state::AppState;
 use crate::taxa::TaxonFilter;
 
@@ -60,57 +66,49 @@ fn taxon_of(state: &AppState, query: &FigureQuery) -> Result<Option<TaxonFilter>
         .transpose()
 }
 
+/// The stored records in the states asked for, as `audience` may see them, and words
+/// saying which records they are.
 async fn stored_records(
     state: &AppState,
     query: &FigureQuery,
+    audience: Audience,
 ) -> Result<(Vec<crate::assess::input::PointRecord>, String), ApiError> {
     let values: Vec<String> = query.state.as_deref().unwrap_or(DEFAULT_STATE).split(',').map(str::to_owned).collect();
     let states = parse_states(&values).map_err(ApiError::BadRequest)?;
-    let used = describe_states(&states);
-    let records = state.store.read(move |conn| read_store(conn, states)).await?;
+    let mut used = describe_states(&states);
+    if audience == Audience::Public {
+        used.push_str(
+            ", at their public positions (sensitive, unresolved and unconfirmed records generalised, Chapman 2020)",
+        );
+    }
+    let taxa = state.taxa.clone();
+    let records = state
+        .store
+        .read(move |conn| {
+            let publisher = Publisher::load(conn, &taxa, audience)?;
+            read_store(conn, states, &publisher)
+        })
+        .await?;
     Ok((records, used))
 }
 
-/// Whether the caller may see where a sensitive species was: signed-in reviewers and admins.
-fn sees_sensitive_places(caller: &Caller) -> bool {
-    caller.person.as_ref().is_some_and(|p| matches!(p.role, shared_types::Role::Reviewer | shared_types::Role::Admin))
-}
-
-/// Whether a taxon's public locations are generalised (Chapman 2020 categories in the
-/// checklist). A genus, family, order or superorder is sensitive when any of its species
-/// is: its hull and map would show where that species was.
-fn sensitive(state: &AppState, name: &str) -> bool {
-    state.taxa.named(name).is_some_and(|taxon| taxon.sensitivity != species_key::Sensitivity::None)
-}
-
-/// `GET /api/range`: figures for everyone; for a sensitive species the places (hull
-/// corners, outliers, influential places: exact record positions) only for signed-in reviewers.
+/// `GET /api/range`: figures from the records as the caller may see them.
 pub async fn range(
     State(state): State<AppState>,
     caller: Caller,
     Query(query): Query<FigureQuery>,
 ) -> Result<Json<RangeReport>, ApiError> {
-    let mut report = range_of(&state, &query).await?;
-    if !sees_sensitive_places(&caller) {
-        for taxon in report.taxa.iter_mut().filter(|t| sensitive(&state, &t.taxon)) {
-            hide_places(taxon);
-        }
-    }
-    Ok(Json(report))
+    Ok(Json(range_of(&state, &query, caller.audience()).await?))
 }
 
-/// `GET /api/range/map.svg`: the map of one taxon (give `taxon` when the records hold several).
+/// `GET /api/range/map.svg`: the map of one taxon (give `taxon` when the records hold
+/// several), drawn from the records as the caller may see them.
 pub async fn range_map(
     State(state): State<AppState>,
     caller: Caller,
     Query(query): Query<FigureQuery>,
 ) -> Result<Response, ApiError> {
-    let report = range_of(&state, &query).await?;
-    if !sees_sensitive_places(&caller) && report.taxa.iter().any(|t| sensitive(&state, &t.taxon)) {
-        return Err(ApiError::Forbidden(
-            "this is a sensitive species: its map shows where records are, so it is for signed-in reviewers (Chapman 2020)".into(),
-        ));
-    }
+    let report = range_of(&state, &query, caller.audience()).await?;
     let taxon = match report.taxa.as_slice() {
         [one] => one,
         [] => return Err(ApiError::NotFound(format!("no records to map ({})", report.records_used))),
@@ -122,9 +120,10 @@ pub async fn range_map(
 /// `GET /api/trend/chart.svg`: the trend chart.
 pub async fn trend_chart(
     State(state): State<AppState>,
+    caller: Caller,
     Query(query): Query<FigureQuery>,
 ) -> Result<Response, ApiError> {
-    let report = trend_of(&state, &query).await?;
+    let report = trend_of(&state, &query, caller.audience()).await?;
     let title = query.taxon.clone().unwrap_or_else(|| "Yearly trend".into());
     let rate = rate_words(&report, query.effort.unwrap_or_default());
     Ok(svg(chart::trend_chart(&title, rate, &report.years, &report.trend)))
@@ -134,7 +133,7 @@ fn svg(document: String) -> Response {
     ([(header::CONTENT_TYPE, "image/svg+xml")], document).into_response()
 }
 
-async fn range_of(state: &AppState, query: &FigureQuery) -> Result<RangeReport, ApiError> {
+async fn range_of(state: &AppState, query: &FigureQuery, audience: Audience) -> Result<RangeReport, ApiError> {
     let taxon = taxon_of(state, query)?;
     let periods = query
         .period
@@ -146,7 +145,7 @@ async fn range_of(state: &AppState, query: &FigureQuery) -> Result<RangeReport, 
         })
         .transpose()?
         .unwrap_or_default();
-    let (records, records_used) = stored_records(state, query).await?;
+    let (records, records_used) = stored_records(state, query, audience).await?;
     let given = query
         .grid_centre
         .as_deref()
@@ -181,17 +180,18 @@ async fn range_of(state: &AppState, query: &FigureQuery) -> Result<RangeReport, 
 
 pub async fn trend(
     State(state): State<AppState>,
+    caller: Caller,
     Query(query): Query<FigureQuery>,
 ) -> Result<Json<TrendReport>, ApiError> {
-    Ok(Json(trend_of(&state, &query).await?))
+    Ok(Json(trend_of(&state, &query, caller.audience()).await?))
 }
 
-async fn trend_of(state: &AppState, query: &FigureQuery) -> Result<TrendReport, ApiError> {
+async fn trend_of(state: &AppState, query: &FigureQuery, audience: Audience) -> Result<TrendReport, ApiError> {
     let taxon = taxon_of(state, query)?;
     let names = &*state.taxa;
     let generation = generation_length(query.generation_length, taxon.as_ref(), names)
         .map_err(|err| ApiError::BadRequest(err.to_string()))?;
-    let (records, records_used) = stored_records(state, query).await?;
+    let (records, records_used) = stored_records(state, query, audience).await?;
     let walks = state.store.read(crate::store::walks::list_walks).await?;
     let unit = query.effort.unwrap_or_default();
     let (years, counts, notes) = stored_trend_input(&records, &walks, taxon.as_ref(), names, unit);

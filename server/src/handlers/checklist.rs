@@ -2,7 +2,8 @@
 //! records against the same list (they keep a copy for offline use).
 //! `GET /api/checklist/nearby?lat=..&lon=..`: how many confirmed records of each species
 //! lie within `assess::nearby::NEARBY_RADIUS_KM` (50 km) of a place — counts only, never positions (see
-//! `assess::nearby`) — for the key's prior; phones keep the answer per area.
+//! `assess::nearby`), counted from the records' published positions as anyone may see
+//! them — for the key's prior; phones keep the answer per area.
 
 use axum::Json;
 use axum::extract::{Query, State};
@@ -12,6 +13,7 @@ use shared_types::ReviewState;
 use crate::assess::input::read_store;
 use crate::assess::nearby::{NearbyCounts, nearby_counts};
 use crate::error::ApiError;
+use crate::protect::{Audience, Publisher};
 use crate::state::AppState;
 
 pub async fn get(State(state): State<AppState>) -> Json<species_key::Checklist> {
@@ -42,6 +44,13 @@ pub async fn nearby(
     let lat = coordinate(query.lat.as_deref(), "lat", 90.0)?;
     let lon = coordinate(query.lon.as_deref(), "lon", 180.0)?;
     let centre = analysis::LatLon::new(lat, lon).map_err(|err| ApiError::BadRequest(err.to_string()))?;
-    let confirmed = state.store.run(|conn| read_store(conn, Some(vec![ReviewState::Confirmed]))).await?;
+    let taxa = state.taxa.clone();
+    let confirmed = state
+        .store
+        .read(move |conn| {
+            let publisher = Publisher::load(conn, &taxa, Audience::Public)?;
+            read_store(conn, Some(vec![ReviewState::Confirmed]), &publisher)
+        })
+        .await?;
     Ok(Json(nearby_counts(&confirmed, &state.taxa, centre)))
 }

@@ -1,22 +1,25 @@
 //! `GET /api/export?format=csv|dwca|geojson`: the same exports the command line writes,
 //! streamed to the client as they are made.
 //!
-//! Anyone gets the public form (sensitive species generalised); `audience=full` (positions
-//! as recorded) is for a signed-in reviewer or admin only, as `wrackline export --full` is
-//! on the server itself. The archive states the licence `WRACKLINE_LICENCE` names.
+//! Anyone gets the public form ([`crate::protect`]: only confirmed records of taxa that
+//! are not sensitive at full precision); `audience=full` (positions as recorded) is for a
+//! signed-in reviewer or admin only, as `wrackline export --full` is on the server
+//! itself. The archive states the licence `WRACKLINE_LICENCE` names; photo links point
+//! under the configured public address, never under the request's `Host`.
 //!
 //! The export runs on a read-only connection of its own ([`crate::store::Store::read`]):
 //! it blocks while the client reads slowly, and must not hold up submissions meanwhile.
 //!
-//! Filters: `taxon` (a checklist name), `from` and `to` (YYYY-MM-DD, UTC days), `bbox`
+//! Filters: `taxon` (a checklist name), `from` and `to` (YYYY-MM-DD, days), `bbox`
 //! (`SOUTH,WEST,NORTH,EAST`; WEST > EAST crosses the antimeridian), `state` (review-state
-//! codes separated by commas, or `any`; default `confirmed`, as for the figures).
+//! codes separated by commas, or `any`; default `confirmed`, as for the figures, for the
+//! public and full exports alike). Area and days are tested on what is published.
 
 use std::io::Write;
 
 use axum::body::{Body, Bytes};
 use axum::extract::{Query, State};
-use axum::http::{HeaderMap, header};
+use axum::http::header;
 use axum::response::{IntoResponse, Response};
 use chrono::NaiveDate;
 use serde::Deserialize;
@@ -24,11 +27,10 @@ use tokio::sync::mpsc;
 
 use crate::assess::{DEFAULT_STATE, parse_states};
 use crate::error::ApiError;
-use crate::export::filters::{day_bounds, parse_bbox};
+use crate::export::filters::{Days, parse_bbox};
 use crate::export::{self, Audience, ExportRequest, Format};
 use crate::handlers::access::Caller;
 use crate::state::AppState;
-use crate::store::occurrences::RowFilter;
 use crate::taxa::TaxonIndex;
 
 #[derive(Deserialize)]
@@ -49,13 +51,13 @@ pub struct ExportQuery {
 pub async fn export(
     State(state): State<AppState>,
     caller: Caller,
-    headers: HeaderMap,
     Query(query): Query<ExportQuery>,
 ) -> Result<Response, ApiError> {
-    let host = headers.get(header::HOST).and_then(|h| h.to_str().ok()).unwrap_or("127.0.0.1:8080");
-    let mut request = read_request(&query, format!("http://{host}"), &state.taxa)?;
+    let base_url = state.settings.public_url.as_ref().map(|u| u.origin().to_owned()).unwrap_or_default();
+    let audience = if query.audience.as_deref() == Some("full") { Audience::Full } else { Audience::Public };
+    let mut request = read_request(&query, audience, base_url, &state.taxa)?;
     request.licence = state.settings.licence;
-    if query.audience.as_deref() == Some("full") {
+    if audience == Audience::Full {
         let staff = caller
             .person
             .as_ref()
@@ -66,7 +68,6 @@ pub async fn export(
                     .into(),
             ));
         }
-        request.audience = Audience::Full;
     }
     let (media_type, file_name) = request.format.media_type_and_file();
     let (sender, receiver) = mpsc::channel::<Result<Bytes, std::io::Error>>(8);
@@ -105,7 +106,12 @@ pub async fn export(
         .into_response())
 }
 
-fn read_request(query: &ExportQuery, base_url: String, taxa: &TaxonIndex) -> Result<ExportRequest, ApiError> {
+fn read_request(
+    query: &ExportQuery,
+    audience: Audience,
+    base_url: String,
+    taxa: &TaxonIndex,
+) -> Result<ExportRequest, ApiError> {
     let bad = |message: String| ApiError::BadRequest(message);
     let format = Format::parse(&query.format)
         .ok_or_else(|| bad(format!("unknown export format `{}`; available: csv, dwca, geojson", query.format)))?;
@@ -119,18 +125,11 @@ fn read_request(query: &ExportQuery, base_url: String, taxa: &TaxonIndex) -> Res
             .map(|t| t.parse::<NaiveDate>().map_err(|_| bad(format!("{what} `{t}` is not a date (YYYY-MM-DD)"))))
             .transpose()
     };
-    let (from_utc, until_utc) = day_bounds(day(&query.from, "from")?, day(&query.to, "to")?);
+    let days = Days { from: day(&query.from, "from")?, to: day(&query.to, "to")? };
     let bbox = query.bbox.as_deref().map(parse_bbox).transpose().map_err(|m| bad(format!("bbox: {m}")))?;
     let states: Vec<String> = query.state.as_deref().unwrap_or(DEFAULT_STATE).split(',').map(str::to_owned).collect();
     let states = parse_states(&states).map_err(bad)?;
-    Ok(ExportRequest {
-        format,
-        audience: Audience::Public,
-        filter: RowFilter { states, from_utc, until_utc, bbox },
-        taxon,
-        base_url,
-        licence: export::Licence::default(),
-    })
+    Ok(ExportRequest { format, audience, states, days, bbox, taxon, base_url, licence: export::Licence::default() })
 }
 
 const CHUNK: usize = 64 * 1024;

@@ -106,16 +106,29 @@ pub async fn reply(
 }
 
 /// `PUT /api/my/profile`: the name and contact this phone's observer chose to give
-/// (either may be empty). The contact is for reviewers only; no route sends it out.
+/// (either may be empty), and whether the name may be published with open data. The
+/// contact is for reviewers only, on that observer's records; it is never exported.
 pub async fn set_profile(
     State(state): State<AppState>,
     Observer(me): Observer,
     body: Bytes,
 ) -> Result<Json<serde_json::Value>, ApiError> {
-    let profile: DeviceRequest = parse_json(&body).map_err(intake_error)?;
-    let name = profile.display_name.map(|n| n.as_str().trim().to_owned()).filter(|n| !n.is_empty());
-    let contact = profile.contact.map(|c| c.as_str().trim().to_owned()).filter(|c| !c.is_empty());
-    let has_contact = contact.is_some();
-    state.store.run(move |conn| people::set_observer_profile(conn, me.id, name.as_deref(), contact.as_deref())).await?;
-    Ok(Json(serde_json::json!({"saved": true, "contact_given": has_contact})))
+    let profile = observer_profile(parse_json(&body).map_err(intake_error)?);
+    let answer = serde_json::json!({
+        "saved": true,
+        "contact_given": profile.contact.is_some(),
+        "name_public": profile.name_public,
+    });
+    state.store.run(move |conn| people::set_observer_profile(conn, me.id, &profile)).await?;
+    Ok(Json(answer))
+}
+
+/// A profile as the store keeps it: blank answers left out.
+pub fn observer_profile(request: DeviceRequest) -> people::ObserverProfile {
+    let given = |text: Option<shared_types::Text>| text.map(|t| t.as_str().trim().to_owned()).filter(|t| !t.is_empty());
+    people::ObserverProfile {
+        display_name: given(request.display_name),
+        contact: given(request.contact),
+        name_public: request.name_public,
+    }
 }

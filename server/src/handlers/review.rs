@@ -6,13 +6,14 @@ use axum::extract::{Path, Query, State};
 use chrono::Utc;
 use serde::Deserialize;
 use shared_types::codes::{code as code_of, from_code};
-use shared_types::{QueueFlag, QueueItem, ReviewAction, ReviewDetail, ReviewState};
+use shared_types::{NameReading, QueueFlag, QueueItem, RecordView, ReviewAction, ReviewDetail, ReviewState};
 use uuid::Uuid;
 
 use crate::error::ApiError;
 use crate::handlers::access::Reviewer;
 use crate::handlers::observations::intake_error;
 use crate::intake::parse_json;
+use crate::protect::{Audience, Publisher};
 use crate::review;
 use crate::review::queue::Wanted;
 use crate::state::AppState;
@@ -112,28 +113,56 @@ pub async fn detail(
     Path(client_id): Path<String>,
 ) -> Result<Json<ReviewDetail>, ApiError> {
     let id = record_id(&client_id)?;
+    let taxa = state.taxa.clone();
     let found = state
         .store
         .run(move |conn| {
             let Some(record) = observations::record_by_client_id(conn, id)? else { return Ok(None) };
+            let publisher = Publisher::load(conn, &taxa, Audience::Public)?;
             let observation = record.observation_id;
             let taxon = review_store::current_taxon(conn, observation)?;
             let duplicates = review::duplicate_views(conn, &record)?;
             let possible = !duplicates.is_empty() && duplicates.iter().any(|d| d.decision.is_none());
+            let name_reading = taxon.as_deref().map(|typed| read_name(&publisher, &record, typed));
             let history = (
                 review_store::identifications(conn, observation)?,
                 review_store::messages(conn, observation)?,
                 review_store::events(conn, observation)?,
             );
             let observer = people_store::observer_of_observation(conn, observation)?;
-            Ok(Some((record, taxon, history, duplicates, possible, observer)))
+            Ok(Some((record, taxon, name_reading, history, duplicates, possible, observer)))
         })
         .await?;
-    let (record, taxon, (identifications, messages, events), duplicates, possible, observer) =
+    let (record, taxon, name_reading, (identifications, messages, events), duplicates, possible, observer) =
         found.ok_or_else(|| ApiError::NotFound(format!("no record with id {id}")))?;
-    let (_, priority_reasons) = review::priority(&record, taxon.as_deref(), state.checklist(), possible);
+    let (_, priority_reasons) = review::priority(&record, taxon.as_deref(), &state.taxa, possible);
     let key = review::key_replay(state.checklist(), &record.submission);
-    Ok(Json(ReviewDetail { record, identifications, messages, events, priority_reasons, duplicates, key, observer }))
+    Ok(Json(ReviewDetail {
+        record,
+        identifications,
+        messages,
+        events,
+        priority_reasons,
+        duplicates,
+        key,
+        observer,
+        name_reading,
+    }))
+}
+
+/// How the current identification `typed` reads, and where the public sees the record because of it.
+fn read_name(publisher: &Publisher, record: &RecordView, typed: &str) -> NameReading {
+    let resolution = publisher.names().resolution(typed);
+    let position = record.submission.position.as_ref().map(|p| (p.latitude.get(), p.longitude.get()));
+    let uncertainty = record.submission.position.as_ref().and_then(|p| p.accuracy_m).map(|a| a.get());
+    let walk = record.walk_client_id.map(|w| w.to_string());
+    let place = publisher.place(record.review_state, Some(&resolution), walk.as_deref(), position, uncertainty);
+    NameReading {
+        typed: typed.to_owned(),
+        reading: resolution.describe(),
+        resolved: resolution.taxon().is_some(),
+        public_place: place.generalizations.unwrap_or_else(|| "as recorded".to_owned()),
+    }
 }
 
 /// `POST /api/review/records/{client_id}/duplicates/{other_client_id}`: the same animal

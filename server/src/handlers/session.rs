@@ -1,10 +1,15 @@
 //! Signing in and out (reviewers and admins), and the phones' device identities.
 //!
-//! The session cookie is `HttpOnly; SameSite=Strict`, and `Secure` when the request
-//! came over HTTPS through a reverse proxy (`X-Forwarded-Proto: https`). It is not
-//! `Secure` on plain HTTP — the demo on http://127.0.0.1 — because a browser may refuse
-//! to keep a `Secure` cookie set over plain HTTP, and on plain HTTP the flag would
-//! protect nothing.
+//! The session cookie is `HttpOnly; SameSite=Strict`, and `Secure` when people reach
+//! the server over HTTPS: its public address is `https://`, or a trusted reverse proxy
+//! says so (`X-Forwarded-Proto: https`). It is not `Secure` on plain HTTP — the demo on
+//! http://127.0.0.1 — because a browser may refuse to keep a `Secure` cookie set over
+//! plain HTTP, and on plain HTTP the flag would protect nothing.
+//!
+//! Sign-in takes JSON only (`Content-Type: application/json`): a page on another site
+//! can send a form or `text/plain` without asking, but not JSON, so it cannot sign a
+//! visitor in under its own account (login CSRF). The origin check
+//! (`handlers::guard`) refuses such a request before it gets here too.
 
 use std::time::Instant;
 
@@ -17,7 +22,8 @@ use chrono::Utc;
 use shared_types::{DeviceIdentity, DeviceRequest, LoginRequest, SessionInfo};
 
 use crate::error::ApiError;
-use crate::handlers::access::{Caller, ClientAddress, SESSION_COOKIE, came_over_https};
+use crate::handlers::access::{Caller, Client, SESSION_COOKIE};
+use crate::handlers::mine::observer_profile;
 use crate::handlers::observations::intake_error;
 use crate::intake::parse_json;
 use crate::people::auth::{self, SESSION_HOURS, new_token, token_sha256};
@@ -27,13 +33,21 @@ use crate::store::people;
 /// `POST /api/session`: signs in; sets the session cookie and returns the CSRF token.
 pub async fn login(
     State(state): State<AppState>,
-    ClientAddress(address): ClientAddress,
+    client: Client,
     headers: HeaderMap,
     body: Bytes,
 ) -> Result<Response, ApiError> {
+    let json = headers
+        .get(header::CONTENT_TYPE)
+        .and_then(|v| v.to_str().ok())
+        .is_some_and(|v| v.split(';').next().is_some_and(|t| t.trim().eq_ignore_ascii_case("application/json")));
+    if !json {
+        return Err(ApiError::UnsupportedMedia("sign-in takes JSON: send Content-Type: application/json".into()));
+    }
     let request: LoginRequest = parse_json(&body).map_err(intake_error)?;
     let username = request.username.trim().to_owned();
     // Counted as a failure from here on, so parallel guesses cannot all pass this check.
+    let address = client.address;
     let began = Instant::now();
     if let Err((wait, lock)) = state.logins.begin_attempt(&username, address, began) {
         let minutes = wait.as_secs().div_ceil(60);
@@ -42,9 +56,10 @@ pub async fn login(
             auth::Lock::Address => "from this address".to_owned(),
             auth::Lock::Name => format!("for {username}"),
         };
-        return Err(ApiError::TooManyRequests(format!(
-            "too many failed sign-ins {whose}; try again in {minutes} minutes"
-        )));
+        return Err(ApiError::TooManyRequests {
+            message: format!("too many failed sign-ins {whose}; try again in {minutes} minutes"),
+            retry_after_s: wait.as_secs().max(1),
+        });
     }
     let lookup = username.clone();
     let found = state.store.run(move |conn| people::staff_by_username(conn, &lookup)).await?;
@@ -66,7 +81,7 @@ pub async fn login(
         .store
         .run(move |conn| people::add_session(conn, &hash, id, &csrf, now, now + chrono::Duration::hours(SESSION_HOURS)))
         .await?;
-    let cookie = session_cookie(&token, SESSION_HOURS * 3600, came_over_https(&headers));
+    let cookie = session_cookie(&token, SESSION_HOURS * 3600, client.https);
     let info = SessionInfo { role: person.role, display_name: person.display_name.unwrap_or_default(), csrf_token };
     let mut response_headers = HeaderMap::new();
     response_headers
@@ -81,11 +96,11 @@ fn session_cookie(token: &str, max_age_s: i64, secure: bool) -> String {
 }
 
 /// `DELETE /api/session`: signs out.
-pub async fn logout(State(state): State<AppState>, headers: HeaderMap, caller: Caller) -> Result<Response, ApiError> {
+pub async fn logout(State(state): State<AppState>, client: Client, caller: Caller) -> Result<Response, ApiError> {
     if let Some(hash) = caller.session_sha256 {
         state.store.run(move |conn| people::end_session(conn, &hash)).await?;
     }
-    let expired = session_cookie("", 0, came_over_https(&headers));
+    let expired = session_cookie("", 0, client.https);
     Ok(([(header::SET_COOKIE, expired)], Json(serde_json::json!({"signed_out": true}))).into_response())
 }
 
@@ -113,11 +128,7 @@ pub async fn new_device(State(state): State<AppState>, body: Bytes) -> Result<Js
         if body.is_empty() { DeviceRequest::default() } else { parse_json(&body).map_err(intake_error)? };
     let token = new_token();
     let hash = token_sha256(&token);
-    let name = request.display_name.map(|n| n.as_str().to_owned()).filter(|n| !n.is_empty());
-    let contact = request.contact.map(|c| c.as_str().to_owned()).filter(|c| !c.is_empty());
-    state
-        .store
-        .run(move |conn| people::add_device(conn, &hash, name.as_deref(), contact.as_deref(), Utc::now()))
-        .await?;
+    let profile = observer_profile(request);
+    state.store.run(move |conn| people::add_device(conn, &hash, &profile, Utc::now())).await?;
     Ok(Json(DeviceIdentity { token }))
 }

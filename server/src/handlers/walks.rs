@@ -3,20 +3,24 @@
 //! the record, or a reviewer), and the effort summary. Record and walk ids are public
 //! (exports print them), so knowing one gives no right to it.
 
+use std::collections::HashSet;
+
 use axum::Json;
 use axum::body::Bytes;
 use axum::extract::{Path, Query, State};
 use chrono::Utc;
 use serde::Deserialize;
 use shared_types::{WalkLink, WalkReceipt};
+use species_key::Sensitivity;
 use uuid::Uuid;
 
 use crate::assess::effort::{self, EffortRow, Period};
 use crate::error::ApiError;
-use crate::handlers::access::{Observer, Reviewer, Someone, check_owner};
+use crate::handlers::access::{Caller, Observer, Reviewer, Someone, check_owner};
 use crate::handlers::observations::intake_error;
 use crate::intake::walks::WalkRefused;
 use crate::intake::{parse_json, walks as intake_walks};
+use crate::protect::{Audience, Publisher};
 use crate::state::AppState;
 use crate::store::review as review_store;
 use crate::store::walks::{self, LinkOutcome, StoredWalk};
@@ -77,11 +81,28 @@ pub struct EffortQuery {
     by: Option<Period>,
 }
 
-/// `GET /api/effort?by=month|year`.
+/// `GET /api/effort?by=month|year`: for anyone but reviewers, walks whose finds are
+/// generalised count under a withheld stretch (see `assess::effort`).
 pub async fn effort(
     State(state): State<AppState>,
+    caller: Caller,
     Query(query): Query<EffortQuery>,
 ) -> Result<Json<Vec<EffortRow>>, ApiError> {
-    let stored = state.store.run(|conn| walks::list_walks(conn)).await?;
-    Ok(Json(effort::summarise(&stored, query.by.unwrap_or(Period::Year))))
+    let taxa = state.taxa.clone();
+    let audience = caller.audience();
+    let (stored, withheld) = state
+        .store
+        .read(move |conn| {
+            let publisher = Publisher::load(conn, &taxa, audience)?;
+            let stored = walks::list_walks(conn)?;
+            let withheld: HashSet<String> = stored
+                .iter()
+                .map(|w| w.walk.client_id.to_string())
+                .filter(|id| audience == Audience::Public && publisher.walk_sensitivity(id) != Sensitivity::None)
+                .collect();
+            Ok((stored, withheld))
+        })
+        .await?;
+    let withhold = |walk: &StoredWalk| withheld.contains(&walk.walk.client_id.to_string());
+    Ok(Json(effort::summarise(&stored, query.by.unwrap_or(Period::Year), &withhold)))
 }

@@ -1,11 +1,14 @@
-//! Public locations of sensitive species, generalised as Chapman 2020 (*Current Best
-//! Practices for Generalizing Sensitive Species Occurrence Data*, GBIF) recommends:
-//! withhold, or round to a 0.1°, 0.01° or 0.001° grid.
+//! Public locations, generalised as Chapman 2020 (*Current Best Practices for
+//! Generalizing Sensitive Species Occurrence Data*, GBIF) recommends: withhold, or round
+//! to a 0.1°, 0.01° or 0.001° grid. [`super::published_place`] decides how far, and why.
 //!
 //! A rounded position lies in a cell one grid step wide around it, so the uncertainty
 //! is raised by that cell's diagonal, measured on the WGS84 ellipsoid at the cell (about
 //! 15.7 km, 1.57 km and 157 m at the equator, less further from it). The record says what
 //! was done in `dataGeneralizations` and what is missing in `informationWithheld`.
+
+use std::cell::RefCell;
+use std::collections::HashMap;
 
 use geo::{Distance as _, Geodesic, Point};
 use species_key::Sensitivity;
@@ -23,7 +26,8 @@ pub struct PublicPlace {
     pub generalizations: Option<String>,
     /// What exists but is not shared (Darwin Core `informationWithheld`).
     pub withheld: Option<String>,
-    /// Whether photos and free-text remarks must be left out too (they can give the place away).
+    /// Whether photos and free text (remarks, names as typed) must be left out too: they
+    /// can give the place, or the species, away.
     pub hide_media_and_remarks: bool,
 }
 
@@ -39,17 +43,23 @@ pub fn as_recorded(position: Option<(f64, f64)>, uncertainty_m: Option<f64>) -> 
     }
 }
 
-/// The position to publish for a record of a species with `sensitivity`.
-pub fn public_place(position: Option<(f64, f64)>, uncertainty_m: Option<f64>, sensitivity: Sensitivity) -> PublicPlace {
+/// The position to publish at `sensitivity`; `why` says for what, in words ("a
+/// sensitive species"), for `dataGeneralizations` and `informationWithheld`.
+pub fn public_place(
+    position: Option<(f64, f64)>,
+    uncertainty_m: Option<f64>,
+    sensitivity: Sensitivity,
+    why: &str,
+) -> PublicPlace {
     if sensitivity.withholds_location() {
         return PublicPlace {
             position: None,
             decimals: 0,
             uncertainty_m: None,
-            generalizations: Some("Location withheld: sensitive species (Chapman 2020, GBIF).".into()),
-            withheld: Some(
-                "location, photos and remarks withheld for a sensitive species; assessors may ask the network".into(),
-            ),
+            generalizations: Some(format!("Location withheld for {why} (Chapman 2020, GBIF).")),
+            withheld: Some(format!(
+                "location, time of day, observer, photos and free text withheld for {why}; assessors may ask the network"
+            )),
             hide_media_and_remarks: true,
         };
     }
@@ -65,13 +75,12 @@ pub fn public_place(position: Option<(f64, f64)>, uncertainty_m: Option<f64>, se
         decimals,
         uncertainty_m: Some(raised),
         generalizations: Some(format!(
-            "Coordinates rounded to the nearest {step} degree for a sensitive species (Chapman 2020, GBIF); \
+            "Coordinates rounded to the nearest {step} degree for {why} (Chapman 2020, GBIF); \
              coordinateUncertaintyInMeters raised by the cell diagonal, {diagonal:.0} m."
         )),
-        withheld: Some(
-            "precise location, photos and remarks withheld for a sensitive species; assessors may ask the network"
-                .into(),
-        ),
+        withheld: Some(format!(
+            "precise location, time of day, observer, photos and free text withheld for {why}; assessors may ask the network"
+        )),
         hide_media_and_remarks: true,
     }
 }
@@ -84,12 +93,29 @@ fn round_to(value: f64, step: f64) -> f64 {
 }
 
 /// Geodesic length (WGS84) of the diagonal of the `step`-wide cell centred on `centre`.
+/// It depends on the cell's latitude and size only, so each thread remembers the ones it
+/// has measured: an export generalises many records in few rows of cells.
 fn cell_diagonal_m((lat, lon): (f64, f64), step: f64) -> f64 {
-    let half = step / 2.0;
-    let south_west = Point::new(lon - half, (lat - half).max(-90.0));
-    let north_east = Point::new(lon + half, (lat + half).min(90.0));
-    Geodesic.distance(south_west, north_east)
+    thread_local! {
+        static MEASURED: RefCell<HashMap<(u64, u64), f64>> = RefCell::new(HashMap::new());
+    }
+    let measure = || {
+        let half = step / 2.0;
+        let south_west = Point::new(lon - half, (lat - half).max(-90.0));
+        let north_east = Point::new(lon + half, (lat + half).min(90.0));
+        Geodesic.distance(south_west, north_east)
+    };
+    MEASURED.with(|measured| {
+        let mut measured = measured.borrow_mut();
+        if measured.len() > MAX_REMEMBERED_ROWS {
+            measured.clear();
+        }
+        *measured.entry((lat.to_bits(), step.to_bits())).or_insert_with(measure)
+    })
 }
+
+/// How many rows of cells a thread remembers before it starts again (a few hundred kB).
+const MAX_REMEMBERED_ROWS: usize = 10_000;
 
 #[cfg(test)]
 mod tests {
@@ -117,7 +143,7 @@ mod tests {
             (Withhold, (52.4321, -4.0876), Some(8.0), None),
         ];
         for (category, recorded, uncertainty, published) in cases {
-            let place = public_place(Some(recorded), uncertainty, category);
+            let place = public_place(Some(recorded), uncertainty, category, "a sensitive species");
             assert_eq!(place.position, published, "{category:?} {recorded:?}");
             assert!(
                 place.generalizations.is_some() && place.withheld.is_some(),
@@ -149,9 +175,9 @@ mod tests {
 
     #[test]
     fn species_that_are_not_sensitive_keep_their_position() {
-        let place = public_place(Some((52.4321, -4.0876)), Some(8.0), Sensitivity::None);
+        let place = public_place(Some((52.4321, -4.0876)), Some(8.0), Sensitivity::None, "");
         assert_eq!(place, as_recorded(Some((52.4321, -4.0876)), Some(8.0)));
-        let no_position = public_place(None, None, Sensitivity::TenthDegree);
+        let no_position = public_place(None, None, Sensitivity::TenthDegree, "a sensitive species");
         assert_eq!(no_position.position, None);
     }
 }

@@ -59,13 +59,13 @@ fn photo_reasons(record: &RecordView) -> Vec<String> {
 pub fn priority(
     record: &RecordView,
     current_taxon: Option<&str>,
-    checklist: &Checklist,
+    taxa: &TaxonIndex,
     possible_duplicate: bool,
 ) -> (u32, Vec<String>) {
     let mut score = 0;
     let mut reasons = Vec::new();
     // At any rank: a genus or family counts as protected or sensitive if any of its species is.
-    if let Some(taxon) = current_taxon.and_then(|name| crate::taxa::NamedTaxon::find(checklist, name)) {
+    if let Some(taxon) = current_taxon.and_then(|name| taxa.named(name)) {
         let may_be = if taxon.rank == species_key::TaxonRank::Species { "" } else { " (or holds species that are)" };
         if taxon.protected {
             score += 1000;
@@ -146,7 +146,7 @@ pub fn select(rows: Vec<(bool, RecordView, Option<String>)>, wanted: &Wanted, ta
                 && wanted.to.as_deref().is_none_or(|to| day.as_str() <= to)
         })
         .map(|(possible, record, current)| {
-            let (score, reasons) = priority(&record, current.as_deref(), checklist, possible);
+            let (score, reasons) = priority(&record, current.as_deref(), taxa, possible);
             (score, record, reasons, current)
         })
         .collect();

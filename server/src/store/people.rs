@@ -51,7 +51,8 @@ pub fn add_staff(
 ) -> Result<Option<i64>, StoreError> {
     let tx = conn.transaction()?;
     let inserted = tx.execute(
-        "INSERT OR IGNORE INTO people (role, username, display_name, password_hash, created_at) VALUES (?1, ?2, ?3, ?4, ?5)",
+        "INSERT OR IGNORE INTO people (role, username, display_name, password_hash, created_at, public_id)
+         VALUES (?1, ?2, ?3, ?4, ?5, lower(hex(randomblob(16))))",
         params![role.code(), username, display_name, password_hash, now_text(now)],
     )?;
     if inserted == 0 {
@@ -100,17 +101,28 @@ pub fn staff_by_username(conn: &Connection, username: &str) -> Result<Option<(Pe
     row.map(|(person, hash)| Ok((to_person(person)?, hash))).transpose()
 }
 
-/// Adds an observer known by their device token's hash.
+/// What an observer chose to tell: a name and a contact (either may be absent), and
+/// whether the name may be published with open data.
+#[derive(Debug, Clone, Default, PartialEq)]
+pub struct ObserverProfile {
+    pub display_name: Option<String>,
+    /// For reviewers only, on that observer's records; never exported.
+    pub contact: Option<String>,
+    pub name_public: bool,
+}
+
+/// Adds an observer known by their device token's hash, with a fresh random public id
+/// (never derived from the token).
 pub fn add_device(
     conn: &Connection,
     token_sha256: &str,
-    display_name: Option<&str>,
-    contact: Option<&str>,
+    profile: &ObserverProfile,
     now: DateTime<Utc>,
 ) -> Result<i64, StoreError> {
     conn.execute(
-        "INSERT INTO people (role, display_name, contact, device_token_sha256, created_at) VALUES ('observer', ?1, ?2, ?3, ?4)",
-        params![display_name, contact, token_sha256, now_text(now)],
+        "INSERT INTO people (role, display_name, contact, name_public, device_token_sha256, created_at, public_id)
+         VALUES ('observer', ?1, ?2, ?3, ?4, ?5, lower(hex(randomblob(16))))",
+        params![profile.display_name, profile.contact, profile.name_public, token_sha256, now_text(now)],
     )?;
     Ok(conn.last_insert_rowid())
 }
@@ -275,16 +287,12 @@ pub fn observer_of_observation(
         .optional()?)
 }
 
-/// The name and contact an observer gave (for reviewers, on that observer's records).
-pub fn set_observer_profile(
-    conn: &Connection,
-    observer_id: i64,
-    display_name: Option<&str>,
-    contact: Option<&str>,
-) -> Result<(), StoreError> {
+/// The name, contact and naming consent an observer gave (the contact is for
+/// reviewers, on that observer's records; no other route sends it out).
+pub fn set_observer_profile(conn: &Connection, observer_id: i64, profile: &ObserverProfile) -> Result<(), StoreError> {
     conn.execute(
-        "UPDATE people SET display_name = ?1, contact = ?2 WHERE id = ?3 AND role = 'observer'",
-        params![display_name, contact, observer_id],
+        "UPDATE people SET display_name = ?1, contact = ?2, name_public = ?3 WHERE id = ?4 AND role = 'observer'",
+        params![profile.display_name, profile.contact, profile.name_public, observer_id],
     )?;
     Ok(())
 }

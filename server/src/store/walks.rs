@@ -7,6 +7,7 @@ use shared_types::{WalkReceipt, WalkSubmission};
 use uuid::Uuid;
 
 use super::StoreError;
+use super::occurrences::ObserverRow;
 
 /// What happened to a walk submission.
 #[derive(Debug, Clone, PartialEq)]
@@ -118,14 +119,21 @@ pub fn list_walks(conn: &Connection) -> Result<Vec<StoredWalk>, StoreError> {
 }
 
 /// Calls `each` with every walk, earliest first, one at a time (for exports: no record
-/// lists, so memory stays flat however many walks there are).
-pub fn for_each_walk(conn: &Connection, mut each: impl FnMut(WalkSubmission)) -> Result<(), StoreError> {
-    let mut stmt = conn
-        .prepare("SELECT id, submission_json FROM walks WHERE submission_json IS NOT NULL ORDER BY started_at, id")?;
+/// lists, so memory stays flat however many walks there are), with who walked it as an
+/// export may name them (the name given on the walk, their profile name, consent and public id).
+pub fn for_each_walk(conn: &Connection, mut each: impl FnMut(WalkSubmission, ObserverRow)) -> Result<(), StoreError> {
+    let mut stmt = conn.prepare(
+        "SELECT w.id, w.submission_json, COALESCE(q.name_public, 0), q.public_id, q.display_name FROM walks w
+         LEFT JOIN people q ON q.id = w.observer_id
+         WHERE w.submission_json IS NOT NULL ORDER BY w.started_at, w.id",
+    )?;
     let mut rows = stmt.query([])?;
     while let Some(row) = rows.next()? {
         let (walk_id, json): (i64, String) = (row.get(0)?, row.get(1)?);
-        each(serde_json::from_str(&json).map_err(|err| StoreError::Corrupt(format!("walk {walk_id}: {err}")))?);
+        let walk: WalkSubmission =
+            serde_json::from_str(&json).map_err(|err| StoreError::Corrupt(format!("walk {walk_id}: {err}")))?;
+        let name = walk.observer_name.as_ref().map(|n| n.as_str().to_owned()).unwrap_or_default();
+        each(walk, ObserverRow { name, name_public: row.get(2)?, public_id: row.get(3)?, profile_name: row.get(4)? });
     }
     Ok(())
 }

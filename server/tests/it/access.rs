@@ -12,7 +12,9 @@ use reqwest::multipart::{Form, Part};
 use serde_json::{Value, json};
 use wrackline_server::router::{Access, ROUTES, RouteSpec};
 
-use crate::helpers::{REVIEWER_PASSWORD, Staff, TestApp, plain_jpeg, sign_in, spawn_app, submission};
+use crate::helpers::{
+    REVIEWER_PASSWORD, Staff, TestApp, plain_jpeg, sign_in, spawn_app, spawn_app_behind_proxy, submission,
+};
 
 const RECORD: &str = "6f9a4c2e-1d3b-4e5f-8a7b-9c0d1e2f3a4b";
 const OTHER_RECORD: &str = "0b7e6d5c-4b3a-4291-8f7e-6d5c4b3a2910";
@@ -337,7 +339,7 @@ async fn another_observer_sees_nothing_of_a_record_that_is_not_theirs() {
 
 #[tokio::test]
 async fn sign_in_refuses_wrong_passwords_then_locks_the_name_from_that_address_only() {
-    let app = spawn_app().await;
+    let app = spawn_app_behind_proxy().await;
     for _ in 0..wrackline_server::people::auth::MAX_FAILURES {
         let (status, body) = sign_in(&app.client, &app.base, "test-reviewer", "not the password").await.err().unwrap();
         assert_eq!(status, 401);
@@ -347,8 +349,8 @@ async fn sign_in_refuses_wrong_passwords_then_locks_the_name_from_that_address_o
     assert_eq!(status, 429, "even the right password waits out the lock: {body}");
     assert!(body["error"].as_str().unwrap().contains("try again in 15 minutes"), "{body}");
     // Other names are not locked, and the reviewer can still sign in from elsewhere
-    // (the test connects from 127.0.0.1, so the server reads X-Forwarded-For as a
-    // reverse proxy on the same machine would set it).
+    // (the test connects from 127.0.0.1, a trusted proxy here, so the server reads
+    // X-Forwarded-For as a reverse proxy on the same machine would set it).
     assert!(sign_in(&app.client, &app.base, "test-admin", REVIEWER_PASSWORD).await.is_ok());
     let elsewhere = app
         .client
@@ -368,7 +370,7 @@ async fn sign_in_from(app: &TestApp, address: &str, username: &str, password: &s
 
 #[tokio::test]
 async fn one_address_trying_many_names_is_stopped() {
-    let app = spawn_app().await;
+    let app = spawn_app_behind_proxy().await;
     for n in 0..wrackline_server::people::auth::MAX_FAILURES_PER_ADDRESS {
         assert_eq!(sign_in_from(&app, "203.0.113.9", &format!("guess-{n}"), "not the password").await, 401);
     }
@@ -388,7 +390,7 @@ async fn one_address_trying_many_names_is_stopped() {
 /// lock counts a guess before its (slow) password check, not after.
 #[tokio::test(flavor = "multi_thread", worker_threads = 4)]
 async fn wrong_passwords_sent_at_once_get_no_more_tries_than_the_lock_allows() {
-    let app = std::sync::Arc::new(spawn_app().await);
+    let app = std::sync::Arc::new(spawn_app_behind_proxy().await);
     let guess = || {
         let app = app.clone();
         async move { sign_in_from(&app, "203.0.113.77", "test-reviewer", "not the password").await }
@@ -404,7 +406,7 @@ async fn wrong_passwords_sent_at_once_get_no_more_tries_than_the_lock_allows() {
 /// password, so the answer's timing does not say which names exist.
 #[tokio::test]
 async fn unknown_names_take_as_long_as_wrong_passwords() {
-    let app = spawn_app().await;
+    let app = spawn_app_behind_proxy().await;
     let timed = |username: &'static str, address: &'static str| {
         let app = &app;
         async move {
@@ -461,7 +463,7 @@ async fn the_session_cookie_is_http_only_and_same_site_and_csrf_is_required() {
 
 #[tokio::test]
 async fn behind_an_https_proxy_the_cookie_is_secure() {
-    let app = spawn_app().await;
+    let app = spawn_app_behind_proxy().await;
     let response = app
         .client
         .post(format!("{}/api/session", app.base))

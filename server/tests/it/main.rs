@@ -3,13 +3,16 @@
 
 mod access;
 mod assess_cli;
+mod attacker;
 mod cli;
+mod consent;
 mod decode_gate;
 mod derivatives;
 mod duplicates;
 mod exif;
 mod exports;
 mod flags;
+mod hardening;
 mod helpers;
 mod hostile;
 mod key_priors;

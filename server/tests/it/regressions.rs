@@ -82,7 +82,7 @@ async fn exports_and_the_queue_read_names_from_the_checklist_the_server_was_star
     record["species_guess"] = json!("borth roker");
     assert_eq!(app.submit(&record, &[]).await.status, 200);
 
-    let export = app.get("/api/export?format=csv&taxon=borth%20roker&state=any").await;
+    let export = app.get("/api/export?format=csv&state=any&taxon=borth%20roker").await;
     assert_eq!(export.status(), 200, "the server's own checklist names the taxon");
     let csv = export.text().await.unwrap();
     assert!(csv.contains(FIRST) && csv.contains("Raja clavata"), "{csv}");
@@ -219,7 +219,7 @@ const PINNED_ELSEWHERE: &[(&str, &str, &str, &str)] = &[
         "a family with a sensitive species showed its record positions (hull corners, map) to anyone",
         "7e38d6c",
         "tests/it/assess_cli.rs",
-        "a_family_with_a_sensitive_species_keeps_its_places_for_reviewers",
+        "a_family_with_a_sensitive_species_is_figured_from_published_places_for_the_public",
     ),
     (
         "an export filter changed a walk's absences: finds outside the filter counted as not found",
@@ -250,6 +250,60 @@ const PINNED_ELSEWHERE: &[(&str, &str, &str, &str)] = &[
         "19ca1a4",
         "tests/it/exports/history.rs",
         "a_confirmation_is_in_the_occurrence_and_every_identification_in_the_history",
+    ),
+    (
+        "the public bbox ran on stored coordinates: shrinking boxes found a sensitive record to 6 decimals",
+        "e264148",
+        "tests/it/attacker.rs",
+        "no_sequence_of_public_requests_finds_a_sensitive_record_more_precisely_than_published",
+    ),
+    (
+        "a name that was not the checklist's exact name (a space, sp., an authority, a local name, a question mark) was published unmasked",
+        "9e066c9",
+        "src/taxa/tests.rs",
+        "every_way_of_writing_a_sensitive_taxon_reads_as_a_sensitive_taxon_or_not_at_all",
+    ),
+    (
+        "records awaiting review were public by default, as recorded",
+        "e264148",
+        "tests/it/exports.rs",
+        "filters_select_by_taxon_area_date_and_review_state",
+    ),
+    (
+        "observer names were published to anonymous callers without their consent",
+        "1311cab",
+        "tests/it/consent.rs",
+        "a_name_is_published_only_with_the_observers_consent",
+    ),
+    (
+        "a name or note starting with =, +, - or @ came out as a formula in the public CSV",
+        "e264148",
+        "tests/it/exports.rs",
+        "text_a_spreadsheet_would_run_as_a_formula_is_neutralised_in_every_format",
+    ),
+    (
+        "sign-in accepted a cross-site text/plain POST (login CSRF)",
+        "87fffd9",
+        "tests/it/hardening.rs",
+        "sign_in_takes_json_only",
+    ),
+    (
+        "the Host header was copied into exported photo links",
+        "87fffd9",
+        "tests/it/hardening.rs",
+        "links_point_under_the_configured_public_address_never_the_host_header",
+    ),
+    (
+        "X-Forwarded-For was believed from any peer on this machine, so a caller could rotate it or lock a reviewer out",
+        "87fffd9",
+        "tests/it/hardening.rs",
+        "x_forwarded_for_from_a_peer_that_is_no_trusted_proxy_is_ignored",
+    ),
+    (
+        "the app was served with no Content-Security-Policy, nosniff, frame protection or Referrer-Policy",
+        "87fffd9",
+        "tests/it/hardening.rs",
+        "every_answer_carries_the_security_headers",
     ),
     (
         "answers a refreshed checklist no longer knows made the key's ranking fail",

@@ -474,3 +474,35 @@ async fn reply_photos_get_the_records_offset_and_the_photo_checks() {
         view["priority_reasons"]
     );
 }
+
+#[tokio::test]
+async fn the_record_view_says_how_the_name_reads_and_where_the_public_sees_the_record() {
+    let app = spawn_app().await;
+    let id = "7e7e0000-0000-4000-8000-000000000001";
+    assert_eq!(app.submit(&record(id, "Angel-shark?", 120.0, "2025-06-01T10:00:00+01:00"), &[]).await.status, 200);
+    let reading = &detail(&app, id).await["name_reading"];
+    assert_eq!(reading["typed"], "Squatina squatina", "a guess that resolves is kept under its checklist name");
+    assert_eq!(reading["resolved"], true);
+    let public = reading["public_place"].as_str().unwrap();
+    assert!(public.contains("0.1 degree") && public.contains("not yet confirmed"), "{public}");
+
+    let (status, _) = act(
+        &app,
+        id,
+        json!({"action": "confirm", "scientific_name": "juvenile Raja clavata?", "taxon_rank": "species"}),
+    )
+    .await;
+    assert_eq!(status, 200);
+    let reading = &detail(&app, id).await["name_reading"];
+    assert_eq!(reading["resolved"], false);
+    let words = reading["reading"].as_str().unwrap();
+    assert!(words.contains("not resolved") && words.contains("Raja clavata") && words.contains("juvenile"), "{words}");
+    assert!(reading["public_place"].as_str().unwrap().contains("a name not resolved to a checklist taxon"));
+
+    let (status, _) =
+        act(&app, id, json!({"action": "confirm", "scientific_name": "thornback ray", "taxon_rank": "species"})).await;
+    assert_eq!(status, 200);
+    let reading = &detail(&app, id).await["name_reading"];
+    assert!(reading["reading"].as_str().unwrap().starts_with("Raja clavata (species): matched a common name"));
+    assert_eq!(reading["public_place"], "as recorded", "confirmed, and not a sensitive species");
+}

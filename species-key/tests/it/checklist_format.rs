@@ -193,3 +193,43 @@ fn an_area_box_the_wrong_way_round_is_refused() {
     let err = Checklist::from_json(&value.to_string()).unwrap_err().to_string();
     assert!(err.contains("bounds must be [west, south, east, north]"), "{err}");
 }
+
+#[test]
+fn synonyms_and_local_names_need_a_name_a_language_and_a_source() {
+    let name = |n: &str| serde_json::json!([{ "name": n, "source": "invented for tests" }]);
+    check_taxon_error(|taxon| taxon["synonyms"] = name(" "), &["Sixus beta", "synonyms.name", "blank"]);
+    check_taxon_error(
+        |taxon| taxon["synonyms"] = serde_json::json!([{ "name": "Sixus olim", "source": "" }]),
+        &["Sixus beta", "synonyms.source"],
+    );
+    let local = |name: &str, language: &str, source: &str| serde_json::json!([{ "name": name, "language": language, "source": source }]);
+    check_taxon_error(|taxon| taxon["localNames"] = local("six-gill", "", "x"), &["Sixus beta", "localNames.language"]);
+    check_taxon_error(|taxon| taxon["localNames"] = local("six-gill", "en", " "), &["Sixus beta", "localNames.source"]);
+    check_taxon_error(|taxon| taxon["localNames"] = local("", "en", "x"), &["Sixus beta", "localNames.name"]);
+}
+
+#[test]
+fn a_synonym_may_not_be_the_name_of_another_entry() {
+    check_taxon_error(
+        |taxon| taxon["synonyms"] = serde_json::json!([{ "name": "Fivus alpha", "source": "invented for tests" }]),
+        &["Sixus beta", "synonym Fivus alpha", "scientific name of an entry"],
+    );
+}
+
+#[test]
+fn the_demo_checklist_gives_every_sensitive_species_synonyms_and_local_names_with_sources() {
+    let checklist = demo_checklist();
+    let sensitive: Vec<_> = checklist.taxa().iter().filter(|t| t.sensitivity != Sensitivity::None).collect();
+    assert!(sensitive.len() >= 4);
+    for taxon in sensitive {
+        assert!(!taxon.synonyms.is_empty() && !taxon.local_names.is_empty(), "{}", taxon.scientific_name);
+        let invented = taxon.local_names.iter().filter(|l| l.source.contains("invented")).count();
+        let sourced = taxon.local_names.iter().filter(|l| l.source.contains("from memory")).count();
+        assert_eq!(
+            invented + sourced,
+            taxon.local_names.len(),
+            "{}: each says where it comes from",
+            taxon.scientific_name
+        );
+    }
+}

@@ -2,8 +2,9 @@
 //! the photos' own time and place (the file's EXIF, or the phone's reading of the
 //! original when the upload copy carries none), each photo's gap and distance from the
 //! record with its flags, all fields, the guided key's answers and its suggestions
-//! replayed on the server, flags, possible duplicates, identification history,
-//! messages and audit trail, and who sent it with how to reach them — and the
+//! replayed on the server, how the current name reads against the checklist and what the
+//! public sees of the place because of it, flags, possible duplicates, identification
+//! history, messages and audit trail, and who sent it with how to reach them — and the
 //! decisions. The heading names the current identification; a refused decision is said
 //! right under the buttons.
 
@@ -233,7 +234,12 @@ pub fn RecordReview(client_id: String, back: impl Fn() + Copy + 'static) -> impl
                 <article id="record-review" data-state=d.record.review_state.code()>
                     <h3 id="record-heading">{format!("{} · {}", current.clone().unwrap_or_else(|| guess.clone()), d.record.review_state.label())}</h3>
                     <p class="hint">{format!("Observer's guess: {guess}")}</p>
-                    {observer.map(|line| view! { <p id="observer-contact" class="observer-contact">{line}<span class="hint">" (for questions about this record only; never exported)"</span></p> })}
+                    {d.name_reading.clone().map(|n| view! {
+                        <p id="name-reading" class=if n.resolved { "name-reading" } else { "name-reading unresolved" }>
+                            {format!("Name \u{201c}{}\u{201d} → {}. Public place: {}", n.typed, n.reading, n.public_place)}
+                        </p>
+                    })}
+                    {observer.map(|line| view! { <p id="observer-contact" class="observer-contact">{line}<span class="hint">" (the contact is for questions about this record only; never exported)"</span></p> })}
                     <div class="photos">{photos}</div>
                     <img class="place-map" src=format!("/api/review/records/{}/map.svg", sub.client_id) alt="map of where the record and its photos were made" />
                     <table class="when-where">

@@ -93,7 +93,7 @@ pub fn PhotoZoom(photo: RwSignal<Option<String>>) -> impl IntoView {
                 </div>
                 <div class="zoom-stage" on:wheel=wheel on:pointerdown=down on:pointermove=moved on:pointerup=up on:pointercancel=up>
                     <img id="zoom-image" src=format!("/photos/{sha}") alt="the photo, large" draggable="false"
-                        style=move || { let (x, y) = shift.get(); format!("transform: translate({x:.0}px, {y:.0}px) scale({:.3})", scale.get()) } />
+                        style:transform=move || { let (x, y) = shift.get(); format!("translate({x:.0}px, {y:.0}px) scale({:.3})", scale.get()) } />
                 </div>
             </div>
         })}

@@ -1,6 +1,6 @@
 //! The identification history as Darwin Core Identification rows, and a reviewer's
-//! confirmation in the occurrence row: who (a display name or username, never a contact)
-//! and when.
+//! confirmation in the occurrence row: who (in full exports a display name or username,
+//! in public ones the network's reviewers; never a contact) and when.
 
 use serde_json::{Value, json};
 
@@ -56,7 +56,7 @@ async fn a_confirmation_is_in_the_occurrence_and_every_identification_in_the_his
     confirm(&app, SECOND, "Scyliorhinus canicula", "small spots").await;
 
     let dir = tempfile::tempdir().unwrap();
-    let zip = download(&app, "format=dwca", dir.path(), "history.zip").await;
+    let zip = download(&app, "format=dwca&audience=full", dir.path(), "history.zip").await;
     let archive = run_script("read_dwca.py", &[&zip, &terms_extract()]);
     // TDWG Darwin Core Text Guide: the extension is declared in meta.xml and read back by
     // python-dwca-reader; every term is in the TDWG term list.
@@ -107,6 +107,16 @@ async fn a_confirmation_is_in_the_occurrence_and_every_identification_in_the_his
     );
     let everything = unzip_all(&std::fs::read(&zip).unwrap());
     assert!(!everything.contains(REVIEWER_CONTACT), "a reviewer's contact never leaves the server");
+
+    // The public archive credits the network's reviewers, not a person.
+    let public_zip = download(&app, "format=dwca", dir.path(), "public.zip").await;
+    let public = run_script("read_dwca.py", &[&public_zip, &terms_extract()]);
+    for id in [RECORD, SECOND] {
+        assert_eq!(term(row(&public, id), "identifiedBy"), "wrackline reviewer", "{id}");
+    }
+    let public_text = unzip_all(&std::fs::read(&public_zip).unwrap());
+    assert!(!public_text.contains("Test reviewer") && !public_text.contains("test-reviewer"), "no reviewer's name");
+    assert!(!public_text.contains("Test Observer"), "the observer did not agree to be named");
 }
 
 #[tokio::test]

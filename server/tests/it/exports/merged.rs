@@ -48,7 +48,8 @@ async fn merged_and_confirmed() -> TestApp {
 async fn a_merged_animal_is_the_kept_report_with_the_best_position_and_every_observer() {
     let app = merged_and_confirmed().await;
     let dir = tempfile::tempdir().unwrap();
-    let zip = super::download(&app, "format=dwca&state=confirmed", dir.path(), "merged.zip").await;
+    // The full export: observers' and reviewers' names as given (public exports name neither here).
+    let zip = super::download(&app, "format=dwca&state=confirmed&audience=full", dir.path(), "merged.zip").await;
     let archive = run_script("read_dwca.py", &[&zip, &terms_extract()]);
     let rows = archive["rows"].as_array().unwrap();
     assert_eq!(rows.len(), 1, "the confirmed animal passes a confirmed-only filter, once: {rows:?}");
