@@ -111,8 +111,8 @@ fn serve(data_dir: &std::path::Path, args: ServeArgs, with_demo: bool) -> anyhow
     if app_dir.is_none() {
         eprintln!("note: no built app at {} (run `cargo xtask build`); serving the API only", args.app_dir.display());
     }
-    let mut state = AppState::open(data_dir, app_dir, crate::taxa::load_checklist(args.checklist.as_deref())?)?;
-    state.settings = args.settings;
+    let checklist = crate::taxa::load_checklist(args.checklist.as_deref())?;
+    let state = AppState::open_with(data_dir, app_dir, checklist, args.settings)?;
     let runtime = tokio::runtime::Runtime::new().context("starting the async runtime")?;
     runtime.block_on(async move {
         if with_demo {

@@ -1,12 +1,19 @@
 //! Intake: turns what a phone sent into a stored observation, or into a refusal that
 //! names what is wrong. Nothing is half-stored: photo files are written (by content,
-//! so a retry rewrites nothing) before the one database transaction that links them.
+//! so a retry rewrites nothing) before the one database savepoint that links them, and
+//! a request that fails removes the files it placed (`photos.rs`).
+//!
+//! The order keeps refusals cheap: the record's JSON is checked first; a resend is
+//! answered from the stored receipt (and a changed resend refused) before any photo is
+//! decoded or written; the free-space guard runs before anything is written.
 
 pub mod flags;
 pub mod gate;
 pub mod images;
 pub mod photo_checks;
 pub mod photos;
+pub mod rate;
+pub mod received;
 pub mod walks;
 
 use chrono::{DateTime, Utc};
@@ -18,23 +25,27 @@ use crate::store::Store;
 use crate::store::observations::{self, Insertion, NewObservation, StoredPhoto};
 use crate::taxa::TaxonIndex;
 use images::ImageProblem;
-use photos::{MAX_PHOTO_BYTES, MAX_PHOTOS_PER_RECORD, PhotoFormat, Rendition};
+use photos::{MAX_PHOTO_BYTES, MAX_PHOTOS_PER_RECORD, PhotoFormat, PhotoPin, Rendition};
+use received::ReceivedPhoto;
 
-/// What intake needs of the server: the store, the photo folder, the turns for decoding
-/// and the checklist. Cheap to clone (each part is shared).
+/// What intake needs of the server: the store, the photo folder, the turns for decoding,
+/// the checklist and the free space to keep. Cheap to clone (each part is shared).
 #[derive(Clone)]
 pub struct Intake {
     pub store: Store,
     pub photos: photos::PhotoFiles,
     pub decode_gate: gate::DecodeGate,
     pub taxa: std::sync::Arc<TaxonIndex>,
+    /// Refuse to write when less than this many bytes are free on the data disk.
+    pub min_free_bytes: u64,
 }
 
-/// The raw parts of one submission.
+/// The parts of one submission: the record's JSON and its photos, already received
+/// into scratch files.
 #[derive(Debug, Default)]
 pub struct Upload {
     pub record_json: Vec<u8>,
-    pub photos: Vec<Vec<u8>>,
+    pub photos: Vec<ReceivedPhoto>,
 }
 
 /// Why intake refused a submission, in words for the observer.
@@ -50,8 +61,60 @@ pub enum IntakeError {
     TooManyPhotos(usize),
     #[error("record {0} was already received with different content; a changed record needs a new id")]
     Conflict(uuid::Uuid),
+    /// The data disk is full (or below the free space the operator keeps): nothing of
+    /// this request was kept.
+    #[error("the server's disk is full, so this was not stored; it can be sent again later")]
+    NoRoom,
+    /// The data folder cannot be written (a read-only disk): nothing of this request was kept.
+    #[error("the server cannot write to its data folder just now, so this was not stored; it can be sent again later")]
+    Unwritable,
     #[error(transparent)]
-    Storage(#[from] anyhow::Error),
+    Storage(anyhow::Error),
+}
+
+impl From<anyhow::Error> for IntakeError {
+    /// A failure to store, told apart when it is the disk's: full or read-only.
+    fn from(err: anyhow::Error) -> Self {
+        match storage_trouble(&err) {
+            Some(StorageTrouble::Full) => Self::NoRoom,
+            Some(StorageTrouble::ReadOnly) => Self::Unwritable,
+            None => Self::Storage(err),
+        }
+    }
+}
+
+/// What is wrong with the data disk, when a write failed because of it.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum StorageTrouble {
+    Full,
+    ReadOnly,
+}
+
+/// Whether `err` (or anything behind it) says the disk is full or read-only: an I/O
+/// error of that kind, or SQLite's SQLITE_FULL / SQLITE_READONLY.
+pub fn storage_trouble(err: &anyhow::Error) -> Option<StorageTrouble> {
+    err.chain().find_map(|cause| {
+        if let Some(io) = cause.downcast_ref::<std::io::Error>() {
+            return io_trouble(io);
+        }
+        let code = cause
+            .downcast_ref::<crate::store::StoreError>()
+            .and_then(|e| e.sqlite_code())
+            .or_else(|| cause.downcast_ref::<rusqlite::Error>().and_then(|e| e.sqlite_error_code()))?;
+        match code {
+            rusqlite::ErrorCode::DiskFull => Some(StorageTrouble::Full),
+            rusqlite::ErrorCode::ReadOnly => Some(StorageTrouble::ReadOnly),
+            _ => None,
+        }
+    })
+}
+
+fn io_trouble(err: &std::io::Error) -> Option<StorageTrouble> {
+    match err.kind() {
+        std::io::ErrorKind::StorageFull | std::io::ErrorKind::QuotaExceeded => Some(StorageTrouble::Full),
+        std::io::ErrorKind::ReadOnlyFilesystem => Some(StorageTrouble::ReadOnly),
+        _ => None,
+    }
 }
 
 /// What is wrong with one photo. Each is found before anything is stored.
@@ -59,8 +122,8 @@ pub enum IntakeError {
 pub enum PhotoProblem {
     #[error("the file is empty")]
     Empty,
-    #[error("{0} bytes is over the limit of {mib} MiB ({MAX_PHOTO_BYTES} bytes) for one photo", mib = MAX_PHOTO_BYTES >> 20)]
-    TooManyBytes(usize),
+    #[error("it is larger than the limit of {mib} MiB ({MAX_PHOTO_BYTES} bytes) for one photo", mib = MAX_PHOTO_BYTES >> 20)]
+    TooManyBytes,
     #[error("not a JPEG or PNG image (checked by its first bytes); send the photo as JPEG")]
     NotAnImage,
     #[error("{0}")]
@@ -123,6 +186,9 @@ pub async fn accept(
     now: DateTime<Utc>,
 ) -> Result<Accepted, IntakeError> {
     let submission = parse_submission(&upload.record_json, now)?;
+    if upload.photos.len() > MAX_PHOTOS_PER_RECORD {
+        return Err(IntakeError::TooManyPhotos(upload.photos.len()));
+    }
     if submission.photo_exif.len() > upload.photos.len() {
         return Err(IntakeError::Field {
             field: "photo_exif".into(),
@@ -133,29 +199,65 @@ pub async fn accept(
             ),
         });
     }
+    let hashes: Vec<&str> = upload.photos.iter().map(|p| p.sha256()).collect();
+    let content_sha256 = content_hash(&submission, &hashes);
+    if let Some(answer) = earlier_answer(state, submission.client_id, &content_sha256).await? {
+        return answer;
+    }
     check_walk_owner(state, &submission, observer_id).await?;
-    let mut stored = store_photos(state, upload.photos, *submission.observed_at.offset()).await?;
+    check_room(state)?;
+    let placed = store_photos(state, upload.photos, *submission.observed_at.offset()).await?;
+    let mut stored = placed.photos.clone();
     compare_photos(&submission, &mut stored, &submission.photo_exif);
     let (flags, guessed_taxon) = arrival_flags(state, &submission).await?;
-    let new = NewObservation {
-        content_sha256: content_hash(&submission, &stored),
-        submission,
-        photos: stored,
-        flags,
-        guessed_taxon,
-        observer_id,
-    };
+    let new = NewObservation { content_sha256, submission, photos: stored, flags, guessed_taxon, observer_id };
     let client_id = new.submission.client_id;
-    let outcome = state
-        .store
-        .run(move |conn| observations::insert_observation(conn, &new, now))
-        .await
-        .map_err(anyhow::Error::from)?;
+    let outcome = state.store.write(move |conn| observations::insert_observation(conn, &new, now)).await;
+    let outcome = match outcome {
+        Ok(outcome) => outcome,
+        Err(err) => {
+            placed.discard(state).await;
+            return Err(anyhow::Error::from(err).into());
+        }
+    };
     match outcome {
         Insertion::Created(receipt) => Ok(Accepted { receipt, replayed: false }),
         Insertion::Replayed(receipt) => Ok(Accepted { receipt, replayed: true }),
-        Insertion::Conflict => Err(IntakeError::Conflict(client_id)),
+        Insertion::Conflict => {
+            placed.discard(state).await;
+            Err(IntakeError::Conflict(client_id))
+        }
     }
+}
+
+/// A resend answered from what is stored: the same receipt for the same content, a
+/// conflict for other content; `None` for a record not stored yet. Two copies sent at
+/// once may both pass here; the insert itself decides between them.
+async fn earlier_answer(
+    state: &Intake,
+    client_id: uuid::Uuid,
+    content_sha256: &str,
+) -> Result<Option<Result<Accepted, IntakeError>>, IntakeError> {
+    let key = client_id.to_string();
+    let stored = state.store.look(move |conn| observations::existing_receipt(conn, &key)).await;
+    Ok(stored.map_err(anyhow::Error::from)?.map(|(hash, receipt)| {
+        if hash == content_sha256 {
+            Ok(Accepted { receipt, replayed: true })
+        } else {
+            Err(IntakeError::Conflict(client_id))
+        }
+    }))
+}
+
+/// The free-space guard: refuses before anything is written when the data disk has
+/// less than the operator's minimum free.
+pub fn check_room(state: &Intake) -> Result<(), IntakeError> {
+    let free = state.photos.free_bytes().map_err(|err| anyhow::Error::from(err).context("reading the free space"))?;
+    if free < state.min_free_bytes {
+        tracing::warn!(free, keep = state.min_free_bytes, "refused a submission: the data disk is nearly full");
+        return Err(IntakeError::NoRoom);
+    }
+    Ok(())
 }
 
 /// Refuses a record that names a walk another phone sent (walk ids are public in
@@ -168,7 +270,7 @@ async fn check_walk_owner(
     let Some(walk) = submission.walk_client_id else { return Ok(()) };
     let owner = state
         .store
-        .run(move |conn| crate::store::walks::walk_observer(conn, walk))
+        .look(move |conn| crate::store::walks::walk_observer(conn, walk))
         .await
         .map_err(anyhow::Error::from)?;
     match owner {
@@ -190,34 +292,88 @@ pub fn compare_photos(record: &Submission, stored: &mut [StoredPhoto], phone: &[
         photo.phone_exif = reading.map(|reading| phone_reading(reading, record_offset));
         photo.exif = with_device_offset(std::mem::take(&mut photo.exif), reading, record_offset);
         photo.check = photo_checks::compare(record, &photo.exif, photo.phone_exif.as_ref());
+        if photo.cut_short {
+            photo.check.flags.push(shared_types::PhotoFlag::CutShort);
+        }
+    }
+}
+
+/// Photo files a request has placed, held (pinned) until its record is stored, so they
+/// can be removed again if it is not.
+#[derive(Debug, Default)]
+pub struct PlacedPhotos {
+    /// The checked photos, in the order they came.
+    pub photos: Vec<StoredPhoto>,
+    /// Hashes whose files this request created (not those already there).
+    created: Vec<String>,
+    _pins: Vec<PhotoPin>,
+}
+
+impl PlacedPhotos {
+    /// Removes the files this request created, where no other request holds them and
+    /// no stored row names them: the request failed, so nothing of it is kept.
+    pub async fn discard(self, state: &Intake) {
+        for sha256 in &self.created {
+            let (files, store) = (state.photos.clone(), state.store.clone());
+            let sha = sha256.clone();
+            let removed = tokio::task::spawn_blocking(move || {
+                files.discard_if_unused(&sha, |sha| {
+                    let sha = sha.to_owned();
+                    Ok(store.read_here(move |conn| observations::photo_is_stored(conn, &sha))?)
+                })
+            })
+            .await;
+            match removed {
+                Ok(Ok(_)) => {}
+                Ok(Err(err)) => tracing::warn!(photo = %sha256, error = %err, "could not remove a photo file after a failed request"),
+                Err(err) => tracing::warn!(photo = %sha256, error = %err, "the task removing a photo file failed"),
+            }
+        }
     }
 }
 
 /// Checks and writes photo files. The cheap checks (count, bytes, magic) run on every
-/// photo first; then each is decoded in turn through the server's decode gate (hashing,
-/// EXIF, decoding and derivatives are blocking work); only when all have passed are the
-/// files written, so a bad photo refuses the record before any file is stored.
+/// photo first; then each is decoded in turn through the server's decode gate (EXIF,
+/// decoding and derivatives are blocking work); only when all have passed are the
+/// files placed, so a bad photo refuses the record before any file is stored.
 pub async fn store_photos(
     state: &Intake,
-    photos: Vec<Vec<u8>>,
+    photos: Vec<ReceivedPhoto>,
     record_offset: chrono::FixedOffset,
-) -> Result<Vec<StoredPhoto>, IntakeError> {
+) -> Result<PlacedPhotos, IntakeError> {
     if photos.len() > MAX_PHOTOS_PER_RECORD {
         return Err(IntakeError::TooManyPhotos(photos.len()));
     }
-    for (index, bytes) in photos.iter().enumerate() {
-        check_photo(bytes).map_err(|problem| IntakeError::Photo { number: index + 1, problem })?;
+    for (index, photo) in photos.iter().enumerate() {
+        check_received(photo).map_err(|problem| IntakeError::Photo { number: index + 1, problem })?;
     }
     let mut prepared = Vec::with_capacity(photos.len());
-    for (index, bytes) in photos.into_iter().enumerate() {
-        let one =
-            state.decode_gate.run(move || prepare_photo(bytes, record_offset)).await.map_err(anyhow::Error::from)?;
+    for (index, photo) in photos.into_iter().enumerate() {
+        let one = state
+            .decode_gate
+            .run(move || {
+                let bytes = photo.read().map_err(|err| PhotoProblem::Image(ImageProblem::Undecodable(err.to_string())))?;
+                prepare_photo(bytes, record_offset).map(|(_, derived, stored)| (photo, derived, stored))
+            })
+            .await
+            .map_err(anyhow::Error::from)?;
         prepared.push(one.map_err(|problem| IntakeError::Photo { number: index + 1, problem })?);
     }
+    if !prepared.is_empty() {
+        check_room(state)?;
+    }
+    let pins: Vec<PhotoPin> = prepared.iter().map(|(_, _, stored)| state.photos.pin(&stored.sha256)).collect();
     let photo_files = state.photos.clone();
-    tokio::task::spawn_blocking(move || write_photo_files(&photo_files, prepared))
+    let written = tokio::task::spawn_blocking(move || write_photo_files(&photo_files, prepared))
         .await
-        .map_err(|err| anyhow::anyhow!("photo task failed: {err}"))?
+        .map_err(|err| anyhow::anyhow!("photo task failed: {err}"))?;
+    match written {
+        Ok((photos, created)) => Ok(PlacedPhotos { photos, created, _pins: pins }),
+        Err((err, created)) => {
+            PlacedPhotos { photos: Vec::new(), created, _pins: pins }.discard(state).await;
+            Err(err.into())
+        }
+    }
 }
 
 /// Flags for reviewers and the species' scientific name, when the record names a
@@ -233,26 +389,40 @@ async fn arrival_flags(
     let query_name = name.clone();
     let confirmed = state
         .store
-        .run(move |conn| observations::confirmed_positions(conn, &query_name))
+        .look(move |conn| observations::confirmed_positions(conn, &query_name))
         .await
         .map_err(anyhow::Error::from)?;
     Ok((crate::intake::flags::raise(state.taxa.checklist(), submission, taxon, &confirmed), Some(name)))
 }
 
-/// Writes each checked photo's original and derivatives durably.
+/// Places each checked photo's original and writes its derivatives durably. Returns the
+/// photos with the hashes whose files it created, or the failure with those it created
+/// before failing (to be removed again).
 fn write_photo_files(
     files: &photos::PhotoFiles,
-    prepared: Vec<(Vec<u8>, images::Derivatives, StoredPhoto)>,
-) -> Result<Vec<StoredPhoto>, IntakeError> {
-    prepared
-        .into_iter()
-        .map(|(bytes, derived, stored)| {
-            files.put(&stored.sha256, Rendition::Original, &bytes)?;
+    prepared: Vec<(ReceivedPhoto, images::Derivatives, StoredPhoto)>,
+) -> Result<(Vec<StoredPhoto>, Vec<String>), (anyhow::Error, Vec<String>)> {
+    let mut created = Vec::new();
+    let mut stored_photos = Vec::with_capacity(prepared.len());
+    for (received, derived, stored) in prepared {
+        let written = (|| {
+            let placed = files.place(received)?;
             files.put(&stored.sha256, Rendition::Display, &derived.display_jpeg)?;
             files.put(&stored.sha256, Rendition::Thumb, &derived.thumb_jpeg)?;
-            Ok(stored)
-        })
-        .collect()
+            anyhow::Ok(placed)
+        })();
+        match written {
+            Ok(true) => created.push(stored.sha256.clone()),
+            Ok(false) => {}
+            Err(err) => {
+                // Whatever of this photo was written goes too, unless it was there before.
+                created.push(stored.sha256.clone());
+                return Err((err, created));
+            }
+        }
+        stored_photos.push(stored);
+    }
+    Ok((stored_photos, created))
 }
 
 /// Everything intake learns from one photo's bytes, without storing anything. Public for
@@ -264,6 +434,7 @@ pub fn prepare_photo(
     let format = check_photo(&bytes)?;
     let exif = exif::resolve_time(exif::read(&bytes), record_offset);
     let derived = images::derive(&bytes, format, exif.orientation)?;
+    let cut_short = images::cut_short(&bytes, format);
     let stored = StoredPhoto {
         sha256: photos::sha256_hex(&bytes),
         media_type: format.media_type().to_owned(),
@@ -274,6 +445,7 @@ pub fn prepare_photo(
         exif,
         phone_exif: None,
         check: shared_types::PhotoCheck::default(),
+        cut_short,
     };
     Ok((bytes, derived, stored))
 }
@@ -314,23 +486,32 @@ fn with_device_offset(
 /// The checks made before any decoding: not empty, not too many bytes, a known format
 /// by its magic bytes. The pixel-dimension check follows in `images::decode`.
 fn check_photo(bytes: &[u8]) -> Result<PhotoFormat, PhotoProblem> {
-    if bytes.is_empty() {
+    check_size_and_magic(bytes.len(), bytes)
+}
+
+/// [`check_photo`] on a received photo, from its length and first bytes alone.
+fn check_received(photo: &ReceivedPhoto) -> Result<PhotoFormat, PhotoProblem> {
+    check_size_and_magic(photo.byte_len(), photo.head())
+}
+
+fn check_size_and_magic(len: usize, head: &[u8]) -> Result<PhotoFormat, PhotoProblem> {
+    if len == 0 {
         return Err(PhotoProblem::Empty);
     }
-    if bytes.len() > MAX_PHOTO_BYTES {
-        return Err(PhotoProblem::TooManyBytes(bytes.len()));
+    if len > MAX_PHOTO_BYTES {
+        return Err(PhotoProblem::TooManyBytes);
     }
-    PhotoFormat::sniff(bytes).ok_or(PhotoProblem::NotAnImage)
+    PhotoFormat::sniff(head).ok_or(PhotoProblem::NotAnImage)
 }
 
 /// The fingerprint of a submission's content: its canonical JSON and its photos'
 /// hashes in order. The same record resent gives the same fingerprint.
-fn content_hash(submission: &Submission, photos: &[StoredPhoto]) -> String {
+fn content_hash(submission: &Submission, photo_hashes: &[&str]) -> String {
     let mut hasher = Sha256::new();
     hasher.update(serde_json::to_vec(submission).unwrap_or_default());
-    for photo in photos {
+    for sha256 in photo_hashes {
         hasher.update(b"\0photo:");
-        hasher.update(photo.sha256.as_bytes());
+        hasher.update(sha256.as_bytes());
     }
     hex::encode(hasher.finalize())
 }

@@ -174,7 +174,7 @@ pub fn save_candidates(
     found: &[(i64, f64, Vec<String>)],
     now: DateTime<Utc>,
 ) -> Result<(), StoreError> {
-    let tx = conn.transaction()?;
+    let tx = conn.savepoint()?;
     for (other, score, reasons) in found {
         let (a, b) = if new < *other { (new, *other) } else { (*other, new) };
         let reasons = serde_json::to_string(reasons).map_err(|err| StoreError::Corrupt(err.to_string()))?;

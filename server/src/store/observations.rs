@@ -5,7 +5,7 @@ use shared_types::codes::{code, from_code};
 use std::collections::HashMap;
 
 use chrono::{DateTime, Utc};
-use rusqlite::{Connection, OptionalExtension, Transaction, params};
+use rusqlite::{Connection, OptionalExtension, params};
 use shared_types::{
     FlagKind, OffsetSource, PhotoCheck, PhotoExif, PhotoFlag, PhotoView, Receipt, RecordFlag, RecordView, ReviewState,
     Submission,
@@ -30,6 +30,8 @@ pub struct StoredPhoto {
     pub phone_exif: Option<PhotoExif>,
     /// The photo against this record (see `intake::photo_checks`).
     pub check: PhotoCheck,
+    /// The file ends before its image data does (see `intake::images::cut_short`).
+    pub cut_short: bool,
 }
 
 /// Everything intake has checked and is ready to store.
@@ -72,7 +74,7 @@ pub fn insert_observation(
     new: &NewObservation,
     now: DateTime<Utc>,
 ) -> Result<Insertion, StoreError> {
-    let tx = conn.transaction()?;
+    let tx = conn.savepoint()?;
     let client_id = new.submission.client_id.to_string();
     if let Some((stored_hash, receipt)) = existing_receipt(&tx, &client_id)? {
         return Ok(if stored_hash == new.content_sha256 { Insertion::Replayed(receipt) } else { Insertion::Conflict });
@@ -106,8 +108,10 @@ fn distinct_photos(photos: &[StoredPhoto]) -> usize {
     photos.iter().map(|p| p.sha256.as_str()).collect::<std::collections::HashSet<_>>().len()
 }
 
-fn existing_receipt(tx: &Transaction, client_id: &str) -> Result<Option<(String, Receipt)>, StoreError> {
-    let row = tx
+/// The stored content fingerprint and receipt of the record with this client id, if it
+/// was stored: a resend is answered from it.
+pub fn existing_receipt(conn: &Connection, client_id: &str) -> Result<Option<(String, Receipt)>, StoreError> {
+    let row = conn
         .query_row(
             "SELECT o.id, o.content_sha256, o.received_at,
                     (SELECT COUNT(*) FROM observation_photos p WHERE p.observation_id = o.id)
@@ -128,7 +132,7 @@ fn existing_receipt(tx: &Transaction, client_id: &str) -> Result<Option<(String,
 }
 
 fn insert_observation_row(
-    tx: &Transaction,
+    tx: &Connection,
     new: &NewObservation,
     organism_id: i64,
     received_at: &str,
@@ -169,7 +173,7 @@ fn insert_observation_row(
 }
 
 fn insert_details(
-    tx: &Transaction,
+    tx: &Connection,
     observation_id: i64,
     new: &NewObservation,
     received_at: &str,
@@ -221,7 +225,7 @@ fn insert_details(
 /// link at its first position: the server accepts such a record (an older phone may
 /// send it) rather than refuse evidence, and the phone refuses to add a photo twice.
 pub(super) fn link_photo(
-    tx: &Transaction,
+    tx: &Connection,
     observation_id: i64,
     position: usize,
     photo: &StoredPhoto,
@@ -314,6 +318,20 @@ pub fn record_by_observation_id(conn: &Connection, id: i64) -> Result<Option<Rec
         )
         .optional()?;
     row.map(|row| finish_record(conn, row)).transpose()
+}
+
+/// Whether a stored photo row names the file with this hash.
+pub fn photo_is_stored(conn: &Connection, sha256: &str) -> Result<bool, StoreError> {
+    Ok(conn.query_row("SELECT EXISTS (SELECT 1 FROM photos WHERE sha256 = ?1)", [sha256], |row| row.get(0))?)
+}
+
+/// The hashes of stored photos that start with `prefix` (two hex digits: one folder of
+/// the photo files).
+pub fn photo_hashes_starting(conn: &Connection, prefix: &str) -> Result<std::collections::HashSet<String>, StoreError> {
+    // Hex digits sort below 'g', so the prefix followed by 'g' is past every hash with it.
+    let mut stmt = conn.prepare("SELECT sha256 FROM photos WHERE sha256 >= ?1 AND sha256 < ?2")?;
+    let rows = stmt.query_map([prefix.to_owned(), format!("{prefix}g")], |row| row.get(0))?;
+    Ok(rows.collect::<Result<_, _>>()?)
 }
 
 /// How many observations are stored.

@@ -82,9 +82,9 @@ async fn spawn(
     }
     let listener = tokio::net::TcpListener::bind("127.0.0.1:0").await.expect("bind");
     let base = format!("http://{}", listener.local_addr().unwrap());
-    // As `wrackline serve` does: with each connection's address (the sign-in rate limit).
-    let service = wrackline_server::app(state).into_make_service_with_connect_info::<std::net::SocketAddr>();
-    tokio::spawn(async move { axum::serve(listener, service).await.unwrap() });
+    // As `wrackline serve` does: its connection limits and timeouts, each connection's
+    // address for the rate limits.
+    tokio::spawn(wrackline_server::router::serve_until(listener, state, std::future::pending()));
     let client = reqwest::Client::new();
     let reviewer = sign_in(&client, &base, "test-reviewer", REVIEWER_PASSWORD).await.expect("reviewer signs in");
     TestApp { base, client, data_dir, reviewer, decode_gate, _dir: dir }
@@ -114,6 +114,23 @@ where
         outputs.push(task.await.expect("a request task panicked"));
     }
     outputs
+}
+
+/// Polls `check` until it returns `Some`, for at most `within`; panics naming `what`
+/// when it never does. For conditions reached in the background (never a fixed sleep).
+pub async fn eventually<T, F, Fut>(what: &str, within: std::time::Duration, mut check: F) -> T
+where
+    F: FnMut() -> Fut,
+    Fut: Future<Output = Option<T>>,
+{
+    let deadline = tokio::time::Instant::now() + within;
+    loop {
+        if let Some(found) = check().await {
+            return found;
+        }
+        assert!(tokio::time::Instant::now() < deadline, "{what}: not within {within:?}");
+        tokio::time::sleep(std::time::Duration::from_millis(50)).await;
+    }
 }
 
 /// Signs in over HTTP, or says what the server answered.

@@ -135,7 +135,7 @@ async fn a_photo_one_byte_over_the_limit_and_a_record_with_one_photo_too_many_ar
         &app,
         "one byte over 25 MiB",
         &[over],
-        "photo 1: 26214401 bytes is over the limit of 25 MiB (26214400 bytes)",
+        "photo 1: it is larger than the limit of 25 MiB (26214400 bytes) for one photo",
     )
     .await;
     let thirteen: Vec<Vec<u8>> = (0..13).map(|i| plain_jpeg(i as u8)).collect();
