@@ -6,7 +6,7 @@
 
 use chrono::{DateTime, Utc};
 
-use crate::duplicates::search::search_once;
+use crate::duplicates::search::{search_once, search_unless_done};
 use crate::intake::{self, Accepted, IntakeError, Upload};
 use crate::state::AppState;
 
@@ -17,19 +17,23 @@ pub async fn receive(
     observer_id: Option<i64>,
     now: DateTime<Utc>,
 ) -> Result<Accepted, IntakeError> {
-    let accepted = intake::accept(&state.intake(), upload, observer_id, now).await?;
+    let (index, names) = (state.duplicates.clone(), state.taxa.clone());
+    // The search runs in the commit that stores the record, in a savepoint of its own, so
+    // reviewers see its candidates as soon as the receipt is out and a burst of records
+    // costs one durable commit, not two.
+    let search: intake::FollowUp = Box::new(move |conn, id| search_unless_done(conn, &index, &names, id, Utc::now()));
+    let accepted = intake::accept(&state.intake(), upload, observer_id, now, Some(search)).await?;
     // The record is stored: from here nothing may turn its answer into an error.
-    follow_up(state, accepted.receipt.observation_id).await;
-    Ok(accepted)
-}
-
-/// The search for other reports of the same animal, waited for so that reviewers see its
-/// candidates as soon as the receipt is out; when it fails, it is logged and tried again
-/// in the background. A resend runs it too: the first arrival may have stored the
-/// record and then failed to search.
-async fn follow_up(state: &AppState, observation_id: i64) {
-    if let Err(err) = search_once(&state.store, &state.duplicates, &state.taxa, observation_id, Utc::now()).await {
-        tracing::warn!(observation = observation_id, error = %err, "search for duplicates failed; trying again in the background");
-        state.retries.push(observation_id);
+    let id = accepted.receipt.observation_id;
+    if let Some(err) = &accepted.follow_up_failed {
+        tracing::warn!(observation = id, error = %err, "search for duplicates failed; trying again in the background");
+        state.retries.push(id);
+    } else if accepted.replayed {
+        // A resend: the first arrival may have stored the record and then failed to search.
+        if let Err(err) = search_once(&state.store, &state.duplicates, &state.taxa, id, Utc::now()).await {
+            tracing::warn!(observation = id, error = %err, "search for duplicates failed; trying again in the background");
+            state.retries.push(id);
+        }
     }
+    Ok(accepted)
 }

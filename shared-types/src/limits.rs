@@ -39,9 +39,7 @@ pub fn string<'de, D: Deserializer<'de>, const N: usize>(deserializer: D) -> Res
 }
 
 /// An optional string of at most `N` characters.
-pub fn optional_string<'de, D: Deserializer<'de>, const N: usize>(
-    deserializer: D,
-) -> Result<Option<String>, D::Error> {
+pub fn optional_string<'de, D: Deserializer<'de>, const N: usize>(deserializer: D) -> Result<Option<String>, D::Error> {
     let value = Option::<String>::deserialize(deserializer)?;
     if let Some(text) = &value {
         check_chars::<D::Error>(text, N)?;
@@ -111,8 +109,7 @@ impl<'de, const N: usize> Visitor<'de> for BoundedNameMap<N> {
             if entries.len() == N {
                 return Err(de::Error::custom(format!("at most {N} entries are allowed")));
             }
-            check_chars::<A::Error>(&key, MAX_NAME_CHARS)
-                .map_err(|err| de::Error::custom(format!("a key: {err}")))?;
+            check_chars::<A::Error>(&key, MAX_NAME_CHARS).map_err(|err| de::Error::custom(format!("a key: {err}")))?;
             check_chars::<A::Error>(&value, MAX_NAME_CHARS)
                 .map_err(|err| de::Error::custom(format!("the value of {key:?}: {err}")))?;
             entries.insert(key, value);

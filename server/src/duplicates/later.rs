@@ -50,7 +50,10 @@ impl Retries {
             sender
         });
         if sender.send(observation_id).is_err() {
-            tracing::error!(observation = observation_id, "the retry task has stopped; the search runs at the next start");
+            tracing::error!(
+                observation = observation_id,
+                "the retry task has stopped; the search runs at the next start"
+            );
         }
     }
 }
@@ -77,8 +80,7 @@ async fn retry_until_done(parts: Arc<Parts>, mut incoming: mpsc::UnboundedReceiv
             }
             Some(None) => {
                 let Some(((_, id), wait)) = due.pop_first() else { continue };
-                let tried =
-                    search_once(&parts.store, &parts.index, &parts.taxa, id, Utc::now()).await;
+                let tried = search_once(&parts.store, &parts.index, &parts.taxa, id, Utc::now()).await;
                 match tried {
                     Ok(()) => {
                         waiting.remove(&id);

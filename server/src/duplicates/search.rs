@@ -23,14 +23,21 @@ pub async fn search_once(
     now: DateTime<Utc>,
 ) -> Result<(), StoreError> {
     let (index, names) = (index.clone(), names.clone());
-    store
-        .write(move |conn| {
-            if searched(conn, observation_id)? {
-                return Ok(());
-            }
-            search(conn, &index, &names, observation_id, now)
-        })
-        .await
+    store.write(move |conn| search_unless_done(conn, &index, &names, observation_id, now)).await
+}
+
+/// [`search`], unless it was done already for this record (a resend, a retry).
+pub fn search_unless_done(
+    conn: &mut rusqlite::Connection,
+    index: &Mutex<Index>,
+    names: &TaxonIndex,
+    observation_id: i64,
+    now: DateTime<Utc>,
+) -> Result<(), StoreError> {
+    if searched(conn, observation_id)? {
+        return Ok(());
+    }
+    search(conn, index, names, observation_id, now)
 }
 
 /// The search for one stored record: records holding the same photo (file or original)

@@ -49,8 +49,9 @@ pub async fn submit(
 pub fn keep_pace(state: &AppState, observer: Option<i64>, address: std::net::IpAddr) -> Result<(), ApiError> {
     let now = Instant::now();
     if let Some(observer) = observer {
-        state.device_pace.take(&observer, now).map_err(|wait| {
-            ApiError::RateLimited { message: "this phone has sent many records just now".into(), retry_after: wait }
+        state.device_pace.take(&observer, now).map_err(|wait| ApiError::RateLimited {
+            message: "this phone has sent many records just now".into(),
+            retry_after: wait,
         })?;
     }
     state.address_pace.take(&address, now).map_err(|wait| ApiError::RateLimited {
@@ -104,7 +105,10 @@ pub async fn receive_parts(
                     if bytes.len() + chunk.len() > MAX_RECORD_JSON_BYTES {
                         return Err(ApiError::OverLimit {
                             field: json_part.to_owned(),
-                            message: format!("the {json_part} JSON is over the limit of {} KiB", MAX_RECORD_JSON_BYTES >> 10),
+                            message: format!(
+                                "the {json_part} JSON is over the limit of {} KiB",
+                                MAX_RECORD_JSON_BYTES >> 10
+                            ),
                         });
                     }
                     bytes.extend_from_slice(&chunk);

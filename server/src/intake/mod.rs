@@ -136,7 +136,14 @@ pub struct Accepted {
     pub receipt: Receipt,
     /// True when this was a resend of a record already stored.
     pub replayed: bool,
+    /// Why the follow-up work failed, when it ran and failed (the record is stored).
+    pub follow_up_failed: Option<String>,
 }
+
+/// Work to run right after a new record is inserted, in the same commit but in a
+/// savepoint of its own: when it fails only it is rolled back, and the record is still
+/// stored and answered. Given the record's observation id.
+pub type FollowUp = Box<dyn FnOnce(&mut rusqlite::Connection, i64) -> Result<(), crate::store::StoreError> + Send>;
 
 /// Reads JSON into `T`, naming the field at fault when it does not fit.
 pub fn parse_json<T: serde::de::DeserializeOwned>(json: &[u8]) -> Result<T, IntakeError> {
@@ -177,13 +184,14 @@ fn missing_field(message: &str) -> Option<&str> {
     message.strip_prefix("missing field `")?.split('`').next()
 }
 
-/// Checks, stores and links everything in `upload`. The follow-up stages (the search for
-/// duplicates) are `crate::arrival`'s.
+/// Checks, stores and links everything in `upload`, and runs `follow_up` (the search for
+/// duplicates, from `crate::arrival`) in the commit that stores a new record.
 pub async fn accept(
     state: &Intake,
     upload: Upload,
     observer_id: Option<i64>,
     now: DateTime<Utc>,
+    follow_up: Option<FollowUp>,
 ) -> Result<Accepted, IntakeError> {
     let submission = parse_submission(&upload.record_json, now)?;
     if upload.photos.len() > MAX_PHOTOS_PER_RECORD {
@@ -212,8 +220,26 @@ pub async fn accept(
     let (flags, guessed_taxon) = arrival_flags(state, &submission).await?;
     let new = NewObservation { content_sha256, submission, photos: stored, flags, guessed_taxon, observer_id };
     let client_id = new.submission.client_id;
-    let outcome = state.store.write(move |conn| observations::insert_observation(conn, &new, now)).await;
-    let outcome = match outcome {
+    let outcome = state
+        .store
+        .write(move |conn| {
+            let outcome = observations::insert_observation(conn, &new, now)?;
+            let followed = match (&outcome, follow_up) {
+                (Insertion::Created(receipt), Some(work)) => {
+                    let id = receipt.observation_id;
+                    // Caught here, a panic in the follow-up undoes only the follow-up.
+                    let guarded = |conn: &mut rusqlite::Connection| {
+                        std::panic::catch_unwind(std::panic::AssertUnwindSafe(|| work(conn, id)))
+                            .unwrap_or(Err(crate::store::StoreError::Panicked))
+                    };
+                    crate::store::nested(conn, guarded).err().map(|err| err.to_string())
+                }
+                _ => None,
+            };
+            Ok((outcome, followed))
+        })
+        .await;
+    let (outcome, follow_up_failed) = match outcome {
         Ok(outcome) => outcome,
         Err(err) => {
             placed.discard(state).await;
@@ -221,8 +247,8 @@ pub async fn accept(
         }
     };
     match outcome {
-        Insertion::Created(receipt) => Ok(Accepted { receipt, replayed: false }),
-        Insertion::Replayed(receipt) => Ok(Accepted { receipt, replayed: true }),
+        Insertion::Created(receipt) => Ok(Accepted { receipt, replayed: false, follow_up_failed }),
+        Insertion::Replayed(receipt) => Ok(Accepted { receipt, replayed: true, follow_up_failed: None }),
         Insertion::Conflict => {
             placed.discard(state).await;
             Err(IntakeError::Conflict(client_id))
@@ -242,7 +268,7 @@ async fn earlier_answer(
     let stored = state.store.look(move |conn| observations::existing_receipt(conn, &key)).await;
     Ok(stored.map_err(anyhow::Error::from)?.map(|(hash, receipt)| {
         if hash == content_sha256 {
-            Ok(Accepted { receipt, replayed: true })
+            Ok(Accepted { receipt, replayed: true, follow_up_failed: None })
         } else {
             Err(IntakeError::Conflict(client_id))
         }
@@ -325,7 +351,9 @@ impl PlacedPhotos {
             .await;
             match removed {
                 Ok(Ok(_)) => {}
-                Ok(Err(err)) => tracing::warn!(photo = %sha256, error = %err, "could not remove a photo file after a failed request"),
+                Ok(Err(err)) => {
+                    tracing::warn!(photo = %sha256, error = %err, "could not remove a photo file after a failed request")
+                }
                 Err(err) => tracing::warn!(photo = %sha256, error = %err, "the task removing a photo file failed"),
             }
         }
@@ -352,7 +380,8 @@ pub async fn store_photos(
         let one = state
             .decode_gate
             .run(move || {
-                let bytes = photo.read().map_err(|err| PhotoProblem::Image(ImageProblem::Undecodable(err.to_string())))?;
+                let bytes =
+                    photo.read().map_err(|err| PhotoProblem::Image(ImageProblem::Undecodable(err.to_string())))?;
                 prepare_photo(bytes, record_offset).map(|(_, derived, stored)| (photo, derived, stored))
             })
             .await

@@ -103,6 +103,12 @@ impl PhotoFiles {
         Ok(Self { root: root.to_owned(), pins: Arc::default() })
     }
 
+    /// The photo folder at `root` as it is, creating nothing: for reading a data folder
+    /// or a backup (`wrackline check`, `backup`).
+    pub fn at(root: &Path) -> Self {
+        Self { root: root.to_owned(), pins: Arc::default() }
+    }
+
     /// The photo folder.
     pub fn root(&self) -> &Path {
         &self.root

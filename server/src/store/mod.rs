@@ -15,6 +15,7 @@
 //! reads. In WAL mode readers and the writer work at the same time, each reader seeing
 //! the database as it was when its read began.
 
+pub mod backup;
 pub mod duplicates;
 mod migrate;
 pub mod observations;
@@ -186,6 +187,25 @@ impl Store {
 
     fn send(&self, job: writer::Job) -> Result<(), StoreError> {
         self.writer.send(job).map_err(|_| StoreError::TaskGone)
+    }
+}
+
+/// Runs `work` in a savepoint of its own inside whatever transaction is open: when it
+/// fails, only what it did is rolled back.
+pub fn nested<T>(
+    conn: &mut Connection,
+    work: impl FnOnce(&mut Connection) -> Result<T, StoreError>,
+) -> Result<T, StoreError> {
+    conn.execute_batch("SAVEPOINT nested_work")?;
+    match work(conn) {
+        Ok(result) => {
+            conn.execute_batch("RELEASE nested_work")?;
+            Ok(result)
+        }
+        Err(err) => {
+            conn.execute_batch("ROLLBACK TO nested_work; RELEASE nested_work")?;
+            Err(err)
+        }
     }
 }
 

@@ -69,7 +69,7 @@ async fn a_duplicate_search_failing_at_start_up_does_not_stop_the_server() {
         record_json: carcass(SECOND, 300.0).to_string().into_bytes(),
         photos: Vec::new(),
     };
-    wrackline_server::intake::accept(&offline.intake(), upload, None, chrono::Utc::now()).await.unwrap();
+    wrackline_server::intake::accept(&offline.intake(), upload, None, chrono::Utc::now(), None).await.unwrap();
     let restarted = wrackline_server::AppState::open(&app.data_dir, None, checklist());
     assert!(restarted.is_ok(), "the search fails again, and the server starts: {:?}", restarted.err());
     assert_eq!(duplicate_reasons(&app, SECOND).await, "[]");
