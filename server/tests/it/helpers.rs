@@ -8,6 +8,7 @@ use std::sync::Arc;
 use reqwest::multipart::{Form, Part};
 use serde_json::{Value, json};
 use wrackline_server::AppState;
+use wrackline_server::settings::Settings;
 
 pub struct TestApp {
     pub base: String,
@@ -41,28 +42,34 @@ pub async fn spawn_app() -> TestApp {
 }
 
 pub async fn spawn_app_with(app_dir: Option<PathBuf>) -> TestApp {
-    spawn(app_dir, None, None).await
+    spawn(app_dir, None, None, Settings::default()).await
 }
 
 /// The server with room for `turns` photo decodes at once (the default is one per core).
 pub async fn spawn_app_with_decode_turns(turns: usize) -> TestApp {
-    spawn(None, Some(turns), None).await
+    spawn(None, Some(turns), None, Settings::default()).await
 }
 
 /// The server started with `checklist` instead of the built-in demo checklist.
 pub async fn spawn_app_with_checklist(checklist: species_key::Checklist) -> TestApp {
-    spawn(None, None, Some(checklist)).await
+    spawn(None, None, Some(checklist), Settings::default()).await
+}
+
+/// The server started with the operator's `settings` (limits, timeouts).
+pub async fn spawn_app_with_settings(settings: Settings) -> TestApp {
+    spawn(None, None, None, settings).await
 }
 
 async fn spawn(
     app_dir: Option<PathBuf>,
     decode_turns: Option<usize>,
     checklist: Option<species_key::Checklist>,
+    settings: Settings,
 ) -> TestApp {
     let dir = tempfile::tempdir().expect("temp dir");
     let data_dir = dir.path().join("data");
     let checklist = checklist.unwrap_or_else(|| wrackline_server::taxa::load_checklist(None).expect("demo checklist"));
-    let mut state = AppState::open(&data_dir, app_dir, checklist).expect("open state");
+    let mut state = AppState::open_with(&data_dir, app_dir, checklist, settings).expect("open state");
     if let Some(turns) = decode_turns {
         state.decode_gate = wrackline_server::intake::gate::DecodeGate::new(turns);
     }
