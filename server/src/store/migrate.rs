@@ -25,6 +25,7 @@ const MIGRATIONS: &[(&str, &str)] = &[
         "0012_review_reasons_and_people_audit",
         include_str!("../../../migrations/0012_review_reasons_and_people_audit.sql"),
     ),
+    ("0013_photo_cut_short", include_str!("../../../migrations/0013_photo_cut_short.sql")),
 ];
 
 pub(super) fn apply(conn: &mut Connection) -> Result<(), StoreError> {
