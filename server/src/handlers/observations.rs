@@ -76,10 +76,26 @@ pub async fn upload_turn(state: &AppState) -> Result<tokio::sync::OwnedSemaphore
 /// Reads a multipart form of one JSON part called `json_part` (at most
 /// [`MAX_RECORD_JSON_BYTES`]) and any `photo` parts (at most [`MAX_PHOTOS_PER_RECORD`]),
 /// each photo streamed into a scratch file as it arrives and refused as soon as it is
-/// over the size limit. Scratch files of a refused form are removed.
+/// over the size limit. Scratch files of a refused form are removed. A form refused
+/// half-way is read to its end (and dropped; the body limits still apply) before the
+/// refusal is sent, so the phone hears why rather than seeing its upload cut off.
 pub async fn receive_parts(
     state: &AppState,
     mut multipart: Multipart,
+    json_part: &str,
+) -> Result<(Vec<u8>, Vec<ReceivedPhoto>), ApiError> {
+    let received = read_form(state, &mut multipart, json_part).await;
+    if received.is_err() {
+        while let Ok(Some(mut field)) = multipart.next_field().await {
+            while let Ok(Some(_)) = field.chunk().await {}
+        }
+    }
+    received
+}
+
+async fn read_form(
+    state: &AppState,
+    multipart: &mut Multipart,
     json_part: &str,
 ) -> Result<(Vec<u8>, Vec<ReceivedPhoto>), ApiError> {
     let mut json = None;
@@ -94,8 +110,15 @@ pub async fn receive_parts(
                 let number = photos.len() + 1;
                 let mut receiving =
                     Receiving::start(&state.photos).map_err(|err| intake_error(anyhow::Error::from(err).into()))?;
+                // After a refusal the rest of the photo is still read (and dropped).
+                let mut refused = None;
                 while let Some(chunk) = field.chunk().await.map_err(multipart_error)? {
-                    receiving.write(&chunk).await.map_err(|err| receive_error(number, err))?;
+                    if refused.is_none() {
+                        refused = receiving.write(&chunk).await.err();
+                    }
+                }
+                if let Some(err) = refused {
+                    return Err(receive_error(number, err));
                 }
                 photos.push(receiving.finish().await.map_err(|err| intake_error(anyhow::Error::from(err).into()))?);
             }

@@ -243,7 +243,7 @@ pub async fn accept(
         Ok(outcome) => outcome,
         Err(err) => {
             placed.discard(state).await;
-            return Err(anyhow::Error::from(err).into());
+            return Err(state.diagnose(err.into()));
         }
     };
     match outcome {
@@ -255,6 +255,34 @@ pub async fn accept(
         }
     }
 }
+
+impl Intake {
+    /// A failure to store, told apart when the disk is its cause: by the error itself, or,
+    /// for an I/O error SQLite reports without its cause, by looking at the disk (mounted
+    /// read-only, or nothing left free).
+    pub fn diagnose(&self, err: anyhow::Error) -> IntakeError {
+        if storage_trouble(&err).is_some() {
+            return err.into();
+        }
+        let io_failure = err.chain().any(|cause| {
+            cause.downcast_ref::<crate::store::StoreError>().and_then(|e| e.sqlite_code())
+                == Some(rusqlite::ErrorCode::SystemIoFailure)
+        });
+        if io_failure {
+            if self.photos.read_only().unwrap_or(false) {
+                return IntakeError::Unwritable;
+            }
+            if self.photos.free_bytes().is_ok_and(|free| free < NEARLY_FULL_BYTES) {
+                return IntakeError::NoRoom;
+            }
+        }
+        IntakeError::Storage(err)
+    }
+}
+
+/// Free space below which an I/O failure is taken for a full disk: less than a few
+/// database pages (SQLite's default page is 4 KiB).
+const NEARLY_FULL_BYTES: u64 = 64 * 1024;
 
 /// A resend answered from what is stored: the same receipt for the same content, a
 /// conflict for other content; `None` for a record not stored yet. Two copies sent at

@@ -125,6 +125,12 @@ impl PhotoFiles {
         Ok(stats.f_bavail.saturating_mul(stats.f_frsize))
     }
 
+    /// Whether the photo folder's file system is mounted read-only.
+    pub fn read_only(&self) -> std::io::Result<bool> {
+        let stats = rustix::fs::statvfs(&self.root).map_err(std::io::Error::from)?;
+        Ok(stats.f_flag.contains(rustix::fs::StatVfsMountFlags::RDONLY))
+    }
+
     /// Holds the photo with this hash for as long as the pin lives: it is not removed as
     /// unused meanwhile.
     pub fn pin(&self, sha256: &str) -> PhotoPin {

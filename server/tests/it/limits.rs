@@ -119,6 +119,29 @@ async fn a_conflicting_resend_writes_no_photo_file() {
     assert_eq!(photo_files(&app), before, "the refused record's photo was never written");
 }
 
+#[tokio::test(flavor = "multi_thread", worker_threads = 4)]
+async fn of_two_versions_of_one_record_sent_at_once_only_the_stored_ones_photo_files_stay() {
+    let app = std::sync::Arc::new(spawn_app().await);
+    for round in 0..6u8 {
+        let id = new_id();
+        let send = |count: u32, seed: u8| {
+            let (app, id) = (app.clone(), id.clone());
+            async move {
+                let mut record = submission(&id);
+                record["count"] = json!(count);
+                app.submit(&record, &[plain_jpeg(seed)]).await.status
+            }
+        };
+        let answers = crate::helpers::all_at_once(vec![send(1, 100 + round), send(2, 200 + round)]).await;
+        let mut sorted = answers.clone();
+        sorted.sort();
+        assert_eq!(sorted, [200, 409], "round {round}: one stored, one refused as a conflict");
+        let conn = rusqlite::Connection::open(app.data_dir.join("wrackline.sqlite3")).unwrap();
+        let named: i64 = conn.query_row("SELECT COUNT(*) FROM photos", [], |row| row.get(0)).unwrap();
+        assert_eq!(photo_files(&app) as i64, named * 3, "round {round}: the refused version's photo files are removed");
+    }
+}
+
 #[tokio::test]
 async fn a_start_removes_leftover_temporary_files_and_photo_files_no_record_names() {
     let app = spawn_app().await;

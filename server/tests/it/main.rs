@@ -3,9 +3,11 @@
 
 mod access;
 mod assess_cli;
+mod backup;
 mod cli;
 mod decode_gate;
 mod derivatives;
+mod disk_full;
 mod duplicates;
 mod exif;
 mod exports;

@@ -1,6 +1,6 @@
 //! The real `wrackline` binary as a child process on 127.0.0.1, for tests that kill it,
-//! restart it, fill its disk or run its other commands. Its log goes to a file beside
-//! its data folder (printed when a test fails with it).
+//! restart it, fill its disk or run its other commands. Its log goes to a file in the
+//! system's temporary folder (printed when a test fails with it, removed with the server).
 
 use std::io::{BufRead as _, BufReader};
 use std::path::{Path, PathBuf};
@@ -27,7 +27,8 @@ pub fn binary() -> &'static str {
 /// Starts `wrackline serve` on `data_dir`, listening on `bind` (port 0 for any), with
 /// `flags` added, and waits until it says where it listens.
 pub fn start(data_dir: &Path, bind: &str, flags: &[&str]) -> Server {
-    let log = data_dir.with_extension(format!("log-{}", uuid::Uuid::new_v4().simple()));
+    // Not beside the data folder: that may be a disk a test fills.
+    let log = std::env::temp_dir().join(format!("wrackline-test-{}.log", uuid::Uuid::new_v4().simple()));
     let mut child = Command::new(binary())
         .arg("--data-dir")
         .arg(data_dir)
@@ -87,6 +88,9 @@ impl Drop for Server {
         // A test that failed half-way leaves no server behind.
         let _ = self.child.kill();
         let _ = self.child.wait();
+        if !std::thread::panicking() {
+            let _ = std::fs::remove_file(&self.log);
+        }
     }
 }
 
