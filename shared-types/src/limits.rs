@@ -138,9 +138,10 @@ mod tests {
 
     #[test]
     fn each_limit_passes_at_its_size_and_refuses_one_past_it() {
-        assert!(read(r#"{"name": "abcde", "numbers": [1, 2, 3], "answers": {"a": "b", "c": "d"}}"#).is_ok());
+        let full = read(r#"{"name": "abcde", "numbers": [1, 2, 3], "answers": {"a": "b", "c": "d"}}"#).unwrap();
+        assert_eq!((full.name.as_str(), full.numbers.as_slice(), full.answers.len()), ("abcde", &[1, 2, 3][..], 2));
         // Characters, not bytes: five accented letters are ten bytes of UTF-8.
-        assert!(read(r#"{"name": "ééééé"}"#).is_ok());
+        assert_eq!(read(r#"{"name": "ééééé"}"#).unwrap().name.len(), 10);
         let too_long = read(r#"{"name": "abcdef"}"#).unwrap_err();
         assert!(too_long.starts_with("at most 5 characters are allowed, got 6 bytes"), "{too_long}");
         let too_many = read(r#"{"numbers": [1, 2, 3, 4]}"#).unwrap_err();

@@ -452,13 +452,16 @@ async fn arrival_flags(
     Ok((crate::intake::flags::raise(state.taxa.checklist(), submission, taxon, &confirmed), Some(name)))
 }
 
-/// Places each checked photo's original and writes its derivatives durably. Returns the
-/// photos with the hashes whose files it created, or the failure with those it created
-/// before failing (to be removed again).
+/// The photos written and the hashes whose files the writing created.
+type Written = (Vec<StoredPhoto>, Vec<String>);
+/// Why writing stopped, and the hashes whose files it created before (to be removed again).
+type WriteFailure = (anyhow::Error, Vec<String>);
+
+/// Places each checked photo's original and writes its derivatives durably.
 fn write_photo_files(
     files: &photos::PhotoFiles,
     prepared: Vec<(ReceivedPhoto, images::Derivatives, StoredPhoto)>,
-) -> Result<(Vec<StoredPhoto>, Vec<String>), (anyhow::Error, Vec<String>)> {
+) -> Result<Written, WriteFailure> {
     let mut created = Vec::new();
     let mut stored_photos = Vec::with_capacity(prepared.len());
     for (received, derived, stored) in prepared {

@@ -157,10 +157,10 @@ fn commit_group(conn: &mut Connection, mut group: Vec<Box<dyn GroupedJob>>) {
 
 /// Rolls back whatever is open, so the next job starts clean.
 fn abandon(conn: &mut Connection) {
-    if !conn.is_autocommit() {
-        if let Err(err) = conn.execute_batch("ROLLBACK") {
-            tracing::error!(error = %err, "rolling back a failed group commit failed");
-        }
+    if !conn.is_autocommit()
+        && let Err(err) = conn.execute_batch("ROLLBACK")
+    {
+        tracing::error!(error = %err, "rolling back a failed group commit failed");
     }
 }
 

@@ -72,10 +72,10 @@ fn record(phone: usize, index: usize) -> Value {
 /// the next phone's (the same file in two records is one file on disk).
 fn photos(phone: usize, index: usize) -> Vec<Vec<u8>> {
     let mut photos = Vec::new();
-    if index % 4 == 0 {
+    if index.is_multiple_of(4) {
         photos.push(tinted(phone * 100 + index));
     }
-    if index % 8 == 0 {
+    if index.is_multiple_of(8) {
         photos.push(tinted(1_000_000 + (phone / 2) * 100 + index));
     }
     photos
@@ -197,8 +197,7 @@ async fn sixty_four_phones_lose_and_double_nothing_through_three_kills() {
     };
     tokio::time::timeout(BOUND, run).await.expect("the harness finished within its bound");
     let server = server.unwrap();
-    let seen_after = seen.clone();
-    let seen = seen.lock().unwrap();
+    let seen = std::mem::take(&mut *seen.lock().unwrap());
     assert!(
         seen.server_errors.is_empty(),
         "{} answers were 5xx, e.g. {:?}; server log:\n{}",
@@ -207,7 +206,6 @@ async fn sixty_four_phones_lose_and_double_nothing_through_three_kills() {
         server.log()
     );
     assert_eq!(seen.receipts.len(), total, "every record got its receipt in the end");
-    drop(seen);
     // The follow-up work is done too: every record has been searched for duplicates
     // (a search that failed is retried in the background).
     let unsearched = || {
@@ -237,7 +235,6 @@ async fn sixty_four_phones_lose_and_double_nothing_through_three_kills() {
         let shown: String = log.chars().take(3000).collect();
         assert!(!log.contains("panicked"), "start {start} of the server panicked:\n{shown}");
     }
-    let seen = seen_after.lock().unwrap();
 
     let conn = rusqlite::Connection::open(data_dir.join("wrackline.sqlite3")).unwrap();
     let stored: HashMap<String, i64> = conn
