@@ -209,15 +209,29 @@ pub async fn accept(
     }
     let hashes: Vec<&str> = upload.photos.iter().map(|p| p.sha256()).collect();
     let content_sha256 = content_hash(&submission, &hashes);
-    if let Some(answer) = earlier_answer(state, submission.client_id, &content_sha256).await? {
-        return answer;
+    let species = flags::species_of(&state.taxa, &submission);
+    let known = look_up(state, &submission, species.map(|t| t.scientific_name.clone())).await?;
+    if let Some((hash, receipt)) = known.earlier {
+        // A resend, answered before any photo is decoded or written. Two copies sent at
+        // once may both pass here; the insert itself decides between them.
+        return if hash == content_sha256 {
+            Ok(Accepted { receipt, replayed: true, follow_up_failed: None })
+        } else {
+            Err(IntakeError::Conflict(submission.client_id))
+        };
     }
-    check_walk_owner(state, &submission, observer_id).await?;
+    check_walk_owner(&submission, known.walk_owner, observer_id)?;
     check_room(state)?;
     let placed = store_photos(state, upload.photos, *submission.observed_at.offset()).await?;
     let mut stored = placed.photos.clone();
     compare_photos(&submission, &mut stored, &submission.photo_exif);
-    let (flags, guessed_taxon) = arrival_flags(state, &submission).await?;
+    let (flags, guessed_taxon) = match species {
+        Some(taxon) => {
+            let raised = flags::raise(state.taxa.checklist(), &submission, taxon, &known.confirmed);
+            (raised, Some(taxon.scientific_name.clone()))
+        }
+        None => (Vec::new(), None),
+    };
     let new = NewObservation { content_sha256, submission, photos: stored, flags, guessed_taxon, observer_id };
     let client_id = new.submission.client_id;
     let outcome = state
@@ -284,23 +298,36 @@ impl Intake {
 /// database pages (SQLite's default page is 4 KiB).
 const NEARLY_FULL_BYTES: u64 = 64 * 1024;
 
-/// A resend answered from what is stored: the same receipt for the same content, a
-/// conflict for other content; `None` for a record not stored yet. Two copies sent at
-/// once may both pass here; the insert itself decides between them.
-async fn earlier_answer(
-    state: &Intake,
-    client_id: uuid::Uuid,
-    content_sha256: &str,
-) -> Result<Option<Result<Accepted, IntakeError>>, IntakeError> {
-    let key = client_id.to_string();
-    let stored = state.store.look(move |conn| observations::existing_receipt(conn, &key)).await;
-    Ok(stored.map_err(anyhow::Error::from)?.map(|(hash, receipt)| {
-        if hash == content_sha256 {
-            Ok(Accepted { receipt, replayed: true, follow_up_failed: None })
-        } else {
-            Err(IntakeError::Conflict(client_id))
-        }
-    }))
+/// What intake asks the database about a submission before deciding on it, read in one
+/// short read: the receipt of a record already stored under its id, the phone that sent
+/// the walk it names, and where the species it names has been confirmed before.
+#[derive(Debug, Default)]
+struct Known {
+    earlier: Option<(String, Receipt)>,
+    /// `None`: no walk named; `Some(None)`: a walk not stored yet (records may come first).
+    walk_owner: Option<Option<i64>>,
+    confirmed: Vec<(f64, f64)>,
+}
+
+async fn look_up(state: &Intake, submission: &Submission, species: Option<String>) -> Result<Known, IntakeError> {
+    let (client_id, walk) = (submission.client_id.to_string(), submission.walk_client_id);
+    let known = state
+        .store
+        .look(move |conn| {
+            Ok(Known {
+                earlier: observations::existing_receipt(conn, &client_id)?,
+                walk_owner: walk
+                    .map(|walk| crate::store::walks::walk_observer(conn, walk))
+                    .transpose()?
+                    .map(Option::flatten),
+                confirmed: match species {
+                    Some(name) => observations::confirmed_positions(conn, &name)?,
+                    None => Vec::new(),
+                },
+            })
+        })
+        .await;
+    Ok(known.map_err(anyhow::Error::from)?)
 }
 
 /// The free-space guard: refuses before anything is written when the data disk has
@@ -316,19 +343,13 @@ pub fn check_room(state: &Intake) -> Result<(), IntakeError> {
 
 /// Refuses a record that names a walk another phone sent (walk ids are public in
 /// exports). A walk not stored yet may be named: records can arrive before their walk.
-async fn check_walk_owner(
-    state: &Intake,
+fn check_walk_owner(
     submission: &Submission,
+    walk_owner: Option<Option<i64>>,
     observer_id: Option<i64>,
 ) -> Result<(), IntakeError> {
-    let Some(walk) = submission.walk_client_id else { return Ok(()) };
-    let owner = state
-        .store
-        .look(move |conn| crate::store::walks::walk_observer(conn, walk))
-        .await
-        .map_err(anyhow::Error::from)?;
-    match owner {
-        Some(Some(owner)) if observer_id != Some(owner) => Err(IntakeError::Field {
+    match (submission.walk_client_id, walk_owner) {
+        (Some(walk), Some(Some(owner))) if observer_id != Some(owner) => Err(IntakeError::Field {
             field: "walk_client_id".into(),
             message: format!("walk {walk} was sent from another phone"),
         }),
@@ -431,25 +452,6 @@ pub async fn store_photos(
             Err(err.into())
         }
     }
-}
-
-/// Flags for reviewers and the species' scientific name, when the record names a
-/// checklist species.
-async fn arrival_flags(
-    state: &Intake,
-    submission: &Submission,
-) -> Result<(Vec<shared_types::RecordFlag>, Option<String>), IntakeError> {
-    let Some(taxon) = crate::intake::flags::species_of(&state.taxa, submission) else {
-        return Ok((Vec::new(), None));
-    };
-    let name = taxon.scientific_name.clone();
-    let query_name = name.clone();
-    let confirmed = state
-        .store
-        .look(move |conn| observations::confirmed_positions(conn, &query_name))
-        .await
-        .map_err(anyhow::Error::from)?;
-    Ok((crate::intake::flags::raise(state.taxa.checklist(), submission, taxon, &confirmed), Some(name)))
 }
 
 /// The photos written and the hashes whose files the writing created.

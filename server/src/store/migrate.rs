@@ -26,6 +26,7 @@ const MIGRATIONS: &[(&str, &str)] = &[
         include_str!("../../../migrations/0012_review_reasons_and_people_audit.sql"),
     ),
     ("0013_photo_cut_short", include_str!("../../../migrations/0013_photo_cut_short.sql")),
+    ("0014_current_taxon_index", include_str!("../../../migrations/0014_current_taxon_index.sql")),
 ];
 
 pub(super) fn apply(conn: &mut Connection) -> Result<(), StoreError> {

@@ -126,18 +126,18 @@ fn serve(mut conn: Connection, jobs: mpsc::Receiver<Job>) {
 
 /// Runs a group in one transaction, each job in its own savepoint, commits, answers all.
 fn commit_group(conn: &mut Connection, mut group: Vec<Box<dyn GroupedJob>>) {
-    if let Err(err) = conn.execute_batch("BEGIN IMMEDIATE") {
+    if let Err(err) = sql(conn, "BEGIN IMMEDIATE") {
         return answer_all(group, &err);
     }
     for job in &mut group {
-        if let Err(err) = conn.execute_batch("SAVEPOINT grouped_job") {
+        if let Err(err) = sql(conn, "SAVEPOINT grouped_job") {
             abandon(conn);
             return answer_all(group, &err);
         }
         let ran = job.run(conn);
         let ended = match ran {
-            Ok(()) => conn.execute_batch("RELEASE grouped_job"),
-            Err(_) => conn.execute_batch("ROLLBACK TO grouped_job; RELEASE grouped_job"),
+            Ok(()) => sql(conn, "RELEASE grouped_job"),
+            Err(_) => sql(conn, "ROLLBACK TO grouped_job").and_then(|()| sql(conn, "RELEASE grouped_job")),
         };
         if let Err(err) = ended {
             // SQLite rolls the whole transaction back on some failures (a full disk, an
@@ -146,13 +146,18 @@ fn commit_group(conn: &mut Connection, mut group: Vec<Box<dyn GroupedJob>>) {
             return answer_all(group, ran.as_ref().err().unwrap_or(&err));
         }
     }
-    match conn.execute_batch("COMMIT") {
+    match sql(conn, "COMMIT") {
         Ok(()) => group.into_iter().for_each(|job| job.answer(None)),
         Err(err) => {
             abandon(conn);
             answer_all(group, &err);
         }
     }
+}
+
+/// Runs one statement, prepared once and kept (every group runs the same few).
+pub(super) fn sql(conn: &Connection, statement: &str) -> rusqlite::Result<()> {
+    conn.prepare_cached(statement)?.execute([]).map(|_| ())
 }
 
 /// Rolls back whatever is open, so the next job starts clean.
