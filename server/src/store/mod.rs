@@ -115,7 +115,7 @@ impl Store {
         T: Send + 'static,
         F: FnOnce(&Connection) -> Result<T, StoreError> + Send + 'static,
     {
-        pooled(&self.reading, &self.readers, &self.path, work).await
+        pooled(&self.reading, &self.readers, &self.path, Reads::Long, work).await
     }
 
     /// Runs a short read (a lookup on a request's way in) on a pooled read-only
@@ -126,7 +126,7 @@ impl Store {
         T: Send + 'static,
         F: FnOnce(&Connection) -> Result<T, StoreError> + Send + 'static,
     {
-        pooled(&self.looking, &self.lookers, &self.path, work).await
+        pooled(&self.looking, &self.lookers, &self.path, Reads::Short, work).await
     }
 
     /// Runs `work` alone on the writer's connection (it may open its own transaction).
@@ -164,7 +164,7 @@ impl Store {
 
     /// Runs `work` on a read-only connection on the calling thread, for the command line.
     pub fn read_here<T>(&self, work: impl FnOnce(&Connection) -> Result<T, StoreError>) -> Result<T, StoreError> {
-        work(&open_reader(&self.path)?)
+        work(&open_reader(&self.path, Reads::Long)?)
     }
 
     /// Runs `work` alone on the writer's connection and waits for it on the calling
@@ -225,6 +225,7 @@ async fn pooled<T, F>(
     turns: &Arc<tokio::sync::Semaphore>,
     pool: &Arc<Mutex<Vec<Connection>>>,
     path: &Path,
+    reads: Reads,
     work: F,
 ) -> Result<T, StoreError>
 where
@@ -238,7 +239,7 @@ where
         let idle = pool.lock().unwrap_or_else(|poisoned| poisoned.into_inner()).pop();
         let conn = match idle {
             Some(conn) => conn,
-            None => open_reader(&path)?,
+            None => open_reader(&path, reads)?,
         };
         let result = work(&conn);
         pool.lock().unwrap_or_else(|poisoned| poisoned.into_inner()).push(conn);
@@ -248,18 +249,31 @@ where
     .map_err(|_| StoreError::TaskGone)?
 }
 
+/// What a read-only connection is for.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+enum Reads {
+    /// Lookups of a few pages on a request's way in.
+    Short,
+    /// Exports and the command line, which read much of the file once.
+    Long,
+}
+
 /// A read-only connection to the database at `path` (already created and migrated by
 /// [`Store::open`]).
-fn open_reader(path: &Path) -> Result<Connection, StoreError> {
+fn open_reader(path: &Path, reads: Reads) -> Result<Connection, StoreError> {
     let conn = Connection::open_with_flags(
         path,
         OpenFlags::SQLITE_OPEN_READ_ONLY | OpenFlags::SQLITE_OPEN_NO_MUTEX | OpenFlags::SQLITE_OPEN_URI,
     )?;
     conn.busy_timeout(std::time::Duration::from_secs(5))?;
     conn.set_prepared_statement_cache_capacity(STATEMENT_CACHE);
-    // Every commit invalidates a reader's page cache, so each read fetches its pages
+    // Every commit invalidates a reader's page cache, so each lookup fetches its pages
     // again; mapped, a fetch is a pointer into the file rather than a copy by `pread`.
-    conn.pragma_update(None, "mmap_size", READER_MMAP_BYTES)?;
+    // Long reads are not mapped: a mapped page they touch counts towards the process's
+    // memory until it is unmapped, and an export touches the whole file.
+    if reads == Reads::Short {
+        conn.pragma_update(None, "mmap_size", READER_MMAP_BYTES)?;
+    }
     Ok(conn)
 }
 
@@ -267,5 +281,5 @@ fn open_reader(path: &Path) -> Result<Connection, StoreError> {
 /// distinct ones, and preparing is a good part of what a small statement costs.
 const STATEMENT_CACHE: usize = 96;
 
-/// How much of the database file a reader maps into memory (SQLite's `mmap_size`).
+/// How much of the database file a lookup connection maps (SQLite's `mmap_size`).
 const READER_MMAP_BYTES: i64 = 256 * 1024 * 1024;
