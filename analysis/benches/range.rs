@@ -43,7 +43,13 @@ fn main() {
     );
     match reference_python() {
         Some(python) => compare_with_python(&python, &points, &grid, eoo_km2, cells, summary_time),
-        None => println!("no Python with pyproj/shapely found; set WRACKLINE_PYTHON to compare"),
+        None => {
+            println!("no Python with pyproj/shapely found; set WRACKLINE_PYTHON to compare");
+            println!(
+                "bench-row | EOO + AOO, {POINTS} points (`analysis/benches/range.rs`) | {:.0} ms | shapely + pyproj: not measured (no WRACKLINE_PYTHON) | — | ≥ 10×, within 0.1 %",
+                ms(summary_time)
+            );
+        }
     }
 }
 
@@ -129,8 +135,13 @@ fn compare_with_python(
     let agree = within(eoo_km2, number("eoo_km2"))
         && within(cells.0 as f64, number("aoo_cells"))
         && within(cells.1 as f64, number("aoo_min_cells"));
+    let speed_up = python_time / rust_time.as_secs_f64();
+    println!("speed-up of the summary (EOO + AOO) {speed_up:.1}x; answers agree within 0.1%: {agree}");
     println!(
-        "speed-up of the summary (EOO + AOO) {:.1}x; answers agree within 0.1%: {agree}",
-        python_time / rust_time.as_secs_f64()
+        "bench-row | EOO + AOO, {POINTS} points (`analysis/benches/range.rs`) | {:.0} ms, EOO {eoo_km2:.3} km², AOO {} cells | shapely + pyproj on the same points: {:.0} ms | {speed_up:.1}× faster, agree within 0.1 %: {agree} | ≥ 10×, within 0.1 % — {}",
+        rust_time.as_secs_f64() * 1000.0,
+        cells.0,
+        python_time * 1000.0,
+        if speed_up >= 10.0 && agree { "met" } else { "not met" }
     );
 }

@@ -131,6 +131,10 @@ fn main() {
     println!("  the same without the file writes:                 {no_writes:8.1} photos/s");
     println!("  intake (hash + EXIF + checks + decode + derivatives + pHash + fsync'd writes): {full:8.1} photos/s");
     println!("  ratio intake / baseline:                          {:8.4}", full / baseline);
+    println!(
+        "bench-row | server photo intake, 2 MP JPEGs, {threads} threads (`server/benches/intake.rs`) | {full:.1} photos/s | SHA-256 only: {baseline:.0} photos/s | {:.4} | —",
+        full / baseline
+    );
 
     stages(&photos[0]);
 

@@ -1,11 +1,12 @@
 //! What happens when a record arrives, stage after stage: intake checks and stores it
 //! with its photos, then the search for other reports of the same animal runs. The
 //! handlers and the demo loader both come through here, so a record is treated the
-//! same however it arrives.
+//! same however it arrives. Once intake has stored the record its receipt goes back:
+//! follow-up work that fails is retried in the background, never answered as an error.
 
 use chrono::{DateTime, Utc};
 
-use crate::duplicates::search::search_once;
+use crate::duplicates::search::{search_once, search_unless_done};
 use crate::intake::{self, Accepted, IntakeError, Upload};
 use crate::state::AppState;
 
@@ -16,11 +17,23 @@ pub async fn receive(
     observer_id: Option<i64>,
     now: DateTime<Utc>,
 ) -> Result<Accepted, IntakeError> {
-    let accepted = intake::accept(&state.intake(), upload, observer_id, now).await?;
-    // A resend runs the search too: the first arrival may have stored the record and
-    // then failed to search.
-    search_once(&state.store, &state.duplicates, &state.taxa, accepted.receipt.observation_id, Utc::now())
-        .await
-        .map_err(anyhow::Error::from)?;
+    let (index, names) = (state.duplicates.clone(), state.taxa.clone());
+    // The search runs in the commit that stores the record, in a savepoint of its own, so
+    // reviewers see its candidates as soon as the receipt is out and a burst of records
+    // costs one durable commit, not two.
+    let search: intake::FollowUp = Box::new(move |conn, id| search_unless_done(conn, &index, &names, id, Utc::now()));
+    let accepted = intake::accept(&state.intake(), upload, observer_id, now, Some(search)).await?;
+    // The record is stored: from here nothing may turn its answer into an error.
+    let id = accepted.receipt.observation_id;
+    if let Some(err) = &accepted.follow_up_failed {
+        tracing::warn!(observation = id, error = %err, "search for duplicates failed; trying again in the background");
+        state.retries.push(id);
+    } else if accepted.replayed {
+        // A resend: the first arrival may have stored the record and then failed to search.
+        if let Err(err) = search_once(&state.store, &state.duplicates, &state.taxa, id, Utc::now()).await {
+            tracing::warn!(observation = id, error = %err, "search for duplicates failed; trying again in the background");
+            state.retries.push(id);
+        }
+    }
     Ok(accepted)
 }

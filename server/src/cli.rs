@@ -1,5 +1,6 @@
 //! The `wrackline` command line. Scripts and later work rely on these names:
-//! `serve`, `demo`, `export`, `range`, `trend`, each taking `--data-dir`.
+//! `serve`, `demo`, `export`, `range`, `trend`, `backup`, `restore`, `check`, each
+//! taking `--data-dir`.
 
 use std::net::SocketAddr;
 use std::path::PathBuf;
@@ -41,6 +42,13 @@ pub enum Command {
     /// People with a sign-in (reviewers and admins).
     #[command(subcommand)]
     User(UserCommand),
+    /// Copy the database and every photo into a new folder, while the server runs.
+    Backup(commands::backup::BackupArgs),
+    /// Check a backup, then copy it into an empty data directory.
+    Restore(commands::backup::RestoreArgs),
+    /// Check the database's integrity and that every photo it names is present and
+    /// matches its SHA-256 (a data directory or a backup).
+    Check,
 }
 
 #[derive(Debug, Subcommand)]
@@ -103,6 +111,9 @@ pub fn run(cli: Cli) -> anyhow::Result<()> {
         Command::Trend(args) => commands::trend::run(&cli.data_dir, args),
         Command::Effort(args) => print_effort(&cli.data_dir, &args),
         Command::User(command) => user(&cli.data_dir, command),
+        Command::Backup(args) => commands::backup::backup(&cli.data_dir, &args),
+        Command::Restore(args) => commands::backup::restore(&cli.data_dir, &args),
+        Command::Check => commands::backup::check(&cli.data_dir),
     }
 }
 
@@ -111,8 +122,8 @@ fn serve(data_dir: &std::path::Path, args: ServeArgs, with_demo: bool) -> anyhow
     if app_dir.is_none() {
         eprintln!("note: no built app at {} (run `cargo xtask build`); serving the API only", args.app_dir.display());
     }
-    let mut state = AppState::open(data_dir, app_dir, crate::taxa::load_checklist(args.checklist.as_deref())?)?;
-    state.settings = args.settings;
+    let checklist = crate::taxa::load_checklist(args.checklist.as_deref())?;
+    let mut state = AppState::open_with(data_dir, app_dir, checklist, args.settings)?;
     let runtime = tokio::runtime::Runtime::new().context("starting the async runtime")?;
     runtime.block_on(async move {
         if with_demo {

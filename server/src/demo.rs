@@ -5,6 +5,7 @@
 use chrono::Utc;
 use serde::Deserialize;
 
+use crate::intake::received::ReceivedPhoto;
 use crate::intake::{self, Upload};
 use crate::state::AppState;
 use crate::store::observations;
@@ -39,7 +40,7 @@ pub async fn load_if_empty(state: &AppState) -> anyhow::Result<usize> {
         let photos = record
             .photos
             .iter()
-            .map(|name| photo_bytes(name).map(<[u8]>::to_vec))
+            .map(|name| Ok(ReceivedPhoto::from_bytes(&state.photos, photo_bytes(name)?)?))
             .collect::<anyhow::Result<Vec<_>>>()?;
         let upload = Upload { record_json: serde_json::to_vec(&record.submission)?, photos };
         crate::arrival::receive(state, upload, None, Utc::now())

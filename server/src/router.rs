@@ -11,6 +11,7 @@ use axum::routing::{MethodFilter, MethodRouter, any, on};
 use tower::Layer as _;
 use tower_http::services::{ServeDir, ServeFile};
 use tower_http::set_header::{SetResponseHeader, SetResponseHeaderLayer};
+use tower_http::timeout::{RequestBodyDeadlineLayer, RequestBodyTimeoutLayer};
 
 use crate::error::ApiError;
 use crate::handlers::{
@@ -99,6 +100,10 @@ const fn route(verb: Verb, path: &'static str, access: Access, handler: MakeHand
 
 /// The largest request a record or a reply with photos may be.
 const UPLOAD_LIMIT: usize = MAX_PHOTO_BYTES * MAX_PHOTOS_PER_RECORD + 1024 * 1024;
+/// The largest survey walk: 20,000 track points at about 150 bytes each.
+const WALK_LIMIT: usize = 4 * 1024 * 1024;
+/// The largest body of any other route: sign-ins, names, review decisions.
+const JSON_LIMIT: usize = 64 * 1024;
 
 use Access::{Admin, Device, OwnDevice, OwnDeviceOrReviewer, Public, Reviewer};
 use Verb::{Delete, Get, Post, Put};
@@ -113,7 +118,7 @@ pub const ROUTES: &[RouteSpec] = &[
     route(Get, "/api/observations", Reviewer, |m| on(m, observations::list)),
     route(Get, "/api/observations/{client_id}", Reviewer, |m| on(m, observations::get)),
     route(Put, "/api/observations/{client_id}/walk", OwnDeviceOrReviewer, |m| on(m, walks::link)),
-    route(Post, "/api/walks", OwnDevice, |m| on(m, walks::submit)),
+    route(Post, "/api/walks", OwnDevice, |m| on(m, walks::submit).layer(DefaultBodyLimit::max(WALK_LIMIT))),
     route(Get, "/api/walks", Reviewer, |m| on(m, walks::list)),
     route(Get, "/api/effort", Public, |m| on(m, walks::effort)),
     route(Get, "/api/export", Public, |m| on(m, export::export)),
@@ -156,8 +161,12 @@ pub const ROUTES: &[RouteSpec] = &[
 
 /// The whole HTTP surface: [`ROUTES`], then unknown `/api/` paths as a JSON 404 and any
 /// other unknown path as the app's `index.html` (status 200), so the app's own links
-/// work on reload.
+/// work on reload. Every body is limited in size (by route, [`JSON_LIMIT`] unless the
+/// route says more), may pause at most `settings.body_idle_timeout_s` between pieces
+/// and must arrive whole within `settings.body_deadline_s`.
 pub fn app(state: AppState) -> Router {
+    let body_idle = std::time::Duration::from_secs(state.settings.body_idle_timeout_s);
+    let body_deadline = std::time::Duration::from_secs(state.settings.body_deadline_s);
     let mut api = Router::new();
     for spec in ROUTES {
         api = api.route(spec.path, (spec.handler)(spec.verb.filter()));
@@ -170,6 +179,9 @@ pub fn app(state: AppState) -> Router {
     router
         .layer(axum::middleware::from_fn_with_state(state.clone(), guard::same_origin_only))
         .with_state(state)
+        .layer(DefaultBodyLimit::max(JSON_LIMIT))
+        .layer(RequestBodyTimeoutLayer::new(body_idle))
+        .layer(RequestBodyDeadlineLayer::new(body_deadline))
         .layer(axum::middleware::from_fn(guard::security_headers))
         .layer(tower_http::trace::TraceLayer::new_for_http())
 }
@@ -189,19 +201,36 @@ async fn api_not_found() -> ApiError {
     ApiError::NotFound("no such API route".into())
 }
 
-/// Serves the app on an already bound listener until Ctrl-C, so tests can bind
-/// port 0 and read the port back. With no public address set, it is `http://` and the
-/// address listened on.
-pub async fn serve(listener: tokio::net::TcpListener, mut state: AppState) -> anyhow::Result<()> {
-    if state.settings.public_url.is_none() {
-        state.settings.public_url = Some(crate::settings::PublicUrl::listening_on(listener.local_addr()?));
-    }
-    // With each connection's address, for the sign-in rate limit.
-    let router = app(state).into_make_service_with_connect_info::<std::net::SocketAddr>();
-    axum::serve(listener, router)
-        .with_graceful_shutdown(async {
-            let _ = tokio::signal::ctrl_c().await;
-        })
-        .await?;
+/// Serves the app on an already bound listener until Ctrl-C or SIGTERM, so tests can
+/// bind port 0 and read the port back.
+pub async fn serve(listener: tokio::net::TcpListener, state: AppState) -> anyhow::Result<()> {
+    serve_until(listener, state, stop_signal()).await;
     Ok(())
+}
+
+/// Serves the app on `listener` (with each connection's address, for the rate limits)
+/// until `stop` completes; the connection limits and timeouts come from the settings.
+/// With no public address set, it is `http://` and the address listened on.
+pub async fn serve_until(
+    listener: tokio::net::TcpListener,
+    mut state: AppState,
+    stop: impl std::future::Future<Output = ()>,
+) {
+    if state.settings.public_url.is_none() {
+        state.settings.public_url = listener.local_addr().ok().map(crate::settings::PublicUrl::listening_on);
+    }
+    let limits = crate::handlers::connections::ConnectionLimits {
+        max_connections: state.settings.max_connections,
+        header_timeout: std::time::Duration::from_secs(state.settings.header_timeout_s),
+    };
+    crate::handlers::connections::serve_connections(listener, app(state), limits, stop).await;
+}
+
+/// Ctrl-C, or SIGTERM (what service managers send).
+async fn stop_signal() {
+    let mut terminate = tokio::signal::unix::signal(tokio::signal::unix::SignalKind::terminate()).ok();
+    tokio::select! {
+        _ = tokio::signal::ctrl_c() => {}
+        Some(()) = async { terminate.as_mut()?.recv().await } => {}
+    }
 }

@@ -7,6 +7,7 @@
 
 pub mod codes;
 pub mod exif;
+pub mod limits;
 pub mod problem;
 pub mod record;
 pub mod review;

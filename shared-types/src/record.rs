@@ -9,6 +9,7 @@ use chrono::{DateTime, FixedOffset, Utc};
 use serde::{Deserialize, Serialize};
 use uuid::Uuid;
 
+use crate::limits::{MAX_EXIF_TEXT_CHARS, MAX_KEY_ANSWERS, MAX_NAME_CHARS, MAX_PHOTOS_PER_RECORD};
 use crate::values::{AccuracyM, Count, Latitude, LengthValue, Longitude, Text};
 
 /// Where a position came from.
@@ -259,7 +260,7 @@ pub struct Submission {
     pub count: Count,
     pub condition: Condition,
     pub setting: Setting,
-    #[serde(default)]
+    #[serde(default, deserialize_with = "crate::limits::list::<_, HumanSign, { HumanSign::ALL.len() }>")]
     pub human_signs: Vec<HumanSign>,
     pub notes: Option<Text>,
     /// The name the observer chose to be credited with; may be empty.
@@ -267,7 +268,11 @@ pub struct Submission {
     /// What the phone read from each original photo's EXIF, in photo order, before it
     /// made the upload copy (which carries no EXIF). Empty from phones that did not read
     /// it; left out of the JSON when empty, so older records hash as before.
-    #[serde(default, skip_serializing_if = "Vec::is_empty")]
+    #[serde(
+        default,
+        skip_serializing_if = "Vec::is_empty",
+        deserialize_with = "crate::limits::list::<_, PhotoExif, MAX_PHOTOS_PER_RECORD>"
+    )]
     pub photo_exif: Vec<PhotoExif>,
     /// What the guided key suggested and the observer picked, with the answers given.
     /// Left out of the JSON when absent, so records made without the key keep the
@@ -294,11 +299,12 @@ pub struct KeyChoice {
     /// Darwin Core `scientificName` of the pick, at `taxon_rank`.
     pub scientific_name: Text,
     /// Darwin Core `taxonRank`: one of [`KEY_RANKS`].
+    #[serde(deserialize_with = "crate::limits::string::<_, MAX_NAME_CHARS>")]
     pub taxon_rank: String,
     /// The key's probability for the pick when it was made, 0 to 1.
     pub probability: f64,
     /// Character → chosen state, or `notSure`.
-    #[serde(default)]
+    #[serde(default, deserialize_with = "crate::limits::name_map::<_, MAX_KEY_ANSWERS>")]
     pub answers: std::collections::BTreeMap<String, String>,
 }
 
@@ -417,8 +423,10 @@ pub enum OffsetSource {
 #[derive(Debug, Clone, Default, PartialEq, Serialize, Deserialize)]
 pub struct PhotoExif {
     /// DateTimeOriginal (+ SubSecTimeOriginal) as written: local time, no zone.
+    #[serde(default, deserialize_with = "crate::limits::optional_string::<_, MAX_EXIF_TEXT_CHARS>")]
     pub taken_local: Option<String>,
     /// OffsetTimeOriginal, e.g. "+01:00".
+    #[serde(default, deserialize_with = "crate::limits::optional_string::<_, MAX_EXIF_TEXT_CHARS>")]
     pub offset: Option<String>,
     /// The instant, when an offset was available.
     pub taken_at: Option<DateTime<FixedOffset>>,
@@ -432,7 +440,11 @@ pub struct PhotoExif {
     /// The phone's UTC offset at the photo's local time, e.g. "+00:00", which the phone
     /// used because the photo had no OffsetTimeOriginal. Sent by the phone, never read
     /// from a file; left out of the JSON when absent, so older records hash as before.
-    #[serde(default, skip_serializing_if = "Option::is_none")]
+    #[serde(
+        default,
+        skip_serializing_if = "Option::is_none",
+        deserialize_with = "crate::limits::optional_string::<_, MAX_EXIF_TEXT_CHARS>"
+    )]
     pub device_offset: Option<String>,
     /// SHA-256 of the original file the phone read (the phone's reading only; the server
     /// names the file it received by its own hash). Left out of the JSON when absent, so
@@ -449,6 +461,10 @@ pub enum PhotoFlag {
     TakenLongBeforeRecord,
     /// The photo's EXIF position is far from the record's: a photo from elsewhere?
     TakenFarFromRecord,
+    /// The file ends before its image data does (a JPEG with no end-of-image marker
+    /// after its scan): the picture decodes only as far as the data goes. Kept, since it
+    /// may be the only evidence, and flagged for the reviewer.
+    CutShort,
 }
 
 impl PhotoFlag {
@@ -456,6 +472,7 @@ impl PhotoFlag {
         match self {
             Self::TakenLongBeforeRecord => "photo taken long before the record",
             Self::TakenFarFromRecord => "photo taken far from the record's place",
+            Self::CutShort => "photo file cut short: part of the picture is missing",
         }
     }
 }

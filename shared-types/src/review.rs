@@ -36,7 +36,9 @@ impl Role {
 #[derive(Debug, Clone, Serialize, Deserialize)]
 #[serde(deny_unknown_fields)]
 pub struct LoginRequest {
+    #[serde(deserialize_with = "crate::limits::string::<_, { crate::limits::MAX_NAME_CHARS }>")]
     pub username: String,
+    #[serde(deserialize_with = "crate::limits::string::<_, { crate::limits::MAX_PASSWORD_CHARS }>")]
     pub password: String,
 }
 
@@ -74,7 +76,12 @@ pub struct DeviceIdentity {
 #[serde(tag = "action", rename_all = "snake_case", deny_unknown_fields)]
 pub enum ReviewAction {
     /// Confirm the record, at any rank, possibly changing the identification.
-    Confirm { scientific_name: Text, taxon_rank: String, remark: Option<Text> },
+    Confirm {
+        scientific_name: Text,
+        #[serde(deserialize_with = "crate::limits::string::<_, { crate::limits::MAX_NAME_CHARS }>")]
+        taxon_rank: String,
+        remark: Option<Text>,
+    },
     /// Ask the observer for more detail; the message reaches their phone.
     RequestDetails { message: Text },
     /// The record cannot be confirmed from what there is.
@@ -305,7 +312,11 @@ pub struct Reply {
     pub message: Text,
     /// What the phone read from each original photo's EXIF, in photo order, before it
     /// made the upload copy (as `Submission::photo_exif`). Left out when empty.
-    #[serde(default, skip_serializing_if = "Vec::is_empty")]
+    #[serde(
+        default,
+        skip_serializing_if = "Vec::is_empty",
+        deserialize_with = "crate::limits::list::<_, crate::record::PhotoExif, { crate::limits::MAX_PHOTOS_PER_RECORD }>"
+    )]
     pub photo_exif: Vec<crate::record::PhotoExif>,
 }
 

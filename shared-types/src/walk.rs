@@ -50,7 +50,7 @@ pub struct WalkSubmission {
     /// "I reported every shark, ray, skate and egg case I found on this walk."
     pub all_finds_reported: bool,
     /// The GPS track, oldest first; empty for a walk entered by hand.
-    #[serde(default)]
+    #[serde(default, deserialize_with = "crate::limits::list::<_, TrackPoint, MAX_TRACK_POINTS>")]
     pub track: Vec<TrackPoint>,
     /// The distance typed by the observer, in metres, for a walk with no track.
     pub typed_distance_m: Option<f64>,

@@ -101,6 +101,7 @@ try {
   console.log(`offline reload            ${s(baseline.offlineReload).padEnd(19)}${s(compressed.offlineReload).padEnd(15)}≤ ${s(TARGET.offlineReload)} (${verdict(compressed.offlineReload, TARGET.offlineReload)})`);
   console.log(`as served / as-is: bytes ${(compressed.bytes / baseline.bytes).toFixed(2)}x, app ready ${(compressed.ready / baseline.ready).toFixed(2)}x`);
   console.log(`sent (as served): ${compressed.sent.join(', ')}`);
+  console.log(`bench-row | first load, 1.6 Mbit/s 150 ms RTT, 390 px phone (\`tests/browser/bench_first_load.mjs\`) | ${kb(total(compressed))}, first text ${s(compressed.firstText)}, offline reload ${s(compressed.offlineReload)} | as-is: ${kb(total(baseline))}, first text ${s(baseline.firstText)} | bytes ${(total(compressed) / total(baseline)).toFixed(2)}× | ≤ ${kb(TARGET.bytes)}, first text ≤ ${s(TARGET.firstText)}, offline ≤ ${s(TARGET.offlineReload)}`);
 } finally {
   await browser.close();
   server.stop();

@@ -18,6 +18,7 @@ try {
   console.log(`browser (wasm, Chromium): next question, 50 species: ${(result.small * 1000).toFixed(1)} µs per call`);
   console.log(`browser (wasm, Chromium): next question, 500 species: ${(result.large * 1000).toFixed(1)} µs per call`);
   console.log(`browser: 500 / 50 species = ${(result.large / result.small).toFixed(1)}x`);
+  console.log(`bench-row | key: next question in headless Chromium, release wasm (\`tests/browser/bench_key.mjs\`) | ${(result.large * 1000).toFixed(0)} µs (500 species) | 50 species: ${(result.small * 1000).toFixed(0)} µs | 500/50 = ${(result.large / result.small).toFixed(1)}× | —`);
 } finally {
   await browser.close();
   server.stop();

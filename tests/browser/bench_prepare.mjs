@@ -130,6 +130,8 @@ try {
   console.log(`  ratio upload copy / decode: ${(median(result.prepare) / median(result.decode)).toFixed(2)}`);
   console.log(`  whole pick on the form (EXIF from the file's start + upload copy + hash + thumbnail): ${fmt(result.pick)}`);
   console.log(`  copy: ${result.copySize.join(' × ')} px, ${(result.copyBytes / 1e6).toFixed(2)} MB`);
+  const wasmWords = result.wasm.length ? `; image crate in wasm: ${median(result.wasm).toFixed(0)} ms` : '';
+  console.log(`bench-row | phone upload copy, 12 MP JPEG, headless Chromium (\`tests/browser/bench_prepare.mjs\`) | ${median(result.prepare).toFixed(0)} ms (whole pick ${median(result.pick).toFixed(0)} ms) | decode only: ${median(result.decode).toFixed(0)} ms${wasmWords} | copy / decode ${(median(result.prepare) / median(result.decode)).toFixed(2)}× | —`);
   if (result.wasm.length) {
     console.log(`  image crate in wasm (decode + orient + scale + JPEG): ${fmt(result.wasm)}, copy ${result.wasmSize.join(' × ')} px`);
     console.log(`  ratio wasm / browser route: ${(median(result.wasm) / median(result.prepare)).toFixed(2)}`);

@@ -13,7 +13,9 @@
 //! - `fuzz [--seconds N] [--seed N]`: the intake fuzz loop (`server/examples/fuzz_intake.rs`).
 //! - `tidy`: the workspace's written rules and module layers ([`tidy`]), printed.
 //! - `bench`: the benchmarks, each printing ratios against a baseline measured in the
-//!   same run (never timed tests: machines here are shared and noisy).
+//!   same run (never timed tests: machines here are shared and noisy), then one table of
+//!   them all: durable HTTP ingest against raw SQLite, photo intake, duplicates, exports,
+//!   range figures, the key, the phone's upload copy.
 
 mod app;
 mod prerequisites;
@@ -117,22 +119,32 @@ fn fuzz(args: &[String]) -> Result<()> {
     run::cargo(&cargo_args)
 }
 
-/// Benchmarks, not timed tests: they print numbers and pass whatever they are.
+/// Benchmarks, not timed tests: they print numbers and pass whatever they are. Each
+/// prints its rows of the summary (result, baseline measured in the same run, ratio,
+/// target); the summary table of every row follows the last, then the figures recorded
+/// in `docs/benchmarks.md` to compare with.
 fn bench() -> Result<()> {
     prerequisites::all()?;
     let python = prerequisites::python_venv()?;
-    run::cargo(&["bench", "-p", "species-key", "--bench", "next_question"])?;
-    run::cargo_with_env(&["bench", "-p", "analysis", "--bench", "range"], &[("WRACKLINE_PYTHON", &python)])?;
-    run::cargo(&["bench", "-p", "wrackline-server", "--bench", "intake"])?;
-    run::cargo(&["bench", "-p", "wrackline-server", "--bench", "duplicates"])?;
-    run::cargo(&["bench", "-p", "wrackline-server", "--bench", "export"])?;
+    let mut rows = Vec::new();
+    rows.extend(run::cargo_bench(&["-p", "species-key", "--bench", "next_question"], &[])?);
+    rows.extend(run::cargo_bench(&["-p", "analysis", "--bench", "range"], &[("WRACKLINE_PYTHON", &python)])?);
+    for bench in ["ingest", "intake", "duplicates", "export"] {
+        rows.extend(run::cargo_bench(&["-p", "wrackline-server", "--bench", bench], &[])?);
+    }
     let bench_wasm = app::build_bench_wasm()?;
     let dist = app::build(app::Profile::Release)?;
     run::cargo(&["build", "--release", "-p", "wrackline-server"])?;
     let server = root().join("target/release/wrackline");
-    run::browser_script("bench_key.mjs", &dist, &server)?;
-    run::browser_script("bench_first_load.mjs", &dist, &server)?;
-    run::browser_bench(&dist, &bench_wasm, &server)?;
+    rows.extend(run::browser_script("bench_key.mjs", &dist, &server)?);
+    rows.extend(run::browser_script("bench_first_load.mjs", &dist, &server)?);
+    rows.extend(run::browser_bench(&dist, &bench_wasm, &server)?);
+    println!("\nEvery benchmark of this run, each with its baseline measured in the same run:\n");
+    println!("| benchmark | result | baseline in the same run | ratio | target |");
+    println!("|---|---|---|---|---|");
+    for row in &rows {
+        println!("| {row} |");
+    }
     print_recorded_figures()
 }
 

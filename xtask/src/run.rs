@@ -33,6 +33,44 @@ pub fn cargo_with_env(args: &[&str], env: &[(&str, &Path)]) -> Result<()> {
     check(command)
 }
 
+/// The mark a benchmark puts before a line of the summary table: `bench-row | name |
+/// result | baseline | ratio | target`.
+pub const BENCH_ROW: &str = "bench-row |";
+
+/// Runs a command in the workspace root, showing its output as it comes, and returns
+/// the benchmark rows it printed ([`BENCH_ROW`] lines, the mark taken off).
+pub fn collect_rows(mut command: Command) -> Result<Vec<String>> {
+    use std::io::BufRead as _;
+    command.current_dir(root()).stdout(std::process::Stdio::piped());
+    let shown = format!("{command:?}");
+    eprintln!("xtask: running {shown}");
+    let mut child = command.spawn().with_context(|| format!("could not start {shown}"))?;
+    let mut rows = Vec::new();
+    let output = child.stdout.take().context("the benchmark's output")?;
+    for line in std::io::BufReader::new(output).lines() {
+        let line = line.with_context(|| format!("reading the output of {shown}"))?;
+        println!("{line}");
+        if let Some(row) = line.strip_prefix(BENCH_ROW) {
+            rows.push(row.trim().to_owned());
+        }
+    }
+    let status = child.wait().with_context(|| format!("waiting for {shown}"))?;
+    if !status.success() {
+        bail!("{shown} failed ({status})");
+    }
+    Ok(rows)
+}
+
+/// `cargo bench` of one benchmark, collecting its rows (see [`collect_rows`]).
+pub fn cargo_bench(args: &[&str], env: &[(&str, &Path)]) -> Result<Vec<String>> {
+    let mut command = Command::new(std::env::var("CARGO").unwrap_or_else(|_| "cargo".into()));
+    command.arg("bench").args(args);
+    for (name, value) in env {
+        command.env(name, value);
+    }
+    collect_rows(command)
+}
+
 /// Runs a command to the end and exits with its status.
 pub fn exec(mut command: Command) -> Result<()> {
     command.current_dir(root());
@@ -77,16 +115,16 @@ pub fn browser_tests(dist: &Path, server: &Path) -> Result<()> {
     check(command)
 }
 
-/// One script from `tests/browser` (a benchmark), run to the end.
-pub fn browser_script(file: &str, dist: &Path, server: &Path) -> Result<()> {
+/// One benchmark script from `tests/browser`, run to the end; its rows (see [`collect_rows`]).
+pub fn browser_script(file: &str, dist: &Path, server: &Path) -> Result<Vec<String>> {
     let mut command = node(dist, server);
     command.arg(root().join("tests/browser").join(file));
-    check(command)
+    collect_rows(command)
 }
 
-/// The phone-side benchmark: the 12 MP upload copy in headless Chromium.
-pub fn browser_bench(dist: &Path, bench_wasm: &Path, server: &Path) -> Result<()> {
+/// The phone-side benchmark: the 12 MP upload copy in headless Chromium; its rows.
+pub fn browser_bench(dist: &Path, bench_wasm: &Path, server: &Path) -> Result<Vec<String>> {
     let mut command = node(dist, server);
     command.arg(root().join("tests/browser/bench_prepare.mjs")).env("WRACKLINE_BENCH_WASM", bench_wasm);
-    check(command)
+    collect_rows(command)
 }

@@ -20,7 +20,8 @@ pub fn AboutYou(outbox: Outbox) -> impl IntoView {
     let note = RwSignal::new(String::new());
     let something_to_send = move || outbox.entries.with(|e| !e.is_empty()) || outbox.walks.with(|w| !w.is_empty());
     let save = move |_| {
-        let (given_name, given_contact, named) = (name.get_untracked(), contact.get_untracked(), name_public.get_untracked());
+        let (given_name, given_contact, named) =
+            (name.get_untracked(), contact.get_untracked(), name_public.get_untracked());
         identity::keep_profile(&given_name, &given_contact, named);
         note.set(identity::saved_words(&given_name, &given_contact, named));
         answered.set(true);

@@ -1,6 +1,8 @@
-//! The assessors' subcommands of `wrackline`: `range`, `trend` and `export`. Each has its
-//! clap arguments and a `run` that opens what it needs and calls the library.
+//! The subcommands of `wrackline` beyond serving: the assessors' `range`, `trend` and
+//! `export`, and the operator's `backup`, `restore` and `check`. Each has its clap
+//! arguments and a function that opens what it needs and calls the library.
 
+pub mod backup;
 pub mod export;
 pub mod range;
 pub mod trend;
@@ -67,7 +69,7 @@ impl RecordSource {
                     let publisher = Publisher::load(conn, &names, Audience::Full)?;
                     input::read_store(conn, states, &publisher)
                 };
-                (state.store.run_here(|conn| read(conn))?, used)
+                (state.store.read_here(read)?, used)
             }
         };
         Ok(Loaded { records, records_used, names, taxon })

@@ -3,7 +3,7 @@
 
 use chrono::{DateTime, Utc};
 use rstar::primitives::{GeomWithData, Rectangle};
-use rstar::{AABB, Envelope as _, RTree, RTreeObject as _};
+use rstar::{AABB, RTree, RTreeObject as _};
 
 use super::judge::*;
 use super::records::sightings;
@@ -26,9 +26,27 @@ type Entry = GeomWithData<Rectangle<[f64; 4]>, i64>;
 /// boxes meet whenever the two places are within u₁ + u₂ + DRIFT_CARCASS_M ≥ the
 /// quadrature gap [`judge`] allows; a search is the new record's box over ± the carcass
 /// window. A record with a large uncertainty makes only its own box large.
+///
+/// Two trees, because rstar's bulk loading (0.12) may leave leaves at different depths
+/// when places cluster (many records at one beach), and its insertion assumes they are
+/// all at one depth: inserting into such a tree panics ("This is a bug in rstar"). So
+/// the places stored before the start are bulk-loaded into a tree that is only ever
+/// queried ([`Settled`] has no insert), and places arriving later go into a tree built
+/// by insertion alone, which stays balanced. A search asks both.
 #[derive(Default)]
 pub struct Index {
-    tree: RTree<Entry>,
+    settled: Settled,
+    arrived: RTree<Entry>,
+}
+
+/// A bulk-loaded tree, for queries only: it offers no way to insert.
+#[derive(Default)]
+struct Settled(RTree<Entry>);
+
+impl Settled {
+    fn intersecting<'a>(&'a self, envelope: &'a AABB<[f64; 4]>) -> impl Iterator<Item = &'a Entry> + 'a {
+        self.0.locate_in_envelope_intersecting(envelope)
+    }
 }
 
 fn days(at: DateTime<Utc>) -> f64 {
@@ -58,17 +76,20 @@ fn entry((id, position, uncertainty_m, at): IndexedPoint) -> Option<Entry> {
 }
 
 impl Index {
-    /// Builds the index at once (bulk loading is much faster than one by one).
+    /// Builds the index of the places stored so far at once (bulk loading is much faster
+    /// than one by one).
     pub fn build(points: impl IntoIterator<Item = IndexedPoint>) -> Self {
-        Self { tree: RTree::bulk_load(points.into_iter().filter_map(entry).collect()) }
+        let settled = Settled(RTree::bulk_load(points.into_iter().filter_map(entry).collect()));
+        Self { settled, arrived: RTree::new() }
     }
 
     /// Adds a place; adding the same place of the same record again changes nothing.
     pub fn insert(&mut self, point: IndexedPoint) {
         let Some(new) = entry(point) else { return };
-        let centre = new.geom().envelope().center();
-        if !self.tree.locate_all_at_point(&centre).any(|e| e == &new) {
-            self.tree.insert(new);
+        let envelope = new.geom().envelope();
+        let known = self.settled.intersecting(&envelope).chain(self.arrived.locate_in_envelope_intersecting(&envelope));
+        if !known.into_iter().any(|e| e == &new) {
+            self.arrived.insert(new);
         }
     }
 
@@ -80,18 +101,23 @@ impl Index {
         let Some(envelope) = place_box(position, uncertainty_m, days(at) - window, days(at) + window) else {
             return Vec::new();
         };
-        let mut ids: Vec<i64> = self.tree.locate_in_envelope_intersecting(&envelope).map(|e| e.data).collect();
+        let mut ids: Vec<i64> = self
+            .settled
+            .intersecting(&envelope)
+            .chain(self.arrived.locate_in_envelope_intersecting(&envelope))
+            .map(|e| e.data)
+            .collect();
         ids.sort_unstable();
         ids.dedup();
         ids
     }
 
     pub fn len(&self) -> usize {
-        self.tree.size()
+        self.settled.0.size() + self.arrived.size()
     }
 
     pub fn is_empty(&self) -> bool {
-        self.tree.size() == 0
+        self.len() == 0
     }
 }
 
@@ -112,4 +138,46 @@ pub fn raw_index_points(raw: &crate::store::duplicates::RawDup) -> Vec<IndexedPo
         .iter()
         .filter_map(|s| s.position.map(|p| (raw.observation_id, p, s.uncertainty_m, s.at)))
         .collect()
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    fn hour(hours: i64) -> DateTime<Utc> {
+        DateTime::from_timestamp(1_750_000_000 + hours * 3_600, 0).unwrap()
+    }
+
+    /// `count` stored records clustered at one beach over two days (50 × 13 spots a few
+    /// metres apart), as a busy weekend leaves them.
+    fn one_beach(count: i64) -> Vec<IndexedPoint> {
+        let spot = |i: i64| (52.4 + (i % 50) as f64 * 1e-4, -4.05 + (i % 13) as f64 * 1e-4);
+        (0..count).map(|i| (i, spot(i), Some(10.0), hour(i % 48))).collect()
+    }
+
+    /// rstar 0.12's bulk loading left these trees with leaves at two depths, and the
+    /// inserts below panicked inside rstar ("This is a bug in rstar") — after a restart
+    /// the server answered 500 to records it had stored.
+    #[test]
+    fn thousands_of_arrivals_at_clustered_places_after_a_bulk_load_never_panic() {
+        for stored in [103, 1_552, 1_608, 1_650, 1_692, 4_000] {
+            let mut index = Index::build(one_beach(stored));
+            for i in 0..2_000 {
+                let place = (52.4 + (i % 3) as f64 * 0.01 + (i % 7) as f64 * 1e-5, -4.05 + (i % 5) as f64 * 1e-5);
+                index.insert((stored + i, place, Some(8.0), hour(i % 5)));
+            }
+            assert_eq!(index.len(), (stored + 2_000) as usize, "{stored} stored");
+            let near = index.possible_pairs((52.4, -4.05), Some(8.0), hour(2));
+            assert!(near.contains(&0) && near.contains(&stored), "{stored} stored: old and new places are both found");
+        }
+    }
+
+    #[test]
+    fn a_place_indexed_before_the_start_is_not_added_again() {
+        let mut index = Index::build(one_beach(20));
+        for point in one_beach(20) {
+            index.insert(point);
+        }
+        assert_eq!(index.len(), 20);
+    }
 }

@@ -51,6 +51,7 @@
 
 mod index;
 mod judge;
+pub mod later;
 pub mod photos;
 mod records;
 pub mod search;

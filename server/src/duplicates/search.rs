@@ -1,8 +1,8 @@
 //! The search for duplicates of one stored record, and the index built at start-up.
 //!
-//! A search runs after its record is stored and is marked done in the transaction that
-//! keeps its candidates (`duplicate_searches`), so one that failed is run again on the
-//! phone's resend and at the next start.
+//! A search runs after its record is stored and is marked done in the savepoint that
+//! keeps its candidates (`duplicate_searches`), so one that failed is run again in the
+//! background (`later.rs`), on the phone's resend and at the next start.
 
 use std::sync::{Arc, Mutex};
 
@@ -23,23 +23,30 @@ pub async fn search_once(
     now: DateTime<Utc>,
 ) -> Result<(), StoreError> {
     let (index, names) = (index.clone(), names.clone());
-    store
-        .run(move |conn| {
-            if searched(conn, observation_id)? {
-                return Ok(());
-            }
-            search(conn, &index, &names, observation_id, now)
-        })
-        .await
+    store.write(move |conn| search_unless_done(conn, &index, &names, observation_id, now)).await
+}
+
+/// [`search`], unless it was done already for this record (a resend, a retry).
+pub fn search_unless_done(
+    conn: &mut rusqlite::Connection,
+    index: &Mutex<Index>,
+    names: &TaxonIndex,
+    observation_id: i64,
+    now: DateTime<Utc>,
+) -> Result<(), StoreError> {
+    if searched(conn, observation_id)? {
+        return Ok(());
+    }
+    search(conn, index, names, observation_id, now)
 }
 
 /// The search for one stored record: records holding the same photo (file or original)
 /// at any time and place, and the index's neighbours of each of its places; the record's
-/// places join the index. Searches run one at a time on the store's one writer
-/// connection (`Store::run`), which covers the index query and insert together, so of
-/// two arrivals of one animal the second always finds the first (the race test in
+/// places join the index. Searches run one at a time on the store's writer thread
+/// (`Store::write`), which covers the index query and insert together, so of two
+/// arrivals of one animal the second always finds the first (the race test in
 /// `tests/it/duplicates.rs` fails when the insert moves outside it). Marks the search
-/// done in the transaction that keeps the candidates.
+/// done in the savepoint that keeps the candidates.
 pub fn search(
     conn: &mut rusqlite::Connection,
     index: &Mutex<Index>,
@@ -73,14 +80,16 @@ pub fn search(
 /// back), with the search run for any record stored without one (it failed after the
 /// record was stored). A search that fails again is logged and tried again at the next
 /// start or resend; the server still starts.
-pub fn build_index(store: &Store, taxa: &TaxonIndex) -> Result<Index, StoreError> {
+pub fn build_index(store: &Store, taxa: &Arc<TaxonIndex>) -> Result<Arc<Mutex<Index>>, StoreError> {
     let raws = store.run_here(|conn| store::duplicates::all_records(conn))?;
-    let index = Mutex::new(Index::build(raws.iter().flat_map(raw_index_points)));
+    let index = Arc::new(Mutex::new(Index::build(raws.iter().flat_map(raw_index_points))));
+    drop(raws);
     let now = Utc::now();
     for id in store.run_here(|conn| store::duplicates::unsearched(conn))? {
-        if let Err(err) = store.run_here(|conn| search(conn, &index, taxa, id, now)) {
+        let (index, taxa) = (index.clone(), taxa.clone());
+        if let Err(err) = store.run_here(move |conn| search(conn, &index, &taxa, id, now)) {
             tracing::warn!(observation = id, error = %err, "search for duplicates failed at start-up");
         }
     }
-    Ok(index.into_inner().unwrap_or_else(|p| p.into_inner()))
+    Ok(index)
 }

@@ -63,7 +63,7 @@ impl FromRequestParts<AppState> for Caller {
     async fn from_request_parts(parts: &mut Parts, state: &AppState) -> Result<Self, Self::Rejection> {
         if let Some(token) = bearer(parts) {
             let hash = token_sha256(&token);
-            let person = state.store.run(move |conn| people::person_by_device(conn, &hash)).await?;
+            let person = state.store.look(move |conn| people::person_by_device(conn, &hash)).await?;
             let person = person.ok_or_else(|| {
                 ApiError::Unauthorized("this device identity is not known here; ask for a new one".into())
             })?;
@@ -74,7 +74,7 @@ impl FromRequestParts<AppState> for Caller {
         };
         let hash = token_sha256(&token);
         let lookup = hash.clone();
-        let found = state.store.run(move |conn| people::session(conn, &lookup, Utc::now())).await?;
+        let found = state.store.look(move |conn| people::session(conn, &lookup, Utc::now())).await?;
         let Some((person, csrf)) = found else {
             return Err(ApiError::Unauthorized("your sign-in has ended; sign in again".into()));
         };

@@ -11,8 +11,8 @@ use shared_types::{DeviceRequest, MyRecord, Reply};
 use uuid::Uuid;
 
 use crate::error::ApiError;
-use crate::handlers::access::{Observer, check_owner};
-use crate::handlers::observations::{intake_error, read_parts};
+use crate::handlers::access::{Client, Observer, check_owner};
+use crate::handlers::observations::{intake_error, keep_pace, receive_parts, upload_turn};
 use crate::intake::{self, parse_json};
 use crate::state::AppState;
 use crate::store::review::{self as review_store, ReplyOutcome};
@@ -53,6 +53,7 @@ pub async fn records(State(state): State<AppState>, Observer(me): Observer) -> R
 pub async fn reply(
     State(state): State<AppState>,
     Observer(me): Observer,
+    Client { address, .. }: Client,
     Path(client_id): Path<String>,
     multipart: Multipart,
 ) -> Result<Json<serde_json::Value>, ApiError> {
@@ -64,8 +65,11 @@ pub async fn reply(
     let owner =
         state.store.run(move |conn| review_store::observation_of(conn, record)).await?.and_then(|(_, _, owner)| owner);
     check_owner(&me, owner, false, &format!("record {record}"))?;
+    keep_pace(&state, Some(me.id), address)?;
+    let _turn = upload_turn(&state).await?;
+    intake::check_room(&state.intake()).map_err(intake_error)?;
 
-    let (json, photos) = read_parts(multipart, "reply").await?;
+    let (json, photos) = receive_parts(&state, multipart, "reply").await?;
     let reply: Reply = parse_json(&json).map_err(intake_error)?;
     if reply.message.as_str().is_empty() && photos.is_empty() {
         return Err(ApiError::InvalidField {
@@ -78,9 +82,10 @@ pub async fn reply(
             format!("lists EXIF for {} photos but {} came with the reply", reply.photo_exif.len(), photos.len());
         return Err(ApiError::InvalidField { field: "photo_exif".into(), message });
     }
-    let mut stored = intake::store_photos(&state.intake(), photos, *view.submission.observed_at.offset())
+    let placed = intake::store_photos(&state.intake(), photos, *view.submission.observed_at.offset())
         .await
         .map_err(intake_error)?;
+    let mut stored = placed.photos.clone();
     intake::compare_photos(&view.submission, &mut stored, &reply.photo_exif);
     let observer = me.id;
     let outcome = state
@@ -96,12 +101,22 @@ pub async fn reply(
                 Utc::now(),
             )
         })
-        .await?;
+        .await;
+    let outcome = match outcome {
+        Ok(outcome) => outcome,
+        Err(err) => {
+            placed.discard(&state.intake()).await;
+            return Err(intake_error(anyhow::Error::from(err).into()));
+        }
+    };
     match outcome {
         ReplyOutcome::Added | ReplyOutcome::AlreadyThere => {
             Ok(Json(serde_json::json!({"client_id": record, "received": true})))
         }
-        ReplyOutcome::NotTheirs => Err(ApiError::Forbidden(format!("record {record} was sent from another phone"))),
+        ReplyOutcome::NotTheirs => {
+            placed.discard(&state.intake()).await;
+            Err(ApiError::Forbidden(format!("record {record} was sent from another phone")))
+        }
     }
 }
 

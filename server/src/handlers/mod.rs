@@ -1,9 +1,11 @@
 //! HTTP handlers, grouped by resource. They read the request, call the module that
-//! does the work, and turn its answer into a response; nothing else.
+//! does the work, and turn its answer into a response; nothing else. `connections`
+//! accepts and times out the connections they are served on.
 
 pub mod access;
 pub mod assess;
 pub mod checklist;
+pub mod connections;
 pub mod export;
 pub mod guard;
 pub mod health;

@@ -6,7 +6,7 @@ use axum::extract::{Path, Query, State};
 use chrono::Utc;
 use serde::Deserialize;
 use shared_types::codes::{code as code_of, from_code};
-use shared_types::{NameReading, QueueFlag, QueueItem, RecordView, ReviewAction, ReviewDetail, ReviewState};
+use shared_types::{NameReading, QueueFlag, QueueItem, RecordView, ReviewAction, ReviewDetail, ReviewState, Text};
 use uuid::Uuid;
 
 use crate::error::ApiError;
@@ -221,7 +221,7 @@ pub async fn act(
     body: Bytes,
 ) -> Result<Json<serde_json::Value>, ApiError> {
     let id = record_id(&client_id)?;
-    let action: ReviewAction = parse_json(&body).map_err(intake_error)?;
+    let action = read_action(&body)?;
     let person = reviewer.id;
     let outcome = state
         .store
@@ -231,6 +231,51 @@ pub async fn act(
         None => Err(ApiError::NotFound(format!("no record with id {id}"))),
         Some(Err(refused)) => Err(ApiError::Conflict(refused.to_string())),
         Some(Ok(new_state)) => Ok(Json(serde_json::json!({"client_id": id, "review_state": new_state}))),
+    }
+}
+
+/// Reads a review action variant by variant, so that a refused field is named: serde
+/// cannot follow the path into an internally tagged enum (`{"action": "confirm", …}`),
+/// which would leave every refusal naming no field.
+fn read_action(body: &[u8]) -> Result<ReviewAction, ApiError> {
+    #[derive(Deserialize)]
+    #[serde(deny_unknown_fields)]
+    struct Confirm {
+        scientific_name: Text,
+        #[serde(deserialize_with = "shared_types::limits::string::<_, { shared_types::limits::MAX_NAME_CHARS }>")]
+        taxon_rank: String,
+        remark: Option<Text>,
+    }
+    #[derive(Deserialize)]
+    #[serde(deny_unknown_fields)]
+    struct RequestDetails {
+        message: Text,
+    }
+    #[derive(Deserialize)]
+    #[serde(deny_unknown_fields)]
+    struct NotConfirmable {
+        reason: Text,
+    }
+    let mut fields: serde_json::Map<String, serde_json::Value> = parse_json(body).map_err(intake_error)?;
+    let action = fields.remove("action");
+    let rest = serde_json::to_vec(&fields).map_err(|err| ApiError::Internal(err.into()))?;
+    match action.as_ref().and_then(|a| a.as_str()) {
+        Some("confirm") => {
+            let Confirm { scientific_name, taxon_rank, remark } = parse_json(&rest).map_err(intake_error)?;
+            Ok(ReviewAction::Confirm { scientific_name, taxon_rank, remark })
+        }
+        Some("request_details") => {
+            let RequestDetails { message } = parse_json(&rest).map_err(intake_error)?;
+            Ok(ReviewAction::RequestDetails { message })
+        }
+        Some("not_confirmable") => {
+            let NotConfirmable { reason } = parse_json(&rest).map_err(intake_error)?;
+            Ok(ReviewAction::NotConfirmable { reason })
+        }
+        _ => Err(ApiError::InvalidField {
+            field: "action".into(),
+            message: "must be one of confirm, request_details, not_confirmable".into(),
+        }),
     }
 }
 

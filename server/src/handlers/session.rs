@@ -123,7 +123,13 @@ pub async fn who(caller: Caller) -> Response {
 }
 
 /// `POST /api/devices`: a new observer identity for a phone.
-pub async fn new_device(State(state): State<AppState>, body: Bytes) -> Result<Json<DeviceIdentity>, ApiError> {
+pub async fn new_device(
+    State(state): State<AppState>,
+    Client { address, .. }: Client,
+    body: Bytes,
+) -> Result<Json<DeviceIdentity>, ApiError> {
+    // Identities count against the address's pace, so new ones cannot dodge a phone's.
+    crate::handlers::observations::keep_pace(&state, None, address)?;
     let request: DeviceRequest =
         if body.is_empty() { DeviceRequest::default() } else { parse_json(&body).map_err(intake_error)? };
     let token = new_token();

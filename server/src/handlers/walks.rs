@@ -16,8 +16,8 @@ use uuid::Uuid;
 
 use crate::assess::effort::{self, EffortRow, Period};
 use crate::error::ApiError;
-use crate::handlers::access::{Caller, Observer, Reviewer, Someone, check_owner};
-use crate::handlers::observations::intake_error;
+use crate::handlers::access::{Caller, Client, Observer, Reviewer, Someone, check_owner};
+use crate::handlers::observations::{intake_error, keep_pace};
 use crate::intake::walks::WalkRefused;
 use crate::intake::{parse_json, walks as intake_walks};
 use crate::protect::{Audience, Publisher};
@@ -30,8 +30,11 @@ use crate::store::walks::{self, LinkOutcome, StoredWalk};
 pub async fn submit(
     State(state): State<AppState>,
     Observer(me): Observer,
+    Client { address, .. }: Client,
     body: Bytes,
 ) -> Result<Json<WalkReceipt>, ApiError> {
+    keep_pace(&state, Some(me.id), address)?;
+    crate::intake::check_room(&state.intake()).map_err(intake_error)?;
     match intake_walks::accept_walk(&state.store, &body, Some(me.id), Utc::now()).await {
         Ok(receipt) => Ok(Json(receipt)),
         Err(WalkRefused::Intake(err)) => Err(intake_error(err)),

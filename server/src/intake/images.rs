@@ -2,9 +2,12 @@
 //!
 //! A photo file is hostile until proven otherwise. Its pixel dimensions are read from
 //! the header and checked before any pixel is decoded (a small file may declare a
-//! 100 000 × 100 000 image: a decompression bomb), and the decoder itself runs with the
-//! `image` crate's limits set, so a header that lies still cannot make it allocate
-//! without bound.
+//! 100 000 × 100 000 image: a decompression bomb), also against the file's size: a real
+//! image of that many pixels cannot be smaller than the format's coding allows
+//! ([`fewest_bytes`]), so a 2 KB file declaring 64 megapixels is refused unread rather
+//! than costing a second and hundreds of megabytes to decode. The decoder itself runs
+//! with the `image` crate's limits set, so a header that lies still cannot make it
+//! allocate without bound.
 //!
 //! What the server serves beyond reviewers is never the original: it is a thumbnail and
 //! a display size, re-encoded from the decoded pixels with the EXIF orientation applied
@@ -43,6 +46,10 @@ pub enum ImageProblem {
     TooManyPixels { width: u32, height: u32 },
     #[error("it declares an empty image ({width} × {height} pixels)")]
     NoPixels { width: u32, height: u32 },
+    #[error(
+        "it declares {width} × {height} pixels in only {bytes} bytes; an image of that size takes at least {fewest} bytes, so the file is damaged or forged"
+    )]
+    Implausible { width: u32, height: u32, bytes: usize, fewest: u64 },
     #[error("its pixels could not be decoded ({0})")]
     Undecodable(String),
 }
@@ -69,7 +76,64 @@ pub fn checked_dimensions(bytes: &[u8], format: PhotoFormat) -> Result<(u32, u32
     if width > MAX_SIDE_PX || height > MAX_SIDE_PX || u64::from(width) * u64::from(height) > MAX_PIXELS {
         return Err(ImageProblem::TooManyPixels { width, height });
     }
+    let fewest = fewest_bytes(format, width, height);
+    if (bytes.len() as u64) < fewest {
+        return Err(ImageProblem::Implausible { width, height, bytes: bytes.len(), fewest });
+    }
     Ok((width, height))
+}
+
+/// The fewest bytes a file of this format can take for `width` × `height` pixels.
+///
+/// - JPEG (ITU-T T.81, Huffman coding; arithmetic-coded JPEGs are not decoded here):
+///   every 8 × 8 block of every scan codes at least its DC difference, and a Huffman
+///   code is at least one bit long, so a full image is at least one bit per block of
+///   one component: pixels / 64 / 8 bytes.
+/// - PNG (ISO/IEC 15948): the pixels of a 1-bit greyscale image, each row with its
+///   filter byte, are compressed with deflate, whose densest coding is 1032 to 1 (zlib's
+///   technical notes, from memory): (⌈width / 8⌉ + 1) × height / 1032 bytes.
+///
+/// Both are far below any real photo (phone JPEGs run at 1–4 bits per pixel, common
+/// practice), so only a forged or damaged header falls below them.
+pub fn fewest_bytes(format: PhotoFormat, width: u32, height: u32) -> u64 {
+    let (width, height) = (u64::from(width), u64::from(height));
+    match format {
+        PhotoFormat::Jpeg => (width * height / 64) / 8,
+        PhotoFormat::Png => (width.div_ceil(8) + 1) * height / 1032,
+    }
+}
+
+/// Whether a JPEG ends before its image data does: no end-of-image marker (FFD9) after
+/// the start of its first scan. The segments before the scan are stepped over by their
+/// lengths, so an EXIF thumbnail's own markers are not mistaken for the image's; within
+/// the scan data an FF byte is always followed by 00 or a restart marker (ITU-T T.81
+/// B.1.1.5), so FFD9 there can only be the end. A PNG cut short does not decode at all,
+/// so it is refused rather than flagged.
+pub fn cut_short(bytes: &[u8], format: PhotoFormat) -> bool {
+    if format != PhotoFormat::Jpeg {
+        return false;
+    }
+    let Some(scan) = first_scan(bytes) else { return true };
+    !bytes[scan..].windows(2).any(|pair| pair == [0xFF, 0xD9])
+}
+
+/// Where the first start-of-scan (FFDA) segment begins, walking the segments from SOI.
+fn first_scan(bytes: &[u8]) -> Option<usize> {
+    let mut at = 2;
+    loop {
+        while bytes.get(at) == Some(&0xFF) && bytes.get(at + 1) == Some(&0xFF) {
+            at += 1; // fill bytes before a marker
+        }
+        let (&marker_start, &marker) = (bytes.get(at)?, bytes.get(at + 1)?);
+        if marker_start != 0xFF {
+            return None;
+        }
+        if marker == 0xDA {
+            return Some(at);
+        }
+        let length = u16::from_be_bytes([*bytes.get(at + 2)?, *bytes.get(at + 3)?]) as usize;
+        at += 2 + length;
+    }
 }
 
 /// Decodes the pixels with limits set, after the header check.
@@ -169,6 +233,25 @@ fn encode_jpeg(image: &DynamicImage) -> Result<Vec<u8>, ImageProblem> {
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    #[test]
+    fn the_fewest_bytes_follow_the_coding_of_each_format() {
+        // JPEG: one bit per 8 × 8 block. 8000 × 8000 px is 1 000 000 blocks: 125 000 bytes.
+        assert_eq!(fewest_bytes(PhotoFormat::Jpeg, 8000, 8000), 125_000);
+        // PNG: (1000 bytes of 1-bit pixels + 1 filter byte) × 8000 rows / 1032.
+        assert_eq!(fewest_bytes(PhotoFormat::Png, 8000, 8000), 7_759);
+    }
+
+    #[test]
+    fn a_jpeg_without_its_end_marker_after_the_scan_is_cut_short() {
+        let image = image::RgbImage::from_fn(64, 64, |x, y| image::Rgb([x as u8 * 4, y as u8 * 4, 90]));
+        let mut whole = Vec::new();
+        image::codecs::jpeg::JpegEncoder::new_with_quality(&mut whole, 85).encode_image(&image).unwrap();
+        assert!(!cut_short(&whole, PhotoFormat::Jpeg));
+        assert!(cut_short(&whole[..whole.len() - 2], PhotoFormat::Jpeg), "without FFD9");
+        assert!(cut_short(&whole[..whole.len() / 2], PhotoFormat::Jpeg));
+        assert!(!cut_short(&[whole.clone(), b"PK appended".to_vec()].concat(), PhotoFormat::Jpeg));
+    }
 
     #[test]
     fn orientation_outside_one_to_eight_means_as_stored() {

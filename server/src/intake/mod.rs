@@ -1,12 +1,19 @@
 //! Intake: turns what a phone sent into a stored observation, or into a refusal that
 //! names what is wrong. Nothing is half-stored: photo files are written (by content,
-//! so a retry rewrites nothing) before the one database transaction that links them.
+//! so a retry rewrites nothing) before the one database savepoint that links them, and
+//! a request that fails removes the files it placed (`photos.rs`).
+//!
+//! The order keeps refusals cheap: the record's JSON is checked first; a resend is
+//! answered from the stored receipt (and a changed resend refused) before any photo is
+//! decoded or written; the free-space guard runs before anything is written.
 
 pub mod flags;
 pub mod gate;
 pub mod images;
 pub mod photo_checks;
 pub mod photos;
+pub mod rate;
+pub mod received;
 pub mod walks;
 
 use chrono::{DateTime, Utc};
@@ -18,23 +25,27 @@ use crate::store::Store;
 use crate::store::observations::{self, Insertion, NewObservation, StoredPhoto};
 use crate::taxa::TaxonIndex;
 use images::ImageProblem;
-use photos::{MAX_PHOTO_BYTES, MAX_PHOTOS_PER_RECORD, PhotoFormat, Rendition};
+use photos::{MAX_PHOTO_BYTES, MAX_PHOTOS_PER_RECORD, PhotoFormat, PhotoPin, Rendition};
+use received::ReceivedPhoto;
 
-/// What intake needs of the server: the store, the photo folder, the turns for decoding
-/// and the checklist. Cheap to clone (each part is shared).
+/// What intake needs of the server: the store, the photo folder, the turns for decoding,
+/// the checklist and the free space to keep. Cheap to clone (each part is shared).
 #[derive(Clone)]
 pub struct Intake {
     pub store: Store,
     pub photos: photos::PhotoFiles,
     pub decode_gate: gate::DecodeGate,
     pub taxa: std::sync::Arc<TaxonIndex>,
+    /// Refuse to write when less than this many bytes are free on the data disk.
+    pub min_free_bytes: u64,
 }
 
-/// The raw parts of one submission.
+/// The parts of one submission: the record's JSON and its photos, already received
+/// into scratch files.
 #[derive(Debug, Default)]
 pub struct Upload {
     pub record_json: Vec<u8>,
-    pub photos: Vec<Vec<u8>>,
+    pub photos: Vec<ReceivedPhoto>,
 }
 
 /// Why intake refused a submission, in words for the observer.
@@ -50,8 +61,60 @@ pub enum IntakeError {
     TooManyPhotos(usize),
     #[error("record {0} was already received with different content; a changed record needs a new id")]
     Conflict(uuid::Uuid),
+    /// The data disk is full (or below the free space the operator keeps): nothing of
+    /// this request was kept.
+    #[error("the server's disk is full, so this was not stored; it can be sent again later")]
+    NoRoom,
+    /// The data folder cannot be written (a read-only disk): nothing of this request was kept.
+    #[error("the server cannot write to its data folder just now, so this was not stored; it can be sent again later")]
+    Unwritable,
     #[error(transparent)]
-    Storage(#[from] anyhow::Error),
+    Storage(anyhow::Error),
+}
+
+impl From<anyhow::Error> for IntakeError {
+    /// A failure to store, told apart when it is the disk's: full or read-only.
+    fn from(err: anyhow::Error) -> Self {
+        match storage_trouble(&err) {
+            Some(StorageTrouble::Full) => Self::NoRoom,
+            Some(StorageTrouble::ReadOnly) => Self::Unwritable,
+            None => Self::Storage(err),
+        }
+    }
+}
+
+/// What is wrong with the data disk, when a write failed because of it.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum StorageTrouble {
+    Full,
+    ReadOnly,
+}
+
+/// Whether `err` (or anything behind it) says the disk is full or read-only: an I/O
+/// error of that kind, or SQLite's SQLITE_FULL / SQLITE_READONLY.
+pub fn storage_trouble(err: &anyhow::Error) -> Option<StorageTrouble> {
+    err.chain().find_map(|cause| {
+        if let Some(io) = cause.downcast_ref::<std::io::Error>() {
+            return io_trouble(io);
+        }
+        let code = cause
+            .downcast_ref::<crate::store::StoreError>()
+            .and_then(|e| e.sqlite_code())
+            .or_else(|| cause.downcast_ref::<rusqlite::Error>().and_then(|e| e.sqlite_error_code()))?;
+        match code {
+            rusqlite::ErrorCode::DiskFull => Some(StorageTrouble::Full),
+            rusqlite::ErrorCode::ReadOnly => Some(StorageTrouble::ReadOnly),
+            _ => None,
+        }
+    })
+}
+
+fn io_trouble(err: &std::io::Error) -> Option<StorageTrouble> {
+    match err.kind() {
+        std::io::ErrorKind::StorageFull | std::io::ErrorKind::QuotaExceeded => Some(StorageTrouble::Full),
+        std::io::ErrorKind::ReadOnlyFilesystem => Some(StorageTrouble::ReadOnly),
+        _ => None,
+    }
 }
 
 /// What is wrong with one photo. Each is found before anything is stored.
@@ -59,8 +122,8 @@ pub enum IntakeError {
 pub enum PhotoProblem {
     #[error("the file is empty")]
     Empty,
-    #[error("{0} bytes is over the limit of {mib} MiB ({MAX_PHOTO_BYTES} bytes) for one photo", mib = MAX_PHOTO_BYTES >> 20)]
-    TooManyBytes(usize),
+    #[error("it is larger than the limit of {mib} MiB ({MAX_PHOTO_BYTES} bytes) for one photo", mib = MAX_PHOTO_BYTES >> 20)]
+    TooManyBytes,
     #[error("not a JPEG or PNG image (checked by its first bytes); send the photo as JPEG")]
     NotAnImage,
     #[error("{0}")]
@@ -73,7 +136,14 @@ pub struct Accepted {
     pub receipt: Receipt,
     /// True when this was a resend of a record already stored.
     pub replayed: bool,
+    /// Why the follow-up work failed, when it ran and failed (the record is stored).
+    pub follow_up_failed: Option<String>,
 }
+
+/// Work to run right after a new record is inserted, in the same commit but in a
+/// savepoint of its own: when it fails only it is rolled back, and the record is still
+/// stored and answered. Given the record's observation id.
+pub type FollowUp = Box<dyn FnOnce(&mut rusqlite::Connection, i64) -> Result<(), crate::store::StoreError> + Send>;
 
 /// Reads JSON into `T`, naming the field at fault when it does not fit.
 pub fn parse_json<T: serde::de::DeserializeOwned>(json: &[u8]) -> Result<T, IntakeError> {
@@ -114,15 +184,19 @@ fn missing_field(message: &str) -> Option<&str> {
     message.strip_prefix("missing field `")?.split('`').next()
 }
 
-/// Checks, stores and links everything in `upload`. The follow-up stages (the search for
-/// duplicates) are `crate::arrival`'s.
+/// Checks, stores and links everything in `upload`, and runs `follow_up` (the search for
+/// duplicates, from `crate::arrival`) in the commit that stores a new record.
 pub async fn accept(
     state: &Intake,
     upload: Upload,
     observer_id: Option<i64>,
     now: DateTime<Utc>,
+    follow_up: Option<FollowUp>,
 ) -> Result<Accepted, IntakeError> {
     let submission = parse_submission(&upload.record_json, now)?;
+    if upload.photos.len() > MAX_PHOTOS_PER_RECORD {
+        return Err(IntakeError::TooManyPhotos(upload.photos.len()));
+    }
     if submission.photo_exif.len() > upload.photos.len() {
         return Err(IntakeError::Field {
             field: "photo_exif".into(),
@@ -133,46 +207,149 @@ pub async fn accept(
             ),
         });
     }
-    check_walk_owner(state, &submission, observer_id).await?;
-    let mut stored = store_photos(state, upload.photos, *submission.observed_at.offset()).await?;
+    let hashes: Vec<&str> = upload.photos.iter().map(|p| p.sha256()).collect();
+    let content_sha256 = content_hash(&submission, &hashes);
+    let species = flags::species_of(&state.taxa, &submission);
+    let known = look_up(state, &submission, species.map(|t| t.scientific_name.clone())).await?;
+    if let Some((hash, receipt)) = known.earlier {
+        // A resend, answered before any photo is decoded or written. Two copies sent at
+        // once may both pass here; the insert itself decides between them.
+        return if hash == content_sha256 {
+            Ok(Accepted { receipt, replayed: true, follow_up_failed: None })
+        } else {
+            Err(IntakeError::Conflict(submission.client_id))
+        };
+    }
+    check_walk_owner(&submission, known.walk_owner, observer_id)?;
+    check_room(state)?;
+    let placed = store_photos(state, upload.photos, *submission.observed_at.offset()).await?;
+    let mut stored = placed.photos.clone();
     compare_photos(&submission, &mut stored, &submission.photo_exif);
-    let (flags, guessed_taxon) = arrival_flags(state, &submission).await?;
-    let new = NewObservation {
-        content_sha256: content_hash(&submission, &stored),
-        submission,
-        photos: stored,
-        flags,
-        guessed_taxon,
-        observer_id,
+    let (flags, guessed_taxon) = match species {
+        Some(taxon) => {
+            let raised = flags::raise(state.taxa.checklist(), &submission, taxon, &known.confirmed);
+            (raised, Some(taxon.scientific_name.clone()))
+        }
+        None => (Vec::new(), None),
     };
+    let new = NewObservation { content_sha256, submission, photos: stored, flags, guessed_taxon, observer_id };
     let client_id = new.submission.client_id;
     let outcome = state
         .store
-        .run(move |conn| observations::insert_observation(conn, &new, now))
-        .await
-        .map_err(anyhow::Error::from)?;
+        .write(move |conn| {
+            let outcome = observations::insert_observation(conn, &new, now)?;
+            let followed = match (&outcome, follow_up) {
+                (Insertion::Created(receipt), Some(work)) => {
+                    let id = receipt.observation_id;
+                    // Caught here, a panic in the follow-up undoes only the follow-up.
+                    let guarded = |conn: &mut rusqlite::Connection| {
+                        std::panic::catch_unwind(std::panic::AssertUnwindSafe(|| work(conn, id)))
+                            .unwrap_or(Err(crate::store::StoreError::Panicked))
+                    };
+                    crate::store::nested(conn, guarded).err().map(|err| err.to_string())
+                }
+                _ => None,
+            };
+            Ok((outcome, followed))
+        })
+        .await;
+    let (outcome, follow_up_failed) = match outcome {
+        Ok(outcome) => outcome,
+        Err(err) => {
+            placed.discard(state).await;
+            return Err(state.diagnose(err.into()));
+        }
+    };
     match outcome {
-        Insertion::Created(receipt) => Ok(Accepted { receipt, replayed: false }),
-        Insertion::Replayed(receipt) => Ok(Accepted { receipt, replayed: true }),
-        Insertion::Conflict => Err(IntakeError::Conflict(client_id)),
+        Insertion::Created(receipt) => Ok(Accepted { receipt, replayed: false, follow_up_failed }),
+        Insertion::Replayed(receipt) => Ok(Accepted { receipt, replayed: true, follow_up_failed: None }),
+        Insertion::Conflict => {
+            placed.discard(state).await;
+            Err(IntakeError::Conflict(client_id))
+        }
     }
+}
+
+impl Intake {
+    /// A failure to store, told apart when the disk is its cause: by the error itself, or,
+    /// for an I/O error SQLite reports without its cause, by looking at the disk (mounted
+    /// read-only, or nothing left free).
+    pub fn diagnose(&self, err: anyhow::Error) -> IntakeError {
+        if storage_trouble(&err).is_some() {
+            return err.into();
+        }
+        let io_failure = err.chain().any(|cause| {
+            cause.downcast_ref::<crate::store::StoreError>().and_then(|e| e.sqlite_code())
+                == Some(rusqlite::ErrorCode::SystemIoFailure)
+        });
+        if io_failure {
+            if self.photos.read_only().unwrap_or(false) {
+                return IntakeError::Unwritable;
+            }
+            if self.photos.free_bytes().is_ok_and(|free| free < NEARLY_FULL_BYTES) {
+                return IntakeError::NoRoom;
+            }
+        }
+        IntakeError::Storage(err)
+    }
+}
+
+/// Free space below which an I/O failure is taken for a full disk: less than a few
+/// database pages (SQLite's default page is 4 KiB).
+const NEARLY_FULL_BYTES: u64 = 64 * 1024;
+
+/// What intake asks the database about a submission before deciding on it, read in one
+/// short read: the receipt of a record already stored under its id, the phone that sent
+/// the walk it names, and where the species it names has been confirmed before.
+#[derive(Debug, Default)]
+struct Known {
+    earlier: Option<(String, Receipt)>,
+    /// `None`: no walk named; `Some(None)`: a walk not stored yet (records may come first).
+    walk_owner: Option<Option<i64>>,
+    confirmed: Vec<(f64, f64)>,
+}
+
+async fn look_up(state: &Intake, submission: &Submission, species: Option<String>) -> Result<Known, IntakeError> {
+    let (client_id, walk) = (submission.client_id.to_string(), submission.walk_client_id);
+    let known = state
+        .store
+        .look(move |conn| {
+            Ok(Known {
+                earlier: observations::existing_receipt(conn, &client_id)?,
+                walk_owner: walk
+                    .map(|walk| crate::store::walks::walk_observer(conn, walk))
+                    .transpose()?
+                    .map(Option::flatten),
+                confirmed: match species {
+                    Some(name) => observations::confirmed_positions(conn, &name)?,
+                    None => Vec::new(),
+                },
+            })
+        })
+        .await;
+    Ok(known.map_err(anyhow::Error::from)?)
+}
+
+/// The free-space guard: refuses before anything is written when the data disk has
+/// less than the operator's minimum free.
+pub fn check_room(state: &Intake) -> Result<(), IntakeError> {
+    let free = state.photos.free_bytes().map_err(|err| anyhow::Error::from(err).context("reading the free space"))?;
+    if free < state.min_free_bytes {
+        tracing::warn!(free, keep = state.min_free_bytes, "refused a submission: the data disk is nearly full");
+        return Err(IntakeError::NoRoom);
+    }
+    Ok(())
 }
 
 /// Refuses a record that names a walk another phone sent (walk ids are public in
 /// exports). A walk not stored yet may be named: records can arrive before their walk.
-async fn check_walk_owner(
-    state: &Intake,
+fn check_walk_owner(
     submission: &Submission,
+    walk_owner: Option<Option<i64>>,
     observer_id: Option<i64>,
 ) -> Result<(), IntakeError> {
-    let Some(walk) = submission.walk_client_id else { return Ok(()) };
-    let owner = state
-        .store
-        .run(move |conn| crate::store::walks::walk_observer(conn, walk))
-        .await
-        .map_err(anyhow::Error::from)?;
-    match owner {
-        Some(Some(owner)) if observer_id != Some(owner) => Err(IntakeError::Field {
+    match (submission.walk_client_id, walk_owner) {
+        (Some(walk), Some(Some(owner))) if observer_id != Some(owner) => Err(IntakeError::Field {
             field: "walk_client_id".into(),
             message: format!("walk {walk} was sent from another phone"),
         }),
@@ -190,69 +367,124 @@ pub fn compare_photos(record: &Submission, stored: &mut [StoredPhoto], phone: &[
         photo.phone_exif = reading.map(|reading| phone_reading(reading, record_offset));
         photo.exif = with_device_offset(std::mem::take(&mut photo.exif), reading, record_offset);
         photo.check = photo_checks::compare(record, &photo.exif, photo.phone_exif.as_ref());
+        if photo.cut_short {
+            photo.check.flags.push(shared_types::PhotoFlag::CutShort);
+        }
+    }
+}
+
+/// Photo files a request has placed, held (pinned) until its record is stored, so they
+/// can be removed again if it is not.
+#[derive(Debug, Default)]
+pub struct PlacedPhotos {
+    /// The checked photos, in the order they came.
+    pub photos: Vec<StoredPhoto>,
+    /// Hashes whose files this request created (not those already there).
+    created: Vec<String>,
+    _pins: Vec<PhotoPin>,
+}
+
+impl PlacedPhotos {
+    /// Removes the files this request created, where no other request holds them and
+    /// no stored row names them: the request failed, so nothing of it is kept.
+    pub async fn discard(self, state: &Intake) {
+        for sha256 in &self.created {
+            let (files, store) = (state.photos.clone(), state.store.clone());
+            let sha = sha256.clone();
+            let removed = tokio::task::spawn_blocking(move || {
+                files.discard_if_unused(&sha, |sha| {
+                    let sha = sha.to_owned();
+                    Ok(store.read_here(move |conn| observations::photo_is_stored(conn, &sha))?)
+                })
+            })
+            .await;
+            match removed {
+                Ok(Ok(_)) => {}
+                Ok(Err(err)) => {
+                    tracing::warn!(photo = %sha256, error = %err, "could not remove a photo file after a failed request")
+                }
+                Err(err) => tracing::warn!(photo = %sha256, error = %err, "the task removing a photo file failed"),
+            }
+        }
     }
 }
 
 /// Checks and writes photo files. The cheap checks (count, bytes, magic) run on every
-/// photo first; then each is decoded in turn through the server's decode gate (hashing,
-/// EXIF, decoding and derivatives are blocking work); only when all have passed are the
-/// files written, so a bad photo refuses the record before any file is stored.
+/// photo first; then each is decoded in turn through the server's decode gate (EXIF,
+/// decoding and derivatives are blocking work); only when all have passed are the
+/// files placed, so a bad photo refuses the record before any file is stored.
 pub async fn store_photos(
     state: &Intake,
-    photos: Vec<Vec<u8>>,
+    photos: Vec<ReceivedPhoto>,
     record_offset: chrono::FixedOffset,
-) -> Result<Vec<StoredPhoto>, IntakeError> {
+) -> Result<PlacedPhotos, IntakeError> {
     if photos.len() > MAX_PHOTOS_PER_RECORD {
         return Err(IntakeError::TooManyPhotos(photos.len()));
     }
-    for (index, bytes) in photos.iter().enumerate() {
-        check_photo(bytes).map_err(|problem| IntakeError::Photo { number: index + 1, problem })?;
+    for (index, photo) in photos.iter().enumerate() {
+        check_received(photo).map_err(|problem| IntakeError::Photo { number: index + 1, problem })?;
     }
     let mut prepared = Vec::with_capacity(photos.len());
-    for (index, bytes) in photos.into_iter().enumerate() {
-        let one =
-            state.decode_gate.run(move || prepare_photo(bytes, record_offset)).await.map_err(anyhow::Error::from)?;
+    for (index, photo) in photos.into_iter().enumerate() {
+        let one = state
+            .decode_gate
+            .run(move || {
+                let bytes =
+                    photo.read().map_err(|err| PhotoProblem::Image(ImageProblem::Undecodable(err.to_string())))?;
+                prepare_photo(bytes, record_offset).map(|(_, derived, stored)| (photo, derived, stored))
+            })
+            .await
+            .map_err(anyhow::Error::from)?;
         prepared.push(one.map_err(|problem| IntakeError::Photo { number: index + 1, problem })?);
     }
+    if !prepared.is_empty() {
+        check_room(state)?;
+    }
+    let pins: Vec<PhotoPin> = prepared.iter().map(|(_, _, stored)| state.photos.pin(&stored.sha256)).collect();
     let photo_files = state.photos.clone();
-    tokio::task::spawn_blocking(move || write_photo_files(&photo_files, prepared))
+    let written = tokio::task::spawn_blocking(move || write_photo_files(&photo_files, prepared))
         .await
-        .map_err(|err| anyhow::anyhow!("photo task failed: {err}"))?
+        .map_err(|err| anyhow::anyhow!("photo task failed: {err}"))?;
+    match written {
+        Ok((photos, created)) => Ok(PlacedPhotos { photos, created, _pins: pins }),
+        Err((err, created)) => {
+            PlacedPhotos { photos: Vec::new(), created, _pins: pins }.discard(state).await;
+            Err(err.into())
+        }
+    }
 }
 
-/// Flags for reviewers and the species' scientific name, when the record names a
-/// checklist species.
-async fn arrival_flags(
-    state: &Intake,
-    submission: &Submission,
-) -> Result<(Vec<shared_types::RecordFlag>, Option<String>), IntakeError> {
-    let Some(taxon) = crate::intake::flags::species_of(&state.taxa, submission) else {
-        return Ok((Vec::new(), None));
-    };
-    let name = taxon.scientific_name.clone();
-    let query_name = name.clone();
-    let confirmed = state
-        .store
-        .run(move |conn| observations::confirmed_positions(conn, &query_name))
-        .await
-        .map_err(anyhow::Error::from)?;
-    Ok((crate::intake::flags::raise(state.taxa.checklist(), submission, taxon, &confirmed), Some(name)))
-}
+/// The photos written and the hashes whose files the writing created.
+type Written = (Vec<StoredPhoto>, Vec<String>);
+/// Why writing stopped, and the hashes whose files it created before (to be removed again).
+type WriteFailure = (anyhow::Error, Vec<String>);
 
-/// Writes each checked photo's original and derivatives durably.
+/// Places each checked photo's original and writes its derivatives durably.
 fn write_photo_files(
     files: &photos::PhotoFiles,
-    prepared: Vec<(Vec<u8>, images::Derivatives, StoredPhoto)>,
-) -> Result<Vec<StoredPhoto>, IntakeError> {
-    prepared
-        .into_iter()
-        .map(|(bytes, derived, stored)| {
-            files.put(&stored.sha256, Rendition::Original, &bytes)?;
+    prepared: Vec<(ReceivedPhoto, images::Derivatives, StoredPhoto)>,
+) -> Result<Written, WriteFailure> {
+    let mut created = Vec::new();
+    let mut stored_photos = Vec::with_capacity(prepared.len());
+    for (received, derived, stored) in prepared {
+        let written = (|| {
+            let placed = files.place(received)?;
             files.put(&stored.sha256, Rendition::Display, &derived.display_jpeg)?;
             files.put(&stored.sha256, Rendition::Thumb, &derived.thumb_jpeg)?;
-            Ok(stored)
-        })
-        .collect()
+            anyhow::Ok(placed)
+        })();
+        match written {
+            Ok(true) => created.push(stored.sha256.clone()),
+            Ok(false) => {}
+            Err(err) => {
+                // Whatever of this photo was written goes too, unless it was there before.
+                created.push(stored.sha256.clone());
+                return Err((err, created));
+            }
+        }
+        stored_photos.push(stored);
+    }
+    Ok((stored_photos, created))
 }
 
 /// Everything intake learns from one photo's bytes, without storing anything. Public for
@@ -264,6 +496,7 @@ pub fn prepare_photo(
     let format = check_photo(&bytes)?;
     let exif = exif::resolve_time(exif::read(&bytes), record_offset);
     let derived = images::derive(&bytes, format, exif.orientation)?;
+    let cut_short = images::cut_short(&bytes, format);
     let stored = StoredPhoto {
         sha256: photos::sha256_hex(&bytes),
         media_type: format.media_type().to_owned(),
@@ -274,6 +507,7 @@ pub fn prepare_photo(
         exif,
         phone_exif: None,
         check: shared_types::PhotoCheck::default(),
+        cut_short,
     };
     Ok((bytes, derived, stored))
 }
@@ -314,23 +548,32 @@ fn with_device_offset(
 /// The checks made before any decoding: not empty, not too many bytes, a known format
 /// by its magic bytes. The pixel-dimension check follows in `images::decode`.
 fn check_photo(bytes: &[u8]) -> Result<PhotoFormat, PhotoProblem> {
-    if bytes.is_empty() {
+    check_size_and_magic(bytes.len(), bytes)
+}
+
+/// [`check_photo`] on a received photo, from its length and first bytes alone.
+fn check_received(photo: &ReceivedPhoto) -> Result<PhotoFormat, PhotoProblem> {
+    check_size_and_magic(photo.byte_len(), photo.head())
+}
+
+fn check_size_and_magic(len: usize, head: &[u8]) -> Result<PhotoFormat, PhotoProblem> {
+    if len == 0 {
         return Err(PhotoProblem::Empty);
     }
-    if bytes.len() > MAX_PHOTO_BYTES {
-        return Err(PhotoProblem::TooManyBytes(bytes.len()));
+    if len > MAX_PHOTO_BYTES {
+        return Err(PhotoProblem::TooManyBytes);
     }
-    PhotoFormat::sniff(bytes).ok_or(PhotoProblem::NotAnImage)
+    PhotoFormat::sniff(head).ok_or(PhotoProblem::NotAnImage)
 }
 
 /// The fingerprint of a submission's content: its canonical JSON and its photos'
 /// hashes in order. The same record resent gives the same fingerprint.
-fn content_hash(submission: &Submission, photos: &[StoredPhoto]) -> String {
+fn content_hash(submission: &Submission, photo_hashes: &[&str]) -> String {
     let mut hasher = Sha256::new();
     hasher.update(serde_json::to_vec(submission).unwrap_or_default());
-    for photo in photos {
+    for sha256 in photo_hashes {
         hasher.update(b"\0photo:");
-        hasher.update(photo.sha256.as_bytes());
+        hasher.update(sha256.as_bytes());
     }
     hex::encode(hasher.finalize())
 }

@@ -45,9 +45,9 @@ pub async fn accept_walk(
     let content = hex::encode(Sha256::digest(serde_json::to_vec(&walk).unwrap_or_default()));
     let client_id = walk.client_id;
     let outcome = store
-        .run(move |conn| walks::insert_walk(conn, &walk, &content, observer_id, now))
+        .write(move |conn| walks::insert_walk(conn, &walk, &content, observer_id, now))
         .await
-        .map_err(|err| IntakeError::Storage(err.into()))?;
+        .map_err(|err| IntakeError::from(anyhow::Error::from(err)))?;
     match outcome {
         WalkInsertion::Created(receipt) | WalkInsertion::Replayed(receipt) => Ok(receipt),
         WalkInsertion::Conflict => Err(IntakeError::Conflict(client_id).into()),

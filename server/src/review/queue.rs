@@ -23,10 +23,12 @@ pub fn queue_flags(record: &RecordView, possible_duplicate: bool) -> Vec<QueueFl
         flags.push(QueueFlag::PossibleDuplicate);
     }
     for flag in record.photos.iter().flat_map(|photo| &photo.check.flags) {
-        flags.push(match flag {
-            PhotoFlag::TakenLongBeforeRecord => QueueFlag::TakenLongBeforeRecord,
-            PhotoFlag::TakenFarFromRecord => QueueFlag::TakenFarFromRecord,
-        });
+        match flag {
+            PhotoFlag::TakenLongBeforeRecord => flags.push(QueueFlag::TakenLongBeforeRecord),
+            PhotoFlag::TakenFarFromRecord => flags.push(QueueFlag::TakenFarFromRecord),
+            // Said in the reasons; not a filter of its own.
+            PhotoFlag::CutShort => {}
+        }
     }
     flags.sort();
     flags.dedup();
@@ -49,6 +51,9 @@ fn photo_reasons(record: &RecordView) -> Vec<String> {
                     photo.check.metres_from_record.map_or("far".into(), distance_words),
                     FAR_LIMIT_M / 1000.0
                 ),
+                PhotoFlag::CutShort => {
+                    format!("photo {number}'s file is cut short: part of the picture is missing")
+                }
             });
         }
     }

@@ -151,11 +151,9 @@ pub fn all_records(conn: &Connection) -> Result<Vec<RawDup>, StoreError> {
 
 /// Whether the search for duplicates of this record completed.
 pub fn searched(conn: &Connection, observation_id: i64) -> Result<bool, StoreError> {
-    Ok(conn.query_row(
-        "SELECT EXISTS (SELECT 1 FROM duplicate_searches WHERE observation_id = ?1)",
-        [observation_id],
-        |r| r.get(0),
-    )?)
+    Ok(conn
+        .prepare_cached("SELECT EXISTS (SELECT 1 FROM duplicate_searches WHERE observation_id = ?1)")?
+        .query_row([observation_id], |r| r.get(0))?)
 }
 
 /// Records stored without a completed search for duplicates.
@@ -174,19 +172,17 @@ pub fn save_candidates(
     found: &[(i64, f64, Vec<String>)],
     now: DateTime<Utc>,
 ) -> Result<(), StoreError> {
-    let tx = conn.transaction()?;
+    let tx = conn.savepoint()?;
     for (other, score, reasons) in found {
         let (a, b) = if new < *other { (new, *other) } else { (*other, new) };
         let reasons = serde_json::to_string(reasons).map_err(|err| StoreError::Corrupt(err.to_string()))?;
-        tx.execute(
+        tx.prepare_cached(
             "INSERT OR IGNORE INTO duplicate_candidates (observation_a, observation_b, score, reasons, found_at) VALUES (?1, ?2, ?3, ?4, ?5)",
-            params![a, b, score, reasons, now.to_rfc3339()],
-        )?;
+        )?
+        .execute(params![a, b, score, reasons, now.to_rfc3339()])?;
     }
-    tx.execute(
-        "INSERT OR IGNORE INTO duplicate_searches (observation_id, searched_at) VALUES (?1, ?2)",
-        params![new, now.to_rfc3339()],
-    )?;
+    tx.prepare_cached("INSERT OR IGNORE INTO duplicate_searches (observation_id, searched_at) VALUES (?1, ?2)")?
+        .execute(params![new, now.to_rfc3339()])?;
     tx.commit()?;
     Ok(())
 }

@@ -28,6 +28,8 @@ const MIGRATIONS: &[(&str, &str)] = &[
     ("0013_observer_identification_time", include_str!("../../../migrations/0013_observer_identification_time.sql")),
     ("0014_deployment_id", include_str!("../../../migrations/0014_deployment_id.sql")),
     ("0015_name_consent", include_str!("../../../migrations/0015_name_consent.sql")),
+    ("0016_photo_cut_short", include_str!("../../../migrations/0016_photo_cut_short.sql")),
+    ("0017_current_taxon_index", include_str!("../../../migrations/0017_current_taxon_index.sql")),
 ];
 
 pub(super) fn apply(conn: &mut Connection) -> Result<(), StoreError> {

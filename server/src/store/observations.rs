@@ -5,7 +5,7 @@ use shared_types::codes::{code, from_code};
 use std::collections::HashMap;
 
 use chrono::{DateTime, Utc};
-use rusqlite::{Connection, OptionalExtension, Transaction, params};
+use rusqlite::{Connection, OptionalExtension, params};
 use shared_types::{
     FlagKind, OffsetSource, PhotoCheck, PhotoExif, PhotoFlag, PhotoView, Receipt, RecordFlag, RecordView, ReviewState,
     Submission,
@@ -30,6 +30,8 @@ pub struct StoredPhoto {
     pub phone_exif: Option<PhotoExif>,
     /// The photo against this record (see `intake::photo_checks`).
     pub check: PhotoCheck,
+    /// The file ends before its image data does (see `intake::images::cut_short`).
+    pub cut_short: bool,
 }
 
 /// Everything intake has checked and is ready to store.
@@ -72,13 +74,13 @@ pub fn insert_observation(
     new: &NewObservation,
     now: DateTime<Utc>,
 ) -> Result<Insertion, StoreError> {
-    let tx = conn.transaction()?;
+    let tx = conn.savepoint()?;
     let client_id = new.submission.client_id.to_string();
     if let Some((stored_hash, receipt)) = existing_receipt(&tx, &client_id)? {
         return Ok(if stored_hash == new.content_sha256 { Insertion::Replayed(receipt) } else { Insertion::Conflict });
     }
     let received_at = now.to_rfc3339_opts(chrono::SecondsFormat::Millis, true);
-    tx.execute("INSERT INTO organisms (created_at) VALUES (?1)", [&received_at])?;
+    tx.prepare_cached("INSERT INTO organisms (created_at) VALUES (?1)")?.execute([&received_at])?;
     let organism_id = tx.last_insert_rowid();
     let observation_id = insert_observation_row(&tx, new, organism_id, &received_at)?;
     insert_details(&tx, observation_id, new)?;
@@ -86,10 +88,10 @@ pub fn insert_observation(
         link_photo(&tx, observation_id, position, photo, &received_at)?;
     }
     for flag in &new.flags {
-        tx.execute(
+        tx.prepare_cached(
             "INSERT OR IGNORE INTO observation_flags (observation_id, kind, reason, raised_at) VALUES (?1, ?2, ?3, ?4)",
-            params![observation_id, code(&flag.kind), flag.reason, received_at],
-        )?;
+        )?
+        .execute(params![observation_id, code(&flag.kind), flag.reason, received_at])?;
     }
     tx.commit()?;
     Ok(Insertion::Created(Receipt {
@@ -106,17 +108,18 @@ fn distinct_photos(photos: &[StoredPhoto]) -> usize {
     photos.iter().map(|p| p.sha256.as_str()).collect::<std::collections::HashSet<_>>().len()
 }
 
-fn existing_receipt(tx: &Transaction, client_id: &str) -> Result<Option<(String, Receipt)>, StoreError> {
-    let row = tx
-        .query_row(
+/// The stored content fingerprint and receipt of the record with this client id, if it
+/// was stored: a resend is answered from it.
+pub fn existing_receipt(conn: &Connection, client_id: &str) -> Result<Option<(String, Receipt)>, StoreError> {
+    let row = conn
+        .prepare_cached(
             "SELECT o.id, o.content_sha256, o.received_at,
                     (SELECT COUNT(*) FROM observation_photos p WHERE p.observation_id = o.id)
              FROM observations o WHERE o.client_id = ?1",
-            [client_id],
-            |row| {
-                Ok((row.get::<_, i64>(0)?, row.get::<_, String>(1)?, row.get::<_, String>(2)?, row.get::<_, i64>(3)?))
-            },
-        )
+        )?
+        .query_row([client_id], |row| {
+            Ok((row.get::<_, i64>(0)?, row.get::<_, String>(1)?, row.get::<_, String>(2)?, row.get::<_, i64>(3)?))
+        })
         .optional()?;
     row.map(|(observation_id, hash, received_at, photos)| {
         let client_id = Uuid::parse_str(client_id).map_err(|err| StoreError::Corrupt(err.to_string()))?;
@@ -128,7 +131,7 @@ fn existing_receipt(tx: &Transaction, client_id: &str) -> Result<Option<(String,
 }
 
 fn insert_observation_row(
-    tx: &Transaction,
+    tx: &Connection,
     new: &NewObservation,
     organism_id: i64,
     received_at: &str,
@@ -136,60 +139,62 @@ fn insert_observation_row(
     let sub = &new.submission;
     let json = serde_json::to_string(sub).map_err(|err| StoreError::Corrupt(err.to_string()))?;
     let position = sub.position.as_ref();
-    tx.execute(
+    tx.prepare_cached(
         "INSERT INTO observations (client_id, content_sha256, organism_id, observed_at, observed_at_utc,
             latitude, longitude, accuracy_m, position_source, count, condition, setting, sex, notes,
             observer_name, review_state, submission_json, received_at, walk_client_id, observer_id, life_stage)
          VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, ?12, ?13, ?14, ?15, ?16, ?17, ?18, ?19, ?20, ?21)",
-        params![
-            sub.client_id.to_string(),
-            new.content_sha256,
-            organism_id,
-            sub.observed_at.to_rfc3339(),
-            sub.observed_at.with_timezone(&Utc).to_rfc3339_opts(chrono::SecondsFormat::Secs, true),
-            position.map(|p| p.latitude.get()),
-            position.map(|p| p.longitude.get()),
-            position.and_then(|p| p.accuracy_m).map(|a| a.get()),
-            position.map(|p| code(&p.source)),
-            sub.count.get(),
-            code(&sub.condition),
-            code(&sub.setting),
-            code(&sub.sex),
-            sub.notes.as_ref().map(|n| n.as_str()),
-            sub.observer_name.as_ref().map(|n| n.as_str()),
-            ReviewState::AwaitingReview.code(),
-            json,
-            received_at,
-            sub.walk_client_id.map(|id| id.to_string()),
-            new.observer_id,
-            sub.life_stage.as_ref().map(code),
-        ],
-    )?;
+    )?
+    .execute(params![
+        sub.client_id.to_string(),
+        new.content_sha256,
+        organism_id,
+        sub.observed_at.to_rfc3339(),
+        sub.observed_at.with_timezone(&Utc).to_rfc3339_opts(chrono::SecondsFormat::Secs, true),
+        position.map(|p| p.latitude.get()),
+        position.map(|p| p.longitude.get()),
+        position.and_then(|p| p.accuracy_m).map(|a| a.get()),
+        position.map(|p| code(&p.source)),
+        sub.count.get(),
+        code(&sub.condition),
+        code(&sub.setting),
+        code(&sub.sex),
+        sub.notes.as_ref().map(|n| n.as_str()),
+        sub.observer_name.as_ref().map(|n| n.as_str()),
+        ReviewState::AwaitingReview.code(),
+        json,
+        received_at,
+        sub.walk_client_id.map(|id| id.to_string()),
+        new.observer_id,
+        sub.life_stage.as_ref().map(code),
+    ])?;
     Ok(tx.last_insert_rowid())
 }
 
-fn insert_details(tx: &Transaction, observation_id: i64, new: &NewObservation) -> Result<(), StoreError> {
+fn insert_details(tx: &Connection, observation_id: i64, new: &NewObservation) -> Result<(), StoreError> {
     let sub = &new.submission;
     if let Some(length) = &sub.length {
-        tx.execute(
+        tx.prepare_cached(
             "INSERT INTO measurements (observation_id, kind, value, unit, value_cm, method) VALUES (?1, ?2, ?3, ?4, ?5, ?6)",
+        )?
+        .execute(
             params![observation_id, code(&length.kind), length.value.value, length.value.unit.code(), length.value.centimetres(), code(&length.method)],
         )?;
     }
     for sign in &sub.human_signs {
-        tx.execute(
-            "INSERT INTO human_signs (observation_id, sign) VALUES (?1, ?2)",
-            params![observation_id, code(sign)],
-        )?;
+        tx.prepare_cached("INSERT INTO human_signs (observation_id, sign) VALUES (?1, ?2)")?
+            .execute(params![observation_id, code(sign)])?;
     }
     let observer = sub.observer_name.as_ref().map(|n| n.as_str());
     // The observer named the record when they made it: the submission's own time (as an
     // instant in UTC, like every identification time), not the server's receipt.
     let named_at = sub.observed_at.with_timezone(&Utc).to_rfc3339_opts(chrono::SecondsFormat::Millis, true);
     if let Some(choice) = &sub.key_choice {
-        tx.execute(
+        tx.prepare_cached(
             "INSERT INTO identifications (observation_id, taxon_name, taxon_rank, identified_by, identified_at, remarks, basis)
              VALUES (?1, ?2, ?3, ?4, ?5, ?6, 'observer with the guided key')",
+        )?
+        .execute(
             params![
                 observation_id,
                 choice.scientific_name.as_str(),
@@ -205,9 +210,11 @@ fn insert_details(tx: &Transaction, observation_id: i64, new: &NewObservation) -
             Some(name) => (name.as_str(), Some("species")),
             None => (guess.as_str(), None),
         };
-        tx.execute(
+        tx.prepare_cached(
             "INSERT INTO identifications (observation_id, taxon_name, taxon_rank, identified_by, identified_at, remarks, basis)
              VALUES (?1, ?2, ?3, ?4, ?5, ?6, 'observer guess')",
+        )?
+        .execute(
             params![observation_id, name, rank, observer, named_at, format!("as typed: {}", guess.as_str())],
         )?;
     }
@@ -219,7 +226,7 @@ fn insert_details(tx: &Transaction, observation_id: i64, new: &NewObservation) -
 /// link at its first position: the server accepts such a record (an older phone may
 /// send it) rather than refuse evidence, and the phone refuses to add a photo twice.
 pub(super) fn link_photo(
-    tx: &Transaction,
+    tx: &Connection,
     observation_id: i64,
     position: usize,
     photo: &StoredPhoto,
@@ -233,31 +240,33 @@ pub(super) fn link_photo(
         .transpose()
         .map_err(|err| StoreError::Corrupt(err.to_string()))?;
     // The same file may already be stored for another record: keep the first row.
-    tx.execute(
+    tx.prepare_cached(
         "INSERT OR IGNORE INTO photos (sha256, media_type, byte_len, exif_taken_local, exif_offset, exif_latitude,
             exif_longitude, exif_altitude_m, exif_h_error_m, exif_orientation, stored_at, width, height, phash)
          VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, ?12, ?13, ?14)",
-        params![
-            photo.sha256,
-            photo.media_type,
-            photo.byte_len as i64,
-            exif.taken_local,
-            exif.offset,
-            exif.latitude,
-            exif.longitude,
-            exif.altitude_m,
-            exif.horizontal_error_m,
-            exif.orientation,
-            received_at,
-            photo.width,
-            photo.height,
-            photo.phash
-        ],
-    )?;
-    tx.execute(
+    )?
+    .execute(params![
+        photo.sha256,
+        photo.media_type,
+        photo.byte_len as i64,
+        exif.taken_local,
+        exif.offset,
+        exif.latitude,
+        exif.longitude,
+        exif.altitude_m,
+        exif.horizontal_error_m,
+        exif.orientation,
+        received_at,
+        photo.width,
+        photo.height,
+        photo.phash
+    ])?;
+    tx.prepare_cached(
         "INSERT OR IGNORE INTO observation_photos (observation_id, photo_sha256, position, exif_taken_at, offset_source,
             seconds_before_record, metres_from_record, time_reading, place_reading, phone_exif_json, original_sha256)
          VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11)",
+    )?
+    .execute(
         params![
             observation_id,
             photo.sha256,
@@ -273,10 +282,10 @@ pub(super) fn link_photo(
         ],
     )?;
     for flag in &photo.check.flags {
-        tx.execute(
+        tx.prepare_cached(
             "INSERT OR IGNORE INTO photo_flags (observation_id, photo_sha256, flag) VALUES (?1, ?2, ?3)",
-            params![observation_id, photo.sha256, code(flag)],
-        )?;
+        )?
+        .execute(params![observation_id, photo.sha256, code(flag)])?;
     }
     Ok(())
 }
@@ -312,6 +321,20 @@ pub fn record_by_observation_id(conn: &Connection, id: i64) -> Result<Option<Rec
         )
         .optional()?;
     row.map(|row| finish_record(conn, row)).transpose()
+}
+
+/// Whether a stored photo row names the file with this hash.
+pub fn photo_is_stored(conn: &Connection, sha256: &str) -> Result<bool, StoreError> {
+    Ok(conn.query_row("SELECT EXISTS (SELECT 1 FROM photos WHERE sha256 = ?1)", [sha256], |row| row.get(0))?)
+}
+
+/// The hashes of stored photos that start with `prefix` (two hex digits: one folder of
+/// the photo files).
+pub fn photo_hashes_starting(conn: &Connection, prefix: &str) -> Result<std::collections::HashSet<String>, StoreError> {
+    // Hex digits sort below 'g', so the prefix followed by 'g' is past every hash with it.
+    let mut stmt = conn.prepare("SELECT sha256 FROM photos WHERE sha256 >= ?1 AND sha256 < ?2")?;
+    let rows = stmt.query_map([prefix.to_owned(), format!("{prefix}g")], |row| row.get(0))?;
+    Ok(rows.collect::<Result<_, _>>()?)
 }
 
 /// How many observations are stored.

@@ -30,7 +30,7 @@ pub fn insert_walk(
     observer_id: Option<i64>,
     now: DateTime<Utc>,
 ) -> Result<WalkInsertion, StoreError> {
-    let tx = conn.transaction()?;
+    let tx = conn.savepoint()?;
     let existing = tx
         .query_row(
             "SELECT id, content_sha256, received_at, observer_id FROM walks WHERE client_id = ?1",

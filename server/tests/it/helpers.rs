@@ -8,6 +8,7 @@ use std::sync::Arc;
 use reqwest::multipart::{Form, Part};
 use serde_json::{Value, json};
 use wrackline_server::AppState;
+use wrackline_server::settings::Settings;
 
 pub struct TestApp {
     pub base: String,
@@ -57,15 +58,13 @@ pub async fn spawn_app_with_checklist(checklist: species_key::Checklist) -> Test
 /// The server behind a reverse proxy on this machine: 127.0.0.1, where the tests connect
 /// from, is a trusted proxy, so `X-Forwarded-For` and `X-Forwarded-Proto` count.
 pub async fn spawn_app_behind_proxy() -> TestApp {
-    let settings = wrackline_server::settings::Settings {
-        trusted_proxies: vec![std::net::IpAddr::V4(std::net::Ipv4Addr::LOCALHOST)],
-        ..Default::default()
-    };
+    let settings =
+        Settings { trusted_proxies: vec![std::net::IpAddr::V4(std::net::Ipv4Addr::LOCALHOST)], ..Default::default() };
     spawn(None, Setup { settings: Some(settings), ..Setup::default() }).await
 }
 
 /// The server with these operator settings (the public address is still the one it listens on, unless set).
-pub async fn spawn_app_with_settings(settings: wrackline_server::settings::Settings) -> TestApp {
+pub async fn spawn_app_with_settings(settings: Settings) -> TestApp {
     spawn(None, Setup { settings: Some(settings), ..Setup::default() }).await
 }
 
@@ -74,7 +73,7 @@ pub async fn spawn_app_with_settings(settings: wrackline_server::settings::Setti
 struct Setup {
     decode_turns: Option<usize>,
     checklist: Option<species_key::Checklist>,
-    settings: Option<wrackline_server::settings::Settings>,
+    settings: Option<Settings>,
 }
 
 async fn spawn(app_dir: Option<PathBuf>, setup: Setup) -> TestApp {
@@ -82,12 +81,10 @@ async fn spawn(app_dir: Option<PathBuf>, setup: Setup) -> TestApp {
     let data_dir = dir.path().join("data");
     let checklist =
         setup.checklist.unwrap_or_else(|| wrackline_server::taxa::load_checklist(None).expect("demo checklist"));
-    let mut state = AppState::open(&data_dir, app_dir, checklist).expect("open state");
+    let settings = setup.settings.unwrap_or_default();
+    let mut state = AppState::open_with(&data_dir, app_dir, checklist, settings).expect("open state");
     if let Some(turns) = setup.decode_turns {
         state.decode_gate = wrackline_server::intake::gate::DecodeGate::new(turns);
-    }
-    if let Some(settings) = setup.settings {
-        state.settings = settings;
     }
     let decode_gate = state.decode_gate.clone();
     for (username, role) in [("test-reviewer", shared_types::Role::Reviewer), ("test-admin", shared_types::Role::Admin)]
@@ -105,14 +102,10 @@ async fn spawn(app_dir: Option<PathBuf>, setup: Setup) -> TestApp {
     }
     let listener = tokio::net::TcpListener::bind("127.0.0.1:0").await.expect("bind");
     let base = format!("http://{}", listener.local_addr().unwrap());
-    // As `wrackline serve` does when no public address is set: the one it listens on.
-    if state.settings.public_url.is_none() {
-        state.settings.public_url =
-            Some(wrackline_server::settings::PublicUrl::listening_on(listener.local_addr().unwrap()));
-    }
-    // As `wrackline serve` does: with each connection's address (the sign-in rate limit).
-    let service = wrackline_server::app(state).into_make_service_with_connect_info::<std::net::SocketAddr>();
-    tokio::spawn(async move { axum::serve(listener, service).await.unwrap() });
+    // As `wrackline serve` does: its connection limits and timeouts, each connection's
+    // address for the rate limits, and the address it listens on as the public one when
+    // none is set.
+    tokio::spawn(wrackline_server::router::serve_until(listener, state, std::future::pending()));
     let client = reqwest::Client::new();
     let reviewer = sign_in(&client, &base, "test-reviewer", REVIEWER_PASSWORD).await.expect("reviewer signs in");
     TestApp { base, client, data_dir, reviewer, decode_gate, _dir: dir }
@@ -142,6 +135,23 @@ where
         outputs.push(task.await.expect("a request task panicked"));
     }
     outputs
+}
+
+/// Polls `check` until it returns `Some`, for at most `within`; panics naming `what`
+/// when it never does. For conditions reached in the background (never a fixed sleep).
+pub async fn eventually<T, F, Fut>(what: &str, within: std::time::Duration, mut check: F) -> T
+where
+    F: FnMut() -> Fut,
+    Fut: Future<Output = Option<T>>,
+{
+    let deadline = tokio::time::Instant::now() + within;
+    loop {
+        if let Some(found) = check().await {
+            return found;
+        }
+        assert!(tokio::time::Instant::now() < deadline, "{what}: not within {within:?}");
+        tokio::time::sleep(std::time::Duration::from_millis(50)).await;
+    }
 }
 
 /// Signs in over HTTP, or says what the server answered.

@@ -39,15 +39,19 @@ async fn duplicate_reasons(app: &TestApp, id: &str) -> String {
 }
 
 /// A 500 said "nothing was stored" although the record had been stored before the
-/// failure, so the phone's user was told something untrue (601c39f).
+/// failure, so the phone's user was told something untrue (601c39f); then a failure in
+/// the follow-up search, after the record was stored, still answered 500 and the
+/// phone's resend got 500 again (this work): a stored record gets its receipt.
 #[tokio::test]
-async fn a_failure_after_the_record_was_stored_does_not_say_nothing_was_stored() {
+async fn a_failure_after_the_record_was_stored_does_not_turn_its_answer_into_an_error() {
     let app = spawn_app().await;
     let _interrupted = interrupt_duplicate_searches(&app);
     let answer = app.submit(&carcass(FIRST, 0.0), &[]).await;
-    assert_eq!(answer.status, 500, "{}", answer.body);
-    assert_eq!(app.records().await.len(), 1, "the record was stored before the failure");
-    assert_eq!(answer.body, json!({"error": "the server could not finish this request; try again later"}));
+    assert_eq!(answer.status, 200, "the record is stored, so its receipt goes back: {}", answer.body);
+    assert_eq!(answer.body["client_id"], FIRST);
+    let resent = app.submit(&carcass(FIRST, 0.0), &[]).await;
+    assert_eq!((resent.status, &resent.body), (200, &answer.body), "the resend gets the same receipt");
+    assert_eq!(app.records().await.len(), 1, "stored once");
 }
 
 /// A search for duplicates that failed at start-up stopped the server from starting
@@ -57,8 +61,15 @@ async fn a_duplicate_search_failing_at_start_up_does_not_stop_the_server() {
     let app = spawn_app().await;
     assert_eq!(app.submit(&carcass(FIRST, 0.0), &[]).await.status, 200);
     let interrupted = interrupt_duplicate_searches(&app);
-    assert_eq!(app.submit(&carcass(SECOND, 300.0), &[]).await.status, 500, "stored, its search failed");
     let checklist = || wrackline_server::taxa::load_checklist(None).unwrap();
+    // Stored without its search, as a crash between the two leaves a record (a second
+    // handle on the same files, so the running server has no retry of it queued).
+    let offline = wrackline_server::AppState::open(&app.data_dir, None, checklist()).unwrap();
+    let upload = wrackline_server::intake::Upload {
+        record_json: carcass(SECOND, 300.0).to_string().into_bytes(),
+        photos: Vec::new(),
+    };
+    wrackline_server::intake::accept(&offline.intake(), upload, None, chrono::Utc::now(), None).await.unwrap();
     let restarted = wrackline_server::AppState::open(&app.data_dir, None, checklist());
     assert!(restarted.is_ok(), "the search fails again, and the server starts: {:?}", restarted.err());
     assert_eq!(duplicate_reasons(&app, SECOND).await, "[]");
@@ -153,7 +164,7 @@ const PINNED_ELSEWHERE: &[(&str, &str, &str, &str)] = &[
         "a search for duplicates that failed after its record was stored never ran again",
         "2416d0b",
         "tests/it/duplicates.rs",
-        "a_search_that_failed_after_the_record_was_stored_runs_again_on_a_resend_and_at_start_up",
+        "a_search_that_failed_after_the_record_was_stored_runs_again_on_a_resend_and_in_the_background",
     ),
     (
         "a free-text name such as \"big ray\" ruled a pair out as two species",

@@ -97,6 +97,7 @@ fn photo_checks(photos: &[PhotoView]) -> impl IntoView + use<> {
             let flags = check.flags.iter().map(|flag| match flag {
                 PhotoFlag::TakenLongBeforeRecord => QueueFlag::TakenLongBeforeRecord.label(),
                 PhotoFlag::TakenFarFromRecord => QueueFlag::TakenFarFromRecord.label(),
+                PhotoFlag::CutShort => PhotoFlag::CutShort.label(),
             });
             let flags = flags.map(|label| view! { <span class="flag">{label}</span> }).collect_view();
             view! { <li class="photo-check">{format!("photo {} ({reading}): {facts} ", i + 1)}{flags}</li> }
