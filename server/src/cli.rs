@@ -38,14 +38,17 @@ pub enum Command {
     Trend(commands::trend::TrendArgs),
     /// Survey effort: kilometres and hours walked per stretch per month or year.
     Effort(EffortArgs),
-    /// People with a sign-in (reviewers and admins).
+    /// People with a sign-in (reviewers, admins and responders).
     #[command(subcommand)]
     User(UserCommand),
+    /// Samples taken from animals.
+    #[command(subcommand)]
+    Sample(commands::sample::SampleCommand),
 }
 
 #[derive(Debug, Subcommand)]
 pub enum UserCommand {
-    /// Add a reviewer or admin. The password is read from WRACKLINE_PASSWORD, or else
+    /// Add a reviewer, admin or responder. The password is read from WRACKLINE_PASSWORD, or else
     /// from the first line of standard input.
     Add {
         #[arg(long)]
@@ -63,6 +66,7 @@ pub enum UserCommand {
 pub enum StaffRole {
     Reviewer,
     Admin,
+    Responder,
 }
 
 #[derive(Debug, clap::Args)]
@@ -103,6 +107,7 @@ pub fn run(cli: Cli) -> anyhow::Result<()> {
         Command::Trend(args) => commands::trend::run(&cli.data_dir, args),
         Command::Effort(args) => print_effort(&cli.data_dir, &args),
         Command::User(command) => user(&cli.data_dir, command),
+        Command::Sample(command) => commands::sample::run(&cli.data_dir, command),
     }
 }
 
@@ -171,6 +176,7 @@ fn user(data_dir: &std::path::Path, command: UserCommand) -> anyhow::Result<()> 
             let role = match role {
                 StaffRole::Reviewer => shared_types::Role::Reviewer,
                 StaffRole::Admin => shared_types::Role::Admin,
+                StaffRole::Responder => shared_types::Role::Responder,
             };
             let display = display_name.unwrap_or_else(|| username.clone());
             runtime

@@ -11,7 +11,9 @@ use tower_http::services::{ServeDir, ServeFile};
 use tower_http::set_header::{SetResponseHeader, SetResponseHeaderLayer};
 
 use crate::error::ApiError;
-use crate::handlers::{assess, checklist, export, health, mine, observations, people, photos, review, session, walks};
+use crate::handlers::{
+    assess, checklist, export, fieldwork, health, mine, observations, people, photos, review, session, walks,
+};
 use crate::intake::photos::{MAX_PHOTO_BYTES, MAX_PHOTOS_PER_RECORD};
 use crate::state::AppState;
 
@@ -32,6 +34,8 @@ pub enum Access {
     OwnDeviceOrReviewer,
     /// A signed-in reviewer or admin.
     Reviewer,
+    /// A signed-in responder, reviewer or admin.
+    Responder,
     /// A signed-in admin.
     Admin,
 }
@@ -96,7 +100,7 @@ const fn route(verb: Verb, path: &'static str, access: Access, handler: MakeHand
 /// The largest request a record or a reply with photos may be.
 const UPLOAD_LIMIT: usize = MAX_PHOTO_BYTES * MAX_PHOTOS_PER_RECORD + 1024 * 1024;
 
-use Access::{Admin, Device, OwnDevice, OwnDeviceOrReviewer, Public, Reviewer};
+use Access::{Admin, Device, OwnDevice, OwnDeviceOrReviewer, Public, Responder, Reviewer};
 use Verb::{Delete, Get, Post, Put};
 
 /// Every route, with its access and handler. [`app`] adds nothing else but the JSON 404
@@ -136,6 +140,13 @@ pub const ROUTES: &[RouteSpec] = &[
         on(m, review::decide_pair)
     }),
     route(Post, "/api/review/merges/{merge_id}/undo", Reviewer, |m| on(m, review::undo_merge)),
+    route(Get, "/api/urgent", Responder, |m| on(m, fieldwork::urgent)),
+    route(Post, "/api/review/records/{client_id}/responses", Responder, |m| on(m, fieldwork::log_response)),
+    route(Post, "/api/review/records/{client_id}/samples", Reviewer, |m| on(m, fieldwork::add_sample)),
+    route(Put, "/api/review/records/{client_id}/carcass", Reviewer, |m| on(m, fieldwork::set_carcass)),
+    route(Get, "/api/samples", Reviewer, |m| on(m, fieldwork::register)),
+    route(Get, "/api/samples/{code}", Reviewer, |m| on(m, fieldwork::lookup)),
+    route(Put, "/api/samples/{code}", Reviewer, |m| on(m, fieldwork::change_sample)),
     route(Get, "/api/people", Admin, |m| on(m, people::list)),
     route(Post, "/api/people", Admin, |m| on(m, people::add)),
     route(Put, "/api/people/{username}/disabled", Admin, |m| on(m, people::set_disabled)),
@@ -179,6 +190,7 @@ async fn api_not_found() -> ApiError {
 /// Serves the app on an already bound listener until Ctrl-C, so tests can bind
 /// port 0 and read the port back.
 pub async fn serve(listener: tokio::net::TcpListener, state: AppState) -> anyhow::Result<()> {
+    state.start_background_work()?;
     // With each connection's address, for the sign-in rate limit.
     let router = app(state).into_make_service_with_connect_info::<std::net::SocketAddr>();
     axum::serve(listener, router)

@@ -28,12 +28,21 @@ pub struct AppState {
     pub decode_gate: intake::gate::DecodeGate,
     /// The operator's settings.
     pub settings: Settings,
+    /// Wakes the responders' notification task when a notification is made.
+    pub notify_wake: std::sync::Arc<tokio::sync::Notify>,
 }
 
 impl AppState {
     /// The checklist in use.
     pub fn checklist(&self) -> &species_key::Checklist {
         self.taxa.checklist()
+    }
+
+    /// Starts the tasks that run beside the requests: the responders' notifications.
+    /// `Err` names a setting that stops them from working.
+    pub fn start_background_work(&self) -> anyhow::Result<()> {
+        crate::notify::worker::start(self.store.clone(), self.settings.responders.clone(), self.notify_wake.clone())
+            .map_err(|problem| anyhow::anyhow!("responders' notifications: {problem}"))
     }
 
     /// The parts of the server intake works with.
@@ -69,6 +78,7 @@ impl AppState {
             duplicates,
             decode_gate,
             settings: Settings::default(),
+            notify_wake: std::sync::Arc::default(),
         })
     }
 }

@@ -7,12 +7,14 @@
 
 pub mod codes;
 pub mod exif;
+pub mod fieldwork;
 pub mod problem;
 pub mod record;
 pub mod review;
 pub mod values;
 pub mod walk;
 
+pub use fieldwork::*;
 pub use problem::ErrorBody;
 pub use record::*;
 pub use review::*;

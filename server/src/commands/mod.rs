@@ -1,8 +1,9 @@
-//! The assessors' subcommands of `wrackline`: `range`, `trend` and `export`. Each has its
+//! The subcommands of `wrackline` that read the records: `range`, `trend`, `export` and `sample`. Each has its
 //! clap arguments and a `run` that opens what it needs and calls the library.
 
 pub mod export;
 pub mod range;
+pub mod sample;
 pub mod trend;
 
 use std::path::{Path, PathBuf};

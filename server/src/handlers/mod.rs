@@ -5,6 +5,7 @@ pub mod access;
 pub mod assess;
 pub mod checklist;
 pub mod export;
+pub mod fieldwork;
 pub mod health;
 pub mod mine;
 pub mod observations;

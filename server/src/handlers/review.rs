@@ -16,7 +16,7 @@ use crate::intake::parse_json;
 use crate::review;
 use crate::review::queue::Wanted;
 use crate::state::AppState;
-use crate::store::{duplicates as duplicates_store, observations, review as review_store};
+use crate::store::{duplicates as duplicates_store, fieldwork, notifications, observations, review as review_store};
 
 fn record_id(text: &str) -> Result<Uuid, ApiError> {
     Uuid::parse_str(text).map_err(|_| ApiError::BadRequest(format!("`{text}` is not a record id (a UUID)")))
@@ -82,15 +82,16 @@ pub async fn queue(
     let states = states_asked(filter.state.as_deref())?;
     let flag = flag_asked(filter.flag.as_deref())?;
     let (from, to) = (date_asked("from", filter.from.as_deref())?, date_asked("to", filter.to.as_deref())?);
-    let rows = state
+    let (rows, responded) = state
         .store
         .run(move |conn| {
             let undecided = duplicates_store::undecided(conn)?;
             let records = observations::records_in_states(conn, &states)?;
-            Ok(records
+            let rows = records
                 .into_iter()
                 .map(|(record, taxon)| (undecided.contains(&record.observation_id), record, taxon))
-                .collect::<Vec<_>>())
+                .collect::<Vec<_>>();
+            Ok((rows, fieldwork::responded(conn)?))
         })
         .await?;
     let wanted = Wanted {
@@ -102,7 +103,15 @@ pub async fn queue(
         offset: filter.offset.unwrap_or(0),
         limit: filter.limit.unwrap_or(QUEUE_PAGE).min(QUEUE_PAGE_MAX),
     };
-    Ok(Json(review::queue::select(rows, &wanted, &state.taxa)))
+    Ok(Json(review::queue::select(rows, &responded, &wanted, &state.taxa)))
+}
+
+/// What the people who go out have added to a record.
+struct Fieldwork {
+    notifications: Vec<shared_types::NotificationView>,
+    responses: Vec<shared_types::ResponseView>,
+    samples: Vec<shared_types::SampleView>,
+    carcass: Option<shared_types::CarcassView>,
 }
 
 /// `GET /api/review/records/{client_id}`.
@@ -120,6 +129,12 @@ pub async fn detail(
             let taxon = review_store::current_taxon(conn, observation)?;
             let duplicates = review::duplicate_views(conn, &record)?;
             let possible = !duplicates.is_empty() && duplicates.iter().any(|d| d.decision.is_none());
+            let fieldwork = Fieldwork {
+                notifications: notifications::of_record(conn, observation)?,
+                responses: fieldwork::responses(conn, observation)?,
+                samples: fieldwork::samples_of_animal(conn, observation)?,
+                carcass: fieldwork::carcass_of_animal(conn, observation)?,
+            };
             Ok(Some((
                 record,
                 taxon,
@@ -128,14 +143,30 @@ pub async fn detail(
                 review_store::events(conn, observation)?,
                 duplicates,
                 possible,
+                fieldwork,
             )))
         })
         .await?;
-    let (record, taxon, identifications, messages, events, duplicates, possible) =
+    let (record, taxon, identifications, messages, events, duplicates, possible, fieldwork) =
         found.ok_or_else(|| ApiError::NotFound(format!("no record with id {id}")))?;
-    let (_, priority_reasons) = review::priority(&record, taxon.as_deref(), state.checklist(), possible);
+    let urgent = record.submission.is_urgent();
+    let awaiting = urgent && fieldwork.responses.is_empty();
+    let (_, priority_reasons) = review::priority(&record, taxon.as_deref(), state.checklist(), possible, awaiting);
     let key = review::key_replay(state.checklist(), &record.submission);
-    Ok(Json(ReviewDetail { record, identifications, messages, events, priority_reasons, duplicates, key }))
+    Ok(Json(ReviewDetail {
+        record,
+        identifications,
+        messages,
+        events,
+        priority_reasons,
+        duplicates,
+        key,
+        urgent,
+        notifications: fieldwork.notifications,
+        responses: fieldwork.responses,
+        samples: fieldwork.samples,
+        carcass: fieldwork.carcass,
+    }))
 }
 
 /// `POST /api/review/records/{client_id}/duplicates/{other_client_id}`: the same animal

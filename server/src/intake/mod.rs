@@ -73,6 +73,8 @@ pub struct Accepted {
     pub receipt: Receipt,
     /// True when this was a resend of a record already stored.
     pub replayed: bool,
+    /// A live animal: responders must hear of it (`Submission::is_urgent`).
+    pub urgent: bool,
 }
 
 /// Reads JSON into `T`, naming the field at fault when it does not fit.
@@ -146,14 +148,15 @@ pub async fn accept(
         observer_id,
     };
     let client_id = new.submission.client_id;
+    let urgent = new.submission.is_urgent();
     let outcome = state
         .store
         .run(move |conn| observations::insert_observation(conn, &new, now))
         .await
         .map_err(anyhow::Error::from)?;
     match outcome {
-        Insertion::Created(receipt) => Ok(Accepted { receipt, replayed: false }),
-        Insertion::Replayed(receipt) => Ok(Accepted { receipt, replayed: true }),
+        Insertion::Created(receipt) => Ok(Accepted { receipt, replayed: false, urgent }),
+        Insertion::Replayed(receipt) => Ok(Accepted { receipt, replayed: true, urgent }),
         Insertion::Conflict => Err(IntakeError::Conflict(client_id)),
     }
 }

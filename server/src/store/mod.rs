@@ -13,7 +13,9 @@
 //! began. At most [`MAX_READERS`] run at once; more wait their turn.
 
 pub mod duplicates;
+pub mod fieldwork;
 mod migrate;
+pub mod notifications;
 pub mod observations;
 pub mod occurrences;
 pub mod people;

@@ -41,34 +41,56 @@ pub async fn spawn_app() -> TestApp {
 }
 
 pub async fn spawn_app_with(app_dir: Option<PathBuf>) -> TestApp {
-    spawn(app_dir, None, None).await
+    spawn(Options { app_dir, ..Options::default() }).await
 }
 
 /// The server with room for `turns` photo decodes at once (the default is one per core).
 pub async fn spawn_app_with_decode_turns(turns: usize) -> TestApp {
-    spawn(None, Some(turns), None).await
+    spawn(Options { decode_turns: Some(turns), ..Options::default() }).await
 }
 
 /// The server started with `checklist` instead of the built-in demo checklist.
 pub async fn spawn_app_with_checklist(checklist: species_key::Checklist) -> TestApp {
-    spawn(None, None, Some(checklist)).await
+    spawn(Options { checklist: Some(checklist), ..Options::default() }).await
 }
 
-async fn spawn(
+/// The server started with these operator settings, its background work running (as
+/// `wrackline serve` starts it).
+pub async fn spawn_app_with_settings(settings: wrackline_server::settings::Settings) -> TestApp {
+    spawn(Options { settings: Some(settings), ..Options::default() }).await
+}
+
+/// What a test server differs in from the default one.
+#[derive(Default)]
+struct Options {
     app_dir: Option<PathBuf>,
     decode_turns: Option<usize>,
     checklist: Option<species_key::Checklist>,
-) -> TestApp {
+    settings: Option<wrackline_server::settings::Settings>,
+}
+
+/// The sign-ins every test server has: (username, role); all use [`REVIEWER_PASSWORD`].
+pub const TEST_STAFF: [(&str, shared_types::Role); 3] = [
+    ("test-reviewer", shared_types::Role::Reviewer),
+    ("test-admin", shared_types::Role::Admin),
+    ("test-responder", shared_types::Role::Responder),
+];
+
+async fn spawn(options: Options) -> TestApp {
     let dir = tempfile::tempdir().expect("temp dir");
     let data_dir = dir.path().join("data");
-    let checklist = checklist.unwrap_or_else(|| wrackline_server::taxa::load_checklist(None).expect("demo checklist"));
-    let mut state = AppState::open(&data_dir, app_dir, checklist).expect("open state");
-    if let Some(turns) = decode_turns {
+    let checklist =
+        options.checklist.unwrap_or_else(|| wrackline_server::taxa::load_checklist(None).expect("demo checklist"));
+    let mut state = AppState::open(&data_dir, options.app_dir, checklist).expect("open state");
+    if let Some(turns) = options.decode_turns {
         state.decode_gate = wrackline_server::intake::gate::DecodeGate::new(turns);
     }
+    if let Some(settings) = options.settings {
+        state.settings = settings;
+        state.start_background_work().expect("background work starts");
+    }
     let decode_gate = state.decode_gate.clone();
-    for (username, role) in [("test-reviewer", shared_types::Role::Reviewer), ("test-admin", shared_types::Role::Admin)]
-    {
+    for (username, role) in TEST_STAFF {
         wrackline_server::people::add_staff(
             &state.store,
             None,

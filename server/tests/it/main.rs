@@ -9,6 +9,7 @@ mod derivatives;
 mod duplicates;
 mod exif;
 mod exports;
+mod fieldwork;
 mod flags;
 mod helpers;
 mod hostile;
