@@ -107,19 +107,43 @@ export async function storageEstimate() {
   return null;
 }
 
-// The device's position: {latitude, longitude, accuracy} (accuracy in metres).
-export function currentPosition() {
+// The device's position: {latitude, longitude, accuracy, at} (accuracy in metres, at in
+// milliseconds since 1970), no older than `maximumAgeMs` (0: a fresh fix).
+export function currentPosition(maximumAgeMs = 60000) {
   return new Promise((resolve, reject) => {
     if (!navigator.geolocation) {
       reject(new Error('this device offers no position'));
       return;
     }
     navigator.geolocation.getCurrentPosition(
-      (p) => resolve({ latitude: p.coords.latitude, longitude: p.coords.longitude, accuracy: p.coords.accuracy }),
+      (p) => resolve({ latitude: p.coords.latitude, longitude: p.coords.longitude, accuracy: p.coords.accuracy, at: p.timestamp }),
       (err) => reject(new Error(err.message || 'position unavailable')),
-      { enableHighAccuracy: true, timeout: 20000, maximumAge: 60000 },
+      { enableHighAccuracy: true, timeout: 20000, maximumAge: maximumAgeMs },
     );
   });
+}
+
+// The browser's offer to install the app (its `beforeinstallprompt` event), kept until the
+// observer presses "Install"; `wrackline-installable` tells the app it may show the button.
+let installOffer = null;
+self.addEventListener('beforeinstallprompt', (event) => {
+  event.preventDefault();
+  installOffer = event;
+  self.dispatchEvent(new Event('wrackline-installable'));
+});
+
+export function canInstall() {
+  return installOffer !== null;
+}
+
+// Shows the browser's own install question; true when the observer accepted.
+export async function install() {
+  const offer = installOffer;
+  if (!offer) return false;
+  installOffer = null;
+  await offer.prompt();
+  const choice = await offer.userChoice;
+  return choice?.outcome === 'accepted';
 }
 
 // Sends one record with its photos; resolves to {status, body} whatever the status,

@@ -18,10 +18,11 @@ mod screens;
 
 pub use data::key::bench_next_question;
 
-/// Runs when the module is loaded: mounts the app.
+/// Runs when the module is loaded: takes away the page's loading message and mounts the app.
 #[wasm_bindgen::prelude::wasm_bindgen(start)]
 pub fn start() {
     console_error_panic_hook_lite();
+    data::page::remove_loading_message();
     leptos::mount::mount_to_body(screens::App);
 }
 

@@ -17,14 +17,16 @@ self.addEventListener('activate', (event) => {
 });
 
 // The shell is answered from the cache first (a beach rarely has good signal); the
-// API and photos always go to the network, so the outbox sees real answers.
+// API and photos always go to the network, so the outbox sees real answers. The server
+// sends the shell compressed with `Vary: Accept-Encoding`; the cache keeps the decoded
+// file, the same whatever the encoding, so the match ignores Vary.
 self.addEventListener('fetch', (event) => {
   const url = new URL(event.request.url);
   if (event.request.method !== 'GET' || url.origin !== self.location.origin) return;
   if (url.pathname.startsWith('/api/') || url.pathname.startsWith('/photos/') || url.pathname === '/healthz') return;
   if (event.request.mode === 'navigate') {
-    event.respondWith(caches.match('/index.html').then((hit) => hit || fetch(event.request)));
+    event.respondWith(caches.match('/index.html', { ignoreVary: true }).then((hit) => hit || fetch(event.request)));
     return;
   }
-  event.respondWith(caches.match(event.request).then((hit) => hit || fetch(event.request)));
+  event.respondWith(caches.match(event.request, { ignoreVary: true }).then((hit) => hit || fetch(event.request)));
 });

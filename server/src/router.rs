@@ -12,7 +12,7 @@ use tower_http::set_header::{SetResponseHeader, SetResponseHeaderLayer};
 
 use crate::error::ApiError;
 use crate::handlers::{
-    assess, checklist, export, fieldwork, health, mine, observations, people, photos, review, session, walks,
+    assess, checklist, export, fieldwork, health, mine, observations, people, photos, review, session, site, walks,
 };
 use crate::intake::photos::{MAX_PHOTO_BYTES, MAX_PHOTOS_PER_RECORD};
 use crate::state::AppState;
@@ -119,6 +119,7 @@ pub const ROUTES: &[RouteSpec] = &[
     route(Get, "/api/export", Public, |m| on(m, export::export)),
     route(Get, "/api/checklist", Public, |m| on(m, checklist::get)),
     route(Get, "/api/checklist/nearby", Public, |m| on(m, checklist::nearby)),
+    route(Get, "/api/site", Public, |m| on(m, site::get)),
     route(Get, "/api/range", Public, |m| on(m, assess::range)),
     route(Get, "/api/range/map.svg", Public, |m| on(m, assess::range_map)),
     route(Get, "/api/trend", Public, |m| on(m, assess::trend)),
@@ -177,9 +178,13 @@ pub fn app(state: AppState) -> Router {
 }
 
 /// Static files of the built app. `no-cache` makes the browser revalidate, so a new
-/// service worker (and with it a new app version) is seen on the next visit.
+/// service worker (and with it a new app version) is seen on the next visit. The build
+/// writes a brotli (`.br`) and a gzip (`.gz`) copy beside each text and wasm file; a
+/// browser that accepts one gets it (brotli first), with `Content-Encoding` and
+/// `Vary: Accept-Encoding`, and any other client the file itself.
 fn app_files(dir: &std::path::Path) -> SetResponseHeader<ServeDir<ServeFile>, HeaderValue> {
-    let files = ServeDir::new(dir).fallback(ServeFile::new(dir.join("index.html")));
+    let index = ServeFile::new(dir.join("index.html")).precompressed_br().precompressed_gzip();
+    let files = ServeDir::new(dir).precompressed_br().precompressed_gzip().fallback(index);
     SetResponseHeaderLayer::if_not_present(header::CACHE_CONTROL, HeaderValue::from_static("no-cache")).layer(files)
 }
 

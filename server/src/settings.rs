@@ -9,6 +9,13 @@ pub struct Settings {
     /// (default cc-by, CC BY 4.0).
     #[arg(long, value_enum, env = LICENCE_VARIABLE, default_value_t = Licence::CcBy)]
     pub licence: Licence,
+    /// Who to call about a live or stranded animal here, shown on every phone with the
+    /// safety cautions: a number and who answers it, as the operator writes it, e.g.
+    /// "0800 000 000 (stranding line, day and night)". At most 200 characters. Default:
+    /// none, and the cautions tell walkers to call the local stranding responders or
+    /// the coastguard.
+    #[arg(long, env = "WRACKLINE_RESPONDERS_PHONE", value_parser = responders_phone)]
+    pub responders_phone: Option<String>,
     #[command(flatten)]
     pub responders: Responders,
 }
@@ -81,6 +88,22 @@ impl Responders {
         }
         None
     }
+}
+
+/// The longest responders' line the phones show.
+pub const RESPONDERS_PHONE_MAX_CHARS: usize = 200;
+
+/// Checks the responders' line at start, so a mistyped setting stops the server with a
+/// clear message instead of reaching every phone.
+fn responders_phone(text: &str) -> Result<String, String> {
+    let text = text.trim();
+    if text.is_empty() {
+        return Err("the responders' number is empty; leave the setting out to show none".into());
+    }
+    if text.chars().count() > RESPONDERS_PHONE_MAX_CHARS {
+        return Err(format!("the responders' number is longer than {RESPONDERS_PHONE_MAX_CHARS} characters"));
+    }
+    Ok(text.to_owned())
 }
 
 /// The environment variable that sets the licence for the server and the command line.

@@ -309,7 +309,7 @@ pub enum SubmissionProblem {
     UnknownRank(String),
     #[error("key_choice.probability must be between 0 and 1, got {0}")]
     BadProbability(f64),
-    #[error("observed_at {0} is in the future")]
+    #[error("the time {0} is in the future: give the time the animal was seen")]
     InTheFuture(DateTime<FixedOffset>),
     #[error("human_signs lists {0:?} twice")]
     RepeatedSign(HumanSign),

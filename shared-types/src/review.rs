@@ -246,6 +246,17 @@ pub struct ReviewDetail {
     /// The carcass's fate and what an examination found.
     #[serde(default)]
     pub carcass: Option<crate::fieldwork::CarcassView>,
+    /// Who sent it and how to reach them, as the observer gave it ("About you"): for
+    /// reviewers only, never exported or shown to anyone else.
+    #[serde(default)]
+    pub observer: Option<ObserverContact>,
+}
+
+/// The name and contact an observer chose to give, shown to reviewers on their records.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct ObserverContact {
+    pub display_name: Option<String>,
+    pub contact: Option<String>,
 }
 
 /// Another report that may show the same animal, for the reviewer to compare.
@@ -276,6 +287,10 @@ pub struct MyRecord {
     pub record: RecordView,
     pub current_taxon: Option<String>,
     pub messages: Vec<Message>,
+    /// Why the record is in its state, in the reviewer's words, when they gave one: the
+    /// reason a record is not confirmable, a confirmation's remark.
+    #[serde(default)]
+    pub state_reason: Option<String>,
 }
 
 /// An observer's answer to a reviewer (multipart `reply` JSON part, plus `photo` parts).

@@ -19,6 +19,11 @@ pub struct Checklist {
     areas: Vec<Area>,
     characters: Vec<Character>,
     taxa: Vec<Taxon>,
+    /// Common names of genera, families, orders and superorders, by scientific name, the
+    /// preferred first ("Scyliorhinidae": ["catsharks"]), so an observer stopping at a
+    /// group reads a name they know beside the scientific one. Optional.
+    #[serde(default, skip_serializing_if = "BTreeMap::is_empty")]
+    group_names: BTreeMap<String, Vec<String>>,
 }
 
 /// What the checklist is, where it applies, and how far its contents can be trusted.
@@ -238,6 +243,8 @@ struct ChecklistFile {
     areas: Vec<Area>,
     characters: Vec<Character>,
     taxa: Vec<serde_json::Value>,
+    #[serde(default)]
+    group_names: BTreeMap<String, Vec<String>>,
 }
 
 impl Checklist {
@@ -254,7 +261,13 @@ impl Checklist {
             .enumerate()
             .map(|(index, value)| read_taxon(index + 1, value))
             .collect::<Result<Vec<_>, _>>()?;
-        let checklist = Checklist { metadata: file.metadata, areas: file.areas, characters: file.characters, taxa };
+        let checklist = Checklist {
+            metadata: file.metadata,
+            areas: file.areas,
+            characters: file.characters,
+            taxa,
+            group_names: file.group_names,
+        };
         checklist.check()?;
         Ok(checklist)
     }
@@ -284,6 +297,12 @@ impl Checklist {
         &self.taxa
     }
 
+    /// The preferred common name of a genus, family, order or superorder, if the
+    /// checklist gives one.
+    pub fn group_common_name(&self, scientific_name: &str) -> Option<&str> {
+        self.group_names.get(scientific_name).and_then(|names| names.first()).map(String::as_str)
+    }
+
     /// The taxon with this scientific name, if listed.
     pub fn taxon(&self, scientific_name: &str) -> Option<&Taxon> {
         self.taxa.iter().find(|t| t.scientific_name == scientific_name)
@@ -294,6 +313,14 @@ impl Checklist {
             return Err(ChecklistError::NoTaxa);
         }
         check_characters(&self.characters)?;
+        let groups: BTreeSet<&str> = self
+            .taxa
+            .iter()
+            .flat_map(|t| [t.genus.as_str(), t.family.as_str(), t.order.as_str(), t.superorder.as_str()])
+            .collect();
+        if let Some(unknown) = self.group_names.keys().find(|name| !groups.contains(name.as_str())) {
+            return Err(ChecklistError::UnknownGroup(unknown.clone()));
+        }
         let area_codes = unique_area_codes(&self.areas)?;
         let mut names = BTreeSet::new();
         for taxon in &self.taxa {

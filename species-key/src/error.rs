@@ -44,6 +44,9 @@ pub enum ChecklistError {
     /// The engine keeps a species' states for one character in a 64-bit set.
     #[error("character {0}: more than 64 states")]
     TooManyStates(String),
+    /// `groupNames` names something that is no group of a listed taxon.
+    #[error("groupNames: {0} is no genus, family, order or superorder of a listed taxon")]
+    UnknownGroup(String),
     /// An area code is defined twice.
     #[error("area {0}: defined more than once")]
     DuplicateArea(String),

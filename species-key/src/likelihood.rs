@@ -50,17 +50,35 @@ pub fn answer_likelihood(allowed: StateSet, state_count: usize, answer: usize) -
     }
 }
 
+/// The smallest length, as a share of a species' maximum, at which a free-living animal
+/// of it is usually met: sharks and rays are born or hatch at roughly a tenth to a third
+/// of their maximum length (common practice, from memory: a small-spotted catshark
+/// hatches at about 10 cm of 100, a blue shark is born at 35–50 cm of 400, a basking
+/// shark at about 1.5 m of 12). A 62 cm animal is no basking shark.
+pub const NEWBORN_SHARE: f64 = 0.10;
+
+/// How far under [`NEWBORN_SHARE`] a length may go, as a share of it, before it counts
+/// strongly against a species: at 20% under the weight is e⁻¹ (taped), at 35% under for
+/// a length judged by eye.
+pub const SMALL_SLACK_MEASURED: f64 = 0.20;
+pub const SMALL_SLACK_ESTIMATED: f64 = 0.35;
+
 /// Weight a length gives a species, from the length as a multiple of the species'
-/// maximum: 1 up to the maximum, then falling as a half-Gaussian of the excess over the
-/// slack, never below [`SIZE_FLOOR`]. Small lengths are never held against a species
-/// (the animal may be young).
+/// maximum: 1 from about newborn size ([`NEWBORN_SHARE`]) up to the maximum, falling as a
+/// half-Gaussian beyond the maximum (excess over the slack) and below newborn size
+/// (shortfall over its slack), never below [`SIZE_FLOOR`]. So an implausible species —
+/// a giant for a small animal, a small species for a giant — does not lead.
 pub fn size_likelihood(ratio_to_max: f64, estimated: bool) -> f64 {
-    if ratio_to_max <= 1.0 {
-        return 1.0;
+    let gaussian = |distance: f64| (-distance * distance).exp().max(SIZE_FLOOR);
+    if ratio_to_max > 1.0 {
+        let slack = if estimated { SIZE_SLACK_ESTIMATED } else { SIZE_SLACK_MEASURED };
+        return gaussian((ratio_to_max - 1.0) / slack);
     }
-    let slack = if estimated { SIZE_SLACK_ESTIMATED } else { SIZE_SLACK_MEASURED };
-    let excess = (ratio_to_max - 1.0) / slack;
-    (-excess * excess).exp().max(SIZE_FLOOR)
+    if ratio_to_max < NEWBORN_SHARE {
+        let slack = if estimated { SMALL_SLACK_ESTIMATED } else { SMALL_SLACK_MEASURED };
+        return gaussian((NEWBORN_SHARE - ratio_to_max) / NEWBORN_SHARE / slack);
+    }
+    1.0
 }
 
 /// Prior weight from the record's area: 1 where the checklist lists the species,

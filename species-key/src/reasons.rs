@@ -6,7 +6,7 @@ use crate::answers::Context;
 use crate::checklist::{Character, Checklist, Taxon};
 use crate::key::{Effect, Given, Reason, allowed_states};
 use crate::length::{ComparableLength, ConversionMethod, comparable_cm, comparable_length};
-use crate::likelihood::{StateSet, size_likelihood};
+use crate::likelihood::{NEWBORN_SHARE, StateSet, size_likelihood};
 
 /// All reasons for one species, answers first, then area, nearby records and size.
 pub(crate) fn for_species(checklist: &Checklist, species: usize, given: &[Given], context: &Context) -> Vec<Reason> {
@@ -106,6 +106,11 @@ fn size_reason(taxon: &Taxon, context: &Context) -> Option<Reason> {
     let described = describe_length(how_measured, measurement.kind.words(), measurement.cm, &length);
     Some(if length.cm > max.cm {
         reason(Effect::Against, format!("{described} is over this species' known maximum of {:.0} cm", max.cm))
+    } else if length.cm < NEWBORN_SHARE * max.cm {
+        reason(
+            Effect::Against,
+            format!("{described} is smaller than a newborn of this species, which grows to {:.0} cm", max.cm),
+        )
     } else {
         reason(Effect::Supports, format!("{described} is within this species' known maximum of {:.0} cm", max.cm))
     })

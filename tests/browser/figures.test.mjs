@@ -44,6 +44,8 @@ test('range and trend figures for a taxon, two periods side by side, with their 
     await page.fill('#figures-taxon', 'Scyliorhinus canicula');
     await page.fill('#figures-period-1', '2021-2022');
     await page.fill('#figures-period-2', '2023-2024');
+    // These records await review; the figures count confirmed ones unless told otherwise.
+    await page.selectOption('#figures-state', 'any');
     await page.click('#figures-show');
     await page.waitForSelector('#range-table', { timeout: 15000 });
     await page.waitForSelector('#trend-figures', { timeout: 15000 });
@@ -75,10 +77,10 @@ test('range and trend figures for a taxon, two periods side by side, with their 
     assert.match(trend['Mann–Kendall (tie-corrected)'], /tau = [-\d.]+, p = [\d.]+; Sen's slope/);
     assert.equal(trend['Animals recorded per year'], '2022 1, 2023 1, 2024 2');
     assert.match(await page.textContent('#criterion-a'), /over 24 years .*\(A1: CR ≥ 90, EN ≥ 70, VU ≥ 50%\)/);
-    const cautions = await page.textContent('#figure-cautions');
-    assert.match(cautions, /not a listing decision/);
-    assert.match(cautions, /where people/);
-    assert.match(await page.textContent('.figures .caution'), /inputs to a threatened-species assessment, not a listing decision/);
+    // The caveat is said once, at the top; the recording caution beside the figures.
+    assert.match(await page.textContent('#figures-caveat'), /inputs to a threatened-species assessment, not a listing decision/);
+    assert.doesNotMatch(await page.textContent('#figure-cautions'), /not a listing decision/, 'not said again');
+    assert.match(await page.textContent('.figures'), /where people walk, fish and report/);
     // Laid out for the phone: nothing wider than the screen.
     assert.ok(await page.evaluate(() => document.documentElement.scrollWidth <= window.innerWidth), 'no sideways scrolling');
     await page.screenshot({ path: screenshotPath('figures'), fullPage: true });

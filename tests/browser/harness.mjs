@@ -19,7 +19,9 @@ export const ADMIN = { username: 'browser-admin', password: 'browser-admin-pass'
 // `wrackline user add`, and resolves once it prints its address. With `{ demo: true }`
 // it runs `wrackline demo` instead: the demo records and walks loaded, and the demo
 // sign-ins it prints kept in `demoPeople` ({reviewer, admin} as {username, password}).
-export async function startServer({ demo = false } = {}) {
+// `env` adds to the server's environment (operator settings such as
+// WRACKLINE_RESPONDERS_PHONE).
+export async function startServer({ demo = false, env = {} } = {}) {
   const dataDir = mkdtempSync(path.join(tmpdir(), 'wrackline-browser-'));
   for (const [person, role] of [[REVIEWER, 'reviewer'], [ADMIN, 'admin']]) {
     execFileSync(required('WRACKLINE_BIN'), ['--data-dir', dataDir, 'user', 'add', '--username', person.username, '--role', role],
@@ -27,7 +29,7 @@ export async function startServer({ demo = false } = {}) {
   }
   const child = spawn(required('WRACKLINE_BIN'), [
     '--data-dir', dataDir, demo ? 'demo' : 'serve', '--bind', '127.0.0.1:0', '--app-dir', required('WRACKLINE_APP_DIR'),
-  ], { stdio: ['ignore', 'pipe', 'inherit'] });
+  ], { stdio: ['ignore', 'pipe', 'inherit'], env: { ...process.env, ...env } });
   const demoPeople = {};
   const url = await new Promise((resolve, reject) => {
     let seen = '';
@@ -80,6 +82,44 @@ export function screenshotPath(name) {
   const dir = path.join(process.cwd(), 'target', 'screenshots');
   mkdirSync(dir, { recursive: true });
   return path.join(dir, `${name}.png`);
+}
+
+// Signs in over HTTP, as a desk's browser would, for set-up calls: the session cookie
+// and the CSRF token.
+export async function signInApi(server, person = REVIEWER) {
+  const response = await fetch(`${server.url}/api/session`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify(person) });
+  if (!response.ok) throw new Error(`sign-in: ${response.status}`);
+  const body = await response.json();
+  return { cookie: response.headers.get('set-cookie').split(';')[0], csrf: body.csrf_token };
+}
+
+// A reviewer's decision on a record, sent over HTTP (set-up for the observer's side).
+export async function reviewAction(server, clientId, action) {
+  const staff = await signInApi(server);
+  const response = await fetch(`${server.url}/api/review/records/${clientId}/actions`, {
+    method: 'POST', headers: { 'content-type': 'application/json', cookie: staff.cookie, 'x-csrf-token': staff.csrf },
+    body: JSON.stringify(action),
+  });
+  if (!response.ok) throw new Error(`review action: ${response.status} ${await response.text()}`);
+}
+
+// Sends a record straight to the API, as a phone would (`token`: the phone's identity).
+export async function sendRecord(server, record, token = null) {
+  const form = new FormData();
+  form.append('record', JSON.stringify(record));
+  const headers = token ? { authorization: `Bearer ${token}` } : {};
+  const response = await fetch(`${server.url}/api/observations`, { method: 'POST', body: form, headers });
+  if (response.status !== 200) throw new Error(`record: ${response.status} ${await response.text()}`);
+}
+
+// A plain record for set-up, `hoursAgo` before now.
+export function plainRecord(clientId, guess, { hoursAgo = 3, latitude = 52.4153, longitude = -4.0829 } = {}) {
+  return {
+    client_id: clientId, observed_at: new Date(Date.now() - hoursAgo * 3600e3).toISOString().replace('Z', '+00:00'),
+    position: { latitude, longitude, accuracy_m: 10, source: 'device' }, species_guess: guess, length: null,
+    sex: 'unknown', count: 1, condition: 'fresh_dead', setting: 'beach_stranding', human_signs: [], notes: null,
+    observer_name: 'Invented Walker',
+  };
 }
 
 export function demoPhoto(name) {

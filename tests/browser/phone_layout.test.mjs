@@ -54,8 +54,14 @@ test('the observer\'s screens fit a phone: record form with a photo, the key, wa
   try {
     const page = await openOnPhone(context, server);
     await checkScreen(page, 'record-form');
+    await page.click('#safety-link');
+    await page.waitForSelector('#safety');
+    await checkScreen(page, 'safety');
+    await page.goto(`${server.url}/#`);
+    await page.waitForSelector('#record-form');
     await page.setInputFiles('#photo-input', demoPhoto('catshark.jpg'));
     await page.waitForSelector('.thumbs img', { timeout: 10000 });
+    await page.waitForSelector('#photo-time-note');
     await checkScreen(page, 'record-form-with-photo');
 
     await page.click('#open-key');
@@ -112,6 +118,8 @@ test('the reviewer\'s screens fit a phone: the queue, a record, figures', async 
 
     await page.goto(`${server.url}/#figures`);
     await page.fill('#figures-taxon', 'Scyliorhinus canicula');
+    // Every demo record, reviewed or not, so the map and chart have something to draw.
+    await page.selectOption('#figures-state', 'any');
     await page.click('#figures-show');
     await page.waitForSelector('#range-map svg', { timeout: 15000 });
     await page.waitForSelector('#trend-chart svg', { timeout: 15000 });

@@ -54,7 +54,7 @@ async function openApp(context, server) {
   page.on('pageerror', (err) => console.error('page error:', err.message));
   await page.goto(server.url);
   await page.click('#safety-ok', { timeout: 15000 });
-  await page.waitForFunction(() => document.querySelector('#position-note')?.textContent.includes('no position from the device'), null, { timeout: 10000 });
+  await page.waitForFunction(() => document.querySelector('#position-note')?.textContent.includes('no position from this phone'), null, { timeout: 10000 });
   return page;
 }
 
@@ -71,12 +71,12 @@ test('a photo\'s EXIF is read on the phone, shown, prefills the position and tra
     await page.waitForSelector('.photo-says', { timeout: 10000 });
     const says = await page.textContent('.photo-says');
     // CIPA DC-008: DateTimeOriginal + SubSecTimeOriginal local time, OffsetTimeOriginal its offset; GPS rationals with N/W refs.
-    assert.equal(says, 'photo says: 2025-06-01 09:30:00 (+01:00, its own offset) · 52.46010, -4.08290 ±6 m');
+    assert.equal(says, 'photo says: 2025-06-01 09:30:00 (UTC+01:00, the camera\'s own time zone) · 52.46010, -4.08290 within 6 m');
     assert.equal(await page.inputValue('#latitude'), '52.460100');
     assert.equal(await page.inputValue('#longitude'), '-4.082900');
     assert.equal(await page.inputValue('#accuracy'), '6');
     assert.match(await page.textContent('#position-note'), /first photo/);
-    assert.match(await page.textContent('#device-says'), /^this device says: /);
+    assert.match(await page.textContent('#device-says'), /^this phone says: /);
     await page.screenshot({ path: screenshotPath('photo-exif-prefill'), fullPage: true });
 
     await page.fill('#species', 'small-spotted catshark');
@@ -98,7 +98,9 @@ test('a photo\'s EXIF is read on the phone, shown, prefills the position and tra
     assert.equal(photo.phone_exif.taken_at, '2025-06-01T09:30:00.250+01:00');
     assert.equal(photo.check.time_reading, 'phone');
     assert.equal(photo.check.place_reading, 'phone');
-    assert.ok(photo.check.flags.includes('taken_long_before_record'), JSON.stringify(photo.check));
+    // The photo was taken earlier than the form's "now": its own time became the record's.
+    assert.equal(Date.parse(record.submission.observed_at), Date.parse('2025-06-01T09:30:00+01:00'));
+    assert.ok(!photo.check.flags.includes('taken_long_before_record'), JSON.stringify(photo.check));
     assert.ok(photo.check.metres_from_record < 0.1, 'the record took its position from the photo');
 
     const original = Buffer.from(await (await server.fetchSigned(`/photos/${photo.sha256}/original`)).arrayBuffer());
@@ -273,7 +275,7 @@ test('a photo taken before the clocks changed keeps the phone\'s offset of that 
     const page = await openApp(context, server);
     await page.setInputFiles('#photo-input', photoWithExif(['-DateTimeOriginal=2025:03:29 14:00:00']));
     await page.waitForSelector('.photo-says', { timeout: 10000 });
-    assert.equal(await page.textContent('.photo-says'), "photo says: 2025-03-29 14:00:00 (+00:00, this phone's offset on that date) · no position");
+    assert.equal(await page.textContent('.photo-says'), "photo says: 2025-03-29 14:00:00 (UTC+00:00, this phone's time zone on that date) · no position");
     await page.fill('#when', '2025-03-31T10:00');
     await page.fill('#latitude', '52.4153');
     await page.fill('#longitude', '-4.0829');

@@ -145,14 +145,15 @@ test('an observer sure only of the family records family Rajidae, sent and expor
     const family = '.higher-rank[data-rank="family"][data-taxon="Rajidae"]';
     // Two answers as a skate shows itself; the family is offered with its support.
     await answerAs(page, taxon('Raja clavata'), async (said) => said.length >= 2 && (await page.$(family)) !== null);
-    for (const rank of ['genus', 'family', 'order', 'superorder']) {
+    for (const rank of ['genus', 'family', 'order']) {
       assert.ok(await page.$(`.higher-rank[data-rank="${rank}"]`), `a ${rank} is offered`);
     }
-    assert.match(await page.textContent(family), /^family Rajidae · \d+%$/);
+    assert.equal(await page.$('.higher-rank[data-rank="superorder"]'), null, 'no rank above order on the observer\'s screen');
+    assert.match(await page.textContent(family), /^(Suggested: )?skates — family Rajidae · \d+%$/);
     await page.click(family);
     await page.waitForSelector('#key-choice');
     assert.match(await page.textContent('#key-choice'), /Rajidae \(family/);
-    assert.equal(await page.inputValue('#species'), 'family Rajidae');
+    assert.equal(await page.inputValue('#species'), 'skates — family Rajidae');
 
     await page.selectOption('#condition', 'fresh_dead');
     await page.selectOption('#setting', 'beach_stranding');

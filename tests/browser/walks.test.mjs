@@ -39,13 +39,13 @@ test('a walk made offline reaches the server once, with its route and its record
     await page.check('#walk-all-finds');
     await page.click('#start-walk');
     await page.waitForSelector('#walk-active');
-    await page.waitForFunction(() => /\b1 fixes kept/.test(document.querySelector('#walk-progress')?.textContent));
+    await page.waitForFunction(() => /\b1 points on the route so far/.test(document.querySelector('#walk-progress')?.textContent));
     // Move along the route. The phone keeps at most one fix every 10 s, timed by the
     // browser's own position timestamps (a fake page clock does not move them), so each
     // next position is offered again until the phone keeps it.
     for (let fix = 1; fix < ROUTE.length; fix++) {
       const [latitude, longitude] = ROUTE[fix];
-      const kept = new RegExp(`\\b${fix + 1} fixes kept`);
+      const kept = new RegExp(`\\b${fix + 1} points on the route so far`);
       await eventually(`the phone keeps fix ${fix + 1} of the route`, async () => {
         await context.setGeolocation({ latitude, longitude, accuracy: 6 });
         return kept.test(await page.textContent('#walk-progress'));

@@ -1,6 +1,8 @@
 //! Builds the app into `target/app-dist`: the wasm (cargo), its JS bindings
-//! (wasm-bindgen as a library, so no CLI has to be installed), the static files, and
-//! the service worker with a cache version made from the hash of every file it keeps.
+//! (wasm-bindgen as a library, so no CLI has to be installed), the wasm optimised for
+//! size (release builds), the static files, the service worker with a cache version made
+//! from the hash of every file it keeps, and brotli and gzip copies of each text and wasm
+//! file for the server to send to browsers that accept them ([`crate::shrink`]).
 
 use std::fs;
 use std::path::{Path, PathBuf};
@@ -8,6 +10,7 @@ use std::path::{Path, PathBuf};
 use anyhow::{Context as _, Result, bail};
 use sha2::{Digest as _, Sha256};
 
+use crate::shrink::{self, Sizes};
 use crate::{prerequisites, root, run};
 
 /// The wasm-bindgen version this xtask's bindings step is built from; it must equal
@@ -24,6 +27,11 @@ pub enum Profile {
 pub fn build(profile: Profile) -> Result<PathBuf> {
     prerequisites::wasm_target()?;
     check_bindgen_version()?;
+    if profile == Profile::Release
+        && let Err(err) = prerequisites::npm_packages()
+    {
+        eprintln!("xtask: warning: {err:#}");
+    }
     let (cargo_profile, folder) = match profile {
         Profile::Dev => ("dev", "debug"),
         Profile::Release => ("wasm-release", "wasm-release"),
@@ -42,9 +50,16 @@ pub fn build(profile: Profile) -> Result<PathBuf> {
         .typescript(false)
         .generate(&dist)
         .context("generating the wasm bindings")?;
+    if profile == Profile::Release {
+        let (before, after) = shrink::optimise_wasm(&dist.join("wrackline_app_bg.wasm"))?;
+        eprintln!("xtask: wasm {:.0} KB built, {:.0} KB after wasm-opt", kb(before), kb(after));
+    }
     copy_static(&root().join("app/static"), &dist)?;
     write_service_worker(&dist)?;
-    report_size(&dist)?;
+    let mut files = Vec::new();
+    site_files(&dist, &dist, &mut files)?;
+    let sizes = shrink::precompress(&files.into_iter().map(|(_, path)| path).collect::<Vec<_>>())?;
+    report_size(&sizes);
     Ok(dist)
 }
 
@@ -137,18 +152,29 @@ fn write_service_worker(dist: &Path) -> Result<()> {
     Ok(())
 }
 
-/// Prints the size a phone downloads for the app code (wasm + JS), raw and gzip'd.
-fn report_size(dist: &Path) -> Result<()> {
-    let mut files = Vec::new();
-    site_files(dist, dist, &mut files)?;
-    let code: Vec<&PathBuf> =
-        files.iter().filter(|(p, _)| p.ends_with(".wasm") || p.ends_with(".js")).map(|(_, f)| f).collect();
-    let raw: u64 = code.iter().map(|f| fs::metadata(f).map(|m| m.len()).unwrap_or(0)).sum();
-    let gzip: usize = code.iter().map(|f| gzip_len(f)).sum();
-    eprintln!("xtask: app code (wasm + js) {:.0} KB raw, {:.0} KB gzip -9", raw as f64 / 1024.0, gzip as f64 / 1024.0);
-    Ok(())
+fn kb(bytes: u64) -> f64 {
+    bytes as f64 / 1024.0
 }
 
-fn gzip_len(path: &Path) -> usize {
-    std::process::Command::new("gzip").arg("-9c").arg(path).output().map(|o| o.stdout.len()).unwrap_or(0)
+/// Prints what a phone downloads for the app code (wasm + JS) and for every file the
+/// service worker keeps, raw and as sent with brotli and gzip.
+fn report_size(sizes: &[(PathBuf, Sizes)]) {
+    let sum = |files: &mut dyn Iterator<Item = &Sizes>| {
+        files.fold(Sizes::default(), |a, s| Sizes {
+            raw: a.raw + s.raw,
+            gzip: a.gzip + s.gzip,
+            brotli: a.brotli + s.brotli,
+        })
+    };
+    let is_code = |p: &Path| p.extension().is_some_and(|e| e == "wasm" || e == "js");
+    let code = sum(&mut sizes.iter().filter(|(p, _)| is_code(p)).map(|(_, s)| s));
+    let all = sum(&mut sizes.iter().map(|(_, s)| s));
+    eprintln!(
+        "xtask: app code (wasm + js) {:.0} KB raw, {:.0} KB gzip, {:.0} KB brotli; all compressible files {:.0} KB raw, {:.0} KB brotli",
+        kb(code.raw),
+        kb(code.gzip),
+        kb(code.brotli),
+        kb(all.raw),
+        kb(all.brotli)
+    );
 }

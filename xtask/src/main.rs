@@ -18,6 +18,7 @@
 mod app;
 mod prerequisites;
 mod run;
+mod shrink;
 mod tidy;
 
 use std::path::PathBuf;
@@ -130,6 +131,7 @@ fn bench() -> Result<()> {
     run::cargo(&["build", "--release", "-p", "wrackline-server"])?;
     let server = root().join("target/release/wrackline");
     run::browser_script("bench_key.mjs", &dist, &server)?;
+    run::browser_script("bench_first_load.mjs", &dist, &server)?;
     run::browser_bench(&dist, &bench_wasm, &server)?;
     print_recorded_figures()
 }

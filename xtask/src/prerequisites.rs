@@ -1,7 +1,9 @@
 //! What the tests need beyond the Rust toolchain, installed when missing: the wasm
-//! target (rustup), Chromium and exiftool (Debian packages, when running as root), and
-//! the browser-test npm packages, and a Python virtualenv with the reference readers. When something cannot be installed here, the error
-//! says what is missing and the command that installs it.
+//! target (rustup), Chromium and exiftool (Debian packages, when running as root), the
+//! npm packages (playwright-core for the browser tests, binaryen's wasm-opt for the
+//! release build), and a Python virtualenv with the reference readers. When something
+//! cannot be installed here, the error says what is missing and the command that
+//! installs it.
 
 use std::path::Path;
 use std::process::Command;
@@ -87,10 +89,13 @@ fn debian_packages() -> Result<()> {
     run::check(command).with_context(|| format!("installing {}; try: {install}", missing.join(", ")))
 }
 
-/// playwright-core (no browser download: it drives Debian's Chromium).
-fn npm_packages() -> Result<()> {
+/// playwright-core (no browser download: it drives Debian's Chromium) and binaryen
+/// (`wasm-opt`, for the release build), from `tests/browser/package-lock.json`.
+pub fn npm_packages() -> Result<()> {
     let folder = root().join("tests/browser");
-    if Path::new(&folder.join("node_modules/playwright-core")).exists() {
+    let installed =
+        ["playwright-core", "binaryen"].iter().all(|p| Path::new(&folder.join("node_modules").join(p)).exists());
+    if installed {
         return Ok(());
     }
     let mut command = Command::new("npm");

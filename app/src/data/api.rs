@@ -7,7 +7,9 @@
 //!
 //! Who calls travels as [`Caller`]: anyone, the phone (its identity as a bearer token)
 //! or the signed-in reviewer (the session cookie goes by itself; the CSRF token the
-//! sign-in returned is sent back in `X-CSRF-Token`).
+//! sign-in returned is sent back in `X-CSRF-Token`). A tab that lacks the token (a second
+//! tab, a restarted browser) gets it from `GET /api/session`, and a change refused for
+//! a missing token is sent once more with it ([`is_csrf_refusal`]).
 
 use std::collections::BTreeMap;
 use std::fmt;
@@ -49,14 +51,44 @@ impl ApiError {
     }
 }
 
+impl ApiError {
+    /// The request field the server named as the problem, if it named one
+    /// (`position.latitude`): for the form to show the words beside that control.
+    pub fn field(&self) -> Option<&str> {
+        match self {
+            Self::Status { body: Some(ErrorBody { field, .. }), .. } => field.as_deref(),
+            _ => None,
+        }
+    }
+}
+
+/// A status the server sent without words of its own (a proxy's page, an empty body), in
+/// plain words (RFC 9110 §15 for what each means).
+fn status_words(status: u16) -> &'static str {
+    match status {
+        401 => "you are not signed in, or the sign-in has ended",
+        403 => "this is not allowed",
+        404 => "the server does not know this",
+        408 | 504 => "the server took too long to answer",
+        409 => "the server has a different version of this",
+        413 => "this is too large for the server",
+        415 => "the server does not take this kind of file",
+        429 => "the server is busy",
+        502 | 503 => "the server cannot be reached just now",
+        500..=599 => "the server had a problem",
+        _ => "the server could not accept this",
+    }
+}
+
+/// The sentence to show: the server's own words when it sent some (without the field
+/// path, which the form turns into the control's label), else plain words.
 impl fmt::Display for ApiError {
     fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
         match self {
-            Self::NoAnswer(why) => write!(f, "no connection ({why})"),
-            Self::Status { body: Some(ErrorBody { error, field: Some(field) }), .. } => write!(f, "{field}: {error}"),
-            Self::Status { body: Some(ErrorBody { error, field: None }), .. } => f.write_str(error),
-            Self::Status { status, body: None } => write!(f, "the server answered {status}"),
-            Self::Unreadable(why) => write!(f, "the server's answer could not be read: {why}"),
+            Self::NoAnswer(_) => f.write_str("no connection to the server"),
+            Self::Status { body: Some(ErrorBody { error, .. }), .. } => f.write_str(error),
+            Self::Status { status, body: None } => write!(f, "{} (code {status})", status_words(*status)),
+            Self::Unreadable(_) => f.write_str("the server's answer could not be read (a Wi-Fi sign-in page?)"),
             Self::Unsendable(why) => write!(f, "the request could not be written: {why}"),
         }
     }
@@ -116,11 +148,26 @@ impl Caller<'_> {
     }
 }
 
-/// Sends a request with an optional JSON body; the body of a 2xx answer.
-async fn call(method: &str, url: &str, json: Option<String>, caller: Caller<'_>) -> Result<String, ApiError> {
+/// Whether an answer is the server refusing a signed-in change for a missing or stale
+/// CSRF token (`handlers::access` on the server), which the session can put right.
+pub fn is_csrf_refusal(answer: &Result<String, ApiError>) -> bool {
+    matches!(answer, Err(ApiError::Status { status: 403, body: Some(body) }) if body.error.contains("X-CSRF-Token"))
+}
+
+async fn send(method: &str, url: &str, json: Option<&str>, caller: Caller<'_>) -> Result<String, ApiError> {
     let headers = caller.headers();
     let pairs: Vec<(&str, &str)> = headers.iter().map(|(name, value)| (*name, value.as_str())).collect();
-    body_of(device::send_json(method, url, json.as_deref(), &pairs).await)
+    body_of(device::send_json(method, url, json, &pairs).await)
+}
+
+/// Sends a request with an optional JSON body; the body of a 2xx answer. A reviewer's
+/// change refused for its CSRF token is sent once more after the token is fetched again.
+async fn call(method: &str, url: &str, json: Option<String>, caller: Caller<'_>) -> Result<String, ApiError> {
+    let first = send(method, url, json.as_deref(), caller).await;
+    if matches!(caller, Caller::Reviewer) && method != "GET" && is_csrf_refusal(&first) && session().await.is_ok() {
+        return send(method, url, json.as_deref(), caller).await;
+    }
+    first
 }
 
 /// Sends JSON (as the form part `part`) with photos; the body of a 2xx answer.
@@ -208,6 +255,18 @@ pub async fn nearby(lat: &str, lon: &str) -> Result<NearbyCounts, ApiError> {
     get(&format!("/api/checklist/nearby?lat={lat}&lon={lon}"), Caller::Anyone).await
 }
 
+/// `GET /api/site`: what the operator set for every phone to show.
+#[derive(Debug, Clone, Default, PartialEq, Serialize, Deserialize)]
+pub struct SiteInfo {
+    /// Who to call about a live or stranded animal here, as the operator wrote it.
+    #[serde(default)]
+    pub responders_phone: Option<String>,
+}
+
+pub async fn site() -> Result<SiteInfo, ApiError> {
+    get("/api/site", Caller::Anyone).await
+}
+
 // Figures, for anyone.
 
 /// `GET /api/range?…`: range figures per taxon and period.
@@ -232,13 +291,15 @@ pub async fn trend_chart(query: &str) -> Result<String, ApiError> {
 
 // Reviewers and admins.
 
-/// `GET /api/session`: who is calling.
+/// `GET /api/session`: who is calling, and the session's CSRF token.
 #[derive(Debug, Clone, PartialEq, Deserialize)]
 pub struct Session {
     #[serde(default)]
     pub signed_in: bool,
     #[serde(default)]
     pub role: Option<Role>,
+    #[serde(default)]
+    pub csrf_token: Option<String>,
 }
 
 impl Session {
@@ -248,8 +309,14 @@ impl Session {
     }
 }
 
+/// Who this tab is signed in as; keeps the session's CSRF token for this tab's changes.
 pub async fn session() -> Result<Session, ApiError> {
-    get("/api/session", Caller::Reviewer).await
+    // Sent as it is (never retried): `call` asks the session when a token is missing.
+    let session: Session = read(&send("GET", "/api/session", None, Caller::Reviewer).await?)?;
+    if let Some(token) = &session.csrf_token {
+        local::session_set(CSRF_KEY, token);
+    }
+    Ok(session)
 }
 
 /// `POST /api/session`: signs in, keeping the CSRF token for this tab's later calls.
@@ -301,6 +368,15 @@ impl QueueFilters {
         parts.push(format!("offset={offset}"));
         parts.join("&")
     }
+}
+
+/// " (2 set)" after "Filters" when some are set, so a folded filter box still says so.
+pub fn filters_set_words(filters: &QueueFilters) -> String {
+    let set = [&filters.state, &filters.taxon, &filters.area, &filters.from, &filters.to, &filters.flag]
+        .iter()
+        .filter(|v| !v.trim().is_empty())
+        .count();
+    if set == 0 { String::new() } else { format!(" ({set} set)") }
 }
 
 /// One page of a list, and whether there is more after it.
@@ -431,7 +507,8 @@ mod tests {
     fn a_refusal_says_the_servers_words_and_names_the_field() {
         let refused =
             body_of(answer(422, r#"{"error":"must be at most 90","field":"position.latitude"}"#)).unwrap_err();
-        assert_eq!(refused.to_string(), "position.latitude: must be at most 90");
+        assert_eq!(refused.to_string(), "must be at most 90", "the field goes to the form, not into the words");
+        assert_eq!(refused.field(), Some("position.latitude"));
         assert!(!refused.is_temporary());
         let conflict =
             body_of(answer(409, r#"{"error":"this record was sent before with other content"}"#)).unwrap_err();
@@ -450,10 +527,10 @@ mod tests {
     fn a_proxy_page_or_empty_body_is_not_taken_for_the_servers_words() {
         let page = body_of(answer(502, "<html><body>Bad Gateway</body></html>")).unwrap_err();
         assert_eq!(page, ApiError::Status { status: 502, body: None });
-        assert_eq!(page.to_string(), "the server answered 502");
+        assert_eq!(page.to_string(), "the server cannot be reached just now (code 502)");
         assert!(page.is_temporary());
         let empty = body_of(answer(403, "")).unwrap_err();
-        assert_eq!(empty.to_string(), "the server answered 403");
+        assert_eq!(empty.to_string(), "this is not allowed (code 403)");
         assert!(!empty.is_temporary());
     }
 
@@ -461,7 +538,7 @@ mod tests {
     fn no_answer_at_all_is_a_missing_connection_and_is_tried_again() {
         let lost = body_of(Err("Failed to fetch".to_owned())).unwrap_err();
         assert_eq!(lost, ApiError::NoAnswer("Failed to fetch".to_owned()));
-        assert_eq!(lost.to_string(), "no connection (Failed to fetch)");
+        assert_eq!(lost.to_string(), "no connection to the server", "not the browser's \"Failed to fetch\"");
         assert!(lost.is_temporary());
     }
 
@@ -483,7 +560,7 @@ mod tests {
     fn a_2xx_body_that_is_not_the_answer_type_is_unreadable_and_tried_again() {
         let portal = read::<Receipt>("<html>Sign in to the café wifi</html>").unwrap_err();
         assert!(matches!(portal, ApiError::Unreadable(_)), "{portal:?}");
-        assert!(portal.to_string().starts_with("the server's answer could not be read: "), "{portal}");
+        assert_eq!(portal.to_string(), "the server's answer could not be read (a Wi-Fi sign-in page?)");
         assert!(portal.is_temporary());
         let identity: DeviceIdentity = read(r#"{"token":"abc"}"#).unwrap();
         assert_eq!(identity.token, "abc");
@@ -520,6 +597,14 @@ mod tests {
     }
 
     #[test]
+    fn a_folded_filter_box_says_how_many_filters_are_set() {
+        assert_eq!(filters_set_words(&QueueFilters::default()), "");
+        let two =
+            QueueFilters { taxon: "Rajidae".into(), from: "2025-01-01".into(), flag: " ".into(), ..Default::default() };
+        assert_eq!(filters_set_words(&two), " (2 set)");
+    }
+
+    #[test]
     fn a_page_and_one_more_means_there_is_more() {
         let full = Page::from_answer((0..=QUEUE_PAGE).collect::<Vec<_>>());
         assert_eq!((full.items.len(), full.more), (QUEUE_PAGE, true));
@@ -527,6 +612,18 @@ mod tests {
         let last = Page::from_answer((0..QUEUE_PAGE).collect::<Vec<_>>());
         assert_eq!((last.items.len(), last.more), (QUEUE_PAGE, false));
         assert!(!Page::from_answer(Vec::<u8>::new()).more);
+    }
+
+    #[test]
+    fn only_a_missing_csrf_token_is_worth_sending_again_after_asking_the_session() {
+        // The server's words for it (server/src/handlers/access.rs).
+        let csrf = body_of(answer(403, r#"{"error":"missing or wrong X-CSRF-Token for this sign-in"}"#));
+        assert!(is_csrf_refusal(&csrf));
+        assert!(!is_csrf_refusal(&body_of(answer(403, r#"{"error":"not allowed: admins only"}"#))));
+        assert!(!is_csrf_refusal(&body_of(answer(401, r#"{"error":"your sign-in has ended; sign in again"}"#))));
+        assert!(!is_csrf_refusal(&Ok(String::new())));
+        let session: Session = read(r#"{"signed_in":true,"role":"reviewer","csrf_token":"t0k"}"#).unwrap();
+        assert_eq!(session.csrf_token.as_deref(), Some("t0k"));
     }
 
     #[test]

@@ -26,9 +26,18 @@ pub fn initial_key() -> Arc<Key> {
     Arc::new(Key::new(&current()))
 }
 
-/// Fetches the server's checklist and keeps it for offline use; quietly keeps the
-/// current one when there is no answer or it does not check out.
+thread_local! {
+    static ASKED: std::cell::Cell<bool> = const { std::cell::Cell::new(false) };
+}
+
+/// Fetches the server's checklist and keeps it for offline use, once per page and only
+/// when the key is opened (the first load stays small: the built-in checklist serves
+/// until then); quietly keeps the current one when there is no answer or it does not
+/// check out.
 pub fn refresh_from_server(key: RwSignal<Arc<Key>>) {
+    if ASKED.replace(true) {
+        return;
+    }
     leptos::task::spawn_local(async move {
         let Ok(text) = api::checklist_text().await else { return };
         let Ok(checklist) = Checklist::from_json(&text) else { return };
@@ -49,6 +58,19 @@ pub fn taxon_names(checklist: &Checklist) -> Vec<String> {
         }
     }
     names.into_iter().collect()
+}
+
+/// The preferred common name of a species or group in `checklist`, if it gives one.
+pub fn common_name_in(checklist: &Checklist, scientific_name: &str) -> Option<String> {
+    checklist
+        .taxon(scientific_name)
+        .and_then(|t| t.common_names.first().cloned())
+        .or_else(|| checklist.group_common_name(scientific_name).map(str::to_owned))
+}
+
+/// [`common_name_in`] the checklist the app carries.
+pub fn common_name(scientific_name: &str) -> Option<String> {
+    common_name_in(&current(), scientific_name)
 }
 
 /// Names for the queue's taxon filter, from the checklist the app carries.
@@ -94,6 +116,14 @@ pub(crate) mod tests {
         }
         assert_eq!(names.iter().filter(|n| *n == "Rajidae").count(), 1);
         assert!(names.windows(2).all(|w| w[0] < w[1]), "sorted, without repeats");
+    }
+
+    #[test]
+    fn species_and_groups_have_their_common_names() {
+        let checklist = built_in();
+        assert_eq!(common_name_in(&checklist, "Scyliorhinus stellaris").as_deref(), Some("nursehound"));
+        assert_eq!(common_name_in(&checklist, "Rajidae").as_deref(), Some("skates"));
+        assert_eq!(common_name_in(&checklist, "Felis catus"), None);
     }
 
     #[test]

@@ -22,7 +22,11 @@ extern "C" {
     #[wasm_bindgen(js_name = storageEstimate)]
     fn storage_estimate_js() -> js_sys::Promise;
     #[wasm_bindgen(js_name = currentPosition)]
-    fn current_position_js() -> js_sys::Promise;
+    fn current_position_js(maximum_age_ms: f64) -> js_sys::Promise;
+    #[wasm_bindgen(js_name = canInstall)]
+    fn can_install_js() -> bool;
+    #[wasm_bindgen(js_name = install)]
+    fn install_js() -> js_sys::Promise;
     #[wasm_bindgen(js_name = saveWalk)]
     fn save_walk_js(id: &str, json: &str) -> js_sys::Promise;
     #[wasm_bindgen(js_name = listWalks)]
@@ -128,11 +132,33 @@ pub struct DeviceFix {
     pub longitude: f64,
     /// Metres.
     pub accuracy: f64,
+    /// When the fix was taken, milliseconds since 1970.
+    pub at: f64,
 }
 
+/// A fix no older than a minute (the form opening).
 pub async fn current_position() -> Result<DeviceFix, String> {
-    let value = wait(current_position_js()).await?;
+    position_no_older_than(60_000.0).await
+}
+
+/// A fix taken now, not one the browser kept (saving a find on a walk).
+pub async fn fresh_position() -> Result<DeviceFix, String> {
+    position_no_older_than(0.0).await
+}
+
+async fn position_no_older_than(maximum_age_ms: f64) -> Result<DeviceFix, String> {
+    let value = wait(current_position_js(maximum_age_ms)).await?;
     serde_wasm_bindgen::from_value(value).map_err(|err| err.to_string())
+}
+
+/// Whether the browser has offered to install the app.
+pub fn can_install() -> bool {
+    can_install_js()
+}
+
+/// Shows the browser's install question; true when the observer accepted.
+pub async fn install() -> bool {
+    wait(install_js()).await.ok().and_then(|v| v.as_bool()).unwrap_or(false)
 }
 
 /// The server's answer to an upload.
@@ -165,7 +191,7 @@ pub async fn list_walks() -> Result<Vec<String>, String> {
 }
 
 /// A fix from following the position; `at` is milliseconds since 1970.
-#[derive(Debug, Clone, Copy, Deserialize)]
+#[derive(Debug, Clone, Copy, PartialEq, Deserialize)]
 pub struct TimedFix {
     pub latitude: f64,
     pub longitude: f64,

@@ -6,6 +6,19 @@
 
 use crate::data::api::query_part;
 
+/// The records figures and downloads use unless the reader chooses: the confirmed ones,
+/// as the server's API and command line default (`server::assess::DEFAULT_STATE`).
+pub const DEFAULT_STATE: &str = "confirmed";
+
+/// What a review-state choice means, said under it.
+pub fn state_words(state: &str) -> String {
+    match state {
+        "confirmed" => "Counting confirmed records only: those a reviewer has checked.".to_owned(),
+        "any" => "Counting every stored record, reviewed or not: unconfirmed records may be wrong.".to_owned(),
+        other => format!("Counting records in the state “{}” only.", other.replace('_', " ")),
+    }
+}
+
 /// The download form's choices.
 #[derive(Debug, Clone, PartialEq)]
 pub struct ExportFilters {
@@ -29,7 +42,7 @@ impl Default for ExportFilters {
             from: String::new(),
             to: String::new(),
             area: String::new(),
-            state: "confirmed".into(),
+            state: DEFAULT_STATE.into(),
             full: false,
         }
     }
@@ -77,6 +90,13 @@ mod tests {
         let filters = ExportFilters::default();
         assert_eq!(filters.url(), "/api/export?format=dwca&state=confirmed");
         assert_eq!(filters.file_name(), "wrackline-public.zip");
+    }
+
+    #[test]
+    fn the_state_chosen_is_said_in_words() {
+        assert!(state_words(DEFAULT_STATE).starts_with("Counting confirmed records only"));
+        assert!(state_words("any").contains("reviewed or not"));
+        assert_eq!(state_words("awaiting_review"), "Counting records in the state “awaiting review” only.");
     }
 
     #[test]

@@ -140,6 +140,16 @@ pub fn trend_lines(report: &Value) -> Vec<(&'static str, String)> {
     ]
 }
 
+/// `text` without the sentences that repeat the assessment caveat ("…not a listing
+/// decision…") or the recording caution, which the figures screen says once at the top.
+pub fn without_caveat(text: &str) -> String {
+    let repeats = |sentence: &str| {
+        sentence.contains("not a listing decision")
+            || sentence.trim_start().starts_with("Stranding and landing records show")
+    };
+    text.split_inclusive(". ").filter(|sentence| !repeats(sentence)).collect::<String>().trim().to_owned()
+}
+
 /// The query for range figures: taxon, state and the periods given.
 pub fn range_query(taxon: &str, state: &str, periods: &[String]) -> String {
     let mut query = format!("taxon={}&state={}", query_part(taxon), query_part(state));
@@ -233,6 +243,21 @@ mod tests {
         assert!(lines["Dispersion and model"].ends_with("Student's t with 9 degrees of freedom"));
         assert_eq!(lines["Mann–Kendall (tie-corrected)"], "tau = -0.450, p = 0.0310; Sen's slope -0.5000 per year");
         assert_eq!(lines["Animals recorded per year"], "2015 4, 2016 3");
+    }
+
+    #[test]
+    fn the_caveat_is_taken_out_of_texts_the_screen_says_it_for() {
+        // As the analysis crate words its criterion texts (analysis/src/criteria.rs).
+        let text = "EOO 2450 km² is under the 5,000 km² threshold of B1 for Endangered. Stranding and landing records \
+                    show where people walk, fish and report. These figures are inputs to a threatened-species \
+                    assessment, not a listing decision: the official assessment process weighs them with all other \
+                    evidence and decides.";
+        assert_eq!(without_caveat(text), "EOO 2450 km² is under the 5,000 km² threshold of B1 for Endangered.");
+        assert_eq!(without_caveat("No caveat here."), "No caveat here.");
+        assert_eq!(
+            without_caveat("These figures are inputs to a threatened-species assessment, not a listing decision."),
+            ""
+        );
     }
 
     #[test]

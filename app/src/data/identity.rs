@@ -50,6 +50,27 @@ pub fn skip_profile() {
     local::set(PROFILE_KEY, "skipped");
 }
 
+/// What "About you" says once saved: what was kept and who sees it.
+pub fn saved_words(name: &str, contact: &str) -> String {
+    let named = match name.trim() {
+        "" => "Saved: your records go without a name".to_owned(),
+        name => format!("Saved: your records go as {name}"),
+    };
+    let reach = if contact.trim().is_empty() {
+        "no contact given, so reviewers cannot ask you about a find".to_owned()
+    } else {
+        "reviewers can reach you about your finds; your contact is never published".to_owned()
+    };
+    format!("{named}; {reach}. It goes with the next sync.")
+}
+
+/// The closed card's one line: "Sam · contact given".
+pub fn summary_words(name: &str, contact: &str) -> String {
+    let name = if name.trim().is_empty() { "no name given" } else { name.trim() };
+    let contact = if contact.trim().is_empty() { "no contact" } else { "contact given" };
+    format!("{name} · {contact}")
+}
+
 /// What the observer chose to give, as the server takes it: blank answers left out.
 pub fn profile_request(name: &str, contact: &str) -> DeviceRequest {
     let text = |value: &str| Text::parse(value.trim()).ok().filter(|t| !t.as_str().is_empty());
@@ -58,6 +79,11 @@ pub fn profile_request(name: &str, contact: &str) -> DeviceRequest {
 
 fn profile() -> DeviceRequest {
     profile_request(&observer_name(), &contact())
+}
+
+/// Whether this phone has its identity already.
+pub fn has_token() -> bool {
+    local::get(TOKEN_KEY).is_some()
 }
 
 /// The identity, asking the server for one if this phone has none yet (with the name
@@ -97,6 +123,18 @@ pub async fn send_profile_if_changed(token: &str) -> Option<String> {
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    #[test]
+    fn saving_says_what_was_kept_and_who_sees_it() {
+        assert_eq!(
+            saved_words(" Sam ", "sam@example.org"),
+            "Saved: your records go as Sam; reviewers can reach you about your finds; your contact is never \
+             published. It goes with the next sync."
+        );
+        assert!(saved_words("", "").starts_with("Saved: your records go without a name; no contact given"));
+        assert_eq!(summary_words("Sam", ""), "Sam · no contact");
+        assert_eq!(summary_words(" ", "x"), "no name given · contact given");
+    }
 
     #[test]
     fn blank_answers_are_left_out_of_the_profile() {

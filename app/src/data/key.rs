@@ -7,7 +7,9 @@
 use std::collections::BTreeSet;
 
 use shared_types::{KeyChoice, LengthUnit, Text};
-use species_key::{Answer, AnswerError, Answers, Candidate, Context, Key, Measurement, TaxonRank, TaxonSupport};
+use species_key::{
+    Answer, AnswerError, Answers, Candidate, Context, Key, Measurement, QuestionChoice, TaxonRank, TaxonSupport,
+};
 use wasm_bindgen::prelude::*;
 
 use crate::data::form_fields::FormFields;
@@ -22,6 +24,38 @@ pub const SHOWN_CANDIDATES: usize = 5;
 const TAXA_PER_RANK: usize = 3;
 /// Below this summed probability a higher taxon is offered only when it is the best at its rank.
 const MIN_OFFERED_SUPPORT: f64 = 0.01;
+/// The ranks an observer may stop at above species. Superorders are left off the
+/// observer's screen: few people know them, and "shark" or "ray" is the body-shape question.
+pub const OFFERED_RANKS: [TaxonRank; 3] = [TaxonRank::Genus, TaxonRank::Family, TaxonRank::Order];
+/// The character a person splits on first — shark, flat shark, ray or skate, chimaera —
+/// asked before anything else while nothing is answered, whatever the information gain
+/// says (it may prefer markings, which mean little until the body shape is known).
+pub const FIRST_SPLIT: &str = "bodyForm";
+
+/// The question to ask now: the first split while nothing is answered (if the checklist
+/// has it), then the one the key expects to tell most.
+pub fn next_question(key: &Key, answers: &Answers, context: &Context) -> Option<QuestionChoice> {
+    let nothing_yet = answers.iter().next().is_none();
+    let first = key.checklist().characters().iter().find(|c| c.name == FIRST_SPLIT).filter(|_| nothing_yet);
+    match first {
+        Some(character) => Some(QuestionChoice {
+            character: character.name.clone(),
+            question: character.question.clone(),
+            states: character.states.clone(),
+            expected_gain_bits: 0.0,
+        }),
+        None => key.next_question(answers, context).ok().flatten(),
+    }
+}
+
+/// A group as the observer reads it: "catsharks — family Scyliorhinidae", or the rank
+/// and name alone when the checklist gives no common name.
+pub fn group_label(key: &Key, rank: TaxonRank, scientific_name: &str) -> String {
+    match key.checklist().group_common_name(scientific_name) {
+        Some(common) => format!("{common} — {} {scientific_name}", rank_code(rank)),
+        None => format!("{} {scientific_name}", rank_code(rank)),
+    }
+}
 
 fn number(text: &str) -> Option<f64> {
     text.trim().replace(',', ".").parse::<f64>().ok()
@@ -86,12 +120,12 @@ pub fn set_aside_text(key: &Key, error: &AnswerError) -> String {
     }
 }
 
-/// The genera, families, orders and superorders of the leading candidates, each with
-/// its summed probability over all candidates, most probable first within a rank.
+/// The genera, families and orders of the leading candidates ([`OFFERED_RANKS`]), each
+/// with its summed probability over all candidates, most probable first within a rank.
 pub fn higher_taxa(key: &Key, ranking: &[Candidate]) -> Vec<TaxonSupport> {
     let leading: Vec<_> =
         ranking.iter().take(SHOWN_CANDIDATES).filter_map(|c| key.checklist().taxon(&c.scientific_name)).collect();
-    [TaxonRank::Genus, TaxonRank::Family, TaxonRank::Order, TaxonRank::Superorder]
+    OFFERED_RANKS
         .into_iter()
         .flat_map(|rank| {
             let wanted: BTreeSet<&str> = leading.iter().map(|t| t.name_at(rank)).collect();
@@ -125,10 +159,12 @@ pub fn key_choice(scientific_name: &str, rank: TaxonRank, probability: f64, answ
     })
 }
 
-/// The higher taxon to suggest stopping at, when the best species is not sure enough.
+/// The higher taxon to suggest stopping at, when the best species is not sure enough:
+/// the most specific offered group sure enough ([`SURE_ENOUGH`]).
 pub fn suggested_stop(key: &Key, ranking: &[Candidate]) -> Option<TaxonSupport> {
     let unsure = ranking.first().is_some_and(|top| top.probability < SURE_ENOUGH);
-    unsure.then(|| key.best_supported_taxon(ranking, SURE_ENOUGH)).flatten()
+    // Offered groups come genus first, so the first sure enough is the most specific.
+    unsure.then(|| higher_taxa(key, ranking).into_iter().find(|s| s.probability >= SURE_ENOUGH)).flatten()
 }
 
 /// Time in milliseconds to choose the next question over an invented checklist of
@@ -224,10 +260,43 @@ mod tests {
         in_order.sort_by_key(|r| {
             [TaxonRank::Genus, TaxonRank::Family, TaxonRank::Order, TaxonRank::Superorder].iter().position(|x| x == r)
         });
-        assert_eq!(ranks, in_order, "genera first, superorders last");
+        assert_eq!(ranks, in_order, "genera first, orders last");
+        assert!(!ranks.contains(&TaxonRank::Superorder), "ranks above order stay off the observer's screen");
+        // With the body shape alone only the superorder (rays and skates) is sure; it is
+        // not offered, so nothing is suggested.
+        assert_eq!(suggested_stop(&key, &ranking), None);
+        let skate = Answers::new().with("bodyForm", "rayLike").with("dorsalFins", "two").with("tailSpine", "absent");
+        let ranking = key.rank(&skate, &Context::default()).unwrap();
         assert!(ranking[0].probability < SURE_ENOUGH);
         let stop = suggested_stop(&key, &ranking).expect("a suggested stop");
-        assert!(stop.probability >= SURE_ENOUGH, "{stop:?}");
+        assert!(stop.probability >= SURE_ENOUGH && OFFERED_RANKS.contains(&stop.taxon_rank), "{stop:?}");
+    }
+
+    #[test]
+    fn the_first_question_is_the_body_shape_and_then_the_key_chooses() {
+        let key = key();
+        let context = Context::default();
+        let first = next_question(&key, &Answers::new(), &context).expect("a question");
+        assert_eq!(first.character, FIRST_SPLIT);
+        let labels: Vec<&str> = first.states.iter().map(|s| s.name.as_str()).collect();
+        assert!(labels.contains(&"sharkLike") && labels.contains(&"rayLike") && labels.contains(&"chimaeraLike"));
+        // "Not sure" about the shape counts as an answer: the key picks the next question.
+        let unsure = Answers::new().with_not_sure(FIRST_SPLIT);
+        let next = next_question(&key, &unsure, &context).expect("a question");
+        assert_ne!(next.character, FIRST_SPLIT);
+        assert_eq!(Some(next), key.next_question(&unsure, &context).unwrap());
+    }
+
+    #[test]
+    fn groups_read_with_their_common_names() {
+        let key = key();
+        assert_eq!(group_label(&key, TaxonRank::Family, "Scyliorhinidae"), "catsharks — family Scyliorhinidae");
+        assert_eq!(group_label(&key, TaxonRank::Family, "Rajidae"), "skates — family Rajidae");
+        assert_eq!(
+            group_label(&key, TaxonRank::Genus, "Raja"),
+            "genus Raja",
+            "no common name given: the rank and name"
+        );
     }
 
     #[test]

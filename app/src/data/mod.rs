@@ -7,8 +7,9 @@
 //!   tracks), [`replies`] (answers to reviewers), [`my_records`] (the server's view of the
 //!   observer's records), [`identity`] (the phone's identity and "About you"),
 //!   [`checklist`] and [`nearby`] (what the guided key works from, cached for flight
-//!   mode), [`local`] (localStorage and sessionStorage), [`device`] (typed calls over
-//!   `js/device.js`: IndexedDB, position, photos, requests).
+//!   mode), [`site`] (the operator's responders' number, kept for flight mode), [`local`]
+//!   (localStorage and sessionStorage), [`device`] (typed calls over `js/device.js`:
+//!   IndexedDB, position, photos, requests, the browser's offer to install).
 //! - Sent: [`sync`] (the send loop, backoff and what each answer means) over [`api`] (one
 //!   typed client for every server route the app calls, and its error type).
 //! - Rules and words: [`form_fields`] (the record form's fields and checks), [`photos`]
@@ -33,6 +34,7 @@ pub mod page;
 pub mod photos;
 pub mod readable;
 pub mod replies;
+pub mod site;
 pub mod sync;
 pub mod time;
 pub mod walk_track;

@@ -9,6 +9,7 @@ use serde::{Deserialize, Serialize};
 use shared_types::{MyRecord, Receipt, Submission};
 
 use crate::data::device;
+use crate::data::form_fields::Problem;
 use crate::data::my_records;
 use crate::data::replies::{self, ReplyEntry};
 use crate::data::walks::{self, WalkEntry};
@@ -26,8 +27,13 @@ pub enum SyncState {
     Sent,
     /// The server has stored it.
     Received { receipt: Receipt },
-    /// The server refused it for a reason the observer must fix.
-    Refused { reason: String },
+    /// The server refused it for a reason the observer must fix: its words, and the
+    /// field it named (to show them beside that control when the record is edited).
+    Refused {
+        reason: String,
+        #[serde(default)]
+        field: Option<String>,
+    },
 }
 
 impl SyncState {
@@ -37,7 +43,9 @@ impl SyncState {
             Self::Waiting => "waiting to send".into(),
             Self::Sent => "sent, awaiting the server".into(),
             Self::Received { .. } => "received by the server".into(),
-            Self::Refused { reason } => format!("refused by the server: {reason}"),
+            Self::Refused { reason, field } => {
+                format!("not accepted by the server: {}", Problem::from_server(field.as_deref(), reason).sentence())
+            }
         }
     }
 
@@ -155,7 +163,13 @@ pub async fn load_all() -> Result<Vec<Entry>, String> {
     Ok(entries)
 }
 
-/// Deletes the entry `id` and its photos (a draft the observer discards).
+/// The entry `id` as stored now, if there is one.
+pub async fn find(id: &str) -> Result<Option<Entry>, String> {
+    Ok(load_all().await?.into_iter().find(|e| e.id() == id))
+}
+
+/// Deletes the entry `id` and its photos (a draft, or a record the server did not
+/// accept, that the observer discards).
 pub async fn discard(id: &str) -> Result<(), String> {
     device::delete_entry(id).await
 }
@@ -197,6 +211,8 @@ pub struct Outbox {
     /// The observer's records as the server last described them.
     pub my_records: RwSignal<Vec<MyRecord>>,
     pub status: RwSignal<SyncStatus>,
+    /// The id of a record the server did not accept, opened in the form to be put right.
+    pub editing: RwSignal<Option<String>>,
 }
 
 impl Outbox {
@@ -208,6 +224,7 @@ impl Outbox {
             replies: RwSignal::new(Vec::new()),
             my_records: RwSignal::new(my_records::cached()),
             status: RwSignal::new(SyncStatus::default()),
+            editing: RwSignal::new(None),
         }
     }
 
@@ -232,6 +249,13 @@ impl Outbox {
         if let Ok(list) = replies::load_all().await {
             self.replies.set(list);
         }
+    }
+
+    /// Whether nothing at all is kept on the phone: no record, walk or answer.
+    pub fn holds_nothing(self) -> bool {
+        self.entries.with_untracked(Vec::is_empty)
+            && self.walks.with_untracked(Vec::is_empty)
+            && self.replies.with_untracked(Vec::is_empty)
     }
 
     /// The walk going on now, if any.
@@ -282,11 +306,11 @@ pub async fn storage_room(new_bytes: f64) -> Result<Option<String>, String> {
 #[cfg(test)]
 mod tests {
     use super::*;
-    use crate::data::form_fields::tests::filled;
+    use crate::data::form_fields::tests::{filled, saved_at};
     use crate::data::time::tests::LONDON;
 
     fn entry(sync: SyncState) -> Entry {
-        Entry::new(filled().to_submission(uuid::Uuid::nil(), &LONDON).unwrap(), sync, 2)
+        Entry::new(filled().to_submission(uuid::Uuid::nil(), &LONDON, saved_at()).unwrap(), sync, 2)
     }
 
     fn receipt() -> Receipt {
@@ -304,8 +328,11 @@ mod tests {
             (SyncState::Sent, "sent, awaiting the server", "state waiting", true),
             (SyncState::Received { receipt: receipt() }, "received by the server", "state received", false),
             (
-                SyncState::Refused { reason: "position.latitude: must be at most 90".into() },
-                "refused by the server: position.latitude: must be at most 90",
+                SyncState::Refused {
+                    reason: "the time 2030-01-01 10:00:00 +01:00 is in the future".into(),
+                    field: Some("observed_at".into()),
+                },
+                "not accepted by the server: When: the time 2030-01-01 10:00:00 +01:00 is in the future",
                 "state refused",
                 false,
             ),
@@ -330,7 +357,7 @@ mod tests {
     #[test]
     fn an_unsent_record_goes_on_a_walk_inside_itself_a_sent_one_by_a_link() {
         let walk = uuid::Uuid::from_u128(7);
-        for state in [SyncState::Draft, SyncState::Waiting, SyncState::Refused { reason: "x".into() }] {
+        for state in [SyncState::Draft, SyncState::Waiting, SyncState::Refused { reason: "x".into(), field: None }] {
             let mut unsent = entry(state);
             unsent.put_on_walk(walk);
             assert_eq!((unsent.submission.walk_client_id, unsent.walk_link_pending), (Some(walk), None));
@@ -347,10 +374,10 @@ mod tests {
     #[test]
     fn an_attempt_keeps_the_reason_to_retry_and_a_receipt_clears_it() {
         let mut record = entry(SyncState::Sent);
-        record.note_attempt(SyncState::Waiting, Some("no connection (Failed to fetch)".into()));
+        record.note_attempt(SyncState::Waiting, Some("no connection to the server".into()));
         assert_eq!(record.sync, SyncState::Waiting);
-        assert_eq!(record.problem_shown(), Some("no connection (Failed to fetch)"));
-        let refused = SyncState::Refused { reason: "count: must be between 1 and 10000".into() };
+        assert_eq!(record.problem_shown(), Some("no connection to the server"));
+        let refused = SyncState::Refused { reason: "must be between 1 and 10000".into(), field: Some("count".into()) };
         let mut refused_record = record.clone();
         refused_record.note_attempt(refused.clone(), None);
         assert_eq!(refused_record.sync, refused);
@@ -395,8 +422,8 @@ mod tests {
         let waiting = SyncStatus {
             running: false,
             next_retry: Some(Duration::from_secs(8)),
-            last_problem: Some("no connection (Failed to fetch)".into()),
+            last_problem: Some("no connection to the server".into()),
         };
-        assert_eq!(waiting.words(), "no connection (Failed to fetch); trying again in 8 s");
+        assert_eq!(waiting.words(), "no connection to the server; trying again in 8 s");
     }
 }

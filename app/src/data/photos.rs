@@ -122,20 +122,21 @@ fn cannot_prepare(name: &str, detail: &str) -> String {
     )
 }
 
-/// "photo says: 2025-06-01 14:05:09 (+01:00, its own) · 52.41530, -4.08290 ±7 m".
+/// "photo says: 2025-06-01 14:05:09 (UTC+01:00, the camera's own time zone) · 52.41530,
+/// -4.08290 within 7 m".
 pub fn photo_says(exif: &PhotoExif) -> String {
     let when = match (&exif.taken_at, &exif.offset_source) {
         (Some(at), Some(shared_types::OffsetSource::Photo)) => {
-            format!("{} ({}, its own offset)", at.format("%Y-%m-%d %H:%M:%S"), at.offset())
+            format!("{} (UTC{}, the camera's own time zone)", at.format("%Y-%m-%d %H:%M:%S"), at.offset())
         }
         (Some(at), _) => {
-            format!("{} ({}, this phone's offset on that date)", at.format("%Y-%m-%d %H:%M:%S"), at.offset())
+            format!("{} (UTC{}, this phone's time zone on that date)", at.format("%Y-%m-%d %H:%M:%S"), at.offset())
         }
         (None, _) => "no time".to_owned(),
     };
     let place = match (exif.latitude, exif.longitude) {
         (Some(lat), Some(lon)) => {
-            let error = exif.horizontal_error_m.map(|e| format!(" ±{e:.0} m")).unwrap_or_default();
+            let error = exif.horizontal_error_m.map(|e| format!(" within {e:.0} m")).unwrap_or_default();
             format!("{lat:.5}, {lon:.5}{error}")
         }
         _ => "no position".to_owned(),
@@ -167,7 +168,7 @@ mod tests {
         assert_eq!(resolved.offset_source, Some(shared_types::OffsetSource::Device));
         assert_eq!(
             photo_says(&resolved),
-            "photo says: 2025-03-29 14:00:00 (+00:00, this phone's offset on that date) · no position"
+            "photo says: 2025-03-29 14:00:00 (UTC+00:00, this phone's time zone on that date) · no position"
         );
     }
 
@@ -181,7 +182,7 @@ mod tests {
             PhotoExif { latitude: Some(52.4153), longitude: Some(-4.0829), horizontal_error_m: Some(7.0), ..resolved };
         assert_eq!(
             photo_says(&placed),
-            "photo says: 2025-06-01 14:05:09 (+02:00, its own offset) · 52.41530, -4.08290 ±7 m"
+            "photo says: 2025-06-01 14:05:09 (UTC+02:00, the camera's own time zone) · 52.41530, -4.08290 within 7 m"
         );
     }
 

@@ -96,6 +96,11 @@ fn finish_round(problem: Option<String>, outbox: Outbox) {
 /// record's walk is usually there before it); returns the first problem that calls for
 /// a retry, if any.
 async fn round(outbox: Outbox) -> Option<String> {
+    // A phone that has sent nothing yet and has nothing to send asks for no identity: a
+    // visit that records nothing leaves nothing on the server (and costs no requests).
+    if !identity::has_token() && outbox.holds_nothing() {
+        return None;
+    }
     // Without its identity the phone sends nothing, so that every record is its own.
     let token = match identity::ensure_token().await {
         Ok(token) => token,
@@ -123,7 +128,7 @@ pub fn record_state_after(outcome: Result<Receipt, ApiError>) -> (SyncState, Opt
     match outcome {
         Ok(receipt) => (SyncState::Received { receipt }, None),
         Err(err) if err.is_temporary() => (SyncState::Waiting, Some(err.to_string())),
-        Err(err) => (SyncState::Refused { reason: err.to_string() }, None),
+        Err(err) => (SyncState::Refused { reason: err.to_string(), field: err.field().map(str::to_owned) }, None),
     }
 }
 
@@ -284,19 +289,25 @@ mod tests {
     fn a_refusal_keeps_the_servers_message_and_is_not_retried() {
         let (state, retry) =
             record_state_after(Err(status(422, Some(("must be at most 90", Some("position.latitude"))))));
-        assert_eq!(state, SyncState::Refused { reason: "position.latitude: must be at most 90".into() });
+        assert_eq!(
+            state,
+            SyncState::Refused { reason: "must be at most 90".into(), field: Some("position.latitude".into()) }
+        );
         assert_eq!(retry, None);
-        assert_eq!(state.label(), "refused by the server: position.latitude: must be at most 90");
+        assert_eq!(state.label(), "not accepted by the server: Latitude: must be at most 90");
         assert!(!state.wants_sending());
         let (state, _) = record_state_after(Err(status(413, None)));
-        assert_eq!(state, SyncState::Refused { reason: "the server answered 413".into() });
+        assert_eq!(
+            state,
+            SyncState::Refused { reason: "this is too large for the server (code 413)".into(), field: None }
+        );
     }
 
     #[test]
     fn no_answer_a_timeout_a_rate_limit_or_a_server_fault_puts_it_back_to_waiting() {
         let cases = [
-            (ApiError::NoAnswer("Failed to fetch".into()), "no connection (Failed to fetch)"),
-            (status(408, None), "the server answered 408"),
+            (ApiError::NoAnswer("Failed to fetch".into()), "no connection to the server"),
+            (status(408, None), "the server took too long to answer (code 408)"),
             (
                 status(429, Some(("too many requests; try again in a minute", None))),
                 "too many requests; try again in a minute",
@@ -305,10 +316,10 @@ mod tests {
                 status(500, Some(("the server could not finish this request; try again later", None))),
                 "the server could not finish this request; try again later",
             ),
-            (status(503, None), "the server answered 503"),
+            (status(503, None), "the server cannot be reached just now (code 503)"),
             (
                 ApiError::Unreadable("expected value at line 1 column 1".into()),
-                "the server's answer could not be read: expected value at line 1 column 1",
+                "the server's answer could not be read (a Wi-Fi sign-in page?)",
             ),
         ];
         for (err, shown) in cases {
@@ -334,7 +345,10 @@ mod tests {
         };
         assert_eq!(walk_state_after(Ok(walk_receipt.clone())), (WalkState::Received { receipt: walk_receipt }, None));
         let (state, retry) = walk_state_after(Err(status(502, None)));
-        assert_eq!((state, retry.as_deref()), (WalkState::Waiting, Some("the server answered 502")));
+        assert_eq!(
+            (state, retry.as_deref()),
+            (WalkState::Waiting, Some("the server cannot be reached just now (code 502)"))
+        );
         let (state, retry) = walk_state_after(Err(status(403, Some(("this walk belongs to another phone", None)))));
         assert_eq!((state, retry), (WalkState::Refused { reason: "this walk belongs to another phone".into() }, None));
     }

@@ -43,6 +43,29 @@ pub fn parse_input(zone: &impl Zone, text: &str) -> Option<DateTime<FixedOffset>
     offset_at(zone, &local).from_local_datetime(&local).single()
 }
 
+/// An instant as a `datetime-local` value in the zone's local time (the offset the zone
+/// has at that moment, so a photo from before a daylight-saving change reads as the
+/// clock on the wall read then).
+pub fn input_value_at(zone: &impl Zone, at: &DateTime<FixedOffset>) -> String {
+    let utc = at.naive_utc();
+    let shift = |offset: FixedOffset| utc + chrono::Duration::seconds(i64::from(offset.local_minus_utc()));
+    let guess = shift(offset_at(zone, &utc));
+    shift(offset_at(zone, &guess)).format(INPUT_FORMAT).to_string()
+}
+
+/// A span of time as people say it: "5 min", "2 h 40 min", "3 days".
+pub fn span_words(span: chrono::Duration) -> String {
+    let minutes = span.num_minutes().max(0);
+    match minutes {
+        0..60 => format!("{minutes} min"),
+        60..2880 => match minutes % 60 {
+            0 => format!("{} h", minutes / 60),
+            rest => format!("{} h {rest} min", minutes / 60),
+        },
+        _ => format!("{} days", minutes / 1440),
+    }
+}
+
 /// "UTC+01:00": the offset a typed time will be kept with; empty while it is not a time.
 pub fn offset_label(zone: &impl Zone, text: &str) -> String {
     NaiveDateTime::parse_from_str(text, INPUT_FORMAT)
@@ -132,6 +155,27 @@ pub(crate) mod tests {
     fn the_label_names_the_offset_a_typed_time_will_get() {
         assert_eq!(offset_label(&LONDON, "2025-03-29T23:30"), "UTC+00:00");
         assert_eq!(offset_label(&LONDON, "2025-03-30T23:30"), "UTC+01:00");
+    }
+
+    #[test]
+    fn an_instant_reads_as_the_wall_clock_of_its_own_date() {
+        // A photo taken at 13:00 UTC on 29 March 2025 (GMT, before the change on the 30th)
+        // reads 13:00 in London; the same UTC time on 1 June reads 14:00 (BST).
+        let winter = DateTime::parse_from_rfc3339("2025-03-29T13:00:00Z").unwrap();
+        assert_eq!(input_value_at(&LONDON, &winter), "2025-03-29T13:00");
+        let summer = DateTime::parse_from_rfc3339("2025-06-01T11:00:00-02:00").unwrap();
+        assert_eq!(input_value_at(&LONDON, &summer), "2025-06-01T14:00");
+        assert_eq!(parse_input(&LONDON, &input_value_at(&LONDON, &summer)), Some(summer));
+    }
+
+    #[test]
+    fn spans_read_in_minutes_hours_or_days() {
+        let minutes = chrono::Duration::minutes;
+        assert_eq!(span_words(minutes(5)), "5 min");
+        assert_eq!(span_words(minutes(160)), "2 h 40 min");
+        assert_eq!(span_words(minutes(120)), "2 h");
+        assert_eq!(span_words(minutes(3 * 1440 + 7)), "3 days");
+        assert_eq!(span_words(minutes(-3)), "0 min");
     }
 
     #[test]

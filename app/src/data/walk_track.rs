@@ -12,6 +12,12 @@ use crate::data::walks::{self, track_point};
 
 thread_local! {
     static WATCH: std::cell::Cell<Option<i32>> = const { std::cell::Cell::new(None) };
+    static LATEST: std::cell::Cell<Option<device::TimedFix>> = const { std::cell::Cell::new(None) };
+}
+
+/// The latest fix the walk's position watch reported (any accuracy), if a walk is followed.
+pub fn latest_fix() -> Option<device::TimedFix> {
+    WATCH.get().and(LATEST.get())
 }
 
 /// Follows the position for the walk going on, adding fixes to its track; `note` says
@@ -22,12 +28,13 @@ pub fn follow(outbox: Outbox, note: RwSignal<String>) {
     }
     let id = device::watch_position(
         move |fix| {
+            LATEST.set(Some(fix));
             let Some(point) = track_point(fix, time::now().offset()) else { return };
             if fix.accuracy > shared_types::MAX_FIX_ACCURACY_M {
-                note.set(format!("position too rough (±{:.0} m), waiting for a better fix", fix.accuracy));
+                note.set(format!("position too rough (within {:.0} m only), waiting for a better one", fix.accuracy));
                 return;
             }
-            note.set(format!("position ±{:.0} m", fix.accuracy));
+            note.set(format!("position known to within {:.0} m", fix.accuracy));
             let Some(mut walk) = outbox.walk_going_on() else { return };
             if walk.fix_is_due(point.at) {
                 walk.track.push(point);
@@ -48,4 +55,5 @@ pub fn stop_following() {
     if let Some(id) = WATCH.take() {
         device::stop_watching(id);
     }
+    LATEST.set(None);
 }

@@ -41,7 +41,7 @@ impl WalkState {
             Self::Waiting => "waiting to send".into(),
             Self::Sent => "sent, awaiting the server".into(),
             Self::Received { .. } => "received by the server".into(),
-            Self::Refused { reason } => format!("refused by the server: {reason}"),
+            Self::Refused { reason } => format!("not accepted by the server: {reason}"),
         }
     }
 

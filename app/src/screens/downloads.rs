@@ -51,6 +51,7 @@ pub fn ExportSection() -> impl IntoView {
                     <option value="any">"all, reviewed or not"</option>
                     <option value="awaiting_review">"awaiting review"</option>
                 </select></label>
+                <p id="export-state-words" class="hint">{move || crate::data::downloads::state_words(&filters.with(|f| f.state.clone()))}</p>
                 {full_choice}
             </div>
             <a id="export-download" class="button primary" href=move || filters.with(|f| f.url()) download=move || filters.with(|f| f.file_name())>"Download"</a>

@@ -4,20 +4,21 @@
 //! with its unit) for up to two periods side by side with the change, the criterion B
 //! and A texts, the trend's rate of change with its interval, the change over the
 //! assessment window and how the window was chosen, the dispersion and model, the
-//! Mann–Kendall test and Sen's slope — with the server's map and chart, the cautions that
-//! go with them, and the downloads below. Needs a connection.
+//! Mann–Kendall test and Sen's slope — with the server's map and chart, the caution that
+//! goes with them said once at the top, and the downloads below. Figures and downloads
+//! count confirmed records unless the reader chooses otherwise. Needs a connection.
 
 use leptos::prelude::*;
 use serde_json::Value;
 
 use crate::data::api;
-use crate::data::figures::{range_query, range_rows, trend_lines, trend_query};
+use crate::data::figures::{range_query, range_rows, trend_lines, trend_query, without_caveat};
 use crate::screens::downloads::ExportSection;
 
 fn range_view(report: &Value) -> AnyView {
     let Some(taxon) = report["taxa"].get(0) else {
         let used = report["records_used"].as_str().unwrap_or("").to_owned();
-        return view! { <p id="range-empty" class="hint">{format!("No records with a position to work from ({used}). Records count once reviewers confirm them; choose \"all, reviewed or not\" to see every stored record.")}</p> }.into_any();
+        return view! { <p id="range-empty" class="hint">{format!("No records with a position to work from ({used}). Records count once reviewers confirm them; choose \"all, reviewed or not\" under Records to see every stored record.")}</p> }.into_any();
     };
     let (headers, rows) = range_rows(taxon);
     let has_change = taxon["changes"].get(0).is_some();
@@ -31,7 +32,7 @@ fn range_view(report: &Value) -> AnyView {
         })
         .collect_view();
     let criterion_b = taxon["periods"].as_array().cloned().unwrap_or_default().into_iter().filter_map(|p| {
-        let text = p["figures"]["criterion_b"]["text"].as_str()?.to_owned();
+        let text = without_caveat(p["figures"]["criterion_b"]["text"].as_str()?);
         let raised = p["figures"]["eoo_raised_to_aoo"].as_bool() == Some(true);
         let period = p["period"].as_str().unwrap_or("").to_owned();
         Some(view! { <li><b>{period}</b>": "{text}{raised.then_some(" EOO was raised to the AOO because the hull is smaller (IUCN Guidelines §4.9).")}</li> })
@@ -71,7 +72,7 @@ fn trend_view(report: &Value) -> AnyView {
         .collect_view();
     let first = report["trend"]["first_year"].to_string();
     let last = report["trend"]["last_year"].to_string();
-    let criterion_a = report["trend"]["criterion_a"]["text"].as_str().unwrap_or("").to_owned();
+    let criterion_a = without_caveat(report["trend"]["criterion_a"]["text"].as_str().unwrap_or(""));
     view! {
         <h3>{format!("Trend {first}–{last}")}</h3>
         <dl id="trend-figures">{lines}</dl>
@@ -87,7 +88,7 @@ type Shown = Result<Value, String>;
 #[component]
 pub fn FiguresScreen() -> impl IntoView {
     let taxon = RwSignal::new("Scyliorhinus canicula".to_owned());
-    let state = RwSignal::new("any".to_owned());
+    let state = RwSignal::new(crate::data::downloads::DEFAULT_STATE.to_owned());
     let first_period = RwSignal::new(String::new());
     let second_period = RwSignal::new(String::new());
     let generation = RwSignal::new(String::new());
@@ -109,7 +110,8 @@ pub fn FiguresScreen() -> impl IntoView {
                     .and_then(|r| r["cautions"].as_array().cloned())
                     .unwrap_or_default()
                     .into_iter()
-                    .filter_map(|c| c.as_str().map(str::to_owned))
+                    .filter_map(|c| c.as_str().map(without_caveat))
+                    .filter(|c| !c.is_empty())
                     .collect(),
             );
             range.set(found);
@@ -134,12 +136,14 @@ pub fn FiguresScreen() -> impl IntoView {
     view! {
         <section class="card figures">
             <h2>"Range and trend"</h2>
+            <p id="figures-caveat" class="caution">"These figures are inputs to a threatened-species assessment, not a listing decision: the official assessment process weighs them with all other evidence."</p>
             <div class="stack">
                 <label>"Taxon (species, genus, family…)" <input id="figures-taxon" prop:value=move || taxon.get() on:input=move |ev| taxon.set(event_target_value(&ev)) /></label>
                 <label>"Records" <select id="figures-state" prop:value=move || state.get() on:change=move |ev| state.set(event_target_value(&ev))>
                     <option value="confirmed">"confirmed only"</option>
                     <option value="any">"all, reviewed or not"</option>
                 </select></label>
+                <p id="figures-state-words" class="hint">{move || crate::data::downloads::state_words(&state.get())}</p>
                 <div class="row">
                     <label>"First period" <input id="figures-period-1" placeholder="e.g. 2015-2019" inputmode="numeric" prop:value=move || first_period.get() on:input=move |ev| first_period.set(event_target_value(&ev)) /></label>
                     <label>"Second period" <input id="figures-period-2" placeholder="e.g. 2020-2024" inputmode="numeric" prop:value=move || second_period.get() on:input=move |ev| second_period.set(event_target_value(&ev)) /></label>
@@ -151,10 +155,11 @@ pub fn FiguresScreen() -> impl IntoView {
             <h3>"Where: records, hull (EOO) and occupied 2 × 2 km cells (AOO)"</h3>
             {figure(map, "range-map")}
             {shown(trend, trend_view, "trend-section")}
-            <h3>"Encounter rate by year, with the fitted trend and its 95% band"</h3>
+            <h3>"Encounter rate by year"</h3>
+            <p class="hint">"Animals per km walked on walks where every find was reported (per year where no such walk is stored), with the fitted trend and its 95% band."</p>
             {figure(chart, "trend-chart")}
             <ul id="figure-cautions" class="cautions">{caution_list}</ul>
-            <p class="caution">"These figures are inputs to a threatened-species assessment, not a listing decision: the official assessment process weighs them with all other evidence. Stranding and landing records show where people walk, fish and report, and where currents carry carcasses; a gap in the records is not a gap in the range."</p>
+            <p class="hint">"Stranding and landing records show where people walk, fish and report, and where currents carry carcasses; a gap in the records is not a gap in the range."</p>
         </section>
         <ExportSection />
     }

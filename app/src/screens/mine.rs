@@ -1,6 +1,8 @@
 //! "My records": the observer's records as the server last described them (readable
-//! offline), the reviewers' messages, and a way to answer with text and photos that
-//! goes through the outbox like a record.
+//! offline), each review state in the observer's words (with a reviewer's reason), the
+//! current name with its common name, the reviewers' messages, and a way to answer with
+//! text and photos that goes through the outbox like a record. A record with a question
+//! waiting is marked, and opens its answer box.
 
 use leptos::prelude::*;
 use shared_types::{MyRecord, Role};
@@ -8,18 +10,14 @@ use shared_types::{MyRecord, Role};
 use crate::data::outbox::Outbox;
 use crate::data::photos::{self, PickedPhoto};
 use crate::data::replies::{self, ReplyEntry, ReplyState};
-use crate::data::sync;
-
-fn state_label(record: &MyRecord) -> String {
-    record.record.review_state.label().to_owned()
-}
+use crate::data::{checklist, my_records, sync};
 
 /// The observer's records with the reviewers' messages, and a way to answer.
 #[component]
 pub fn MyRecords(outbox: Outbox) -> impl IntoView {
     view! {
         <section class="card my-records">
-            <h2>"My records"</h2>
+            <h2 id="my-records-heading">"My records"</h2>
             <p class="hint">"As the reviewers last saw them; updated each time this phone syncs."</p>
             <ul id="my-records">
                 {move || outbox.my_records.get().into_iter().map(|record| view! { <MyRecordItem record=record outbox=outbox /> }).collect_view()}
@@ -31,11 +29,9 @@ pub fn MyRecords(outbox: Outbox) -> impl IntoView {
 #[component]
 fn MyRecordItem(record: MyRecord, outbox: Outbox) -> impl IntoView {
     let client_id = record.record.submission.client_id;
-    let what = record
-        .current_taxon
-        .clone()
-        .or_else(|| record.record.submission.species_guess.as_ref().map(|g| g.as_str().to_owned()))
-        .unwrap_or_else(|| "unnamed animal".into());
+    let what = my_records::name_shown(&record, checklist::common_name);
+    let (state_label, state_meaning) = my_records::state_words(&record);
+    let waits = outbox.replies.with_untracked(|r| my_records::question_waits(&record, r));
     let when = record.record.submission.observed_at.format("%Y-%m-%d").to_string();
     let answer = RwSignal::new(String::new());
     let picked = RwSignal::new_local(Vec::<PickedPhoto>::new());
@@ -88,6 +84,7 @@ fn MyRecordItem(record: MyRecord, outbox: Outbox) -> impl IntoView {
     // An answer when a reviewer has asked something; otherwise more detail, unasked.
     let asked = record.messages.iter().any(|m| m.author_role != Role::Observer);
     let add_label = if asked { "Answer the reviewer" } else { "Add a note or photo for the reviewers" };
+    let item_class = if waits { "my-record asked" } else { "my-record" };
     let messages = record
         .messages
         .iter()
@@ -100,10 +97,12 @@ fn MyRecordItem(record: MyRecord, outbox: Outbox) -> impl IntoView {
         })
         .collect_view();
     view! {
-        <li class="my-record" data-client-id=client_id.to_string()>
-            <div><b>{what}</b>" · "{when}" · "<span class="review-state">{state_label(&record)}</span></div>
+        <li class=item_class data-client-id=client_id.to_string()>
+            <div><b class="record-name">{what}</b>" · "{when}" · "<span class="review-state">{state_label}</span></div>
+            <p class="hint state-meaning">{state_meaning}</p>
+            {waits.then(|| view! { <p class="asked-flag"><span class="badge">"?"</span>" A reviewer asked you something:"</p> })}
             <ul class="messages">{messages}</ul>
-            <details class="answer">
+            <details class="answer" prop:open=waits>
                 <summary>{add_label}</summary>
                 <textarea class="answer-text" rows="2" prop:value=move || answer.get() on:input=move |ev| answer.set(event_target_value(&ev))></textarea>
                 <label class="button small">"Add photo"

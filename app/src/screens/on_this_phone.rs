@@ -1,6 +1,6 @@
 //! "On this phone": the records kept on the phone with their sync states and the
-//! last problem, "Send now", and for each record: send or discard a draft, or add it
-//! to a walk.
+//! last problem, "Send now", and for each record: send or discard a draft, edit and
+//! send again or discard one the server did not accept, or add it to a walk.
 
 use leptos::prelude::*;
 
@@ -43,6 +43,8 @@ pub fn OnThisPhone(outbox: Outbox) -> impl IntoView {
                     let state = entry.sync.clone();
                     let id = entry.id();
                     let is_draft = state == SyncState::Draft;
+                    let is_refused = matches!(state, SyncState::Refused { .. });
+                    let (edit_id, refused_id) = (id.clone(), id.clone());
                     let draft_id = id.clone();
                     let queue_id = id.clone();
                     let walk_id = id.clone();
@@ -53,6 +55,10 @@ pub fn OnThisPhone(outbox: Outbox) -> impl IntoView {
                             <span class=state.css_class()>{state.label()}</span>
                             {entry.problem_shown().map(|e| view! { <span class="hint">{e.to_owned()}</span> })}
                             {on_walk.then(|| view! { <span class="hint walk-link">"on a survey walk"</span> })}
+                            <Show when=move || is_refused>
+                                <button type="button" class="small edit-refused" on:click={let id = edit_id.clone(); move |_| outbox.editing.set(Some(id.clone()))}>"Edit and send again"</button>
+                                <button type="button" class="small discard-refused" on:click={let id = refused_id.clone(); move |_| discard(id.clone())}>"Discard"</button>
+                            </Show>
                             <Show when=move || is_draft>
                                 <button type="button" class="small" on:click={let id = queue_id.clone(); move |_| queue(id.clone())}>"Send"</button>
                                 <button type="button" class="small" on:click={let id = draft_id.clone(); move |_| discard(id.clone())}>"Discard"</button>

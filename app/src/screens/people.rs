@@ -72,6 +72,8 @@ pub fn PeopleScreen() -> impl IntoView {
     let events = RwSignal::new(Vec::<PersonEvent>::new());
     let problem = RwSignal::new(String::new());
     let note = RwSignal::new(String::new());
+    let add_note = RwSignal::new(String::new());
+    let add_problem = RwSignal::new(String::new());
     let form = RwSignal::new((String::new(), String::new(), String::new(), "reviewer".to_owned()));
     let reload = move || {
         leptos::task::spawn_local(async move {
@@ -87,14 +89,18 @@ pub fn PeopleScreen() -> impl IntoView {
     reload();
     let add = move |_| {
         let (username, display_name, password, role) = form.get_untracked();
+        let added =
+            format!("{username} was added as {role}. Give them their password in person; they sign in under Review.");
         leptos::task::spawn_local(async move {
             match api::add_person(username, display_name, password, role).await {
                 Ok(()) => {
                     form.set((String::new(), String::new(), String::new(), "reviewer".into()));
-                    problem.set(String::new());
+                    add_problem.set(String::new());
+                    note.set(added.clone());
+                    add_note.set(added);
                     reload();
                 }
-                Err(err) => problem.set(err.to_string()),
+                Err(err) => add_problem.set(err.to_string()),
             }
         });
     };
@@ -121,6 +127,8 @@ pub fn PeopleScreen() -> impl IntoView {
                     </select></label>
                 </div>
                 <button id="add-person" type="button" class="primary" on:click=add>"Add"</button>
+                <p id="add-problem" class="problems" role="alert">{move || add_problem.get()}</p>
+                <p id="add-note" class="hint" role="status">{move || add_note.get()}</p>
             </fieldset>
             <h3>"Changes to sign-ins"</h3>
             <ol id="people-events">

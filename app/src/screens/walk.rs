@@ -72,7 +72,7 @@ pub fn WalkBar(outbox: Outbox) -> impl IntoView {
                     view! {
                         <div id="walk-active">
                             <p><b>{format!("Survey walk: {}", walk.title())}</b></p>
-                            <p id="walk-progress">{format!("{minutes} min · {:.2} km · {} fixes kept", walk.kilometres(), walk.track.len())}</p>
+                            <p id="walk-progress">{format!("{minutes} min · {:.2} km · {} points on the route so far", walk.kilometres(), walk.track.len())}</p>
                             <p class="hint">{if walk.all_finds_reported { "You are reporting every shark, ray, skate and egg case you find." } else { "Not every find will be reported on this walk." }}</p>
                             <p class="hint">"Records you make now are linked to this walk. Keep the app open to record the route."</p>
                             <button id="end-walk" type="button" class="primary" on:click=end>"End walk"</button>

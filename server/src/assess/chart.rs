@@ -18,6 +18,9 @@ const LEFT: f64 = 64.0;
 const RIGHT: f64 = 24.0;
 const TOP: f64 = 56.0;
 const BOTTOM: f64 = 96.0;
+/// Where the captions under the chart start: near the left edge, so a long interval
+/// still fits the drawing's width.
+const CAPTION_X: f64 = 12.0;
 
 /// The fitted line and its band: (year, rate, lower, upper) at many points along the years.
 pub fn fitted_band(years: &[YearCount], trend: &TrendSummary) -> Vec<(f64, f64, f64, f64)> {
@@ -60,7 +63,8 @@ pub fn covariance(years: &[YearCount], trend: &TrendSummary, mean_year: f64) -> 
 }
 
 /// The chart as a complete SVG document.
-pub fn trend_chart(title: &str, years: &[YearCount], trend: &TrendSummary) -> String {
+/// `rate` says what the points are ("Animals per km walked each year").
+pub fn trend_chart(title: &str, rate: &str, years: &[YearCount], trend: &TrendSummary) -> String {
     let band = fitted_band(years, trend);
     let rates: Vec<(f64, f64)> = years.iter().map(|y| (f64::from(y.year), y.count as f64 / y.effort)).collect();
     let top = rates.iter().map(|r| r.1).chain(band.iter().map(|b| b.3)).fold(0.0_f64, f64::max).max(1e-9) * 1.1;
@@ -73,8 +77,9 @@ pub fn trend_chart(title: &str, years: &[YearCount], trend: &TrendSummary) -> St
         "<svg xmlns=\"http://www.w3.org/2000/svg\" width=\"{WIDTH}\" height=\"{HEIGHT}\" viewBox=\"0 0 {WIDTH} {HEIGHT}\" font-family=\"system-ui, sans-serif\" font-size=\"12\">\n\
          <rect width=\"100%\" height=\"100%\" fill=\"#fbfaf6\"/>\n\
          <text x=\"{LEFT}\" y=\"24\" font-size=\"17\" font-weight=\"600\" fill=\"#1f2a36\">{}</text>\n\
-         <text x=\"{LEFT}\" y=\"42\" fill=\"#4a5561\">Encounter rate per unit effort each year, fitted Poisson trend and its 95% interval</text>\n",
-        escape(title)
+         <text x=\"{LEFT}\" y=\"42\" fill=\"#4a5561\">{}, fitted Poisson trend and its 95% interval</text>\n",
+        escape(title),
+        escape(rate)
     );
     let tick_step = nice_step(top / 4.0);
     let ticks = (top / tick_step).floor() as i32;
@@ -121,7 +126,13 @@ pub fn trend_chart(title: &str, years: &[YearCount], trend: &TrendSummary) -> St
             py(*rate)
         );
     }
-    let percent = |x: f64| format!("{:+.1}%", 100.0 * x);
+    // A short series extrapolated over a long window can give absurd percentages: past
+    // ±10,000% they are said in words, so the caption stays readable and on the drawing.
+    let percent = |x: f64| match 100.0 * x {
+        p if p > 10_000.0 => "over +10,000%".to_owned(),
+        p if p < -10_000.0 => "below −10,000%".to_owned(),
+        p => format!("{p:+.1}%"),
+    };
     let summary = format!(
         "Change {} a year (95% interval {} to {}), Pearson dispersion {:.2}.",
         percent(trend.annual_change.estimate),
@@ -139,9 +150,9 @@ pub fn trend_chart(title: &str, years: &[YearCount], trend: &TrendSummary) -> St
     );
     let _ = write!(
         svg,
-        "<text x=\"{LEFT}\" y=\"{:.0}\" fill=\"#1f2a36\">{}</text>\n\
-         <text x=\"{LEFT}\" y=\"{:.0}\" fill=\"#1f2a36\">{}</text>\n\
-         <text x=\"{LEFT}\" y=\"{:.0}\" fill=\"#8a4b2d\">Inputs to an assessment, not a listing decision; a change in records can be a change in effort or reporting.</text>\n</svg>\n",
+        "<text x=\"{CAPTION_X}\" y=\"{:.0}\" font-size=\"11\" fill=\"#1f2a36\">{}</text>\n\
+         <text x=\"{CAPTION_X}\" y=\"{:.0}\" font-size=\"11\" fill=\"#1f2a36\">{}</text>\n\
+         <text class=\"caveat\" x=\"{CAPTION_X}\" y=\"{:.0}\" font-size=\"11\" fill=\"#8a4b2d\">Inputs to an assessment, not a listing decision; a change in records can be a change in effort or reporting.</text>\n</svg>\n",
         HEIGHT - 56.0,
         escape(&summary),
         HEIGHT - 38.0,

@@ -19,7 +19,7 @@ const COASTLINE: &str = include_str!("../../assets/coastline-irish-sea.geojson")
 const PANEL: f64 = 420.0;
 const MARGIN: f64 = 16.0;
 const HEADER: f64 = 54.0;
-const FOOTER: f64 = 92.0;
+const FOOTER: f64 = 128.0;
 
 /// Projected bounds in metres: west, south, east, north.
 #[derive(Debug, Clone, Copy)]
@@ -74,7 +74,7 @@ pub fn taxon_map(taxon: &TaxonRange, grid: &AooGrid) -> String {
         "<svg xmlns=\"http://www.w3.org/2000/svg\" width=\"{width:.0}\" height=\"{height:.0}\" viewBox=\"0 0 {width:.0} {height:.0}\" \
          font-family=\"system-ui, sans-serif\" font-size=\"12\">\n<rect width=\"100%\" height=\"100%\" fill=\"#fbfaf6\"/>\n\
          <text x=\"{MARGIN}\" y=\"24\" font-size=\"17\" font-weight=\"600\" fill=\"#1f2a36\">{}</text>\n\
-         <text x=\"{MARGIN}\" y=\"42\" fill=\"#4a5561\">Records, occupied 2 × 2 km cells (AOO) and minimum convex polygon (EOO)</text>\n",
+         <text x=\"{MARGIN}\" y=\"42\" fill=\"#4a5561\">Records, occupied 2 × 2 km cells (AOO), convex hull (EOO)</text>\n",
         escape(&taxon.taxon)
     );
     let coast = coastline_path(grid, &extent);
@@ -84,12 +84,16 @@ pub fn taxon_map(taxon: &TaxonRange, grid: &AooGrid) -> String {
     }
     let _ = write!(
         svg,
-        "<text x=\"{MARGIN}\" y=\"{:.0}\" fill=\"#4a5561\">Lambert azimuthal equal-area grid centred on {}° N, {}° E. Coastline: Natural Earth 1:10m (public domain).</text>\n\
-         <text x=\"{MARGIN}\" y=\"{:.0}\" fill=\"#8a4b2d\">Inputs to an assessment, not a listing decision; stranding and landing records show where people look.</text>\n</svg>\n",
+        "<text x=\"{MARGIN}\" y=\"{:.0}\" fill=\"#4a5561\">Equal-area grid (Lambert azimuthal) centred on {}° N, {}° E.</text>\n\
+         <text x=\"{MARGIN}\" y=\"{:.0}\" fill=\"#4a5561\">Coastline: Natural Earth 1:10m (public domain).</text>\n\
+         <text class=\"caveat\" x=\"{MARGIN}\" y=\"{:.0}\" fill=\"#8a4b2d\">Inputs to an assessment, not a listing decision;</text>\n\
+         <text class=\"caveat\" x=\"{MARGIN}\" y=\"{:.0}\" fill=\"#8a4b2d\">stranding and landing records show where people look.</text>\n</svg>\n",
         HEADER + PANEL + 60.0,
         grid.centre().lat(),
         grid.centre().lon(),
-        HEADER + PANEL + 78.0,
+        HEADER + PANEL + 76.0,
+        HEADER + PANEL + 96.0,
+        HEADER + PANEL + 112.0,
     );
     svg
 }
@@ -147,7 +151,7 @@ fn panel(period: &PeriodRange, grid: &AooGrid, extent: &Extent, coast: &str, x: 
         Some(f) => (
             format!("{}: {} records at {} sites", period.period, period.records, period.sites),
             format!(
-                "EOO {:.0} km²{} · AOO {:.0} km² (fewest over shifted grids {:.0})",
+                "EOO {:.0} km²{} · AOO {:.0} km² (least over shifted grids {:.0} km²)",
                 f.eoo_km2,
                 if f.eoo_raised_to_aoo { " (raised to AOO)" } else { "" },
                 f.aoo.area_km2,

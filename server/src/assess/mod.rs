@@ -24,6 +24,11 @@ pub mod trend;
 
 use shared_types::ReviewState;
 
+/// The records figures and exports use when the caller names no review state: the
+/// confirmed ones, the same in the app, the API (`state=`) and the command line
+/// (`--state`), so a figure and a download made without choosing agree.
+pub const DEFAULT_STATE: &str = "confirmed";
+
 /// Reads `--state` values: review-state codes or labels (`confirmed`, `awaiting review`,
 /// `awaiting_review`…), or `any`. `None` means every state.
 pub fn parse_states(values: &[String]) -> Result<Option<Vec<ReviewState>>, String> {

@@ -182,6 +182,18 @@ pub fn stored_year_counts(records: &[PointRecord], taxon: Option<&TaxonFilter>, 
         .collect()
 }
 
+/// What the chart's rates are, in words: animals per km or per hour walked on all-finds
+/// walks, or animals recorded per year when no such walk is stored (effort 1 a year).
+pub fn rate_words(report: &TrendReport, unit: EffortUnit) -> &'static str {
+    if report.notes.iter().any(|note| note == NO_EFFORT_NOTE) {
+        return "Animals recorded each year";
+    }
+    match unit {
+        EffortUnit::Km => "Animals per km walked each year",
+        EffortUnit::Hours => "Animals per hour walked each year",
+    }
+}
+
 /// How walking effort is measured for encounter rates.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Default, clap::ValueEnum, serde::Deserialize)]
 #[serde(rename_all = "snake_case")]

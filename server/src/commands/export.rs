@@ -36,8 +36,9 @@ pub struct ExportArgs {
     /// Positions as recorded, sensitive species included: for assessors only, never to publish.
     #[arg(long)]
     pub full: bool,
-    /// Only records in these review states (repeatable; default any state).
-    #[arg(long = "state", default_value = "any")]
+    /// Only records in these review states (repeatable; `any` for all; default confirmed,
+    /// as for the figures).
+    #[arg(long = "state", default_value = crate::assess::DEFAULT_STATE)]
     pub states: Vec<String>,
     /// Only this species or higher taxon (a checklist name).
     #[arg(long)]

@@ -23,7 +23,7 @@ pub struct RecordSource {
     #[arg(long = "from", value_name = "FILE")]
     pub from_file: Option<PathBuf>,
     /// Stored records count only in these review states (repeatable; `any` for all).
-    #[arg(long = "state", default_value = "confirmed")]
+    #[arg(long = "state", default_value = crate::assess::DEFAULT_STATE)]
     pub states: Vec<String>,
     /// One species or higher taxon (scientific or common name from the checklist).
     #[arg(long)]

@@ -7,7 +7,8 @@ use anyhow::Context as _;
 use super::{RecordSource, print};
 use crate::assess::chart::trend_chart;
 use crate::assess::trend::{
-    EffortUnit, YearTotal, generation_length, read_year_counts, render_text, stored_trend_input, trend_report,
+    EffortUnit, YearTotal, generation_length, rate_words, read_year_counts, render_text, stored_trend_input,
+    trend_report,
 };
 
 #[derive(Debug, clap::Args)]
@@ -51,7 +52,11 @@ pub fn run(data_dir: &Path, args: TrendArgs) -> anyhow::Result<()> {
     let report = trend_report(years, counts, generation, used, notes)?;
     if let Some(path) = &args.svg {
         let title = taxon.as_ref().map(|t| t.name.clone()).unwrap_or_else(|| "Yearly trend".into());
-        std::fs::write(path, trend_chart(&title, &report.years, &report.trend))
+        let rate = match args.source.from_file.as_ref() {
+            Some(_) => "Animals per unit of the file's effort each year",
+            None => rate_words(&report, args.effort),
+        };
+        std::fs::write(path, trend_chart(&title, rate, &report.years, &report.trend))
             .with_context(|| format!("writing {}", path.display()))?;
         eprintln!("trend chart written to {}", path.display());
     }

@@ -28,6 +28,9 @@ pub struct Caller {
     pub person: Option<Person>,
     /// The session token's hash, when the caller came with the cookie.
     pub session_sha256: Option<String>,
+    /// The session's CSRF token, when the caller came with the cookie: `GET /api/session`
+    /// hands it back, so a second tab or a restarted browser can act again.
+    pub csrf_token: Option<String>,
 }
 
 fn bearer(parts: &Parts) -> Option<String> {
@@ -55,10 +58,10 @@ impl FromRequestParts<AppState> for Caller {
             let person = person.ok_or_else(|| {
                 ApiError::Unauthorized("this device identity is not known here; ask for a new one".into())
             })?;
-            return Ok(Caller { person: Some(person), session_sha256: None });
+            return Ok(Caller { person: Some(person), session_sha256: None, csrf_token: None });
         }
         let Some(token) = cookie(parts, SESSION_COOKIE) else {
-            return Ok(Caller { person: None, session_sha256: None });
+            return Ok(Caller { person: None, session_sha256: None, csrf_token: None });
         };
         let hash = token_sha256(&token);
         let lookup = hash.clone();
@@ -74,7 +77,7 @@ impl FromRequestParts<AppState> for Caller {
         if changes_state && sent != Some(csrf.as_str()) {
             return Err(ApiError::Forbidden("missing or wrong X-CSRF-Token for this sign-in".into()));
         }
-        Ok(Caller { person: Some(person), session_sha256: Some(hash) })
+        Ok(Caller { person: Some(person), session_sha256: Some(hash), csrf_token: Some(csrf) })
     }
 }
 

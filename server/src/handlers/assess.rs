@@ -19,8 +19,8 @@ use crate::assess::dates::Period;
 use crate::assess::input::read_store;
 use crate::assess::map::taxon_map;
 use crate::assess::range::{GridBasis, RangeOptions, RangeReport, choose_grid, parse_centre, range_report};
-use crate::assess::trend::{EffortUnit, TrendReport, generation_length, stored_trend_input, trend_report};
-use crate::assess::{describe_states, parse_states};
+use crate::assess::trend::{EffortUnit, TrendReport, generation_length, rate_words, stored_trend_input, trend_report};
+use crate::assess::{DEFAULT_STATE, describe_states, parse_states};
 use crate::error::ApiError;
 use crate::handlers::access::Caller;
 use crate::state::AppState;
@@ -55,7 +55,7 @@ async fn stored_records(
     state: &AppState,
     query: &FigureQuery,
 ) -> Result<(Vec<crate::assess::input::PointRecord>, String), ApiError> {
-    let values: Vec<String> = query.state.as_deref().unwrap_or("confirmed").split(',').map(str::to_owned).collect();
+    let values: Vec<String> = query.state.as_deref().unwrap_or(DEFAULT_STATE).split(',').map(str::to_owned).collect();
     let states = parse_states(&values).map_err(ApiError::BadRequest)?;
     let used = describe_states(&states);
     let records = state.store.read(move |conn| read_store(conn, states)).await?;
@@ -119,7 +119,8 @@ pub async fn trend_chart(
 ) -> Result<Response, ApiError> {
     let report = trend_of(&state, &query).await?;
     let title = query.taxon.clone().unwrap_or_else(|| "Yearly trend".into());
-    Ok(svg(chart::trend_chart(&title, &report.years, &report.trend)))
+    let rate = rate_words(&report, query.effort.unwrap_or_default());
+    Ok(svg(chart::trend_chart(&title, rate, &report.years, &report.trend)))
 }
 
 fn svg(document: String) -> Response {

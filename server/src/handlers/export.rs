@@ -10,7 +10,7 @@
 //!
 //! Filters: `taxon` (a checklist name), `from` and `to` (YYYY-MM-DD, UTC days), `bbox`
 //! (`SOUTH,WEST,NORTH,EAST`; WEST > EAST crosses the antimeridian), `state` (review-state
-//! codes separated by commas, or `any`; default any).
+//! codes separated by commas, or `any`; default `confirmed`, as for the figures).
 
 use std::io::Write;
 
@@ -22,7 +22,7 @@ use chrono::NaiveDate;
 use serde::Deserialize;
 use tokio::sync::mpsc;
 
-use crate::assess::parse_states;
+use crate::assess::{DEFAULT_STATE, parse_states};
 use crate::error::ApiError;
 use crate::export::filters::{day_bounds, parse_bbox};
 use crate::export::{self, Audience, ExportRequest, Format};
@@ -121,7 +121,7 @@ fn read_request(query: &ExportQuery, base_url: String, taxa: &TaxonIndex) -> Res
     };
     let (from_utc, until_utc) = day_bounds(day(&query.from, "from")?, day(&query.to, "to")?);
     let bbox = query.bbox.as_deref().map(parse_bbox).transpose().map_err(|m| bad(format!("bbox: {m}")))?;
-    let states: Vec<String> = query.state.as_deref().unwrap_or("any").split(',').map(str::to_owned).collect();
+    let states: Vec<String> = query.state.as_deref().unwrap_or(DEFAULT_STATE).split(',').map(str::to_owned).collect();
     let states = parse_states(&states).map_err(bad)?;
     Ok(ExportRequest {
         format,

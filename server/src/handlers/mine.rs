@@ -28,9 +28,14 @@ pub async fn records(State(state): State<AppState>, Observer(me): Observer) -> R
                 .filter_map(|id| observations::record_by_client_id(conn, id).transpose())
                 .map(|record| {
                     let record = record?;
+                    let events = review_store::events(conn, record.observation_id)?;
+                    // The reason given by the decision that put the record in its state.
+                    let state_reason =
+                        events.into_iter().rev().find(|e| e.to_state == record.review_state).and_then(|e| e.reason);
                     Ok(MyRecord {
                         current_taxon: review_store::current_taxon(conn, record.observation_id)?,
                         messages: review_store::messages(conn, record.observation_id)?,
+                        state_reason,
                         record,
                     })
                 })

@@ -13,4 +13,5 @@ pub mod people;
 pub mod photos;
 pub mod review;
 pub mod session;
+pub mod site;
 pub mod walks;

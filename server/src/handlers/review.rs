@@ -16,7 +16,10 @@ use crate::intake::parse_json;
 use crate::review;
 use crate::review::queue::Wanted;
 use crate::state::AppState;
-use crate::store::{duplicates as duplicates_store, fieldwork, notifications, observations, review as review_store};
+use crate::store::{
+    duplicates as duplicates_store, fieldwork, notifications, observations, people as people_store,
+    review as review_store,
+};
 
 fn record_id(text: &str) -> Result<Uuid, ApiError> {
     Uuid::parse_str(text).map_err(|_| ApiError::BadRequest(format!("`{text}` is not a record id (a UUID)")))
@@ -129,25 +132,22 @@ pub async fn detail(
             let taxon = review_store::current_taxon(conn, observation)?;
             let duplicates = review::duplicate_views(conn, &record)?;
             let possible = !duplicates.is_empty() && duplicates.iter().any(|d| d.decision.is_none());
+            let history = (
+                review_store::identifications(conn, observation)?,
+                review_store::messages(conn, observation)?,
+                review_store::events(conn, observation)?,
+            );
+            let observer = people_store::observer_of_observation(conn, observation)?;
             let fieldwork = Fieldwork {
                 notifications: notifications::of_record(conn, observation)?,
                 responses: fieldwork::responses(conn, observation)?,
                 samples: fieldwork::samples_of_animal(conn, observation)?,
                 carcass: fieldwork::carcass_of_animal(conn, observation)?,
             };
-            Ok(Some((
-                record,
-                taxon,
-                review_store::identifications(conn, observation)?,
-                review_store::messages(conn, observation)?,
-                review_store::events(conn, observation)?,
-                duplicates,
-                possible,
-                fieldwork,
-            )))
+            Ok(Some((record, taxon, history, duplicates, possible, observer, fieldwork)))
         })
         .await?;
-    let (record, taxon, identifications, messages, events, duplicates, possible, fieldwork) =
+    let (record, taxon, (identifications, messages, events), duplicates, possible, observer, fieldwork) =
         found.ok_or_else(|| ApiError::NotFound(format!("no record with id {id}")))?;
     let urgent = record.submission.is_urgent();
     let awaiting = urgent && fieldwork.responses.is_empty();
@@ -161,6 +161,7 @@ pub async fn detail(
         priority_reasons,
         duplicates,
         key,
+        observer,
         urgent,
         notifications: fieldwork.notifications,
         responses: fieldwork.responses,

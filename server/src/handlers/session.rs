@@ -89,14 +89,22 @@ pub async fn logout(State(state): State<AppState>, headers: HeaderMap, caller: C
     Ok(([(header::SET_COOKIE, expired)], Json(serde_json::json!({"signed_out": true}))).into_response())
 }
 
-/// `GET /api/session`: who is calling, if anyone.
-pub async fn who(caller: Caller) -> Json<serde_json::Value> {
-    Json(match caller.person {
-        Some(person) => {
-            serde_json::json!({"signed_in": true, "role": person.role, "display_name": person.display_name})
-        }
+/// `GET /api/session`: who is calling, if anyone, and for a signed-in session its CSRF
+/// token, so a second tab or a restarted browser (whose own copy of the token is gone)
+/// can act and sign out again. Only this site's pages can read the answer: the cookie is
+/// `SameSite=Strict` and no other origin is allowed to read responses (no CORS). Never
+/// cached (`no-store`): the token must not outlive the session in a cache.
+pub async fn who(caller: Caller) -> Response {
+    let body = match caller.person {
+        Some(person) => serde_json::json!({
+            "signed_in": true,
+            "role": person.role,
+            "display_name": person.display_name,
+            "csrf_token": caller.csrf_token,
+        }),
         None => serde_json::json!({"signed_in": false}),
-    })
+    };
+    ([(header::CACHE_CONTROL, "no-store")], Json(body)).into_response()
 }
 
 /// `POST /api/devices`: a new observer identity for a phone.

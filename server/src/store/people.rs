@@ -265,7 +265,22 @@ pub fn events(conn: &Connection) -> Result<Vec<PersonEvent>, StoreError> {
         .collect()
 }
 
-/// The name and contact an observer gave (for reviewers; never sent out by any route).
+/// The name and contact the observer of an observation gave, for the reviewers' view of
+/// that record (no other route sends the contact out).
+pub fn observer_of_observation(
+    conn: &Connection,
+    observation_id: i64,
+) -> Result<Option<shared_types::ObserverContact>, StoreError> {
+    Ok(conn
+        .query_row(
+            "SELECT p.display_name, p.contact FROM observations o JOIN people p ON p.id = o.observer_id WHERE o.id = ?1",
+            [observation_id],
+            |row| Ok(shared_types::ObserverContact { display_name: row.get(0)?, contact: row.get(1)? }),
+        )
+        .optional()?)
+}
+
+/// The name and contact an observer gave (for reviewers, on that observer's records).
 pub fn set_observer_profile(
     conn: &Connection,
     observer_id: i64,

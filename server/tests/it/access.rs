@@ -521,3 +521,42 @@ async fn signing_out_and_turning_off_end_the_sign_in() {
     let listed = serde_json::to_string(&people).unwrap();
     assert!(listed.contains("test-reviewer") && !listed.contains("argon2"), "no hashes leave the server: {listed}");
 }
+
+#[tokio::test]
+async fn a_second_tab_with_only_the_cookie_gets_the_csrf_token_back_and_can_act_and_sign_out() {
+    // A second tab or a restarted browser keeps the cookie but not the token the sign-in
+    // returned; `GET /api/session` gives it back (never cached), and it works.
+    let app = spawn_app().await;
+    app.submit(&submission(RECORD), &[]).await;
+    let session = app.client.get(format!("{}/api/session", app.base)).header("cookie", &app.reviewer.cookie);
+    let answer = session.send().await.unwrap();
+    assert_eq!(answer.headers()["cache-control"], "no-store");
+    let body: Value = answer.json().await.unwrap();
+    assert_eq!(body["signed_in"], true);
+    let recovered = body["csrf_token"].as_str().expect("the session's CSRF token").to_owned();
+    assert_eq!(recovered, app.reviewer.csrf, "the same token the sign-in returned");
+    let action = json!({"action": "request_details", "message": "Which beach?"});
+    let url = format!("{}/api/review/records/{RECORD}/actions", app.base);
+    let with = |request: reqwest::RequestBuilder| {
+        request.header("cookie", &app.reviewer.cookie).header("x-csrf-token", &recovered)
+    };
+    assert_eq!(with(app.client.post(&url)).json(&action).send().await.unwrap().status(), 200);
+    let out = with(app.client.delete(format!("{}/api/session", app.base))).send().await.unwrap();
+    assert_eq!(out.status(), 200);
+    // Signed out, the token gives nothing: no session, no token.
+    let after: Value = app.client.get(format!("{}/api/session", app.base)).send().await.unwrap().json().await.unwrap();
+    assert_eq!((after["signed_in"].as_bool(), after.get("csrf_token")), (Some(false), None));
+    // Nobody without the cookie learns a token.
+    let phone = app.new_device().await;
+    let as_phone: Value = app
+        .client
+        .get(format!("{}/api/session", app.base))
+        .bearer_auth(&phone)
+        .send()
+        .await
+        .unwrap()
+        .json()
+        .await
+        .unwrap();
+    assert_eq!(as_phone["csrf_token"], Value::Null);
+}

@@ -13,7 +13,7 @@ async fn export_writes_the_same_records_to_a_file() {
     let status = Command::new(env!("CARGO_BIN_EXE_wrackline"))
         .arg("--data-dir")
         .arg(&app.data_dir)
-        .args(["export", "--format", "csv", "--out"])
+        .args(["export", "--format", "csv", "--state", "any", "--out"])
         .arg(&out)
         .status()
         .unwrap();

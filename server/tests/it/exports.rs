@@ -41,7 +41,7 @@ async fn app_with_records() -> TestApp {
 }
 
 async fn download(app: &TestApp, query: &str, dir: &Path, name: &str) -> std::path::PathBuf {
-    let response = app.get(&format!("/api/export?{query}")).await;
+    let response = app.get(&crate::helpers::export_path(query)).await;
     assert_eq!(response.status(), 200, "{query}");
     let path = dir.join(name);
     std::fs::write(&path, response.bytes().await.unwrap()).unwrap();
@@ -153,7 +153,7 @@ async fn the_full_export_from_the_command_line_keeps_positions_as_recorded() {
     let output = Command::new(env!("CARGO_BIN_EXE_wrackline"))
         .arg("--data-dir")
         .arg(&app.data_dir)
-        .args(["export", "--format", "dwca", "--full", "--out"])
+        .args(["export", "--format", "dwca", "--full", "--state", "any", "--out"])
         .arg(&out)
         .output()
         .unwrap();
@@ -171,7 +171,7 @@ async fn the_full_export_from_the_command_line_keeps_positions_as_recorded() {
         .env("WRACKLINE_LICENCE", "cc0")
         .arg("--data-dir")
         .arg(&app.data_dir)
-        .args(["export", "--format", "dwca", "--out"])
+        .args(["export", "--format", "dwca", "--state", "any", "--out"])
         .arg(&cc0)
         .output()
         .unwrap();
@@ -210,7 +210,7 @@ async fn filters_select_by_taxon_area_date_and_review_state() {
     let get = |query: &'static str| {
         let app = &app;
         async move {
-            let response = app.get(&format!("/api/export?format=csv&{query}")).await;
+            let response = app.get(&crate::helpers::export_path(&format!("format=csv&{query}"))).await;
             assert_eq!(response.status(), 200, "{query}");
             response.text().await.unwrap()
         }
@@ -228,7 +228,7 @@ async fn filters_select_by_taxon_area_date_and_review_state() {
         ("format=dwca&state=approved", "approved"),
         ("format=shapefile", "shapefile"),
     ] {
-        let response = app.get(&format!("/api/export?{query}")).await;
+        let response = app.get(&crate::helpers::export_path(query)).await;
         assert_eq!(response.status(), 400, "{query}");
         let body: Value = response.json().await.unwrap();
         assert!(body["error"].as_str().unwrap().contains(words), "{query}: {body}");
@@ -245,7 +245,7 @@ async fn observer_contacts_never_leave_the_server() {
         conn.execute("UPDATE observations SET observer_id = last_insert_rowid()", []).unwrap();
     }
     for format in ["csv", "geojson", "dwca"] {
-        let bytes = app.get(&format!("/api/export?format={format}")).await.bytes().await.unwrap();
+        let bytes = app.get(&format!("/api/export?format={format}&state=any")).await.bytes().await.unwrap();
         let text = if format == "dwca" { unzip_all(&bytes) } else { String::from_utf8(bytes.to_vec()).unwrap() };
         assert!(text.contains("Test Observer"), "{format}: the display name is there");
         assert!(!text.contains(contact), "{format}: the contact is not");
@@ -389,11 +389,12 @@ async fn walks_export_as_events_with_absences_for_groups_not_found() {
 #[tokio::test]
 async fn a_full_export_over_http_is_for_signed_in_reviewers_only() {
     let app = app_with_records().await;
-    let anonymous = app.client.get(format!("{}/api/export?format=csv&audience=full", app.base)).send().await.unwrap();
+    let anonymous =
+        app.client.get(format!("{}/api/export?format=csv&audience=full&state=any", app.base)).send().await.unwrap();
     assert_eq!(anonymous.status(), 403);
-    let full = app.get("/api/export?format=csv&audience=full").await.text().await.unwrap();
+    let full = app.get("/api/export?format=csv&audience=full&state=any").await.text().await.unwrap();
     assert!(full.contains("52.346700"), "the sensitive angelshark as recorded:\n{full}");
-    let public = app.get("/api/export?format=csv").await.text().await.unwrap();
+    let public = app.get("/api/export?format=csv&state=any").await.text().await.unwrap();
     assert!(!public.contains("52.346700"), "the public form stays generalised for everyone");
 }
 
@@ -418,4 +419,29 @@ async fn where_a_sensitive_species_was_is_shown_to_signed_in_reviewers_only() {
     let reviewer: Value = app.get(&format!("/api/range?{query}")).await.json().await.unwrap();
     assert_eq!(reviewer["taxa"][0]["periods"][0]["figures"]["eoo"]["hull"].as_array().unwrap().len(), 3);
     assert_eq!(app.get(&format!("/api/range/map.svg?{query}")).await.status(), 200);
+}
+
+#[tokio::test]
+async fn without_a_state_the_api_the_command_line_and_the_figures_all_use_confirmed_records() {
+    // One default everywhere, so a download and a figure made without choosing agree.
+    let app = app_with_records().await;
+    let confirm = json!({"action": "confirm", "scientific_name": "Scyliorhinus canicula", "taxon_rank": "species"});
+    let url = format!("{}/api/review/records/{CATSHARK}/actions", app.base);
+    assert_eq!(app.reviewer.sign(app.client.post(url)).json(&confirm).send().await.unwrap().status(), 200);
+    let rows = |text: &str| csv::Reader::from_reader(text.as_bytes()).records().count();
+    let over_http = app.get("/api/export?format=csv").await.text().await.unwrap();
+    assert_eq!(rows(&over_http), 1, "the confirmed catshark only:\n{over_http}");
+    assert!(over_http.contains(CATSHARK));
+    let out = app.data_dir.parent().unwrap().join("default.csv");
+    let output = Command::new(env!("CARGO_BIN_EXE_wrackline"))
+        .arg("--data-dir")
+        .arg(&app.data_dir)
+        .args(["export", "--format", "csv", "--out"])
+        .arg(&out)
+        .output()
+        .unwrap();
+    assert!(output.status.success(), "{}", String::from_utf8_lossy(&output.stderr));
+    assert_eq!(rows(&std::fs::read_to_string(&out).unwrap()), 1, "the command line agrees");
+    let range: Value = app.get("/api/range?taxon=Scyliorhinus%20canicula").await.json().await.unwrap();
+    assert_eq!(range["taxa"][0]["periods"][0]["records"], 1, "and so do the figures: {range}");
 }

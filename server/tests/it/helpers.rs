@@ -315,3 +315,9 @@ pub fn exiftool_tags(bytes: &[u8], dir: &Path) -> Vec<String> {
         .cloned()
         .collect()
 }
+
+/// `/api/export?{query}`, for every review state unless the query names one (the export's
+/// own default is confirmed records only; these tests export records still awaiting review).
+pub fn export_path(query: &str) -> String {
+    if query.contains("state=") { format!("/api/export?{query}") } else { format!("/api/export?{query}&state=any") }
+}

@@ -1,6 +1,6 @@
 //! People with a sign-in: `wrackline user add` on a real data directory (the binary
 //! itself), the admin changing a role and resetting a password — each in the audit
-//! trail — and an observer's name and contact, which no route sends out.
+//! trail — and an observer's name and contact, shown to reviewers on the record and sent nowhere else.
 
 use std::io::Write as _;
 use std::process::{Command, Stdio};
@@ -154,7 +154,7 @@ async fn an_admin_changes_a_role_and_resets_a_password_and_both_are_audited() {
 }
 
 #[tokio::test]
-async fn an_observers_contact_is_kept_but_never_sent_out() {
+async fn an_observers_contact_is_shown_to_reviewers_on_the_record_and_sent_nowhere_else() {
     let app = spawn_app().await;
     let phone = app.new_device().await;
     let record = "6f9a4c2e-1d3b-4e5f-8a7b-9c0d1e2f3a4b";
@@ -178,13 +178,16 @@ async fn an_observers_contact_is_kept_but_never_sent_out() {
         .unwrap();
     assert_eq!(anonymous.status(), 401);
 
+    // The reviewer deciding on the record sees who to ask.
+    let detail: Value = app.get(&format!("/api/review/records/{record}")).await.json().await.unwrap();
+    assert_eq!(detail["observer"], json!({"display_name": "Gwen", "contact": "gwen@example.org"}));
     let mut seen = String::new();
     for path in [
-        format!("/api/review/records/{record}"),
-        "/api/observations".into(),
-        "/api/export?format=csv".into(),
-        "/api/export?format=geojson".into(),
-        "/api/export?format=csv&audience=full".into(),
+        "/api/observations".to_owned(),
+        "/api/review/queue".into(),
+        "/api/export?format=csv&state=any".into(),
+        "/api/export?format=geojson&state=any".into(),
+        "/api/export?format=csv&audience=full&state=any".into(),
     ] {
         seen.push_str(&app.get(&path).await.text().await.unwrap());
     }

@@ -304,3 +304,33 @@ fn a_character_missing_for_a_species_counts_for_nothing_and_says_so() {
     assert!((ranked[0].probability - 0.5 / (0.5 + 0.05)).abs() < 1e-12);
     assert!(ranked[0].reasons.iter().any(|r| r.effect == Effect::Neutral && r.text.contains("nothing on this")));
 }
+
+#[test]
+fn a_small_animal_is_no_giant_species() {
+    // A 62 cm shark with a crescent tail: the basking shark (born at about 1.5 m, grows
+    // to 12 m; from memory) fits the answers but not the size, and must not lead.
+    let big_tail = answers(&[("bodyForm", "sharkLike"), ("caudalFinShape", "crescent")]);
+    let basking =
+        |ranked: &[Candidate]| ranked.iter().find(|c| c.scientific_name == "Cetorhinus maximus").cloned().unwrap();
+    let unmeasured = basking(&top(&big_tail, &Context::default()));
+    let ranked = top(&big_tail, &length(LengthKind::TotalLength, 62.0));
+    assert_ne!(ranked[0].scientific_name, "Cetorhinus maximus", "{:?}", names(&ranked));
+    let measured = basking(&ranked);
+    assert!(
+        measured.probability < unmeasured.probability / 10.0,
+        "{} → {}",
+        unmeasured.probability,
+        measured.probability
+    );
+    let reasons = &measured.reasons;
+    assert!(
+        reasons
+            .iter()
+            .any(|r| r.effect == Effect::Against && r.text.contains("smaller than a newborn of this species")),
+        "{reasons:?}"
+    );
+    // A newborn-sized catshark (10 cm of 100) is not held against its species.
+    let catshark = answers(&[("bodyForm", "sharkLike"), ("markings", "smallDarkSpots")]);
+    let hatchling = top(&catshark, &length(LengthKind::TotalLength, 10.0));
+    assert_eq!(hatchling[0].scientific_name, "Scyliorhinus canicula", "{:?}", names(&hatchling));
+}

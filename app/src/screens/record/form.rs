@@ -10,24 +10,138 @@ use shared_types::{
 };
 use uuid::Uuid;
 
-use crate::data::form_fields::FormFields;
+use crate::data::form_fields::{Control, FormFields, Problem, WhenSource};
 use crate::data::outbox::{self, Entry, Outbox, SyncState};
 use crate::data::photos::PickedPhoto;
 use crate::data::time::{self, BrowserZone};
-use crate::data::{checklist, device, identity, sync};
+use crate::data::{checklist, device, identity, page, sync, walk_track};
 use crate::screens::record::key::KeyPanel;
 use crate::screens::record::photos::PhotoPicker;
 
-/// Fills the position from the device, telling the observer how it went.
+/// Fills the position from this phone, telling the observer how it went.
 fn locate(fields: RwSignal<FormFields>, note: RwSignal<String>) {
     note.set("finding your position…".into());
     leptos::task::spawn_local(async move {
         match device::current_position().await {
             Ok(fix) => {
                 fields.update(|f| f.set_device_position(fix.latitude, fix.longitude, fix.accuracy));
-                note.set(format!("from this device, ±{:.0} m", fix.accuracy));
+                note.set(format!("from this phone, {}", page::fix_words(fix.accuracy, fix.at, js_sys::Date::now())));
             }
-            Err(err) => note.set(format!("no position from the device ({err}); type it, or try again")),
+            Err(err) => note.set(format!("no position from this phone ({err}); type it, or try again")),
+        }
+    });
+}
+
+/// The form's first fix, at opening: used unless a photo's place or a typed one is there.
+fn first_fix(fields: RwSignal<FormFields>, note: RwSignal<String>) {
+    note.set("finding your position…".into());
+    leptos::task::spawn_local(async move {
+        match device::current_position().await {
+            Ok(fix) => {
+                let mut form = fields.get_untracked();
+                if form.note_device_fix(fix.latitude, fix.longitude, fix.accuracy) {
+                    note.set(format!(
+                        "from this phone, {}",
+                        page::fix_words(fix.accuracy, fix.at, js_sys::Date::now())
+                    ));
+                } else {
+                    note.set(String::new());
+                }
+                fields.set(form);
+            }
+            Err(err) => note.set(format!("no position from this phone ({err}); type it, or try again")),
+        }
+    });
+}
+
+/// A fix younger than this, from the walk's position watch, is fresh enough for a find.
+const FRESH_FIX_SECONDS: f64 = 30.0;
+
+/// On a walk the walker moves on between finds: a fix taken at saving (the walk's watch's
+/// latest if it is fresh, else one asked for now) replaces the one from when the form
+/// opened, unless the place is a photo's or typed. The words say how good and how old it
+/// is, or why there is none.
+async fn fresh_fix_on_walk(fields: RwSignal<FormFields>) -> Option<String> {
+    let from_device = fields.with_untracked(|f| matches!(f.position_source, None | Some(PositionSource::Device)));
+    if !from_device {
+        return None;
+    }
+    let now = js_sys::Date::now();
+    let watched = walk_track::latest_fix()
+        .filter(|fix| now - fix.at <= FRESH_FIX_SECONDS * 1000.0)
+        .map(|fix| (fix.latitude, fix.longitude, fix.accuracy, fix.at));
+    let fix = match watched {
+        Some(fix) => Ok(fix),
+        None => device::fresh_position().await.map(|fix| (fix.latitude, fix.longitude, fix.accuracy, fix.at)),
+    };
+    Some(match fix {
+        Ok((latitude, longitude, accuracy, at)) => {
+            fields.update(|f| {
+                f.note_device_fix(latitude, longitude, accuracy);
+            });
+            format!("Position at saving: {}.", page::fix_words(accuracy, at, js_sys::Date::now()))
+        }
+        Err(err) => format!("No fresh position at saving ({err}): the record keeps the one from when the form opened."),
+    })
+}
+
+/// The words about one control, shown right under it.
+fn beside(problems: RwSignal<Vec<Problem>>, control: Control) -> impl IntoView {
+    move || {
+        {
+            problems.with(|list| {
+                list.iter()
+                    .filter(|p| p.control == Some(control))
+                    .map(|p| p.words.clone())
+                    .collect::<Vec<_>>()
+                    .join("; ")
+            })
+        }
+        .into_view()
+    }
+}
+
+fn problem_line(problems: RwSignal<Vec<Problem>>, control: Control) -> impl IntoView {
+    view! {
+        <p class="field-problem" data-control=control.label() role="alert">{beside(problems, control)}</p>
+    }
+}
+
+/// Opens a record the server did not accept in the form, with its photos and the
+/// server's words beside the control they are about.
+fn open_for_edit(
+    id: String,
+    fields: RwSignal<FormFields>,
+    photos: RwSignal<Vec<PickedPhoto>, LocalStorage>,
+    client_id: RwSignal<Uuid>,
+    problems: RwSignal<Vec<Problem>>,
+    saved_note: RwSignal<String>,
+) {
+    leptos::task::spawn_local(async move {
+        let Ok(Some(entry)) = outbox::find(&id).await else { return };
+        let blobs = device::photos_of(&id).await.unwrap_or_default();
+        let picked = blobs
+            .into_iter()
+            .enumerate()
+            .map(|(i, blob)| PickedPhoto {
+                name: format!("photo {}", i + 1),
+                preview_url: web_sys::Url::create_object_url_with_blob(&blob).unwrap_or_default(),
+                upload: blob,
+                upload_sha256: None,
+                exif: entry.submission.photo_exif.get(i).cloned().unwrap_or_default(),
+            })
+            .collect();
+        fields.set(FormFields::from_submission(&entry.submission, &BrowserZone));
+        photos.set(picked);
+        client_id.set(entry.submission.client_id);
+        if let SyncState::Refused { reason, field } = &entry.sync {
+            problems.set(vec![Problem::from_server(field.as_deref(), reason)]);
+        }
+        saved_note.set("Editing a record the server did not accept: put it right and save it again.".into());
+        if let Some(form) =
+            web_sys::window().and_then(|w| w.document()).and_then(|d| d.get_element_by_id("record-form"))
+        {
+            form.scroll_into_view();
         }
     });
 }
@@ -40,26 +154,44 @@ pub fn RecordForm(outbox: Outbox) -> impl IntoView {
     let photos = RwSignal::new_local(Vec::<PickedPhoto>::new());
     let photo_note = RwSignal::new(String::new());
     let client_id = RwSignal::new(Uuid::new_v4());
-    let problems = RwSignal::new(Vec::<String>::new());
+    let problems = RwSignal::new(Vec::<Problem>::new());
     let position_note = RwSignal::new(String::new());
     let saved_note = RwSignal::new(String::new());
     let species_key = RwSignal::new(checklist::initial_key());
     let key_open = RwSignal::new(false);
-    checklist::refresh_from_server(species_key);
-    locate(fields, position_note);
+    first_fix(fields, position_note);
+    Effect::new(move |_| {
+        if let Some(id) = outbox.editing.get() {
+            open_for_edit(id, fields, photos, client_id, problems, saved_note);
+        }
+    });
 
     let save = move |state: SyncState| {
-        let submission = match fields.with(|f| f.to_submission(client_id.get(), &BrowserZone)) {
-            // A record made while a walk goes on belongs to it.
-            Ok(s) => Submission { walk_client_id: outbox.walk_going_on().map(|w| w.client_id), ..s },
-            Err(list) => {
-                problems.set(list);
-                return;
-            }
-        };
-        problems.set(Vec::new());
-        let picked = photos.get();
         leptos::task::spawn_local(async move {
+            let walk = outbox.walk_going_on();
+            let fix_words = match walk {
+                Some(_) => fresh_fix_on_walk(fields).await,
+                None => None,
+            };
+            let name = identity::observer_name();
+            let built = fields.with_untracked(|f| {
+                FormFields { observer_name: name, ..f.clone() }.to_submission(
+                    client_id.get_untracked(),
+                    &BrowserZone,
+                    chrono::Utc::now(),
+                )
+            });
+            let submission = match built {
+                // A record made while a walk goes on belongs to it.
+                Ok(s) => Submission { walk_client_id: walk.map(|w| w.client_id), ..s },
+                Err(list) => {
+                    problems.set(list);
+                    saved_note.set("Not saved yet: put right what is marked in red, then save again.".into());
+                    return;
+                }
+            };
+            problems.set(Vec::new());
+            let picked = photos.get_untracked();
             let mut submission = submission;
             submission.photo_exif = picked.iter().map(|p| p.exif.clone()).collect();
             let blobs: Vec<web_sys::Blob> = picked.iter().map(|p| p.upload.clone()).collect();
@@ -75,19 +207,20 @@ pub fn RecordForm(outbox: Outbox) -> impl IntoView {
             let entry = Entry::new(submission, state, blobs.len());
             match outbox::save(&entry, Some(&blobs)).await {
                 Ok(()) => {
-                    identity::remember_observer_name(&fields.with_untracked(|f| f.observer_name.clone()));
                     let saved = if waiting {
                         "Saved on this phone; it will be sent when there is a connection."
                     } else {
                         "Saved as a draft on this phone."
                     };
-                    saved_note.set(format!("{saved}{warning}"));
+                    let fix_words = fix_words.map(|w| format!(" {w}")).unwrap_or_default();
+                    saved_note.set(format!("{saved}{fix_words}{warning}"));
                     fields.set(FormFields::fresh(time::now_for_input(), identity::observer_name()));
                     key_open.set(false);
                     photos.set(Vec::new());
                     photo_note.set(String::new());
                     client_id.set(Uuid::new_v4());
-                    locate(fields, position_note);
+                    outbox.editing.set(None);
+                    first_fix(fields, position_note);
                     outbox.reload().await;
                     if waiting {
                         sync::request(outbox);
@@ -99,16 +232,29 @@ pub fn RecordForm(outbox: Outbox) -> impl IntoView {
         });
     };
 
+    let time_note = move || fields.with(|f| f.time_note(&BrowserZone));
     view! {
-        <form class="record-form" on:submit=move |ev| { ev.prevent_default(); save(SyncState::Waiting); }>
+        <form id="record-form" class="record-form" on:submit=move |ev| { ev.prevent_default(); save(SyncState::Waiting); }>
             <h2>"New record"</h2>
             <PhotoPicker photos=photos fields=fields photo_note=photo_note position_note=position_note />
+            {problem_line(problems, Control::Photos)}
 
             <fieldset>
                 <legend>"When"</legend>
-                <input id="when" type="datetime-local" prop:value=move || fields.with(|f| f.when.clone())
-                    on:input=move |ev| fields.update(|f| f.when = event_target_value(&ev)) />
-                <span class="hint">{move || fields.with(|f| time::offset_label(&BrowserZone, &f.when))}</span>
+                <input id="when" type="datetime-local" aria-label="When" prop:value=move || fields.with(|f| f.when.clone())
+                    on:input=move |ev| fields.update(|f| { f.when = event_target_value(&ev); f.when_source = WhenSource::Typed; }) />
+                <span class="hint">{move || fields.with(|f| {
+                    let zone = time::offset_label(&BrowserZone, &f.when);
+                    if zone.is_empty() { String::new() } else { format!("this phone's local time ({zone})") }
+                })}</span>
+                {problem_line(problems, Control::When)}
+                {move || time_note().map(|note| view! {
+                    <div id="photo-time" class="photo-time">
+                        <p id="photo-time-note">{note}</p>
+                        <button id="keep-device-time" type="button" class="small"
+                            on:click=move |_| fields.update(|f| f.keep_device_time_and_place())>"Use this phone's time and place instead"</button>
+                    </div>
+                })}
             </fieldset>
 
             <fieldset>
@@ -118,9 +264,13 @@ pub fn RecordForm(outbox: Outbox) -> impl IntoView {
                         on:input=move |ev| fields.update(|f| { f.latitude = event_target_value(&ev); f.position_source = Some(PositionSource::Typed); }) /></label>
                     <label>"Longitude" <input id="longitude" inputmode="decimal" prop:value=move || fields.with(|f| f.longitude.clone())
                         on:input=move |ev| fields.update(|f| { f.longitude = event_target_value(&ev); f.position_source = Some(PositionSource::Typed); }) /></label>
-                    <label>"± metres" <input id="accuracy" inputmode="decimal" prop:value=move || fields.with(|f| f.accuracy_m.clone())
+                    <label>"Accuracy (metres)" <input id="accuracy" inputmode="decimal" prop:value=move || fields.with(|f| f.accuracy_m.clone())
                         on:input=move |ev| fields.update(|f| f.accuracy_m = event_target_value(&ev)) /></label>
                 </div>
+                <p class="hint">"Accuracy: how far off the position may be, as the phone or GPS says."</p>
+                {problem_line(problems, Control::Latitude)}
+                {problem_line(problems, Control::Longitude)}
+                {problem_line(problems, Control::Accuracy)}
                 <button type="button" class="small" on:click=move |_| locate(fields, position_note)>"Use my position"</button>
                 <span id="position-note" class="hint">{move || position_note.get()}</span>
             </fieldset>
@@ -130,8 +280,9 @@ pub fn RecordForm(outbox: Outbox) -> impl IntoView {
                 <label>"Species (your best guess)"
                     <input id="species" placeholder="e.g. small-spotted catshark" prop:value=move || fields.with(|f| f.species_guess.clone())
                         on:input=move |ev| fields.update(|f| { f.species_guess = event_target_value(&ev); f.key_choice = None; }) /></label>
+                {problem_line(problems, Control::Species)}
                 {move || fields.with(|f| f.key_choice.as_ref().map(|c| view! {
-                    <p id="key-choice" class="hint">{format!("Picked with the key: {} ({}, {:.0}%)", c.scientific_name.as_str(), c.taxon_rank, c.probability * 100.0)}</p>
+                    <p id="key-choice" class="hint">{format!("Picked with the key: {} ({}, {:.0}% likely when picked)", c.scientific_name.as_str(), c.taxon_rank, c.probability * 100.0)}</p>
                 }))}
                 <button id="open-key" type="button" class="small" on:click=move |_| key_open.update(|o| *o = !*o)>
                     {move || if key_open.get() { "Hide the key" } else { "Help me identify" }}
@@ -146,6 +297,7 @@ pub fn RecordForm(outbox: Outbox) -> impl IntoView {
                         {LengthUnit::ALL.into_iter().map(|u| view! { <option value=code(&u)>{u.code()}</option> }).collect_view()}
                     </select></label>
                 </div>
+                {problem_line(problems, Control::Length)}
                 <div class="row">
                     <label>"Which length" <select id="length-kind" prop:value=move || fields.with(|f| code(&f.length_kind.unwrap_or(LengthKind::Total))) on:change=move |ev| fields.update(|f| f.length_kind = from_code(&event_target_value(&ev)))>
                         {LengthKind::ALL.into_iter().map(|k| view! { <option value=code(&k)>{k.label()}</option> }).collect_view()}
@@ -168,21 +320,25 @@ pub fn RecordForm(outbox: Outbox) -> impl IntoView {
                         {LifeStage::ALL.into_iter().map(|s| view! { <option value=code(&s)>{s.label()}</option> }).collect_view()}
                     </select></label>
                 </div>
+                <p id="claspers-hint" class="hint">"Claspers: a male's two rod-like organs along the inner edge of the fins under the rear of the body (pelvic fins). A female has none."</p>
+                {problem_line(problems, Control::Count)}
                 <Show when=move || fields.with(|f| f.life_stage == Some(LifeStage::EggCase))>
                     <p id="egg-case-hint" class="hint">"Egg cases: count them in “How many”; no length needed (write a case's size in the notes)."</p>
                 </Show>
             </fieldset>
 
             <fieldset>
-                <legend>"State and setting"</legend>
+                <legend>"Condition and how it was found"</legend>
                 <label>"Condition" <select id="condition" prop:value=move || fields.with(|f| f.condition.map(|c| code(&c)).unwrap_or_default()) on:change=move |ev| fields.update(|f| f.condition = from_code(&event_target_value(&ev)))>
                     <option value="">"choose…"</option>
                     {Condition::ALL.into_iter().map(|c| view! { <option value=code(&c)>{c.label()}</option> }).collect_view()}
                 </select></label>
-                <label>"How it was seen" <select id="setting" prop:value=move || fields.with(|f| f.setting.map(|s| code(&s)).unwrap_or_default()) on:change=move |ev| fields.update(|f| f.setting = from_code(&event_target_value(&ev)))>
+                {problem_line(problems, Control::Condition)}
+                <label>"How it was found" <select id="setting" prop:value=move || fields.with(|f| f.setting.map(|s| code(&s)).unwrap_or_default()) on:change=move |ev| fields.update(|f| f.setting = from_code(&event_target_value(&ev)))>
                     <option value="">"choose…"</option>
                     {Setting::ALL.into_iter().map(|s| view! { <option value=code(&s)>{s.label()}</option> }).collect_view()}
                 </select></label>
+                {problem_line(problems, Control::HowFound)}
                 <div class="checks">
                     <span>"Signs of fishing or people:"</span>
                     {HumanSign::ALL.into_iter().map(|sign| view! {
@@ -193,14 +349,14 @@ pub fn RecordForm(outbox: Outbox) -> impl IntoView {
                             } />{sign.label()}</label>
                     }).collect_view()}
                 </div>
+                {problem_line(problems, Control::Signs)}
                 <label>"Notes" <textarea id="notes" rows="3" prop:value=move || fields.with(|f| f.notes.clone())
                     on:input=move |ev| fields.update(|f| f.notes = event_target_value(&ev))></textarea></label>
-                <label>"Your name (shown with your records)" <input id="observer-name" prop:value=move || fields.with(|f| f.observer_name.clone())
-                    on:input=move |ev| fields.update(|f| f.observer_name = event_target_value(&ev)) /></label>
+                {problem_line(problems, Control::Notes)}
             </fieldset>
 
-            <ul class="problems" role="alert">
-                {move || problems.get().into_iter().map(|p| view! { <li>{p}</li> }).collect_view()}
+            <ul id="form-problems" class="problems" role="alert">
+                {move || problems.get().into_iter().map(|p| view! { <li>{p.sentence()}</li> }).collect_view()}
             </ul>
             <div class="actions">
                 <button id="save-send" type="submit" class="primary">"Save and send"</button>

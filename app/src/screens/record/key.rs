@@ -1,8 +1,9 @@
 //! The guided species key's panel under the species field: one question at a time
 //! (the one the engine expects to tell most), pictures of each answer, "not sure"
 //! always allowed, the candidates updating as the observer answers, and one tap to pick
-//! a species — or to stop at any genus, family, order or superorder of the leading
-//! candidates, each shown with its summed probability. It runs on the phone with no
+//! a species — or to stop at any genus, family or order of the leading candidates, each
+//! shown with its common name and summed probability, the suggested one marked in words.
+//! The first question is the body shape (shark, ray or skate, chimaera…). It runs on the phone with no
 //! network (the checklist and confirmed records nearby are cached by
 //! `data::checklist` and `data::nearby`). Answers the current checklist does not know
 //! (it changed under the observer) are set aside with a note rather than stopping the key.
@@ -14,10 +15,10 @@ use species_key::{Answer, Answers, Key, TaxonRank};
 
 use crate::data::form_fields::FormFields;
 use crate::data::key::{
-    SHOWN_CANDIDATES, context_for, display_name, higher_taxa, key_choice, position_of, rank_code, set_aside_text,
-    suggested_stop,
+    SHOWN_CANDIDATES, context_for, display_name, group_label, higher_taxa, key_choice, next_question, position_of,
+    rank_code, set_aside_text, suggested_stop,
 };
-use crate::data::nearby;
+use crate::data::{checklist, nearby};
 use crate::screens::record::pictures::picture;
 
 /// Keeps `counts` to the confirmed records near the record's area: the cached answer at
@@ -40,6 +41,7 @@ fn follow_nearby(fields: RwSignal<FormFields>, counts: RwSignal<Option<nearby::C
 /// The key, shown under the species field.
 #[component]
 pub fn KeyPanel(key: RwSignal<Arc<Key>>, fields: RwSignal<FormFields>, open: RwSignal<bool>) -> impl IntoView {
+    checklist::refresh_from_server(key);
     let answers = RwSignal::new(Answers::new());
     let nearby_counts = RwSignal::new(None::<nearby::Counts>);
     follow_nearby(fields, nearby_counts);
@@ -47,8 +49,7 @@ pub fn KeyPanel(key: RwSignal<Arc<Key>>, fields: RwSignal<FormFields>, open: RwS
     // Answers the current checklist knows, and those set aside.
     let usable = Memo::new(move |_| key.with(|k| answers.with(|a| k.usable_answers(a))));
     let ranking = Memo::new(move |_| key.with(|k| usable.with(|(a, _)| k.rank(a, &context.get()).unwrap_or_default())));
-    let question =
-        Memo::new(move |_| key.with(|k| usable.with(|(a, _)| k.next_question(a, &context.get()).ok().flatten())));
+    let question = Memo::new(move |_| key.with(|k| usable.with(|(a, _)| next_question(k, a, &context.get()))));
 
     let answer = move |character: String, given: Answer| answers.update(|a| a.set(&character, given));
     let pick = move |scientific_name: String, rank: TaxonRank, label: String, probability: f64| {
@@ -126,14 +127,15 @@ pub fn KeyPanel(key: RwSignal<Arc<Key>>, fields: RwSignal<FormFields>, open: RwS
         let (offered, suggested) = key.with(|k| (higher_taxa(k, &list), suggested_stop(k, &list)));
         offered.into_iter().map(|support| {
             let rank = support.taxon_rank;
-            let label = format!("{} {}", rank_code(rank), support.scientific_name);
+            let label = key.with_untracked(|k| group_label(k, rank, &support.scientific_name));
             let is_suggested = suggested.as_ref().is_some_and(|s| s.taxon_rank == rank && s.scientific_name == support.scientific_name);
             let class = if is_suggested { "higher-rank suggested" } else { "higher-rank" };
             let text = format!("{label} · {:.0}%", support.probability * 100.0);
             let (name, probability, pick_label) = (support.scientific_name.clone(), support.probability, label.clone());
             view! {
                 <li><button type="button" class=class data-rank=rank_code(rank) data-taxon=support.scientific_name.clone()
-                    on:click=move |_| pick(name.clone(), rank, pick_label.clone(), probability)>{text}</button></li>
+                    on:click=move |_| pick(name.clone(), rank, pick_label.clone(), probability)>
+                    {is_suggested.then(|| view! { <span class="suggested-word">"Suggested: "</span> })}{text}</button></li>
             }
         }).collect_view()
     };
@@ -179,13 +181,13 @@ pub fn KeyPanel(key: RwSignal<Arc<Key>>, fields: RwSignal<FormFields>, open: RwS
 
     view! {
         <section class="key-panel" aria-label="Help me identify">
-            <p class="hint">"Answer what you can see; \"not sure\" is always fine. Do not touch a ray's tail spine."</p>
+            <p class="hint">"Answer what you can see; \"not sure\" is always fine. Do not touch a ray's tail spine or the spines on a spurdog's or chimaera's back."</p>
             {set_aside}
             {question_view}
             <h3>"Most likely"</h3>
             <ol class="candidates">{candidates_view}</ol>
-            <h3>"Or stop at a higher rank"</h3>
-            <p class="hint">"Sure it is a skate, or a catshark, but not which one? Record the group you are sure of."</p>
+            <h3>"Or record the group you are sure of"</h3>
+            <p class="hint">"Sure it is a skate, or a catshark, but not which one? Record the group. The one marked “Suggested” is the smallest group the key is fairly sure of."</p>
             <ul class="higher-ranks">{higher_rank_view}</ul>
             {cannot_separate}
             <details class="answered">

@@ -1,21 +1,35 @@
 //! The form's photos: "Add photo" (each picked photo read and prepared by
 //! `data::photos`), the thumbnails with what each photo says and a way to remove it,
-//! and beside them what this device says. A photo's GPS fills an empty position; the
-//! position goes with the photo when it is removed.
+//! and beside them what this phone says. A photo taken earlier than the record's time
+//! gives the record its time and place (`FormFields::offer_photo`); its GPS fills an
+//! empty position; the position goes with the photo when it is removed.
 
 use leptos::prelude::*;
+use shared_types::PositionSource;
 
 use crate::data::form_fields::FormFields;
 use crate::data::photos::{self, PickedPhoto};
 use crate::data::time::BrowserZone;
 
-/// Fills an empty position from the first photo's GPS and says so beside it.
-fn prefill_from_photo(fields: RwSignal<FormFields>, note: RwSignal<String>, first: &PickedPhoto) {
-    let mut filled = fields.get_untracked();
-    if filled.fill_from_photo(&first.exif, &first.preview_url) {
-        fields.set(filled);
-        note.set("from the first photo's GPS (this device gave no position)".into());
+/// Lets photo `number` give the record its time and place (or fill an empty position)
+/// and says so beside the position.
+fn offer_photo(fields: RwSignal<FormFields>, note: RwSignal<String>, photo: &PickedPhoto, number: usize) {
+    let mut form = fields.get_untracked();
+    let had_position = !form.latitude.trim().is_empty();
+    if form.offer_photo(&photo.exif, number, &photo.preview_url, &BrowserZone) {
+        let placed = form.position_source == Some(PositionSource::Photo)
+            && form.position_photo.as_deref() == Some(photo.preview_url.as_str());
+        fields.set(form);
+        if placed {
+            let which = if number == 1 { "the first photo's".to_owned() } else { format!("photo {number}'s") };
+            let why = if had_position { "" } else { " (this phone gave no position)" };
+            note.set(format!("from {which} GPS{why}"));
+        }
     }
+}
+
+fn prefill_from_photo(fields: RwSignal<FormFields>, note: RwSignal<String>, first: &PickedPhoto) {
+    offer_photo(fields, note, first, 1);
 }
 
 /// Takes a photo off the form. A position its GPS filled goes with it (and the next
@@ -68,14 +82,14 @@ pub fn PhotoPicker(
                         refused.push(format!("“{}”: this photo is already added.", picked.name));
                         let _ = web_sys::Url::revoke_object_url(&picked.preview_url);
                     }
-                    Ok(picked) => photos.update(|p| p.push(picked)),
+                    Ok(picked) => {
+                        photos.update(|p| p.push(picked.clone()));
+                        offer_photo(fields, position_note, &picked, photos.with_untracked(|p| p.len()));
+                    }
                     Err(problem) => refused.push(problem),
                 }
             }
             photo_note.set(refused.join(" "));
-            if let Some(first) = photos.with_untracked(|p| p.first().cloned()) {
-                prefill_from_photo(fields, position_note, &first);
-            }
         });
     };
 
@@ -98,7 +112,9 @@ pub fn PhotoPicker(
                     }).collect_view()}
                 </ul>
                 <p class="hint">{move || format!("{} photo(s)", photos.with(|p| p.len()))}</p>
-                <p id="device-says" class="hint">{move || fields.with(|f| f.device_says(&BrowserZone))}</p>
+                <Show when=move || photos.with(|p| !p.is_empty())>
+                    <p id="device-says" class="hint">{move || fields.with(|f| f.device_says(&BrowserZone))}</p>
+                </Show>
                 <p id="photo-note" class="problems" role="alert">{move || photo_note.get()}</p>
             </fieldset>
     }

@@ -54,7 +54,7 @@ pub fn DuplicatesOf(detail: ReviewDetail, reloads: RwSignal<u32>, problem: RwSig
         let undecided = dup.decision.is_none();
         view! {
             <li class="duplicate" data-other=other_id>
-                <p><b>{format!("score {:.2}", dup.score)}</b>{format!(" · {} · {:.1} h apart · {} here, {} there",
+                <p><b>{format!("match score {:.2} of 1", dup.score)}</b>{format!(" · {} · {:.1} h apart · {} here, {} there",
                     dup.distance_m.map(|d| format!("{d:.0} m apart")).unwrap_or_else(|| "distance unknown".into()), dup.gap_hours, here_length, length_of(&dup.other))}</p>
                 <p>{format!("{} on {} · {}", dup.other.submission.species_guess.as_ref().map(|g| g.as_str().to_owned()).unwrap_or_else(|| "unnamed".into()),
                     dup.other.submission.observed_at.format("%Y-%m-%d %H:%M"), dup.other.review_state.label())}</p>

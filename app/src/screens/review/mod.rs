@@ -26,7 +26,7 @@ pub fn ReviewScreen() -> impl IntoView {
     view! {
         <section class="card review">
             <h2>"Review"</h2>
-            <p class="hint">"Decisions are kept with who made them and when. Figures and identifications are inputs to assessments, not listings."</p>
+            <p class="hint">"Decisions are kept with who made them and when."</p>
             {move || match (checked.get(), role.get()) {
                 (false, _) => view! { <p class="hint">"checking your sign-in…"</p> }.into_any(),
                 (true, None) => view! { <SignIn role=role /> }.into_any(),

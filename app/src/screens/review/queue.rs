@@ -1,13 +1,13 @@
 //! The review queue: records in the order that matters, each with why — filtered by
-//! state, species or higher taxon, area, dates and flag, a page at a time — and the
-//! record a reviewer opens from it.
+//! state, species or higher taxon, area, dates and flag (folded away on a phone, open on
+//! a desk), a page at a time — and the record a reviewer opens from it.
 
 use leptos::prelude::*;
 use shared_types::codes::code;
 use shared_types::{QueueFlag, QueueItem, Role};
 
 use crate::data::api::{self, QueueFilters};
-use crate::data::checklist;
+use crate::data::{checklist, page};
 use crate::screens::review::record::RecordReview;
 
 /// The queue: filters, a page of records in the order that matters with why, and
@@ -62,8 +62,10 @@ pub fn Queue(role: Role, signed_out: impl Fn() + Copy + 'static) -> impl IntoVie
     view! {
         <div class="row spread">
             {(role == Role::Admin).then(|| view! { <a href="#people">"People"</a> })}
-            <button type="button" class="small" on:click=sign_out>"Sign out"</button>
+            <button id="queue-sign-out" type="button" class="small" on:click=sign_out>"Sign out"</button>
         </div>
+        <details id="filters-fold" class="filters-fold" prop:open=page::wide_screen()>
+        <summary>{move || filters.with(|f| format!("Filters{}", api::filters_set_words(f)))}</summary>
         <form id="queue-filters" class="filters" on:submit=move |ev: leptos::ev::SubmitEvent| { ev.prevent_default(); fetch(false); }>
             <label>"Show" <select id="queue-state" prop:value=move || filters.with(|f| f.state.clone()) on:change=move |ev| set(|f| &mut f.state, event_target_value(&ev), true)>
                 <option value="">"to review"</option>
@@ -92,6 +94,7 @@ pub fn Queue(role: Role, signed_out: impl Fn() + Copy + 'static) -> impl IntoVie
                 <button id="queue-clear" type="button" class="small" on:click=clear>"Clear"</button>
             </div>
         </form>
+        </details>
         <p class="problems">{move || problem.get()}</p>
         {move || match open.get() {
             Some(id) => view! { <RecordReview client_id=id back=move || { open.set(None); fetch(false); } /> }.into_any(),
@@ -100,7 +103,8 @@ pub fn Queue(role: Role, signed_out: impl Fn() + Copy + 'static) -> impl IntoVie
                 <ol id="queue">
                     {move || items.get().into_iter().map(|item| {
                         let id = item.record.submission.client_id.to_string();
-                        let what = item.current_taxon.clone().or_else(|| item.record.submission.species_guess.as_ref().map(|g| g.as_str().to_owned())).unwrap_or_else(|| "unnamed".into());
+                        let what = item.current_taxon.as_deref().map(|name| checklist::common_name(name).map_or_else(|| name.to_owned(), |common| format!("{common} ({name})")))
+                            .or_else(|| item.record.submission.species_guess.as_ref().map(|g| g.as_str().to_owned())).unwrap_or_else(|| "unnamed".into());
                         let when = item.record.submission.observed_at.format("%Y-%m-%d").to_string();
                         let open_id = id.clone();
                         view! {

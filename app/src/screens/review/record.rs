@@ -3,12 +3,14 @@
 //! original when the upload copy carries none), each photo's gap and distance from the
 //! record with its flags, all fields, the guided key's answers and its suggestions
 //! replayed on the server, flags, possible duplicates, identification history,
-//! messages and audit trail — and the decisions.
+//! messages and audit trail, and who sent it with how to reach them — and the
+//! decisions. The heading names the current identification; a refused decision is said
+//! right under the buttons.
 
 use leptos::prelude::*;
 use shared_types::{KeyReplay, PhotoExif, PhotoFlag, PhotoView, QueueFlag, ReviewDetail, distance_words, hours_words};
 
-use crate::data::{api, readable};
+use crate::data::{api, checklist, readable};
 use crate::screens::review::duplicates::DuplicatesOf;
 use crate::screens::review::zoom::PhotoZoom;
 
@@ -39,7 +41,7 @@ fn exif_row(class: &str, label: String, exif: &PhotoExif) -> impl IntoView + use
         .map(|t| readable::time(&t))
         .or_else(|| exif.taken_local.clone().map(|t| format!("{t} (no offset)")));
     let offset = exif.offset_source.is_some().then(|| readable::offset_words(exif).to_owned());
-    let error = exif.horizontal_error_m.map(|e| format!("±{e:.0} m"));
+    let error = exif.horizontal_error_m.map(|e| format!("within {e:.0} m"));
     let extra = [offset, error].into_iter().flatten().collect::<Vec<_>>().join(" · ");
     time_and_place(class, label, when, exif.latitude, exif.longitude, Some(extra))
 }
@@ -143,6 +145,8 @@ fn key_section(choice: Option<shared_types::KeyChoice>, replay: Option<KeyReplay
 pub fn RecordReview(client_id: String, back: impl Fn() + Copy + 'static) -> impl IntoView {
     let detail = RwSignal::new(None::<ReviewDetail>);
     let problem = RwSignal::new(String::new());
+    let load_problem = RwSignal::new(String::new());
+    let pair_problem = RwSignal::new(String::new());
     let zoomed = RwSignal::new(None::<String>);
     // Bumping `reloads` fetches the record again (after every decision).
     let reloads = RwSignal::new(0u32);
@@ -152,8 +156,11 @@ pub fn RecordReview(client_id: String, back: impl Fn() + Copy + 'static) -> impl
         let id = id.clone();
         leptos::task::spawn_local(async move {
             match api::review_record(&id).await {
-                Ok(d) => detail.set(Some(d)),
-                Err(err) => problem.set(err.to_string()),
+                Ok(d) => {
+                    load_problem.set(String::new());
+                    detail.set(Some(d));
+                }
+                Err(err) => load_problem.set(err.to_string()),
             }
         });
     });
@@ -193,7 +200,7 @@ pub fn RecordReview(client_id: String, back: impl Fn() + Copy + 'static) -> impl
 
     view! {
         <button type="button" class="small" on:click=move |_| back()>"← Back to the queue"</button>
-        <p class="problems" role="alert">{move || problem.get()}</p>
+        <p class="problems" role="alert">{move || load_problem.get()}</p>
         <PhotoZoom photo=zoomed />
         {move || detail.get().map(|d| {
             let sub = d.record.submission.clone();
@@ -212,15 +219,27 @@ pub fn RecordReview(client_id: String, back: impl Fn() + Copy + 'static) -> impl
                     </button>
                 }
             }).collect_view();
+            let guess = sub.species_guess.as_ref().map(|g| g.as_str().to_owned()).unwrap_or_else(|| "no guess".into());
+            let current = d.identifications.iter().find(|i| i.current).map(|i| match checklist::common_name(&i.taxon_name) {
+                Some(common) => format!("{common} ({})", i.taxon_name),
+                None => i.taxon_name.clone(),
+            });
+            let observer = d.observer.clone().map(|o| {
+                let name = o.display_name.unwrap_or_else(|| "an observer who gave no name".into());
+                let reach = o.contact.map(|c| format!(" · {c}")).unwrap_or_else(|| " · no contact given".into());
+                format!("Sent by {name}{reach}")
+            });
             view! {
                 <article id="record-review" data-state=d.record.review_state.code()>
-                    <h3>{format!("{} · {}", sub.species_guess.as_ref().map(|g| g.as_str().to_owned()).unwrap_or_else(|| "unnamed".into()), d.record.review_state.label())}</h3>
+                    <h3 id="record-heading">{format!("{} · {}", current.clone().unwrap_or_else(|| guess.clone()), d.record.review_state.label())}</h3>
+                    <p class="hint">{format!("Observer's guess: {guess}")}</p>
+                    {observer.map(|line| view! { <p id="observer-contact" class="observer-contact">{line}<span class="hint">" (for questions about this record only; never exported)"</span></p> })}
                     <div class="photos">{photos}</div>
                     <img class="place-map" src=format!("/api/review/records/{}/map.svg", sub.client_id) alt="map of where the record and its photos were made" />
                     <table class="when-where">
                         <tr><th></th><th>"when"</th><th>"where"</th><th></th></tr>
                         {time_and_place("device", "device".into(), Some(readable::time(&sub.observed_at)), position.map(|p| p.latitude.get()), position.map(|p| p.longitude.get()),
-                            position.and_then(|p| p.accuracy_m).map(|a| format!("±{:.0} m", a.get())))}
+                            position.and_then(|p| p.accuracy_m).map(|a| format!("within {:.0} m", a.get())))}
                         {photo_rows(&d.record.photos)}
                     </table>
                     <ul class="photo-checks">{photo_checks(&d.record.photos)}</ul>
@@ -234,7 +253,8 @@ pub fn RecordReview(client_id: String, back: impl Fn() + Copy + 'static) -> impl
                     {key_section(sub.key_choice.clone(), d.key.clone())}
                     <h4>"Flags and priority"</h4>
                     <ul class="flags">{d.priority_reasons.iter().map(|r| view! { <li>{r.clone()}</li> }).collect_view()}</ul>
-                    <DuplicatesOf detail=d.clone() reloads=reloads problem=problem />
+                    <DuplicatesOf detail=d.clone() reloads=reloads problem=pair_problem />
+                    <p id="pair-problem" class="problems" role="alert">{move || pair_problem.get()}</p>
                     <h4>"Identifications"</h4>
                     <ol class="identifications">{d.identifications.iter().map(|i| view! {
                         <li class=if i.current { "current" } else { "superseded" }>{format!("{} ({}) by {} on {} [{}]{}", i.taxon_name, i.taxon_rank.clone().unwrap_or_else(|| "rank not given".into()),
@@ -263,6 +283,8 @@ pub fn RecordReview(client_id: String, back: impl Fn() + Copy + 'static) -> impl
                 <button id="ask-details" type="button" on:click=ask>"Ask the observer"</button>
                 <button id="not-confirmable" type="button" on:click=refuse>"Not confirmable"</button>
             </div>
+            <p class="hint">"The message, or the reason for “not confirmable”, is sent to the observer's phone."</p>
+            <p id="decide-problem" class="problems" role="alert">{move || problem.get()}</p>
         </fieldset>
     }
 }

@@ -41,14 +41,14 @@ async fn a_life_stage_reaches_csv_geojson_and_the_archive() {
     assert_eq!(measurements, 0, "no length row for egg cases");
     assert_eq!(term(row(&archive, JUVENILE), "lifeStage"), "juvenile");
 
-    let csv = app.get("/api/export?format=csv").await.text().await.unwrap();
+    let csv = app.get("/api/export?format=csv&state=any").await.text().await.unwrap();
     let mut reader = csv::Reader::from_reader(csv.as_bytes());
     let column = reader.headers().unwrap().iter().position(|h| h == "lifeStage").expect("a lifeStage column");
     let mut stages: Vec<String> = reader.records().map(|r| r.unwrap()[column].to_owned()).collect();
     stages.sort();
     assert_eq!(stages, ["egg", "juvenile"]);
 
-    let geojson: Value = app.get("/api/export?format=geojson").await.json().await.unwrap();
+    let geojson: Value = app.get("/api/export?format=geojson&state=any").await.json().await.unwrap();
     let feature =
         geojson["features"].as_array().unwrap().iter().find(|f| f["id"] == format!("urn:uuid:{EGG_CASES}")).unwrap();
     assert_eq!(feature["properties"]["lifeStage"], "egg");

@@ -23,7 +23,8 @@ async fn a_stalled_export_does_not_hold_up_submissions() {
     let socket = tokio::net::TcpSocket::new_v4().unwrap();
     socket.set_recv_buffer_size(4096).unwrap();
     let mut stream = socket.connect(address.parse().unwrap()).await.unwrap();
-    let request = format!("GET /api/export?format=csv HTTP/1.1\r\nHost: {address}\r\nConnection: close\r\n\r\n");
+    let request =
+        format!("GET /api/export?format=csv&state=any HTTP/1.1\r\nHost: {address}\r\nConnection: close\r\n\r\n");
     stream.write_all(request.as_bytes()).await.unwrap();
     let head = read_head(&mut stream).await;
     assert!(head.starts_with("HTTP/1.1 200"), "{head}");
