@@ -1,6 +1,7 @@
 //! What happens when a record arrives, stage after stage: intake checks and stores it
-//! with its photos, then the search for other reports of the same animal runs. The
-//! handlers and the demo loader both come through here, so a record is treated the
+//! with its photos, the search for other reports of the same animal in the same commit;
+//! then a live animal's notifications to the responders are made (and delivered in the
+//! background, `crate::notify`). The handlers and the demo loader both come through here, so a record is treated the
 //! same however it arrives. Once intake has stored the record its receipt goes back:
 //! follow-up work that fails is retried in the background, never answered as an error.
 
@@ -8,6 +9,7 @@ use chrono::{DateTime, Utc};
 
 use crate::duplicates::search::{search_once, search_unless_done};
 use crate::intake::{self, Accepted, IntakeError, Upload};
+use crate::notify::worker::enqueue;
 use crate::state::AppState;
 
 /// Accepts one submission from the phone `observer_id` (none for the demo loader).
@@ -25,6 +27,13 @@ pub async fn receive(
     let accepted = intake::accept(&state.intake(), upload, observer_id, now, Some(search)).await?;
     // The record is stored: from here nothing may turn its answer into an error.
     let id = accepted.receipt.observation_id;
+    // A live animal's notifications; a resend makes none twice, and makes them should
+    // the first arrival have failed to.
+    match enqueue(&state.store, &state.settings.responders, id, accepted.urgent).await {
+        Ok(0) => {}
+        Ok(_) => state.notify_wake.notify_one(),
+        Err(err) => tracing::error!(observation = id, error = %err, "could not make the responders' notification"),
+    }
     if let Some(err) = &accepted.follow_up_failed {
         tracing::warn!(observation = id, error = %err, "search for duplicates failed; trying again in the background");
         state.retries.push(id);

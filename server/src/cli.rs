@@ -39,7 +39,7 @@ pub enum Command {
     Trend(commands::trend::TrendArgs),
     /// Survey effort: kilometres and hours walked per stretch per month or year.
     Effort(EffortArgs),
-    /// People with a sign-in (reviewers and admins).
+    /// People with a sign-in (reviewers, admins and responders).
     #[command(subcommand)]
     User(UserCommand),
     /// Copy the database and every photo into a new folder, while the server runs.
@@ -49,11 +49,14 @@ pub enum Command {
     /// Check the database's integrity and that every photo it names is present and
     /// matches its SHA-256 (a data directory or a backup).
     Check,
+    /// Samples taken from animals.
+    #[command(subcommand)]
+    Sample(commands::sample::SampleCommand),
 }
 
 #[derive(Debug, Subcommand)]
 pub enum UserCommand {
-    /// Add a reviewer or admin. The password is read from WRACKLINE_PASSWORD, or else
+    /// Add a reviewer, admin or responder. The password is read from WRACKLINE_PASSWORD, or else
     /// from the first line of standard input.
     Add {
         #[arg(long)]
@@ -71,6 +74,7 @@ pub enum UserCommand {
 pub enum StaffRole {
     Reviewer,
     Admin,
+    Responder,
 }
 
 #[derive(Debug, clap::Args)]
@@ -114,6 +118,7 @@ pub fn run(cli: Cli) -> anyhow::Result<()> {
         Command::Backup(args) => commands::backup::backup(&cli.data_dir, &args),
         Command::Restore(args) => commands::backup::restore(&cli.data_dir, &args),
         Command::Check => commands::backup::check(&cli.data_dir),
+        Command::Sample(command) => commands::sample::run(&cli.data_dir, command),
     }
 }
 
@@ -191,6 +196,7 @@ fn user(data_dir: &std::path::Path, command: UserCommand) -> anyhow::Result<()> 
             let role = match role {
                 StaffRole::Reviewer => shared_types::Role::Reviewer,
                 StaffRole::Admin => shared_types::Role::Admin,
+                StaffRole::Responder => shared_types::Role::Responder,
             };
             let display = display_name.unwrap_or_else(|| username.clone());
             runtime

@@ -9,8 +9,8 @@
 //! - [`arrival`]: what happens when a record arrives, stage after stage, and [`state`],
 //!   what every handler may reach;
 //! - the stages in the order a record travels, with no HTTP in them: [`export`] and
-//!   [`assess`] → [`protect`] → [`review`] → [`duplicates`] → [`intake`], beside
-//!   them [`people`] (sign-ins);
+//!   [`assess`] → [`protect`] → [`review`] → [`duplicates`] and [`notify`] (the
+//!   responders) → [`intake`], beside them [`people`] (sign-ins);
 //! - [`store`]: the only code that runs SQL;
 //! - [`taxa`]: names to checklist taxa, the lookup every stage shares; [`settings`],
 //!   the operator's settings.
@@ -25,6 +25,7 @@ pub mod error;
 pub mod export;
 pub mod handlers;
 pub mod intake;
+pub mod notify;
 pub mod people;
 pub mod protect;
 pub mod review;

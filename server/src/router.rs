@@ -15,7 +15,8 @@ use tower_http::timeout::{RequestBodyDeadlineLayer, RequestBodyTimeoutLayer};
 
 use crate::error::ApiError;
 use crate::handlers::{
-    assess, checklist, export, guard, health, mine, observations, people, photos, review, session, site, walks,
+    assess, checklist, export, fieldwork, guard, health, mine, observations, people, photos, review, session, site,
+    walks,
 };
 use crate::intake::photos::{MAX_PHOTO_BYTES, MAX_PHOTOS_PER_RECORD};
 use crate::state::AppState;
@@ -37,6 +38,8 @@ pub enum Access {
     OwnDeviceOrReviewer,
     /// A signed-in reviewer or admin.
     Reviewer,
+    /// A signed-in responder, reviewer or admin.
+    Responder,
     /// A signed-in admin.
     Admin,
 }
@@ -105,7 +108,7 @@ const WALK_LIMIT: usize = 4 * 1024 * 1024;
 /// The largest body of any other route: sign-ins, names, review decisions.
 const JSON_LIMIT: usize = 64 * 1024;
 
-use Access::{Admin, Device, OwnDevice, OwnDeviceOrReviewer, Public, Reviewer};
+use Access::{Admin, Device, OwnDevice, OwnDeviceOrReviewer, Public, Responder, Reviewer};
 use Verb::{Delete, Get, Post, Put};
 
 /// Every route, with its access and handler. [`app`] adds nothing else but the JSON 404
@@ -146,6 +149,13 @@ pub const ROUTES: &[RouteSpec] = &[
         on(m, review::decide_pair)
     }),
     route(Post, "/api/review/merges/{merge_id}/undo", Reviewer, |m| on(m, review::undo_merge)),
+    route(Get, "/api/urgent", Responder, |m| on(m, fieldwork::urgent)),
+    route(Post, "/api/review/records/{client_id}/responses", Responder, |m| on(m, fieldwork::log_response)),
+    route(Post, "/api/review/records/{client_id}/samples", Reviewer, |m| on(m, fieldwork::add_sample)),
+    route(Put, "/api/review/records/{client_id}/carcass", Reviewer, |m| on(m, fieldwork::set_carcass)),
+    route(Get, "/api/samples", Reviewer, |m| on(m, fieldwork::register)),
+    route(Get, "/api/samples/{code}", Reviewer, |m| on(m, fieldwork::lookup)),
+    route(Put, "/api/samples/{code}", Reviewer, |m| on(m, fieldwork::change_sample)),
     route(Get, "/api/people", Admin, |m| on(m, people::list)),
     route(Post, "/api/people", Admin, |m| on(m, people::add)),
     route(Put, "/api/people/{username}/disabled", Admin, |m| on(m, people::set_disabled)),
@@ -204,6 +214,7 @@ async fn api_not_found() -> ApiError {
 /// Serves the app on an already bound listener until Ctrl-C or SIGTERM, so tests can
 /// bind port 0 and read the port back.
 pub async fn serve(listener: tokio::net::TcpListener, state: AppState) -> anyhow::Result<()> {
+    state.start_background_work()?;
     serve_until(listener, state, stop_signal()).await;
     Ok(())
 }

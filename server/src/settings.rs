@@ -70,6 +70,8 @@ pub struct Settings {
     /// well below the process's open-file limit (`ulimit -n`).
     #[arg(long, env = "WRACKLINE_MAX_CONNECTIONS", default_value_t = Settings::DEFAULT.max_connections)]
     pub max_connections: usize,
+    #[command(flatten)]
+    pub responders: Responders,
 }
 
 impl Settings {
@@ -90,6 +92,7 @@ impl Settings {
         body_idle_timeout_s: 30,
         body_deadline_s: 900,
         max_connections: 512,
+        responders: Responders::NONE,
     };
 
     /// The free space the server keeps on the data disk, in bytes.
@@ -101,6 +104,95 @@ impl Settings {
 impl Default for Settings {
     fn default() -> Self {
         Self::DEFAULT
+    }
+}
+
+/// How the local stranding responders hear of a live animal the moment its record is
+/// stored (`crate::notify`). Either channel, both or neither may be set.
+#[derive(Debug, Clone, clap::Args)]
+pub struct Responders {
+    /// An address that receives a signed JSON POST for each live animal (none by default).
+    #[arg(long = "responders-webhook", env = "WRACKLINE_RESPONDERS_WEBHOOK")]
+    pub webhook: Option<String>,
+    /// The shared secret the webhook's body is signed with (HMAC-SHA256); needed with
+    /// `--responders-webhook`.
+    #[arg(long = "responders-webhook-secret", env = "WRACKLINE_RESPONDERS_WEBHOOK_SECRET", hide_env_values = true)]
+    pub webhook_secret: Option<String>,
+    /// Email addresses, separated by commas, that receive a message for each live animal
+    /// (none by default); sent through `--smtp-server`.
+    #[arg(long = "responders-email", env = "WRACKLINE_RESPONDERS_EMAIL", value_delimiter = ',')]
+    pub email_to: Vec<String>,
+    /// The SMTP server, HOST:PORT, that sends the emails.
+    #[arg(long = "smtp-server", env = "WRACKLINE_SMTP_SERVER")]
+    pub smtp_server: Option<String>,
+    /// How to talk to the SMTP server: starttls (default), tls, or none (only for a
+    /// relay on this machine).
+    #[arg(long = "smtp-security", env = "WRACKLINE_SMTP_SECURITY", value_enum, default_value_t = SmtpSecurity::Starttls)]
+    pub smtp_security: SmtpSecurity,
+    /// The sender of the emails (default: wrackline@ the SMTP server's host).
+    #[arg(long = "smtp-from", env = "WRACKLINE_SMTP_FROM")]
+    pub smtp_from: Option<String>,
+    /// The SMTP sign-in, when the server needs one.
+    #[arg(long = "smtp-username", env = "WRACKLINE_SMTP_USERNAME")]
+    pub smtp_username: Option<String>,
+    #[arg(long = "smtp-password", env = "WRACKLINE_SMTP_PASSWORD", hide_env_values = true)]
+    pub smtp_password: Option<String>,
+    /// The wait before the first retry of an undelivered notification, in milliseconds
+    /// (default 15 000); each later wait doubles, up to 15 minutes.
+    #[arg(long = "notify-first-retry-ms", env = "WRACKLINE_NOTIFY_FIRST_RETRY_MS", default_value_t = 15_000)]
+    pub first_retry_ms: u64,
+}
+
+/// How the SMTP connection is protected.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Default, clap::ValueEnum)]
+pub enum SmtpSecurity {
+    #[default]
+    Starttls,
+    Tls,
+    None,
+}
+
+impl Responders {
+    /// No channel set up: the default.
+    pub const NONE: Responders = Responders {
+        webhook: None,
+        webhook_secret: None,
+        email_to: Vec::new(),
+        smtp_server: None,
+        smtp_security: SmtpSecurity::Starttls,
+        smtp_from: None,
+        smtp_username: None,
+        smtp_password: None,
+        first_retry_ms: 15_000,
+    };
+
+    /// The channels set up, by name (`webhook`, `email`).
+    pub fn channels(&self) -> Vec<&'static str> {
+        let mut channels = Vec::new();
+        if self.webhook.is_some() {
+            channels.push("webhook");
+        }
+        if !self.email_to.is_empty() {
+            channels.push("email");
+        }
+        channels
+    }
+
+    /// What is missing for the channels set up, in words; `None` when they are complete.
+    pub fn problem(&self) -> Option<String> {
+        if self.webhook.is_some() && self.webhook_secret.as_deref().is_none_or(str::is_empty) {
+            return Some("--responders-webhook needs --responders-webhook-secret to sign its messages".into());
+        }
+        if !self.email_to.is_empty() && self.smtp_server.is_none() {
+            return Some("--responders-email needs --smtp-server HOST:PORT to send through".into());
+        }
+        None
+    }
+}
+
+impl Default for Responders {
+    fn default() -> Self {
+        Self::NONE
     }
 }
 

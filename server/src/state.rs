@@ -36,12 +36,21 @@ pub struct AppState {
     pub address_pace: intake::rate::RateLimiter<std::net::IpAddr>,
     /// The operator's settings.
     pub settings: Settings,
+    /// Wakes the responders' notification task when a notification is made.
+    pub notify_wake: std::sync::Arc<tokio::sync::Notify>,
 }
 
 impl AppState {
     /// The checklist in use.
     pub fn checklist(&self) -> &species_key::Checklist {
         self.taxa.checklist()
+    }
+
+    /// Starts the tasks that run beside the requests: the responders' notifications.
+    /// `Err` names a setting that stops them from working.
+    pub fn start_background_work(&self) -> anyhow::Result<()> {
+        crate::notify::worker::start(self.store.clone(), self.settings.responders.clone(), self.notify_wake.clone())
+            .map_err(|problem| anyhow::anyhow!("responders' notifications: {problem}"))
     }
 
     /// The parts of the server intake works with.
@@ -102,6 +111,7 @@ impl AppState {
                 per_minute: settings.address_per_minute,
             }),
             settings,
+            notify_wake: std::sync::Arc::default(),
         })
     }
 }

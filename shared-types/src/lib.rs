@@ -7,6 +7,7 @@
 
 pub mod codes;
 pub mod exif;
+pub mod fieldwork;
 pub mod limits;
 pub mod problem;
 pub mod record;
@@ -14,6 +15,7 @@ pub mod review;
 pub mod values;
 pub mod walk;
 
+pub use fieldwork::*;
 pub use problem::ErrorBody;
 pub use record::*;
 pub use review::*;

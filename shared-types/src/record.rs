@@ -328,6 +328,12 @@ pub enum SubmissionProblem {
 pub const CLOCK_TOLERANCE_MINUTES: i64 = 10;
 
 impl Submission {
+    /// A live animal needs trained responders at once: the phone sends such a record
+    /// first and the server tells the responders as soon as it is stored.
+    pub fn is_urgent(&self) -> bool {
+        self.condition == Condition::Alive
+    }
+
     /// Checks what serde cannot check field by field.
     pub fn check(&self, now: DateTime<Utc>) -> Result<(), SubmissionProblem> {
         if self.observed_at.with_timezone(&Utc) > now + chrono::Duration::minutes(CLOCK_TOLERANCE_MINUTES) {

@@ -16,6 +16,8 @@ pub enum Role {
     Observer,
     Reviewer,
     Admin,
+    /// A trained responder: sees live-animal records and logs what was done.
+    Responder,
 }
 
 impl Role {
@@ -24,11 +26,12 @@ impl Role {
             Self::Observer => "observer",
             Self::Reviewer => "reviewer",
             Self::Admin => "admin",
+            Self::Responder => "responder",
         }
     }
 
     pub fn from_code(code: &str) -> Option<Self> {
-        [Self::Observer, Self::Reviewer, Self::Admin].into_iter().find(|r| r.code() == code)
+        [Self::Observer, Self::Reviewer, Self::Admin, Self::Responder].into_iter().find(|r| r.code() == code)
     }
 }
 
@@ -238,6 +241,22 @@ pub struct ReviewDetail {
     /// The guided key replayed from the record's answers, when the observer used it.
     #[serde(default)]
     pub key: Option<KeyReplay>,
+    /// A live animal: responders must hear of it; it stays first in the queue until a
+    /// response is logged.
+    #[serde(default)]
+    pub urgent: bool,
+    /// How the responders were told (for an urgent record), by each channel.
+    #[serde(default)]
+    pub notifications: Vec<crate::fieldwork::NotificationView>,
+    /// What responders did, oldest first.
+    #[serde(default)]
+    pub responses: Vec<crate::fieldwork::ResponseView>,
+    /// Samples taken from the animal (from any of its reports), oldest first.
+    #[serde(default)]
+    pub samples: Vec<crate::fieldwork::SampleView>,
+    /// The carcass's fate and what an examination found.
+    #[serde(default)]
+    pub carcass: Option<crate::fieldwork::CarcassView>,
     /// Who sent it and how to reach them, as the observer gave it ("About you"): for
     /// reviewers only, never exported or shown to anyone else.
     #[serde(default)]

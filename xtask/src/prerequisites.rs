@@ -103,9 +103,10 @@ pub fn npm_packages() -> Result<()> {
     run::check(command).context("installing the browser-test packages; try: npm ci --prefix tests/browser")
 }
 
-/// The Python packages the export tests read archives and GeoJSON back with, and the
-/// range benchmark compares EOO and AOO against (pyproj + shapely).
-const PYTHON_PACKAGES: &[&str] = &["python-dwca-reader==0.17.1", "shapely==2.2.0", "pyproj==3.7.2"];
+/// The Python packages the export tests read archives and GeoJSON back with, the range
+/// benchmark compares EOO and AOO against (pyproj + shapely), and the notification tests
+/// receive email with (aiosmtpd, a local SMTP server).
+const PYTHON_PACKAGES: &[&str] = &["python-dwca-reader==0.17.1", "shapely==2.2.0", "pyproj==3.7.2", "aiosmtpd==1.4.6"];
 
 /// A virtualenv in `target/venv` with the reference Python packages; returns its Python,
 /// which `test` and `bench` pass on as `WRACKLINE_PYTHON`.

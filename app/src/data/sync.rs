@@ -106,9 +106,11 @@ async fn round(outbox: Outbox) -> Option<String> {
         Ok(token) => token,
         Err(err) => return Some(err),
     };
+    // A live animal goes before anything else: responders hear of it from the server.
+    let urgent_problem = send_records(outbox, &token, Which::Urgent).await;
     let profile_problem = identity::send_profile_if_changed(&token).await;
     let walk_problem = send_walks(outbox, &token).await;
-    let record_problem = send_records(outbox, &token).await;
+    let record_problem = send_records(outbox, &token, Which::All).await;
     let link_problem = send_links(outbox, &token).await;
     let reply_problem = replies::send_waiting(&token).await;
     let fetch_problem = match my_records::fetch(&token).await {
@@ -119,7 +121,13 @@ async fn round(outbox: Outbox) -> Option<String> {
         Err(err) => Some(err),
     };
     outbox.reload().await;
-    walk_problem.or(record_problem).or(link_problem).or(reply_problem).or(fetch_problem).or(profile_problem)
+    urgent_problem
+        .or(walk_problem)
+        .or(record_problem)
+        .or(link_problem)
+        .or(reply_problem)
+        .or(fetch_problem)
+        .or(profile_problem)
 }
 
 /// What one attempt to send a record leaves it as: received with its receipt, refused
@@ -141,13 +149,31 @@ pub fn walk_state_after(outcome: Result<shared_types::WalkReceipt, ApiError>) ->
     }
 }
 
-async fn send_records(outbox: Outbox, token: &str) -> Option<String> {
+/// Which records a pass sends.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+enum Which {
+    /// Live animals only, before anything else in the round.
+    Urgent,
+    All,
+}
+
+/// The records to send, in the order to send them: live animals first, then the
+/// oldest first.
+fn send_queue(stored: Vec<Entry>, which: Which) -> Vec<Entry> {
+    let mut queue: Vec<Entry> = stored
+        .into_iter()
+        .filter(|e| e.sync.wants_sending() && (which == Which::All || e.submission.is_urgent()))
+        .collect();
+    queue.sort_by_key(|e| (!e.submission.is_urgent(), e.submission.observed_at));
+    queue
+}
+
+async fn send_records(outbox: Outbox, token: &str, which: Which) -> Option<String> {
     let stored = match outbox::load_all().await {
         Ok(list) => list,
         Err(err) => return Some(err),
     };
-    let mut queue: Vec<Entry> = stored.into_iter().filter(|e| e.sync.wants_sending()).collect();
-    queue.sort_by_key(|e| e.submission.observed_at);
+    let queue = send_queue(stored, which);
     let mut problem = None;
     for entry in queue {
         let id = entry.id();
@@ -266,6 +292,36 @@ mod tests {
     fn status(status: u16, body: Option<(&str, Option<&str>)>) -> ApiError {
         let body = body.map(|(error, field)| ErrorBody { error: error.into(), field: field.map(str::to_owned) });
         ApiError::Status { status, body }
+    }
+
+    fn entry(minutes: i64, condition: shared_types::Condition, sync: SyncState) -> Entry {
+        use crate::data::form_fields::tests::{filled, saved_at};
+        use crate::data::time::tests::LONDON;
+        let mut submission = filled().to_submission(uuid::Uuid::new_v4(), &LONDON, saved_at()).unwrap();
+        submission.observed_at += chrono::Duration::minutes(minutes);
+        submission.condition = condition;
+        Entry::new(submission, sync, 0)
+    }
+
+    #[test]
+    fn a_live_animal_is_sent_before_older_records_and_alone_in_the_first_pass() {
+        use shared_types::Condition::{Alive, Decomposed, FreshDead};
+        let stored = vec![
+            entry(0, Decomposed, SyncState::Waiting),
+            entry(30, Alive, SyncState::Waiting),
+            entry(10, FreshDead, SyncState::Sent),
+            entry(20, Alive, SyncState::Draft),
+            entry(5, FreshDead, SyncState::Received { receipt: receipt() }),
+        ];
+        let order = |which| -> Vec<(i64, bool)> {
+            let first = stored[0].submission.observed_at;
+            send_queue(stored.clone(), which)
+                .iter()
+                .map(|e| ((e.submission.observed_at - first).num_minutes(), e.submission.is_urgent()))
+                .collect()
+        };
+        assert_eq!(order(Which::Urgent), [(30, true)], "drafts wait for the observer, even of a live animal");
+        assert_eq!(order(Which::All), [(30, true), (0, false), (10, false)]);
     }
 
     #[test]

@@ -120,7 +120,7 @@ pub fn App() -> impl IntoView {
                     <SafetyText responders=Signal::derive(responders) />
                 </details>
                 <WalkBar outbox=outbox />
-                <RecordForm outbox=outbox />
+                <RecordForm outbox=outbox responders=Signal::derive(responders) />
                 <AboutYou outbox=outbox />
                 <OnThisPhone outbox=outbox />
                 <MyRecords outbox=outbox />

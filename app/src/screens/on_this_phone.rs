@@ -49,8 +49,10 @@ pub fn OnThisPhone(outbox: Outbox) -> impl IntoView {
                     let queue_id = id.clone();
                     let walk_id = id.clone();
                     let on_walk = entry.walk().is_some();
+                    let urgent = entry.submission.is_urgent();
                     view! {
                         <li class="outbox-entry" data-client-id=id.clone()>
+                            {urgent.then(|| view! { <span class="urgent-mark">"live animal: sent first"</span> })}
                             <span class="summary">{summary}</span>
                             <span class=state.css_class()>{state.label()}</span>
                             {entry.problem_shown().map(|e| view! { <span class="hint">{e.to_owned()}</span> })}

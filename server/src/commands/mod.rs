@@ -1,10 +1,12 @@
 //! The subcommands of `wrackline` beyond serving: the assessors' `range`, `trend` and
-//! `export`, and the operator's `backup`, `restore` and `check`. Each has its clap
-//! arguments and a function that opens what it needs and calls the library.
+//! `export`, the researchers' `sample`, and the operator's `backup`, `restore` and
+//! `check`. Each has its clap arguments and a function that opens what it needs and
+//! calls the library.
 
 pub mod backup;
 pub mod export;
 pub mod range;
+pub mod sample;
 pub mod trend;
 
 use std::path::{Path, PathBuf};

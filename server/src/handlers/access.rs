@@ -3,7 +3,7 @@
 //! the right identity is refused (401/403) whatever it carries.
 //!
 //! - A phone shows its device identity as `Authorization: Bearer <token>` (observers).
-//! - Reviewers and admins carry the `wrackline_session` cookie (HttpOnly, SameSite=Strict),
+//! - Reviewers, admins and responders carry the `wrackline_session` cookie (HttpOnly, SameSite=Strict),
 //!   and every state-changing request made with it must carry the session's CSRF token in
 //!   `X-CSRF-Token`; a bearer token cannot be sent by another site, so it needs none.
 
@@ -104,6 +104,8 @@ pub struct Someone(pub Person);
 pub struct Reviewer(pub Person);
 /// A signed-in admin.
 pub struct Admin(pub Person);
+/// A signed-in responder, reviewer or admin: the people who go out to animals.
+pub struct Responder(pub Person);
 
 impl FromRequestParts<AppState> for Observer {
     type Rejection = ApiError;
@@ -133,6 +135,15 @@ impl FromRequestParts<AppState> for Reviewer {
     }
 }
 
+impl FromRequestParts<AppState> for Responder {
+    type Rejection = ApiError;
+    async fn from_request_parts(parts: &mut Parts, state: &AppState) -> Result<Self, Self::Rejection> {
+        person_with(parts, state, &[Role::Responder, Role::Reviewer, Role::Admin], "responders and reviewers only")
+            .await
+            .map(Responder)
+    }
+}
+
 impl FromRequestParts<AppState> for Admin {
     type Rejection = ApiError;
     async fn from_request_parts(parts: &mut Parts, state: &AppState) -> Result<Self, Self::Rejection> {
@@ -147,6 +158,7 @@ pub fn check_owner(person: &Person, owner: Option<i64>, staff_too: bool, what: &
     let allowed = match person.role {
         Role::Observer => owner == Some(person.id),
         Role::Reviewer | Role::Admin => staff_too,
+        Role::Responder => false,
     };
     if allowed { Ok(()) } else { Err(ApiError::Forbidden(format!("{what} was sent from another phone"))) }
 }

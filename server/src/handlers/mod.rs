@@ -7,6 +7,7 @@ pub mod assess;
 pub mod checklist;
 pub mod connections;
 pub mod export;
+pub mod fieldwork;
 pub mod guard;
 pub mod health;
 pub mod mine;

@@ -17,7 +17,10 @@ use crate::protect::{Audience, Publisher};
 use crate::review;
 use crate::review::queue::Wanted;
 use crate::state::AppState;
-use crate::store::{duplicates as duplicates_store, observations, people as people_store, review as review_store};
+use crate::store::{
+    duplicates as duplicates_store, fieldwork, notifications, observations, people as people_store,
+    review as review_store,
+};
 
 fn record_id(text: &str) -> Result<Uuid, ApiError> {
     Uuid::parse_str(text).map_err(|_| ApiError::BadRequest(format!("`{text}` is not a record id (a UUID)")))
@@ -83,15 +86,16 @@ pub async fn queue(
     let states = states_asked(filter.state.as_deref())?;
     let flag = flag_asked(filter.flag.as_deref())?;
     let (from, to) = (date_asked("from", filter.from.as_deref())?, date_asked("to", filter.to.as_deref())?);
-    let rows = state
+    let (rows, responded) = state
         .store
         .run(move |conn| {
             let undecided = duplicates_store::undecided(conn)?;
             let records = observations::records_in_states(conn, &states)?;
-            Ok(records
+            let rows = records
                 .into_iter()
                 .map(|(record, taxon)| (undecided.contains(&record.observation_id), record, taxon))
-                .collect::<Vec<_>>())
+                .collect::<Vec<_>>();
+            Ok((rows, fieldwork::responded(conn)?))
         })
         .await?;
     let wanted = Wanted {
@@ -103,7 +107,15 @@ pub async fn queue(
         offset: filter.offset.unwrap_or(0),
         limit: filter.limit.unwrap_or(QUEUE_PAGE).min(QUEUE_PAGE_MAX),
     };
-    Ok(Json(review::queue::select(rows, &wanted, &state.taxa)))
+    Ok(Json(review::queue::select(rows, &responded, &wanted, &state.taxa)))
+}
+
+/// What the people who go out have added to a record.
+struct Fieldwork {
+    notifications: Vec<shared_types::NotificationView>,
+    responses: Vec<shared_types::ResponseView>,
+    samples: Vec<shared_types::SampleView>,
+    carcass: Option<shared_types::CarcassView>,
 }
 
 /// `GET /api/review/records/{client_id}`.
@@ -130,12 +142,20 @@ pub async fn detail(
                 review_store::events(conn, observation)?,
             );
             let observer = people_store::observer_of_observation(conn, observation)?;
-            Ok(Some((record, taxon, name_reading, history, duplicates, possible, observer)))
+            let fieldwork = Fieldwork {
+                notifications: notifications::of_record(conn, observation)?,
+                responses: fieldwork::responses(conn, observation)?,
+                samples: fieldwork::samples_of_animal(conn, observation)?,
+                carcass: fieldwork::carcass_of_animal(conn, observation)?,
+            };
+            Ok(Some((record, taxon, name_reading, history, duplicates, possible, observer, fieldwork)))
         })
         .await?;
-    let (record, taxon, name_reading, (identifications, messages, events), duplicates, possible, observer) =
+    let (record, taxon, name_reading, (identifications, messages, events), duplicates, possible, observer, fieldwork) =
         found.ok_or_else(|| ApiError::NotFound(format!("no record with id {id}")))?;
-    let (_, priority_reasons) = review::priority(&record, taxon.as_deref(), &state.taxa, possible);
+    let urgent = record.submission.is_urgent();
+    let awaiting = urgent && fieldwork.responses.is_empty();
+    let (_, priority_reasons) = review::priority(&record, taxon.as_deref(), &state.taxa, possible, awaiting);
     let key = review::key_replay(state.checklist(), &record.submission);
     Ok(Json(ReviewDetail {
         record,
@@ -147,6 +167,11 @@ pub async fn detail(
         key,
         observer,
         name_reading,
+        urgent,
+        notifications: fieldwork.notifications,
+        responses: fieldwork.responses,
+        samples: fieldwork.samples,
+        carcass: fieldwork.carcass,
     }))
 }
 

@@ -138,6 +138,8 @@ pub struct Accepted {
     pub replayed: bool,
     /// Why the follow-up work failed, when it ran and failed (the record is stored).
     pub follow_up_failed: Option<String>,
+    /// A live animal: responders must hear of it (`Submission::is_urgent`).
+    pub urgent: bool,
 }
 
 /// Work to run right after a new record is inserted, in the same commit but in a
@@ -215,7 +217,7 @@ pub async fn accept(
         // A resend, answered before any photo is decoded or written. Two copies sent at
         // once may both pass here; the insert itself decides between them.
         return if hash == content_sha256 {
-            Ok(Accepted { receipt, replayed: true, follow_up_failed: None })
+            Ok(Accepted { receipt, replayed: true, follow_up_failed: None, urgent: submission.is_urgent() })
         } else {
             Err(IntakeError::Conflict(submission.client_id))
         };
@@ -234,6 +236,7 @@ pub async fn accept(
     };
     let new = NewObservation { content_sha256, submission, photos: stored, flags, guessed_taxon, observer_id };
     let client_id = new.submission.client_id;
+    let urgent = new.submission.is_urgent();
     let outcome = state
         .store
         .write(move |conn| {
@@ -261,8 +264,8 @@ pub async fn accept(
         }
     };
     match outcome {
-        Insertion::Created(receipt) => Ok(Accepted { receipt, replayed: false, follow_up_failed }),
-        Insertion::Replayed(receipt) => Ok(Accepted { receipt, replayed: true, follow_up_failed: None }),
+        Insertion::Created(receipt) => Ok(Accepted { receipt, replayed: false, follow_up_failed, urgent }),
+        Insertion::Replayed(receipt) => Ok(Accepted { receipt, replayed: true, follow_up_failed: None, urgent }),
         Insertion::Conflict => {
             placed.discard(state).await;
             Err(IntakeError::Conflict(client_id))

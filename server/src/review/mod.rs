@@ -2,7 +2,8 @@
 //! from which state and why, why a record stands where it does in the queue, which
 //! records a taxon filter takes in, and the guided key replayed for the reviewer.
 //!
-//! Queue order (most important first): protected species, then sensitive species
+//! Queue order (most important first): live animals no response has been logged for,
+//! then protected species, then sensitive species
 //! (locations generalised in public), then records with flags (each kind of flag
 //! counts: oversize, out of range, possible duplicate, photo older than the record,
 //! photo far from the record), then the oldest observation first.

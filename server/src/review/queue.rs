@@ -60,29 +60,44 @@ fn photo_reasons(record: &RecordView) -> Vec<String> {
     reasons
 }
 
+/// A live animal no response has been logged for outranks everything else.
+pub const URGENT_WEIGHT: u32 = 100_000;
+/// A protected species (or a higher taxon holding one).
+pub const PROTECTED_WEIGHT: u32 = 1000;
+/// A sensitive species (or a higher taxon holding one).
+pub const SENSITIVE_WEIGHT: u32 = 500;
+/// Each kind of flag the record carries.
+pub const FLAG_WEIGHT: u32 = 100;
+
 /// A record's place in the queue: a sort key (higher first) and the reasons in words.
+/// `awaiting_response`: the animal is alive and no responder has logged what was done.
 pub fn priority(
     record: &RecordView,
     current_taxon: Option<&str>,
     taxa: &TaxonIndex,
     possible_duplicate: bool,
+    awaiting_response: bool,
 ) -> (u32, Vec<String>) {
     let mut score = 0;
     let mut reasons = Vec::new();
+    if awaiting_response {
+        score += URGENT_WEIGHT;
+        reasons.push("a live animal: no response logged yet".into());
+    }
     // At any rank: a genus or family counts as protected or sensitive if any of its species is.
     if let Some(taxon) = current_taxon.and_then(|name| taxa.named(name)) {
         let may_be = if taxon.rank == species_key::TaxonRank::Species { "" } else { " (or holds species that are)" };
         if taxon.protected {
-            score += 1000;
+            score += PROTECTED_WEIGHT;
             reasons.push(format!("{} is protected{may_be}", taxon.scientific_name));
         }
         if taxon.sensitivity != Sensitivity::None {
-            score += 500;
+            score += SENSITIVE_WEIGHT;
             reasons
                 .push(format!("{} is sensitive{may_be}: its public locations are generalised", taxon.scientific_name));
         }
     }
-    score += 100 * queue_flags(record, possible_duplicate).len() as u32;
+    score += FLAG_WEIGHT * queue_flags(record, possible_duplicate).len() as u32;
     reasons.extend(record.flags.iter().map(|flag| flag.reason.clone()));
     if possible_duplicate {
         reasons.push("possibly the same animal as another report: compare them".into());
@@ -136,8 +151,14 @@ pub struct Wanted {
 }
 
 /// The page of the queue `wanted` asks for, most important first, from every record in
-/// the asked states: (whether a possible duplicate is undecided, the record, its taxon).
-pub fn select(rows: Vec<(bool, RecordView, Option<String>)>, wanted: &Wanted, taxa: &TaxonIndex) -> Vec<QueueItem> {
+/// the asked states: (whether a possible duplicate is undecided, the record, its taxon);
+/// `responded` holds the records whose animal has a logged response.
+pub fn select(
+    rows: Vec<(bool, RecordView, Option<String>)>,
+    responded: &std::collections::HashSet<i64>,
+    wanted: &Wanted,
+    taxa: &TaxonIndex,
+) -> Vec<QueueItem> {
     let checklist = taxa.checklist();
     let taxon = wanted.taxon.as_deref().filter(|t| !t.trim().is_empty()).map(|t| WantedTaxon::new(taxa, t));
     let mut items: Vec<_> = rows
@@ -151,7 +172,8 @@ pub fn select(rows: Vec<(bool, RecordView, Option<String>)>, wanted: &Wanted, ta
                 && wanted.to.as_deref().is_none_or(|to| day.as_str() <= to)
         })
         .map(|(possible, record, current)| {
-            let (score, reasons) = priority(&record, current.as_deref(), taxa, possible);
+            let awaiting = record.submission.is_urgent() && !responded.contains(&record.observation_id);
+            let (score, reasons) = priority(&record, current.as_deref(), taxa, possible, awaiting);
             (score, record, reasons, current)
         })
         .collect();

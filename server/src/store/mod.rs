@@ -18,7 +18,9 @@
 pub mod backup;
 pub mod deployment;
 pub mod duplicates;
+pub mod fieldwork;
 mod migrate;
+pub mod notifications;
 pub mod observations;
 pub mod occurrences;
 pub mod people;

@@ -50,14 +50,19 @@ pub fn add_staff(
     now: DateTime<Utc>,
 ) -> Result<Option<i64>, StoreError> {
     let tx = conn.transaction()?;
+    // A plain INSERT: only a taken username means "taken"; any other refusal (a role the
+    // schema does not know) is an error, never mistaken for it.
     let inserted = tx.execute(
-        "INSERT OR IGNORE INTO people (role, username, display_name, password_hash, created_at, public_id)
+        "INSERT INTO people (role, username, display_name, password_hash, created_at, public_id)
          VALUES (?1, ?2, ?3, ?4, ?5, lower(hex(randomblob(16))))",
         params![role.code(), username, display_name, password_hash, now_text(now)],
-    )?;
-    if inserted == 0 {
-        return Ok(None);
-    }
+    );
+    match inserted {
+        Err(rusqlite::Error::SqliteFailure(err, _)) if err.extended_code == rusqlite::ffi::SQLITE_CONSTRAINT_UNIQUE => {
+            return Ok(None);
+        }
+        other => other?,
+    };
     let id = tx.last_insert_rowid();
     log(&tx, id, by, "added", Some(&format!("as {}", role.code())), now)?;
     tx.commit()?;

@@ -21,6 +21,8 @@ const OTHER_RECORD: &str = "0b7e6d5c-4b3a-4291-8f7e-6d5c4b3a2910";
 const WALK: &str = "7a1b2c3d-4e5f-4a6b-8c7d-9e0f1a2b3c4d";
 /// A walk not stored (yet): linking to it is decided by whose record it is alone.
 const WALK_NOT_YET_SENT: &str = "7a1b2c3d-4e5f-4a6b-8c7d-000000000001";
+/// A sample the matrix may look up and change.
+const MATRIX_SAMPLE: &str = "MATRIX-1";
 /// A sign-in the matrix may change (role, password, turned on) without locking anyone out.
 const MATRIX_PERSON: &str = "matrix-person";
 
@@ -31,9 +33,10 @@ enum Who {
     OtherObserver,
     Reviewer,
     Admin,
+    Responder,
 }
 
-const EVERYONE: [Who; 5] = [Who::Anonymous, Who::Owner, Who::OtherObserver, Who::Reviewer, Who::Admin];
+const EVERYONE: [Who; 6] = [Who::Anonymous, Who::Owner, Who::OtherObserver, Who::Reviewer, Who::Admin, Who::Responder];
 
 /// What each kind of caller must get on a resource that exists and belongs to the owner.
 fn allowed(access: Access, who: Who) -> bool {
@@ -43,6 +46,7 @@ fn allowed(access: Access, who: Who) -> bool {
         Access::OwnDevice => who == Who::Owner,
         Access::OwnDeviceOrReviewer => matches!(who, Who::Owner | Who::Reviewer | Who::Admin),
         Access::Reviewer => matches!(who, Who::Reviewer | Who::Admin),
+        Access::Responder => matches!(who, Who::Responder | Who::Reviewer | Who::Admin),
         Access::Admin => who == Who::Admin,
     }
 }
@@ -65,6 +69,10 @@ enum Body {
     Json(Value),
     /// A multipart form with one JSON part of this name.
     Form(&'static str, Value),
+}
+
+fn sample_json(code: &str) -> Value {
+    json!({"kind": "vertebrae", "code": code, "preservation": "frozen", "stored_at": "freezer 1", "held_by": "the lab", "notes": null})
 }
 
 fn walk_json() -> Value {
@@ -103,6 +111,9 @@ async fn fixture(app: &TestApp) -> Fixture {
         admin.sign(app.client.post(format!("{}/api/people", app.base))).json(&person).send().await.unwrap().status(),
         200
     );
+    let url = format!("{}/api/review/records/{RECORD}/samples", app.base);
+    let added = app.reviewer.sign(app.client.post(url)).json(&sample_json(MATRIX_SAMPLE)).send().await.unwrap();
+    assert_eq!(added.status(), 200);
     Fixture { owner, other, photo, walk }
 }
 
@@ -110,6 +121,7 @@ async fn staff(app: &TestApp, who: Who) -> Option<Staff> {
     let username = match who {
         Who::Reviewer => "test-reviewer",
         Who::Admin => "test-admin",
+        Who::Responder => "test-responder",
         _ => return None,
     };
     Some(sign_in(&app.client, &app.base, username, REVIEWER_PASSWORD).await.expect("signs in"))
@@ -142,7 +154,8 @@ async fn request_for(app: &TestApp, fx: &Fixture, route: &RouteSpec) -> (String,
         .replace("{client_id}", RECORD)
         .replace("{other_client_id}", OTHER_RECORD)
         .replace("{sha256}", &fx.photo)
-        .replace("{username}", MATRIX_PERSON);
+        .replace("{username}", MATRIX_PERSON)
+        .replace("{code}", MATRIX_SAMPLE);
     if path.contains("{merge_id}") {
         path = path.replace("{merge_id}", &fresh_merge(app).await.to_string());
     }
@@ -184,6 +197,14 @@ async fn request_for(app: &TestApp, fx: &Fixture, route: &RouteSpec) -> (String,
         ("POST", "/api/people") => Body::Json(
             json!({"username": format!("m-{}", &fresh()[..8]), "role": "reviewer", "display_name": "M", "password": "matrix-person-pass"}),
         ),
+        ("POST", "/api/review/records/{client_id}/responses") => Body::Json(
+            json!({"who_went": "Matrix", "went_at": "2026-04-12T10:00:00+01:00", "outcome": "not_found", "notes": null}),
+        ),
+        ("POST", "/api/review/records/{client_id}/samples") => Body::Json(sample_json(&format!("M-{}", &fresh()[..8]))),
+        ("PUT", "/api/samples/{code}") => Body::Json(sample_json(MATRIX_SAMPLE)),
+        ("PUT", "/api/review/records/{client_id}/carcass") => Body::Json(json!({
+            "fate": "buried", "examined_at": null, "body_condition": null, "stomach": null, "injuries": null, "notes": null
+        })),
         ("PUT", "/api/people/{username}/disabled") => Body::Json(json!({"disabled": false})),
         ("PUT", "/api/people/{username}/role") => Body::Json(json!({"role": "reviewer"})),
         ("PUT", "/api/people/{username}/password") => Body::Json(json!({"password": "matrix-person-pass"})),
@@ -204,7 +225,7 @@ async fn call(app: &TestApp, fx: &Fixture, route: &RouteSpec, who: Who) -> (u16,
     match who {
         Who::Owner => request = request.bearer_auth(&fx.owner),
         Who::OtherObserver => request = request.bearer_auth(&fx.other),
-        Who::Reviewer | Who::Admin => request = staff(app, who).await.unwrap().sign(request),
+        Who::Reviewer | Who::Admin | Who::Responder => request = staff(app, who).await.unwrap().sign(request),
         Who::Anonymous => {}
     }
     let response = request.send().await.unwrap();

@@ -76,6 +76,13 @@ struct Setup {
     settings: Option<Settings>,
 }
 
+/// The sign-ins every test server has: (username, role); all use [`REVIEWER_PASSWORD`].
+pub const TEST_STAFF: [(&str, shared_types::Role); 3] = [
+    ("test-reviewer", shared_types::Role::Reviewer),
+    ("test-admin", shared_types::Role::Admin),
+    ("test-responder", shared_types::Role::Responder),
+];
+
 async fn spawn(app_dir: Option<PathBuf>, setup: Setup) -> TestApp {
     let dir = tempfile::tempdir().expect("temp dir");
     let data_dir = dir.path().join("data");
@@ -86,9 +93,10 @@ async fn spawn(app_dir: Option<PathBuf>, setup: Setup) -> TestApp {
     if let Some(turns) = setup.decode_turns {
         state.decode_gate = wrackline_server::intake::gate::DecodeGate::new(turns);
     }
+    // As `wrackline serve` does: the responders' notifications, when set up.
+    state.start_background_work().expect("background work starts");
     let decode_gate = state.decode_gate.clone();
-    for (username, role) in [("test-reviewer", shared_types::Role::Reviewer), ("test-admin", shared_types::Role::Admin)]
-    {
+    for (username, role) in TEST_STAFF {
         wrackline_server::people::add_staff(
             &state.store,
             None,

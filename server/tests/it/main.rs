@@ -14,6 +14,7 @@ mod duplicates;
 mod exif;
 mod exports;
 mod faults;
+mod fieldwork;
 mod flags;
 mod hardening;
 mod helpers;

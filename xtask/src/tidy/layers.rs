@@ -29,7 +29,7 @@ pub const LAYERINGS: &[Layering] = &[
             &["taxa", "settings"],
             &["store"],
             &["intake", "people"],
-            &["duplicates"],
+            &["duplicates", "notify"],
             &["review"],
             &["protect"],
             &["export", "assess"],

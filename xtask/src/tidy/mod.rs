@@ -5,7 +5,7 @@
 //! - every Rust file opens with a `//!` doc saying why it exists;
 //! - no `todo!`, `unimplemented!` or `dbg!` is left behind;
 //! - only `server/src/store/` runs SQL; only `server/src/handlers/`, `router.rs` and
-//!   `error.rs` know HTTP;
+//!   `error.rs` know HTTP (and `notify/webhook.rs`, which calls out);
 //! - the pure crates (`shared-types`, `species-key`, `analysis`) depend on no web
 //!   server, database or browser crate;
 //! - modules use only modules on their own layer or below ([`layers`]), with no import

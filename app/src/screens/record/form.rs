@@ -16,6 +16,7 @@ use crate::data::photos::PickedPhoto;
 use crate::data::time::{self, BrowserZone};
 use crate::data::{checklist, device, identity, page, sync, walk_track};
 use crate::screens::record::key::KeyPanel;
+use crate::screens::record::live::LivePanel;
 use crate::screens::record::photos::PhotoPicker;
 
 /// Fills the position from this phone, telling the observer how it went.
@@ -149,7 +150,7 @@ fn open_for_edit(
 /// The form. Saving puts the record (and its photos) in the outbox first; sending
 /// happens afterwards, whatever the signal.
 #[component]
-pub fn RecordForm(outbox: Outbox) -> impl IntoView {
+pub fn RecordForm(outbox: Outbox, responders: Signal<Option<String>>) -> impl IntoView {
     let fields = RwSignal::new(FormFields::fresh(time::now_for_input(), identity::observer_name()));
     let photos = RwSignal::new_local(Vec::<PickedPhoto>::new());
     let photo_note = RwSignal::new(String::new());
@@ -204,10 +205,13 @@ pub fn RecordForm(outbox: Outbox) -> impl IntoView {
                 }
             };
             let waiting = state == SyncState::Waiting;
+            let urgent = submission.is_urgent();
             let entry = Entry::new(submission, state, blobs.len());
             match outbox::save(&entry, Some(&blobs)).await {
                 Ok(()) => {
-                    let saved = if waiting {
+                    let saved = if waiting && urgent {
+                        "Saved on this phone. A live animal: it goes to the responders before anything else, as soon as there is a connection."
+                    } else if waiting {
                         "Saved on this phone; it will be sent when there is a connection."
                     } else {
                         "Saved as a draft on this phone."
@@ -236,6 +240,13 @@ pub fn RecordForm(outbox: Outbox) -> impl IntoView {
     view! {
         <form id="record-form" class="record-form" on:submit=move |ev| { ev.prevent_default(); save(SyncState::Waiting); }>
             <h2>"New record"</h2>
+            <Show when=move || fields.with(|f| f.condition != Some(Condition::Alive))>
+                <button id="it-is-alive" type="button" class="alive-button"
+                    on:click=move |_| fields.update(|f| f.condition = Some(Condition::Alive))>"The animal is alive"</button>
+            </Show>
+            <Show when=move || fields.with(|f| f.condition == Some(Condition::Alive))>
+                <LivePanel responders=responders />
+            </Show>
             <PhotoPicker photos=photos fields=fields photo_note=photo_note position_note=position_note />
             {problem_line(problems, Control::Photos)}
 

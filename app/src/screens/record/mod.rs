@@ -3,5 +3,6 @@
 
 pub mod form;
 mod key;
+mod live;
 mod photos;
 mod pictures;
