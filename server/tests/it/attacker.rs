@@ -248,7 +248,14 @@ fn comparable(path: &str, body: &[u8]) -> Value {
             let name = file.name().unwrap().to_string();
             let value = match name.as_str() {
                 "eml.xml" => Value::String(
-                    text.lines().filter(|l| !l.contains("packageId=") && !l.contains("<pubDate>")).collect(),
+                    // Each installation has its own dataset id (and so packageId); the rest must match.
+                    text.lines()
+                        .filter(|l| {
+                            !l.contains("packageId=")
+                                && !l.contains("<pubDate>")
+                                && !l.contains("<alternateIdentifier>")
+                        })
+                        .collect(),
                 ),
                 "meta.xml" => Value::String(text),
                 _ => Value::Array(table(&text, b'\t')),

@@ -128,16 +128,14 @@ async fn observer_identifications_stored_with_their_receipt_time_are_redated_by_
         conn.query_row("SELECT identified_at FROM identifications WHERE basis = 'observer guess'", [], |r| r.get(0))
             .unwrap()
     };
-    {
-        // As a server before migrations 0013 and 0014 left it: the receipt time stored.
-        let conn = rusqlite::Connection::open(&database).unwrap();
-        conn.execute("UPDATE identifications SET identified_at = '2025-06-09T08:00:00.000Z'", []).unwrap();
-        conn.execute("DROP TABLE deployment", []).unwrap();
-        conn.pragma_update(None, "user_version", 12).unwrap();
-    }
-    let checklist = wrackline_server::taxa::load_checklist(None).unwrap();
-    wrackline_server::state::AppState::open(&app.data_dir, None, checklist).expect("migrations run on opening");
+    // As a server before migration 0013 left it: the receipt time stored. The migration's
+    // own SQL is run on it (rewinding the schema version would re-run every later
+    // migration too).
     let conn = rusqlite::Connection::open(&database).unwrap();
+    conn.execute("UPDATE identifications SET identified_at = '2025-06-09T08:00:00.000Z'", []).unwrap();
+    assert_eq!(stored(&conn), "2025-06-09T08:00:00.000Z");
+    let migration = concat!(env!("CARGO_MANIFEST_DIR"), "/../migrations/0013_observer_identification_time.sql");
+    conn.execute_batch(&std::fs::read_to_string(migration).unwrap()).expect("the migration runs");
     assert_eq!(stored(&conn), "2025-06-01T13:10:00.000Z", "the submission's time, 14:10+01:00 in UTC");
 }
 
