@@ -273,6 +273,36 @@ test('a reviewer\'s question shows as a badge at the top; each state is explaine
   }
 });
 
+test('what is typed while the last find is being saved is kept, each find under its own name', async () => {
+  const context = await walkerPhone();
+  try {
+    const page = await openOnPhone(context, server);
+    // A slow phone: the save takes long enough for the next find to be typed during it
+    // (CPU throttled through the DevTools protocol).
+    const cdp = await context.newCDPSession(page);
+    await cdp.send('Emulation.setCPUThrottlingRate', { rate: 12 });
+    await page.setInputFiles('#photo-input', demoPhoto('catshark.jpg'));
+    await page.waitForSelector('.thumbs li.photo', { timeout: 20000 });
+    await fillFind(page, 'first of two');
+    await page.click('#save-send');
+    // Typed at once, as a walker with a second animal at their feet would.
+    await fillFind(page, 'second of two');
+    assert.equal(await page.inputValue('#species'), 'second of two', 'the second find is not wiped by the first one\'s save');
+    await page.click('#save-send');
+    await cdp.send('Emulation.setCPUThrottlingRate', { rate: 1 });
+    await waitReceived(page, 2);
+    const names = await page.$$eval('.outbox-entry', (items) => items.map((li) => li.textContent).join('\n'));
+    assert.match(names, /first of two/);
+    assert.match(names, /second of two/);
+    const first = await recordNamed('first of two');
+    const second = await recordNamed('second of two');
+    assert.ok(first && second, 'both finds reached the server');
+    assert.notEqual(first.submission.client_id, second.submission.client_id, 'each under its own record id');
+  } finally {
+    await context.close();
+  }
+});
+
 test('plain words on the form, the name asked once, and "About you" says what it kept', async () => {
   const context = await walkerPhone();
   try {

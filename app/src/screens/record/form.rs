@@ -86,6 +86,90 @@ async fn fresh_fix_on_walk(fields: RwSignal<FormFields>) -> Option<String> {
     })
 }
 
+/// The record form's state that saving reads and clears (each a cheap signal handle).
+#[derive(Clone, Copy)]
+struct FormSignals {
+    fields: RwSignal<FormFields>,
+    photos: RwSignal<Vec<PickedPhoto>, LocalStorage>,
+    client_id: RwSignal<Uuid>,
+    problems: RwSignal<Vec<Problem>>,
+    saved_note: RwSignal<String>,
+    key_open: RwSignal<bool>,
+    photo_note: RwSignal<String>,
+    position_note: RwSignal<String>,
+}
+
+/// Saves the form as a record on this phone (`state`: to send, or a draft), then clears
+/// it for the next find; on a walk, with a fresh position first. Nothing is cleared when
+/// saving fails.
+async fn save_form(state: SyncState, outbox: Outbox, form: FormSignals) {
+    let FormSignals { fields, photos, client_id, problems, saved_note, key_open, photo_note, position_note } = form;
+    let walk = outbox.walk_going_on();
+    let fix_words = match walk {
+        Some(_) => fresh_fix_on_walk(fields).await,
+        None => None,
+    };
+    let name = identity::observer_name();
+    let built = fields.with_untracked(|f| {
+        FormFields { observer_name: name, ..f.clone() }.to_submission(
+            client_id.get_untracked(),
+            &BrowserZone,
+            chrono::Utc::now(),
+        )
+    });
+    let submission = match built {
+        // A record made while a walk goes on belongs to it.
+        Ok(s) => Submission { walk_client_id: walk.map(|w| w.client_id), ..s },
+        Err(list) => {
+            problems.set(list);
+            saved_note.set("Not saved yet: put right what is marked in red, then save again.".into());
+            return;
+        }
+    };
+    problems.set(Vec::new());
+    let picked = photos.get_untracked();
+    let mut submission = submission;
+    submission.photo_exif = picked.iter().map(|p| p.exif.clone()).collect();
+    let blobs: Vec<web_sys::Blob> = picked.iter().map(|p| p.upload.clone()).collect();
+    let new_bytes: f64 = blobs.iter().map(|b| b.size()).sum();
+    let warning = match outbox::storage_room(new_bytes).await {
+        Ok(warning) => warning.unwrap_or_default(),
+        Err(full) => {
+            saved_note.set(full);
+            return;
+        }
+    };
+    let waiting = state == SyncState::Waiting;
+    let urgent = submission.is_urgent();
+    let entry = Entry::new(submission, state, blobs.len());
+    match outbox::save(&entry, Some(&blobs)).await {
+        Ok(()) => {
+            let saved = if waiting && urgent {
+                "Saved on this phone. A live animal: it goes to the responders before anything else, as soon as there is a connection."
+            } else if waiting {
+                "Saved on this phone; it will be sent when there is a connection."
+            } else {
+                "Saved as a draft on this phone."
+            };
+            let fix_words = fix_words.map(|w| format!(" {w}")).unwrap_or_default();
+            saved_note.set(format!("{saved}{fix_words}{warning}"));
+            fields.set(FormFields::fresh(time::now_for_input(), identity::observer_name()));
+            key_open.set(false);
+            photos.set(Vec::new());
+            photo_note.set(String::new());
+            client_id.set(Uuid::new_v4());
+            outbox.editing.set(None);
+            first_fix(fields, position_note);
+            outbox.reload().await;
+            if waiting {
+                sync::request(outbox);
+            }
+        }
+        // Nothing is cleared: the observer can free space and save again.
+        Err(err) => saved_note.set(format!("Could not save on this phone: {err}. Your form is kept as it is.")),
+    }
+}
+
 /// The words about one control, shown right under it.
 fn beside(problems: RwSignal<Vec<Problem>>, control: Control) -> impl IntoView {
     move || {
@@ -167,72 +251,19 @@ pub fn RecordForm(outbox: Outbox, responders: Signal<Option<String>>) -> impl In
         }
     });
 
+    // One save at a time, the form locked while it runs: what is typed meanwhile would
+    // otherwise be wiped when the save clears the form, or be saved under the same
+    // record id and replace the record being saved.
+    let saving = RwSignal::new(false);
+    let form = FormSignals { fields, photos, client_id, problems, saved_note, key_open, photo_note, position_note };
     let save = move |state: SyncState| {
+        if saving.get_untracked() {
+            return;
+        }
+        saving.set(true);
         leptos::task::spawn_local(async move {
-            let walk = outbox.walk_going_on();
-            let fix_words = match walk {
-                Some(_) => fresh_fix_on_walk(fields).await,
-                None => None,
-            };
-            let name = identity::observer_name();
-            let built = fields.with_untracked(|f| {
-                FormFields { observer_name: name, ..f.clone() }.to_submission(
-                    client_id.get_untracked(),
-                    &BrowserZone,
-                    chrono::Utc::now(),
-                )
-            });
-            let submission = match built {
-                // A record made while a walk goes on belongs to it.
-                Ok(s) => Submission { walk_client_id: walk.map(|w| w.client_id), ..s },
-                Err(list) => {
-                    problems.set(list);
-                    saved_note.set("Not saved yet: put right what is marked in red, then save again.".into());
-                    return;
-                }
-            };
-            problems.set(Vec::new());
-            let picked = photos.get_untracked();
-            let mut submission = submission;
-            submission.photo_exif = picked.iter().map(|p| p.exif.clone()).collect();
-            let blobs: Vec<web_sys::Blob> = picked.iter().map(|p| p.upload.clone()).collect();
-            let new_bytes: f64 = blobs.iter().map(|b| b.size()).sum();
-            let warning = match outbox::storage_room(new_bytes).await {
-                Ok(warning) => warning.unwrap_or_default(),
-                Err(full) => {
-                    saved_note.set(full);
-                    return;
-                }
-            };
-            let waiting = state == SyncState::Waiting;
-            let urgent = submission.is_urgent();
-            let entry = Entry::new(submission, state, blobs.len());
-            match outbox::save(&entry, Some(&blobs)).await {
-                Ok(()) => {
-                    let saved = if waiting && urgent {
-                        "Saved on this phone. A live animal: it goes to the responders before anything else, as soon as there is a connection."
-                    } else if waiting {
-                        "Saved on this phone; it will be sent when there is a connection."
-                    } else {
-                        "Saved as a draft on this phone."
-                    };
-                    let fix_words = fix_words.map(|w| format!(" {w}")).unwrap_or_default();
-                    saved_note.set(format!("{saved}{fix_words}{warning}"));
-                    fields.set(FormFields::fresh(time::now_for_input(), identity::observer_name()));
-                    key_open.set(false);
-                    photos.set(Vec::new());
-                    photo_note.set(String::new());
-                    client_id.set(Uuid::new_v4());
-                    outbox.editing.set(None);
-                    first_fix(fields, position_note);
-                    outbox.reload().await;
-                    if waiting {
-                        sync::request(outbox);
-                    }
-                }
-                // Nothing is cleared: the observer can free space and save again.
-                Err(err) => saved_note.set(format!("Could not save on this phone: {err}. Your form is kept as it is.")),
-            }
+            save_form(state, outbox, form).await;
+            saving.set(false);
         });
     };
 
@@ -247,6 +278,7 @@ pub fn RecordForm(outbox: Outbox, responders: Signal<Option<String>>) -> impl In
             <Show when=move || fields.with(|f| f.condition == Some(Condition::Alive))>
                 <LivePanel responders=responders />
             </Show>
+            <fieldset id="form-lock" class="form-lock" disabled=move || saving.get()>
             <PhotoPicker photos=photos fields=fields photo_note=photo_note position_note=position_note />
             {problem_line(problems, Control::Photos)}
 
@@ -370,9 +402,12 @@ pub fn RecordForm(outbox: Outbox, responders: Signal<Option<String>>) -> impl In
                 {move || problems.get().into_iter().map(|p| view! { <li>{p.sentence()}</li> }).collect_view()}
             </ul>
             <div class="actions">
-                <button id="save-send" type="submit" class="primary">"Save and send"</button>
+                <button id="save-send" type="submit" class="primary">
+                    {move || if saving.get() { "Saving…" } else { "Save and send" }}
+                </button>
                 <button id="save-draft" type="button" on:click=move |_| save(SyncState::Draft)>"Keep as draft"</button>
             </div>
+            </fieldset>
             <p id="saved-note" class="hint" role="status">{move || saved_note.get()}</p>
         </form>
     }
