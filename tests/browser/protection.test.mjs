@@ -115,7 +115,8 @@ test('the About you card asks whether to publish the name, and the answer reache
     await page.fill('#about-name', 'Invented Namer');
     await page.check('#about-name-public');
     await page.click('#about-save');
-    await page.waitForSelector('#about-you', { state: 'detached' });
+    await page.waitForFunction(() => /^Saved: your records go as Invented Namer.*open data name you/.test(document.querySelector('#about-note')?.textContent));
+    assert.equal(await page.getAttribute('#about-you', 'open'), null, 'folded to one line once saved');
 
     const [record] = await server.records();
     await confirmAsReviewer(server, record.submission.client_id, 'Scyliorhinus canicula');
