@@ -1,5 +1,5 @@
 //! Which source column holds which field, and how its values are read: the mapping file
-//! (TOML or CSV, `docs/import-mapping.md` and `demo-records/import/`), or, without one,
+//! (TOML or CSV; README, "Importing records kept elsewhere", and `demo-records/import/`), or, without one,
 //! the Darwin Core term names of the columns themselves.
 //!
 //! The fields are Darwin Core terms where Darwin Core has one, and wrackline's own names

@@ -18,11 +18,12 @@ pub mod row;
 pub mod source;
 pub mod values;
 
-use std::collections::HashMap;
+use std::collections::HashSet;
 use std::path::{Path, PathBuf};
 use std::time::{Duration, Instant};
 
 use chrono::Utc;
+use futures_util::StreamExt as _;
 use serde::Serialize;
 use uuid::Uuid;
 
@@ -44,6 +45,10 @@ pub const MAX_LISTED: usize = 100_000;
 
 /// Rows read ahead of the one being stored.
 const READ_AHEAD: usize = 256;
+
+/// Rows on their way through intake at once: enough for the store's group commit to
+/// share one durable commit between them (one at a time, each row waited for its own).
+const IN_FLIGHT: usize = 32;
 
 /// What to import and how.
 #[derive(Debug, Clone)]
@@ -195,7 +200,7 @@ pub async fn import(
             .await
             .map_err(|err| stopped(0, 0, err))??
     };
-    let (sender, mut rows) = tokio::sync::mpsc::channel::<Row>(READ_AHEAD);
+    let (sender, rows) = tokio::sync::mpsc::channel::<Row>(READ_AHEAD);
     let reader = {
         let (path, mapping, max_bytes) = (options.path.clone(), options.mapping.clone(), options.max_bytes);
         tokio::task::spawn_blocking(move || {
@@ -206,28 +211,39 @@ pub async fn import(
             }
         })
     };
-    let mut run = Run {
-        state,
-        options,
-        report: ImportReport {
-            source: shown_name(&options.path),
-            dataset_name: options.dataset_name.clone(),
-            dry_run: options.dry_run,
-            ..ImportReport::default()
-        },
-        seen: HashMap::new(),
+    let mut report = ImportReport {
+        source: shown_name(&options.path),
+        dataset_name: options.dataset_name.clone(),
+        dry_run: options.dry_run,
+        ..ImportReport::default()
     };
-    while let Some(row) = rows.recv().await {
-        run.report.rows += 1;
-        run.one(row).await?;
-        progress(Progress { done: run.report.rows, total, elapsed: started.elapsed() });
+    let run = Run { state, options, source: report.source.clone() };
+    // Several rows are on their way through intake at once, so the store's group commit
+    // makes one durable commit of them; outcomes are taken in the file's order.
+    let incoming = futures_util::stream::unfold(rows, |mut rows| async move { rows.recv().await.map(|r| (r, rows)) });
+    let mut outcomes = std::pin::pin!(incoming.map(|row| run.settle(row)).buffered(IN_FLIGHT));
+    let mut seen: HashSet<Uuid> = HashSet::new();
+    while let Some(outcome) = outcomes.next().await {
+        report.rows += 1;
+        report.add(outcome.map_err(|err| err.with_imported(report.imported))?, &mut seen);
+        progress(Progress { done: report.rows, total, elapsed: started.elapsed() });
     }
-    reader.await.map_err(|err| stopped(run.report.rows, run.report.imported, err))??;
-    Ok(run.report)
+    reader.await.map_err(|err| stopped(report.rows, report.imported, err))??;
+    Ok(report)
 }
 
 fn stopped(line: u64, imported: u64, error: impl ToString) -> ImportError {
     ImportError::Stopped { line, imported, error: error.to_string() }
+}
+
+impl ImportError {
+    /// The error with the count of records stored before it.
+    fn with_imported(self, count: u64) -> Self {
+        match self {
+            Self::Stopped { line, error, .. } => Self::Stopped { line, imported: count, error },
+            other => other,
+        }
+    }
 }
 
 /// The file's name as provenance keeps it (no folders: they say where the operator
@@ -236,40 +252,73 @@ fn shown_name(path: &Path) -> String {
     path.file_name().map_or_else(|| path.display().to_string(), |n| n.to_string_lossy().into_owned())
 }
 
-/// One import under way.
+/// What became of one row.
+#[derive(Debug)]
+enum Outcome {
+    Refused(RefusedRow),
+    Absence,
+    Stored {
+        possible_duplicate: bool,
+    },
+    AlreadyStored,
+    Changed(ChangedRow),
+    /// A dry run's verdicts, with the row's client id (to count repeats in the file).
+    WouldStore(Uuid),
+    WouldBeAlreadyStored(Uuid),
+    WouldChange(Uuid, ChangedRow),
+}
+
+impl ImportReport {
+    fn add(&mut self, outcome: Outcome, seen: &mut HashSet<Uuid>) {
+        let mut repeated = |id: Uuid| !seen.insert(id);
+        match outcome {
+            Outcome::Refused(row) => self.refuse(row.line, row.column, row.reason),
+            Outcome::Absence => self.absences += 1,
+            Outcome::Stored { possible_duplicate } => {
+                self.imported += 1;
+                self.with_possible_duplicates += u64::from(possible_duplicate);
+            }
+            Outcome::AlreadyStored => self.already_imported += 1,
+            Outcome::Changed(row) => self.changed.push(row),
+            Outcome::WouldStore(id) | Outcome::WouldBeAlreadyStored(id) | Outcome::WouldChange(id, _)
+                if repeated(id) =>
+            {
+                self.repeated_in_file += 1
+            }
+            Outcome::WouldStore(_) => self.imported += 1,
+            Outcome::WouldBeAlreadyStored(_) => self.already_imported += 1,
+            Outcome::WouldChange(_, row) => self.changed.push(row),
+        }
+    }
+}
+
+/// One import under way: what each row needs.
 struct Run<'a> {
     state: &'a AppState,
     options: &'a ImportOptions,
-    report: ImportReport,
-    /// Client ids met in this file, for a dry run's count of repeats.
-    seen: HashMap<Uuid, u64>,
+    /// The file's name, as provenance keeps it.
+    source: String,
 }
 
 impl Run<'_> {
-    async fn one(&mut self, row: Row) -> Result<(), ImportError> {
+    async fn settle(&self, row: Row) -> Result<Outcome, ImportError> {
         let (line, cells) = match row {
             Row::Unreadable { line, reason } => {
-                self.report.refuse(line, String::new(), reason);
-                return Ok(());
+                return Ok(Outcome::Refused(RefusedRow { line, column: String::new(), reason }));
             }
             Row::Read { line, cells } => (line, cells),
         };
         match row::build(&cells, &self.options.mapping, &self.options.dataset_name, Utc::now()) {
-            Err(NotBuilt::Absence) => self.report.absences += 1,
-            Err(NotBuilt::Refused { column, reason }) => self.report.refuse(line, column, reason),
-            Ok(built) if self.options.dry_run => self.check(line, built).await?,
-            Ok(built) => self.store(line, built).await?,
+            Err(NotBuilt::Absence) => Ok(Outcome::Absence),
+            Err(NotBuilt::Refused { column, reason }) => Ok(Outcome::Refused(RefusedRow { line, column, reason })),
+            Ok(built) if self.options.dry_run => self.check(line, built).await,
+            Ok(built) => self.store(line, built).await,
         }
-        Ok(())
     }
 
     /// A dry run: what storing the row would do, from what is stored now.
-    async fn check(&mut self, line: u64, built: Built) -> Result<(), ImportError> {
+    async fn check(&self, line: u64, built: Built) -> Result<Outcome, ImportError> {
         let client_id = built.submission.client_id;
-        if self.seen.insert(client_id, line).is_some() {
-            self.report.repeated_in_file += 1;
-            return Ok(());
-        }
         let id = client_id.to_string();
         let earlier = self
             .state
@@ -277,21 +326,19 @@ impl Run<'_> {
             .look(move |conn| observations::existing_receipt(conn, &id))
             .await
             .map_err(|err| stopped(line, 0, err))?;
-        match earlier {
-            None => self.report.imported += 1,
+        Ok(match earlier {
+            None => Outcome::WouldStore(client_id),
             Some((hash, _)) if hash == crate::intake::content_hash(&built.submission, &[]) => {
-                self.report.already_imported += 1
+                Outcome::WouldBeAlreadyStored(client_id)
             }
-            Some((_, receipt)) => self.report.changed.push(ChangedRow {
-                line,
-                source_row_id: built.source_row_id,
-                observation_id: Some(receipt.observation_id),
-            }),
-        }
-        Ok(())
+            Some((_, receipt)) => Outcome::WouldChange(
+                client_id,
+                ChangedRow { line, source_row_id: built.source_row_id, observation_id: Some(receipt.observation_id) },
+            ),
+        })
     }
 
-    async fn store(&mut self, line: u64, built: Built) -> Result<(), ImportError> {
+    async fn store(&self, line: u64, built: Built) -> Result<Outcome, ImportError> {
         let upload = Upload { record_json: built.json, photos: Vec::new() };
         let accepted = match crate::arrival::receive_imported(self.state, upload, Utc::now()).await {
             Ok(accepted) => accepted,
@@ -299,19 +346,17 @@ impl Run<'_> {
                 let id = client_id.to_string();
                 let stored = self.state.store.look(move |conn| observations::existing_receipt(conn, &id)).await;
                 let observation_id = stored.ok().flatten().map(|(_, receipt)| receipt.observation_id);
-                self.report.changed.push(ChangedRow { line, source_row_id: built.source_row_id, observation_id });
-                return Ok(());
+                return Ok(Outcome::Changed(ChangedRow { line, source_row_id: built.source_row_id, observation_id }));
             }
             Err(IntakeError::Field { field, message }) => {
-                self.report.refuse(line, field, message);
-                return Ok(());
+                return Ok(Outcome::Refused(RefusedRow { line, column: field, reason: message }));
             }
-            Err(err) => return Err(stopped(line, self.report.imported, err)),
+            Err(err) => return Err(stopped(line, 0, err)),
         };
         let observation_id = accepted.receipt.observation_id;
         let origin = Provenance {
             dataset_name: built.dataset_name,
-            source_file: self.report.source.clone(),
+            source_file: self.source.clone(),
             source_row_id: built.source_row_id,
             source_line: line,
         };
@@ -320,20 +365,16 @@ impl Run<'_> {
         let candidates = self
             .state
             .store
-            .run(move |conn| {
+            .write(move |conn| {
                 imports::record_provenance(conn, observation_id, &origin, &now)?;
                 imports::candidate_count(conn, observation_id)
             })
             .await
-            .map_err(|err| stopped(line, self.report.imported, err))?;
-        if accepted.replayed {
-            self.report.already_imported += 1;
+            .map_err(|err| stopped(line, 0, err))?;
+        Ok(if accepted.replayed {
+            Outcome::AlreadyStored
         } else {
-            self.report.imported += 1;
-            if candidates > 0 {
-                self.report.with_possible_duplicates += 1;
-            }
-        }
-        Ok(())
+            Outcome::Stored { possible_duplicate: candidates > 0 }
+        })
     }
 }
