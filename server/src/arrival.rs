@@ -1,8 +1,8 @@
 //! What happens when a record arrives, stage after stage: intake checks and stores it
 //! with its photos, the search for other reports of the same animal in the same commit;
 //! then a live animal's notifications to the responders are made (and delivered in the
-//! background, `crate::notify`). The handlers and the demo loader both come through here, so a record is treated the
-//! same however it arrives. Once intake has stored the record its receipt goes back:
+//! background, `crate::notify`). The handlers, the demo loader and imports (`crate::import`) all come through here, so a
+//! record is treated the same however it arrives. Once intake has stored the record its receipt goes back:
 //! follow-up work that fails is retried in the background, never answered as an error.
 
 use chrono::{DateTime, Utc};
@@ -19,6 +19,30 @@ pub async fn receive(
     observer_id: Option<i64>,
     now: DateTime<Utc>,
 ) -> Result<Accepted, IntakeError> {
+    arrive(state, upload, observer_id, now, Alert::Responders).await
+}
+
+/// Accepts one record imported from what a network kept before (`crate::import`): the
+/// same checks, storage and duplicate search, but no alert, since a live animal in an old
+/// spreadsheet was dealt with when it was found.
+pub async fn receive_imported(state: &AppState, upload: Upload, now: DateTime<Utc>) -> Result<Accepted, IntakeError> {
+    arrive(state, upload, None, now, Alert::Nobody).await
+}
+
+/// Whether a live animal's arrival tells the responders.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+enum Alert {
+    Responders,
+    Nobody,
+}
+
+async fn arrive(
+    state: &AppState,
+    upload: Upload,
+    observer_id: Option<i64>,
+    now: DateTime<Utc>,
+    alert: Alert,
+) -> Result<Accepted, IntakeError> {
     let (index, names) = (state.duplicates.clone(), state.taxa.clone());
     // The search runs in the commit that stores the record, in a savepoint of its own, so
     // reviewers see its candidates as soon as the receipt is out and a burst of records
@@ -29,7 +53,8 @@ pub async fn receive(
     let id = accepted.receipt.observation_id;
     // A live animal's notifications; a resend makes none twice, and makes them should
     // the first arrival have failed to.
-    match enqueue(&state.store, &state.settings.responders, id, accepted.urgent).await {
+    let urgent = accepted.urgent && alert == Alert::Responders;
+    match enqueue(&state.store, &state.settings.responders, id, urgent).await {
         Ok(0) => {}
         Ok(_) => state.notify_wake.notify_one(),
         Err(err) => tracing::error!(observation = id, error = %err, "could not make the responders' notification"),

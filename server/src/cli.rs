@@ -1,5 +1,5 @@
 //! The `wrackline` command line. Scripts and later work rely on these names:
-//! `serve`, `demo`, `export`, `range`, `trend`, `backup`, `restore`, `check`, each
+//! `serve`, `demo`, `export`, `import`, `range`, `trend`, `backup`, `restore`, `check`, each
 //! taking `--data-dir`.
 
 use std::net::SocketAddr;
@@ -33,6 +33,10 @@ pub enum Command {
     Demo(ServeArgs),
     /// Write all records to a file or to standard output.
     Export(commands::export::ExportArgs),
+    /// Bring in records kept elsewhere: a CSV file or a Darwin Core Archive, every row
+    /// checked as a phone's record is, into the review queue. Run it while the server is
+    /// stopped (or restart the server after it).
+    Import(commands::import::ImportArgs),
     /// Range figures (records, sites, EOO, AOO) per taxon and period.
     Range(commands::range::RangeArgs),
     /// The effort-corrected yearly trend over the assessment window.
@@ -111,6 +115,7 @@ pub fn run(cli: Cli) -> anyhow::Result<()> {
         Command::Serve(args) => serve(&cli.data_dir, args, false),
         Command::Demo(args) => serve(&cli.data_dir, args, true),
         Command::Export(args) => commands::export::run(&cli.data_dir, args),
+        Command::Import(args) => commands::import::run(&cli.data_dir, args),
         Command::Range(args) => commands::range::run(&cli.data_dir, args),
         Command::Trend(args) => commands::trend::run(&cli.data_dir, args),
         Command::Effort(args) => print_effort(&cli.data_dir, &args),

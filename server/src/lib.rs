@@ -6,8 +6,8 @@
 //!
 //! - the edges: [`cli`] and [`commands`] (the `wrackline` command), [`router`],
 //!   [`handlers`] and [`error`] (the only code that knows HTTP), [`demo`];
-//! - [`arrival`]: what happens when a record arrives, stage after stage, and [`state`],
-//!   what every handler may reach;
+//! - [`arrival`]: what happens when a record arrives, stage after stage, [`import`], records
+//!   kept elsewhere brought in through it, and [`state`], what every handler may reach;
 //! - the stages in the order a record travels, with no HTTP in them: [`export`] and
 //!   [`assess`] → [`protect`] → [`review`] → [`duplicates`] and [`notify`] (the
 //!   responders) → [`intake`], beside them [`people`] (sign-ins);
@@ -24,6 +24,7 @@ pub mod duplicates;
 pub mod error;
 pub mod export;
 pub mod handlers;
+pub mod import;
 pub mod intake;
 pub mod notify;
 pub mod people;

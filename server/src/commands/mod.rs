@@ -1,10 +1,11 @@
 //! The subcommands of `wrackline` beyond serving: the assessors' `range`, `trend` and
-//! `export`, the researchers' `sample`, and the operator's `backup`, `restore` and
-//! `check`. Each has its clap arguments and a function that opens what it needs and
+//! `export`, the researchers' `sample`, and the operator's `import`, `backup`, `restore`
+//! and `check`. Each has its clap arguments and a function that opens what it needs and
 //! calls the library.
 
 pub mod backup;
 pub mod export;
+pub mod import;
 pub mod range;
 pub mod sample;
 pub mod trend;

@@ -223,6 +223,16 @@ impl Builder<'_> {
             place.withheld.clone().unwrap_or_default(),
             // Darwin Core: the other reports of this organism, "relationship: id", " | " between.
             row.other_reports.iter().map(|id| format!("same organism: urn:uuid:{id}")).collect::<Vec<_>>().join(" | "),
+            // An imported record: Darwin Core `datasetName`, the dataset it was kept in
+            // before, and `otherCatalogNumbers`, its id there qualified by that name (the
+            // term for "previous or alternate identifiers for the same occurrence"). The
+            // source id is left out where free text is: it could lead to the source's
+            // record at its exact place.
+            row.imported_from.as_ref().map(|(dataset, _)| dataset.clone()).unwrap_or_default(),
+            match &row.imported_from {
+                Some((dataset, source_id)) if !hide => format!("{dataset}:{source_id}"),
+                _ => String::new(),
+            },
         ];
         Occurrence {
             dwc,

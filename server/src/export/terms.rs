@@ -37,6 +37,8 @@ pub const OCCURRENCE_TERMS: &[&str] = &[
     "dataGeneralizations",
     "informationWithheld",
     "associatedOccurrences",
+    "datasetName",
+    "otherCatalogNumbers",
 ];
 
 /// MeasurementOrFact terms with the occurrence they measure, for an event-core archive.

@@ -570,8 +570,9 @@ fn check_size_and_magic(len: usize, head: &[u8]) -> Result<PhotoFormat, PhotoPro
 }
 
 /// The fingerprint of a submission's content: its canonical JSON and its photos'
-/// hashes in order. The same record resent gives the same fingerprint.
-fn content_hash(submission: &Submission, photo_hashes: &[&str]) -> String {
+/// hashes in order. The same record resent gives the same fingerprint (an import's dry
+/// run compares rows with stored records by it).
+pub fn content_hash(submission: &Submission, photo_hashes: &[&str]) -> String {
     let mut hasher = Sha256::new();
     hasher.update(serde_json::to_vec(submission).unwrap_or_default());
     for sha256 in photo_hashes {

@@ -31,6 +31,7 @@ const MIGRATIONS: &[(&str, &str)] = &[
     ("0016_photo_cut_short", include_str!("../../../migrations/0016_photo_cut_short.sql")),
     ("0017_current_taxon_index", include_str!("../../../migrations/0017_current_taxon_index.sql")),
     ("0018_fieldwork", include_str!("../../../migrations/0018_fieldwork.sql")),
+    ("0019_imported_records", include_str!("../../../migrations/0019_imported_records.sql")),
 ];
 
 /// Migrations that rebuild a table other tables refer to. SQLite's procedure for that

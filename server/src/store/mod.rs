@@ -19,6 +19,7 @@ pub mod backup;
 pub mod deployment;
 pub mod duplicates;
 pub mod fieldwork;
+pub mod imports;
 mod migrate;
 pub mod notifications;
 pub mod observations;

@@ -119,6 +119,9 @@ pub struct OccurrenceRow {
     pub walk_client_id: Option<String>,
     /// Client ids of the other reports of this organism (after a merge).
     pub other_reports: Vec<String>,
+    /// Where the standing report came from when it was imported (`wrackline import`):
+    /// the source dataset's name and the source's id for its row.
+    pub imported_from: Option<(String, String)>,
 }
 
 /// The report that stands for an organism: not merged, and no earlier one that is not
@@ -158,13 +161,15 @@ SELECT o.organism_id, o.id, o.client_id, o.observed_at, o.observed_at_utc, o.obs
        (SELECT group_concat(s.sign, ' ') FROM human_signs s WHERE s.observation_id = o.id),
        (SELECT group_concat(op.photo_sha256, ' ' ORDER BY op.position) FROM observation_photos op WHERE op.observation_id = o.id),
        json_extract(o.submission_json, '$.species_guess'), o.walk_client_id, o.life_stage, i.id,
-       {identification_count}, COALESCE(q.name_public, 0), q.public_id, q.display_name
+       {identification_count}, COALESCE(q.name_public, 0), q.public_id, q.display_name,
+       ir.dataset_name, ir.source_row_id
 FROM observations o
 LEFT JOIN identifications i ON i.id = (
     SELECT MAX(j.id) FROM identifications j WHERE j.observation_id = o.id AND j.superseded_by IS NULL)
 LEFT JOIN people p ON p.id = i.identified_by_id
 LEFT JOIN people q ON q.id = o.observer_id
 LEFT JOIN measurements m ON m.id = (SELECT MIN(k.id) FROM measurements k WHERE k.observation_id = o.id)
+LEFT JOIN imported_records ir ON ir.observation_id = o.id
 WHERE {standing}",
         standing = standing_report("o")
     )
@@ -440,6 +445,7 @@ fn read_row(row: &Row) -> Result<OccurrenceRow, StoreError> {
         species_guess: row.get(30)?,
         walk_client_id: row.get(31)?,
         other_reports: Vec::new(),
+        imported_from: row.get::<_, Option<String>>(38)?.zip(row.get::<_, Option<String>>(39)?),
     })
 }
 

@@ -19,6 +19,7 @@ mod flags;
 mod hardening;
 mod helpers;
 mod hostile;
+mod import;
 mod key_priors;
 mod limits;
 mod people;

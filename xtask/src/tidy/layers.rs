@@ -33,7 +33,7 @@ pub const LAYERINGS: &[Layering] = &[
             &["review"],
             &["protect"],
             &["export", "assess"],
-            &["arrival", "state"],
+            &["arrival", "import", "state"],
             &["handlers", "router", "error", "cli", "commands", "demo"],
         ],
         no_file_circles: false,
