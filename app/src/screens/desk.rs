@@ -1,13 +1,16 @@
 //! The desk's page (the bundle served at `/desk/`, never downloaded by a walker's phone):
 //! the header, one sign-in for every screen that needs it, and the screen the address's
-//! `#…` part names — the review queue and record, people, figures and downloads,
-//! safety. The recording screens are the phone's page, a plain link away. Needs a
+//! `#…` part names — the review queue and record, live animals (`#urgent`), the sample
+//! lookup (`#samples`), people, figures and downloads, safety. Responders land on the
+//! live animals; the recording screens are the phone's page, a plain link away. Needs a
 //! connection: the server decides everything here.
 
 use leptos::prelude::*;
 use shared_types::Role;
 
 use crate::data::{api, page, site};
+use crate::screens::fieldwork::lookup::SampleLookupScreen;
+use crate::screens::fieldwork::urgent::UrgentScreen;
 use crate::screens::figures::FiguresScreen;
 use crate::screens::people::PeopleScreen;
 use crate::screens::review::ReviewScreen;
@@ -17,21 +20,23 @@ use crate::screens::sign_in::SignIn;
 /// The words of the desk's page, in one place.
 mod words {
     pub const TITLE: &str = "wrackline · desk";
+    pub const URGENT: &str = "Live animals";
     pub const REVIEW: &str = "Review";
+    pub const SAMPLES: &str = "Samples";
     pub const FIGURES: &str = "Figures";
     pub const PEOPLE: &str = "People";
     pub const SAFETY: &str = "Safety";
     pub const RECORD: &str = "Record a find";
     pub const CHECKING: &str = "checking your sign-in…";
     pub const SAFETY_HEADING: &str = "Safety on the shore";
-    pub const NOTHING_YET: &str = "Nothing here for responders yet.";
 }
 
 /// Which screen a signed-in person sees for the address's `#…` part: responders have
-/// none here yet; the people screen is for admins.
+/// the live animals only; the people screen is for admins.
 fn staff_screen(hash: &str, role: Role) -> &'static str {
     match (hash, role) {
-        (_, Role::Responder) => "#none",
+        (_, Role::Responder) | ("#urgent", _) => "#urgent",
+        ("#samples", _) => "#samples",
         ("#people", Role::Admin) => "#people",
         _ => "#review",
     }
@@ -57,8 +62,9 @@ pub fn App() -> impl IntoView {
         (false, _) => view! { <p class="hint">{words::CHECKING}</p> }.into_any(),
         (true, None) => view! { <SignIn role=role /> }.into_any(),
         (true, Some(r)) => match staff_screen(&screen.get(), r) {
+            "#urgent" => view! { <UrgentScreen role=r /> }.into_any(),
+            "#samples" => view! { <SampleLookupScreen /> }.into_any(),
             "#people" => view! { <PeopleScreen /> }.into_any(),
-            "#none" => view! { <p class="hint">{words::NOTHING_YET}</p> }.into_any(),
             _ => view! { <ReviewScreen role=r signed_out=signed_out /> }.into_any(),
         },
     };
@@ -66,8 +72,10 @@ pub fn App() -> impl IntoView {
         <header class="top">
             <h1><a href="#">{words::TITLE}</a></h1>
             <nav class="top-links">
+                <a id="urgent-link" class="pill review-link" href="#urgent">{words::URGENT}</a>
                 <Show when=reviews>
                     <a class="pill review-link" href="#review">{words::REVIEW}</a>
+                    <a id="samples-link" class="pill review-link" href="#samples">{words::SAMPLES}</a>
                 </Show>
                 <a class="pill review-link" href="#figures">{words::FIGURES}</a>
                 <Show when=move || is(Role::Admin)>
@@ -97,9 +105,12 @@ mod tests {
     use super::*;
 
     #[test]
-    fn only_admins_see_the_people() {
-        assert_eq!(staff_screen("#review", Role::Responder), "#none");
+    fn responders_see_the_live_animals_and_only_admins_the_people() {
+        assert_eq!(staff_screen("#review", Role::Responder), "#urgent");
+        assert_eq!(staff_screen("#samples", Role::Responder), "#urgent");
         assert_eq!(staff_screen("", Role::Reviewer), "#review");
+        assert_eq!(staff_screen("#samples", Role::Reviewer), "#samples");
+        assert_eq!(staff_screen("#urgent", Role::Reviewer), "#urgent");
         assert_eq!(staff_screen("#people", Role::Reviewer), "#review");
         assert_eq!(staff_screen("#people", Role::Admin), "#people");
     }

@@ -23,6 +23,8 @@ pub mod desk;
 #[cfg(feature = "desk")]
 mod downloads;
 #[cfg(feature = "desk")]
+mod fieldwork;
+#[cfg(feature = "desk")]
 mod figures;
 #[cfg(feature = "desk")]
 mod people;
