@@ -12,8 +12,14 @@
 //!   (`cargo test -p wrackline-app`).
 //! - [`screens`]: the page and every screen, as Leptos views. They read and change the
 //!   phone's state only through [`data`].
+//!
+//! Two bundles come from this crate, so a walker's phone never downloads the desk: the
+//! phone's (the recording screens, served at `/` and kept for flight mode) and, with the
+//! `desk` feature, the desk's (review, urgent animals, samples, people, figures and
+//! downloads, served at `/desk/`). [`data`] is public so that each bundle may use only
+//! part of it without dead-code warnings; the linker drops what a bundle does not call.
 
-mod data;
+pub mod data;
 mod screens;
 
 pub use data::key::bench_next_question;
@@ -23,7 +29,10 @@ pub use data::key::bench_next_question;
 pub fn start() {
     console_error_panic_hook_lite();
     data::page::remove_loading_message();
-    leptos::mount::mount_to_body(screens::App);
+    #[cfg(not(feature = "desk"))]
+    leptos::mount::mount_to_body(screens::phone::App);
+    #[cfg(feature = "desk")]
+    leptos::mount::mount_to_body(screens::desk::App);
 }
 
 /// Sends Rust panics to the browser console, so a failure is visible in a test log.

@@ -1,4 +1,4 @@
-// wrackline's service worker: keeps the app shell so the app opens with no network.
+// wrackline's service worker: keeps the phone's app shell so it opens with no network.
 // The build writes the cache version (a hash of every file it lists) and the file
 // list below; a new build means a new version, a fresh cache and the old one removed.
 const CACHE = 'wrackline-__CACHE_VERSION__';
@@ -24,6 +24,9 @@ self.addEventListener('fetch', (event) => {
   const url = new URL(event.request.url);
   if (event.request.method !== 'GET' || url.origin !== self.location.origin) return;
   if (url.pathname.startsWith('/api/') || url.pathname.startsWith('/photos/') || url.pathname === '/healthz') return;
+  // The desk (its own bundle, for reviewers and responders) needs a connection and is
+  // not kept: it always comes from the network, never as the phone's page.
+  if (url.pathname === '/desk' || url.pathname.startsWith('/desk/')) return;
   if (event.request.mode === 'navigate') {
     event.respondWith(caches.match('/index.html', { ignoreVary: true }).then((hit) => hit || fetch(event.request)));
     return;

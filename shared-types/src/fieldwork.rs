@@ -121,6 +121,13 @@ pub struct ResponseView {
 pub struct UrgentItem {
     pub record: RecordView,
     pub responses: Vec<ResponseView>,
+    /// How the responders were told of it, by each channel.
+    #[serde(default)]
+    pub notifications: Vec<NotificationView>,
+    /// The finder's name and contact as they gave it: for reviewers and admins only,
+    /// never for responders (`None` for them).
+    #[serde(default)]
+    pub finder: Option<crate::review::ObserverContact>,
 }
 
 /// How the responders were told of an urgent record, by one channel.

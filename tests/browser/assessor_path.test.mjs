@@ -29,7 +29,7 @@ after(async () => {
 });
 
 async function showFigures(page) {
-  await page.goto(`${server.url}/#figures`);
+  await page.goto(`${server.url}/desk/#figures`);
   await page.fill('#figures-taxon', 'Scyliorhinus canicula');
   await page.click('#figures-show');
   await page.waitForSelector('#range-table', { timeout: 15000 });

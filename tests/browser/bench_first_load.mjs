@@ -10,9 +10,13 @@
 // the first text on screen (first contentful paint, ≤ 3 s), time until the app's first
 // screen is ready, and the offline reload once the service worker keeps the app (≤ 1 s).
 // The baseline in the same run is the same build sent as-is (Accept-Encoding: identity),
-// as every visit was before the build precompressed the files.
+// as every visit was before the build precompressed the files. Also printed: the phone's
+// and the desk's bundle (wasm + JS) as built, raw and brotli; the phone never fetches
+// the desk's (`/desk/`), and a visit that did would say so here.
 //
 //   cargo xtask bench        (or: WRACKLINE_BIN=… WRACKLINE_APP_DIR=… node tests/browser/bench_first_load.mjs)
+import { statSync } from 'node:fs';
+import path from 'node:path';
 import { startServer, launchBrowser } from './harness.mjs';
 
 const LINK = { offline: false, latency: 150, downloadThroughput: (1.6e6 / 8), uploadThroughput: (750e3 / 8) };
@@ -85,6 +89,13 @@ const kb = (bytes) => `${(bytes / 1024).toFixed(0)} KB`;
 const s = (ms) => `${(ms / 1000).toFixed(2)} s`;
 const verdict = (value, target) => (value <= target ? 'meets' : 'MISSES');
 
+// A bundle's code as built: its wasm and JS, raw and as the brotli copies the server sends.
+function bundle(folder, name) {
+  const size = (file) => statSync(path.join(process.env.WRACKLINE_APP_DIR, folder, file)).size;
+  const files = [`${name}_bg.wasm`, `${name}.js`];
+  return { raw: files.reduce((sum, f) => sum + size(f), 0), brotli: files.reduce((sum, f) => sum + size(`${f}.br`), 0) };
+}
+
 const server = await startServer();
 const browser = await launchBrowser();
 try {
@@ -101,7 +112,12 @@ try {
   console.log(`offline reload            ${s(baseline.offlineReload).padEnd(19)}${s(compressed.offlineReload).padEnd(15)}≤ ${s(TARGET.offlineReload)} (${verdict(compressed.offlineReload, TARGET.offlineReload)})`);
   console.log(`as served / as-is: bytes ${(compressed.bytes / baseline.bytes).toFixed(2)}x, app ready ${(compressed.ready / baseline.ready).toFixed(2)}x`);
   console.log(`sent (as served): ${compressed.sent.join(', ')}`);
-  console.log(`bench-row | first load, 1.6 Mbit/s 150 ms RTT, 390 px phone (\`tests/browser/bench_first_load.mjs\`) | ${kb(total(compressed))}, first text ${s(compressed.firstText)}, offline reload ${s(compressed.offlineReload)} | as-is: ${kb(total(baseline))}, first text ${s(baseline.firstText)} | bytes ${(total(compressed) / total(baseline)).toFixed(2)}× | ≤ ${kb(TARGET.bytes)}, first text ≤ ${s(TARGET.firstText)}, offline ≤ ${s(TARGET.offlineReload)}`);
+  const phoneBundle = bundle('', 'wrackline_app');
+  const deskBundle = bundle('desk', 'wrackline_desk');
+  console.log(`phone bundle (wasm + js) ${kb(phoneBundle.raw)} raw, ${kb(phoneBundle.brotli)} brotli; desk bundle (/desk/, never on the phone) ${kb(deskBundle.raw)} raw, ${kb(deskBundle.brotli)} brotli`);
+  const deskFetched = [...baseline.sent, ...compressed.sent].filter((line) => line.startsWith('/desk/'));
+  console.log(deskFetched.length ? `THE PHONE FETCHED DESK FILES: ${deskFetched.join(', ')}` : 'the phone fetched no desk files');
+  console.log(`bench-row | first load, 1.6 Mbit/s 150 ms RTT, 390 px phone (\`tests/browser/bench_first_load.mjs\`) | ${kb(total(compressed))}, first text ${s(compressed.firstText)}, offline reload ${s(compressed.offlineReload)}; phone bundle ${kb(phoneBundle.brotli)} br, desk bundle ${kb(deskBundle.brotli)} br ${deskFetched.length ? 'FETCHED' : 'not fetched'} | as-is: ${kb(total(baseline))}, first text ${s(baseline.firstText)} | bytes ${(total(compressed) / total(baseline)).toFixed(2)}× | ≤ ${kb(TARGET.bytes)}, first text ≤ ${s(TARGET.firstText)}, offline ≤ ${s(TARGET.offlineReload)}`);
 } finally {
   await browser.close();
   server.stop();

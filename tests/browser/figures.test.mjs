@@ -40,7 +40,7 @@ test('range and trend figures for a taxon, two periods side by side, with their 
     await send(server, 'f0000000-0000-4000-8000-000000000002', 2023, 52.24, -4.26);
     await send(server, 'f0000000-0000-4000-8000-000000000003', 2024, 52.13, -4.55);
     await send(server, 'f0000000-0000-4000-8000-000000000004', 2024, 52.49, -4.05);
-    await page.goto(`${server.url}/#figures`);
+    await page.goto(`${server.url}/desk/#figures`);
     await page.fill('#figures-taxon', 'Scyliorhinus canicula');
     await page.fill('#figures-period-1', '2021-2022');
     await page.fill('#figures-period-2', '2023-2024');
@@ -108,7 +108,7 @@ test('anyone downloads the public form; a signed-in reviewer also the full form'
       const [file] = await Promise.all([page.waitForEvent('download'), page.click('#export-download')]);
       return { name: file.suggestedFilename(), text: readFileSync(await file.path(), 'utf8') };
     };
-    await page.goto(`${server.url}/#figures`);
+    await page.goto(`${server.url}/desk/#figures`);
     await page.waitForSelector('#export-download');
     assert.equal(await page.$('#export-full'), null, 'the full form is not offered to someone not signed in');
     await page.selectOption('#export-format', 'geojson');

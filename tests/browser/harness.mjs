@@ -16,16 +16,17 @@ const required = (name) => {
 
 export const REVIEWER = { username: 'browser-reviewer', password: 'browser-reviewer-pass' };
 export const ADMIN = { username: 'browser-admin', password: 'browser-admin-pass' };
+export const RESPONDER = { username: 'browser-responder', password: 'browser-responder-pass' };
 
-// Starts `wrackline serve` on 127.0.0.1:0 with a reviewer sign-in made by
-// `wrackline user add`, and resolves once it prints its address. With `{ demo: true }`
+// Starts `wrackline serve` on 127.0.0.1:0 with a reviewer, an admin and a responder
+// sign-in made by `wrackline user add`, and resolves once it prints its address. With `{ demo: true }`
 // it runs `wrackline demo` instead: the demo records and walks loaded, and the demo
 // sign-ins it prints kept in `demoPeople` ({reviewer, admin} as {username, password}).
 // `env` adds to the server's environment (operator settings such as
 // WRACKLINE_RESPONDERS_PHONE).
 export async function startServer({ demo = false, env = {} } = {}) {
   const dataDir = mkdtempSync(path.join(tmpdir(), 'wrackline-browser-'));
-  for (const [person, role] of [[REVIEWER, 'reviewer'], [ADMIN, 'admin']]) {
+  for (const [person, role] of [[REVIEWER, 'reviewer'], [ADMIN, 'admin'], [RESPONDER, 'responder']]) {
     execFileSync(required('WRACKLINE_BIN'), ['--data-dir', dataDir, 'user', 'add', '--username', person.username, '--role', role],
       { env: { ...process.env, WRACKLINE_PASSWORD: person.password }, stdio: ['ignore', 'ignore', 'inherit'] });
   }

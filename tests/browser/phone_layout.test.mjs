@@ -43,7 +43,7 @@ async function checkScreen(page, name) {
 }
 
 async function signIn(page, person) {
-  await page.goto(`${server.url}/#review`);
+  await page.goto(`${server.url}/desk/#review`);
   await page.fill('#username', person.username);
   await page.fill('#password', person.password);
   await page.click('#sign-in button[type=submit]');
@@ -116,7 +116,7 @@ test('the reviewer\'s screens fit a phone: the queue, a record, figures', async 
     assert.equal(times.length, 2, `the record's and the photo's time as people read them: ${cells.join(' | ')}`);
     assert.ok(!cells.some((text) => /\d\dT\d\d|:\d\d\.\d/.test(text)), `no machine timestamps: ${cells.join(' | ')}`);
 
-    await page.goto(`${server.url}/#figures`);
+    await page.goto(`${server.url}/desk/#figures`);
     await page.fill('#figures-taxon', 'Scyliorhinus canicula');
     // Every demo record, reviewed or not, so the map and chart have something to draw.
     await page.selectOption('#figures-state', 'any');

@@ -30,7 +30,7 @@ test('a question reaches the phone, the answer with a photo reaches the reviewer
     await observer.waitForFunction(() => document.querySelector('.outbox-entry')?.textContent.includes('received by the server'), null, { timeout: 20000 });
 
     const reviewer = await desk.newPage();
-    await reviewer.goto(`${server.url}/#review`);
+    await reviewer.goto(`${server.url}/desk/#review`);
     await reviewer.fill('#username', REVIEWER.username);
     await reviewer.fill('#password', REVIEWER.password);
     await reviewer.click('#sign-in button[type=submit]');
@@ -92,7 +92,7 @@ test('an admin adds a reviewer, sets a new password and changes the role on the 
   const desk = await browser.newContext();
   try {
     const page = await desk.newPage();
-    await page.goto(`${server.url}/#review`);
+    await page.goto(`${server.url}/desk/#review`);
     await page.fill('#username', ADMIN.username);
     await page.fill('#password', ADMIN.password);
     await page.click('#sign-in button[type=submit]');
@@ -157,7 +157,7 @@ test('a reviewer sees two reports of one carcass side by side, merges them, and 
     await send(server, carcass('e0000000-0000-4000-8000-000000000001', 0, 0));
     await send(server, carcass('e0000000-0000-4000-8000-000000000002', 1, 300));
     const page = await desk.newPage();
-    await page.goto(`${server.url}/#review`);
+    await page.goto(`${server.url}/desk/#review`);
     await page.fill('#username', REVIEWER.username);
     await page.fill('#password', REVIEWER.password);
     await page.click('#sign-in button[type=submit]');

@@ -47,7 +47,7 @@ async function signInApi(server) {
 async function signInPage(page, server) {
   page.on('pageerror', (err) => console.error('page error:', err.message));
   page.on('console', (msg) => { if (msg.type() === 'error') console.error('console:', msg.text()); });
-  await page.goto(`${server.url}/#review`);
+  await page.goto(`${server.url}/desk/#review`);
   await page.fill('#username', REVIEWER.username);
   await page.fill('#password', REVIEWER.password);
   await page.click('#sign-in button[type=submit]');
@@ -198,7 +198,7 @@ test("a phone's record shows the phone's EXIF reading and photo checks; photos o
     const small = await browser.newContext({ viewport: { width: 390, height: 844 }, hasTouch: true, storageState: await desk.storageState() });
     try {
       const onPhone = await small.newPage();
-      await onPhone.goto(`${server.url}/#review`);
+      await onPhone.goto(`${server.url}/desk/#review`);
       await onPhone.click('.queue-item button.link');
       await onPhone.click('.photo-open');
       await onPhone.waitForSelector('.zoom-stage');

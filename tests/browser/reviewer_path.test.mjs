@@ -26,7 +26,7 @@ after(async () => {
 });
 
 async function signIn(page) {
-  await page.goto(`${server.url}/#review`);
+  await page.goto(`${server.url}/desk/#review`);
   await page.fill('#username', REVIEWER.username);
   await page.fill('#password', REVIEWER.password);
   await page.click('#sign-in button[type=submit]');
@@ -45,7 +45,7 @@ test('a second tab and a restarted browser act and sign out without 403', async 
     await signIn(first);
     // A second tab shares the cookie but not the first tab's sessionStorage.
     const second = await desk.newPage();
-    await second.goto(`${server.url}/#review`);
+    await second.goto(`${server.url}/desk/#review`);
     await second.waitForSelector('.queue-item', { timeout: 15000 });
     await openRecord(second, id(1));
     await second.fill('#review-message', 'Which beach was it on?');
@@ -57,7 +57,7 @@ test('a second tab and a restarted browser act and sign out without 403', async 
     const restarted = await browser.newContext({ viewport: PHONE, storageState: await desk.storageState() });
     try {
       const page = await restarted.newPage();
-      await page.goto(`${server.url}/#review`);
+      await page.goto(`${server.url}/desk/#review`);
       await page.waitForSelector('.queue-item', { timeout: 15000 });
       await openRecord(page, id(2));
       await page.fill('#review-message', 'No photo of the underside?');

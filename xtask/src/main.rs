@@ -1,14 +1,14 @@
 //! `cargo xtask <task>`: everything needed to build, demo and test wrackline from a
 //! fresh machine, in plain Rust so that no extra tool has to be installed by hand.
 //!
-//! - `build [--dev]`: the app (wasm + bindings + static files + service worker) into
-//!   `target/app-dist`.
+//! - `build [--dev]`: the app (the phone's and the desk's wasm bundles + bindings + static
+//!   files + service worker) into `target/app-dist`.
 //! - `demo [ARGS…]`: build everything, then run `wrackline demo` (ARGS go to it).
 //! - `test`: install what the tests need (wasm target, rustfmt and clippy, Chromium,
 //!   exiftool, npm packages, a Python venv in target/venv), check formatting and lints
 //!   (`cargo fmt --check`, `cargo clippy -D warnings`; the tidy rules run as a test of
 //!   xtask), build, and run every test: Rust unit and integration tests, the app's own
-//!   unit tests (natively), then the browser tests, then the intake fuzz loop for 15 s.
+//!   unit tests (natively, for each bundle), then the browser tests, then the intake fuzz loop for 15 s.
 //!   `ci` is the same.
 //! - `fuzz [--seconds N] [--seed N]`: the intake fuzz loop (`server/examples/fuzz_intake.rs`).
 //! - `tidy`: the workspace's written rules and module layers ([`tidy`]), printed.
@@ -75,6 +75,7 @@ fn test() -> Result<()> {
     )?;
     // The app's data layer (sync states, backoff, error decoding, time), natively: no browser.
     run::cargo(&["test", "-p", "wrackline-app"])?;
+    run::cargo(&["test", "-p", "wrackline-app", "--features", "desk"])?;
     run::cargo(&["build", "-p", "wrackline-server"])?;
     run::browser_tests(&dist, &root().join("target/debug/wrackline"))?;
     fuzz(&["--seconds".into(), "15".into()])?;
@@ -104,6 +105,19 @@ fn lint() -> Result<()> {
         "wrackline-app",
         "-p",
         "upload-copy-bench",
+        "--target",
+        "wasm32-unknown-unknown",
+        "--",
+        "-D",
+        "warnings",
+    ])?;
+    // The desk's bundle is the same crate with other screens: linted on its own too.
+    run::cargo(&[
+        "clippy",
+        "-p",
+        "wrackline-app",
+        "--features",
+        "desk",
         "--target",
         "wasm32-unknown-unknown",
         "--",

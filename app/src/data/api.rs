@@ -21,6 +21,8 @@ use shared_types::{
     Reply, ReviewDetail, Role, SessionInfo, Submission, WalkLink, WalkReceipt, WalkSubmission,
 };
 
+pub mod fieldwork;
+
 use crate::data::device::{self, Answer};
 use crate::data::local;
 

@@ -16,12 +16,14 @@
 //!   (EXIF read on the phone, the upload copy), [`time`] (local time and its offset on a
 //!   given date), [`key`] (the guided key's logic), [`figures`] and [`downloads`] (the
 //!   figures' tables and the download links), [`readable`] (times and photo readings as
-//!   people read them), [`page`] (what the page learns from the browser).
+//!   people read them), [`page`] (what the page learns from the browser), [`fieldwork`]
+//!   (the forms of the people who go out: responses, samples, carcass reports).
 
 pub mod api;
 pub mod checklist;
 pub mod device;
 pub mod downloads;
+pub mod fieldwork;
 pub mod figures;
 pub mod form_fields;
 pub mod identity;

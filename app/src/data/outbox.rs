@@ -215,6 +215,12 @@ pub struct Outbox {
     pub editing: RwSignal<Option<String>>,
 }
 
+impl Default for Outbox {
+    fn default() -> Self {
+        Self::new()
+    }
+}
+
 impl Outbox {
     /// Empty lists (loaded from storage by [`Outbox::load`]) and the cached records.
     pub fn new() -> Self {

@@ -6,7 +6,9 @@ use axum::body::Bytes;
 use axum::extract::{Path, State};
 use chrono::Utc;
 use serde_json::{Value, json};
-use shared_types::{CarcassReport, FieldProblem, ResponseReport, SampleInput, SampleLookup, SampleView, UrgentItem};
+use shared_types::{
+    CarcassReport, FieldProblem, ResponseReport, Role, SampleInput, SampleLookup, SampleView, UrgentItem,
+};
 use uuid::Uuid;
 
 use crate::error::ApiError;
@@ -15,7 +17,7 @@ use crate::handlers::observations::intake_error;
 use crate::intake::parse_json;
 use crate::state::AppState;
 use crate::store::fieldwork::{self, SampleWrite};
-use crate::store::{StoreError, observations, review as review_store};
+use crate::store::{StoreError, notifications, observations, people as people_store, review as review_store};
 
 fn record_id(text: &str) -> Result<Uuid, ApiError> {
     Uuid::parse_str(text).map_err(|_| ApiError::BadRequest(format!("`{text}` is not a record id (a UUID)")))
@@ -37,15 +39,24 @@ async fn observation(state: &AppState, client_id: Uuid) -> Result<i64, ApiError>
 
 /// `GET /api/urgent`: live-animal records, those still waiting for a response first,
 /// then the newest, each with its response log. Exact places: responders must find the
-/// animal.
-pub async fn urgent(State(state): State<AppState>, Responder(_): Responder) -> Result<Json<Vec<UrgentItem>>, ApiError> {
+/// animal. Each with how the responders were told, and the finder's contact for
+/// reviewers and admins.
+pub async fn urgent(
+    State(state): State<AppState>,
+    Responder(person): Responder,
+) -> Result<Json<Vec<UrgentItem>>, ApiError> {
+    // The finder's contact is for reviewers and admins (as on the record's review screen).
+    let sees_finder = matches!(person.role, Role::Reviewer | Role::Admin);
     let items = state
         .store
-        .run(|conn| {
+        .run(move |conn| {
             let mut items = Vec::new();
             for record in observations::list_records(conn)?.into_iter().filter(|r| r.submission.is_urgent()) {
-                let responses = fieldwork::responses(conn, record.observation_id)?;
-                items.push(UrgentItem { record, responses });
+                let observation = record.observation_id;
+                let responses = fieldwork::responses(conn, observation)?;
+                let notifications = notifications::of_record(conn, observation)?;
+                let finder = if sees_finder { people_store::observer_of_observation(conn, observation)? } else { None };
+                items.push(UrgentItem { record, responses, notifications, finder });
             }
             Ok::<_, StoreError>(items)
         })

@@ -342,6 +342,31 @@ async fn a_live_animal_stays_first_in_the_queue_until_a_response_is_logged() {
     assert_eq!(reviewer_only.status(), 403, "responders see live animals, not the review queue");
 }
 
+#[tokio::test]
+async fn the_urgent_list_shows_reviewers_the_finders_contact_and_responders_only_the_find() {
+    let app = spawn_app().await;
+    let phone = app.new_device().await;
+    let live = new_id();
+    assert_eq!(app.submit_as(&phone, &alive(&live), &[]).await.status, 200);
+    let profile = json!({"display_name": "Gwen", "contact": "gwen@example.org"});
+    let saved =
+        app.client.put(format!("{}/api/my/profile", app.base)).bearer_auth(&phone).json(&profile).send().await.unwrap();
+    assert_eq!(saved.status(), 200);
+
+    let as_reviewer: Value = app.get("/api/urgent").await.json().await.unwrap();
+    assert_eq!(as_reviewer[0]["record"]["submission"]["client_id"], live.as_str());
+    assert_eq!(as_reviewer[0]["finder"]["contact"], "gwen@example.org", "reviewers reach the finder");
+    assert!(as_reviewer[0]["notifications"].is_array(), "each channel's delivery state travels with it");
+
+    let staff = responder(&app).await;
+    let response = staff.sign(app.client.get(format!("{}/api/urgent", app.base))).send().await.unwrap();
+    let text = response.text().await.unwrap();
+    let as_responder: Value = serde_json::from_str(&text).unwrap();
+    assert_eq!(as_responder[0]["record"]["submission"]["client_id"], live.as_str());
+    assert!(as_responder[0]["finder"].is_null(), "a responder is not given the finder's contact");
+    assert!(!text.contains("gwen@example.org"), "nor anywhere else in the answer");
+}
+
 fn sample(code: &str, kind: &str, stored_at: &str) -> Value {
     json!({"kind": kind, "code": code, "preservation": "frozen", "stored_at": stored_at, "held_by": "Aber marine lab", "notes": null})
 }

@@ -4,14 +4,15 @@
 //! record with its flags, all fields, the guided key's answers and its suggestions
 //! replayed on the server, how the current name reads against the checklist and what the
 //! public sees of the place because of it, flags, possible duplicates, identification
-//! history, messages and audit trail, and who sent it with how to reach them — and the
-//! decisions. The heading names the current identification; a refused decision is said
+//! history, messages and audit trail, and who sent it with how to reach them; what the
+//! people who go out added (responses, samples, carcass) — and the decisions. The heading names the current identification; a refused decision is said
 //! right under the buttons.
 
 use leptos::prelude::*;
 use shared_types::{KeyReplay, PhotoExif, PhotoFlag, PhotoView, QueueFlag, ReviewDetail, distance_words, hours_words};
 
 use crate::data::{api, checklist, readable};
+use crate::screens::fieldwork::on_record::RecordFieldwork;
 use crate::screens::review::duplicates::DuplicatesOf;
 use crate::screens::review::zoom::PhotoZoom;
 
@@ -260,6 +261,7 @@ pub fn RecordReview(client_id: String, back: impl Fn() + Copy + 'static) -> impl
                     {key_section(sub.key_choice.clone(), d.key.clone())}
                     <h4>"Flags and priority"</h4>
                     <ul class="flags">{d.priority_reasons.iter().map(|r| view! { <li>{r.clone()}</li> }).collect_view()}</ul>
+                    <RecordFieldwork detail=d.clone() reload=load />
                     <DuplicatesOf detail=d.clone() reloads=reloads problem=pair_problem />
                     <p id="pair-problem" class="problems" role="alert">{move || pair_problem.get()}</p>
                     <h4>"Identifications"</h4>
