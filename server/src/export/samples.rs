@@ -58,16 +58,14 @@ pub fn samples_for(samples: &[SampleRow], audience: Audience, shown: bool) -> Ve
     }
 }
 
-/// The carcass report an audience may read: the internal notes never leave for the
-/// public, nor injuries (free text) where a record's free text is withheld.
+/// The carcass report an audience may read: where a record's free text is withheld from
+/// the public, neither the injuries (free text) nor the examination's time (its date and
+/// time of day would narrow the find's). The report's notes are written to no export.
 pub fn carcass_for(carcass: Option<&CarcassReport>, audience: Audience, hide_free_text: bool) -> Option<CarcassReport> {
     let mut carcass = carcass?.clone();
-    if audience == Audience::Public {
-        carcass.notes = None;
-        if hide_free_text {
-            carcass.injuries = None;
-            carcass.examined_at = None;
-        }
+    if audience == Audience::Public && hide_free_text {
+        carcass.injuries = None;
+        carcass.examined_at = None;
     }
     Some(carcass)
 }

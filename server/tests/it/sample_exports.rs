@@ -323,3 +323,52 @@ async fn the_public_register_withholds_samples_of_sensitive_and_unconfirmed_reco
     assert_eq!(public.text().await.unwrap(), std::fs::read_to_string(&path).unwrap());
     assert_eq!(anonymous("format=samples&audience=full&state=any").await.unwrap().status(), 403);
 }
+
+#[tokio::test]
+async fn after_a_merge_the_animal_carries_the_samples_and_carcass_added_on_its_other_report() {
+    let app = spawn_app().await;
+    let (first, second) = ("5a3e1e00-0000-4000-8000-0000000000a1", "5a3e1e00-0000-4000-8000-0000000000a2");
+    assert_eq!(app.submit(&submission(first), &[]).await.status, 200);
+    let mut later = submission(second);
+    later["observed_at"] = json!("2025-06-01T15:40:00+01:00");
+    assert_eq!(app.submit(&later, &[]).await.status, 200);
+    // All on the later report, which the merge folds into the earlier one.
+    add_sample(&app, second, sample("M-1", "tissue_for_genetics", "ethanol", "freezer 1", "the lab")).await;
+    add_sample(&app, second, sample("M-2", "stomach_contents", "formalin", "shelf 4", "the lab")).await;
+    set_carcass(
+        &app,
+        second,
+        json!({"fate": "buried", "examined_at": null, "body_condition": null, "stomach": null,
+        "injuries": null, "notes": null}),
+    )
+    .await;
+    let (status, answer) = send(
+        &app,
+        reqwest::Method::POST,
+        &format!("/api/review/records/{first}/duplicates/{second}"),
+        &json!({"same_animal": true}),
+    )
+    .await;
+    assert_eq!(status, 200, "{answer}");
+
+    let dir = tempfile::tempdir().unwrap();
+    let zip = download(&app, "format=dwca&audience=full&state=any", dir.path(), "merged.zip").await;
+    let archive = run_script("read_dwca.py", &[&zip, &terms_extract()]);
+    assert_eq!(archive["rows"].as_array().unwrap().len(), 1, "one occurrence per animal");
+    let animal = row(&archive, first);
+    assert_eq!(
+        term(&animal["data"], "preparations"),
+        "tissue for genetics (in ethanol) | stomach contents (in formalin)"
+    );
+    assert_eq!(term(&animal["data"], "disposition"), "carcass buried", "the later report's carcass");
+    let ids: Vec<&str> = extension_rows(animal, "ResourceRelationship").iter().map(|s| term(s, "resourceID")).collect();
+    assert_eq!(ids, ["M-1", "M-2"]);
+    let register_path = download(&app, "format=samples&audience=full&state=any", dir.path(), "merged.csv").await;
+    let (_, rows) = register(&register_path);
+    let occurrences: Vec<&str> = rows.iter().map(|r| r["occurrenceID"].as_str().unwrap()).collect();
+    assert_eq!(
+        occurrences,
+        [format!("urn:uuid:{first}"), format!("urn:uuid:{first}")],
+        "both under the animal's record"
+    );
+}
