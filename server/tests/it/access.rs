@@ -563,9 +563,8 @@ async fn a_second_tab_with_only_the_cookie_gets_the_csrf_token_back_and_can_act_
     assert_eq!(as_phone["csrf_token"], Value::Null);
 }
 
-/// The sample register rides on `/api/export` (one route, one row in the matrix): its
-/// public form is for anyone, its full form (where samples are stored, who holds them,
-/// sensitive species as recorded) only for reviewers and admins, like every full export.
+/// The sample register rides on `/api/export`: its public form is for anyone, its full form
+/// (storage, holders, sensitive species as recorded) for reviewers and admins only.
 #[tokio::test]
 async fn the_full_sample_register_is_for_reviewers_and_admins_only() {
     let app = spawn_app().await;
@@ -585,8 +584,7 @@ async fn the_full_sample_register_is_for_reviewers_and_admins_only() {
             };
             let response = request.send().await.unwrap();
             let status = response.status().as_u16();
-            let body = response.text().await.unwrap();
-            // The full register names the matrix's sample and where it is kept; a refusal says why.
+            let body = response.text().await.unwrap(); // The full register says where the sample is kept.
             let fine = if allowed_here {
                 status == 200 && (!query.contains("full") || body.contains("freezer 1"))
             } else {
