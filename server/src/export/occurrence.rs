@@ -1,7 +1,8 @@
 //! One stored organism turned into the values an export writes: names resolved on the
 //! checklist at any rank, the place as [`crate::protect`] publishes it for the audience,
 //! the filters on published places and days, observers named as they agreed
-//! ([`super::credit`]), links made absolute, and the organism's identification history.
+//! ([`super::credit`]), links made absolute, the organism's identification history, and
+//! its samples and carcass report as far as the audience may read them ([`super::samples`]).
 //!
 //! A record generalised for the public carries no free text (remarks, names as typed,
 //! photos), no observer label, and its date only to the day: an observer's exact

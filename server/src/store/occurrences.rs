@@ -13,6 +13,9 @@
 //! (`people.display_name`, `people.name_public`, `people.public_id`) for exports to
 //! choose what to print.
 //!
+//! Each organism also carries its samples and its carcass report (from any of its
+//! reports); most rows have neither, and cost two index probes (samples, carcass) to find that out.
+//!
 //! Filters here are the ones SQL can apply to stored values without giving anything
 //! away: review states and a span of time. Where a record is, and the day a generalised
 //! record is published under, are filtered by the export on the published form.
