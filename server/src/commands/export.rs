@@ -1,5 +1,6 @@
 //! `wrackline export`: every record, or a filtered selection, as CSV, GeoJSON or a Darwin
-//! Core Archive, written as it is read, with a progress bar on standard error.
+//! Core Archive, or the register of the samples taken from them, written as it is read,
+//! with a progress bar on standard error.
 
 use std::io::Write;
 use std::path::{Path, PathBuf};
@@ -20,6 +21,8 @@ pub enum ExportFormat {
     Csv,
     Dwca,
     Geojson,
+    /// The sample register: one CSV row per sample taken, with its animal's record.
+    Samples,
 }
 
 #[derive(Debug, clap::Args)]
@@ -80,6 +83,7 @@ pub fn run(data_dir: &Path, args: ExportArgs) -> anyhow::Result<()> {
             ExportFormat::Csv => Format::Csv,
             ExportFormat::Dwca => Format::Dwca,
             ExportFormat::Geojson => Format::Geojson,
+            ExportFormat::Samples => Format::Samples,
         },
         audience,
         states: states.clone(),

@@ -1,6 +1,8 @@
 //! A Darwin Core Archive (TDWG Darwin Core Text Guide): a zip holding the occurrence
-//! core, the MeasurementOrFact extension for lengths, the Identification extension for
-//! each organism's identification history, `meta.xml` describing them, and `eml.xml` with
+//! core, the MeasurementOrFact extension for lengths and necropsy findings, the
+//! Identification extension for each organism's identification history, the
+//! ResourceRelationship extension for the samples taken from it ([`super::samples`]),
+//! `meta.xml` describing them, and `eml.xml` with
 //! what the GBIF metadata profile requires plus the licence and the methods. When survey
 //! walks pass the filters, the core is the Event table instead, with occurrences (and
 //! absences) as its extension ([`super::events`]).
@@ -33,10 +35,11 @@ use super::cells::spreadsheet_safe;
 use super::events::{self, Found};
 use super::terms::{
     DWC, EVENT_CORE, EVENT_IDENTIFICATION_EXTENSION, EVENT_MEASUREMENT_EXTENSION, IDENTIFICATION_EXTENSION,
-    MEASUREMENT_EXTENSION, OCCURRENCE_CORE, OCCURRENCE_EXTENSION, Table,
+    MEASUREMENT_EXTENSION, OCCURRENCE_CORE, OCCURRENCE_EXTENSION, RELATIONSHIP_EXTENSION, Table,
 };
 use super::{ExportError, ExportRequest, ExportSummary, Occurrence, each_occurrence};
 use crate::export::csv::method;
+use crate::export::samples::{necropsy_rows, relationship_rows};
 use crate::protect::{Audience, Publisher};
 use crate::store::occurrences::{ObserverRow, WalkFind};
 use crate::taxa::TaxonIndex;
@@ -100,22 +103,29 @@ pub fn write<W: Write>(
     write_line(&mut zip, OCCURRENCE_CORE.terms.iter().copied())?;
     let mut lengths = Spool::new(&MEASUREMENT_EXTENSION)?;
     let mut identifications = Spool::new(&IDENTIFICATION_EXTENSION)?;
+    let mut samples = Spool::new(&RELATIONSHIP_EXTENSION)?;
     let mut summary = each_occurrence(conn, &publisher, request, progress, |o| {
         write_line(&mut zip, o.dwc.iter().map(String::as_str))?;
         let id = o.dwc[0].as_str();
-        if let Some(row) = measurement_row(o) {
+        for row in measurement_rows(o) {
             lengths.line(row.iter().map(String::as_str))?;
         }
         for row in &o.identifications {
             identifications.line(std::iter::once(id).chain(row.iter().map(String::as_str)))?;
         }
+        for row in relationship_rows(o) {
+            samples.line(std::iter::once(id).chain(row.iter().map(String::as_str)))?;
+        }
         Ok(())
     })?;
     summary.measurements = lengths.rows;
     summary.identifications = identifications.rows;
-    lengths.copy_into(&mut zip)?;
-    identifications.copy_into(&mut zip)?;
-    let meta = meta_xml(&OCCURRENCE_CORE, &[&MEASUREMENT_EXTENSION, &IDENTIFICATION_EXTENSION]);
+    summary.samples = samples.rows;
+    for spool in [lengths, identifications, samples] {
+        spool.copy_into(&mut zip)?;
+    }
+    let meta =
+        meta_xml(&OCCURRENCE_CORE, &[&MEASUREMENT_EXTENSION, &IDENTIFICATION_EXTENSION, &RELATIONSHIP_EXTENSION]);
     finish(conn, zip, &meta, &summary, request)
 }
 
@@ -265,6 +275,7 @@ fn write_with_events<W: Write>(
     let mut occurrences = Spool::new(&OCCURRENCE_EXTENSION)?;
     let mut lengths = Spool::new(&EVENT_MEASUREMENT_EXTENSION)?;
     let mut identifications = Spool::new(&EVENT_IDENTIFICATION_EXTENSION)?;
+    let mut samples = Spool::new(&RELATIONSHIP_EXTENSION)?;
     let mut summary = each_occurrence(conn, publisher, request, progress, |o| {
         let occurrence_id = o.dwc[0].as_str();
         let core_id = match o.walk_client_id.as_deref().filter(|w| exported.contains(w)) {
@@ -279,11 +290,14 @@ fn write_with_events<W: Write>(
         };
         let core_id = core_id.as_str();
         occurrences.line(std::iter::once(core_id).chain(o.dwc.iter().map(String::as_str)))?;
-        if let Some(row) = measurement_row(o) {
+        for row in measurement_rows(o) {
             lengths.line(std::iter::once(core_id).chain(row.iter().map(String::as_str)))?;
         }
         for row in &o.identifications {
             identifications.line([core_id, occurrence_id].into_iter().chain(row.iter().map(String::as_str)))?;
+        }
+        for row in relationship_rows(o) {
+            samples.line(std::iter::once(core_id).chain(row.iter().map(String::as_str)))?;
         }
         Ok(())
     })?;
@@ -296,12 +310,20 @@ fn write_with_events<W: Write>(
     }
     summary.measurements = lengths.rows;
     summary.identifications = identifications.rows;
+    summary.samples = samples.rows;
     summary.events = walks.len() as u64;
-    for spool in [occurrences, lengths, identifications] {
+    for spool in [occurrences, lengths, identifications, samples] {
         spool.copy_into(&mut zip)?;
     }
-    let meta =
-        meta_xml(&EVENT_CORE, &[&OCCURRENCE_EXTENSION, &EVENT_MEASUREMENT_EXTENSION, &EVENT_IDENTIFICATION_EXTENSION]);
+    let meta = meta_xml(
+        &EVENT_CORE,
+        &[
+            &OCCURRENCE_EXTENSION,
+            &EVENT_MEASUREMENT_EXTENSION,
+            &EVENT_IDENTIFICATION_EXTENSION,
+            &RELATIONSHIP_EXTENSION,
+        ],
+    );
     finish(conn, zip, &meta, &summary, request)
 }
 
@@ -324,18 +346,22 @@ fn write_line<'a>(out: &mut impl Write, values: impl Iterator<Item = &'a str>) -
     out.write_all(line.as_bytes())
 }
 
-fn measurement_row(o: &Occurrence) -> Option<[String; 7]> {
-    let length = o.length.as_ref()?;
+/// The length, then the necropsy findings, as MeasurementOrFact rows (the occurrence's id first).
+fn measurement_rows(o: &Occurrence) -> Vec<[String; 8]> {
     let id = &o.dwc[0];
-    Some([
-        id.clone(),
-        format!("{id}#length"),
-        length.kind.label().to_owned(),
-        format!("{:.1}", length.value_cm),
-        "cm".to_owned(),
-        method(length.method).to_owned(),
-        format!("as recorded: {} {}", length.value, length.unit),
-    ])
+    let length = o.length.as_ref().map(|length| {
+        [
+            id.clone(),
+            format!("{id}#length"),
+            length.kind.label().to_owned(),
+            format!("{:.1}", length.value_cm),
+            "cm".to_owned(),
+            method(length.method).to_owned(),
+            format!("as recorded: {} {}", length.value, length.unit),
+            String::new(),
+        ]
+    });
+    length.into_iter().chain(necropsy_rows(o)).collect()
 }
 
 /// `meta.xml` for a core and its extensions. Column 0 of the core is its id and of each
@@ -390,8 +416,9 @@ fn eml_xml(summary: &ExportSummary, request: &ExportRequest, package: &str) -> S
     };
     let mut paragraphs = vec![
         "Sharks, rays, skates and chimaeras found stranded on beaches or landed by anglers and fishers, recorded by \
-         citizen observers with wrackline. One occurrence per animal; lengths are in the MeasurementOrFact extension, \
-         every identification (current and superseded) in the Identification extension."
+         citizen observers with wrackline. One occurrence per animal; lengths and necropsy findings are in the \
+         MeasurementOrFact extension, every identification (current and superseded) in the Identification extension, \
+         each sample taken in the ResourceRelationship extension (the sample's id \"sample of\" the occurrence)."
             .to_owned(),
         audience,
         "Stranding and landing records show where people look; they are inputs to an assessment, not a listing decision."
@@ -459,6 +486,11 @@ const METHOD_STEPS: &[&str] = &[
      stable pseudonymous label (observer-followed by 12 hex digits of a random id) stands in. Reviewers' \
      identifications are credited to \"wrackline reviewer\". Values that a spreadsheet would read as a formula \
      start with an apostrophe.",
+    "Samples taken from a carcass: preparations lists each sample's kind and keeping, disposition the carcass's \
+     fate; the necropsy findings (body condition, stomach fullness, injuries) are MeasurementOrFact rows, and each \
+     sample is a ResourceRelationship row (its id as resourceID, \"sample of\" the occurrence). Public exports name \
+     sample ids only on records published as recorded (an id is free text and may name a place) and never say \
+     where a sample is stored or who holds it; the network's reviewers keep the sample register with both.",
 ];
 
 fn escape(text: &str) -> String {

@@ -19,6 +19,7 @@ pub mod events;
 pub mod filters;
 pub mod geojson;
 pub mod occurrence;
+pub mod samples;
 pub mod terms;
 
 use std::io::Write;
@@ -44,15 +45,18 @@ pub enum Format {
     Csv,
     Dwca,
     Geojson,
+    /// The sample register: one CSV row per sample ([`samples::write_register`]).
+    Samples,
 }
 
 impl Format {
-    /// Reads `csv`, `dwca` or `geojson`.
+    /// Reads `csv`, `dwca`, `geojson` or `samples`.
     pub fn parse(text: &str) -> Option<Self> {
         match text.to_ascii_lowercase().as_str() {
             "csv" => Some(Self::Csv),
             "dwca" => Some(Self::Dwca),
             "geojson" => Some(Self::Geojson),
+            "samples" => Some(Self::Samples),
             _ => None,
         }
     }
@@ -63,6 +67,7 @@ impl Format {
             Self::Csv => ("text/csv; charset=utf-8", "wrackline-records.csv"),
             Self::Dwca => ("application/zip", "wrackline-dwca.zip"),
             Self::Geojson => ("application/geo+json", "wrackline-records.geojson"),
+            Self::Samples => ("text/csv; charset=utf-8", "wrackline-samples.csv"),
         }
     }
 }
@@ -126,6 +131,7 @@ pub fn write_export<W: Write>(
         Format::Csv => csv::write(conn, names, request, out, progress),
         Format::Geojson => geojson::write(conn, names, request, out, progress),
         Format::Dwca => dwca::write(conn, names, request, out, progress),
+        Format::Samples => samples::write_register(conn, names, request, out, progress),
     }
 }
 

@@ -1,7 +1,8 @@
 //! One stored organism turned into the values an export writes: names resolved on the
 //! checklist at any rank, the place as [`crate::protect`] publishes it for the audience,
 //! the filters on published places and days, observers named as they agreed
-//! ([`super::credit`]), links made absolute, and the organism's identification history.
+//! ([`super::credit`]), links made absolute, the organism's identification history, and
+//! its samples and carcass report as far as the audience may read them ([`super::samples`]).
 //!
 //! A record generalised for the public carries no free text (remarks, names as typed,
 //! photos), no observer label, and its date only to the day: an observer's exact
@@ -11,12 +12,15 @@ use std::collections::BTreeMap;
 
 use chrono::NaiveDate;
 
-use super::ExportRequest;
 use super::credit;
+use super::samples::{self, carcass_for, samples_for};
+use super::terms::OCCURRENCE_TERMS;
+use super::{ExportRequest, Format};
 use crate::protect::generalise::PublicPlace;
 use crate::protect::{Audience, Publisher};
-use crate::store::occurrences::{IdentificationRow, LengthRow, OccurrenceRow};
+use crate::store::occurrences::{IdentificationRow, LengthRow, OccurrenceRow, SampleRow};
 use crate::taxa::{Resolution, rank_word};
+use shared_types::CarcassReport;
 
 /// An organism ready to write, Darwin Core values in [`super::terms::OCCURRENCE_TERMS`] order.
 #[derive(Debug, Clone)]
@@ -36,6 +40,17 @@ pub struct Occurrence {
     /// One row per identification, current and superseded, in
     /// [`super::terms::IDENTIFICATION_TERMS`] order.
     pub identifications: Vec<Vec<String>>,
+    /// The samples this audience may see named ([`samples::samples_for`]).
+    pub samples: Vec<SampleRow>,
+    /// The carcass report, with what this audience may read of it ([`samples::carcass_for`]).
+    pub carcass: Option<CarcassReport>,
+}
+
+impl Occurrence {
+    /// The value of the Darwin Core occurrence term `name` (empty for a term not written).
+    pub fn term(&self, name: &str) -> &str {
+        OCCURRENCE_TERMS.iter().position(|t| *t == name).and_then(|i| self.dwc.get(i)).map_or("", String::as_str)
+    }
 }
 
 /// What an export did, for the command line and the archive's metadata.
@@ -44,7 +59,7 @@ pub struct ExportSummary {
     pub records: u64,
     pub generalised: u64,
     pub withheld: u64,
-    /// Lengths written to the archive's MeasurementOrFact extension (archives only).
+    /// Lengths and necropsy findings written to the archive's MeasurementOrFact extension (archives only).
     pub measurements: u64,
     /// Rows of the archive's Identification extension (archives only).
     pub identifications: u64,
@@ -53,6 +68,11 @@ pub struct ExportSummary {
     /// export's, are counted in `other_unmatched`: typed names are free text).
     pub unmatched: BTreeMap<String, u64>,
     pub other_unmatched: u64,
+    /// Samples named: rows of the archive's ResourceRelationship extension, or of the register.
+    pub samples: u64,
+    /// Samples of records whose free text is withheld from the public: counted in
+    /// `preparations`, their ids not given (public exports only).
+    pub samples_unnamed: u64,
     /// Survey walks written as events (archives with walks only).
     pub events: u64,
     /// Absences written for target groups not found on all-finds walks.
@@ -70,12 +90,22 @@ impl ExportSummary {
             self.records, self.generalised, self.withheld
         )];
         if self.measurements > 0 {
-            notes.push(format!("{} lengths, in the MeasurementOrFact extension.", self.measurements));
+            notes.push(format!(
+                "{} lengths and necropsy findings, in the MeasurementOrFact extension.",
+                self.measurements
+            ));
         }
         if self.identifications > 0 {
             notes.push(format!(
                 "{} identifications, current and superseded, in the Identification extension.",
                 self.identifications
+            ));
+        }
+        if self.samples > 0 || self.samples_unnamed > 0 {
+            notes.push(format!(
+                "{} samples named (ids with \"sample of\" the occurrence); {} more, on records generalised or withheld \
+                 for the public, only described in preparations.",
+                self.samples, self.samples_unnamed
             ));
         }
         if self.events > 0 {
@@ -161,7 +191,11 @@ impl Builder<'_> {
             return None;
         }
         self.count(row.identification.as_ref(), taxon.is_some(), &place);
-        Some(self.occurrence(row, resolution.as_ref(), place))
+        let occurrence = self.occurrence(row, resolution.as_ref(), place);
+        if matches!(self.request.format, Format::Dwca | Format::Samples) {
+            self.summary.samples_unnamed += (row.samples.len() - occurrence.samples.len()) as u64;
+        }
+        Some(occurrence)
     }
 
     fn count(&mut self, identification: Option<&IdentificationRow>, resolved: bool, place: &PublicPlace) {
@@ -233,7 +267,12 @@ impl Builder<'_> {
                 Some((dataset, source_id)) if !hide => format!("{dataset}:{source_id}"),
                 _ => String::new(),
             },
+            // Darwin Core preparations: kinds and keeping only (fixed words), on every record.
+            samples::preparations(&row.samples),
+            samples::disposition(row.carcass.as_ref()),
         ];
+        // Sample ids are free text: named to the public only where the record is published as recorded.
+        let samples_shown = !hide && place.generalizations.is_none();
         Occurrence {
             dwc,
             place,
@@ -245,6 +284,8 @@ impl Builder<'_> {
             walk_client_id: row.walk_client_id.clone(),
             event_date: date,
             identifications: row.identifications.iter().map(|i| self.history_row(row, i, hide)).collect(),
+            samples: samples_for(&row.samples, audience, samples_shown),
+            carcass: carcass_for(row.carcass.as_ref(), audience, hide),
         }
     }
 

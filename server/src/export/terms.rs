@@ -39,6 +39,8 @@ pub const OCCURRENCE_TERMS: &[&str] = &[
     "associatedOccurrences",
     "datasetName",
     "otherCatalogNumbers",
+    "preparations",
+    "disposition",
 ];
 
 /// MeasurementOrFact terms with the occurrence they measure, for an event-core archive.
@@ -50,6 +52,7 @@ pub const EVENT_MEASUREMENT_TERMS: &[&str] = &[
     "measurementUnit",
     "measurementMethod",
     "measurementRemarks",
+    "measurementDeterminedDate",
 ];
 
 /// MeasurementOrFact terms after the core id column, in an occurrence-core archive.
@@ -132,4 +135,24 @@ pub const EVENT_MEASUREMENT_EXTENSION: Table = Table {
     row_type: "http://rs.tdwg.org/dwc/terms/MeasurementOrFact",
     file: "measurementorfact.txt",
     terms: EVENT_MEASUREMENT_TERMS,
+};
+
+/// Samples taken from an organism (TDWG Darwin Core ResourceRelationship class; GBIF's
+/// Resource Relationship extension uses the same row type): one row per sample, the
+/// sample's id as `resourceID`, "sample of" the occurrence named in `relatedResourceID`.
+/// The same columns serve either core: each row names the occurrence itself.
+pub const RELATIONSHIP_TERMS: &[&str] = &[
+    "resourceRelationshipID",
+    "resourceID",
+    "relationshipOfResource",
+    "relatedResourceID",
+    "relationshipEstablishedDate",
+    "relationshipRemarks",
+];
+
+/// Samples: column 0 is the core id (the occurrence's, or in an event-core archive its event's).
+pub const RELATIONSHIP_EXTENSION: Table = Table {
+    row_type: "http://rs.tdwg.org/dwc/terms/ResourceRelationship",
+    file: "resourcerelationship.txt",
+    terms: RELATIONSHIP_TERMS,
 };

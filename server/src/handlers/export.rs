@@ -1,5 +1,6 @@
-//! `GET /api/export?format=csv|dwca|geojson`: the same exports the command line writes,
-//! streamed to the client as they are made.
+//! `GET /api/export?format=csv|dwca|geojson|samples`: the same exports the command line
+//! writes, streamed to the client as they are made (`samples`: the sample register, one
+//! CSV row per sample, [`crate::export::samples`]).
 //!
 //! Anyone gets the public form ([`crate::protect`]: only confirmed records of taxa that
 //! are not sensitive at full precision); `audience=full` (positions as recorded) is for a
@@ -113,8 +114,9 @@ fn read_request(
     taxa: &TaxonIndex,
 ) -> Result<ExportRequest, ApiError> {
     let bad = |message: String| ApiError::BadRequest(message);
-    let format = Format::parse(&query.format)
-        .ok_or_else(|| bad(format!("unknown export format `{}`; available: csv, dwca, geojson", query.format)))?;
+    let format = Format::parse(&query.format).ok_or_else(|| {
+        bad(format!("unknown export format `{}`; available: csv, dwca, geojson, samples", query.format))
+    })?;
     let taxon = query
         .taxon
         .as_deref()

@@ -13,13 +13,19 @@
 //! (`people.display_name`, `people.name_public`, `people.public_id`) for exports to
 //! choose what to print.
 //!
+//! Each organism also carries its samples and its carcass report (from any of its
+//! reports); most rows have neither, and cost two index probes (samples, carcass) to find that out.
+//!
 //! Filters here are the ones SQL can apply to stored values without giving anything
 //! away: review states and a span of time. Where a record is, and the day a generalised
 //! record is published under, are filtered by the export on the published form.
 
 use rusqlite::{Connection, Row, ToSql};
 use shared_types::codes::from_code;
-use shared_types::{Condition, HumanSign, LengthKind, LifeStage, MeasureMethod, ReviewState, Setting, Sex};
+use shared_types::{
+    CarcassReport, Condition, HumanSign, LengthKind, LifeStage, MeasureMethod, Preservation, ReviewState, SampleKind,
+    Setting, Sex,
+};
 
 use super::StoreError;
 
@@ -78,6 +84,20 @@ pub struct LengthRow {
     pub method: MeasureMethod,
 }
 
+/// A sample taken from an organism, as stored (`samples`).
+#[derive(Debug, Clone, PartialEq)]
+pub struct SampleRow {
+    /// The sample's own id or barcode.
+    pub code: String,
+    pub kind: SampleKind,
+    pub preservation: Preservation,
+    pub stored_at: String,
+    pub held_by: String,
+    pub notes: Option<String>,
+    /// When it was added, RFC 3339 UTC.
+    pub added_at: String,
+}
+
 /// One organism, as its standing report describes it.
 #[derive(Debug, Clone, PartialEq)]
 pub struct OccurrenceRow {
@@ -122,6 +142,10 @@ pub struct OccurrenceRow {
     /// Where the standing report came from when it was imported (`wrackline import`):
     /// the source dataset's name and the source's id for its row.
     pub imported_from: Option<(String, String)>,
+    /// Samples taken from the organism (added on any of its reports), oldest first.
+    pub samples: Vec<SampleRow>,
+    /// The organism's carcass report (the latest, when two of its reports have one).
+    pub carcass: Option<CarcassReport>,
 }
 
 /// The report that stands for an organism: not merged, and no earlier one that is not
@@ -162,7 +186,9 @@ SELECT o.organism_id, o.id, o.client_id, o.observed_at, o.observed_at_utc, o.obs
        (SELECT group_concat(op.photo_sha256, ' ' ORDER BY op.position) FROM observation_photos op WHERE op.observation_id = o.id),
        json_extract(o.submission_json, '$.species_guess'), o.walk_client_id, o.life_stage, i.id,
        {identification_count}, COALESCE(q.name_public, 0), q.public_id, q.display_name,
-       ir.dataset_name, ir.source_row_id
+       ir.dataset_name, ir.source_row_id,
+       (SELECT COUNT(*) FROM samples sm WHERE sm.observation_id = o.id),
+       (SELECT c.report_json FROM carcasses c WHERE c.observation_id = o.id)
 FROM observations o
 LEFT JOIN identifications i ON i.id = (
     SELECT MAX(j.id) FROM identifications j WHERE j.observation_id = o.id AND j.superseded_by IS NULL)
@@ -223,6 +249,61 @@ fn merged_details(conn: &Connection, row: &mut OccurrenceRow) -> Result<(), Stor
     Ok(())
 }
 
+/// The samples and carcass report of an organism. One report: its own (the sample
+/// count and carcass report came with the row, so most rows cost no query here);
+/// several: those of every report, the latest carcass report.
+fn fieldwork(
+    conn: &Connection,
+    row: &mut OccurrenceRow,
+    own_samples: i64,
+    own_carcass: Option<String>,
+) -> Result<(), StoreError> {
+    let merged = row.observation_count > 1;
+    let carcass = if merged {
+        let mut latest = conn.prepare_cached(
+            "SELECT c.report_json FROM carcasses c JOIN observations x ON x.id = c.observation_id
+             WHERE x.organism_id = ?1 ORDER BY c.recorded_at DESC LIMIT 1",
+        )?;
+        latest.query_map([row.organism_id], |r| r.get::<_, String>(0))?.next().transpose()?
+    } else {
+        own_carcass
+    };
+    row.carcass = carcass
+        .map(|json| {
+            serde_json::from_str(&json).map_err(|err| {
+                StoreError::Corrupt(format!("observation {}: carcass report: {err}", row.observation_id))
+            })
+        })
+        .transpose()?;
+    if merged || own_samples > 0 {
+        row.samples = samples_of_organism(conn, row.organism_id)?;
+    }
+    Ok(())
+}
+
+fn samples_of_organism(conn: &Connection, organism_id: i64) -> Result<Vec<SampleRow>, StoreError> {
+    let mut stmt = conn.prepare_cached(
+        "SELECT s.code, s.kind, s.preservation, s.stored_at, s.held_by, s.notes, s.added_at
+         FROM samples s JOIN observations x ON x.id = s.observation_id WHERE x.organism_id = ?1 ORDER BY s.id",
+    )?;
+    let mut rows = stmt.query([organism_id])?;
+    let mut samples = Vec::new();
+    while let Some(r) = rows.next()? {
+        let (code, kind, preservation): (String, String, String) = (r.get(0)?, r.get(1)?, r.get(2)?);
+        let corrupt = |what: &str, value: &str| StoreError::Corrupt(format!("sample {code}: unknown {what} `{value}`"));
+        samples.push(SampleRow {
+            kind: from_code(&kind).ok_or_else(|| corrupt("kind", &kind))?,
+            preservation: from_code(&preservation).ok_or_else(|| corrupt("preservation", &preservation))?,
+            stored_at: r.get(3)?,
+            held_by: r.get(4)?,
+            notes: r.get(5)?,
+            added_at: r.get(6)?,
+            code,
+        });
+    }
+    Ok(samples)
+}
+
 /// Every identification of every report of the organism, oldest first.
 fn identification_history(conn: &Connection, organism_id: i64) -> Result<Vec<IdentificationRow>, StoreError> {
     let mut stmt = conn.prepare_cached(&format!(
@@ -276,6 +357,9 @@ pub fn for_each<E: From<StoreError>>(
         if occurrence.observation_count > 1 {
             merged_details(conn, &mut occurrence)?;
         }
+        let sample_count: i64 = row.get(40).map_err(StoreError::from)?;
+        let carcass: Option<String> = row.get(41).map_err(StoreError::from)?;
+        fieldwork(conn, &mut occurrence, sample_count, carcass)?;
         if with_history {
             occurrence.identifications = if occurrence.observation_count > 1 || identification_count > 1 {
                 identification_history(conn, occurrence.organism_id)?
@@ -446,6 +530,8 @@ fn read_row(row: &Row) -> Result<OccurrenceRow, StoreError> {
         walk_client_id: row.get(31)?,
         other_reports: Vec::new(),
         imported_from: row.get::<_, Option<String>>(38)?.zip(row.get::<_, Option<String>>(39)?),
+        samples: Vec::new(),
+        carcass: None,
     })
 }
 

@@ -562,3 +562,38 @@ async fn a_second_tab_with_only_the_cookie_gets_the_csrf_token_back_and_can_act_
         .unwrap();
     assert_eq!(as_phone["csrf_token"], Value::Null);
 }
+
+/// The sample register rides on `/api/export`: its public form is for anyone, its full form
+/// (storage, holders, sensitive species as recorded) for reviewers and admins only.
+#[tokio::test]
+async fn the_full_sample_register_is_for_reviewers_and_admins_only() {
+    let app = spawn_app().await;
+    let fx = fixture(&app).await;
+    let mut wrong = Vec::new();
+    for who in EVERYONE {
+        for (query, allowed_here) in [
+            ("format=samples&state=any", true),
+            ("format=samples&audience=full&state=any", matches!(who, Who::Reviewer | Who::Admin)),
+        ] {
+            let mut request = app.client.get(format!("{}/api/export?{query}", app.base));
+            request = match who {
+                Who::Owner => request.bearer_auth(&fx.owner),
+                Who::OtherObserver => request.bearer_auth(&fx.other),
+                Who::Reviewer | Who::Admin | Who::Responder => staff(&app, who).await.unwrap().sign(request),
+                Who::Anonymous => request,
+            };
+            let response = request.send().await.unwrap();
+            let status = response.status().as_u16();
+            let body = response.text().await.unwrap(); // The full register says where the sample is kept.
+            let fine = if allowed_here {
+                status == 200 && (!query.contains("full") || body.contains("freezer 1"))
+            } else {
+                status == 403 && body.contains("reviewers and admins") && !body.contains(MATRIX_SAMPLE)
+            };
+            if !fine {
+                wrong.push(format!("{query} as {who:?}: {status} {}", body.chars().take(160).collect::<String>()));
+            }
+        }
+    }
+    assert!(wrong.is_empty(), "{}", wrong.join("\n"));
+}

@@ -1,6 +1,6 @@
 //! An outsider trying to find where sensitive records are: anonymous callers only, over
-//! real HTTP, against every public output — box shrinking on CSV, GeoJSON and the
-//! Darwin Core Archive, date windows, name variants as taxon filters, the range figures
+//! real HTTP, against every public output — box shrinking on CSV, GeoJSON, the
+//! Darwin Core Archive and the sample register, date windows, name variants as taxon filters, the range figures
 //! and map with the AOO grid shifted about, trends, effort, and the guided key's
 //! nearby counts.
 //!
@@ -9,7 +9,8 @@
 //! stored where the public sees it instead: rounded to Chapman 2020's 0.1° grid by this
 //! file's own rounding, or with no position where it is withheld; its notes and
 //! observer's name are other words, and the survey walk has another stretch name and
-//! its track lies elsewhere in the same 0.1° cell. Every public request goes to both,
+//! its track lies elsewhere in the same 0.1° cell; its sample's id, storage, holder and
+//! the injuries seen on its carcass are other words too. Every public request goes to both,
 //! and the answers must be the same (only times that differ between two servers are
 //! left out of the comparison). So every public answer depends on the
 //! published places alone, and no sequence of public requests can narrow a record down
@@ -210,8 +211,31 @@ async fn server(angelsharks_withheld: bool, twin: bool) -> TestApp {
         if let Some(name) = find.confirmed_as {
             app.confirm(find.id, name, "species").await;
         }
+        add_fieldwork(&app, find.id, n, hidden).await;
     }
     app
+}
+
+/// A sample and a carcass report on a find. A sample's id, its place of storage, its
+/// holder and the injuries seen are free text: on the twin, a hidden find's are other words.
+async fn add_fieldwork(app: &TestApp, id: &str, n: usize, hidden: bool) {
+    let (code, stored_at, held_by, injuries) = if hidden {
+        (format!("ELSEWHERE-{n}"), "another freezer", "Someone Else", "nothing to see")
+    } else {
+        (format!("COVE-{n}"), "freezer by Secret Cove", "Ann at Secret Cove", "hooked off Secret Cove")
+    };
+    let sample = json!({"kind": "tissue_for_genetics", "code": code, "preservation": "ethanol",
+                        "stored_at": stored_at, "held_by": held_by, "notes": held_by});
+    let carcass = json!({"fate": "taken_for_study", "examined_at": "2025-06-04T10:00:00+01:00", "body_condition": "poor",
+                         "stomach": "empty", "injuries": injuries, "notes": held_by});
+    for (method, path, body) in [
+        (reqwest::Method::POST, format!("/api/review/records/{id}/samples"), sample),
+        (reqwest::Method::PUT, format!("/api/review/records/{id}/carcass"), carcass),
+    ] {
+        let request = app.client.request(method, format!("{}{path}", app.base));
+        let response = app.reviewer.sign(request).json(&body).send().await.unwrap();
+        assert_eq!(response.status(), 200, "{path}");
+    }
 }
 
 /// Both servers, the twin's phone given the real one's public id (a random label that
@@ -233,9 +257,10 @@ async fn anonymous(app: &TestApp, path: &str) -> (u16, Vec<u8>) {
 }
 
 /// What a public answer says about places: everything but the times at which the two
-/// servers were set up (dateIdentified, the archive's pubDate and packageId).
+/// servers were set up (dateIdentified, when samples were added, the archive's pubDate)
+/// and the archive's dataset ids (made from each installation's own random id).
 fn comparable(path: &str, body: &[u8]) -> Value {
-    if path.contains("format=csv") {
+    if path.contains("format=csv") || path.contains("format=samples") {
         return Value::Array(table(std::str::from_utf8(body).unwrap(), b','));
     }
     if path.contains("format=dwca") {
@@ -248,13 +273,8 @@ fn comparable(path: &str, body: &[u8]) -> Value {
             let name = file.name().unwrap().to_string();
             let value = match name.as_str() {
                 "eml.xml" => Value::String(
-                    // Each installation has its own dataset id (and so packageId); the rest must match.
                     text.lines()
-                        .filter(|l| {
-                            !l.contains("packageId=")
-                                && !l.contains("<pubDate>")
-                                && !l.contains("<alternateIdentifier>")
-                        })
+                        .filter(|l| !["packageId=", "<pubDate>", "<alternateIdentifier>"].iter().any(|t| l.contains(t)))
                         .collect(),
                 ),
                 "meta.xml" => Value::String(text),
@@ -277,7 +297,10 @@ fn comparable(path: &str, body: &[u8]) -> Value {
     }
 }
 
-/// Rows of a delimited table, with any dateIdentified column emptied.
+/// Columns holding when the servers were set up, emptied before comparing.
+const SET_UP_TIMES: [&str; 3] = ["dateIdentified", "sampleAddedAt", "relationshipEstablishedDate"];
+
+/// Rows of a delimited table, with the [`SET_UP_TIMES`] columns emptied.
 fn table(text: &str, delimiter: u8) -> Vec<Value> {
     let mut reader = csv::ReaderBuilder::new()
         .delimiter(delimiter)
@@ -286,7 +309,8 @@ fn table(text: &str, delimiter: u8) -> Vec<Value> {
         .from_reader(text.as_bytes());
     let rows: Vec<Vec<String>> = reader.records().map(|r| r.unwrap().iter().map(str::to_owned).collect()).collect();
     let Some(header) = rows.first() else { return Vec::new() };
-    let dates: Vec<usize> = header.iter().enumerate().filter(|(_, h)| *h == "dateIdentified").map(|(i, _)| i).collect();
+    let dates: Vec<usize> =
+        header.iter().enumerate().filter(|(_, h)| SET_UP_TIMES.contains(&h.as_str())).map(|(i, _)| i).collect();
     rows.iter()
         .map(|row| {
             json!(
@@ -350,7 +374,7 @@ async fn bisect(real: &TestApp, twin: &TestApp, id: &str, state: &str, steps: us
 /// Every other public output, asked in many ways: both servers must agree on each.
 async fn probe_everything(real: &TestApp, twin: &TestApp) {
     let states = ["", "&state=any", "&state=awaiting_review", "&state=confirmed"];
-    for format in ["csv", "geojson", "dwca"] {
+    for format in ["csv", "geojson", "dwca", "samples"] {
         for state in states {
             ask_both(real, twin, &format!("/api/export?format={format}{state}")).await;
         }
@@ -358,7 +382,7 @@ async fn probe_everything(real: &TestApp, twin: &TestApp) {
     // Date windows shrinking onto each day, alone and with a box around the true place.
     for day in ["2025-06-01", "2025-06-02", "2025-06-03"] {
         for window in [format!("from={day}"), format!("to={day}"), format!("from={day}&to={day}")] {
-            for format in ["csv", "dwca"] {
+            for format in ["csv", "dwca", "samples"] {
                 ask_both(real, twin, &format!("/api/export?format={format}&state=any&{window}")).await;
                 ask_both(real, twin, &format!("/api/export?format={format}&{window}&bbox=52.12,-4.66,52.13,-4.65"))
                     .await;
@@ -369,7 +393,7 @@ async fn probe_everything(real: &TestApp, twin: &TestApp) {
     let walk_track = (52.5, -4.0565);
     for (lat, lon) in FINDS.iter().map(|f| f.at).chain([walk_track]) {
         let bbox = format!("bbox={},{},{},{}", lat - 0.005, lon - 0.005, lat + 0.005, lon + 0.005);
-        for format in ["geojson", "dwca"] {
+        for format in ["geojson", "dwca", "samples"] {
             ask_both(real, twin, &format!("/api/export?format={format}&state=any&{bbox}")).await;
         }
     }
@@ -466,6 +490,15 @@ async fn no_sequence_of_public_requests_finds_a_sensitive_record_more_precisely_
     let twin_full = twin.get(full).await.text().await.unwrap();
     assert_ne!(real_full, twin_full, "the twin really holds other places");
     assert!(real_full.contains("52.123456"));
+    // And other sample ids: the public register names only those of records shown as recorded.
+    let register = "/api/export?format=samples&audience=full&state=any";
+    let twin_register = twin.get(register).await.text().await.unwrap();
+    assert!(
+        twin_register.contains("ELSEWHERE-") && !real.get(register).await.text().await.unwrap().contains("ELSEWHERE-")
+    );
+    let (_, public_register) = anonymous(&real, "/api/export?format=samples&state=any").await;
+    let public_register = String::from_utf8(public_register).unwrap();
+    assert!(public_register.contains("COVE-") && !public_register.contains("Secret Cove"), "{public_register}");
 }
 
 #[tokio::test]

@@ -75,9 +75,14 @@ async fn the_archive_reads_back_with_python_dwca_reader_and_uses_only_tdwg_terms
     assert_eq!(archive["core_row_type"], format!("{DWC}Occurrence"));
     assert_eq!(
         archive["extension_row_types"],
-        json!([format!("{DWC}MeasurementOrFact"), format!("{DWC}Identification")])
+        json!([
+            format!("{DWC}MeasurementOrFact"),
+            format!("{DWC}Identification"),
+            format!("{DWC}ResourceRelationship")
+        ])
     );
     assert_eq!(archive["unknown_terms"], json!([]), "every term is in the TDWG term list");
+    assert_eq!(archive["unknown_row_types"], json!([]), "every row type is a TDWG class");
     assert_eq!(archive["orphaned_extension_rows"]["measurementorfact.txt"], 0);
     assert_eq!(archive["orphaned_extension_rows"]["identification.txt"], 0);
     assert_eq!(archive["rows"].as_array().unwrap().len(), 3, "one row per organism");

@@ -30,6 +30,7 @@ mod python;
 mod regressions;
 mod review;
 mod routes;
+mod sample_exports;
 mod similar;
 mod slow_clients;
 mod submissions;

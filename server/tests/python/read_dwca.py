@@ -2,7 +2,7 @@
 JSON, for wrackline's export tests. Every term IRI in meta.xml is checked against the
 term list shipped in python-dwca-reader (dwca.darwincore.terms, built from the TDWG
 Darwin Core term list) and against reference/dwc_terms_extract.csv (terms newer than
-that list, taken from the TDWG term list).
+that list, and the row types' classes, taken from the TDWG term list or a package's copy).
 
 Usage: python read_dwca.py ARCHIVE.zip TERMS_EXTRACT.csv
 """
@@ -65,6 +65,7 @@ def main(archive, extract):
             "extension_row_types": [e.type for e in extensions],
             "core_terms": list(core.terms),
             "unknown_terms": sorted(t for t in all_terms if t not in known),
+            "unknown_row_types": sorted(t for t in [core.type] + [e.type for e in extensions] if t not in known),
             "orphaned_extension_rows": {k: len(v) for k, v in reader.orphaned_extension_rows().items()},
             "metadata": metadata(reader),
             "rows": rows,
