@@ -238,8 +238,14 @@ pub fn apply(
         probe.extend(flags.iter().cloned());
         if let Err(err) = command.clone().try_get_matches_from(&probe) {
             let path = file.map_or_else(String::new, |f| f.path.display().to_string());
-            let reason = err.render().to_string();
-            let reason = reason.lines().next().unwrap_or_default().trim_start_matches("error: ").to_owned();
+            // clap's message up to its usage note: the refusal and any possible values.
+            let rendered = err.render().to_string();
+            let reason: Vec<&str> = rendered
+                .lines()
+                .take_while(|l| !l.trim().is_empty())
+                .map(|l| l.trim().trim_start_matches("error: "))
+                .collect();
+            let reason = reason.join(" ");
             return Err(command.clone().error(
                 clap::error::ErrorKind::ValueValidation,
                 format!("{path}, line {}, `{}`: {reason}", value.line, value.key.name()),

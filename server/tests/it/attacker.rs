@@ -233,12 +233,23 @@ async fn anonymous(app: &TestApp, path: &str) -> (u16, Vec<u8>) {
 }
 
 /// What a public answer says about places: everything but the times at which the two
-/// servers were set up (dateIdentified, the archive's pubDate and packageId).
+/// servers were set up (dateIdentified, the archive's pubDate and packageId) and the
+/// installation's own identifier (in the packageId and alternateIdentifier).
 fn comparable(path: &str, body: &[u8]) -> Value {
     if path.contains("format=csv") {
         return Value::Array(table(std::str::from_utf8(body).unwrap(), b','));
     }
-    if path.contains("format=dwca") {
+    if path.ends_with("eml.xml") {
+        let text = String::from_utf8_lossy(body);
+        return Value::String(
+            text.lines()
+                .filter(|l| {
+                    !l.contains("packageId=") && !l.contains("<pubDate>") && !l.contains("<alternateIdentifier>")
+                })
+                .collect(),
+        );
+    }
+    if path.contains("format=dwca") || path.ends_with(".zip") {
         let mut archive = zip::ZipArchive::new(std::io::Cursor::new(body)).unwrap();
         let mut files = BTreeMap::new();
         for i in 0..archive.len() {
@@ -248,7 +259,13 @@ fn comparable(path: &str, body: &[u8]) -> Value {
             let name = file.name().unwrap().to_string();
             let value = match name.as_str() {
                 "eml.xml" => Value::String(
-                    text.lines().filter(|l| !l.contains("packageId=") && !l.contains("<pubDate>")).collect(),
+                    text.lines()
+                        .filter(|l| {
+                            !l.contains("packageId=")
+                                && !l.contains("<pubDate>")
+                                && !l.contains("<alternateIdentifier>")
+                        })
+                        .collect(),
                 ),
                 "meta.xml" => Value::String(text),
                 _ => Value::Array(table(&text, b'\t')),
@@ -387,6 +404,10 @@ async fn probe_everything(real: &TestApp, twin: &TestApp) {
     }
     ask_both(real, twin, "/api/range?state=any").await;
     ask_both(real, twin, "/api/effort?by=month").await;
+    // The published dataset a harvester polls.
+    ask_both(real, twin, "/dataset/archive.zip").await;
+    ask_both(real, twin, "/dataset/eml.xml").await;
+
     // The key's nearby counts, probed on a grid around where the angelshark was.
     for i in -3..=3 {
         for j in -3..=3 {
