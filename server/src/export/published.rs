@@ -115,3 +115,37 @@ fn eml_of(archive: &[u8]) -> Result<Vec<u8>, ExportError> {
     zip.by_name("eml.xml")?.read_to_end(&mut eml)?;
     Ok(eml)
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    async fn scratch_write(store: &Store) {
+        store.run(|conn| Ok(conn.execute_batch("CREATE TABLE scratch(x); DROP TABLE scratch;")?)).await.unwrap();
+    }
+
+    #[tokio::test]
+    async fn the_kept_version_is_served_until_a_write_and_keeps_its_identity_when_the_data_did_not_change() {
+        let dir = tempfile::tempdir().unwrap();
+        let store = Store::open(&dir.path().join("wrackline.sqlite3")).unwrap();
+        let taxa = Arc::new(TaxonIndex::new(crate::taxa::load_checklist(None).unwrap()));
+        let settings = Settings::default();
+        let cache = PublishedCache::default();
+        let first = cache.current(&store, &taxa, &settings).await.unwrap();
+        let again = cache.current(&store, &taxa, &settings).await.unwrap();
+        assert!(Arc::ptr_eq(&first, &again), "nothing written: the kept archive, not a new build");
+        // A write that changes nothing published: built again, the same identity.
+        tokio::time::sleep(std::time::Duration::from_millis(1100)).await;
+        scratch_write(&store).await;
+        let rebuilt = cache.current(&store, &taxa, &settings).await.unwrap();
+        assert!(!Arc::ptr_eq(&first, &rebuilt), "a write: built again");
+        assert_eq!((&rebuilt.etag, rebuilt.modified), (&first.etag, first.modified));
+        assert_eq!(rebuilt.package_id, first.package_id);
+        // Another licence is another version, though the records are the same.
+        let other = Settings { licence: crate::settings::Licence::Cc0, ..Settings::default() };
+        scratch_write(&store).await;
+        let relicensed = cache.current(&store, &taxa, &other).await.unwrap();
+        assert_ne!(relicensed.etag, first.etag);
+        assert_eq!(relicensed.package_id, first.package_id, "the data files are the same");
+    }
+}
