@@ -148,7 +148,15 @@ pub fn parse(argv: Vec<std::ffi::OsString>) -> Result<Invocation, clap::Error> {
 pub fn run(invocation: Invocation) -> anyhow::Result<()> {
     let Invocation { cli, settings } = invocation;
     match cli.command {
-        Command::Config(ConfigCommand::Check(args)) => commands::config::check(&cli.data_dir, &args, &settings),
+        Command::Config(ConfigCommand::Check(args)) => {
+            let start = commands::config::Start {
+                data_dir: &cli.data_dir,
+                bind: args.bind,
+                app_dir: args.app_dir.as_deref(),
+                checklist: args.checklist.as_deref(),
+            };
+            commands::config::check(&start, &args.settings, &settings)
+        }
         Command::Serve(args) => serve(&cli.data_dir, args, false),
         Command::Demo(args) => serve(&cli.data_dir, args, true),
         Command::Export(args) => commands::export::run(&cli.data_dir, args),

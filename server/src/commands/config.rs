@@ -3,30 +3,39 @@
 //! listens. A value a setting refuses never gets this far: reading the command line and
 //! the file stops with the key named ([`crate::settings::file`]).
 
+use std::net::SocketAddr;
 use std::path::Path;
 
 use anyhow::bail;
 
-use crate::cli::ServeArgs;
+use crate::settings::Settings;
 use crate::settings::file::Resolved;
+
+/// What `serve` starts with besides its [`Settings`].
+pub struct Start<'a> {
+    pub data_dir: &'a Path,
+    pub bind: SocketAddr,
+    pub app_dir: Option<&'a Path>,
+    pub checklist: Option<&'a Path>,
+}
 
 /// Prints every setting with its origin, then checks them together; `Err` names the
 /// setting that stops the server from starting.
-pub fn check(data_dir: &Path, args: &ServeArgs, settings: &[Resolved]) -> anyhow::Result<()> {
-    let width = settings.iter().map(|s| s.key.name().len()).max().unwrap_or(0);
-    for setting in settings {
+pub fn check(start: &Start<'_>, settings: &Settings, resolved: &[Resolved]) -> anyhow::Result<()> {
+    let width = resolved.iter().map(|s| s.key.name().len()).max().unwrap_or(0);
+    for setting in resolved {
         let value = setting.value.as_deref().unwrap_or("(not set)");
         println!("{:<width$} = {value}  ({})", setting.key.name(), setting.origin.word());
     }
-    if let Some(problem) = args.settings.responders.problem() {
+    if let Some(problem) = settings.responders.problem() {
         bail!("{problem}");
     }
-    check_app(args.app_dir.as_deref())?;
-    crate::taxa::load_checklist(args.checklist.as_deref()).map_err(|err| anyhow::anyhow!("checklist: {err:#}"))?;
-    if data_dir.exists() && !data_dir.is_dir() {
-        bail!("data_dir: {} is not a folder", data_dir.display());
+    check_app(start.app_dir)?;
+    crate::taxa::load_checklist(start.checklist).map_err(|err| anyhow::anyhow!("checklist: {err:#}"))?;
+    if start.data_dir.exists() && !start.data_dir.is_dir() {
+        bail!("data_dir: {} is not a folder", start.data_dir.display());
     }
-    if args.bind.ip().is_unspecified() && args.settings.public_url.is_none() {
+    if start.bind.ip().is_unspecified() && settings.public_url.is_none() {
         eprintln!("note: bind listens on every interface but public_url is not set; browsers' changes will be refused");
     }
     println!("the settings are usable");

@@ -120,8 +120,13 @@ fn eml_of(archive: &[u8]) -> Result<Vec<u8>, ExportError> {
 mod tests {
     use super::*;
 
-    async fn scratch_write(store: &Store) {
-        store.run(|conn| Ok(conn.execute_batch("CREATE TABLE scratch(x); DROP TABLE scratch;")?)).await.unwrap();
+    /// A write that changes nothing published: a new sign-in.
+    async fn unpublished_write(store: &Store) {
+        let username = format!("person-{}", uuid::Uuid::new_v4().simple());
+        let role = shared_types::Role::Reviewer;
+        crate::people::add_staff(store, None, &username, role, "Someone".into(), "a long password".into())
+            .await
+            .unwrap();
     }
 
     #[tokio::test]
@@ -136,14 +141,14 @@ mod tests {
         assert!(Arc::ptr_eq(&first, &again), "nothing written: the kept archive, not a new build");
         // A write that changes nothing published: built again, the same identity.
         tokio::time::sleep(std::time::Duration::from_millis(1100)).await;
-        scratch_write(&store).await;
+        unpublished_write(&store).await;
         let rebuilt = cache.current(&store, &taxa, &settings).await.unwrap();
         assert!(!Arc::ptr_eq(&first, &rebuilt), "a write: built again");
         assert_eq!((&rebuilt.etag, rebuilt.modified), (&first.etag, first.modified));
         assert_eq!(rebuilt.package_id, first.package_id);
         // Another licence is another version, though the records are the same.
         let other = Settings { licence: crate::settings::Licence::Cc0, ..Settings::default() };
-        scratch_write(&store).await;
+        unpublished_write(&store).await;
         let relicensed = cache.current(&store, &taxa, &other).await.unwrap();
         assert_ne!(relicensed.etag, first.etag);
         assert_eq!(relicensed.package_id, first.package_id, "the data files are the same");
