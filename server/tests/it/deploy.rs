@@ -118,7 +118,8 @@ fn config_check_says_where_each_value_came_from_a_flag_over_the_environment_over
     let folder = tempfile::tempdir().unwrap();
     std::fs::write(
         folder.path().join("wrackline.toml"),
-        "licence = \"cc0\"\n[limits]\nmax_uploads = 4\nmax_connections = 100\ndevice_burst = 7\n",
+        "licence = \"cc0\"\n[limits]\nmax_uploads = 4\nmax_connections = 100\ndevice_burst = 7\n\
+         [responders]\nwebhook = \"https://alerts.example.org/in\"\nwebhook_secret = \"s3cret-in-the-file\"\n",
     )
     .unwrap();
     let output = config_check(
@@ -134,7 +135,10 @@ fn config_check_says_where_each_value_came_from_a_flag_over_the_environment_over
     assert!(line_for(&printed, "limits.max_connections").ends_with("= 50  (flag)"), "{printed}");
     assert!(line_for(&printed, "limits.min_free_mb").ends_with("= 256  (default)"), "{printed}");
     assert!(line_for(&printed, "public_url").ends_with("= (not set)  (default)"), "{printed}");
-    // Every key is printed, each once.
+    // A secret is said to be set, never shown.
+    assert!(line_for(&printed, "responders.webhook_secret").ends_with("= (set, not shown)  (file)"), "{printed}");
+    assert!(!printed.contains("s3cret-in-the-file"), "{printed}");
+    // Every key is printed.
     for key in KEYS {
         line_for(&printed, &key.name());
     }
