@@ -449,11 +449,11 @@ fn licence_sentence(licence: crate::settings::Licence, publisher: &str) -> Strin
              for any purpose without asking."
         ),
         crate::settings::Licence::CcBy => format!(
-            "{publisher} shares these records under {link}: anyone may copy, change and use them for any purpose, \
+            "{publisher} shares these records under the Creative Commons licence {link}: anyone may copy, change and use them for any purpose, \
              provided they credit {publisher} and the observers as the dataset's citation says."
         ),
         crate::settings::Licence::CcByNc => format!(
-            "{publisher} shares these records under {link}: anyone may copy, change and use them, except for \
+            "{publisher} shares these records under the Creative Commons licence {link}: anyone may copy, change and use them, except for \
              commercial purposes, provided they credit {publisher} and the observers as the dataset's citation says."
         ),
     }

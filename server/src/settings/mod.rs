@@ -398,12 +398,12 @@ impl Licence {
         }
     }
 
-    /// Its name in words.
+    /// Its name as Creative Commons gives it on the legal code.
     pub fn title(self) -> &'static str {
         match self {
-            Self::Cc0 => "Public Domain (CC0 1.0)",
-            Self::CcBy => "Creative Commons Attribution (CC-BY) 4.0 License",
-            Self::CcByNc => "Creative Commons Attribution Non Commercial (CC-BY-NC) 4.0 License",
+            Self::Cc0 => "CC0 1.0 Universal",
+            Self::CcBy => "Attribution 4.0 International (CC BY 4.0)",
+            Self::CcByNc => "Attribution-NonCommercial 4.0 International (CC BY-NC 4.0)",
         }
     }
 }
