@@ -1,12 +1,13 @@
 //! The `wrackline` command line. Scripts and later work rely on these names:
-//! `serve`, `demo`, `export`, `import`, `range`, `trend`, `backup`, `restore`, `check`, each
-//! taking `--data-dir`.
+//! `serve`, `demo`, `export`, `import`, `range`, `trend`, `backup`, `restore`, `check`,
+//! `config check`, each taking `--data-dir` and `--config` (the configuration file,
+//! [`crate::settings::file`]: flags and environment variables override it).
 
 use std::net::SocketAddr;
 use std::path::PathBuf;
 
 use anyhow::Context as _;
-use clap::{Parser, Subcommand, ValueEnum};
+use clap::{CommandFactory as _, FromArgMatches as _, Parser, Subcommand, ValueEnum};
 
 use crate::state::AppState;
 use crate::{commands, demo};
@@ -21,6 +22,10 @@ pub struct Cli {
     /// Where the database and photos live.
     #[arg(long, global = true, env = "WRACKLINE_DATA_DIR", default_value_os_t = default_data_dir())]
     pub data_dir: PathBuf,
+    /// A configuration file (TOML) with any of the settings; flags and environment
+    /// variables override it (see deploy/wrackline.toml for every key).
+    #[arg(long, global = true, env = crate::settings::file::CONFIG_VARIABLE)]
+    pub config: Option<PathBuf>,
     #[command(subcommand)]
     pub command: Command,
 }
@@ -56,6 +61,16 @@ pub enum Command {
     /// Samples taken from animals.
     #[command(subcommand)]
     Sample(commands::sample::SampleCommand),
+    /// The configuration file and the settings it gives.
+    #[command(subcommand)]
+    Config(ConfigCommand),
+}
+
+#[derive(Debug, Subcommand)]
+pub enum ConfigCommand {
+    /// Print every setting `serve` would use, with where it came from (default, file,
+    /// env, flag), and check them; a bad value stops it with the key named.
+    Check(ServeArgs),
 }
 
 #[derive(Debug, Subcommand)]
@@ -95,9 +110,10 @@ pub struct ServeArgs {
     /// Address and port to listen on (port 0 picks a free one).
     #[arg(long, default_value = "127.0.0.1:8080")]
     pub bind: SocketAddr,
-    /// The built app to serve (made by `cargo xtask build`).
-    #[arg(long, env = "WRACKLINE_APP_DIR", default_value = "target/app-dist")]
-    pub app_dir: PathBuf,
+    /// A folder with a built app to serve instead of the one built into this binary
+    /// (for development: `target/app-dist`, made by `cargo xtask build`).
+    #[arg(long, env = "WRACKLINE_APP_DIR")]
+    pub app_dir: Option<PathBuf>,
     /// The species checklist (JSON, see species-key/README.md); the demo checklist if not given.
     #[arg(long)]
     pub checklist: Option<PathBuf>,
@@ -109,9 +125,42 @@ fn default_data_dir() -> PathBuf {
     dirs::data_dir().unwrap_or_else(|| PathBuf::from(".")).join("wrackline")
 }
 
+/// The command line as `wrackline` was started, with the configuration file's values
+/// for what no flag or environment variable set, and every setting's origin.
+pub struct Invocation {
+    pub cli: Cli,
+    pub settings: Vec<crate::settings::file::Resolved>,
+}
+
+/// Reads the command line (`argv`, the program's name first) and the configuration file
+/// it names. A mistake in either is a clap error, which prints itself and exits.
+pub fn parse(argv: Vec<std::ffi::OsString>) -> Result<Invocation, clap::Error> {
+    let command = Cli::command();
+    let first = command.clone().try_get_matches_from(&argv)?;
+    let file = match first.get_one::<PathBuf>("config") {
+        Some(path) => Some(
+            crate::settings::file::ConfigFile::read(path)
+                .map_err(|problem| command.clone().error(clap::error::ErrorKind::Io, problem))?,
+        ),
+        None => None,
+    };
+    let (matches, settings) = crate::settings::file::apply(&command, argv, file.as_ref())?;
+    Ok(Invocation { cli: Cli::from_arg_matches(&matches)?, settings })
+}
+
 /// Runs one command to the end.
-pub fn run(cli: Cli) -> anyhow::Result<()> {
+pub fn run(invocation: Invocation) -> anyhow::Result<()> {
+    let Invocation { cli, settings } = invocation;
     match cli.command {
+        Command::Config(ConfigCommand::Check(args)) => {
+            let start = commands::config::Start {
+                data_dir: &cli.data_dir,
+                bind: args.bind,
+                app_dir: args.app_dir.as_deref(),
+                checklist: args.checklist.as_deref(),
+            };
+            commands::config::check(&start, &args.settings, &settings)
+        }
         Command::Serve(args) => serve(&cli.data_dir, args, false),
         Command::Demo(args) => serve(&cli.data_dir, args, true),
         Command::Export(args) => commands::export::run(&cli.data_dir, args),
@@ -128,19 +177,28 @@ pub fn run(cli: Cli) -> anyhow::Result<()> {
 }
 
 fn serve(data_dir: &std::path::Path, args: ServeArgs, with_demo: bool) -> anyhow::Result<()> {
-    let app_dir = args.app_dir.join("index.html").exists().then(|| args.app_dir.clone());
-    if app_dir.is_none() {
-        eprintln!("note: no built app at {} (run `cargo xtask build`); serving the API only", args.app_dir.display());
+    commands::config::check_app(args.app_dir.as_deref())?;
+    if args.app_dir.is_none() && !crate::handlers::app_files::is_built() {
+        eprintln!(
+            "note: this binary was built before the app (run `cargo xtask build`, then build the server again); serving the API and a page that says so"
+        );
     }
     let checklist = crate::taxa::load_checklist(args.checklist.as_deref())?;
-    let mut state = AppState::open_with(data_dir, app_dir, checklist, args.settings)?;
+    let mut state = AppState::open_with(data_dir, args.app_dir, checklist, args.settings)?;
     let runtime = tokio::runtime::Runtime::new().context("starting the async runtime")?;
     runtime.block_on(async move {
         if with_demo {
             let loaded = demo::load_if_empty(&state).await?;
             println!("demo: {loaded} demo records loaded into {}", data_dir.display());
-            for (username, password, role) in demo::ensure_demo_people(&state).await? {
-                println!("demo sign-in ({role}): username {username}, password {password}");
+            for person in demo::ensure_demo_people(&state).await? {
+                let (username, role) = (person.username, person.role);
+                match person.new_password {
+                    Some(password) => println!("demo sign-in ({role}): username {username}, password {password}"),
+                    None => println!(
+                        "demo sign-in ({role}): username {username}, with the password printed when it was made \
+                         (start on a new --data-dir for new ones)"
+                    ),
+                }
             }
         }
         let listener =

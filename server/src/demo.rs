@@ -64,29 +64,46 @@ fn photo_bytes(name: &str) -> anyhow::Result<&'static [u8]> {
         .ok_or_else(|| anyhow::anyhow!("demo photo {name} is not built in"))
 }
 
-/// The demo's sign-ins: (username, password, role). Made only by `wrackline demo`,
-/// never by `serve`; the passwords are printed for whoever tries the demo.
-pub const DEMO_PEOPLE: &[(&str, &str, shared_types::Role)] = &[
-    ("demo-reviewer", "demo-reviewer-pass", shared_types::Role::Reviewer),
-    ("demo-admin", "demo-admin-pass", shared_types::Role::Admin),
-];
+/// The demo's sign-ins: (username, role). Made only by `wrackline demo`, never by
+/// `serve`, each with a password drawn at random when it is made.
+pub const DEMO_PEOPLE: &[(&str, shared_types::Role)] =
+    &[("demo-reviewer", shared_types::Role::Reviewer), ("demo-admin", shared_types::Role::Admin)];
 
-/// Adds the demo sign-ins unless they exist; returns them for printing.
-pub async fn ensure_demo_people(state: &AppState) -> anyhow::Result<Vec<(&'static str, &'static str, &'static str)>> {
-    for (username, password, role) in DEMO_PEOPLE {
-        match crate::people::add_staff(
+/// A demo sign-in as made now, or found made before.
+pub struct DemoSignIn {
+    pub username: &'static str,
+    pub role: &'static str,
+    /// The password, only when the sign-in was made now: it is stored as an argon2 hash
+    /// alone, so this is the one time it can be shown.
+    pub new_password: Option<String>,
+}
+
+/// Adds the demo sign-ins that do not exist yet, each with a new random password.
+pub async fn ensure_demo_people(state: &AppState) -> anyhow::Result<Vec<DemoSignIn>> {
+    let mut people = Vec::new();
+    for (username, role) in DEMO_PEOPLE {
+        let password = random_password();
+        let made = crate::people::add_staff(
             &state.store,
             None,
             username,
             *role,
             format!("Demo {}", role.code()),
-            (*password).to_owned(),
+            password.clone(),
         )
-        .await
-        {
-            Ok(_) | Err(crate::people::PeopleError::Taken(_)) => {}
+        .await;
+        let new_password = match made {
+            Ok(_) => Some(password),
+            Err(crate::people::PeopleError::Taken(_)) => None,
             Err(err) => anyhow::bail!("adding the demo sign-in {username}: {err}"),
-        }
+        };
+        people.push(DemoSignIn { username, role: role.code(), new_password });
     }
-    Ok(DEMO_PEOPLE.iter().map(|(u, p, r)| (*u, *p, r.code())).collect())
+    Ok(people)
+}
+
+/// A version 4 UUID from the system's random source (122 random bits) as 32 hex
+/// digits: nothing to guess, easy to paste.
+fn random_password() -> String {
+    uuid::Uuid::new_v4().simple().to_string()
 }

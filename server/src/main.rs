@@ -1,7 +1,5 @@
 //! The `wrackline` binary: parses the command line and hands over to the library.
 
-use clap::Parser as _;
-
 fn main() -> anyhow::Result<()> {
     tracing_subscriber::fmt()
         .with_env_filter(
@@ -10,5 +8,6 @@ fn main() -> anyhow::Result<()> {
         )
         .with_writer(std::io::stderr)
         .init();
-    wrackline_server::cli::run(wrackline_server::cli::Cli::parse())
+    let invocation = wrackline_server::cli::parse(std::env::args_os().collect()).unwrap_or_else(|err| err.exit());
+    wrackline_server::cli::run(invocation)
 }

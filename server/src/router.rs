@@ -15,8 +15,8 @@ use tower_http::timeout::{RequestBodyDeadlineLayer, RequestBodyTimeoutLayer};
 
 use crate::error::ApiError;
 use crate::handlers::{
-    assess, checklist, export, fieldwork, guard, health, mine, observations, people, photos, review, session, site,
-    walks,
+    assess, checklist, dataset, export, fieldwork, guard, health, mine, observations, people, photos, review, session,
+    site, walks,
 };
 use crate::intake::photos::{MAX_PHOTO_BYTES, MAX_PHOTOS_PER_RECORD};
 use crate::state::AppState;
@@ -125,6 +125,8 @@ pub const ROUTES: &[RouteSpec] = &[
     route(Get, "/api/walks", Reviewer, |m| on(m, walks::list)),
     route(Get, "/api/effort", Public, |m| on(m, walks::effort)),
     route(Get, "/api/export", Public, |m| on(m, export::export)),
+    route(Get, "/dataset/archive.zip", Public, |m| on(m, dataset::archive)),
+    route(Get, "/dataset/eml.xml", Public, |m| on(m, dataset::eml)),
     route(Get, "/api/checklist", Public, |m| on(m, checklist::get)),
     route(Get, "/api/checklist/nearby", Public, |m| on(m, checklist::nearby)),
     route(Get, "/api/site", Public, |m| on(m, site::get)),
@@ -170,8 +172,9 @@ pub const ROUTES: &[RouteSpec] = &[
 ];
 
 /// The whole HTTP surface: [`ROUTES`], then unknown `/api/` paths as a JSON 404 and any
-/// other unknown path as the app's `index.html` (status 200), so the app's own links
-/// work on reload. Every body is limited in size (by route, [`JSON_LIMIT`] unless the
+/// other path as the app's files: those built into the binary
+/// ([`crate::handlers::app_files`]), or the folder `--app-dir` names; an unknown path
+/// gets the app's `index.html` (status 200), so the app's own links work on reload. Every body is limited in size (by route, [`JSON_LIMIT`] unless the
 /// route says more), may pause at most `settings.body_idle_timeout_s` between pieces
 /// and must arrive whole within `settings.body_deadline_s`.
 pub fn app(state: AppState) -> Router {
@@ -184,7 +187,7 @@ pub fn app(state: AppState) -> Router {
     let api = api.route("/api/{*rest}", any(api_not_found));
     let router = match &state.app_dir {
         Some(dir) => api.fallback_service(app_files(dir)),
-        None => api,
+        None => api.fallback_service(axum::routing::get(crate::handlers::app_files::embedded)),
     };
     router
         .layer(axum::middleware::from_fn_with_state(state.clone(), guard::same_origin_only))
@@ -196,7 +199,7 @@ pub fn app(state: AppState) -> Router {
         .layer(tower_http::trace::TraceLayer::new_for_http())
 }
 
-/// Static files of the built app. `no-cache` makes the browser revalidate, so a new
+/// Static files of the built app from a folder (`--app-dir`, for development). `no-cache` makes the browser revalidate, so a new
 /// service worker (and with it a new app version) is seen on the next visit. The build
 /// writes a brotli (`.br`) and a gzip (`.gz`) copy beside each text and wasm file; a
 /// browser that accepts one gets it (brotli first), with `Content-Encoding` and

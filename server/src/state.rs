@@ -13,7 +13,8 @@ use std::path::PathBuf;
 pub struct AppState {
     pub store: store::Store,
     pub photos: intake::photos::PhotoFiles,
-    /// Where the built app (index.html, wasm, service worker) lives, if it is served.
+    /// A folder with a built app (index.html, wasm, service worker) to serve instead of
+    /// the one built into the binary (`--app-dir`, for development).
     pub app_dir: Option<PathBuf>,
     /// The species checklist the key, the flags, review and the exports use, indexed by
     /// every scientific and common name.
@@ -38,6 +39,8 @@ pub struct AppState {
     pub settings: Settings,
     /// Wakes the responders' notification task when a notification is made.
     pub notify_wake: std::sync::Arc<tokio::sync::Notify>,
+    /// The published dataset, kept until the next write (`export::published`).
+    pub published: crate::export::published::PublishedCache,
 }
 
 impl AppState {
@@ -112,6 +115,7 @@ impl AppState {
             }),
             settings,
             notify_wake: std::sync::Arc::default(),
+            published: crate::export::published::PublishedCache::default(),
         })
     }
 }

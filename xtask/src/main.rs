@@ -55,11 +55,12 @@ pub fn root() -> PathBuf {
 
 fn demo(args: &[String]) -> Result<()> {
     prerequisites::wasm_target()?;
-    let dist = app::build(app::Profile::Release)?;
+    // The app first: the server's build embeds it.
+    app::build(app::Profile::Release)?;
     run::cargo(&["build", "--release", "-p", "wrackline-server"])?;
     let binary = root().join("target/release/wrackline");
     let mut command = std::process::Command::new(binary);
-    command.arg("demo").arg("--app-dir").arg(&dist).args(args);
+    command.arg("demo").args(args);
     run::exec(command)
 }
 

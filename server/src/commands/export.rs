@@ -63,6 +63,9 @@ pub struct ExportArgs {
     /// The species checklist (default: the bundled demo checklist).
     #[arg(long)]
     pub checklist: Option<PathBuf>,
+    /// What the archive's metadata says of the dataset (the same settings as `serve`'s).
+    #[command(flatten)]
+    pub dataset: crate::settings::Dataset,
 }
 
 pub fn run(data_dir: &Path, args: ExportArgs) -> anyhow::Result<()> {
@@ -92,6 +95,7 @@ pub fn run(data_dir: &Path, args: ExportArgs) -> anyhow::Result<()> {
         taxon,
         base_url: args.public_url.origin().to_owned(),
         licence: args.licence,
+        dataset: args.dataset.clone(),
     };
     let out: Box<dyn Write> = match &args.out {
         Some(path) => {

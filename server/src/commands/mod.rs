@@ -4,6 +4,7 @@
 //! calls the library.
 
 pub mod backup;
+pub mod config;
 pub mod export;
 pub mod import;
 pub mod range;

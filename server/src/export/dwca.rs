@@ -150,7 +150,7 @@ fn finish<W: Write>(
     zip.start_file("eml.xml", zip_options())?;
     zip.write_all(eml_xml(summary, request, &package).as_bytes())?;
     zip.finish()?.flush()?;
-    Ok(summary.clone())
+    Ok(ExportSummary { package_id: Some(package), ..summary.clone() })
 }
 
 /// The EML packageId: `<dataset UUID>/<version>` (see the module notes).
@@ -433,7 +433,8 @@ fn eml_xml(summary: &ExportSummary, request: &ExportRequest, package: &str) -> S
         })
         .collect();
     let licence = request.licence;
-    let organisation = "wrackline recording network";
+    let dataset = &request.dataset;
+    let organisation = escape(dataset.publisher());
     format!(
         "<?xml version=\"1.0\" encoding=\"UTF-8\"?>\n\
 <eml:eml xmlns:eml=\"eml://ecoinformatics.org/eml-2.1.1\" xmlns:dc=\"http://purl.org/dc/terms/\" \
@@ -442,21 +443,77 @@ xsi:schemaLocation=\"eml://ecoinformatics.org/eml-2.1.1 http://rs.gbif.org/schem
 packageId=\"{package}\" system=\"wrackline\" scope=\"system\" xml:lang=\"en\">\n\
   <dataset>\n\
     <alternateIdentifier>urn:uuid:{dataset}</alternateIdentifier>\n\
-    <title>wrackline records of stranded and landed elasmobranchs</title>\n\
+    <title>{title}</title>\n\
     <creator><organizationName>{organisation}</organizationName></creator>\n\
     <pubDate>{date}</pubDate>\n\
     <language>en</language>\n\
     <abstract>\n{abstract_xml}    </abstract>\n\
-    <intellectualRights>\n      <para>This work is licensed under a <ulink url=\"{url}\"><citetitle>{title}</citetitle></ulink>.</para>\n    </intellectualRights>\n\
-    <contact><organizationName>{organisation}</organizationName></contact>\n\
+    <intellectualRights>\n      <para>{rights}</para>\n    </intellectualRights>\n\
+{coverage}\
+    <contact>{contact}</contact>\n\
+    <publisher><organizationName>{organisation}</organizationName></publisher>\n\
     <methods>\n{methods}    </methods>\n\
   </dataset>\n\
 </eml:eml>\n",
         package = escape(package),
         dataset = package.split('/').next().unwrap_or_default(),
         date = Utc::now().format("%Y-%m-%d"),
-        url = licence.url(),
-        title = escape(licence.title()),
+        title = escape(dataset.title()),
+        rights = licence_sentence(licence, dataset.publisher()),
+        coverage = coverage_xml(dataset),
+        contact = contact_xml(dataset),
+    )
+}
+
+/// The archive's licence in a sentence of our own, linking the legal code (as the GBIF
+/// metadata profile expects: a `ulink` in `intellectualRights`).
+fn licence_sentence(licence: crate::settings::Licence, publisher: &str) -> String {
+    let link = format!("<ulink url=\"{}\"><citetitle>{}</citetitle></ulink>", licence.url(), escape(licence.title()));
+    let publisher = escape(publisher);
+    match licence {
+        crate::settings::Licence::Cc0 => format!(
+            "{publisher} has placed these records in the public domain ({link}): anyone may copy, change and use them \
+             for any purpose without asking."
+        ),
+        crate::settings::Licence::CcBy => format!(
+            "{publisher} shares these records under the Creative Commons licence {link}: anyone may copy, change and use them for any purpose, \
+             provided they credit {publisher} and the observers as the dataset's citation says."
+        ),
+        crate::settings::Licence::CcByNc => format!(
+            "{publisher} shares these records under the Creative Commons licence {link}: anyone may copy, change and use them, except for \
+             commercial purposes, provided they credit {publisher} and the observers as the dataset's citation says."
+        ),
+    }
+}
+
+/// The contact: the person named, or else the publisher, with the email address when set.
+fn contact_xml(dataset: &crate::settings::Dataset) -> String {
+    let mut xml = match &dataset.contact_name {
+        Some(name) => format!("<individualName><surName>{}</surName></individualName>", escape(name)),
+        None => String::new(),
+    };
+    xml.push_str(&format!("<organizationName>{}</organizationName>", escape(dataset.publisher())));
+    if let Some(email) = &dataset.contact_email {
+        xml.push_str(&format!("<electronicMailAddress>{}</electronicMailAddress>", escape(email)));
+    }
+    xml
+}
+
+/// `coverage` with the area the records come from, when its bounds are set (EML needs
+/// both a description and bounding coordinates in a geographic coverage).
+fn coverage_xml(dataset: &crate::settings::Dataset) -> String {
+    let Some(bounds) = dataset.bounds else { return String::new() };
+    let description = dataset.coverage.as_deref().unwrap_or("The area the recording network covers.");
+    format!(
+        "    <coverage><geographicCoverage><geographicDescription>{}</geographicDescription><boundingCoordinates>\
+<westBoundingCoordinate>{}</westBoundingCoordinate><eastBoundingCoordinate>{}</eastBoundingCoordinate>\
+<northBoundingCoordinate>{}</northBoundingCoordinate><southBoundingCoordinate>{}</southBoundingCoordinate>\
+</boundingCoordinates></geographicCoverage></coverage>\n",
+        escape(description),
+        bounds.west,
+        bounds.east,
+        bounds.north,
+        bounds.south
     )
 }
 

@@ -3,8 +3,10 @@
 //! A feature whose location is withheld has a null geometry (RFC 7946 §3.2). The export's
 //! notes (what was generalised, names not on the checklist) follow the features as a
 //! foreign member `notes` (RFC 7946 §6.1). Records are points, so there are no polygons
-//! and no winding order to keep. Property values are made safe for spreadsheets as in
-//! every format ([`super::cells`]), so a value reads the same whichever file it came from.
+//! and no winding order to keep. The terms that hold numbers ([`NUMBER_TERMS`]) are JSON
+//! numbers, so GIS tools read them as numbers; other property values are text, made safe
+//! for spreadsheets as in every format ([`super::cells`]), so a value reads the same
+//! whichever file it came from.
 
 use std::io::Write;
 
@@ -41,11 +43,31 @@ pub fn write<W: Write>(
     Ok(summary)
 }
 
+/// The Darwin Core terms whose values are numbers.
+pub const NUMBER_TERMS: &[&str] =
+    &["decimalLatitude", "decimalLongitude", "coordinateUncertaintyInMeters", "individualCount"];
+
+/// A property's JSON value: a number for [`NUMBER_TERMS`] (text if it does not read as
+/// one, which the exports never write), else spreadsheet-safe text.
+fn property(term: &str, value: &str) -> Value {
+    if NUMBER_TERMS.contains(&term) {
+        let number = value
+            .parse::<i64>()
+            .map(serde_json::Number::from)
+            .ok()
+            .or_else(|| value.parse::<f64>().ok().and_then(serde_json::Number::from_f64));
+        if let Some(number) = number {
+            return Value::Number(number);
+        }
+    }
+    Value::String(spreadsheet_safe(value).into_owned())
+}
+
 fn write_feature(out: &mut impl Write, o: &Occurrence) -> Result<(), ExportError> {
     let mut properties = Map::new();
     for (term, value) in OCCURRENCE_TERMS.iter().zip(&o.dwc) {
         if !value.is_empty() {
-            properties.insert((*term).to_owned(), Value::String(spreadsheet_safe(value).into_owned()));
+            properties.insert((*term).to_owned(), property(term, value));
         }
     }
     write!(out, "{{\"type\":\"Feature\",\"id\":")?;

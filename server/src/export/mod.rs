@@ -20,6 +20,7 @@ pub mod filters;
 pub mod geojson;
 pub mod occurrence;
 pub mod samples;
+pub mod published;
 pub mod terms;
 
 use std::io::Write;
@@ -88,6 +89,8 @@ pub struct ExportRequest {
     pub base_url: String,
     /// The licence the archive's metadata states.
     pub licence: Licence,
+    /// What the archive's metadata says of the dataset: title, publisher, contact, area.
+    pub dataset: crate::settings::Dataset,
 }
 
 /// Why an export stopped.

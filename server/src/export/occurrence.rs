@@ -77,6 +77,8 @@ pub struct ExportSummary {
     pub events: u64,
     /// Absences written for target groups not found on all-finds walks.
     pub absences: u64,
+    /// The archive's EML `packageId` (archives only).
+    pub package_id: Option<String>,
 }
 
 /// How many distinct unmatched names a summary keeps, so memory stays flat.

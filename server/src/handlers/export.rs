@@ -58,6 +58,7 @@ pub async fn export(
     let audience = if query.audience.as_deref() == Some("full") { Audience::Full } else { Audience::Public };
     let mut request = read_request(&query, audience, base_url, &state.taxa)?;
     request.licence = state.settings.licence;
+    request.dataset = state.settings.dataset.clone();
     if audience == Audience::Full {
         let staff = caller
             .person
@@ -131,7 +132,17 @@ fn read_request(
     let bbox = query.bbox.as_deref().map(parse_bbox).transpose().map_err(|m| bad(format!("bbox: {m}")))?;
     let states: Vec<String> = query.state.as_deref().unwrap_or(DEFAULT_STATE).split(',').map(str::to_owned).collect();
     let states = parse_states(&states).map_err(bad)?;
-    Ok(ExportRequest { format, audience, states, days, bbox, taxon, base_url, licence: export::Licence::default() })
+    Ok(ExportRequest {
+        format,
+        audience,
+        states,
+        days,
+        bbox,
+        taxon,
+        base_url,
+        licence: export::Licence::default(),
+        dataset: crate::settings::Dataset::NONE,
+    })
 }
 
 const CHUNK: usize = 64 * 1024;

@@ -3,9 +3,11 @@
 //! accepts and times out the connections they are served on.
 
 pub mod access;
+pub mod app_files;
 pub mod assess;
 pub mod checklist;
 pub mod connections;
+pub mod dataset;
 pub mod export;
 pub mod fieldwork;
 pub mod guard;

@@ -31,6 +31,7 @@ pub mod walks;
 mod writer;
 
 use std::path::{Path, PathBuf};
+use std::sync::atomic::{AtomicU64, Ordering};
 use std::sync::{Arc, Mutex, mpsc};
 
 use rusqlite::{Connection, OpenFlags};
@@ -79,6 +80,9 @@ pub struct Store {
     lookers: Arc<Mutex<Vec<Connection>>>,
     /// Turns for short reads.
     looking: Arc<tokio::sync::Semaphore>,
+    /// Jobs the writer has finished since the store opened, counted after each one's
+    /// commit (see [`Store::changes`]).
+    changes: Arc<AtomicU64>,
 }
 
 impl Store {
@@ -103,7 +107,16 @@ impl Store {
             reading: Arc::new(tokio::sync::Semaphore::new(MAX_READERS)),
             lookers: Arc::new(Mutex::new(Vec::new())),
             looking: Arc::new(tokio::sync::Semaphore::new(MAX_LOOKS)),
+            changes: Arc::new(AtomicU64::new(0)),
         })
+    }
+
+    /// How many writes have finished since the store opened. Each is counted after its
+    /// commit, so a reader that notes this number before it reads sees every write up to
+    /// it: an unchanged number means nothing was written since (a cache of something
+    /// read may be kept while it stays the same).
+    pub fn changes(&self) -> u64 {
+        self.changes.load(Ordering::SeqCst)
     }
 
     /// Where the database file is.
@@ -140,8 +153,11 @@ impl Store {
         F: FnOnce(&mut Connection) -> Result<T, StoreError> + Send + 'static,
     {
         let (reply, answer) = tokio::sync::oneshot::channel();
+        let changes = self.changes.clone();
         self.send(writer::Job::Alone(Box::new(move |conn| {
-            let _ = reply.send(guarded(conn, work));
+            let result = guarded(conn, work);
+            changes.fetch_add(1, Ordering::SeqCst);
+            let _ = reply.send(result);
         })))?;
         answer.await.map_err(|_| StoreError::TaskGone)?
     }
@@ -155,10 +171,13 @@ impl Store {
         F: FnOnce(&mut Connection) -> Result<T, StoreError> + Send + 'static,
     {
         let (reply, answer) = tokio::sync::oneshot::channel();
+        let changes = self.changes.clone();
         let job = writer::Typed {
             work: Some(work),
             result: None,
+            // Called once the group's commit is over.
             reply: Box::new(move |result| {
+                changes.fetch_add(1, Ordering::SeqCst);
                 let _ = reply.send(result);
             }),
         };
@@ -179,8 +198,11 @@ impl Store {
         F: FnOnce(&mut Connection) -> Result<T, StoreError> + Send + 'static,
     {
         let (reply, answer) = mpsc::channel();
+        let changes = self.changes.clone();
         self.send(writer::Job::Alone(Box::new(move |conn| {
-            let _ = reply.send(guarded(conn, work));
+            let result = guarded(conn, work);
+            changes.fetch_add(1, Ordering::SeqCst);
+            let _ = reply.send(result);
         })))?;
         answer.recv().map_err(|_| StoreError::TaskGone)?
     }

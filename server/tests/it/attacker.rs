@@ -263,7 +263,17 @@ fn comparable(path: &str, body: &[u8]) -> Value {
     if path.contains("format=csv") || path.contains("format=samples") {
         return Value::Array(table(std::str::from_utf8(body).unwrap(), b','));
     }
-    if path.contains("format=dwca") {
+    if path.ends_with("eml.xml") {
+        let text = String::from_utf8_lossy(body);
+        return Value::String(
+            text.lines()
+                .filter(|l| {
+                    !l.contains("packageId=") && !l.contains("<pubDate>") && !l.contains("<alternateIdentifier>")
+                })
+                .collect(),
+        );
+    }
+    if path.contains("format=dwca") || path.ends_with(".zip") {
         let mut archive = zip::ZipArchive::new(std::io::Cursor::new(body)).unwrap();
         let mut files = BTreeMap::new();
         for i in 0..archive.len() {
@@ -418,6 +428,10 @@ async fn probe_everything(real: &TestApp, twin: &TestApp) {
     }
     ask_both(real, twin, "/api/range?state=any").await;
     ask_both(real, twin, "/api/effort?by=month").await;
+    // The published dataset a harvester polls.
+    ask_both(real, twin, "/dataset/archive.zip").await;
+    ask_both(real, twin, "/dataset/eml.xml").await;
+
     // The key's nearby counts, probed on a grid around where the angelshark was.
     for i in -3..=3 {
         for j in -3..=3 {

@@ -46,7 +46,7 @@ fn demo_walks_load_and_effort_sums_them() {
     let mut demo = Command::new(env!("CARGO_BIN_EXE_wrackline"))
         .arg("--data-dir")
         .arg(dir.path())
-        .args(["demo", "--bind", "127.0.0.1:0", "--app-dir", "/nonexistent"])
+        .args(["demo", "--bind", "127.0.0.1:0"])
         .stdout(std::process::Stdio::piped())
         .spawn()
         .unwrap();

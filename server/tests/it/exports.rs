@@ -224,6 +224,18 @@ async fn geojson_reads_back_as_points_in_longitude_latitude_order() {
     assert_eq!(catshark["valid"], true);
     assert!((catshark["x"].as_f64().unwrap() + 4.0829).abs() < 1e-9);
     assert!((catshark["y"].as_f64().unwrap() - 52.4153).abs() < 1e-9);
+    // Numbers are JSON numbers (RFC 8259 §6), so Python's json reads them as int and
+    // float, as a GIS tool reads them as numbers, and they equal the geometry's.
+    let types = &catshark["property_types"];
+    assert_eq!(types["decimalLatitude"], "float");
+    assert_eq!(types["decimalLongitude"], "float");
+    assert_eq!(types["coordinateUncertaintyInMeters"], "int");
+    assert_eq!(types["individualCount"], "int");
+    assert_eq!(types["scientificName"], "str");
+    let properties = &catshark["properties"];
+    assert_eq!(properties["decimalLatitude"].as_f64(), catshark["y"].as_f64());
+    assert_eq!(properties["decimalLongitude"].as_f64(), catshark["x"].as_f64());
+    assert_eq!(properties["coordinateUncertaintyInMeters"], 8);
     let angel = features.iter().find(|f| f["id"] == format!("urn:uuid:{ANGELSHARK}")).unwrap();
     assert_eq!((angel["x"].as_f64().unwrap(), angel["y"].as_f64().unwrap()), (-4.1, 52.3));
     // Awaiting review: generalised whatever it is (it may be any species on the checklist).

@@ -27,13 +27,17 @@ pub fn binary() -> &'static str {
 /// Starts `wrackline serve` on `data_dir`, listening on `bind` (port 0 for any), with
 /// `flags` added, and waits until it says where it listens.
 pub fn start(data_dir: &Path, bind: &str, flags: &[&str]) -> Server {
+    let mut command = Command::new(binary());
+    command.arg("--data-dir").arg(data_dir).args(["serve", "--bind", bind]).args(flags);
+    start_command(command).0
+}
+
+/// Starts `command` (a `wrackline` that serves), waits until it says where it listens,
+/// and returns it with the lines it printed before that.
+pub fn start_command(mut command: Command) -> (Server, Vec<String>) {
     // Not beside the data folder: that may be a disk a test fills.
     let log = std::env::temp_dir().join(format!("wrackline-test-{}.log", uuid::Uuid::new_v4().simple()));
-    let mut child = Command::new(binary())
-        .arg("--data-dir")
-        .arg(data_dir)
-        .args(["serve", "--bind", bind, "--app-dir", "/nonexistent"])
-        .args(flags)
+    let mut child = command
         .env("RUST_LOG", "wrackline_server=info")
         .stdout(Stdio::piped())
         .stderr(std::fs::File::create(&log).expect("a log file"))
@@ -42,20 +46,24 @@ pub fn start(data_dir: &Path, bind: &str, flags: &[&str]) -> Server {
     let stdout = child.stdout.take().expect("its standard output");
     let (found, listening) = mpsc::channel();
     std::thread::spawn(move || {
+        let mut before = Vec::new();
         for line in BufReader::new(stdout).lines().map_while(Result::ok) {
-            if let Some(base) = line.strip_prefix("wrackline listening on ") {
-                let _ = found.send(base.to_owned());
+            match line.strip_prefix("wrackline listening on ") {
+                Some(base) => {
+                    let _ = found.send((base.to_owned(), std::mem::take(&mut before)));
+                }
+                None => before.push(line),
             }
         }
     });
-    let base = match listening.recv_timeout(START_WITHIN) {
-        Ok(base) => base,
+    let (base, printed) = match listening.recv_timeout(START_WITHIN) {
+        Ok(found) => found,
         Err(_) => {
             let _ = child.kill();
             panic!("the server did not start within {START_WITHIN:?}; its log:\n{}", read_log(&log));
         }
     };
-    Server { child, base, log }
+    (Server { child, base, log }, printed)
 }
 
 impl Server {

@@ -1,6 +1,7 @@
 """Reads a GeoJSON file with Python's json module and shapely.geometry.shape (PyPI), and
 prints each feature's geometry type, x (longitude) and y (latitude) as shapely sees them,
-for wrackline's export tests.
+and the Python type json gave each property (int, float, str), for wrackline's export
+tests.
 
 Usage: python read_geojson.py FILE.geojson
 """
@@ -28,6 +29,7 @@ def main(path):
             "x": point.x,
             "y": point.y,
             "properties": feature["properties"],
+            "property_types": {name: type(value).__name__ for name, value in feature["properties"].items()},
         })
     print(json.dumps({"type": collection["type"], "notes": collection.get("notes"), "features": features}))
 

@@ -1,6 +1,10 @@
 //! The operator's settings for a running server, in one place: each with its flag, its
 //! environment variable and its default, documented where it is declared. Handlers reach
-//! them as `state.settings`; stages receive the values they need as arguments.
+//! them as `state.settings`; stages receive the values they need as arguments. The
+//! configuration file ([`file`]) sets the same settings by key; flags and environment
+//! variables override it, and it overrides the defaults.
+
+pub mod file;
 
 use std::net::IpAddr;
 
@@ -72,6 +76,8 @@ pub struct Settings {
     pub max_connections: usize,
     #[command(flatten)]
     pub responders: Responders,
+    #[command(flatten)]
+    pub dataset: Dataset,
 }
 
 impl Settings {
@@ -93,6 +99,7 @@ impl Settings {
         body_deadline_s: 900,
         max_connections: 512,
         responders: Responders::NONE,
+        dataset: Dataset::NONE,
     };
 
     /// The free space the server keeps on the data disk, in bytes.
@@ -143,6 +150,106 @@ pub struct Responders {
     pub first_retry_ms: u64,
 }
 
+/// What the published archive's metadata (EML) says about the dataset and who holds it.
+/// Each is optional; the archive says what is set and falls back to the words noted.
+#[derive(Debug, Clone, Default, clap::Args)]
+pub struct Dataset {
+    /// The dataset's title (default "wrackline records of stranded and landed elasmobranchs").
+    #[arg(long = "dataset-title", env = "WRACKLINE_DATASET_TITLE", value_parser = dataset_text)]
+    pub title: Option<String>,
+    /// Who publishes it: the network's or organisation's name (default "wrackline recording network").
+    #[arg(long = "dataset-publisher", env = "WRACKLINE_DATASET_PUBLISHER", value_parser = dataset_text)]
+    pub publisher: Option<String>,
+    /// The person to contact about the data (default: none, the publisher is the contact).
+    #[arg(long = "dataset-contact-name", env = "WRACKLINE_DATASET_CONTACT_NAME", value_parser = dataset_text)]
+    pub contact_name: Option<String>,
+    /// The contact's email address (default none).
+    #[arg(long = "dataset-contact-email", env = "WRACKLINE_DATASET_CONTACT_EMAIL", value_parser = email_address)]
+    pub contact_email: Option<String>,
+    /// The area the records come from, in words, e.g. "Coasts of Cardigan Bay, Wales"
+    /// (default none).
+    #[arg(long = "dataset-coverage", env = "WRACKLINE_DATASET_COVERAGE", value_parser = dataset_text)]
+    pub coverage: Option<String>,
+    /// The area's bounds in decimal degrees, SOUTH,WEST,NORTH,EAST (default none; the
+    /// archive states a geographic coverage only when they are set).
+    #[arg(long = "dataset-bounds", env = "WRACKLINE_DATASET_BOUNDS", value_parser = Bounds::parse, allow_hyphen_values = true)]
+    pub bounds: Option<Bounds>,
+}
+
+impl Dataset {
+    /// Nothing set: the default.
+    pub const NONE: Dataset =
+        Dataset { title: None, publisher: None, contact_name: None, contact_email: None, coverage: None, bounds: None };
+
+    /// The title the archive states.
+    pub fn title(&self) -> &str {
+        self.title.as_deref().unwrap_or("wrackline records of stranded and landed elasmobranchs")
+    }
+
+    /// The publisher the archive names as creator and publisher.
+    pub fn publisher(&self) -> &str {
+        self.publisher.as_deref().unwrap_or("wrackline recording network")
+    }
+}
+
+/// The longest text a dataset setting may hold.
+pub const DATASET_TEXT_MAX_CHARS: usize = 500;
+
+fn dataset_text(text: &str) -> Result<String, String> {
+    let text = text.trim();
+    if text.is_empty() {
+        return Err("the text is empty; leave the setting out instead".into());
+    }
+    if text.chars().count() > DATASET_TEXT_MAX_CHARS {
+        return Err(format!("the text is longer than {DATASET_TEXT_MAX_CHARS} characters"));
+    }
+    Ok(text.to_owned())
+}
+
+fn email_address(text: &str) -> Result<String, String> {
+    let text = dataset_text(text)?;
+    match text.split_once('@') {
+        Some((local, domain)) if !local.is_empty() && domain.contains('.') && !text.contains(char::is_whitespace) => {
+            Ok(text)
+        }
+        _ => Err(format!("`{text}` is not an email address (e.g. records@example.org)")),
+    }
+}
+
+/// A box on the globe: south and north latitudes, west and east longitudes, in degrees.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Bounds {
+    pub south: f64,
+    pub west: f64,
+    pub north: f64,
+    pub east: f64,
+}
+
+impl Bounds {
+    /// Reads `SOUTH,WEST,NORTH,EAST` (latitudes within ±90 with south ≤ north,
+    /// longitudes within ±180; west greater than east crosses the antimeridian).
+    pub fn parse(text: &str) -> Result<Self, String> {
+        let numbers: Vec<f64> =
+            text.split(',').map(|part| part.trim().parse::<f64>()).collect::<Result<_, _>>().map_err(|_| {
+                format!(
+                    "`{text}` is not four numbers SOUTH,WEST,NORTH,EAST in decimal degrees (e.g. 51.5,-5.5,53.0,-3.8)"
+                )
+            })?;
+        let [south, west, north, east] = numbers[..] else {
+            return Err(format!("`{text}` must be four numbers: SOUTH,WEST,NORTH,EAST"));
+        };
+        let latitude = |v: f64| v.is_finite() && (-90.0..=90.0).contains(&v);
+        let longitude = |v: f64| v.is_finite() && (-180.0..=180.0).contains(&v);
+        if !(latitude(south) && latitude(north) && longitude(west) && longitude(east)) {
+            return Err(format!("`{text}`: latitudes must lie within ±90 and longitudes within ±180"));
+        }
+        if south > north {
+            return Err(format!("`{text}`: the south bound is north of the north bound"));
+        }
+        Ok(Self { south, west, north, east })
+    }
+}
+
 /// How the SMTP connection is protected.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Default, clap::ValueEnum)]
 pub enum SmtpSecurity {
@@ -181,10 +288,17 @@ impl Responders {
     /// What is missing for the channels set up, in words; `None` when they are complete.
     pub fn problem(&self) -> Option<String> {
         if self.webhook.is_some() && self.webhook_secret.as_deref().is_none_or(str::is_empty) {
-            return Some("--responders-webhook needs --responders-webhook-secret to sign its messages".into());
+            return Some(
+                "responders.webhook (--responders-webhook) needs responders.webhook_secret \
+                 (--responders-webhook-secret) to sign its messages"
+                    .into(),
+            );
         }
         if !self.email_to.is_empty() && self.smtp_server.is_none() {
-            return Some("--responders-email needs --smtp-server HOST:PORT to send through".into());
+            return Some(
+                "responders.email (--responders-email) needs responders.smtp_server (--smtp-server HOST:PORT) to send through"
+                    .into(),
+            );
         }
         None
     }
@@ -284,12 +398,12 @@ impl Licence {
         }
     }
 
-    /// Its name in words.
+    /// Its name as Creative Commons gives it on the legal code.
     pub fn title(self) -> &'static str {
         match self {
-            Self::Cc0 => "Public Domain (CC0 1.0)",
-            Self::CcBy => "Creative Commons Attribution (CC-BY) 4.0 License",
-            Self::CcByNc => "Creative Commons Attribution Non Commercial (CC-BY-NC) 4.0 License",
+            Self::Cc0 => "CC0 1.0 Universal",
+            Self::CcBy => "Attribution 4.0 International (CC BY 4.0)",
+            Self::CcByNc => "Attribution-NonCommercial 4.0 International (CC BY-NC 4.0)",
         }
     }
 }
