@@ -41,3 +41,4 @@ pub mod sync;
 pub mod time;
 pub mod walk_track;
 pub mod walks;
+pub mod words;
