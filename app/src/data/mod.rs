@@ -28,6 +28,7 @@ pub mod figures;
 pub mod form_fields;
 pub mod identity;
 pub mod key;
+pub mod labels;
 pub mod local;
 pub mod my_records;
 pub mod nearby;

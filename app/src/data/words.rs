@@ -32,6 +32,10 @@ thread_local! {
 /// The language in use: the one chosen on this device, else the browser's first that the
 /// app speaks, else English.
 pub fn language() -> &'static str {
+    if !cfg!(target_arch = "wasm32") {
+        // Native unit tests have no browser to ask; they read the English words.
+        return "en";
+    }
     let kept = local::get(CHOSEN_KEY);
     let wanted = kept.into_iter().chain(browser_languages());
     pick_language(wanted)
@@ -79,8 +83,7 @@ fn catalogue_for(code: &str) -> FluentBundle<FluentResource> {
     // Bidirectional isolation marks would end up in every text field and test; the
     // languages here are all written left to right.
     bundle.set_use_isolating(false);
-    let resource = FluentResource::try_new((*source).to_owned())
-        .unwrap_or_else(|(resource, _)| resource);
+    let resource = FluentResource::try_new((*source).to_owned()).unwrap_or_else(|(resource, _)| resource);
     bundle.add_resource_overriding(resource);
     bundle
 }
@@ -172,6 +175,17 @@ pub fn number(value: f64, decimals: u8) -> String {
     formatter.format().call1(&formatter, &value.into()).ok().and_then(|s| s.as_string()).unwrap_or_default()
 }
 
+/// A day (given as a moment, milliseconds since 1970) as the language writes a date, in
+/// the phone's time zone (ISO form outside a browser).
+pub fn date(epoch_ms: f64) -> String {
+    if !cfg!(target_arch = "wasm32") {
+        return chrono::DateTime::from_timestamp_millis(epoch_ms as i64)
+            .map(|t| t.format("%Y-%m-%d").to_string())
+            .unwrap_or_default();
+    }
+    intl_date(epoch_ms, &[("dateStyle", "medium")])
+}
+
 /// A moment (milliseconds since 1970) as the language writes a date and time, in the
 /// phone's time zone (the browser's `Intl.DateTimeFormat`; ISO form outside a browser).
 pub fn date_time(epoch_ms: f64) -> String {
@@ -180,9 +194,16 @@ pub fn date_time(epoch_ms: f64) -> String {
             .map(|t| t.format("%Y-%m-%d %H:%M").to_string())
             .unwrap_or_default();
     }
-    let options = js_sys::Object::new();
-    let _ = js_sys::Reflect::set(&options, &"dateStyle".into(), &"medium".into());
-    let _ = js_sys::Reflect::set(&options, &"timeStyle".into(), &"short".into());
+    intl_date(epoch_ms, &[("dateStyle", "medium"), ("timeStyle", "short")])
+}
+
+/// `Intl.DateTimeFormat` in the language in use, with `options` (name, value).
+fn intl_date(epoch_ms: f64, options: &[(&str, &str)]) -> String {
+    let settings = js_sys::Object::new();
+    for (name, value) in options {
+        let _ = js_sys::Reflect::set(&settings, &(*name).into(), &(*value).into());
+    }
+    let options = settings;
     let locales = js_sys::Array::of1(&language().into());
     let formatter = js_sys::Intl::DateTimeFormat::new(&locales, &options);
     let date = js_sys::Date::new(&epoch_ms.into());

@@ -6,8 +6,8 @@
 use leptos::prelude::*;
 
 use crate::data::outbox::Outbox;
-use crate::data::{device, my_records, page, site, sync, walk_track};
 use crate::data::words::{t, t_args};
+use crate::data::{device, my_records, page, site, sync, walk_track};
 use crate::screens::about_you::AboutYou;
 use crate::screens::language::LanguageSwitch;
 use crate::screens::mine::MyRecords;
