@@ -291,3 +291,11 @@ sign-in-heading = Mewngofnodi
 sign-in-username = Enw defnyddiwr
 sign-in-password = Cyfrinair
 sign-in-button = Mewngofnodi
+
+## Position fixes (phone)
+
+fix-age-seconds = ers { $n } eiliad
+fix-age-minutes = ers { $n } munud
+fix-age-hours = ers { $n } awr
+fix-age-days = ers { $n } diwrnod
+fix-within = o fewn { $metres } m, { $age }

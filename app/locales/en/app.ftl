@@ -285,3 +285,11 @@ sign-in-heading = Sign in
 sign-in-username = Username
 sign-in-password = Password
 sign-in-button = Sign in
+
+## Position fixes (phone)
+
+fix-age-seconds = { $n } s old
+fix-age-minutes = { $n } min old
+fix-age-hours = { $n } h old
+fix-age-days = { $n } days old
+fix-within = within { $metres } m, { $age }
