@@ -28,6 +28,7 @@ pub use data::key::bench_next_question;
 #[wasm_bindgen::prelude::wasm_bindgen(start)]
 pub fn start() {
     console_error_panic_hook_lite();
+    data::words::mark_page_language();
     data::page::remove_loading_message();
     #[cfg(not(feature = "desk"))]
     leptos::mount::mount_to_body(screens::phone::App);

@@ -15,6 +15,7 @@ use shared_types::{
 use uuid::Uuid;
 
 use crate::data::time::{self, Zone};
+use crate::data::words::{t, t_args};
 
 /// A control on the record form, named as the form labels it.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
@@ -58,6 +59,26 @@ impl Control {
 
     /// The control a server's field path (`ErrorBody::field`) is about; `None` for a
     /// path the form has no control for.
+    /// The control's name as the form shows it, in the person's language.
+    pub fn name(self) -> String {
+        match self {
+            Self::When => t("form-when"),
+            Self::Latitude => t("form-latitude"),
+            Self::Longitude => t("form-longitude"),
+            Self::Accuracy => t("form-accuracy"),
+            Self::Species => t("form-species-short"),
+            Self::Length => t("form-length"),
+            Self::Count => t("form-count"),
+            Self::LifeStage => t("form-life-stage"),
+            Self::Condition => t("form-condition"),
+            Self::HowFound => t("form-how-found"),
+            Self::Signs => t("form-signs-short"),
+            Self::Notes => t("form-notes"),
+            Self::Photos => t("form-photos"),
+            Self::Name => t("form-your-name"),
+        }
+    }
+
     pub fn from_server_field(path: &str) -> Option<Self> {
         let head = path.split(['.', '[']).next().unwrap_or(path);
         Some(match head {
@@ -97,7 +118,7 @@ impl Problem {
     /// "When: this is in the future…": the label, then the words.
     pub fn sentence(&self) -> String {
         match self.control {
-            Some(control) => format!("{}: {}", control.label(), self.words),
+            Some(control) => format!("{}: {}", control.name(), self.words),
             None => self.words.clone(),
         }
     }
@@ -163,7 +184,7 @@ fn optional_text(control: Control, text: &str, problems: &mut Vec<Problem>) -> O
         Ok(t) if t.as_str().is_empty() => None,
         Ok(t) => Some(t),
         Err(_) => {
-            problems.push(Problem::at(control, format!("too long: at most {} characters", Text::MAX_CHARS)));
+            problems.push(Problem::at(control, t_args("problem-too-long", &[("max", Text::MAX_CHARS.into())])));
             None
         }
     }
@@ -172,17 +193,12 @@ fn optional_text(control: Control, text: &str, problems: &mut Vec<Problem>) -> O
 /// A whole-record check of the shared rules, tied to its control.
 fn submission_problem(problem: &SubmissionProblem) -> Problem {
     match problem {
-        SubmissionProblem::InTheFuture(_) => {
-            Problem::at(Control::When, "this is in the future: give the time the animal was seen")
-        }
-        SubmissionProblem::RepeatedSign(_) => Problem::at(Control::Signs, "a sign is ticked twice"),
+        SubmissionProblem::InTheFuture(_) => Problem::at(Control::When, t("problem-future")),
+        SubmissionProblem::RepeatedSign(_) => Problem::at(Control::Signs, t("problem-sign-twice")),
         SubmissionProblem::UnknownRank(_) | SubmissionProblem::BadProbability(_) => {
-            Problem::at(Control::Species, "the key's pick could not be kept; pick again or type the name")
+            Problem::at(Control::Species, t("problem-key-pick"))
         }
-        SubmissionProblem::LengthOfEggCase => Problem::at(
-            Control::Length,
-            "an egg case has no body length: leave it empty and write the case's size in the notes",
-        ),
+        SubmissionProblem::LengthOfEggCase => Problem::at(Control::Length, t("problem-egg-case-length")),
     }
 }
 
@@ -237,7 +253,7 @@ impl FormFields {
         let mut problems = Vec::new();
         let observed_at = time::parse_input(zone, &self.when);
         if observed_at.is_none() {
-            problems.push(Problem::at(Control::When, "choose the date and time the animal was seen"));
+            problems.push(Problem::at(Control::When, t("problem-choose-when")));
         }
         let position = self.position(&mut problems);
         let length = self.length(&mut problems);
@@ -248,15 +264,15 @@ impl FormFields {
             .ok()
             .and_then(|n| Count::parse(n).ok())
             .ok_or_else(|| {
-                problems.push(Problem::at(Control::Count, format!("a whole number from 1 to {}", Count::MAX)))
+                problems.push(Problem::at(Control::Count, t_args("problem-count", &[("max", Count::MAX.into())])))
             })
             .ok();
         let condition = self.condition.or_else(|| {
-            problems.push(Problem::at(Control::Condition, "choose the state the animal was in"));
+            problems.push(Problem::at(Control::Condition, t("problem-choose-condition")));
             None
         });
         let setting = self.setting.or_else(|| {
-            problems.push(Problem::at(Control::HowFound, "choose how it came to be found"));
+            problems.push(Problem::at(Control::HowFound, t("problem-choose-how-found")));
             None
         });
         let species_guess = optional_text(Control::Species, &self.species_guess, &mut problems);
@@ -301,20 +317,20 @@ impl FormFields {
         {
             Ok(n) => Some(n),
             Err(_) => {
-                problems.push(Problem::at(control, "a number in decimal degrees, e.g. 52.4153"));
+                problems.push(Problem::at(control, t("problem-degrees")));
                 None
             }
         };
         let latitude = number(Control::Latitude, &self.latitude, problems).and_then(|n| {
-            Latitude::parse(n).map_err(|_| problems.push(Problem::at(Control::Latitude, "between -90 and 90"))).ok()
+            Latitude::parse(n).map_err(|_| problems.push(Problem::at(Control::Latitude, t("problem-latitude")))).ok()
         });
         let longitude = number(Control::Longitude, &self.longitude, problems).and_then(|n| {
-            Longitude::parse(n).map_err(|_| problems.push(Problem::at(Control::Longitude, "between -180 and 180"))).ok()
+            Longitude::parse(n).map_err(|_| problems.push(Problem::at(Control::Longitude, t("problem-longitude")))).ok()
         });
         let accuracy_m = match self.accuracy_m.trim() {
             "" => None,
             text => text.parse::<f64>().ok().and_then(|n| AccuracyM::parse(n).ok()).or_else(|| {
-                problems.push(Problem::at(Control::Accuracy, "a number of metres above 0"));
+                problems.push(Problem::at(Control::Accuracy, t("problem-accuracy")));
                 None
             }),
         };
@@ -334,7 +350,7 @@ impl FormFields {
         let unit = self.length_unit.unwrap_or(LengthUnit::Cm);
         let value = match text
             .parse::<f64>()
-            .map_err(|_| "a number".to_string())
+            .map_err(|_| t("problem-a-number"))
             .and_then(|v| LengthValue::parse(v, unit).map_err(|e| e.to_string()))
         {
             Ok(value) => value,

@@ -15,6 +15,7 @@ use shared_types::{DeviceRequest, Text};
 
 use crate::data::api::{self, ApiError};
 use crate::data::local;
+use crate::data::words::{t, t_args};
 
 const TOKEN_KEY: &str = "wrackline.device-token";
 const OBSERVER_NAME_KEY: &str = "wrackline.observer-name";
@@ -63,26 +64,22 @@ pub fn skip_profile() {
 /// What "About you" says once saved: what was kept and who sees it.
 pub fn saved_words(name: &str, contact: &str, name_public: bool) -> String {
     let named = match name.trim() {
-        "" => "Saved: your records go without a name".to_owned(),
-        name => format!("Saved: your records go as {name}"),
+        "" => t("about-saved-no-name"),
+        name => t_args("about-saved-as", &[("name", name.into())]),
     };
-    let reach = if contact.trim().is_empty() {
-        "no contact given, so reviewers cannot ask you about a find".to_owned()
-    } else {
-        "reviewers can reach you about your finds; your contact is never published".to_owned()
-    };
+    let reach = if contact.trim().is_empty() { t("about-saved-no-contact") } else { t("about-saved-contact") };
     let open_data = match (name.trim().is_empty(), name_public) {
-        (false, true) => "; open data name you",
-        (false, false) => "; open data show an anonymous label instead of your name",
-        (true, _) => "",
+        (false, true) => t("about-saved-named-in-open-data"),
+        (false, false) => t("about-saved-anonymous-in-open-data"),
+        (true, _) => String::new(),
     };
-    format!("{named}; {reach}{open_data}. It goes with the next sync.")
+    t_args("about-saved", &[("named", named.into()), ("reach", reach.into()), ("open_data", open_data.into())])
 }
 
 /// The closed card's one line: "Sam · contact given".
 pub fn summary_words(name: &str, contact: &str) -> String {
-    let name = if name.trim().is_empty() { "no name given" } else { name.trim() };
-    let contact = if contact.trim().is_empty() { "no contact" } else { "contact given" };
+    let name = if name.trim().is_empty() { t("about-no-name") } else { name.trim().to_owned() };
+    let contact = if contact.trim().is_empty() { t("about-no-contact") } else { t("about-contact-given") };
     format!("{name} · {contact}")
 }
 

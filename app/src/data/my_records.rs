@@ -9,34 +9,22 @@ use shared_types::{MyRecord, ReviewState, Role};
 use crate::data::api;
 use crate::data::local;
 use crate::data::replies::{ReplyEntry, ReplyState};
+use crate::data::words::{t, t_args};
 
 /// A record's review state as its observer reads it: a short label and what it means.
-pub fn state_words(record: &MyRecord) -> (&'static str, String) {
+pub fn state_words(record: &MyRecord) -> (String, String) {
     match record.record.review_state {
-        ReviewState::AwaitingReview => ("waiting for a reviewer", "No reviewer has looked at it yet.".to_owned()),
-        ReviewState::DetailsRequested => {
-            ("a reviewer asked you something", "Answer below; the record waits for your answer.".to_owned())
-        }
-        ReviewState::Confirmed => {
-            ("confirmed", "A reviewer agreed what it is, from the photos and details.".to_owned())
-        }
+        ReviewState::AwaitingReview => (t("mine-awaiting"), t("mine-awaiting-means")),
+        ReviewState::DetailsRequested => (t("mine-asked"), t("mine-asked-means")),
+        ReviewState::Confirmed => (t("mine-confirmed"), t("mine-confirmed-means")),
         ReviewState::NotConfirmable => (
-            "could not be confirmed",
+            t("mine-not-confirmable"),
             match &record.state_reason {
-                Some(reason) => format!(
-                    "A reviewer could not be sure what it was. Their reason: “{reason}”. The record is kept, but not \
-                     counted with the confirmed ones."
-                ),
-                None => "A reviewer could not be sure what it was from the photos and details. The record is kept, \
-                         but not counted with the confirmed ones."
-                    .to_owned(),
+                Some(reason) => t_args("mine-not-confirmable-reason", &[("reason", reason.as_str().into())]),
+                None => t("mine-not-confirmable-means"),
             },
         ),
-        ReviewState::Merged => (
-            "joined with another report",
-            "Someone else reported the same animal. The reports are kept together and the animal is counted once."
-                .to_owned(),
-        ),
+        ReviewState::Merged => (t("mine-merged"), t("mine-merged-means")),
     }
 }
 
@@ -70,7 +58,7 @@ pub fn name_shown(record: &MyRecord, common_name: impl Fn(&str) -> Option<String
             .species_guess
             .as_ref()
             .map(|g| g.as_str().to_owned())
-            .unwrap_or_else(|| "unnamed animal".into()),
+            .unwrap_or_else(|| t("record-unnamed")),
     }
 }
 

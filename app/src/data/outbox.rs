@@ -8,11 +8,12 @@ use leptos::prelude::*;
 use serde::{Deserialize, Serialize};
 use shared_types::{MyRecord, Receipt, Submission};
 
-use crate::data::device;
 use crate::data::form_fields::Problem;
 use crate::data::my_records;
 use crate::data::replies::{self, ReplyEntry};
 use crate::data::walks::{self, WalkEntry};
+use crate::data::words::{self, t, t_args};
+use crate::data::{device, labels};
 
 /// Where a record is on its way to the server.
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
@@ -39,12 +40,13 @@ pub enum SyncState {
 impl SyncState {
     pub fn label(&self) -> String {
         match self {
-            Self::Draft => "draft".into(),
-            Self::Waiting => "waiting to send".into(),
-            Self::Sent => "sent, awaiting the server".into(),
-            Self::Received { .. } => "received by the server".into(),
+            Self::Draft => t("sync-draft"),
+            Self::Waiting => t("sync-waiting"),
+            Self::Sent => t("sync-sent"),
+            Self::Received { .. } => t("sync-received"),
             Self::Refused { reason, field } => {
-                format!("not accepted by the server: {}", Problem::from_server(field.as_deref(), reason).sentence())
+                let problem = Problem::from_server(field.as_deref(), reason).sentence();
+                t_args("sync-refused", &[("problem", problem.into())])
             }
         }
     }
@@ -122,7 +124,7 @@ impl Entry {
         self.sync = state;
     }
 
-    /// "thornback ray, 62 cm total length · 2025-06-01 09:30 · 2 photo(s)".
+    /// "thornback ray, 62 cm total length · 2025-06-01 09:30 · 2 photos".
     pub fn summary(&self) -> String {
         let sub = &self.submission;
         let what = sub
@@ -130,10 +132,24 @@ impl Entry {
             .as_ref()
             .map(|g| g.as_str().to_owned())
             .filter(|g| !g.is_empty())
-            .unwrap_or_else(|| "unnamed animal".into());
-        let length =
-            sub.length.map(|l| format!(", {:.0} cm {}", l.value.centimetres(), l.kind.label())).unwrap_or_default();
-        format!("{what}{length} · {} · {} photo(s)", sub.observed_at.format("%Y-%m-%d %H:%M"), self.photo_count)
+            .unwrap_or_else(|| t("record-unnamed"));
+        let length = sub
+            .length
+            .map(|l| {
+                let cm = words::number(l.value.centimetres(), 0);
+                t_args("record-summary-length", &[("cm", cm.into()), ("kind", labels::length_kind(l.kind).into())])
+            })
+            .unwrap_or_default();
+        let when = sub.observed_at.format("%Y-%m-%d %H:%M").to_string();
+        t_args(
+            "record-summary",
+            &[
+                ("what", what.into()),
+                ("length", length.into()),
+                ("when", when.into()),
+                ("photos", self.photo_count.into()),
+            ],
+        )
     }
 
     /// The last problem, while it still matters: the record waits to be sent again, or
@@ -195,8 +211,11 @@ impl SyncStatus {
     /// "sending…", or the problem and when the next try is; empty when all is sent.
     pub fn words(&self) -> String {
         match (self.running, &self.next_retry, &self.last_problem) {
-            (true, _, _) => "sending…".to_owned(),
-            (false, Some(delay), Some(problem)) => format!("{problem}; trying again in {} s", delay.as_secs()),
+            (true, _, _) => t("sync-sending"),
+            (false, Some(delay), Some(problem)) => {
+                let seconds = words::number(delay.as_secs_f64().round(), 0);
+                t_args("sync-retry", &[("problem", problem.as_str().into()), ("seconds", seconds.into())])
+            }
             _ => String::new(),
         }
     }
@@ -285,18 +304,22 @@ pub fn room_for(usage: f64, quota: f64, new_bytes: f64) -> Result<Option<String>
     let after = usage + new_bytes;
     let megabytes = |b: f64| b / 1e6;
     if after > STORAGE_FULL_SHARE * quota {
-        return Err(format!(
-            "Not saved: this phone's storage for wrackline is full ({:.0} of {:.0} MB with this record). \
-             Send waiting records or free space on the phone, then save again. Your form is kept as it is.",
-            megabytes(after),
-            megabytes(quota)
+        return Err(t_args(
+            "storage-full",
+            &[
+                ("used", words::number(megabytes(after), 0).into()),
+                ("quota", words::number(megabytes(quota), 0).into()),
+            ],
         ));
     }
     Ok((after > STORAGE_WARN_SHARE * quota).then(|| {
+        let used = words::number(megabytes(after), 0);
         format!(
-            " Warning: this phone's storage for wrackline is nearly full ({:.0} of {:.0} MB). Send waiting records soon.",
-            megabytes(after),
-            megabytes(quota)
+            " {}",
+            t_args(
+                "storage-nearly-full",
+                &[("used", used.into()), ("quota", words::number(megabytes(quota), 0).into())]
+            )
         )
     }))
 }
@@ -352,12 +375,12 @@ mod tests {
     fn the_summary_says_what_how_big_when_and_how_many_photos() {
         assert_eq!(
             entry(SyncState::Waiting).summary(),
-            "thornback ray, 62 cm total length · 2025-06-01 14:10 · 2 photo(s)"
+            "thornback ray, 62 cm total length · 2025-06-01 14:10 · 2 photos"
         );
         let mut unnamed = entry(SyncState::Draft);
         unnamed.submission.species_guess = None;
         unnamed.submission.length = None;
-        assert_eq!(unnamed.summary(), "unnamed animal · 2025-06-01 14:10 · 2 photo(s)");
+        assert_eq!(unnamed.summary(), "unnamed animal · 2025-06-01 14:10 · 2 photos");
     }
 
     #[test]

@@ -7,6 +7,7 @@ use wasm_bindgen::JsCast;
 use wasm_bindgen::closure::Closure;
 
 use crate::data::local;
+use crate::data::words::{self, t_args};
 
 const SAFETY_KEY: &str = "wrackline.safety-read";
 
@@ -67,13 +68,14 @@ pub fn on_installable(act: impl Fn() + 'static) {
 /// milliseconds since 1970).
 pub fn fix_words(accuracy_m: f64, taken_ms: f64, now_ms: f64) -> String {
     let age_s = ((now_ms - taken_ms) / 1000.0).max(0.0).round();
+    let whole = |value: f64| words::number(value, 0);
     let age = match age_s {
-        s if s < 120.0 => format!("{s:.0} s old"),
-        s if s < 7200.0 => format!("{:.0} min old", (s / 60.0).floor()),
-        s if s < 172_800.0 => format!("{:.0} h old", (s / 3600.0).floor()),
-        s => format!("{:.0} days old", (s / 86_400.0).floor()),
+        s if s < 120.0 => t_args("fix-age-seconds", &[("n", whole(s).into())]),
+        s if s < 7200.0 => t_args("fix-age-minutes", &[("n", whole((s / 60.0).floor()).into())]),
+        s if s < 172_800.0 => t_args("fix-age-hours", &[("n", whole((s / 3600.0).floor()).into())]),
+        s => t_args("fix-age-days", &[("n", whole((s / 86_400.0).floor()).into())]),
     };
-    format!("within {:.0} m, {age}", accuracy_m.max(1.0))
+    t_args("fix-within", &[("metres", whole(accuracy_m.max(1.0)).into()), ("age", age.into())])
 }
 
 /// Calls `act` whenever the browser says the connection came back or went away.

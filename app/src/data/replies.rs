@@ -11,6 +11,7 @@ use uuid::Uuid;
 use crate::data::api;
 use crate::data::device::{self, Store};
 use crate::data::photos::PickedPhoto;
+use crate::data::words::t;
 
 /// Where an answer is on its way to the server.
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
@@ -33,10 +34,10 @@ pub struct ReplyEntry {
 impl ReplyEntry {
     /// An answer about `record` with the text and photos given, waiting to be sent; the
     /// error is the sentence to show.
-    pub fn new(record: Uuid, text: &str, photos: &[PickedPhoto]) -> Result<Self, &'static str> {
-        let Ok(message) = Text::parse(text) else { return Err("That answer is too long.") };
+    pub fn new(record: Uuid, text: &str, photos: &[PickedPhoto]) -> Result<Self, String> {
+        let Ok(message) = Text::parse(text) else { return Err(t("mine-answer-too-long")) };
         if message.as_str().is_empty() && photos.is_empty() {
-            return Err("Write an answer or add a photo.");
+            return Err(t("mine-answer-empty"));
         }
         let photo_exif = photos.iter().map(|p| p.exif.clone()).collect();
         let reply = Reply { client_id: Uuid::new_v4(), message, photo_exif };

@@ -9,6 +9,7 @@ use crate::data::device;
 use crate::data::outbox::Outbox;
 use crate::data::time;
 use crate::data::walks::{self, track_point};
+use crate::data::words::{self, t_args};
 
 thread_local! {
     static WATCH: std::cell::Cell<Option<i32>> = const { std::cell::Cell::new(None) };
@@ -31,10 +32,10 @@ pub fn follow(outbox: Outbox, note: RwSignal<String>) {
             LATEST.set(Some(fix));
             let Some(point) = track_point(fix, time::now().offset()) else { return };
             if fix.accuracy > shared_types::MAX_FIX_ACCURACY_M {
-                note.set(format!("position too rough (within {:.0} m only), waiting for a better one", fix.accuracy));
+                note.set(t_args("walk-fix-rough", &[("metres", words::number(fix.accuracy, 0).into())]));
                 return;
             }
-            note.set(format!("position known to within {:.0} m", fix.accuracy));
+            note.set(t_args("walk-fix-good", &[("metres", words::number(fix.accuracy, 0).into())]));
             let Some(mut walk) = outbox.walk_going_on() else { return };
             if walk.fix_is_due(point.at) {
                 walk.track.push(point);
@@ -45,7 +46,7 @@ pub fn follow(outbox: Outbox, note: RwSignal<String>) {
                 });
             }
         },
-        move |err| note.set(format!("no position ({err}); the walk goes on, but its track will be short")),
+        move |err| note.set(t_args("walk-no-fix", &[("problem", err.into())])),
     );
     WATCH.set(Some(id));
 }

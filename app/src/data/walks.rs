@@ -14,6 +14,7 @@ use uuid::Uuid;
 
 use crate::data::device;
 use crate::data::time::{self, Zone};
+use crate::data::words::{t, t_args};
 
 /// The shortest time between two kept fixes, in seconds.
 pub const SAMPLE_EVERY_S: i64 = 10;
@@ -37,11 +38,11 @@ pub enum WalkState {
 impl WalkState {
     pub fn label(&self) -> String {
         match self {
-            Self::Walking => "walking now".into(),
-            Self::Waiting => "waiting to send".into(),
-            Self::Sent => "sent, awaiting the server".into(),
-            Self::Received { .. } => "received by the server".into(),
-            Self::Refused { reason } => format!("not accepted by the server: {reason}"),
+            Self::Walking => t("walk-walking-now"),
+            Self::Waiting => t("sync-waiting"),
+            Self::Sent => t("sync-sent"),
+            Self::Received { .. } => t("sync-received"),
+            Self::Refused { reason } => t_args("sync-refused", &[("problem", reason.as_str().into())]),
         }
     }
 
@@ -95,15 +96,15 @@ impl WalkEntry {
         stretch: &str,
         all_finds_reported: bool,
         (from, to, km): (&str, &str, &str),
-    ) -> Result<Self, &'static str> {
+    ) -> Result<Self, String> {
         let (Some(started_at), Some(ended_at)) = (time::parse_input(zone, from), time::parse_input(zone, to)) else {
-            return Err("Give the walk's start and end.");
+            return Err(t("walk-give-times"));
         };
         let Some(km) = km.trim().replace(',', ".").parse::<f64>().ok().filter(|k| (0.0..=100.0).contains(k)) else {
-            return Err("Give the distance walked in kilometres (0 to 100).");
+            return Err(t("walk-give-distance"));
         };
         if ended_at < started_at {
-            return Err("The walk ends before it starts.");
+            return Err(t("walk-ends-before-start"));
         }
         let mut walk = Self::new(stretch, all_finds_reported, started_at, WalkState::Waiting);
         walk.ended_at = Some(ended_at);
@@ -142,7 +143,7 @@ impl WalkEntry {
     }
 
     pub fn title(&self) -> String {
-        let stretch = self.stretch.as_ref().map(|s| s.as_str().to_owned()).unwrap_or_else(|| "walk".into());
+        let stretch = self.stretch.as_ref().map(|s| s.as_str().to_owned()).unwrap_or_else(|| t("walk-untitled"));
         format!("{stretch}, {}", self.started_at.format("%Y-%m-%d %H:%M"))
     }
 }
@@ -182,7 +183,7 @@ mod tests {
     use super::*;
     use crate::data::time::tests::LONDON;
 
-    fn typed(from: &str, to: &str, km: &str) -> Result<WalkEntry, &'static str> {
+    fn typed(from: &str, to: &str, km: &str) -> Result<WalkEntry, String> {
         WalkEntry::typed(&LONDON, " North beach ", true, (from, to, km))
     }
 

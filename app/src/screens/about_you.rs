@@ -7,6 +7,7 @@
 use leptos::prelude::*;
 
 use crate::data::outbox::Outbox;
+use crate::data::words::t;
 use crate::data::{identity, sync};
 
 /// "About you": open and asking while it has not been answered and there is something
@@ -29,24 +30,24 @@ pub fn AboutYou(outbox: Outbox) -> impl IntoView {
     };
     let skip = move |_| {
         identity::skip_profile();
-        note.set("Not now: your records are sent without a name. You can add one here at any time.".into());
+        note.set(t("about-not-now-note"));
         answered.set(true);
     };
     let summary = move || identity::summary_words(&name.get(), &contact.get());
     view! {
         <Show when=move || answered.get() || something_to_send()>
             <details id="about-you" class="card about-you" prop:open=move || !answered.get()>
-                <summary><b>"About you"</b>" · "<span id="about-summary">{summary}</span></summary>
-                <p class="hint">"Both boxes may stay empty; your records are sent either way."</p>
-                <label>"Your name (reviewers see it with your records)" <input id="about-name" autocomplete="name" prop:value=move || name.get() on:input=move |ev| name.set(event_target_value(&ev)) /></label>
-                <label class="check"><input id="about-name-public" type="checkbox" prop:checked=move || name_public.get() on:change=move |ev| name_public.set(event_target_checked(&ev)) />"Publish my name with my records in open data"</label>
-                <p class="hint">"Records are shared as open data for research. Unticked, they are shared without your name, under an anonymous label."</p>
-                <label>"Email or phone number" <input id="about-contact" autocomplete="email" prop:value=move || contact.get() on:input=move |ev| contact.set(event_target_value(&ev)) /></label>
-                <p class="hint">"Your contact is only for reviewers with a question about your records. It is never published, never exported and never shown to anyone else."</p>
+                <summary><b>{t("about-heading")}</b>" · "<span id="about-summary">{summary}</span></summary>
+                <p class="hint">{t("about-both-optional")}</p>
+                <label>{t("about-name")}" "<input id="about-name" autocomplete="name" prop:value=move || name.get() on:input=move |ev| name.set(event_target_value(&ev)) /></label>
+                <label class="check"><input id="about-name-public" type="checkbox" prop:checked=move || name_public.get() on:change=move |ev| name_public.set(event_target_checked(&ev)) />{t("about-name-public")}</label>
+                <p class="hint">{t("about-open-data")}</p>
+                <label>{t("about-contact")}" "<input id="about-contact" autocomplete="email" prop:value=move || contact.get() on:input=move |ev| contact.set(event_target_value(&ev)) /></label>
+                <p class="hint">{t("about-contact-use")}</p>
                 <div class="actions">
-                    <button id="about-save" type="button" class="primary" on:click=save>"Save"</button>
+                    <button id="about-save" type="button" class="primary" on:click=save>{t("about-save")}</button>
                     <Show when=move || !answered.get()>
-                        <button id="about-skip" type="button" on:click=skip>"Not now"</button>
+                        <button id="about-skip" type="button" on:click=skip>{t("about-not-now")}</button>
                     </Show>
                 </div>
             </details>

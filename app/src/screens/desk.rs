@@ -8,28 +8,16 @@
 use leptos::prelude::*;
 use shared_types::Role;
 
+use crate::data::words::t;
 use crate::data::{api, page, site};
 use crate::screens::fieldwork::lookup::SampleLookupScreen;
 use crate::screens::fieldwork::urgent::UrgentScreen;
 use crate::screens::figures::FiguresScreen;
+use crate::screens::language::LanguageSwitch;
 use crate::screens::people::PeopleScreen;
 use crate::screens::review::ReviewScreen;
 use crate::screens::safety::SafetyText;
 use crate::screens::sign_in::SignIn;
-
-/// The words of the desk's page, in one place.
-mod words {
-    pub const TITLE: &str = "wrackline · desk";
-    pub const URGENT: &str = "Live animals";
-    pub const REVIEW: &str = "Review";
-    pub const SAMPLES: &str = "Samples";
-    pub const FIGURES: &str = "Figures";
-    pub const PEOPLE: &str = "People";
-    pub const SAFETY: &str = "Safety";
-    pub const RECORD: &str = "Record a find";
-    pub const CHECKING: &str = "checking your sign-in…";
-    pub const SAFETY_HEADING: &str = "Safety on the shore";
-}
 
 /// Which screen a signed-in person sees for the address's `#…` part: responders have
 /// the live animals only; the people screen is for admins.
@@ -59,7 +47,7 @@ pub fn App() -> impl IntoView {
     let is = move |wanted: Role| role.get() == Some(wanted);
     let reviews = move || matches!(role.get(), Some(Role::Reviewer | Role::Admin));
     let staff_view = move || match (checked.get(), role.get()) {
-        (false, _) => view! { <p class="hint">{words::CHECKING}</p> }.into_any(),
+        (false, _) => view! { <p class="hint">{t("desk-checking")}</p> }.into_any(),
         (true, None) => view! { <SignIn role=role /> }.into_any(),
         (true, Some(r)) => match staff_screen(&screen.get(), r) {
             "#urgent" => view! { <UrgentScreen role=r /> }.into_any(),
@@ -70,19 +58,20 @@ pub fn App() -> impl IntoView {
     };
     view! {
         <header class="top">
-            <h1><a href="#">{words::TITLE}</a></h1>
+            <h1><a href="#">{t("desk-title")}</a></h1>
             <nav class="top-links">
-                <a id="urgent-link" class="pill review-link" href="#urgent">{words::URGENT}</a>
+                <a id="urgent-link" class="pill review-link" href="#urgent">{t("desk-urgent")}</a>
                 <Show when=reviews>
-                    <a class="pill review-link" href="#review">{words::REVIEW}</a>
-                    <a id="samples-link" class="pill review-link" href="#samples">{words::SAMPLES}</a>
+                    <a class="pill review-link" href="#review">{t("phone-review-link")}</a>
+                    <a id="samples-link" class="pill review-link" href="#samples">{t("desk-samples")}</a>
                 </Show>
-                <a class="pill review-link" href="#figures">{words::FIGURES}</a>
+                <a class="pill review-link" href="#figures">{t("phone-figures-link")}</a>
                 <Show when=move || is(Role::Admin)>
-                    <a class="pill review-link" href="#people">{words::PEOPLE}</a>
+                    <a class="pill review-link" href="#people">{t("desk-people")}</a>
                 </Show>
-                <a id="safety-link" class="pill review-link" href="#safety">{words::SAFETY}</a>
-                <a id="phone-link" class="pill review-link" href="/">{words::RECORD}</a>
+                <a id="safety-link" class="pill review-link" href="#safety">{t("phone-safety-link")}</a>
+                <LanguageSwitch />
+                <a id="phone-link" class="pill review-link" href="/">{t("desk-record")}</a>
             </nav>
         </header>
         <main>
@@ -90,7 +79,7 @@ pub fn App() -> impl IntoView {
                 "#figures" => view! { <FiguresScreen /> }.into_any(),
                 "#safety" => view! {
                     <section id="safety" class="card safety-card">
-                        <h2>{words::SAFETY_HEADING}</h2>
+                        <h2>{t("phone-safety-heading")}</h2>
                         <SafetyText responders=responders />
                     </section>
                 }.into_any(),

@@ -10,6 +10,7 @@ use shared_types::{MyRecord, Role};
 use crate::data::outbox::Outbox;
 use crate::data::photos::{self, PickedPhoto};
 use crate::data::replies::{self, ReplyEntry, ReplyState};
+use crate::data::words::{self, t, t_args};
 use crate::data::{checklist, my_records, sync};
 
 /// The observer's records with the reviewers' messages, and a way to answer.
@@ -17,8 +18,8 @@ use crate::data::{checklist, my_records, sync};
 pub fn MyRecords(outbox: Outbox) -> impl IntoView {
     view! {
         <section class="card my-records">
-            <h2 id="my-records-heading">"My records"</h2>
-            <p class="hint">"As the reviewers last saw them; updated each time this phone syncs."</p>
+            <h2 id="my-records-heading">{t("mine-heading")}</h2>
+            <p class="hint">{t("mine-intro")}</p>
             <ul id="my-records">
                 {move || outbox.my_records.get().into_iter().map(|record| view! { <MyRecordItem record=record outbox=outbox /> }).collect_view()}
             </ul>
@@ -32,7 +33,7 @@ fn MyRecordItem(record: MyRecord, outbox: Outbox) -> impl IntoView {
     let what = my_records::name_shown(&record, checklist::common_name);
     let (state_label, state_meaning) = my_records::state_words(&record);
     let waits = outbox.replies.with_untracked(|r| my_records::question_waits(&record, r));
-    let when = record.record.submission.observed_at.format("%Y-%m-%d").to_string();
+    let when = words::date(record.record.submission.observed_at.timestamp_millis() as f64);
     let answer = RwSignal::new(String::new());
     let picked = RwSignal::new_local(Vec::<PickedPhoto>::new());
     let note = RwSignal::new(String::new());
@@ -49,7 +50,7 @@ fn MyRecordItem(record: MyRecord, outbox: Outbox) -> impl IntoView {
         leptos::task::spawn_local(async move {
             let mut refused = Vec::new();
             for file in files {
-                note.set(format!("preparing “{}”…", file.name()));
+                note.set(t_args("photo-preparing", &[("name", file.name().into())]));
                 match photos::pick(file).await {
                     Ok(photo) => picked.update(|p| p.push(photo)),
                     Err(reason) => refused.push(reason),
@@ -63,7 +64,7 @@ fn MyRecordItem(record: MyRecord, outbox: Outbox) -> impl IntoView {
         let entry = match ReplyEntry::new(client_id, &answer.get_untracked(), &chosen) {
             Ok(entry) => entry,
             Err(problem) => {
-                note.set(problem.into());
+                note.set(problem);
                 return;
             }
         };
@@ -73,51 +74,51 @@ fn MyRecordItem(record: MyRecord, outbox: Outbox) -> impl IntoView {
                 Ok(()) => {
                     answer.set(String::new());
                     picked.set(Vec::new());
-                    note.set("Answer kept on this phone; it goes with the next sync.".into());
+                    note.set(t("mine-answer-kept"));
                     outbox.reload().await;
                     sync::request(outbox);
                 }
-                Err(err) => note.set(format!("Could not keep the answer on this phone: {err}")),
+                Err(err) => note.set(t_args("mine-answer-not-kept", &[("problem", err.into())])),
             }
         });
     };
     // An answer when a reviewer has asked something; otherwise more detail, unasked.
     let asked = record.messages.iter().any(|m| m.author_role != Role::Observer);
-    let add_label = if asked { "Answer the reviewer" } else { "Add a note or photo for the reviewers" };
+    let add_label = if asked { t("mine-answer-reviewer") } else { t("mine-add-note") };
     let item_class = if waits { "my-record asked" } else { "my-record" };
     let messages = record
         .messages
         .iter()
         .map(|m| {
             let who = match m.author_role {
-                Role::Observer => "you".to_owned(),
-                _ => m.author.clone().unwrap_or_else(|| "a reviewer".into()),
+                Role::Observer => t("mine-you"),
+                _ => m.author.clone().unwrap_or_else(|| t("mine-a-reviewer")),
             };
-            view! { <li class="message"><b>{who}": "</b>{m.body.clone()}</li> }
+            view! { <li class="message"><b>{who}</b>": "{m.body.clone()}</li> }
         })
         .collect_view();
     view! {
         <li class=item_class data-client-id=client_id.to_string()>
             <div><b class="record-name">{what}</b>" · "{when}" · "<span class="review-state">{state_label}</span></div>
             <p class="hint state-meaning">{state_meaning}</p>
-            {waits.then(|| view! { <p class="asked-flag"><span class="badge">"?"</span>" A reviewer asked you something:"</p> })}
+            {waits.then(|| view! { <p class="asked-flag"><span class="badge">"?"</span>" "{t("mine-asked-flag")}</p> })}
             <ul class="messages">{messages}</ul>
             <details class="answer" prop:open=waits>
                 <summary>{add_label}</summary>
                 <textarea class="answer-text" rows="2" prop:value=move || answer.get() on:input=move |ev| answer.set(event_target_value(&ev))></textarea>
-                <label class="button small">"Add photo"
+                <label class="button small">{t("mine-add-photo")}
                     <input class="answer-photo" type="file" accept="image/*" capture="environment" multiple on:change=add_photos /></label>
                 <ul class="answer-photos">
                     {move || picked.get().into_iter().map(|photo| view! {
-                        <li><img class="answer-thumb" src=photo.preview_url.clone() alt=format!("photo: {}", photo.name) />
+                        <li><img class="answer-thumb" src=photo.preview_url.clone() alt=t_args("photo-alt", &[("name", photo.name.clone().into())]) />
                             <span class="hint photo-says">{photos::photo_says(&photo.exif)}</span></li>
                     }).collect_view()}
                 </ul>
-                <span class="hint">{move || format!("{} photo(s)", picked.with(|p| p.len()))}</span>
-                <button type="button" class="small send-answer" on:click=send>"Send answer"</button>
+                <span class="hint">{move || t_args("photo-count", &[("count", picked.with(|p| p.len()).into())])}</span>
+                <button type="button" class="small send-answer" on:click=send>{t("mine-send-answer")}</button>
             </details>
             <p class="hint">{move || note.get()}</p>
-            {move || (pending() > 0).then(|| view! { <p class="hint answer-waiting">{format!("{} answer(s) waiting to send", pending())}</p> })}
+            {move || (pending() > 0).then(|| view! { <p class="hint answer-waiting">{t_args("mine-answers-waiting", &[("count", pending().into())])}</p> })}
         </li>
     }
 }

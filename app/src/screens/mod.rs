@@ -3,6 +3,7 @@
 //! compiles its own: the phone's page ([`phone`]) and its recording screens, or with the
 //! `desk` feature the desk's page ([`desk`]) and its screens; [`safety`] is in both.
 
+mod language;
 mod safety;
 
 #[cfg(not(feature = "desk"))]

@@ -6,6 +6,7 @@ use leptos::prelude::*;
 
 use crate::data::outbox::{self, Entry, Outbox, SyncState};
 use crate::data::sync;
+use crate::data::words::t;
 
 #[component]
 pub fn OnThisPhone(outbox: Outbox) -> impl IntoView {
@@ -33,8 +34,8 @@ pub fn OnThisPhone(outbox: Outbox) -> impl IntoView {
     view! {
         <section class="card outbox">
             <div class="row spread">
-                <h2>"On this phone"</h2>
-                <button id="send-now" type="button" on:click=move |_| sync::request(outbox)>"Send now"</button>
+                <h2>{t("phone-outbox-heading")}</h2>
+                <button id="send-now" type="button" on:click=move |_| sync::request(outbox)>{t("phone-send-now")}</button>
             </div>
             <p id="sync-status" class="hint">{move || status.with(|s| s.words())}</p>
             <ul id="outbox-list">
@@ -52,18 +53,18 @@ pub fn OnThisPhone(outbox: Outbox) -> impl IntoView {
                     let urgent = entry.submission.is_urgent();
                     view! {
                         <li class="outbox-entry" data-client-id=id.clone()>
-                            {urgent.then(|| view! { <span class="urgent-mark">"live animal: sent first"</span> })}
+                            {urgent.then(|| view! { <span class="urgent-mark">{t("phone-live-sent-first")}</span> })}
                             <span class="summary">{summary}</span>
                             <span class=state.css_class()>{state.label()}</span>
                             {entry.problem_shown().map(|e| view! { <span class="hint">{e.to_owned()}</span> })}
-                            {on_walk.then(|| view! { <span class="hint walk-link">"on a survey walk"</span> })}
+                            {on_walk.then(|| view! { <span class="hint walk-link">{t("phone-on-walk")}</span> })}
                             <Show when=move || is_refused>
-                                <button type="button" class="small edit-refused" on:click={let id = edit_id.clone(); move |_| outbox.editing.set(Some(id.clone()))}>"Edit and send again"</button>
-                                <button type="button" class="small discard-refused" on:click={let id = refused_id.clone(); move |_| discard(id.clone())}>"Discard"</button>
+                                <button type="button" class="small edit-refused" on:click={let id = edit_id.clone(); move |_| outbox.editing.set(Some(id.clone()))}>{t("phone-edit-again")}</button>
+                                <button type="button" class="small discard-refused" on:click={let id = refused_id.clone(); move |_| discard(id.clone())}>{t("phone-discard")}</button>
                             </Show>
                             <Show when=move || is_draft>
-                                <button type="button" class="small" on:click={let id = queue_id.clone(); move |_| queue(id.clone())}>"Send"</button>
-                                <button type="button" class="small" on:click={let id = draft_id.clone(); move |_| discard(id.clone())}>"Discard"</button>
+                                <button type="button" class="small" on:click={let id = queue_id.clone(); move |_| queue(id.clone())}>{t("phone-send")}</button>
+                                <button type="button" class="small" on:click={let id = draft_id.clone(); move |_| discard(id.clone())}>{t("phone-discard")}</button>
                             </Show>
                             <Show when=move || !on_walk && !walk_choices().is_empty()>
                                 <select class="add-to-walk" on:change={let id = walk_id.clone(); move |ev| {
@@ -71,7 +72,7 @@ pub fn OnThisPhone(outbox: Outbox) -> impl IntoView {
                                         change_then_sync(id.clone(), Box::new(move |entry: &mut Entry| entry.put_on_walk(walk)));
                                     }
                                 }}>
-                                    <option value="">"Add to a walk…"</option>
+                                    <option value="">{t("phone-add-to-walk")}</option>
                                     {walk_choices().into_iter().map(|(walk, title)| view! { <option value=walk.to_string()>{title}</option> }).collect_view()}
                                 </select>
                             </Show>

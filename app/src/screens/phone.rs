@@ -6,8 +6,10 @@
 use leptos::prelude::*;
 
 use crate::data::outbox::Outbox;
+use crate::data::words::{t, t_args};
 use crate::data::{device, my_records, page, site, sync, walk_track};
 use crate::screens::about_you::AboutYou;
+use crate::screens::language::LanguageSwitch;
 use crate::screens::mine::MyRecords;
 use crate::screens::on_this_phone::OnThisPhone;
 use crate::screens::record::form::RecordForm;
@@ -64,26 +66,27 @@ pub fn App() -> impl IntoView {
         <header class="top">
             <h1><a href="#">"wrackline"</a></h1>
             <nav class="top-links">
-                <a id="safety-link" class="pill review-link" href="#safety">"Safety"</a>
-                <a class="pill review-link" href="/desk/#figures">"Figures"</a>
-                <a class="pill review-link" href="/desk/#review">"Review"</a>
+                <a id="safety-link" class="pill review-link" href="#safety">{t("phone-safety-link")}</a>
+                <a class="pill review-link" href="/desk/#figures">{t("phone-figures-link")}</a>
+                <a class="pill review-link" href="/desk/#review">{t("phone-review-link")}</a>
+                <LanguageSwitch />
                 <Show when=move || installable.get()>
-                    <button id="install" type="button" class="pill install" on:click=install>"Install"</button>
+                    <button id="install" type="button" class="pill install" on:click=install>{t("phone-install")}</button>
                 </Show>
             </nav>
             <span id="connection" class=move || if online.get() { "pill online" } else { "pill offline" }>
-                {move || if online.get() { "online" } else { "offline: records wait on this phone" }}
+                {move || if online.get() { t("phone-online") } else { t("phone-offline") }}
             </span>
         </header>
         <main>
             {move || storage_problem.get().map(|p| view! {
-                <p class="problems" role="alert">{format!("Offline storage is not working: {p}. Records cannot be kept on this phone.")}</p>
+                <p class="problems" role="alert">{t_args("phone-storage-broken", &[("problem", p.into())])}</p>
             })}
             <Show when=move || screen.get() == "#safety">
                 <section id="safety" class="card safety-card">
-                    <h2>"Safety on the shore"</h2>
+                    <h2>{t("phone-safety-heading")}</h2>
                     <SafetyText responders=Signal::derive(responders) />
-                    <a href="#">"← Back to recording"</a>
+                    <a href="#">{t("phone-back")}</a>
                 </section>
             </Show>
             <Show when=move || !OTHER_SCREENS.contains(&screen.get().as_str())>
@@ -91,11 +94,11 @@ pub fn App() -> impl IntoView {
                 {move || (questions() > 0).then(|| view! {
                     <a id="questions-badge" class="card questions-badge" href="#my-records">
                         <span class="badge">{questions()}</span>
-                        {if questions() == 1 { " A reviewer asked you something about a record: answer it under My records." } else { " Reviewers asked you about some records: answer them under My records." }}
+                        " "{if questions() == 1 { t("phone-question-one") } else { t("phone-question-many") }}
                     </a>
                 })}
                 <details id="safety-reminders" class="safety-again card">
-                    <summary>"Safety reminders: spines, bites, tides"</summary>
+                    <summary>{t("phone-safety-reminders")}</summary>
                     <SafetyText responders=Signal::derive(responders) />
                 </details>
                 <WalkBar outbox=outbox />
@@ -114,9 +117,9 @@ pub fn App() -> impl IntoView {
 fn SafetyCautions(responders: Signal<Option<String>>, on_read: impl Fn() + 'static) -> impl IntoView {
     view! {
         <section class="card safety-card">
-            <h2>"Before your first record"</h2>
+            <h2>{t("phone-first-record")}</h2>
             <SafetyText responders=responders />
-            <button id="safety-ok" class="primary" on:click=move |_| on_read()>"I have read this"</button>
+            <button id="safety-ok" class="primary" on:click=move |_| on_read()>{t("phone-safety-read")}</button>
         </section>
     }
 }

@@ -5,6 +5,7 @@ use leptos::prelude::*;
 use shared_types::Role;
 
 use crate::data::api;
+use crate::data::words::t;
 
 #[component]
 pub fn SignIn(role: RwSignal<Option<Role>>) -> impl IntoView {
@@ -26,11 +27,11 @@ pub fn SignIn(role: RwSignal<Option<Role>>) -> impl IntoView {
     };
     view! {
         <section class="card review">
-            <h2>"Sign in"</h2>
+            <h2>{t("sign-in-heading")}</h2>
             <form id="sign-in" on:submit=submit>
-                <label>"Username" <input id="username" autocomplete="username" prop:value=move || username.get() on:input=move |ev| username.set(event_target_value(&ev)) /></label>
-                <label>"Password" <input id="password" type="password" autocomplete="current-password" prop:value=move || password.get() on:input=move |ev| password.set(event_target_value(&ev)) /></label>
-                <button type="submit" class="primary">"Sign in"</button>
+                <label>{t("sign-in-username")}" "<input id="username" autocomplete="username" prop:value=move || username.get() on:input=move |ev| username.set(event_target_value(&ev)) /></label>
+                <label>{t("sign-in-password")}" "<input id="password" type="password" autocomplete="current-password" prop:value=move || password.get() on:input=move |ev| password.set(event_target_value(&ev)) /></label>
+                <button type="submit" class="primary">{t("sign-in-button")}</button>
                 <p class="problems" role="alert">{move || problem.get()}</p>
             </form>
         </section>

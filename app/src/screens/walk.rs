@@ -7,6 +7,7 @@ use leptos::prelude::*;
 use crate::data::outbox::Outbox;
 use crate::data::time::{self, BrowserZone};
 use crate::data::walks::{self, WalkEntry, WalkState};
+use crate::data::words::{self, t, t_args};
 use crate::data::{sync, walk_track};
 
 /// Start, follow and end a walk, or enter a past one.
@@ -29,7 +30,7 @@ pub fn WalkBar(outbox: Outbox) -> impl IntoView {
                     outbox.reload().await;
                     sync::request(outbox);
                 }
-                Err(err) => note.set(format!("Could not save the walk on this phone: {err}")),
+                Err(err) => note.set(t_args("walk-not-saved", &[("problem", err.into())])),
             }
         });
     };
@@ -42,7 +43,7 @@ pub fn WalkBar(outbox: Outbox) -> impl IntoView {
                     outbox.reload().await;
                     walk_track::follow(outbox, note);
                 }
-                Err(err) => note.set(format!("Could not save the walk on this phone: {err}")),
+                Err(err) => note.set(t_args("walk-not-saved", &[("problem", err.into())])),
             }
         });
     };
@@ -56,10 +57,10 @@ pub fn WalkBar(outbox: Outbox) -> impl IntoView {
         let (from, to, km) = typed.get_untracked();
         match WalkEntry::typed(&BrowserZone, &stretch.get_untracked(), all_finds.get_untracked(), (&from, &to, &km)) {
             Ok(entry) => {
-                note.set("Walk saved on this phone.".into());
+                note.set(t("walk-saved"));
                 store_and_sync(entry);
             }
-            Err(problem) => note.set(problem.into()),
+            Err(problem) => note.set(problem),
         }
     };
 
@@ -71,30 +72,30 @@ pub fn WalkBar(outbox: Outbox) -> impl IntoView {
                     let minutes = (time::now() - walk.started_at).num_minutes();
                     view! {
                         <div id="walk-active">
-                            <p><b>{format!("Survey walk: {}", walk.title())}</b></p>
-                            <p id="walk-progress">{format!("{minutes} min · {:.2} km · {} points on the route so far", walk.kilometres(), walk.track.len())}</p>
-                            <p class="hint">{if walk.all_finds_reported { "You are reporting every shark, ray, skate and egg case you find." } else { "Not every find will be reported on this walk." }}</p>
-                            <p class="hint">"Records you make now are linked to this walk. Keep the app open to record the route."</p>
-                            <button id="end-walk" type="button" class="primary" on:click=end>"End walk"</button>
+                            <p><b>{t_args("walk-active", &[("title", walk.title().into())])}</b></p>
+                            <p id="walk-progress">{t_args("walk-progress", &[("minutes", words::number(minutes as f64, 0).into()), ("km", words::number(walk.kilometres(), 2).into()), ("points", walk.track.len().into())])}</p>
+                            <p class="hint">{if walk.all_finds_reported { t("walk-all-finds-on") } else { t("walk-not-all-finds") }}</p>
+                            <p class="hint">{t("walk-linked")}</p>
+                            <button id="end-walk" type="button" class="primary" on:click=end>{t("walk-end")}</button>
                         </div>
                     }.into_any()
                 }
                 None => view! {
                     <details id="walk-start">
-                        <summary>"Survey walk"</summary>
-                        <p class="hint">"Log your walks even when you find nothing: how far and how long people looked is what makes the counts mean something."</p>
-                        <label>"Stretch of coast (optional)" <input id="walk-stretch" prop:value=move || stretch.get() on:input=move |ev| stretch.set(event_target_value(&ev)) /></label>
+                        <summary>{t("walk-heading")}</summary>
+                        <p class="hint">{t("walk-why")}</p>
+                        <label>{t("walk-stretch")}" "<input id="walk-stretch" prop:value=move || stretch.get() on:input=move |ev| stretch.set(event_target_value(&ev)) /></label>
                         <label class="check"><input id="walk-all-finds" type="checkbox" prop:checked=move || all_finds.get() on:change=move |ev| all_finds.set(event_target_checked(&ev)) />
-                            "I will report every shark, ray, skate and egg case I find on this walk"</label>
-                        <button id="start-walk" type="button" class="primary" on:click=start>"Start walk"</button>
+                            {t("walk-all-finds")}</label>
+                        <button id="start-walk" type="button" class="primary" on:click=start>{t("walk-start")}</button>
                         <details>
-                            <summary>"Enter a past walk by hand"</summary>
+                            <summary>{t("walk-past")}</summary>
                             <div class="row">
-                                <label>"Started" <input id="walk-from" type="datetime-local" on:input=move |ev| typed.update(|t| t.0 = event_target_value(&ev)) /></label>
-                                <label>"Ended" <input id="walk-to" type="datetime-local" on:input=move |ev| typed.update(|t| t.1 = event_target_value(&ev)) /></label>
-                                <label>"Distance (km)" <input id="walk-km" inputmode="decimal" on:input=move |ev| typed.update(|t| t.2 = event_target_value(&ev)) /></label>
+                                <label>{t("walk-started")}" "<input id="walk-from" type="datetime-local" on:input=move |ev| typed.update(|t| t.0 = event_target_value(&ev)) /></label>
+                                <label>{t("walk-ended")}" "<input id="walk-to" type="datetime-local" on:input=move |ev| typed.update(|t| t.1 = event_target_value(&ev)) /></label>
+                                <label>{t("walk-distance")}" "<input id="walk-km" inputmode="decimal" on:input=move |ev| typed.update(|t| t.2 = event_target_value(&ev)) /></label>
                             </div>
-                            <button id="save-past-walk" type="button" on:click=save_typed>"Save walk"</button>
+                            <button id="save-past-walk" type="button" on:click=save_typed>{t("walk-save")}</button>
                         </details>
                     </details>
                 }.into_any(),
@@ -103,7 +104,7 @@ pub fn WalkBar(outbox: Outbox) -> impl IntoView {
             <ul id="walk-list">
                 {move || outbox.walks.get().into_iter().filter(|w| w.state != WalkState::Walking).take(5).map(|w| view! {
                     <li class="walk-entry" data-client-id=w.client_id.to_string()>
-                        {format!("{} · {:.2} km · ", w.title(), w.kilometres())}
+                        {t_args("walk-list-item", &[("title", w.title().into()), ("km", words::number(w.kilometres(), 2).into())])}" · "
                         <span class="state">{w.state.label()}</span>
                     </li>
                 }).collect_view()}

@@ -14,43 +14,45 @@ use crate::data::form_fields::{Control, FormFields, Problem, WhenSource};
 use crate::data::outbox::{self, Entry, Outbox, SyncState};
 use crate::data::photos::PickedPhoto;
 use crate::data::time::{self, BrowserZone};
-use crate::data::{checklist, device, identity, page, sync, walk_track};
+use crate::data::words::{self, t, t_args};
+use crate::data::{checklist, device, identity, labels, page, sync, walk_track};
 use crate::screens::record::key::KeyPanel;
 use crate::screens::record::live::LivePanel;
 use crate::screens::record::photos::PhotoPicker;
 
 /// Fills the position from this phone, telling the observer how it went.
 fn locate(fields: RwSignal<FormFields>, note: RwSignal<String>) {
-    note.set("finding your position…".into());
+    note.set(t("form-finding-position"));
     leptos::task::spawn_local(async move {
         match device::current_position().await {
             Ok(fix) => {
                 fields.update(|f| f.set_device_position(fix.latitude, fix.longitude, fix.accuracy));
-                note.set(format!("from this phone, {}", page::fix_words(fix.accuracy, fix.at, js_sys::Date::now())));
+                note.set(t_args(
+                    "form-position-from-phone",
+                    &[("fix", page::fix_words(fix.accuracy, fix.at, js_sys::Date::now()).into())],
+                ));
             }
-            Err(err) => note.set(format!("no position from this phone ({err}); type it, or try again")),
+            Err(err) => note.set(t_args("form-no-position", &[("problem", err.into())])),
         }
     });
 }
 
 /// The form's first fix, at opening: used unless a photo's place or a typed one is there.
 fn first_fix(fields: RwSignal<FormFields>, note: RwSignal<String>) {
-    note.set("finding your position…".into());
+    note.set(t("form-finding-position"));
     leptos::task::spawn_local(async move {
         match device::current_position().await {
             Ok(fix) => {
                 let mut form = fields.get_untracked();
                 if form.note_device_fix(fix.latitude, fix.longitude, fix.accuracy) {
-                    note.set(format!(
-                        "from this phone, {}",
-                        page::fix_words(fix.accuracy, fix.at, js_sys::Date::now())
-                    ));
+                    let fix = page::fix_words(fix.accuracy, fix.at, js_sys::Date::now());
+                    note.set(t_args("form-position-from-phone", &[("fix", fix.into())]));
                 } else {
                     note.set(String::new());
                 }
                 fields.set(form);
             }
-            Err(err) => note.set(format!("no position from this phone ({err}); type it, or try again")),
+            Err(err) => note.set(t_args("form-no-position", &[("problem", err.into())])),
         }
     });
 }
@@ -80,9 +82,9 @@ async fn fresh_fix_on_walk(fields: RwSignal<FormFields>) -> Option<String> {
             fields.update(|f| {
                 f.note_device_fix(latitude, longitude, accuracy);
             });
-            format!("Position at saving: {}.", page::fix_words(accuracy, at, js_sys::Date::now()))
+            t_args("form-position-at-saving", &[("fix", page::fix_words(accuracy, at, js_sys::Date::now()).into())])
         }
-        Err(err) => format!("No fresh position at saving ({err}): the record keeps the one from when the form opened."),
+        Err(err) => t_args("form-no-position-at-saving", &[("problem", err.into())]),
     })
 }
 
@@ -122,7 +124,7 @@ async fn save_form(state: SyncState, outbox: Outbox, form: FormSignals) {
         Ok(s) => Submission { walk_client_id: walk.map(|w| w.client_id), ..s },
         Err(list) => {
             problems.set(list);
-            saved_note.set("Not saved yet: put right what is marked in red, then save again.".into());
+            saved_note.set(t("form-not-saved-yet"));
             return;
         }
     };
@@ -145,11 +147,11 @@ async fn save_form(state: SyncState, outbox: Outbox, form: FormSignals) {
     match outbox::save(&entry, Some(&blobs)).await {
         Ok(()) => {
             let saved = if waiting && urgent {
-                "Saved on this phone. A live animal: it goes to the responders before anything else, as soon as there is a connection."
+                t("form-saved-live")
             } else if waiting {
-                "Saved on this phone; it will be sent when there is a connection."
+                t("form-saved")
             } else {
-                "Saved as a draft on this phone."
+                t("form-saved-draft")
             };
             let fix_words = fix_words.map(|w| format!(" {w}")).unwrap_or_default();
             saved_note.set(format!("{saved}{fix_words}{warning}"));
@@ -166,7 +168,7 @@ async fn save_form(state: SyncState, outbox: Outbox, form: FormSignals) {
             }
         }
         // Nothing is cleared: the observer can free space and save again.
-        Err(err) => saved_note.set(format!("Could not save on this phone: {err}. Your form is kept as it is.")),
+        Err(err) => saved_note.set(t_args("form-not-saved", &[("problem", err.into())])),
     }
 }
 
@@ -209,7 +211,7 @@ fn open_for_edit(
             .into_iter()
             .enumerate()
             .map(|(i, blob)| PickedPhoto {
-                name: format!("photo {}", i + 1),
+                name: t_args("form-photo-name", &[("number", (i + 1).into())]),
                 preview_url: web_sys::Url::create_object_url_with_blob(&blob).unwrap_or_default(),
                 upload: blob,
                 upload_sha256: None,
@@ -222,7 +224,7 @@ fn open_for_edit(
         if let SyncState::Refused { reason, field } = &entry.sync {
             problems.set(vec![Problem::from_server(field.as_deref(), reason)]);
         }
-        saved_note.set("Editing a record the server did not accept: put it right and save it again.".into());
+        saved_note.set(t("form-editing-refused"));
         if let Some(form) =
             web_sys::window().and_then(|w| w.document()).and_then(|d| d.get_element_by_id("record-form"))
         {
@@ -270,10 +272,10 @@ pub fn RecordForm(outbox: Outbox, responders: Signal<Option<String>>) -> impl In
     let time_note = move || fields.with(|f| f.time_note(&BrowserZone));
     view! {
         <form id="record-form" class="record-form" on:submit=move |ev| { ev.prevent_default(); save(SyncState::Waiting); }>
-            <h2>"New record"</h2>
+            <h2>{t("form-heading")}</h2>
             <Show when=move || fields.with(|f| f.condition != Some(Condition::Alive))>
                 <button id="it-is-alive" type="button" class="alive-button"
-                    on:click=move |_| fields.update(|f| f.condition = Some(Condition::Alive))>"The animal is alive"</button>
+                    on:click=move |_| fields.update(|f| f.condition = Some(Condition::Alive))>{t("form-alive")}</button>
             </Show>
             <Show when=move || fields.with(|f| f.condition == Some(Condition::Alive))>
                 <LivePanel responders=responders />
@@ -283,117 +285,117 @@ pub fn RecordForm(outbox: Outbox, responders: Signal<Option<String>>) -> impl In
             {problem_line(problems, Control::Photos)}
 
             <fieldset>
-                <legend>"When"</legend>
-                <input id="when" type="datetime-local" aria-label="When" prop:value=move || fields.with(|f| f.when.clone())
+                <legend>{t("form-when")}</legend>
+                <input id="when" type="datetime-local" aria-label=t("form-when") prop:value=move || fields.with(|f| f.when.clone())
                     on:input=move |ev| fields.update(|f| { f.when = event_target_value(&ev); f.when_source = WhenSource::Typed; }) />
                 <span class="hint">{move || fields.with(|f| {
                     let zone = time::offset_label(&BrowserZone, &f.when);
-                    if zone.is_empty() { String::new() } else { format!("this phone's local time ({zone})") }
+                    if zone.is_empty() { String::new() } else { t_args("form-local-time", &[("zone", zone.into())]) }
                 })}</span>
                 {problem_line(problems, Control::When)}
                 {move || time_note().map(|note| view! {
                     <div id="photo-time" class="photo-time">
                         <p id="photo-time-note">{note}</p>
                         <button id="keep-device-time" type="button" class="small"
-                            on:click=move |_| fields.update(|f| f.keep_device_time_and_place())>"Use this phone's time and place instead"</button>
+                            on:click=move |_| fields.update(|f| f.keep_device_time_and_place())>{t("form-use-device-time")}</button>
                     </div>
                 })}
             </fieldset>
 
             <fieldset>
-                <legend>"Where"</legend>
+                <legend>{t("form-where")}</legend>
                 <div class="row">
-                    <label>"Latitude" <input id="latitude" inputmode="decimal" prop:value=move || fields.with(|f| f.latitude.clone())
+                    <label>{t("form-latitude")}" "<input id="latitude" inputmode="decimal" prop:value=move || fields.with(|f| f.latitude.clone())
                         on:input=move |ev| fields.update(|f| { f.latitude = event_target_value(&ev); f.position_source = Some(PositionSource::Typed); }) /></label>
-                    <label>"Longitude" <input id="longitude" inputmode="decimal" prop:value=move || fields.with(|f| f.longitude.clone())
+                    <label>{t("form-longitude")}" "<input id="longitude" inputmode="decimal" prop:value=move || fields.with(|f| f.longitude.clone())
                         on:input=move |ev| fields.update(|f| { f.longitude = event_target_value(&ev); f.position_source = Some(PositionSource::Typed); }) /></label>
-                    <label>"Accuracy (metres)" <input id="accuracy" inputmode="decimal" prop:value=move || fields.with(|f| f.accuracy_m.clone())
+                    <label>{t("form-accuracy")}" "<input id="accuracy" inputmode="decimal" prop:value=move || fields.with(|f| f.accuracy_m.clone())
                         on:input=move |ev| fields.update(|f| f.accuracy_m = event_target_value(&ev)) /></label>
                 </div>
-                <p class="hint">"Accuracy: how far off the position may be, as the phone or GPS says."</p>
+                <p class="hint">{t("form-accuracy-hint")}</p>
                 {problem_line(problems, Control::Latitude)}
                 {problem_line(problems, Control::Longitude)}
                 {problem_line(problems, Control::Accuracy)}
-                <button type="button" class="small" on:click=move |_| locate(fields, position_note)>"Use my position"</button>
+                <button type="button" class="small" on:click=move |_| locate(fields, position_note)>{t("form-use-my-position")}</button>
                 <span id="position-note" class="hint">{move || position_note.get()}</span>
             </fieldset>
 
             <fieldset>
-                <legend>"What"</legend>
-                <label>"Species (your best guess)"
-                    <input id="species" placeholder="e.g. small-spotted catshark" prop:value=move || fields.with(|f| f.species_guess.clone())
+                <legend>{t("form-what")}</legend>
+                <label>{t("form-species")}
+                    <input id="species" placeholder=t("form-species-example") prop:value=move || fields.with(|f| f.species_guess.clone())
                         on:input=move |ev| fields.update(|f| { f.species_guess = event_target_value(&ev); f.key_choice = None; }) /></label>
                 {problem_line(problems, Control::Species)}
                 {move || fields.with(|f| f.key_choice.as_ref().map(|c| view! {
-                    <p id="key-choice" class="hint">{format!("Picked with the key: {} ({}, {:.0}% likely when picked)", c.scientific_name.as_str(), c.taxon_rank, c.probability * 100.0)}</p>
+                    <p id="key-choice" class="hint">{t_args("form-key-choice", &[("name", c.scientific_name.as_str().into()), ("rank", c.taxon_rank.to_string().into()), ("percent", words::number(c.probability * 100.0, 0).into())])}</p>
                 }))}
                 <button id="open-key" type="button" class="small" on:click=move |_| key_open.update(|o| *o = !*o)>
-                    {move || if key_open.get() { "Hide the key" } else { "Help me identify" }}
+                    {move || if key_open.get() { t("form-hide-key") } else { t("form-open-key") }}
                 </button>
                 <Show when=move || key_open.get()>
                     <KeyPanel key=species_key fields=fields open=key_open />
                 </Show>
                 <div class="row">
-                    <label>"Length" <input id="length" inputmode="decimal" prop:value=move || fields.with(|f| f.length_value.clone())
+                    <label>{t("form-length")}" "<input id="length" inputmode="decimal" prop:value=move || fields.with(|f| f.length_value.clone())
                         on:input=move |ev| fields.update(|f| f.length_value = event_target_value(&ev)) /></label>
-                    <label>"Unit" <select id="length-unit" prop:value=move || fields.with(|f| code(&f.length_unit.unwrap_or(LengthUnit::Cm))) on:change=move |ev| fields.update(|f| f.length_unit = from_code(&event_target_value(&ev)))>
+                    <label>{t("form-unit")}" "<select id="length-unit" prop:value=move || fields.with(|f| code(&f.length_unit.unwrap_or(LengthUnit::Cm))) on:change=move |ev| fields.update(|f| f.length_unit = from_code(&event_target_value(&ev)))>
                         {LengthUnit::ALL.into_iter().map(|u| view! { <option value=code(&u)>{u.code()}</option> }).collect_view()}
                     </select></label>
                 </div>
                 {problem_line(problems, Control::Length)}
                 <div class="row">
-                    <label>"Which length" <select id="length-kind" prop:value=move || fields.with(|f| code(&f.length_kind.unwrap_or(LengthKind::Total))) on:change=move |ev| fields.update(|f| f.length_kind = from_code(&event_target_value(&ev)))>
-                        {LengthKind::ALL.into_iter().map(|k| view! { <option value=code(&k)>{k.label()}</option> }).collect_view()}
+                    <label>{t("form-which-length")}" "<select id="length-kind" prop:value=move || fields.with(|f| code(&f.length_kind.unwrap_or(LengthKind::Total))) on:change=move |ev| fields.update(|f| f.length_kind = from_code(&event_target_value(&ev)))>
+                        {LengthKind::ALL.into_iter().map(|k| view! { <option value=code(&k)>{labels::length_kind(k)}</option> }).collect_view()}
                     </select></label>
-                    <label>"How" <select id="length-method" prop:value=move || fields.with(|f| code(&f.length_method.unwrap_or(MeasureMethod::Measured))) on:change=move |ev| fields.update(|f| f.length_method = from_code(&event_target_value(&ev)))>
-                        <option value="measured">"measured"</option>
-                        <option value="estimated">"estimated"</option>
+                    <label>{t("form-how-measured")}" "<select id="length-method" prop:value=move || fields.with(|f| code(&f.length_method.unwrap_or(MeasureMethod::Measured))) on:change=move |ev| fields.update(|f| f.length_method = from_code(&event_target_value(&ev)))>
+                        <option value="measured">{t("form-measured")}</option>
+                        <option value="estimated">{t("form-estimated")}</option>
                     </select></label>
                 </div>
                 <div class="row">
-                    <label>"Sex" <select id="sex" prop:value=move || fields.with(|f| code(&f.sex.unwrap_or(Sex::Unknown))) on:change=move |ev| fields.update(|f| f.sex = from_code(&event_target_value(&ev)))>
-                        <option value="unknown">"not known"</option>
-                        <option value="male">"male (claspers seen)"</option>
-                        <option value="female">"female (no claspers)"</option>
+                    <label>{t("form-sex")}" "<select id="sex" prop:value=move || fields.with(|f| code(&f.sex.unwrap_or(Sex::Unknown))) on:change=move |ev| fields.update(|f| f.sex = from_code(&event_target_value(&ev)))>
+                        <option value="unknown">{t("form-sex-unknown")}</option>
+                        <option value="male">{t("form-sex-male")}</option>
+                        <option value="female">{t("form-sex-female")}</option>
                     </select></label>
-                    <label>"How many" <input id="count" type="number" min="1" prop:value=move || fields.with(|f| f.count.clone())
+                    <label>{t("form-count")}" "<input id="count" type="number" min="1" prop:value=move || fields.with(|f| f.count.clone())
                         on:input=move |ev| fields.update(|f| f.count = event_target_value(&ev)) /></label>
-                    <label>"Life stage" <select id="life-stage" prop:value=move || fields.with(|f| f.life_stage.map(|s| code(&s)).unwrap_or_default()) on:change=move |ev| fields.update(|f| f.life_stage = from_code(&event_target_value(&ev)))>
-                        <option value="">"not sure"</option>
-                        {LifeStage::ALL.into_iter().map(|s| view! { <option value=code(&s)>{s.label()}</option> }).collect_view()}
+                    <label>{t("form-life-stage")}" "<select id="life-stage" prop:value=move || fields.with(|f| f.life_stage.map(|s| code(&s)).unwrap_or_default()) on:change=move |ev| fields.update(|f| f.life_stage = from_code(&event_target_value(&ev)))>
+                        <option value="">{t("form-not-sure")}</option>
+                        {LifeStage::ALL.into_iter().map(|s| view! { <option value=code(&s)>{labels::life_stage(s)}</option> }).collect_view()}
                     </select></label>
                 </div>
-                <p id="claspers-hint" class="hint">"Claspers: a male's two rod-like organs along the inner edge of the fins under the rear of the body (pelvic fins). A female has none."</p>
+                <p id="claspers-hint" class="hint">{t("form-claspers-hint")}</p>
                 {problem_line(problems, Control::Count)}
                 <Show when=move || fields.with(|f| f.life_stage == Some(LifeStage::EggCase))>
-                    <p id="egg-case-hint" class="hint">"Egg cases: count them in “How many”; no length needed (write a case's size in the notes)."</p>
+                    <p id="egg-case-hint" class="hint">{t("form-egg-case-hint")}</p>
                 </Show>
             </fieldset>
 
             <fieldset>
-                <legend>"Condition and how it was found"</legend>
-                <label>"Condition" <select id="condition" prop:value=move || fields.with(|f| f.condition.map(|c| code(&c)).unwrap_or_default()) on:change=move |ev| fields.update(|f| f.condition = from_code(&event_target_value(&ev)))>
-                    <option value="">"choose…"</option>
-                    {Condition::ALL.into_iter().map(|c| view! { <option value=code(&c)>{c.label()}</option> }).collect_view()}
+                <legend>{t("form-condition-legend")}</legend>
+                <label>{t("form-condition")}" "<select id="condition" prop:value=move || fields.with(|f| f.condition.map(|c| code(&c)).unwrap_or_default()) on:change=move |ev| fields.update(|f| f.condition = from_code(&event_target_value(&ev)))>
+                    <option value="">{t("form-choose")}</option>
+                    {Condition::ALL.into_iter().map(|c| view! { <option value=code(&c)>{labels::condition(c)}</option> }).collect_view()}
                 </select></label>
                 {problem_line(problems, Control::Condition)}
-                <label>"How it was found" <select id="setting" prop:value=move || fields.with(|f| f.setting.map(|s| code(&s)).unwrap_or_default()) on:change=move |ev| fields.update(|f| f.setting = from_code(&event_target_value(&ev)))>
-                    <option value="">"choose…"</option>
-                    {Setting::ALL.into_iter().map(|s| view! { <option value=code(&s)>{s.label()}</option> }).collect_view()}
+                <label>{t("form-how-found")}" "<select id="setting" prop:value=move || fields.with(|f| f.setting.map(|s| code(&s)).unwrap_or_default()) on:change=move |ev| fields.update(|f| f.setting = from_code(&event_target_value(&ev)))>
+                    <option value="">{t("form-choose")}</option>
+                    {Setting::ALL.into_iter().map(|s| view! { <option value=code(&s)>{labels::setting(s)}</option> }).collect_view()}
                 </select></label>
                 {problem_line(problems, Control::HowFound)}
                 <div class="checks">
-                    <span>"Signs of fishing or people:"</span>
+                    <span>{t("form-signs")}</span>
                     {HumanSign::ALL.into_iter().map(|sign| view! {
                         <label class="check"><input type="checkbox" prop:checked=move || fields.with(|f| f.human_signs.contains(&sign))
                             on:change=move |ev| {
                                 let on = event_target_checked(&ev);
                                 fields.update(|f| { f.human_signs.retain(|s| *s != sign); if on { f.human_signs.push(sign); } });
-                            } />{sign.label()}</label>
+                            } />{labels::human_sign(sign)}</label>
                     }).collect_view()}
                 </div>
                 {problem_line(problems, Control::Signs)}
-                <label>"Notes" <textarea id="notes" rows="3" prop:value=move || fields.with(|f| f.notes.clone())
+                <label>{t("form-notes")}" "<textarea id="notes" rows="3" prop:value=move || fields.with(|f| f.notes.clone())
                     on:input=move |ev| fields.update(|f| f.notes = event_target_value(&ev))></textarea></label>
                 {problem_line(problems, Control::Notes)}
             </fieldset>
@@ -403,9 +405,9 @@ pub fn RecordForm(outbox: Outbox, responders: Signal<Option<String>>) -> impl In
             </ul>
             <div class="actions">
                 <button id="save-send" type="submit" class="primary">
-                    {move || if saving.get() { "Saving…" } else { "Save and send" }}
+                    {move || if saving.get() { t("form-saving") } else { t("form-save-send") }}
                 </button>
-                <button id="save-draft" type="button" on:click=move |_| save(SyncState::Draft)>"Keep as draft"</button>
+                <button id="save-draft" type="button" on:click=move |_| save(SyncState::Draft)>{t("form-keep-draft")}</button>
             </div>
             </fieldset>
             <p id="saved-note" class="hint" role="status">{move || saved_note.get()}</p>

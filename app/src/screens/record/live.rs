@@ -6,35 +6,36 @@
 use leptos::prelude::*;
 
 use crate::data::site::dial_number;
+use crate::data::words::{t, t_args};
 
 #[component]
 pub fn LivePanel(responders: Signal<Option<String>>) -> impl IntoView {
     let call = move || {
         responders.get().map(|line| match dial_number(&line) {
             Some(number) => view! {
-                <a id="call-responders" class="call-button" href=format!("tel:{number}")>{format!("Call the responders: {line}")}</a>
+                <a id="call-responders" class="call-button" href=format!("tel:{number}")>{t_args("live-call-number", &[("number", line.clone().into())])}</a>
             }
             .into_any(),
-            None => view! { <p id="call-responders" class="call-words"><b>{format!("Call the responders: {line}")}</b></p> }.into_any(),
+            None => view! { <p id="call-responders" class="call-words"><b>{t_args("live-call-number", &[("number", line.clone().into())])}</b></p> }.into_any(),
         })
     };
     view! {
         <section id="live-animal" class="live-animal" role="alert">
-            <h3>"A live animal: get help first"</h3>
+            <h3>{t("live-heading")}</h3>
             <ul id="live-cautions" class="safety">
-                <li>"Keep back, and keep dogs and people back. A shark can bite and a ray's spine can sting, even when it seems weak."</li>
-                <li>"Do not drag or push it back to sea unless you are trained: you can hurt it and yourself."</li>
-                <li>"Follow the responders' directions when you reach them."</li>
+                <li>{t("live-keep-back")}</li>
+                <li>{t("live-no-pushing")}</li>
+                <li>{t("live-follow")}</li>
             </ul>
             {call}
             <Show when=move || responders.with(Option::is_none)>
-                <p id="call-responders" class="call-words"><b>"Call the local stranding responders or the coastguard now."</b></p>
+                <p id="call-responders" class="call-words"><b>{t("live-call")}</b></p>
             </Show>
             <ol id="live-steps" class="live-steps">
-                <li>"Say where it is, what it is if you know, and whether the tide is coming in."</li>
-                <li>"Take photos from where you stand; do not go closer for them."</li>
-                <li>"If it is safe, stay nearby and keep others back until help comes."</li>
-                <li>"Save this record: it goes to the responders before anything else, as soon as the phone has a connection."</li>
+                <li>{t("live-step-say")}</li>
+                <li>{t("live-step-photos")}</li>
+                <li>{t("live-step-stay")}</li>
+                <li>{t("live-step-save")}</li>
             </ol>
         </section>
     }

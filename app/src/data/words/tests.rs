@@ -1,0 +1,457 @@
+//! The catalogues against the code: every message id the code uses is in every
+//! language's catalogue, no catalogue has an id the code does not use, each message has
+//! the same placeholders in every language, and no screen file holds words of its own
+//! outside the catalogues. The code is read as text with a small Rust tokenizer (string
+//! literals, comments and identifiers), which is enough for these checks.
+
+use std::collections::{BTreeMap, BTreeSet};
+use std::path::{Path, PathBuf};
+
+use fluent_syntax::ast;
+
+use super::*;
+
+/// One language's catalogue: message id → the names of its placeholders.
+type Placeholders = BTreeMap<String, BTreeSet<String>>;
+
+fn app_dir() -> PathBuf {
+    PathBuf::from(env!("CARGO_MANIFEST_DIR"))
+}
+
+/// Parses `source`, failing on any syntax error, and lists its messages' placeholders.
+fn placeholders(code: &str, source: &str) -> Placeholders {
+    let resource = fluent_syntax::parser::parse(source.to_owned())
+        .unwrap_or_else(|(_, errors)| panic!("{code}: the catalogue does not parse: {errors:?}"));
+    let mut messages = Placeholders::new();
+    for entry in resource.body {
+        match entry {
+            ast::Entry::Message(message) => {
+                let id = message.id.name.clone();
+                let mut names = BTreeSet::new();
+                if let Some(pattern) = &message.value {
+                    pattern_variables(pattern, &mut names);
+                }
+                assert!(!message.attributes.is_empty() || message.value.is_some(), "{code}: {id} is empty");
+                assert!(messages.insert(id.clone(), names).is_none(), "{code}: {id} appears twice");
+            }
+            ast::Entry::Junk { content } => panic!("{code}: unreadable entry: {content}"),
+            _ => {}
+        }
+    }
+    messages
+}
+
+fn pattern_variables(pattern: &ast::Pattern<String>, names: &mut BTreeSet<String>) {
+    for element in &pattern.elements {
+        if let ast::PatternElement::Placeable { expression } = element {
+            expression_variables(expression, names);
+        }
+    }
+}
+
+fn expression_variables(expression: &ast::Expression<String>, names: &mut BTreeSet<String>) {
+    match expression {
+        ast::Expression::Select { selector, variants } => {
+            inline_variables(selector, names);
+            for variant in variants {
+                pattern_variables(&variant.value, names);
+            }
+        }
+        ast::Expression::Inline(inline) => inline_variables(inline, names),
+    }
+}
+
+fn inline_variables(inline: &ast::InlineExpression<String>, names: &mut BTreeSet<String>) {
+    match inline {
+        ast::InlineExpression::VariableReference { id } => {
+            names.insert(id.name.clone());
+        }
+        ast::InlineExpression::Placeable { expression } => expression_variables(expression, names),
+        ast::InlineExpression::FunctionReference { arguments, .. } => {
+            for argument in &arguments.positional {
+                inline_variables(argument, names);
+            }
+        }
+        _ => {}
+    }
+}
+
+/// A piece of Rust source as far as these checks need: string literals (their text),
+/// identifiers, and single punctuation characters; comments are dropped.
+#[derive(Debug, Clone, PartialEq)]
+enum Token {
+    Str(String),
+    Ident(String),
+    Punct(char),
+}
+
+/// Splits Rust source into [`Token`]s: enough of Rust's lexical rules for the app's code
+/// (plain, raw and byte strings, char literals and lifetimes, line and block comments).
+fn tokenize(source: &str) -> Vec<Token> {
+    let chars: Vec<char> = source.chars().collect();
+    let mut tokens = Vec::new();
+    let mut i = 0;
+    while i < chars.len() {
+        let c = chars[i];
+        let next = chars.get(i + 1).copied();
+        if c == '/' && next == Some('/') {
+            while i < chars.len() && chars[i] != '\n' {
+                i += 1;
+            }
+        } else if c == '/' && next == Some('*') {
+            let mut depth = 0;
+            while i < chars.len() {
+                if chars[i] == '/' && chars.get(i + 1) == Some(&'*') {
+                    depth += 1;
+                    i += 2;
+                } else if chars[i] == '*' && chars.get(i + 1) == Some(&'/') {
+                    depth -= 1;
+                    i += 2;
+                    if depth == 0 {
+                        break;
+                    }
+                } else {
+                    i += 1;
+                }
+            }
+        } else if c == '"' {
+            let (text, end) = plain_string(&chars, i + 1);
+            tokens.push(Token::Str(text));
+            i = end;
+        } else if (c == 'r' || c == 'b') && raw_string_start(&chars, i).is_some() {
+            let (hashes, open) = raw_string_start(&chars, i).unwrap_or_default();
+            let closing: Vec<char> = std::iter::once('"').chain(std::iter::repeat_n('#', hashes)).collect();
+            let mut end = open;
+            while end < chars.len() && !chars[end..].starts_with(&closing) {
+                end += 1;
+            }
+            tokens.push(Token::Str(chars[open..end].iter().collect()));
+            i = end + closing.len();
+        } else if c == '\'' {
+            // A char literal ('x', '\n', '\'') or a lifetime ('a): skip either.
+            if next == Some('\\') {
+                i += 2;
+                while i < chars.len() && chars[i] != '\'' {
+                    i += 1;
+                }
+                i += 1;
+            } else if chars.get(i + 2) == Some(&'\'') {
+                i += 3;
+            } else {
+                i += 1;
+            }
+        } else if c.is_alphanumeric() || c == '_' {
+            let start = i;
+            while i < chars.len() && (chars[i].is_alphanumeric() || chars[i] == '_') {
+                i += 1;
+            }
+            tokens.push(Token::Ident(chars[start..i].iter().collect()));
+        } else {
+            if !c.is_whitespace() {
+                tokens.push(Token::Punct(c));
+            }
+            i += 1;
+        }
+    }
+    tokens
+}
+
+/// The text of a `"…"` literal whose body starts at `start`, and where it ends.
+fn plain_string(chars: &[char], start: usize) -> (String, usize) {
+    let mut text = String::new();
+    let mut i = start;
+    while i < chars.len() && chars[i] != '"' {
+        if chars[i] == '\\' {
+            i += 1;
+        }
+        if let Some(&c) = chars.get(i) {
+            text.push(c);
+        }
+        i += 1;
+    }
+    (text, i + 1)
+}
+
+/// When `r"`, `r#"`, `br"`… starts at `at` (and is not the end of an identifier): the
+/// number of `#`s and where the body starts.
+fn raw_string_start(chars: &[char], at: usize) -> Option<(usize, usize)> {
+    if at > 0 && (chars[at - 1].is_alphanumeric() || chars[at - 1] == '_') {
+        return None;
+    }
+    let mut i = at;
+    if chars[i] == 'b' {
+        i += 1;
+        if chars.get(i) == Some(&'"') {
+            return Some((0, i + 1));
+        }
+    }
+    if chars.get(i) != Some(&'r') {
+        return None;
+    }
+    i += 1;
+    let hashes = chars[i..].iter().take_while(|c| **c == '#').count();
+    (chars.get(i + hashes) == Some(&'"')).then_some((hashes, i + hashes + 1))
+}
+
+fn rust_files(dir: &Path, files: &mut Vec<PathBuf>) {
+    for entry in std::fs::read_dir(dir).expect("the app's source folder is readable") {
+        let path = entry.expect("a readable folder entry").path();
+        if path.is_dir() {
+            rust_files(&path, files);
+        } else if path.extension().is_some_and(|e| e == "rs") {
+            files.push(path);
+        }
+    }
+}
+
+/// The app's source files, without this test (which names ids of its own).
+fn source_files() -> Vec<(PathBuf, Vec<Token>)> {
+    let mut files = Vec::new();
+    rust_files(&app_dir().join("src"), &mut files);
+    files.sort();
+    files
+        .into_iter()
+        .filter(|path| !path.ends_with("data/words/tests.rs"))
+        .map(|path| {
+            let source = std::fs::read_to_string(&path).expect("a readable source file");
+            (path, tokenize(&source))
+        })
+        .collect()
+}
+
+/// The message ids the code asks for: the literal first argument of every `t(…)` and
+/// `t_args(…)` call. A call whose id is not a literal is an error, since no test could
+/// then say whether its message exists.
+fn ids_used(files: &[(PathBuf, Vec<Token>)]) -> BTreeMap<String, PathBuf> {
+    let mut used = BTreeMap::new();
+    for (path, tokens) in files {
+        for (i, token) in tokens.iter().enumerate() {
+            let Token::Ident(name) = token else { continue };
+            let is_call = (name == "t" || name == "t_args") && tokens.get(i + 1) == Some(&Token::Punct('('));
+            let is_definition = i > 0 && tokens[i - 1] == Token::Ident("fn".to_owned());
+            if !is_call || is_definition {
+                continue;
+            }
+            match tokens.get(i + 2) {
+                Some(Token::Str(id)) => {
+                    used.entry(id.clone()).or_insert_with(|| path.clone());
+                }
+                other => panic!("{}: {name}(…) with an id that is not a literal: {other:?}", path.display()),
+            }
+        }
+    }
+    used
+}
+
+fn catalogues() -> Vec<(&'static str, Placeholders)> {
+    LANGUAGES.iter().map(|(code, _, source)| (*code, placeholders(code, source))).collect()
+}
+
+#[test]
+fn every_id_the_code_uses_is_in_every_catalogue_and_no_catalogue_has_others() {
+    let used = ids_used(&source_files());
+    assert!(used.len() > 50, "the scan found only {} ids: is it reading the code?", used.len());
+    for (code, messages) in catalogues() {
+        let missing: Vec<String> = used
+            .iter()
+            .filter(|(id, _)| !messages.contains_key(*id))
+            .map(|(id, p)| format!("{id} ({})", p.display()))
+            .collect();
+        assert!(missing.is_empty(), "{code}: missing from the catalogue: {missing:#?}");
+        let unused: Vec<&String> = messages.keys().filter(|id| !used.contains_key(*id)).collect();
+        assert!(unused.is_empty(), "{code}: in the catalogue but used by no code: {unused:#?}");
+    }
+}
+
+#[test]
+fn each_message_has_the_same_placeholders_in_every_language() {
+    let catalogues = catalogues();
+    let (first_code, first) = &catalogues[0];
+    for (code, messages) in &catalogues[1..] {
+        for (id, names) in first {
+            let Some(theirs) = messages.get(id) else { panic!("{code}: {id} is missing") };
+            assert_eq!(names, theirs, "{id}: placeholders in {first_code} and {code} differ");
+        }
+    }
+}
+
+/// Attributes whose values are never shown to people as words.
+const TECHNICAL_ATTRIBUTES: [&str; 22] = [
+    "class",
+    "id",
+    "type",
+    "href",
+    "name",
+    "for",
+    "role",
+    "accept",
+    "capture",
+    "inputmode",
+    "autocomplete",
+    "step",
+    "min",
+    "max",
+    "pattern",
+    "rel",
+    "target",
+    "download",
+    "value",
+    "src",
+    "lang",
+    "style",
+];
+
+/// Literals in screen files that are not words for people: CSS classes chosen in code,
+/// the screens' `#…` addresses, element ids, values of form controls and routes.
+const TECHNICAL_LITERALS: [&str; 15] = [
+    "#urgent",
+    "#samples",
+    "#people",
+    "#review",
+    "#figures",
+    "wrackline",
+    "#safety",
+    "pill online",
+    "pill offline",
+    "my-record",
+    "my-record asked",
+    "#6b7b80",
+    "#e07a1f",
+    "record-form",
+    "tel:{number}",
+];
+
+/// Screen files whose words are not yet in the catalogues: they show English in every
+/// language until they are moved. The test fails when a listed file has no words left,
+/// so the list only shrinks.
+const NOT_YET_IN_CATALOGUE: [&str; 17] = [
+    "downloads.rs",
+    "fieldwork/carcass.rs",
+    "fieldwork/lookup.rs",
+    "fieldwork/on_record.rs",
+    "fieldwork/response.rs",
+    "fieldwork/samples.rs",
+    "fieldwork/urgent.rs",
+    "figures.rs",
+    "people.rs",
+    "record/key.rs",
+    "record/photos.rs",
+    "record/pictures.rs",
+    "review/duplicates.rs",
+    "review/mod.rs",
+    "review/queue.rs",
+    "review/record.rs",
+    "review/zoom.rs",
+];
+
+/// Every literal with letters in a screen file that is not a message id, a placeholder's
+/// name, a technical attribute's value or a listed technical literal: words that would
+/// be shown in one language only. What this does not see: words built in `data/`
+/// modules (those pass through [`t`] by review, not by this check), and words that
+/// arrive from the server (its error messages stay in English by design).
+fn words_left_in_screens(files: &[(PathBuf, Vec<Token>)]) -> Vec<String> {
+    let mut found = Vec::new();
+    for (path, tokens) in files.iter().filter(|(path, _)| path.components().any(|c| c.as_os_str() == "screens")) {
+        let mut i = 0;
+        while i < tokens.len() {
+            // Attributes (`#[cfg(feature = "desk")]`) are code, not words.
+            if tokens[i] == Token::Punct('#') && tokens.get(i + 1) == Some(&Token::Punct('[')) {
+                i = closing(tokens, i + 1, '[', ']');
+                continue;
+            }
+            if let Token::Ident(name) = &tokens[i]
+                && (name == "t" || name == "t_args")
+                && tokens.get(i + 1) == Some(&Token::Punct('('))
+            {
+                i = closing(tokens, i + 1, '(', ')');
+                continue;
+            }
+            if let Token::Str(text) = &tokens[i]
+                && has_words(text)
+                && !after_technical_attribute(tokens, i)
+                && !TECHNICAL_LITERALS.contains(&text.as_str())
+            {
+                found.push(format!("{}: {text:?}", path.display()));
+            }
+            i += 1;
+        }
+    }
+    found
+}
+
+/// Whether `text` has letters outside `{…}` placeholders.
+fn has_words(text: &str) -> bool {
+    let mut depth = 0;
+    text.chars().any(|c| {
+        match c {
+            '{' => depth += 1,
+            '}' => depth -= 1,
+            _ => {}
+        }
+        depth == 0 && c.is_alphabetic()
+    })
+}
+
+/// Whether the literal at `i` is the value of a technical attribute (`class="…"`).
+fn after_technical_attribute(tokens: &[Token], i: usize) -> bool {
+    if i < 2 || tokens[i - 1] != Token::Punct('=') {
+        return false;
+    }
+    matches!(&tokens[i - 2], Token::Ident(name) if TECHNICAL_ATTRIBUTES.contains(&name.as_str()))
+}
+
+/// The index just after the `close` matching the `open_char` at `open`.
+fn closing(tokens: &[Token], open: usize, open_char: char, close: char) -> usize {
+    let mut depth = 0;
+    for (i, token) in tokens.iter().enumerate().skip(open) {
+        match token {
+            Token::Punct(c) if *c == open_char => depth += 1,
+            Token::Punct(c) if *c == close => {
+                depth -= 1;
+                if depth == 0 {
+                    return i + 1;
+                }
+            }
+            _ => {}
+        }
+    }
+    tokens.len()
+}
+
+#[test]
+fn no_screen_keeps_words_of_its_own() {
+    let left = words_left_in_screens(&source_files());
+    let pending = |line: &String| NOT_YET_IN_CATALOGUE.iter().any(|file| line.contains(&format!("screens/{file}:")));
+    let unlisted: Vec<&String> = left.iter().filter(|line| !pending(line)).collect();
+    assert!(
+        unlisted.is_empty(),
+        "words in screen files that are not in the catalogues ({}): {unlisted:#?}",
+        unlisted.len()
+    );
+    for file in NOT_YET_IN_CATALOGUE {
+        assert!(
+            left.iter().any(|line| line.contains(&format!("screens/{file}:"))),
+            "{file} has no words of its own left: take it off NOT_YET_IN_CATALOGUE"
+        );
+    }
+}
+
+#[test]
+fn the_scans_see_what_they_look_for() {
+    let tokens = tokenize(r#"let a = t("one-id"); view! { <p class="x">"Hello"</p> } // t("in-a-comment")"#);
+    let files = vec![(PathBuf::from("src/screens/x.rs"), tokens)];
+    assert_eq!(ids_used(&files).keys().collect::<Vec<_>>(), ["one-id"]);
+    assert_eq!(words_left_in_screens(&files), ["src/screens/x.rs: \"Hello\""]);
+    let raw = tokenize(r###"r#"a "quoted" b"# 'c' 'life x"###);
+    assert_eq!(raw[0], Token::Str("a \"quoted\" b".to_owned()));
+}
+
+#[test]
+fn the_language_is_the_first_one_the_app_speaks() {
+    let tags = |list: &[&str]| list.iter().map(|s| s.to_string()).collect::<Vec<_>>();
+    assert_eq!(pick_language(tags(&["cy-GB", "en-GB"])), "cy");
+    assert_eq!(pick_language(tags(&["fr-FR", "en-US"])), "en");
+    assert_eq!(pick_language(tags(&["de"])), "en");
+    assert_eq!(pick_language(tags(&[])), "en");
+    assert_eq!(pick_language(tags(&["CY"])), "cy");
+}

@@ -1,0 +1,128 @@
+// The app in its second language (Welsh, `cy`), as a phone set to Welsh opens it: the
+// language comes from the browser's languages, the walker's path (cautions, a record
+// saved offline, sent when the connection returns, My records) shows the catalogue's
+// Welsh words with dates formatted for Welsh, the switch on the page changes the language
+// and keeps the choice on the device, and the desk's page, sign-in and safety screen
+// speak Welsh too. Each assertion fails if a screen falls back to English.
+import { test, before, after } from 'node:test';
+import assert from 'node:assert/strict';
+import { startServer, launchBrowser, REVIEWER, eventually } from './harness.mjs';
+
+const HOME = { latitude: 52.4153, longitude: -4.0829, accuracy: 7 };
+
+let browser;
+let server;
+before(async () => {
+  browser = await launchBrowser();
+  server = await startServer({ env: { WRACKLINE_RESPONDERS_PHONE: '0800 000 0000 (invented demo stranding line)' } });
+});
+after(async () => {
+  await browser?.close();
+  server?.stop();
+});
+
+// A phone whose browser is set to Welsh (Playwright's `locale` sets navigator.languages
+// and Accept-Language).
+function welshPhone() {
+  return browser.newContext({
+    viewport: { width: 390, height: 844 }, geolocation: HOME, permissions: ['geolocation'],
+    timezoneId: 'Europe/London', locale: 'cy-GB',
+  });
+}
+
+const text = (page, selector) => page.textContent(selector);
+
+test('a walker whose phone is set to Welsh records offline, syncs and reads My records in Welsh', async () => {
+  const context = await welshPhone();
+  try {
+    const page = await context.newPage();
+    await page.goto(server.url);
+    await page.waitForSelector('#safety-ok', { timeout: 15000 });
+    assert.equal(await page.getAttribute('html', 'lang'), 'cy');
+    // The cautions before the first record, in Welsh, never left in English.
+    const cautions = await text(page, '.safety-card');
+    assert.match(cautions, /Cyn eich cofnod cyntaf/);
+    assert.match(cautions, /Wylwyr y Glannau/);
+    assert.match(cautions, /0800 000 0000/);
+    assert.doesNotMatch(cautions, /Keep back|venomous|coastguard/);
+    assert.equal(await text(page, '#safety-ok'), 'Rwyf wedi darllen hwn');
+    await page.click('#safety-ok');
+    await page.waitForFunction(() => navigator.serviceWorker?.controller, null, { timeout: 15000 });
+
+    assert.equal(await text(page, '#record-form h2'), 'Cofnod newydd');
+    await context.setOffline(true);
+    await page.waitForFunction(() => document.querySelector('#connection')?.textContent.startsWith('all-lein'));
+    await page.fill('#species', 'morgi mannog bach');
+    await page.selectOption('#condition', 'fresh_dead');
+    await page.selectOption('#setting', 'beach_stranding');
+    // The choices of the form's menus are Welsh too.
+    assert.equal(await page.$eval('#condition option[value="fresh_dead"]', (o) => o.textContent), 'newydd farw');
+    await page.click('#save-send');
+    await page.waitForFunction(() => /Wedi'i gadw ar y ffôn hwn/.test(document.querySelector('#saved-note')?.textContent));
+    await page.waitForFunction(() => document.querySelector('.outbox-entry .state')?.textContent === 'yn aros i anfon');
+    assert.match(await text(page, '.outbox-entry .summary'), /1 llun|dim lluniau/);
+    assert.equal((await server.records()).length, 0, 'nothing reaches the server while offline');
+
+    await context.setOffline(false);
+    await page.click('#send-now');
+    await page.waitForFunction(() => document.querySelector('.outbox-entry .state')?.textContent === "wedi'i dderbyn gan y gweinydd",
+      null, { timeout: 15000 });
+    await eventually('the record on the server', async () => (await server.records()).length === 1);
+
+    assert.equal(await text(page, '#my-records-heading'), 'Fy nghofnodion');
+    await page.waitForSelector('#my-records .my-record', { timeout: 15000 });
+    assert.equal(await text(page, '.my-record .review-state'), 'yn aros am adolygydd');
+    // The day as the browser's Intl writes it for Welsh (Debian's Chromium has no Welsh
+    // month names and writes "2026 M12 5"; Node's ICU writes "5 Rhag 2026"), not the ISO form.
+    const today = await page.evaluate(() => new Intl.DateTimeFormat('cy', { dateStyle: 'medium' }).format(new Date()));
+    assert.doesNotMatch(await text(page, '.my-record'), /\d{4}-\d{2}-\d{2}/);
+    assert.match(await text(page, '.my-record'), new RegExp(today.replace(/[.*+?^${}()|[\]\\]/g, '\\$&')));
+  } finally {
+    await context.close();
+  }
+});
+
+test('the switch on the page changes the language and the phone keeps the choice', async () => {
+  const context = await welshPhone();
+  try {
+    const page = await context.newPage();
+    await page.goto(server.url);
+    await page.waitForSelector('#safety-ok', { timeout: 15000 });
+    assert.equal(await text(page, '#safety-link'), 'Diogelwch');
+    await Promise.all([page.waitForEvent('load'), page.selectOption('#language', 'en')]);
+    await page.waitForSelector('#safety-ok', { timeout: 15000 });
+    assert.equal(await text(page, '#safety-link'), 'Safety');
+    assert.equal(await page.getAttribute('html', 'lang'), 'en');
+    // Kept on the device: a new visit on the Welsh-speaking browser stays in English.
+    await page.reload();
+    await page.waitForSelector('#safety-ok', { timeout: 15000 });
+    assert.equal(await text(page, '#safety-ok'), 'I have read this');
+  } finally {
+    await context.close();
+  }
+});
+
+test("the desk's page, sign-in and safety screen speak Welsh", async () => {
+  const context = await browser.newContext({ viewport: { width: 1280, height: 900 }, locale: 'cy-GB' });
+  try {
+    const page = await context.newPage();
+    await page.goto(`${server.url}/desk/`);
+    await page.waitForSelector('#sign-in', { timeout: 15000 });
+    assert.equal(await text(page, '#urgent-link'), 'Anifeiliaid byw');
+    assert.equal(await text(page, '#phone-link'), 'Cofnodi canfyddiad');
+    assert.match(await text(page, 'main'), /Mewngofnodi/);
+    assert.match(await text(page, 'main'), /Cyfrinair/);
+    await page.fill('#username', REVIEWER.username);
+    await page.fill('#password', REVIEWER.password);
+    await page.click('#sign-in button[type=submit]');
+    await page.waitForSelector('#sign-in', { state: 'detached', timeout: 15000 });
+    await page.goto(`${server.url}/desk/#safety`);
+    await page.waitForSelector('#safety', { timeout: 15000 });
+    const safety = await text(page, '#safety');
+    assert.match(safety, /Diogelwch ar y traeth/);
+    assert.match(safety, /Mae'r pigau'n wenwynig/);
+    assert.doesNotMatch(safety, /venomous/);
+  } finally {
+    await context.close();
+  }
+});
