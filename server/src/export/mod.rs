@@ -19,8 +19,8 @@ pub mod events;
 pub mod filters;
 pub mod geojson;
 pub mod occurrence;
-pub mod samples;
 pub mod published;
+pub mod samples;
 pub mod terms;
 
 use std::io::Write;
