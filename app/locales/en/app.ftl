@@ -293,3 +293,28 @@ fix-age-minutes = { $n } min old
 fix-age-hours = { $n } h old
 fix-age-days = { $n } days old
 fix-within = within { $metres } m, { $age }
+
+## Live animals for responders (desk)
+
+urgent-heading = Live animals
+urgent-keep-back = Keep back, and keep dogs and people back: a shark can bite and a ray's spine can sting, even when it seems weak.
+urgent-local-rules = Local rules and the directions of the responders in charge come first. Watch the tide.
+urgent-none = No live animals reported.
+urgent-awaiting = awaiting a response
+urgent-answered = response logged
+urgent-unnamed = unnamed
+urgent-within = { " " }(within { $metres } m)
+urgent-no-place = no position given
+urgent-map = open in the map app
+urgent-web-map = OpenStreetMap
+urgent-finder-wrote = The finder wrote: “{ $notes }”
+urgent-nothing-written = The finder wrote nothing more.
+urgent-finder = Finder: { $name } · { $contact }
+urgent-no-name = no name given
+urgent-no-contact = no contact given
+urgent-not-told = No notification channel is set up for the responders.
+urgent-photo = photo { $number } of the animal
+urgent-time = seen { $seen } · received { $received }
+urgent-log = Log a response
+urgent-close-form = Close the form
+urgent-reload = Refresh

@@ -144,6 +144,21 @@ pub fn photo_says(exif: &PhotoExif) -> String {
     format!("photo says: {when} · {place}")
 }
 
+/// Where the server serves a received photo's copy, by the original's SHA-256.
+pub fn served(sha256: &str) -> String {
+    format!("/photos/{sha256}")
+}
+
+/// Where the server serves a received photo's thumbnail.
+pub fn served_thumb(sha256: &str) -> String {
+    format!("/photos/{sha256}/thumb")
+}
+
+/// Where the server serves a received photo's original file, EXIF and all.
+pub fn served_original(sha256: &str) -> String {
+    format!("/photos/{sha256}/original")
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;

@@ -4,12 +4,33 @@
 //! compare a photo with its record. A photo's time and place are shown with the reading
 //! the server compared for each (the received file's or the phone's), saying which.
 
-use chrono::{DateTime, FixedOffset};
+use chrono::{DateTime, FixedOffset, TimeZone, Utc};
 use shared_types::{ExifReading, OffsetSource, PhotoCheck, PhotoExif};
 
 /// "2025-06-01 09:30 +01:00".
 pub fn time(at: &DateTime<FixedOffset>) -> String {
     at.format("%Y-%m-%d %H:%M %:z").to_string()
+}
+
+/// "2025-06-01 08:30 UTC": a moment the server set, in UTC.
+pub fn utc_minute(at: &DateTime<Utc>) -> String {
+    at.format("%Y-%m-%d %H:%M UTC").to_string()
+}
+
+/// "2025-06-01 09:30", in the moment's own offset (which is not shown).
+pub fn minute<Tz: TimeZone>(at: &DateTime<Tz>) -> String
+where
+    Tz::Offset: std::fmt::Display,
+{
+    at.format("%Y-%m-%d %H:%M").to_string()
+}
+
+/// "2025-06-01", in the moment's own offset.
+pub fn day<Tz: TimeZone>(at: &DateTime<Tz>) -> String
+where
+    Tz::Offset: std::fmt::Display,
+{
+    at.format("%Y-%m-%d").to_string()
 }
 
 /// Which reading a photo's comparison with the record used, field by field, in words:
@@ -58,6 +79,9 @@ mod tests {
     fn a_time_is_the_minute_and_the_offset() {
         let at = DateTime::parse_from_rfc3339("2025-06-01T09:30:59.75+01:00").unwrap();
         assert_eq!(time(&at), "2025-06-01 09:30 +01:00");
+        assert_eq!(minute(&at), "2025-06-01 09:30");
+        assert_eq!(day(&at), "2025-06-01");
+        assert_eq!(utc_minute(&at.with_timezone(&Utc)), "2025-06-01 08:30 UTC");
     }
 
     #[test]

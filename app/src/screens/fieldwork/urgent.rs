@@ -7,38 +7,22 @@ use leptos::prelude::*;
 use shared_types::{Role, UrgentItem};
 
 use crate::data::fieldwork::{map_link, notification_words, web_map_link};
-use crate::data::{api, readable};
+use crate::data::words::{self, t, t_args};
+use crate::data::{api, labels, photos, readable};
 use crate::screens::fieldwork::response::{ResponseForm, ResponseLog};
-
-mod words {
-    pub const HEADING: &str = "Live animals";
-    pub const CAUTIONS: [&str; 3] = [
-        "Keep back, and keep dogs and people back: a shark can bite and a ray's spine can sting, even when it seems weak.",
-        "Do not drag or push it back to sea unless you are trained: you can hurt it and yourself.",
-        "Local rules and the directions of the responders in charge come first. Watch the tide.",
-    ];
-    pub const NONE: &str = "No live animals reported.";
-    pub const AWAITING: &str = "awaiting a response";
-    pub const ANSWERED: &str = "response logged";
-    pub const NO_PLACE: &str = "no position given";
-    pub const MAP: &str = "open in the map app";
-    pub const WEB_MAP: &str = "OpenStreetMap";
-    pub const FINDER_SAID: &str = "The finder wrote";
-    pub const NOTHING_WRITTEN: &str = "The finder wrote nothing more.";
-    pub const FINDER: &str = "Finder";
-    pub const NO_CONTACT: &str = "no contact given";
-    pub const NOT_TOLD: &str = "No notification channel is set up for the responders.";
-    pub const LOG: &str = "Log a response";
-    pub const CLOSE: &str = "Close the form";
-    pub const RELOAD: &str = "Refresh";
-}
 
 /// What was found, how many, and how big.
 fn headline(item: &UrgentItem) -> String {
     let sub = &item.record.submission;
-    let what = sub.species_guess.as_ref().map(|g| g.as_str().to_owned()).unwrap_or_else(|| "unnamed".into());
-    let size = sub.length.map(|l| format!(", {:.0} cm {}", l.value.centimetres(), l.kind.label())).unwrap_or_default();
-    format!("{what} × {}{size} · {}", sub.count.get(), sub.setting.label())
+    let what = sub.species_guess.as_ref().map(|g| g.as_str().to_owned()).unwrap_or_else(|| t("urgent-unnamed"));
+    let size = sub
+        .length
+        .map(|l| {
+            let cm = words::number(l.value.centimetres(), 0);
+            t_args("record-summary-length", &[("cm", cm.into()), ("kind", labels::length_kind(l.kind).into())])
+        })
+        .unwrap_or_default();
+    format!("{what} × {}{size} · {}", sub.count.get(), labels::setting(sub.setting))
 }
 
 #[component]
@@ -53,34 +37,37 @@ fn UrgentEntry(
     let place = match sub.position {
         Some(p) => {
             let (lat, lon) = (p.latitude.get(), p.longitude.get());
-            let within = p.accuracy_m.map(|a| format!(" (within {:.0} m)", a.get())).unwrap_or_default();
+            let within = p
+                .accuracy_m
+                .map(|a| t_args("urgent-within", &[("metres", words::number(a.get(), 0).into())]))
+                .unwrap_or_default();
             view! {
                 <p class="urgent-place">{format!("{lat:.5}, {lon:.5}{within} · ")}
-                    <a class="map-link" href=map_link(lat, lon)>{words::MAP}</a>" · "
-                    <a class="map-link" href=web_map_link(lat, lon) rel="noopener" target="_blank">{words::WEB_MAP}</a>
+                    <a class="map-link" href=map_link(lat, lon)>{t("urgent-map")}</a>" · "
+                    <a class="map-link" href=web_map_link(lat, lon) rel="noopener" target="_blank">{t("urgent-web-map")}</a>
                 </p>
             }
             .into_any()
         }
-        None => view! { <p class="urgent-place">{words::NO_PLACE}</p> }.into_any(),
+        None => view! { <p class="urgent-place">{t("urgent-no-place")}</p> }.into_any(),
     };
     let wrote = match &sub.notes {
-        Some(n) => format!("{}: \u{201c}{}\u{201d}", words::FINDER_SAID, n.as_str()),
-        None => words::NOTHING_WRITTEN.to_owned(),
+        Some(n) => t_args("urgent-finder-wrote", &[("notes", n.as_str().into())]),
+        None => t("urgent-nothing-written"),
     };
     let finder = item.finder.clone().map(|f| {
-        let name = f.display_name.unwrap_or_else(|| "no name given".into());
-        let reach = f.contact.unwrap_or_else(|| words::NO_CONTACT.into());
-        view! { <p class="urgent-finder">{format!("{}: {name} · {reach}", words::FINDER)}</p> }
+        let name = f.display_name.unwrap_or_else(|| t("urgent-no-name"));
+        let reach = f.contact.unwrap_or_else(|| t("urgent-no-contact"));
+        view! { <p class="urgent-finder">{t_args("urgent-finder", &[("name", name.into()), ("contact", reach.into())])}</p> }
     });
     let told = if item.notifications.is_empty() {
-        view! { <p class="hint">{words::NOT_TOLD}</p> }.into_any()
+        view! { <p class="hint">{t("urgent-not-told")}</p> }.into_any()
     } else {
         let lines = item.notifications.iter().map(|n| view! { <li>{notification_words(n)}</li> }).collect_view();
         view! { <ul class="notifications">{lines}</ul> }.into_any()
     };
     let photos = item.record.photos.iter().enumerate().map(|(i, p)| view! {
-        <a href=format!("/photos/{}", p.sha256) target="_blank"><img class="urgent-photo" src=format!("/photos/{}/thumb", p.sha256) alt=format!("photo {} of the animal", i + 1) /></a>
+        <a href=photos::served(&p.sha256) target="_blank"><img class="urgent-photo" src=photos::served_thumb(&p.sha256) alt=t_args("urgent-photo", &[("number", (i + 1).into())]) /></a>
     }).collect_view();
     let (form_id, toggle_id) = (id.clone(), id.clone());
     let is_open = move || open.with(|o| o.as_deref() == Some(toggle_id.as_str()));
@@ -90,17 +77,17 @@ fn UrgentEntry(
     };
     let is_open_label = is_open.clone();
     view! {
-        <li class=if awaiting { "urgent-item awaiting card" } else { "urgent-item card" } data-client-id=id>
-            <p class="urgent-state"><span class="badge">{if awaiting { words::AWAITING } else { words::ANSWERED }}</span></p>
+        <li class="urgent-item card" class:awaiting=awaiting data-client-id=id>
+            <p class="urgent-state"><span class="badge">{if awaiting { t("urgent-awaiting") } else { t("urgent-answered") }}</span></p>
             <h3>{headline(&item)}</h3>
-            <p class="urgent-time">{format!("seen {} · received {}", readable::time(&sub.observed_at), item.record.received_at.format("%Y-%m-%d %H:%M UTC"))}</p>
+            <p class="urgent-time">{t_args("urgent-time", &[("seen", readable::time(&sub.observed_at).into()), ("received", readable::utc_minute(&item.record.received_at).into())])}</p>
             {place}
             <p class="urgent-wrote">{wrote}</p>
             <div class="photos">{photos}</div>
             {finder}
             {told}
             <ResponseLog responses=item.responses.clone() />
-            <button type="button" class="small response-toggle" on:click=toggle>{move || if is_open_label() { words::CLOSE } else { words::LOG }}</button>
+            <button type="button" class="small response-toggle" on:click=toggle>{move || if is_open_label() { t("urgent-close-form") } else { t("urgent-log") }}</button>
             <Show when=is_open.clone()>
                 <ResponseForm client_id=form_id.clone() done=move || { open.set(None); reload(); } />
             </Show>
@@ -128,14 +115,16 @@ pub fn UrgentScreen(role: Role) -> impl IntoView {
     reload();
     view! {
         <section id="urgent" class="card review" data-role=role.code()>
-            <h2>{words::HEADING}</h2>
+            <h2>{t("urgent-heading")}</h2>
             <ul id="urgent-cautions" class="safety live-animal" role="note">
-                {words::CAUTIONS.iter().map(|c| view! { <li>{*c}</li> }).collect_view()}
+                <li>{t("urgent-keep-back")}</li>
+                <li>{t("live-no-pushing")}</li>
+                <li>{t("urgent-local-rules")}</li>
             </ul>
-            <button id="urgent-reload" type="button" class="small" on:click=move |_| reload()>{words::RELOAD}</button>
+            <button id="urgent-reload" type="button" class="small" on:click=move |_| reload()>{t("urgent-reload")}</button>
             <p class="problems" role="alert">{move || problem.get()}</p>
             {move || items.get().map(|list| if list.is_empty() {
-                view! { <p id="urgent-none" class="hint">{words::NONE}</p> }.into_any()
+                view! { <p id="urgent-none" class="hint">{t("urgent-none")}</p> }.into_any()
             } else {
                 view! {
                     <ol id="urgent-list" class="plain">
