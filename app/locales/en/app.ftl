@@ -273,19 +273,6 @@ form-saving = Saving…
 form-save-send = Save and send
 form-keep-draft = Keep as draft
 
-## The desk's page and sign-in (desk)
-
-desk-title = wrackline · desk
-desk-urgent = Live animals
-desk-samples = Samples
-desk-people = People
-desk-record = Record a find
-desk-checking = checking your sign-in…
-sign-in-heading = Sign in
-sign-in-username = Username
-sign-in-password = Password
-sign-in-button = Sign in
-
 ## Position fixes (phone)
 
 fix-age-seconds = { $n } s old
@@ -293,28 +280,3 @@ fix-age-minutes = { $n } min old
 fix-age-hours = { $n } h old
 fix-age-days = { $n } days old
 fix-within = within { $metres } m, { $age }
-
-## Live animals for responders (desk)
-
-urgent-heading = Live animals
-urgent-keep-back = Keep back, and keep dogs and people back: a shark can bite and a ray's spine can sting, even when it seems weak.
-urgent-local-rules = Local rules and the directions of the responders in charge come first. Watch the tide.
-urgent-none = No live animals reported.
-urgent-awaiting = awaiting a response
-urgent-answered = response logged
-urgent-unnamed = unnamed
-urgent-within = { " " }(within { $metres } m)
-urgent-no-place = no position given
-urgent-map = open in the map app
-urgent-web-map = OpenStreetMap
-urgent-finder-wrote = The finder wrote: “{ $notes }”
-urgent-nothing-written = The finder wrote nothing more.
-urgent-finder = Finder: { $name } · { $contact }
-urgent-no-name = no name given
-urgent-no-contact = no contact given
-urgent-not-told = No notification channel is set up for the responders.
-urgent-photo = photo { $number } of the animal
-urgent-time = seen { $seen } · received { $received }
-urgent-log = Log a response
-urgent-close-form = Close the form
-urgent-reload = Refresh

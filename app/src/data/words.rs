@@ -1,5 +1,6 @@
 //! Every word the app shows, in the person's language: the message catalogues in
-//! `app/locales/<language>/app.ftl` (Fluent syntax) are compiled in, one is chosen at
+//! `app/locales/<language>/app.ftl` (Fluent syntax; the desk's own words in `desk.ftl`,
+//! compiled into the desk's bundle only) are compiled in, one is chosen at
 //! start — the one kept on this device by the page's language switch, else the first of
 //! the browser's languages that the app speaks, else English — and [`t`] / [`t_args`]
 //! look a message up by its id. Numbers and dates shown to people are formatted for the
@@ -21,6 +22,12 @@ pub const LANGUAGES: [(&str, &str, &str); 2] = [
     ("en", "English", include_str!("../../locales/en/app.ftl")),
     ("cy", "Cymraeg", include_str!("../../locales/cy/app.ftl")),
 ];
+
+/// The desk's own words per language (code, catalogue), added to the language's
+/// catalogue in the desk's bundle only, so the phone never downloads them.
+#[cfg(any(feature = "desk", test))]
+const DESK_CATALOGUES: [(&str, &str); 2] =
+    [("en", include_str!("../../locales/en/desk.ftl")), ("cy", include_str!("../../locales/cy/desk.ftl"))];
 
 /// Where the language chosen with the switch is kept on this device.
 const CHOSEN_KEY: &str = "wrackline.language";
@@ -85,6 +92,11 @@ fn catalogue_for(code: &str) -> FluentBundle<FluentResource> {
     bundle.set_use_isolating(false);
     let resource = FluentResource::try_new((*source).to_owned()).unwrap_or_else(|(resource, _)| resource);
     bundle.add_resource_overriding(resource);
+    #[cfg(feature = "desk")]
+    if let Some((_, desk)) = DESK_CATALOGUES.iter().find(|(c, _)| c == code) {
+        let resource = FluentResource::try_new((*desk).to_owned()).unwrap_or_else(|(resource, _)| resource);
+        bundle.add_resource_overriding(resource);
+    }
     bundle
 }
 

@@ -243,8 +243,20 @@ fn ids_used(files: &[(PathBuf, Vec<Token>)]) -> BTreeMap<String, PathBuf> {
     used
 }
 
+/// Each language's catalogue: `app.ftl` and the desk's `desk.ftl` together (an id may
+/// be in only one of them).
 fn catalogues() -> Vec<(&'static str, Placeholders)> {
-    LANGUAGES.iter().map(|(code, _, source)| (*code, placeholders(code, source))).collect()
+    LANGUAGES
+        .iter()
+        .map(|(code, _, source)| {
+            let mut messages = placeholders(code, source);
+            let (_, desk) = DESK_CATALOGUES.iter().find(|(c, _)| c == code).expect("every language has desk words");
+            for (id, names) in placeholders(code, desk) {
+                assert!(messages.insert(id.clone(), names).is_none(), "{code}: {id} is in app.ftl and desk.ftl");
+            }
+            (*code, messages)
+        })
+        .collect()
 }
 
 #[test]

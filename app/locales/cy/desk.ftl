@@ -1,0 +1,41 @@
+# Geiriau'r ddesg yn Gymraeg (Welsh), in the desk's bundle only.
+# FIRST DRAFT, not yet checked: written by the developers, to be read and corrected by a
+# native Welsh speaker before use. Same rules as app.ftl.
+
+## The desk's page and sign-in (desk)
+
+desk-title = wrackline · desg
+desk-urgent = Anifeiliaid byw
+desk-samples = Samplau
+desk-people = Pobl
+desk-record = Cofnodi canfyddiad
+desk-checking = yn gwirio eich mewngofnodi…
+sign-in-heading = Mewngofnodi
+sign-in-username = Enw defnyddiwr
+sign-in-password = Cyfrinair
+sign-in-button = Mewngofnodi
+
+## Live animals for responders (desk)
+
+urgent-heading = Anifeiliaid byw
+urgent-keep-back = Cadwch draw, a chadwch gŵn a phobl draw: gall siarc frathu a gall pigyn morgath bigo, hyd yn oed pan fo'n ymddangos yn wan.
+urgent-local-rules = Rheolau lleol a chyfarwyddiadau'r ymatebwyr sy'n gyfrifol sy'n dod gyntaf. Gwyliwch y llanw.
+urgent-none = Dim anifeiliaid byw wedi'u hadrodd.
+urgent-awaiting = yn aros am ymateb
+urgent-answered = ymateb wedi'i gofnodi
+urgent-unnamed = heb enw
+urgent-within = { " " }(o fewn { $metres } m)
+urgent-no-place = dim safle wedi'i roi
+urgent-map = agor yn yr ap mapiau
+urgent-web-map = OpenStreetMap
+urgent-finder-wrote = Ysgrifennodd y canfyddwr: “{ $notes }”
+urgent-nothing-written = Ni ysgrifennodd y canfyddwr ddim mwy.
+urgent-finder = Canfyddwr: { $name } · { $contact }
+urgent-no-name = dim enw wedi'i roi
+urgent-no-contact = dim cyswllt wedi'i roi
+urgent-not-told = Does dim sianel hysbysu wedi'i gosod ar gyfer yr ymatebwyr.
+urgent-photo = llun { $number } o'r anifail
+urgent-time = gwelwyd { $seen } · derbyniwyd { $received }
+urgent-log = Cofnodi ymateb
+urgent-close-form = Cau'r ffurflen
+urgent-reload = Adnewyddu
