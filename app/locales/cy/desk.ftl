@@ -39,3 +39,24 @@ urgent-time = gwelwyd { $seen } · derbyniwyd { $received }
 urgent-log = Cofnodi ymateb
 urgent-close-form = Cau'r ffurflen
 urgent-reload = Adnewyddu
+
+## A live animal's responses (desk)
+
+response-log-heading = Cofnod ymateb
+response-none = Dim ymateb wedi'i gofnodi eto.
+response-went = : aeth { $who }, { $at }
+response-logged-by = { " " }(cofnodwyd gan { $who } ar { $at })
+response-who = Pwy aeth
+response-when = Pryd y cyraeddon nhw (neu pryd y rhoeson nhw'r gorau i chwilio)
+response-outcome = Canlyniad
+response-choose = dewiswch…
+response-notes = Nodiadau
+response-save = Cofnodi'r ymateb
+response-saved = Ymateb wedi'i gofnodi.
+outcome-returned-to-sea = wedi'i ddychwelyd i'r môr
+outcome-died = bu farw
+outcome-euthanised = wedi'i ddifa gan filfeddyg
+outcome-not-found = heb ei ganfod
+outcome-carcass-removed = corff wedi'i symud
+on-record-live = Anifail byw
+on-record-caution = Pwy bynnag sy'n mynd: cadwch draw ohono, peidiwch â'i wthio yn ôl i'r môr oni bai eich bod wedi'ch hyfforddi, a dilynwch yr ymatebwyr sy'n gyfrifol a'r rheolau lleol.

@@ -39,3 +39,24 @@ urgent-time = seen { $seen } · received { $received }
 urgent-log = Log a response
 urgent-close-form = Close the form
 urgent-reload = Refresh
+
+## A live animal's responses (desk)
+
+response-log-heading = Response log
+response-none = No response logged yet.
+response-went = : { $who } went, { $at }
+response-logged-by = { " " }(logged by { $who } on { $at })
+response-who = Who went
+response-when = When they reached it (or stopped looking)
+response-outcome = Outcome
+response-choose = choose…
+response-notes = Notes
+response-save = Log the response
+response-saved = Response logged.
+outcome-returned-to-sea = returned to sea
+outcome-died = died
+outcome-euthanised = euthanised by a vet
+outcome-not-found = not found
+outcome-carcass-removed = carcass removed
+on-record-live = A live animal
+on-record-caution = Whoever goes: keep back from it, do not push it back to sea unless trained, and follow the responders in charge and local rules.

@@ -106,6 +106,9 @@ pub struct ResponseDraft {
 }
 
 impl ResponseDraft {
+    /// The form's fields, as the server names them in its refusals.
+    pub const FIELDS: &[&str] = &["who_went", "went_at", "outcome", "notes"];
+
     /// The report to send, checked as the server checks it.
     pub fn to_report(&self, zone: &impl Zone, now: DateTime<Utc>) -> Result<ResponseReport, FormProblem> {
         let report = ResponseReport {
@@ -131,6 +134,9 @@ pub struct SampleDraft {
 }
 
 impl SampleDraft {
+    /// The form's fields, as the server names them in its refusals.
+    pub const FIELDS: &[&str] = &["kind", "code", "preservation", "stored_at", "held_by", "notes"];
+
     /// The form filled with a stored sample, to change it.
     pub fn from_view(sample: &SampleView) -> Self {
         Self {
@@ -171,6 +177,9 @@ pub struct CarcassDraft {
 }
 
 impl CarcassDraft {
+    /// The form's fields, as the server names them in its refusals.
+    pub const FIELDS: &[&str] = &["fate", "examined_at", "body_condition", "stomach", "injuries", "notes"];
+
     /// The form filled with the stored report, to correct it.
     pub fn from_view(carcass: &CarcassView, zone: &impl Zone) -> Self {
         let report = &carcass.report;

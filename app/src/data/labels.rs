@@ -2,6 +2,8 @@
 //! person's language. `shared-types` keeps the English labels the server writes into
 //! exports; the app shows these instead, one catalogue message per value.
 
+#[cfg(feature = "desk")]
+use shared_types::ResponseOutcome;
 use shared_types::{Condition, HumanSign, LengthKind, LifeStage, Setting};
 
 use crate::data::words::t;
@@ -51,5 +53,17 @@ pub fn human_sign(sign: HumanSign) -> String {
         HumanSign::NetMarks => t("sign-net-marks"),
         HumanSign::FinsRemoved => t("sign-fins-removed"),
         HumanSign::BoatStrike => t("sign-boat-strike"),
+    }
+}
+
+/// The outcome of a response to a live animal (desk only: the words are in `desk.ftl`).
+#[cfg(feature = "desk")]
+pub fn response_outcome(outcome: ResponseOutcome) -> String {
+    match outcome {
+        ResponseOutcome::ReturnedToSea => t("outcome-returned-to-sea"),
+        ResponseOutcome::Died => t("outcome-died"),
+        ResponseOutcome::EuthanisedByVet => t("outcome-euthanised"),
+        ResponseOutcome::NotFound => t("outcome-not-found"),
+        ResponseOutcome::CarcassRemoved => t("outcome-carcass-removed"),
     }
 }

@@ -336,12 +336,10 @@ const TECHNICAL_LITERALS: [&str; 15] = [
 /// Screen files whose words are not yet in the catalogues: they show English in every
 /// language until they are moved. The test fails when a listed file has no words left,
 /// so the list only shrinks.
-const NOT_YET_IN_CATALOGUE: [&str; 16] = [
+const NOT_YET_IN_CATALOGUE: [&str; 14] = [
     "downloads.rs",
     "fieldwork/carcass.rs",
     "fieldwork/lookup.rs",
-    "fieldwork/on_record.rs",
-    "fieldwork/response.rs",
     "fieldwork/samples.rs",
     "figures.rs",
     "people.rs",
@@ -370,8 +368,10 @@ fn words_left_in_screens(files: &[(PathBuf, Vec<Token>)]) -> Vec<String> {
                 i = closing(tokens, i + 1, '[', ']');
                 continue;
             }
+            // Message ids, and the field names (as the server names them) a form problem
+            // is shown beside.
             if let Token::Ident(name) = &tokens[i]
-                && (name == "t" || name == "t_args")
+                && (name == "t" || name == "t_args" || name == "field_note")
                 && tokens.get(i + 1) == Some(&Token::Punct('('))
             {
                 i = closing(tokens, i + 1, '(', ')');

@@ -29,8 +29,6 @@ mod words {
     pub const RECORDED_BY: &str = "recorded by";
 }
 
-const FIELDS: &[&str] = &["fate", "examined_at", "body_condition", "stomach", "injuries", "notes"];
-
 /// The stored report in words, one finding a line.
 fn report_lines(carcass: &CarcassView) -> Vec<String> {
     let r = &carcass.report;
@@ -116,7 +114,7 @@ pub fn CarcassSection(
                 <label>{words::NOTES}<textarea id="carcass-notes" rows="2" prop:value=move || draft.with(|d| d.notes.clone()) on:input=set(|d| &mut d.notes)></textarea></label>
                 {field_note(problem, "notes")}
                 <button id="carcass-save" type="submit" class="primary">{words::SAVE}</button>
-                {form_note(problem, FIELDS)}
+                {form_note(problem, CarcassDraft::FIELDS)}
                 <p id="carcass-note" class="note" role="status">{move || note.get()}</p>
             </form>
         </section>

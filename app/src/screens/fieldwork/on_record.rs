@@ -6,30 +6,25 @@ use leptos::prelude::*;
 use shared_types::ReviewDetail;
 
 use crate::data::fieldwork::notification_words;
+use crate::data::words::t;
 use crate::screens::fieldwork::carcass::CarcassSection;
 use crate::screens::fieldwork::response::{ResponseForm, ResponseLog};
 use crate::screens::fieldwork::samples::SamplesSection;
-
-mod words {
-    pub const LIVE: &str = "A live animal";
-    pub const CAUTION: &str = "Whoever goes: keep back from it, do not push it back to sea unless trained, and follow the responders in charge and local rules.";
-    pub const NOT_TOLD: &str = "No notification channel is set up for the responders.";
-}
 
 #[component]
 pub fn RecordFieldwork(detail: ReviewDetail, reload: impl Fn() + Copy + Send + Sync + 'static) -> impl IntoView {
     let id = detail.record.submission.client_id.to_string();
     let live = detail.urgent.then(|| {
         let told = if detail.notifications.is_empty() {
-            view! { <p class="hint">{words::NOT_TOLD}</p> }.into_any()
+            view! { <p class="hint">{t("urgent-not-told")}</p> }.into_any()
         } else {
             let lines = detail.notifications.iter().map(|n| view! { <li>{notification_words(n)}</li> }).collect_view();
             view! { <ul class="notifications">{lines}</ul> }.into_any()
         };
         view! {
             <section id="record-live" class="fieldwork live-animal">
-                <h4>{words::LIVE}</h4>
-                <p class="safety"><b>{words::CAUTION}</b></p>
+                <h4>{t("on-record-live")}</h4>
+                <p class="safety"><b>{t("on-record-caution")}</b></p>
                 {told}
                 <ResponseLog responses=detail.responses.clone() />
                 <ResponseForm client_id=id.clone() done=reload />

@@ -6,23 +6,9 @@ use shared_types::{ResponseOutcome, ResponseView};
 
 use crate::data::fieldwork::{FormProblem, ResponseDraft, code_of};
 use crate::data::time::{self, BrowserZone};
-use crate::data::{api, readable};
+use crate::data::words::{t, t_args};
+use crate::data::{api, labels, readable};
 use crate::screens::fieldwork::notes::{field_note, form_note};
-
-mod words {
-    pub const LOG_HEADING: &str = "Response log";
-    pub const NO_RESPONSE: &str = "No response logged yet.";
-    pub const WHO: &str = "Who went";
-    pub const WHEN: &str = "When they reached it (or stopped looking)";
-    pub const OUTCOME: &str = "Outcome";
-    pub const CHOOSE: &str = "choose…";
-    pub const NOTES: &str = "Notes";
-    pub const SAVE: &str = "Log the response";
-    pub const SAVED: &str = "Response logged.";
-    pub const LOGGED_BY: &str = "logged by";
-}
-
-const FIELDS: &[&str] = &["who_went", "went_at", "outcome", "notes"];
 
 /// The responses so far, oldest first.
 #[component]
@@ -32,19 +18,23 @@ pub fn ResponseLog(responses: Vec<ResponseView>) -> impl IntoView {
         .into_iter()
         .map(|r| {
             let notes = r.notes.map(|n| format!(" — {n}")).unwrap_or_default();
-            let logged =
-                format!(" ({} {} on {})", words::LOGGED_BY, r.logged_by, r.logged_at.format("%Y-%m-%d %H:%M UTC"));
+            let went =
+                t_args("response-went", &[("who", r.who_went.into()), ("at", readable::time(&r.went_at).into())]);
+            let logged = t_args(
+                "response-logged-by",
+                &[("who", r.logged_by.into()), ("at", readable::utc_minute(&r.logged_at).into())],
+            );
             view! {
                 <li class="response" data-outcome=code_of(&r.outcome)>
-                    <b>{r.outcome.label()}</b>{format!(": {} went, {}{notes}", r.who_went, readable::time(&r.went_at))}
+                    <b>{labels::response_outcome(r.outcome)}</b>{format!("{went}{notes}")}
                     <span class="hint">{logged}</span>
                 </li>
             }
         })
         .collect_view();
     view! {
-        <h4>{words::LOG_HEADING}</h4>
-        {empty.then(|| view! { <p class="hint">{words::NO_RESPONSE}</p> })}
+        <h4>{t("response-log-heading")}</h4>
+        {empty.then(|| view! { <p class="hint">{t("response-none")}</p> })}
         <ol class="response-log">{rows}</ol>
     }
 }
@@ -67,7 +57,7 @@ pub fn ResponseForm(client_id: String, done: impl Fn() + Copy + Send + Sync + 's
             match api::fieldwork::log_response(&id, &report).await {
                 Ok(()) => {
                     problem.set(None);
-                    note.set(words::SAVED.into());
+                    note.set(t("response-saved"));
                     done();
                 }
                 Err(err) => problem.set(Some(FormProblem::from_server(&err))),
@@ -79,19 +69,19 @@ pub fn ResponseForm(client_id: String, done: impl Fn() + Copy + Send + Sync + 's
     };
     view! {
         <form id="response-form" class="fieldwork-form" on:submit=submit>
-            <label>{words::WHO}<input id="response-who" prop:value=move || draft.with(|d| d.who_went.clone()) on:input=set(|d| &mut d.who_went) /></label>
+            <label>{t("response-who")}<input id="response-who" prop:value=move || draft.with(|d| d.who_went.clone()) on:input=set(|d| &mut d.who_went) /></label>
             {field_note(problem, "who_went")}
-            <label>{words::WHEN}<input id="response-when" type="datetime-local" prop:value=move || draft.with(|d| d.went_at.clone()) on:input=set(|d| &mut d.went_at) /></label>
+            <label>{t("response-when")}<input id="response-when" type="datetime-local" prop:value=move || draft.with(|d| d.went_at.clone()) on:input=set(|d| &mut d.went_at) /></label>
             {field_note(problem, "went_at")}
-            <label>{words::OUTCOME}<select id="response-outcome" prop:value=move || draft.with(|d| d.outcome.clone()) on:change=set(|d| &mut d.outcome)>
-                <option value="">{words::CHOOSE}</option>
-                {ResponseOutcome::ALL.iter().map(|o| view! { <option value=code_of(o)>{o.label()}</option> }).collect_view()}
+            <label>{t("response-outcome")}<select id="response-outcome" prop:value=move || draft.with(|d| d.outcome.clone()) on:change=set(|d| &mut d.outcome)>
+                <option value="">{t("response-choose")}</option>
+                {ResponseOutcome::ALL.iter().map(|o| view! { <option value=code_of(o)>{labels::response_outcome(*o)}</option> }).collect_view()}
             </select></label>
             {field_note(problem, "outcome")}
-            <label>{words::NOTES}<textarea id="response-notes" rows="2" prop:value=move || draft.with(|d| d.notes.clone()) on:input=set(|d| &mut d.notes)></textarea></label>
+            <label>{t("response-notes")}<textarea id="response-notes" rows="2" prop:value=move || draft.with(|d| d.notes.clone()) on:input=set(|d| &mut d.notes)></textarea></label>
             {field_note(problem, "notes")}
-            <button id="response-save" type="submit" class="primary">{words::SAVE}</button>
-            {form_note(problem, FIELDS)}
+            <button id="response-save" type="submit" class="primary">{t("response-save")}</button>
+            {form_note(problem, ResponseDraft::FIELDS)}
             <p id="response-note" class="note" role="status">{move || note.get()}</p>
         </form>
     }

@@ -29,8 +29,6 @@ mod words {
     pub const CHANGE_LEGEND: &str = "Change sample";
 }
 
-const FIELDS: &[&str] = &["kind", "code", "preservation", "stored_at", "held_by", "notes"];
-
 /// One sample as a line: what, how kept, where, who, and the trail's who and when.
 pub fn sample_line(s: &SampleView) -> String {
     let notes = s.notes.as_ref().map(|n| format!(" — {n}")).unwrap_or_default();
@@ -143,7 +141,7 @@ pub fn SamplesSection(
                             <button id="sample-cancel" type="button" on:click=cancel>{words::CANCEL}</button>
                         </Show>
                     </div>
-                    {form_note(problem, FIELDS)}
+                    {form_note(problem, SampleDraft::FIELDS)}
                     <p id="sample-note" class="note" role="status">{move || note.get()}</p>
                 </fieldset>
             </form>
