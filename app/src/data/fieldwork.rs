@@ -48,28 +48,8 @@ fn from_code<T: serde::de::DeserializeOwned>(code: &str) -> Option<T> {
     serde_json::from_value(serde_json::Value::String(code.to_owned())).ok()
 }
 
-/// Words for how well fed the animal looked.
-pub fn body_condition_label(condition: BodyCondition) -> &'static str {
-    match condition {
-        BodyCondition::Good => "good",
-        BodyCondition::Fair => "fair",
-        BodyCondition::Poor => "poor",
-        BodyCondition::Emaciated => "emaciated",
-    }
-}
-
 pub const BODY_CONDITIONS: [BodyCondition; 4] =
     [BodyCondition::Good, BodyCondition::Fair, BodyCondition::Poor, BodyCondition::Emaciated];
-
-/// Words for what the stomach held.
-pub fn stomach_label(fill: StomachFill) -> &'static str {
-    match fill {
-        StomachFill::Empty => "empty",
-        StomachFill::SomeFood => "some food",
-        StomachFill::Full => "full",
-        StomachFill::NotExamined => "not examined",
-    }
-}
 
 pub const STOMACH_FILLS: [StomachFill; 4] =
     [StomachFill::Empty, StomachFill::SomeFood, StomachFill::Full, StomachFill::NotExamined];

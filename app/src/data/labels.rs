@@ -3,7 +3,7 @@
 //! exports; the app shows these instead, one catalogue message per value.
 
 #[cfg(feature = "desk")]
-use shared_types::ResponseOutcome;
+use shared_types::{BodyCondition, CarcassFate, Preservation, ResponseOutcome, SampleKind, StomachFill};
 use shared_types::{Condition, HumanSign, LengthKind, LifeStage, Setting};
 
 use crate::data::words::t;
@@ -65,5 +65,64 @@ pub fn response_outcome(outcome: ResponseOutcome) -> String {
         ResponseOutcome::EuthanisedByVet => t("outcome-euthanised"),
         ResponseOutcome::NotFound => t("outcome-not-found"),
         ResponseOutcome::CarcassRemoved => t("outcome-carcass-removed"),
+    }
+}
+
+/// What a sample is (desk only).
+#[cfg(feature = "desk")]
+pub fn sample_kind(kind: SampleKind) -> String {
+    match kind {
+        SampleKind::TissueForGenetics => t("sample-kind-tissue"),
+        SampleKind::Vertebrae => t("sample-kind-vertebrae"),
+        SampleKind::StomachContents => t("sample-kind-stomach-contents"),
+        SampleKind::WholeCarcass => t("sample-kind-whole-carcass"),
+        SampleKind::Other => t("sample-kind-other"),
+    }
+}
+
+/// How a sample is kept (desk only).
+#[cfg(feature = "desk")]
+pub fn preservation(preservation: Preservation) -> String {
+    match preservation {
+        Preservation::Ethanol => t("preservation-ethanol"),
+        Preservation::Frozen => t("preservation-frozen"),
+        Preservation::Dried => t("preservation-dried"),
+        Preservation::Formalin => t("preservation-formalin"),
+        Preservation::Other => t("preservation-other"),
+    }
+}
+
+/// What became of a carcass (desk only).
+#[cfg(feature = "desk")]
+pub fn carcass_fate(fate: CarcassFate) -> String {
+    match fate {
+        CarcassFate::LeftWhereFound => t("fate-left-where-found"),
+        CarcassFate::Buried => t("fate-buried"),
+        CarcassFate::RemovedForDisposal => t("fate-removed-for-disposal"),
+        CarcassFate::TakenForStudy => t("fate-taken-for-study"),
+        CarcassFate::WashedAway => t("fate-washed-away"),
+        CarcassFate::Unknown => t("fate-unknown"),
+    }
+}
+
+/// How well fed the animal looked (desk only).
+#[cfg(feature = "desk")]
+pub fn body_condition(condition: BodyCondition) -> String {
+    match condition {
+        BodyCondition::Good => t("body-condition-good"),
+        BodyCondition::Fair => t("body-condition-fair"),
+        BodyCondition::Poor => t("body-condition-poor"),
+        BodyCondition::Emaciated => t("body-condition-emaciated"),
+    }
+}
+
+/// What the stomach held (desk only).
+#[cfg(feature = "desk")]
+pub fn stomach(fill: StomachFill) -> String {
+    match fill {
+        StomachFill::Empty => t("stomach-empty"),
+        StomachFill::SomeFood => t("stomach-some-food"),
+        StomachFill::Full => t("stomach-full"),
+        StomachFill::NotExamined => t("stomach-not-examined"),
     }
 }

@@ -336,11 +336,9 @@ const TECHNICAL_LITERALS: [&str; 15] = [
 /// Screen files whose words are not yet in the catalogues: they show English in every
 /// language until they are moved. The test fails when a listed file has no words left,
 /// so the list only shrinks.
-const NOT_YET_IN_CATALOGUE: [&str; 14] = [
+const NOT_YET_IN_CATALOGUE: [&str; 12] = [
     "downloads.rs",
-    "fieldwork/carcass.rs",
     "fieldwork/lookup.rs",
-    "fieldwork/samples.rs",
     "figures.rs",
     "people.rs",
     "record/key.rs",

@@ -5,43 +5,31 @@
 use leptos::prelude::*;
 use shared_types::{Preservation, SampleKind, SampleView};
 
-use crate::data::api;
 use crate::data::fieldwork::{FormProblem, SampleDraft, code_of};
+use crate::data::words::{t, t_args};
+use crate::data::{api, labels, readable};
 use crate::screens::fieldwork::notes::{field_note, form_note};
-
-mod words {
-    pub const HEADING: &str = "Samples";
-    pub const NONE: &str = "No samples yet.";
-    pub const KIND: &str = "Kind";
-    pub const CODE: &str = "Sample id or barcode (type or scan)";
-    pub const PRESERVATION: &str = "Preservation";
-    pub const STORED_AT: &str = "Where it is stored";
-    pub const HELD_BY: &str = "Who holds it";
-    pub const NOTES: &str = "Notes";
-    pub const CHOOSE: &str = "choose…";
-    pub const ADD: &str = "Add the sample";
-    pub const SAVE_CHANGE: &str = "Save the change";
-    pub const CHANGE: &str = "Change";
-    pub const CANCEL: &str = "Cancel the change";
-    pub const ADDED: &str = "Sample added.";
-    pub const CHANGED: &str = "Sample changed.";
-    pub const ADD_LEGEND: &str = "Add a sample";
-    pub const CHANGE_LEGEND: &str = "Change sample";
-}
 
 /// One sample as a line: what, how kept, where, who, and the trail's who and when.
 pub fn sample_line(s: &SampleView) -> String {
     let notes = s.notes.as_ref().map(|n| format!(" — {n}")).unwrap_or_default();
-    let changed = s.changed_at.map(|at| format!("; changed {}", at.format("%Y-%m-%d %H:%M UTC"))).unwrap_or_default();
-    format!(
-        "{} · {} · {} · stored at {} · held by {}{notes} (added by {} on {}{changed})",
-        s.code,
-        s.kind.label(),
-        s.preservation.label(),
-        s.stored_at,
-        s.held_by,
-        s.added_by,
-        s.added_at.format("%Y-%m-%d %H:%M UTC")
+    let changed = s
+        .changed_at
+        .map(|at| t_args("samples-changed-at", &[("at", readable::utc_minute(&at).into())]))
+        .unwrap_or_default();
+    t_args(
+        "samples-line",
+        &[
+            ("code", s.code.clone().into()),
+            ("kind", labels::sample_kind(s.kind).into()),
+            ("preservation", labels::preservation(s.preservation).into()),
+            ("stored_at", s.stored_at.clone().into()),
+            ("held_by", s.held_by.clone().into()),
+            ("notes", notes.into()),
+            ("added_by", s.added_by.clone().into()),
+            ("added_at", readable::utc_minute(&s.added_at).into()),
+            ("changed", changed.into()),
+        ],
     )
 }
 
@@ -75,7 +63,7 @@ pub fn SamplesSection(
                     problem.set(None);
                     draft.set(SampleDraft::default());
                     changing.set(None);
-                    note.set(if current.is_some() { words::CHANGED } else { words::ADDED }.into());
+                    note.set(if current.is_some() { t("samples-changed") } else { t("samples-added") });
                     reload();
                 }
                 Err(err) => problem.set(Some(FormProblem::from_server(&err))),
@@ -96,7 +84,7 @@ pub fn SamplesSection(
             view! {
                 <li class="sample" data-code=code.clone()>
                     <span class="sample-line">{line}</span>
-                    <button type="button" class="small sample-change" on:click=start_change>{words::CHANGE}</button>
+                    <button type="button" class="small sample-change" on:click=start_change>{t("samples-change")}</button>
                 </li>
             }
         })
@@ -111,34 +99,34 @@ pub fn SamplesSection(
     };
     view! {
         <section id="samples" class="fieldwork">
-            <h4>{words::HEADING}</h4>
-            {empty.then(|| view! { <p class="hint">{words::NONE}</p> })}
+            <h4>{t("samples-heading")}</h4>
+            {empty.then(|| view! { <p class="hint">{t("samples-none")}</p> })}
             <ul id="samples-list" class="plain">{rows}</ul>
             <form id="sample-form" class="fieldwork-form" on:submit=submit>
                 <fieldset>
-                    <legend>{move || match changing.get() { Some(code) => format!("{} {code}", words::CHANGE_LEGEND), None => words::ADD_LEGEND.to_owned() }}</legend>
-                    <label>{words::KIND}<select id="sample-kind" prop:value=move || draft.with(|d| d.kind.clone()) on:change=set(|d| &mut d.kind)>
-                        <option value="">{words::CHOOSE}</option>
-                        {SampleKind::ALL.iter().map(|k| view! { <option value=code_of(k)>{k.label()}</option> }).collect_view()}
+                    <legend>{move || match changing.get() { Some(code) => t_args("samples-change-legend", &[("code", code.into())]), None => t("samples-add-legend") }}</legend>
+                    <label>{t("samples-kind")}<select id="sample-kind" prop:value=move || draft.with(|d| d.kind.clone()) on:change=set(|d| &mut d.kind)>
+                        <option value="">{t("response-choose")}</option>
+                        {SampleKind::ALL.iter().map(|k| view! { <option value=code_of(k)>{labels::sample_kind(*k)}</option> }).collect_view()}
                     </select></label>
                     {field_note(problem, "kind")}
-                    <label>{words::CODE}<input id="sample-code" autocomplete="off" prop:value=move || draft.with(|d| d.code.clone()) on:input=set(|d| &mut d.code) /></label>
+                    <label>{t("samples-code")}<input id="sample-code" autocomplete="off" prop:value=move || draft.with(|d| d.code.clone()) on:input=set(|d| &mut d.code) /></label>
                     {field_note(problem, "code")}
-                    <label>{words::PRESERVATION}<select id="sample-preservation" prop:value=move || draft.with(|d| d.preservation.clone()) on:change=set(|d| &mut d.preservation)>
-                        <option value="">{words::CHOOSE}</option>
-                        {Preservation::ALL.iter().map(|p| view! { <option value=code_of(p)>{p.label()}</option> }).collect_view()}
+                    <label>{t("samples-preservation")}<select id="sample-preservation" prop:value=move || draft.with(|d| d.preservation.clone()) on:change=set(|d| &mut d.preservation)>
+                        <option value="">{t("response-choose")}</option>
+                        {Preservation::ALL.iter().map(|p| view! { <option value=code_of(p)>{labels::preservation(*p)}</option> }).collect_view()}
                     </select></label>
                     {field_note(problem, "preservation")}
-                    <label>{words::STORED_AT}<input id="sample-stored" prop:value=move || draft.with(|d| d.stored_at.clone()) on:input=set(|d| &mut d.stored_at) /></label>
+                    <label>{t("samples-stored-at")}<input id="sample-stored" prop:value=move || draft.with(|d| d.stored_at.clone()) on:input=set(|d| &mut d.stored_at) /></label>
                     {field_note(problem, "stored_at")}
-                    <label>{words::HELD_BY}<input id="sample-held" prop:value=move || draft.with(|d| d.held_by.clone()) on:input=set(|d| &mut d.held_by) /></label>
+                    <label>{t("samples-held-by")}<input id="sample-held" prop:value=move || draft.with(|d| d.held_by.clone()) on:input=set(|d| &mut d.held_by) /></label>
                     {field_note(problem, "held_by")}
-                    <label>{words::NOTES}<textarea id="sample-notes" rows="2" prop:value=move || draft.with(|d| d.notes.clone()) on:input=set(|d| &mut d.notes)></textarea></label>
+                    <label>{t("response-notes")}<textarea id="sample-notes" rows="2" prop:value=move || draft.with(|d| d.notes.clone()) on:input=set(|d| &mut d.notes)></textarea></label>
                     {field_note(problem, "notes")}
                     <div class="actions">
-                        <button id="sample-save" type="submit" class="primary">{move || if changing.with(Option::is_some) { words::SAVE_CHANGE } else { words::ADD }}</button>
+                        <button id="sample-save" type="submit" class="primary">{move || if changing.with(Option::is_some) { t("samples-save-change") } else { t("samples-add") }}</button>
                         <Show when=move || changing.with(Option::is_some)>
-                            <button id="sample-cancel" type="button" on:click=cancel>{words::CANCEL}</button>
+                            <button id="sample-cancel" type="button" on:click=cancel>{t("samples-cancel")}</button>
                         </Show>
                     </div>
                     {form_note(problem, SampleDraft::FIELDS)}
