@@ -125,3 +125,25 @@ stomach-empty = gwag
 stomach-some-food = ychydig o fwyd
 stomach-full = llawn
 stomach-not-examined = heb ei archwilio
+
+## Finding an animal by a sample (desk)
+
+lookup-heading = Dod o hyd i anifail drwy sampl
+lookup-hint = Teipiwch rif adnabod y sampl, neu sganiwch ei god bar i'r blwch.
+lookup-code = Rhif adnabod neu god bar y sampl
+lookup-find = Chwilio
+lookup-the-sample = Y sampl hwn
+lookup-the-animal = Yr anifail
+lookup-all-samples = Pob sampl o'r anifail hwn
+lookup-trail = Newidiadau
+lookup-seen = gwelwyd { $at } yn { $place }
+lookup-record = cofnod { $id }
+lookup-carcass = Corff: { $fate } (cofnodwyd gan { $who } ar { $day })
+
+## Review states (desk)
+
+state-awaiting-review = yn aros am adolygiad
+state-details-requested = gofynnwyd am fanylion
+state-confirmed = wedi'i gadarnhau
+state-not-confirmable = methu ei gadarnhau
+state-merged = wedi'i gyfuno

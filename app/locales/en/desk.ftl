@@ -125,3 +125,25 @@ stomach-empty = empty
 stomach-some-food = some food
 stomach-full = full
 stomach-not-examined = not examined
+
+## Finding an animal by a sample (desk)
+
+lookup-heading = Find an animal by a sample
+lookup-hint = Type the sample's id, or scan its barcode into the box.
+lookup-code = Sample id or barcode
+lookup-find = Find
+lookup-the-sample = This sample
+lookup-the-animal = The animal
+lookup-all-samples = Every sample of this animal
+lookup-trail = Changes
+lookup-seen = seen { $at } at { $place }
+lookup-record = record { $id }
+lookup-carcass = Carcass: { $fate } (recorded by { $who } on { $day })
+
+## Review states (desk)
+
+state-awaiting-review = awaiting review
+state-details-requested = details requested
+state-confirmed = confirmed
+state-not-confirmable = not confirmable
+state-merged = merged

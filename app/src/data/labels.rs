@@ -3,7 +3,7 @@
 //! exports; the app shows these instead, one catalogue message per value.
 
 #[cfg(feature = "desk")]
-use shared_types::{BodyCondition, CarcassFate, Preservation, ResponseOutcome, SampleKind, StomachFill};
+use shared_types::{BodyCondition, CarcassFate, Preservation, ResponseOutcome, ReviewState, SampleKind, StomachFill};
 use shared_types::{Condition, HumanSign, LengthKind, LifeStage, Setting};
 
 use crate::data::words::t;
@@ -124,5 +124,17 @@ pub fn stomach(fill: StomachFill) -> String {
         StomachFill::SomeFood => t("stomach-some-food"),
         StomachFill::Full => t("stomach-full"),
         StomachFill::NotExamined => t("stomach-not-examined"),
+    }
+}
+
+/// Where a record is in review, as the desk names it (desk only).
+#[cfg(feature = "desk")]
+pub fn review_state(state: ReviewState) -> String {
+    match state {
+        ReviewState::AwaitingReview => t("state-awaiting-review"),
+        ReviewState::DetailsRequested => t("state-details-requested"),
+        ReviewState::Confirmed => t("state-confirmed"),
+        ReviewState::NotConfirmable => t("state-not-confirmable"),
+        ReviewState::Merged => t("state-merged"),
     }
 }

@@ -287,8 +287,9 @@ fn each_message_has_the_same_placeholders_in_every_language() {
     }
 }
 
-/// Attributes whose values are never shown to people as words.
-const TECHNICAL_ATTRIBUTES: [&str; 22] = [
+/// Attributes whose values are never shown to people as words (`field` is the end of
+/// `data-field`, the field a problem is about as the server names it).
+const TECHNICAL_ATTRIBUTES: [&str; 23] = [
     "class",
     "id",
     "type",
@@ -311,6 +312,7 @@ const TECHNICAL_ATTRIBUTES: [&str; 22] = [
     "src",
     "lang",
     "style",
+    "field",
 ];
 
 /// Literals in screen files that are not words for people: CSS classes chosen in code,
@@ -336,9 +338,8 @@ const TECHNICAL_LITERALS: [&str; 15] = [
 /// Screen files whose words are not yet in the catalogues: they show English in every
 /// language until they are moved. The test fails when a listed file has no words left,
 /// so the list only shrinks.
-const NOT_YET_IN_CATALOGUE: [&str; 12] = [
+const NOT_YET_IN_CATALOGUE: [&str; 11] = [
     "downloads.rs",
-    "fieldwork/lookup.rs",
     "figures.rs",
     "people.rs",
     "record/key.rs",
