@@ -147,3 +147,33 @@ state-details-requested = gofynnwyd am fanylion
 state-confirmed = wedi'i gadarnhau
 state-not-confirmable = methu ei gadarnhau
 state-merged = wedi'i gyfuno
+
+## Range and trend figures (desk)
+
+figures-heading = Dosbarthiad a thuedd
+figures-caveat = Mewnbynnau i asesiad o rywogaethau dan fygythiad yw'r ffigurau hyn, nid penderfyniad rhestru: mae'r broses asesu swyddogol yn eu pwyso ochr yn ochr â'r holl dystiolaeth arall.
+figures-taxon = Tacson (rhywogaeth, genws, teulu…)
+figures-records = Cofnodion
+figures-confirmed-only = wedi'u cadarnhau yn unig
+figures-all-records = pob un, wedi'i adolygu neu beidio
+figures-first-period = Cyfnod cyntaf
+figures-first-period-example = e.e. 2015-2019
+figures-second-period = Ail gyfnod
+figures-second-period-example = e.e. 2020-2024
+figures-generation = Hyd cenhedlaeth, mewn blynyddoedd (os nad oes un yn y rhestr wirio)
+figures-show = Dangos
+figures-choose = dewiswch dacson a phwyswch Dangos
+figures-range-empty = Dim cofnodion â safle i weithio ohonynt ({ $used }). Mae cofnodion yn cyfrif unwaith y bydd adolygwyr yn eu cadarnhau; dewiswch "pob un, wedi'i adolygu neu beidio" dan Cofnodion i weld pob cofnod sydd wedi'i gadw.
+figures-eoo-raised = { " " }Codwyd yr EOO i'r AOO am fod y cragen yn llai (IUCN Guidelines §4.9).
+figures-range-of = Dosbarthiad { $name }
+figures-records-used = Cofnodion a ddefnyddiwyd: { $used }.
+figures-figure = Ffigur
+figures-change = Newid
+figures-range-method = EOO: arwynebedd y polygon amgrwm lleiaf o amgylch y cofnodion, geodesig ar WGS84 (wedi'i godi i'r AOO pan fo'n llai). AOO: celloedd 2 × 2 km â chofnod × 4 km². AOO lleiaf: y nifer lleiaf o gelloedd â chofnod dros 16 tarddbwynt grid wedi'u symud chwarter cell. Safleoedd: safleoedd o leiaf tua 10 m oddi wrth ei gilydd.
+figures-criterion-b = Maen prawf B
+figures-trend-years = Tuedd { $first }–{ $last }
+figures-criterion-a = Maen prawf A
+figures-map-heading = Ble: cofnodion, y cragen (EOO) a chelloedd 2 × 2 km â chofnod (AOO)
+figures-chart-heading = Cyfradd canfod fesul blwyddyn
+figures-chart-hint = Anifeiliaid fesul km a gerddwyd ar deithiau lle cofnodwyd pob canfyddiad (fesul blwyddyn lle nad oes taith o'r fath wedi'i chadw), gyda'r duedd a ffitiwyd a'i band 95%.
+figures-recording-caution = Mae cofnodion o'r lan ac o lanfeydd yn dangos ble mae pobl yn cerdded, yn pysgota ac yn adrodd, a ble mae cerhyntau'n cario cyrff; nid bwlch yn y dosbarthiad yw bwlch yn y cofnodion.

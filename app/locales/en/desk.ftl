@@ -147,3 +147,33 @@ state-details-requested = details requested
 state-confirmed = confirmed
 state-not-confirmable = not confirmable
 state-merged = merged
+
+## Range and trend figures (desk)
+
+figures-heading = Range and trend
+figures-caveat = These figures are inputs to a threatened-species assessment, not a listing decision: the official assessment process weighs them with all other evidence.
+figures-taxon = Taxon (species, genus, family…)
+figures-records = Records
+figures-confirmed-only = confirmed only
+figures-all-records = all, reviewed or not
+figures-first-period = First period
+figures-first-period-example = e.g. 2015-2019
+figures-second-period = Second period
+figures-second-period-example = e.g. 2020-2024
+figures-generation = Generation length, years (if the checklist has none)
+figures-show = Show
+figures-choose = choose a taxon and press Show
+figures-range-empty = No records with a position to work from ({ $used }). Records count once reviewers confirm them; choose "all, reviewed or not" under Records to see every stored record.
+figures-eoo-raised = { " " }EOO was raised to the AOO because the hull is smaller (IUCN Guidelines §4.9).
+figures-range-of = Range of { $name }
+figures-records-used = Records used: { $used }.
+figures-figure = Figure
+figures-change = Change
+figures-range-method = EOO: area of the minimum convex polygon round the records, geodesic on WGS84 (raised to the AOO when smaller). AOO: occupied 2 × 2 km cells × 4 km². Least AOO: the fewest occupied cells over 16 grid origins shifted by quarter cells. Sites: positions at least about 10 m apart.
+figures-criterion-b = Criterion B
+figures-trend-years = Trend { $first }–{ $last }
+figures-criterion-a = Criterion A
+figures-map-heading = Where: records, hull (EOO) and occupied 2 × 2 km cells (AOO)
+figures-chart-heading = Encounter rate by year
+figures-chart-hint = Animals per km walked on walks where every find was reported (per year where no such walk is stored), with the fitted trend and its 95% band.
+figures-recording-caution = Stranding and landing records show where people walk, fish and report, and where currents carry carcasses; a gap in the records is not a gap in the range.

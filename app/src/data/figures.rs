@@ -44,6 +44,9 @@ pub struct Row {
     pub change: String,
 }
 
+/// The taxon the figures screen opens with (a scientific name, the same in every language).
+pub const FIRST_TAXON: &str = "Scyliorhinus canicula";
+
 /// The figures table of the first taxon in a range report.
 pub fn range_rows(taxon: &Value) -> (Vec<String>, Vec<Row>) {
     let periods: Vec<&Value> = taxon["periods"].as_array().map(|p| p.iter().collect()).unwrap_or_default();

@@ -12,13 +12,14 @@ use leptos::prelude::*;
 use serde_json::Value;
 
 use crate::data::api;
-use crate::data::figures::{range_query, range_rows, trend_lines, trend_query, without_caveat};
+use crate::data::figures::{FIRST_TAXON, range_query, range_rows, trend_lines, trend_query, without_caveat};
+use crate::data::words::{t, t_args};
 use crate::screens::downloads::ExportSection;
 
 fn range_view(report: &Value) -> AnyView {
     let Some(taxon) = report["taxa"].get(0) else {
         let used = report["records_used"].as_str().unwrap_or("").to_owned();
-        return view! { <p id="range-empty" class="hint">{format!("No records with a position to work from ({used}). Records count once reviewers confirm them; choose \"all, reviewed or not\" under Records to see every stored record.")}</p> }.into_any();
+        return view! { <p id="range-empty" class="hint">{t_args("figures-range-empty", &[("used", used.into())])}</p> }.into_any();
     };
     let (headers, rows) = range_rows(taxon);
     let has_change = taxon["changes"].get(0).is_some();
@@ -31,27 +32,33 @@ fn range_view(report: &Value) -> AnyView {
             view! { <tr><th scope="row">{row.label}</th>{cells}{change}</tr> }
         })
         .collect_view();
-    let criterion_b = taxon["periods"].as_array().cloned().unwrap_or_default().into_iter().filter_map(|p| {
-        let text = without_caveat(p["figures"]["criterion_b"]["text"].as_str()?);
-        let raised = p["figures"]["eoo_raised_to_aoo"].as_bool() == Some(true);
-        let period = p["period"].as_str().unwrap_or("").to_owned();
-        Some(view! { <li><b>{period}</b>": "{text}{raised.then_some(" EOO was raised to the AOO because the hull is smaller (IUCN Guidelines §4.9).")}</li> })
-    }).collect_view();
+    let criterion_b = taxon["periods"]
+        .as_array()
+        .cloned()
+        .unwrap_or_default()
+        .into_iter()
+        .filter_map(|p| {
+            let text = without_caveat(p["figures"]["criterion_b"]["text"].as_str()?);
+            let raised = p["figures"]["eoo_raised_to_aoo"].as_bool() == Some(true);
+            let period = p["period"].as_str().unwrap_or("").to_owned();
+            Some(view! { <li><b>{period}</b>": "{text}{raised.then(|| t("figures-eoo-raised"))}</li> })
+        })
+        .collect_view();
     let name = taxon["taxon"].as_str().unwrap_or("").to_owned();
     let grid = report["grid_choice"].as_str().unwrap_or("").to_owned();
     let used = report["records_used"].as_str().unwrap_or("").to_owned();
     view! {
-        <h3>{format!("Range of {name}")}</h3>
-        <p class="hint">{format!("Records used: {used}.")}</p>
+        <h3>{t_args("figures-range-of", &[("name", name.into())])}</h3>
+        <p class="hint">{t_args("figures-records-used", &[("used", used.into())])}</p>
         <div class="table-scroll">
             <table id="range-table">
-                <thead><tr><th scope="col">"Figure"</th>{head}{has_change.then(|| view! { <th scope="col">"Change"</th> })}</tr></thead>
+                <thead><tr><th scope="col">{t("figures-figure")}</th>{head}{has_change.then(|| view! { <th scope="col">{t("figures-change")}</th> })}</tr></thead>
                 <tbody>{body}</tbody>
             </table>
         </div>
-        <p class="hint">"EOO: area of the minimum convex polygon round the records, geodesic on WGS84 (raised to the AOO when smaller). AOO: occupied 2 × 2 km cells × 4 km². Least AOO: the fewest occupied cells over 16 grid origins shifted by quarter cells. Sites: positions at least about 10 m apart."</p>
+        <p class="hint">{t("figures-range-method")}</p>
         <p id="grid-choice" class="hint">{grid}</p>
-        <h4>"Criterion B"</h4>
+        <h4>{t("figures-criterion-b")}</h4>
         <ul id="criterion-b" class="plain">{criterion_b}</ul>
     }
     .into_any()
@@ -74,10 +81,10 @@ fn trend_view(report: &Value) -> AnyView {
     let last = report["trend"]["last_year"].to_string();
     let criterion_a = without_caveat(report["trend"]["criterion_a"]["text"].as_str().unwrap_or(""));
     view! {
-        <h3>{format!("Trend {first}–{last}")}</h3>
+        <h3>{t_args("figures-trend-years", &[("first", first.into()), ("last", last.into())])}</h3>
         <dl id="trend-figures">{lines}</dl>
         <ul class="plain hint">{notes}</ul>
-        <h4>"Criterion A"</h4>
+        <h4>{t("figures-criterion-a")}</h4>
         <p id="criterion-a">{criterion_a}</p>
     }
     .into_any()
@@ -87,12 +94,12 @@ type Shown = Result<Value, String>;
 
 #[component]
 pub fn FiguresScreen() -> impl IntoView {
-    let taxon = RwSignal::new("Scyliorhinus canicula".to_owned());
+    let taxon = RwSignal::new(FIRST_TAXON.to_owned());
     let state = RwSignal::new(crate::data::downloads::DEFAULT_STATE.to_owned());
     let first_period = RwSignal::new(String::new());
     let second_period = RwSignal::new(String::new());
     let generation = RwSignal::new(String::new());
-    let range = RwSignal::new(Err::<Value, String>("choose a taxon and press Show".into()));
+    let range = RwSignal::new(Err::<Value, String>(t("figures-choose")));
     let trend = RwSignal::new(Err::<Value, String>(String::new()));
     let cautions = RwSignal::new(Vec::<String>::new());
     let map = RwSignal::new(Err::<String, String>(String::new()));
@@ -135,31 +142,31 @@ pub fn FiguresScreen() -> impl IntoView {
     let caution_list = move || cautions.get().into_iter().map(|c| view! { <li>{c}</li> }).collect_view();
     view! {
         <section class="card figures">
-            <h2>"Range and trend"</h2>
-            <p id="figures-caveat" class="caution">"These figures are inputs to a threatened-species assessment, not a listing decision: the official assessment process weighs them with all other evidence."</p>
+            <h2>{t("figures-heading")}</h2>
+            <p id="figures-caveat" class="caution">{t("figures-caveat")}</p>
             <div class="stack">
-                <label>"Taxon (species, genus, family…)" <input id="figures-taxon" prop:value=move || taxon.get() on:input=move |ev| taxon.set(event_target_value(&ev)) /></label>
-                <label>"Records" <select id="figures-state" prop:value=move || state.get() on:change=move |ev| state.set(event_target_value(&ev))>
-                    <option value="confirmed">"confirmed only"</option>
-                    <option value="any">"all, reviewed or not"</option>
+                <label>{t("figures-taxon")}" "<input id="figures-taxon" prop:value=move || taxon.get() on:input=move |ev| taxon.set(event_target_value(&ev)) /></label>
+                <label>{t("figures-records")}" "<select id="figures-state" prop:value=move || state.get() on:change=move |ev| state.set(event_target_value(&ev))>
+                    <option value="confirmed">{t("figures-confirmed-only")}</option>
+                    <option value="any">{t("figures-all-records")}</option>
                 </select></label>
                 <p id="figures-state-words" class="hint">{move || crate::data::downloads::state_words(&state.get())}</p>
                 <div class="row">
-                    <label>"First period" <input id="figures-period-1" placeholder="e.g. 2015-2019" inputmode="numeric" prop:value=move || first_period.get() on:input=move |ev| first_period.set(event_target_value(&ev)) /></label>
-                    <label>"Second period" <input id="figures-period-2" placeholder="e.g. 2020-2024" inputmode="numeric" prop:value=move || second_period.get() on:input=move |ev| second_period.set(event_target_value(&ev)) /></label>
+                    <label>{t("figures-first-period")}" "<input id="figures-period-1" placeholder=t("figures-first-period-example") inputmode="numeric" prop:value=move || first_period.get() on:input=move |ev| first_period.set(event_target_value(&ev)) /></label>
+                    <label>{t("figures-second-period")}" "<input id="figures-period-2" placeholder=t("figures-second-period-example") inputmode="numeric" prop:value=move || second_period.get() on:input=move |ev| second_period.set(event_target_value(&ev)) /></label>
                 </div>
-                <label>"Generation length, years (if the checklist has none)" <input id="figures-generation" inputmode="decimal" prop:value=move || generation.get() on:input=move |ev| generation.set(event_target_value(&ev)) /></label>
+                <label>{t("figures-generation")}" "<input id="figures-generation" inputmode="decimal" prop:value=move || generation.get() on:input=move |ev| generation.set(event_target_value(&ev)) /></label>
             </div>
-            <button id="figures-show" type="button" class="primary" on:click=show>"Show"</button>
+            <button id="figures-show" type="button" class="primary" on:click=show>{t("figures-show")}</button>
             {shown(range, range_view, "range-figures")}
-            <h3>"Where: records, hull (EOO) and occupied 2 × 2 km cells (AOO)"</h3>
+            <h3>{t("figures-map-heading")}</h3>
             {figure(map, "range-map")}
             {shown(trend, trend_view, "trend-section")}
-            <h3>"Encounter rate by year"</h3>
-            <p class="hint">"Animals per km walked on walks where every find was reported (per year where no such walk is stored), with the fitted trend and its 95% band."</p>
+            <h3>{t("figures-chart-heading")}</h3>
+            <p class="hint">{t("figures-chart-hint")}</p>
             {figure(chart, "trend-chart")}
             <ul id="figure-cautions" class="cautions">{caution_list}</ul>
-            <p class="hint">"Stranding and landing records show where people walk, fish and report, and where currents carry carcasses; a gap in the records is not a gap in the range."</p>
+            <p class="hint">{t("figures-recording-caution")}</p>
         </section>
         <ExportSection />
     }
