@@ -286,3 +286,23 @@ fix-age-minutes = ers { $n } munud
 fix-age-hours = ers { $n } awr
 fix-age-days = ers { $n } diwrnod
 fix-within = o fewn { $metres } m, { $age }
+
+## The record form's photos (phone)
+
+photos-legend = Lluniau
+photos-add = Ychwanegu llun
+photos-alt = llun { $number }: { $name }
+photos-remove = tynnu
+photos-count =
+    { $count ->
+        [zero] dim lluniau
+        [one] 1 llun
+        [two] 2 lun
+       *[other] { $count } llun
+    }
+photos-preparing = yn paratoi “{ $name }”…
+photos-already-added = “{ $name }”: mae'r llun hwn wedi'i ychwanegu'n barod.
+photos-gps-first = o GPS y llun cyntaf
+photos-gps-numbered = o GPS llun { $number }
+photos-gps-no-device = { " " }(ni roddodd y ffôn hwn safle)
+photos-position-cleared = daeth y safle o'r llun a dynnwyd ac mae wedi'i glirio; defnyddiwch fy safle neu teipiwch ef

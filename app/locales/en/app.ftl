@@ -280,3 +280,21 @@ fix-age-minutes = { $n } min old
 fix-age-hours = { $n } h old
 fix-age-days = { $n } days old
 fix-within = within { $metres } m, { $age }
+
+## The record form's photos (phone)
+
+photos-legend = Photos
+photos-add = Add photo
+photos-alt = photo { $number }: { $name }
+photos-remove = remove
+photos-count =
+    { $count ->
+        [one] 1 photo
+       *[other] { $count } photos
+    }
+photos-preparing = preparing “{ $name }”…
+photos-already-added = “{ $name }”: this photo is already added.
+photos-gps-first = from the first photo's GPS
+photos-gps-numbered = from photo { $number }'s GPS
+photos-gps-no-device = { " " }(this phone gave no position)
+photos-position-cleared = the position came from the removed photo and was cleared; use my position or type it

@@ -10,6 +10,7 @@ use shared_types::PositionSource;
 use crate::data::form_fields::FormFields;
 use crate::data::photos::{self, PickedPhoto};
 use crate::data::time::BrowserZone;
+use crate::data::words::{t, t_args};
 
 /// Lets photo `number` give the record its time and place (or fill an empty position)
 /// and says so beside the position.
@@ -21,9 +22,13 @@ fn offer_photo(fields: RwSignal<FormFields>, note: RwSignal<String>, photo: &Pic
             && form.position_photo.as_deref() == Some(photo.preview_url.as_str());
         fields.set(form);
         if placed {
-            let which = if number == 1 { "the first photo's".to_owned() } else { format!("photo {number}'s") };
-            let why = if had_position { "" } else { " (this phone gave no position)" };
-            note.set(format!("from {which} GPS{why}"));
+            let which = if number == 1 {
+                t("photos-gps-first")
+            } else {
+                t_args("photos-gps-numbered", &[("number", number.into())])
+            };
+            let why = if had_position { String::new() } else { t("photos-gps-no-device") };
+            note.set(format!("{which}{why}"));
         }
     }
 }
@@ -45,7 +50,7 @@ fn remove_photo(
     let mut cleared = fields.get_untracked();
     if cleared.forget_photo_position(&removed.preview_url) {
         fields.set(cleared);
-        note.set("the position came from the removed photo and was cleared; use my position or type it".into());
+        note.set(t("photos-position-cleared"));
         if let Some(first) = photos.with_untracked(|p| p.first().cloned()) {
             prefill_from_photo(fields, note, &first);
         }
@@ -69,7 +74,7 @@ pub fn PhotoPicker(
         leptos::task::spawn_local(async move {
             let mut refused = Vec::new();
             for file in added {
-                photo_note.set(format!("preparing “{}”…", file.name()));
+                photo_note.set(t_args("photos-preparing", &[("name", file.name().into())]));
                 match photos::pick(file).await {
                     Ok(picked)
                         if photos.with_untracked(|p| {
@@ -79,7 +84,7 @@ pub fn PhotoPicker(
                             )
                         }) =>
                     {
-                        refused.push(format!("“{}”: this photo is already added.", picked.name));
+                        refused.push(t_args("photos-already-added", &[("name", picked.name.clone().into())]));
                         let _ = web_sys::Url::revoke_object_url(&picked.preview_url);
                     }
                     Ok(picked) => {
@@ -95,23 +100,23 @@ pub fn PhotoPicker(
 
     view! {
             <fieldset>
-                <legend>"Photos"</legend>
+                <legend>{t("photos-legend")}</legend>
                 <label class="button photo-button">
-                    "Add photo"
+                    {t("photos-add")}
                     <input id="photo-input" type="file" accept="image/*" capture="environment" multiple on:change=add_photos />
                 </label>
                 <ul class="thumbs">
                     {move || photos.get().into_iter().enumerate().map(|(index, photo)| {
                         view! {
                             <li class="photo">
-                                <img src=photo.preview_url.clone() alt=format!("photo {}: {}", index + 1, photo.name) />
+                                <img src=photo.preview_url.clone() alt=t_args("photos-alt", &[("number", (index + 1).into()), ("name", photo.name.clone().into())]) />
                                 <span class="photo-says hint">{photos::photo_says(&photo.exif)}</span>
-                                <button type="button" class="small remove-photo" on:click=move |_| remove_photo(photos, fields, position_note, index)>"remove"</button>
+                                <button type="button" class="small remove-photo" on:click=move |_| remove_photo(photos, fields, position_note, index)>{t("photos-remove")}</button>
                             </li>
                         }
                     }).collect_view()}
                 </ul>
-                <p class="hint">{move || format!("{} photo(s)", photos.with(|p| p.len()))}</p>
+                <p class="hint">{move || t_args("photos-count", &[("count", photos.with(|p| p.len()).into())])}</p>
                 <Show when=move || photos.with(|p| !p.is_empty())>
                     <p id="device-says" class="hint">{move || fields.with(|f| f.device_says(&BrowserZone))}</p>
                 </Show>
