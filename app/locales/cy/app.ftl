@@ -306,3 +306,20 @@ photos-gps-first = o GPS y llun cyntaf
 photos-gps-numbered = o GPS llun { $number }
 photos-gps-no-device = { " " }(ni roddodd y ffôn hwn safle)
 photos-position-cleared = daeth y safle o'r llun a dynnwyd ac mae wedi'i glirio; defnyddiwch fy safle neu teipiwch ef
+
+## The species key (phone)
+
+key-hint = Atebwch yr hyn a welwch; mae "ddim yn siŵr" bob amser yn iawn. Peidiwch â chyffwrdd â phigyn cynffon morgath na'r pigau ar gefn ci pigog neu chimaera.
+key-not-sure-skip = Ddim yn siŵr / neidio
+key-no-further-question = Does dim cwestiwn arall a allai wahaniaethu rhwng y rhain: dewiswch o'r rhestr, neu stopiwch ar reng uwch.
+key-this-one = Hwn
+key-suggested = Awgrym:{ " " }
+key-set-aside = Mae'r rhestr wirio wedi newid, felly mae'r atebion hyn wedi'u rhoi o'r neilltu: { $answers }.
+key-cannot-separate = Ni all y cwestiynau hyn wahaniaethu rhwng { $top } a { $others }; bydd adolygydd yn gwirio'r lluniau.
+key-change = newid
+key-most-likely = Mwyaf tebygol
+key-group-heading = Neu cofnodwch y grŵp rydych chi'n siŵr ohono
+key-group-hint = Yn siŵr mai morgath neu forgi yw e, ond ddim pa un? Cofnodwch y grŵp. Yr un sydd wedi'i farcio “Awgrym” yw'r grŵp lleiaf y mae'r allwedd yn weddol siŵr ohono.
+key-your-answers = Eich atebion ({ $count })
+key-start-again = Dechrau eto
+key-close = Cau'r allwedd

@@ -298,3 +298,20 @@ photos-gps-first = from the first photo's GPS
 photos-gps-numbered = from photo { $number }'s GPS
 photos-gps-no-device = { " " }(this phone gave no position)
 photos-position-cleared = the position came from the removed photo and was cleared; use my position or type it
+
+## The species key (phone)
+
+key-hint = Answer what you can see; "not sure" is always fine. Do not touch a ray's tail spine or the spines on a spurdog's or chimaera's back.
+key-not-sure-skip = Not sure / skip
+key-no-further-question = No further question would tell these apart: pick from the list, or stop at a higher rank.
+key-this-one = This one
+key-suggested = Suggested:{ " " }
+key-set-aside = The checklist has changed, so these answers are set aside: { $answers }.
+key-cannot-separate = These questions cannot tell { $top } from { $others }; a reviewer will check the photos.
+key-change = change
+key-most-likely = Most likely
+key-group-heading = Or record the group you are sure of
+key-group-hint = Sure it is a skate, or a catshark, but not which one? Record the group. The one marked “Suggested” is the smallest group the key is fairly sure of.
+key-your-answers = Your answers ({ $count })
+key-start-again = Start again
+key-close = Close the key

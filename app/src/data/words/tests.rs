@@ -343,10 +343,9 @@ const TECHNICAL_LITERALS: [&str; 19] = [
 /// Screen files whose words are not yet in the catalogues: they show English in every
 /// language until they are moved. The test fails when a listed file has no words left,
 /// so the list only shrinks.
-const NOT_YET_IN_CATALOGUE: [&str; 9] = [
+const NOT_YET_IN_CATALOGUE: [&str; 8] = [
     "downloads.rs",
     "people.rs",
-    "record/key.rs",
     "record/pictures.rs",
     "review/duplicates.rs",
     "review/mod.rs",

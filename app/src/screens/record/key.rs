@@ -18,6 +18,7 @@ use crate::data::key::{
     SHOWN_CANDIDATES, context_for, display_name, group_label, higher_taxa, key_choice, next_question, position_of,
     rank_code, set_aside_text, suggested_stop,
 };
+use crate::data::words::{t, t_args};
 use crate::data::{checklist, nearby};
 use crate::screens::record::pictures::picture;
 
@@ -61,22 +62,26 @@ pub fn KeyPanel(key: RwSignal<Arc<Key>>, fields: RwSignal<FormFields>, open: RwS
         open.set(false);
     };
 
-    let question_view = move || {
-        match question.get() {
+    let question_view = move || match question.get() {
         Some(q) => {
             let character = q.character.clone();
-            let states = q.states.clone().into_iter().map(|state| {
-                let character = character.clone();
-                let svg = picture(&character, &state.name).unwrap_or_default();
-                let name = state.name.clone();
-                view! {
-                    <button type="button" class="state-choice" data-state=state.name.clone()
-                        on:click=move |_| answer(character.clone(), Answer::State(name.clone()))>
-                        <span class="pic" inner_html=svg></span>
-                        <span>{state.label.clone()}</span>
-                    </button>
-                }
-            }).collect_view();
+            let states = q
+                .states
+                .clone()
+                .into_iter()
+                .map(|state| {
+                    let character = character.clone();
+                    let svg = picture(&character, &state.name).unwrap_or_default();
+                    let name = state.name.clone();
+                    view! {
+                        <button type="button" class="state-choice" data-state=state.name.clone()
+                            on:click=move |_| answer(character.clone(), Answer::State(name.clone()))>
+                            <span class="pic" inner_html=svg></span>
+                            <span>{state.label.clone()}</span>
+                        </button>
+                    }
+                })
+                .collect_view();
             let unsure = q.character.clone();
             view! {
                 <div class="key-question" data-character=q.character.clone()>
@@ -84,14 +89,13 @@ pub fn KeyPanel(key: RwSignal<Arc<Key>>, fields: RwSignal<FormFields>, open: RwS
                     <div class="state-choices">
                         {states}
                         <button type="button" class="state-choice not-sure" on:click=move |_| answer(unsure.clone(), Answer::NotSure)>
-                            <span>"Not sure / skip"</span>
+                            <span>{t("key-not-sure-skip")}</span>
                         </button>
                     </div>
                 </div>
             }.into_any()
         }
-        None => view! { <p class="hint">"No further question would tell these apart: pick from the list, or stop at a higher rank."</p> }.into_any(),
-    }
+        None => view! { <p class="hint">{t("key-no-further-question")}</p> }.into_any(),
     };
 
     let candidates_view = move || {
@@ -100,12 +104,10 @@ pub fn KeyPanel(key: RwSignal<Arc<Key>>, fields: RwSignal<FormFields>, open: RwS
             let label = display_name(&candidate);
             let name = candidate.scientific_name.clone();
             let reasons = candidate.reasons.iter().take(4).map(|r| {
-                let class = match r.effect {
-                    species_key::Effect::Supports => "reason supports",
-                    species_key::Effect::Against => "reason against",
-                    species_key::Effect::Neutral => "reason neutral",
-                };
-                view! { <li class=class>{r.text.clone()}</li> }
+                let supports = matches!(r.effect, species_key::Effect::Supports);
+                let against = matches!(r.effect, species_key::Effect::Against);
+                let neutral = matches!(r.effect, species_key::Effect::Neutral);
+                view! { <li class="reason" class:supports=supports class:against=against class:neutral=neutral>{r.text.clone()}</li> }
             }).collect_view();
             let probability = candidate.probability;
             let pick_label = label.clone();
@@ -114,7 +116,7 @@ pub fn KeyPanel(key: RwSignal<Arc<Key>>, fields: RwSignal<FormFields>, open: RwS
                 <li class="candidate">
                     <div class="row spread">
                         <span><b>{label}</b>" · "{format!("{:.0}%", probability * 100.0)}</span>
-                        <button type="button" class="small pick" on:click=move |_| pick(name.clone(), rank, pick_label.clone(), probability)>"This one"</button>
+                        <button type="button" class="small pick" on:click=move |_| pick(name.clone(), rank, pick_label.clone(), probability)>{t("key-this-one")}</button>
                     </div>
                     <ul class="reasons">{reasons}</ul>
                 </li>
@@ -129,13 +131,12 @@ pub fn KeyPanel(key: RwSignal<Arc<Key>>, fields: RwSignal<FormFields>, open: RwS
             let rank = support.taxon_rank;
             let label = key.with_untracked(|k| group_label(k, rank, &support.scientific_name));
             let is_suggested = suggested.as_ref().is_some_and(|s| s.taxon_rank == rank && s.scientific_name == support.scientific_name);
-            let class = if is_suggested { "higher-rank suggested" } else { "higher-rank" };
             let text = format!("{label} · {:.0}%", support.probability * 100.0);
             let (name, probability, pick_label) = (support.scientific_name.clone(), support.probability, label.clone());
             view! {
-                <li><button type="button" class=class data-rank=rank_code(rank) data-taxon=support.scientific_name.clone()
+                <li><button type="button" class="higher-rank" class:suggested=is_suggested data-rank=rank_code(rank) data-taxon=support.scientific_name.clone()
                     on:click=move |_| pick(name.clone(), rank, pick_label.clone(), probability)>
-                    {is_suggested.then(|| view! { <span class="suggested-word">"Suggested: "</span> })}{text}</button></li>
+                    {is_suggested.then(|| view! { <span class="suggested-word">{t("key-suggested")}</span> })}{text}</button></li>
             }
         }).collect_view()
     };
@@ -145,7 +146,7 @@ pub fn KeyPanel(key: RwSignal<Arc<Key>>, fields: RwSignal<FormFields>, open: RwS
             key.with(|k| usable.with(|(_, dropped)| dropped.iter().map(|e| set_aside_text(k, e)).collect()));
         (!said.is_empty()).then(|| {
             let said = said.join("; ");
-            view! { <p class="hint set-aside">{format!("The checklist has changed, so these answers are set aside: {said}.")}</p> }
+            view! { <p class="hint set-aside">{t_args("key-set-aside", &[("answers", said.into())])}</p> }
         })
     };
 
@@ -154,7 +155,7 @@ pub fn KeyPanel(key: RwSignal<Arc<Key>>, fields: RwSignal<FormFields>, open: RwS
         let top = list.first()?.scientific_name.clone();
         let others = key.with(|k| k.cannot_separate_from(&top).into_iter().map(str::to_owned).collect::<Vec<_>>());
         (!others.is_empty()).then(|| view! {
-            <p class="hint">{format!("These questions cannot tell {top} from {}; a reviewer will check the photos.", others.join(", "))}</p>
+            <p class="hint">{t_args("key-cannot-separate", &[("top", top.into()), ("others", others.join(", ").into())])}</p>
         })
     };
 
@@ -164,7 +165,7 @@ pub fn KeyPanel(key: RwSignal<Arc<Key>>, fields: RwSignal<FormFields>, open: RwS
             let found = checklist_key.checklist().characters().iter().find(|c| c.name == character);
             let question = found.map(|c| c.question.clone()).unwrap_or_else(|| character.to_owned());
             let said = match given {
-                Answer::NotSure => "not sure".to_owned(),
+                Answer::NotSure => t("form-not-sure"),
                 Answer::State(state) => found
                     .and_then(|c| c.states.iter().find(|s| &s.name == state))
                     .map(|s| s.label.clone())
@@ -173,29 +174,29 @@ pub fn KeyPanel(key: RwSignal<Arc<Key>>, fields: RwSignal<FormFields>, open: RwS
             let character = character.to_owned();
             view! {
                 <li>{question}" — "<b>{said}</b>" "
-                    <button type="button" class="small" on:click=move |_| answers.update(|a| a.clear(&character))>"change"</button>
+                    <button type="button" class="small" on:click=move |_| answers.update(|a| a.clear(&character))>{t("key-change")}</button>
                 </li>
             }
         }).collect_view()
     };
 
     view! {
-        <section class="key-panel" aria-label="Help me identify">
-            <p class="hint">"Answer what you can see; \"not sure\" is always fine. Do not touch a ray's tail spine or the spines on a spurdog's or chimaera's back."</p>
+        <section class="key-panel" aria-label=t("form-open-key")>
+            <p class="hint">{t("key-hint")}</p>
             {set_aside}
             {question_view}
-            <h3>"Most likely"</h3>
+            <h3>{t("key-most-likely")}</h3>
             <ol class="candidates">{candidates_view}</ol>
-            <h3>"Or record the group you are sure of"</h3>
-            <p class="hint">"Sure it is a skate, or a catshark, but not which one? Record the group. The one marked “Suggested” is the smallest group the key is fairly sure of."</p>
+            <h3>{t("key-group-heading")}</h3>
+            <p class="hint">{t("key-group-hint")}</p>
             <ul class="higher-ranks">{higher_rank_view}</ul>
             {cannot_separate}
             <details class="answered">
-                <summary>{move || format!("Your answers ({})", answers.with(|a| a.iter().count()))}</summary>
+                <summary>{move || t_args("key-your-answers", &[("count", answers.with(|a| a.iter().count()).into())])}</summary>
                 <ul>{answered_view}</ul>
-                <button type="button" class="small" on:click=move |_| answers.set(Answers::new())>"Start again"</button>
+                <button type="button" class="small" on:click=move |_| answers.set(Answers::new())>{t("key-start-again")}</button>
             </details>
-            <button type="button" on:click=move |_| open.set(false)>"Close the key"</button>
+            <button type="button" on:click=move |_| open.set(false)>{t("key-close")}</button>
         </section>
     }
 }
