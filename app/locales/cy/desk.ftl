@@ -177,3 +177,13 @@ figures-map-heading = Ble: cofnodion, y cragen (EOO) a chelloedd 2 × 2 km â ch
 figures-chart-heading = Cyfradd canfod fesul blwyddyn
 figures-chart-hint = Anifeiliaid fesul km a gerddwyd ar deithiau lle cofnodwyd pob canfyddiad (fesul blwyddyn lle nad oes taith o'r fath wedi'i chadw), gyda'r duedd a ffitiwyd a'i band 95%.
 figures-recording-caution = Mae cofnodion o'r lan ac o lanfeydd yn dangos ble mae pobl yn cerdded, yn pysgota ac yn adrodd, a ble mae cerhyntau'n cario cyrff; nid bwlch yn y dosbarthiad yw bwlch yn y cofnodion.
+
+## Review (desk)
+
+review-heading = Adolygu
+review-decisions-kept = Caiff penderfyniadau eu cadw gyda phwy a'u gwnaeth a phryd.
+zoom-label = llun, y gellir ei chwyddo
+zoom-fit = Ffitio
+zoom-original = Y gwreiddiol (gydag EXIF)
+zoom-close = Cau
+zoom-image = y llun, yn fawr

@@ -177,3 +177,13 @@ figures-map-heading = Where: records, hull (EOO) and occupied 2 × 2 km cells (A
 figures-chart-heading = Encounter rate by year
 figures-chart-hint = Animals per km walked on walks where every find was reported (per year where no such walk is stored), with the fitted trend and its 95% band.
 figures-recording-caution = Stranding and landing records show where people walk, fish and report, and where currents carry carcasses; a gap in the records is not a gap in the range.
+
+## Review (desk)
+
+review-heading = Review
+review-decisions-kept = Decisions are kept with who made them and when.
+zoom-label = photo, zoomable
+zoom-fit = Fit
+zoom-original = Original (with EXIF)
+zoom-close = Close
+zoom-image = the photo, large

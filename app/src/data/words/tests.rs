@@ -289,7 +289,7 @@ fn each_message_has_the_same_placeholders_in_every_language() {
 
 /// Attributes whose values are never shown to people as words (`field` is the end of
 /// `data-field`, the field a problem is about as the server names it).
-const TECHNICAL_ATTRIBUTES: [&str; 24] = [
+const TECHNICAL_ATTRIBUTES: [&str; 25] = [
     "class",
     "id",
     "type",
@@ -314,11 +314,12 @@ const TECHNICAL_ATTRIBUTES: [&str; 24] = [
     "style",
     "field",
     "scope",
+    "draggable",
 ];
 
 /// Literals in screen files that are not words for people: CSS classes chosen in code,
 /// the screens' `#…` addresses, element ids, values of form controls and routes.
-const TECHNICAL_LITERALS: [&str; 19] = [
+const TECHNICAL_LITERALS: [&str; 20] = [
     "#urgent",
     "#samples",
     "#people",
@@ -338,20 +339,14 @@ const TECHNICAL_LITERALS: [&str; 19] = [
     "range-map",
     "trend-section",
     "trend-chart",
+    "translate({x:.0}px, {y:.0}px) scale({:.3})",
 ];
 
 /// Screen files whose words are not yet in the catalogues: they show English in every
 /// language until they are moved. The test fails when a listed file has no words left,
 /// so the list only shrinks.
-const NOT_YET_IN_CATALOGUE: [&str; 7] = [
-    "downloads.rs",
-    "people.rs",
-    "review/duplicates.rs",
-    "review/mod.rs",
-    "review/queue.rs",
-    "review/record.rs",
-    "review/zoom.rs",
-];
+const NOT_YET_IN_CATALOGUE: [&str; 5] =
+    ["downloads.rs", "people.rs", "review/duplicates.rs", "review/queue.rs", "review/record.rs"];
 
 /// Screen files that only draw: SVG markup, paths and colours keyed by the checklist's
 /// character and state codes, `aria-hidden`, with no words for people (a state's words

@@ -12,6 +12,7 @@ mod zoom;
 use leptos::prelude::*;
 use shared_types::Role;
 
+use crate::data::words::t;
 use crate::screens::review::queue::Queue;
 
 /// The queue for a signed-in reviewer or admin (`role`); `signed_out` is called after
@@ -20,8 +21,8 @@ use crate::screens::review::queue::Queue;
 pub fn ReviewScreen(role: Role, signed_out: impl Fn() + Copy + 'static) -> impl IntoView {
     view! {
         <section class="card review">
-            <h2>"Review"</h2>
-            <p class="hint">"Decisions are kept with who made them and when."</p>
+            <h2>{t("review-heading")}</h2>
+            <p class="hint">{t("review-decisions-kept")}</p>
             <Queue role=role signed_out=signed_out />
         </section>
     }

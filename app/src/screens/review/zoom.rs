@@ -6,6 +6,9 @@ use std::collections::BTreeMap;
 
 use leptos::prelude::*;
 
+use crate::data::photos;
+use crate::data::words::t;
+
 /// A photo opened large over the page: the display copy, zoomed with the buttons or
 /// the mouse wheel on a desk and with two fingers on a phone, dragged to look around;
 /// reviewers also get the original (with its EXIF) in a new tab.
@@ -82,17 +85,17 @@ pub fn PhotoZoom(photo: RwSignal<Option<String>>) -> impl IntoView {
     };
     view! {
         {move || photo.get().map(|sha| view! {
-            <div id="photo-zoom" class="photo-zoom" role="dialog" aria-label="photo, zoomable">
+            <div id="photo-zoom" class="photo-zoom" role="dialog" aria-label=t("zoom-label")>
                 <div class="zoom-bar">
                     <button id="zoom-out" type="button" class="small" on:click=move |_| zoom_by(0.8)>"−"</button>
                     <span id="zoom-level">{move || format!("{:.0}%", scale.get() * 100.0)}</span>
                     <button id="zoom-in" type="button" class="small" on:click=move |_| zoom_by(1.25)>"+"</button>
-                    <button id="zoom-fit" type="button" class="small" on:click=move |_| reset()>"Fit"</button>
-                    <a id="zoom-original" href=format!("/photos/{sha}/original") target="_blank" rel="noopener">"Original (with EXIF)"</a>
-                    <button id="zoom-close" type="button" class="small" on:click=move |_| close()>"Close"</button>
+                    <button id="zoom-fit" type="button" class="small" on:click=move |_| reset()>{t("zoom-fit")}</button>
+                    <a id="zoom-original" href=photos::served_original(&sha) target="_blank" rel="noopener">{t("zoom-original")}</a>
+                    <button id="zoom-close" type="button" class="small" on:click=move |_| close()>{t("zoom-close")}</button>
                 </div>
                 <div class="zoom-stage" on:wheel=wheel on:pointerdown=down on:pointermove=moved on:pointerup=up on:pointercancel=up>
-                    <img id="zoom-image" src=format!("/photos/{sha}") alt="the photo, large" draggable="false"
+                    <img id="zoom-image" src=photos::served(&sha) alt=t("zoom-image") draggable="false"
                         style:transform=move || { let (x, y) = shift.get(); format!("translate({x:.0}px, {y:.0}px) scale({:.3})", scale.get()) } />
                 </div>
             </div>
