@@ -187,3 +187,48 @@ zoom-fit = Ffitio
 zoom-original = Y gwreiddiol (gydag EXIF)
 zoom-close = Cau
 zoom-image = y llun, yn fawr
+review-sign-out = Allgofnodi
+queue-filters =
+    Hidlau{ $set ->
+        [0] {""}
+       *[other] { " " }({ $set } wedi'u gosod)
+    }
+queue-show = Dangos
+queue-to-review = i'w hadolygu
+queue-all = y cyfan
+queue-taxon = Rhywogaeth neu grŵp
+queue-taxon-example = e.e. Rajidae, ci glas
+queue-area = Ardal
+queue-anywhere = unrhyw le
+queue-from = O
+queue-to = I
+queue-flag = Baner
+queue-any-flag = unrhyw un neu ddim
+queue-filter = Hidlo
+queue-clear = Clirio
+queue-count =
+    { $count ->
+        [one] 1 cofnod
+       *[other] { $count } cofnod
+    }{ $more }
+queue-more-below = , mwy isod
+queue-load-more = Llwytho mwy
+flag-oversize = rhy fawr
+flag-out-of-range = y tu allan i'w ddosbarthiad
+flag-possible-duplicate = dyblygiad posibl
+flag-photo-older = llun yn hŷn na'r cofnod
+flag-photo-far = llun ymhell o'r cofnod
+duplicates-heading = Yr un anifail, o bosibl
+duplicates-none = Does dim adroddiad arall yn edrych fel yr un anifail.
+duplicates-length = { $cm } cm { $kind }
+duplicates-no-length = dim hyd
+duplicates-photo = llun o'r adroddiad arall
+duplicates-score = sgôr cyfateb { $score } o 1
+duplicates-apart = { " " }· { $distance } · { $hours } awr rhyngddynt · { $here } yma, { $there } yno
+duplicates-metres-apart = { $metres } m oddi wrth ei gilydd
+duplicates-distance-unknown = pellter yn anhysbys
+duplicates-other = { $what } ar { $at } · { $state }
+duplicates-decided = Penderfynwyd: { $decision }
+duplicates-same = Yr un anifail
+duplicates-different = Anifeiliaid gwahanol
+duplicates-undo = Dadwneud y cyfuno

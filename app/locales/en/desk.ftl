@@ -187,3 +187,44 @@ zoom-fit = Fit
 zoom-original = Original (with EXIF)
 zoom-close = Close
 zoom-image = the photo, large
+review-sign-out = Sign out
+queue-filters =
+    Filters{ $set ->
+        [0] {""}
+       *[other] { " " }({ $set } set)
+    }
+queue-show = Show
+queue-to-review = to review
+queue-all = all
+queue-taxon = Species or group
+queue-taxon-example = e.g. Rajidae, tope
+queue-area = Area
+queue-anywhere = anywhere
+queue-from = From
+queue-to = To
+queue-flag = Flag
+queue-any-flag = any or none
+queue-filter = Filter
+queue-clear = Clear
+queue-count = { $count } record(s){ $more }
+queue-more-below = , more below
+queue-load-more = Load more
+flag-oversize = oversize
+flag-out-of-range = out of range
+flag-possible-duplicate = possible duplicate
+flag-photo-older = photo older than the record
+flag-photo-far = photo far from the record
+duplicates-heading = Possibly the same animal
+duplicates-none = No other report looks like the same animal.
+duplicates-length = { $cm } cm { $kind }
+duplicates-no-length = no length
+duplicates-photo = photo of the other report
+duplicates-score = match score { $score } of 1
+duplicates-apart = { " " }· { $distance } · { $hours } h apart · { $here } here, { $there } there
+duplicates-metres-apart = { $metres } m apart
+duplicates-distance-unknown = distance unknown
+duplicates-other = { $what } on { $at } · { $state }
+duplicates-decided = Decided: { $decision }
+duplicates-same = Same animal
+duplicates-different = Different animals
+duplicates-undo = Undo the merge

@@ -372,13 +372,12 @@ impl QueueFilters {
     }
 }
 
-/// " (2 set)" after "Filters" when some are set, so a folded filter box still says so.
-pub fn filters_set_words(filters: &QueueFilters) -> String {
-    let set = [&filters.state, &filters.taxon, &filters.area, &filters.from, &filters.to, &filters.flag]
+/// How many filters are set, so a folded filter box still says so.
+pub fn filters_set(filters: &QueueFilters) -> usize {
+    [&filters.state, &filters.taxon, &filters.area, &filters.from, &filters.to, &filters.flag]
         .iter()
         .filter(|v| !v.trim().is_empty())
-        .count();
-    if set == 0 { String::new() } else { format!(" ({set} set)") }
+        .count()
 }
 
 /// One page of a list, and whether there is more after it.
@@ -600,10 +599,10 @@ mod tests {
 
     #[test]
     fn a_folded_filter_box_says_how_many_filters_are_set() {
-        assert_eq!(filters_set_words(&QueueFilters::default()), "");
+        assert_eq!(filters_set(&QueueFilters::default()), 0);
         let two =
             QueueFilters { taxon: "Rajidae".into(), from: "2025-01-01".into(), flag: " ".into(), ..Default::default() };
-        assert_eq!(filters_set_words(&two), " (2 set)");
+        assert_eq!(filters_set(&two), 2);
     }
 
     #[test]

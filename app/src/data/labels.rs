@@ -3,7 +3,9 @@
 //! exports; the app shows these instead, one catalogue message per value.
 
 #[cfg(feature = "desk")]
-use shared_types::{BodyCondition, CarcassFate, Preservation, ResponseOutcome, ReviewState, SampleKind, StomachFill};
+use shared_types::{
+    BodyCondition, CarcassFate, Preservation, QueueFlag, ResponseOutcome, ReviewState, SampleKind, StomachFill,
+};
 use shared_types::{Condition, HumanSign, LengthKind, LifeStage, Setting};
 
 use crate::data::words::t;
@@ -136,5 +138,17 @@ pub fn review_state(state: ReviewState) -> String {
         ReviewState::Confirmed => t("state-confirmed"),
         ReviewState::NotConfirmable => t("state-not-confirmable"),
         ReviewState::Merged => t("state-merged"),
+    }
+}
+
+/// Why a record is flagged in the review queue (desk only).
+#[cfg(feature = "desk")]
+pub fn queue_flag(flag: QueueFlag) -> String {
+    match flag {
+        QueueFlag::Oversize => t("flag-oversize"),
+        QueueFlag::OutOfRange => t("flag-out-of-range"),
+        QueueFlag::PossibleDuplicate => t("flag-possible-duplicate"),
+        QueueFlag::TakenLongBeforeRecord => t("flag-photo-older"),
+        QueueFlag::TakenFarFromRecord => t("flag-photo-far"),
     }
 }

@@ -289,7 +289,7 @@ fn each_message_has_the_same_placeholders_in_every_language() {
 
 /// Attributes whose values are never shown to people as words (`field` is the end of
 /// `data-field`, the field a problem is about as the server names it).
-const TECHNICAL_ATTRIBUTES: [&str; 25] = [
+const TECHNICAL_ATTRIBUTES: [&str; 26] = [
     "class",
     "id",
     "type",
@@ -315,6 +315,7 @@ const TECHNICAL_ATTRIBUTES: [&str; 25] = [
     "field",
     "scope",
     "draggable",
+    "list",
 ];
 
 /// Literals in screen files that are not words for people: CSS classes chosen in code,
@@ -345,8 +346,7 @@ const TECHNICAL_LITERALS: [&str; 20] = [
 /// Screen files whose words are not yet in the catalogues: they show English in every
 /// language until they are moved. The test fails when a listed file has no words left,
 /// so the list only shrinks.
-const NOT_YET_IN_CATALOGUE: [&str; 5] =
-    ["downloads.rs", "people.rs", "review/duplicates.rs", "review/queue.rs", "review/record.rs"];
+const NOT_YET_IN_CATALOGUE: [&str; 3] = ["downloads.rs", "people.rs", "review/record.rs"];
 
 /// Screen files that only draw: SVG markup, paths and colours keyed by the checklist's
 /// character and state codes, `aria-hidden`, with no words for people (a state's words

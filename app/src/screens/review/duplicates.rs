@@ -5,7 +5,8 @@
 use leptos::prelude::*;
 use shared_types::ReviewDetail;
 
-use crate::data::api;
+use crate::data::words::{self, t, t_args};
+use crate::data::{api, labels, photos, readable};
 
 /// Other reports that may be the same animal, beside this one: photos, distance, time
 /// gap, lengths and the reasons; and the decision — same animal (merge), different
@@ -14,19 +15,22 @@ use crate::data::api;
 pub fn DuplicatesOf(detail: ReviewDetail, reloads: RwSignal<u32>, problem: RwSignal<String>) -> impl IntoView {
     let reload = move || reloads.update(|n| *n = n.wrapping_add(1));
     if detail.duplicates.is_empty() {
-        return view! { <p class="hint">"No other report looks like the same animal."</p> }.into_any();
+        return view! { <p class="hint">{t("duplicates-none")}</p> }.into_any();
     }
     let this_id = detail.record.submission.client_id.to_string();
     let length_of = |r: &shared_types::RecordView| {
         r.submission
             .length
-            .map(|l| format!("{:.0} cm {}", l.value.centimetres(), l.kind.label()))
-            .unwrap_or_else(|| "no length".into())
+            .map(|l| {
+                let cm = words::number(l.value.centimetres(), 0);
+                t_args("duplicates-length", &[("cm", cm.into()), ("kind", labels::length_kind(l.kind).into())])
+            })
+            .unwrap_or_else(|| t("duplicates-no-length"))
     };
     let here_length = length_of(&detail.record);
     let items = detail.duplicates.into_iter().map(|dup| {
         let other_id = dup.other.submission.client_id.to_string();
-        let photos = dup.other.photos.iter().map(|p| view! { <img class="review-photo small" src=format!("/photos/{}", p.sha256) alt="photo of the other report" /> }).collect_view();
+        let photos = dup.other.photos.iter().map(|p| view! { <img class="review-photo small" src=photos::served(&p.sha256) alt=t("duplicates-photo") /> }).collect_view();
         let decide = {
             let (this_id, other_id) = (this_id.clone(), other_id.clone());
             move |same: bool| {
@@ -54,25 +58,27 @@ pub fn DuplicatesOf(detail: ReviewDetail, reloads: RwSignal<u32>, problem: RwSig
         let undecided = dup.decision.is_none();
         view! {
             <li class="duplicate" data-other=other_id>
-                <p><b>{format!("match score {:.2} of 1", dup.score)}</b>{format!(" · {} · {:.1} h apart · {} here, {} there",
-                    dup.distance_m.map(|d| format!("{d:.0} m apart")).unwrap_or_else(|| "distance unknown".into()), dup.gap_hours, here_length, length_of(&dup.other))}</p>
-                <p>{format!("{} on {} · {}", dup.other.submission.species_guess.as_ref().map(|g| g.as_str().to_owned()).unwrap_or_else(|| "unnamed".into()),
-                    dup.other.submission.observed_at.format("%Y-%m-%d %H:%M"), dup.other.review_state.label())}</p>
+                <p><b>{t_args("duplicates-score", &[("score", words::number(dup.score, 2).into())])}</b>{t_args("duplicates-apart", &[
+                    ("distance", dup.distance_m.map(|d| t_args("duplicates-metres-apart", &[("metres", words::number(d, 0).into())])).unwrap_or_else(|| t("duplicates-distance-unknown")).into()),
+                    ("hours", words::number(dup.gap_hours, 1).into()), ("here", here_length.clone().into()), ("there", length_of(&dup.other).into())])}</p>
+                <p>{t_args("duplicates-other", &[
+                    ("what", dup.other.submission.species_guess.as_ref().map(|g| g.as_str().to_owned()).unwrap_or_else(|| t("urgent-unnamed")).into()),
+                    ("at", readable::minute(&dup.other.submission.observed_at).into()), ("state", labels::review_state(dup.other.review_state).into())])}</p>
                 <div class="photos">{photos}</div>
                 <ul class="reasons">{dup.reasons.iter().map(|r| view! { <li>{r.clone()}</li> }).collect_view()}</ul>
-                {dup.decision.clone().map(|d| view! { <p class="decision">{format!("Decided: {d}")}</p> })}
+                {dup.decision.clone().map(|d| view! { <p class="decision">{t_args("duplicates-decided", &[("decision", d.into())])}</p> })}
                 {undecided.then(|| view! {
                     <div class="actions">
-                        <button type="button" class="same-animal" on:click=move |_| same(true)>"Same animal"</button>
-                        <button type="button" class="different-animals" on:click=move |_| apart(false)>"Different animals"</button>
+                        <button type="button" class="same-animal" on:click=move |_| same(true)>{t("duplicates-same")}</button>
+                        <button type="button" class="different-animals" on:click=move |_| apart(false)>{t("duplicates-different")}</button>
                     </div>
                 })}
-                {undo.map(|undo| view! { <button type="button" class="undo-merge small" on:click=undo>"Undo the merge"</button> })}
+                {undo.map(|undo| view! { <button type="button" class="undo-merge small" on:click=undo>{t("duplicates-undo")}</button> })}
             </li>
         }
     }).collect_view();
     view! {
-        <h4>"Possibly the same animal"</h4>
+        <h4>{t("duplicates-heading")}</h4>
         <ul class="duplicates">{items}</ul>
     }
     .into_any()
