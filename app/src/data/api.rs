@@ -406,6 +406,12 @@ pub async fn review_record(id: &str) -> Result<ReviewDetail, ApiError> {
     get(&format!("/api/review/records/{id}"), Caller::Reviewer).await
 }
 
+/// `GET /api/review/records/{id}/map.svg`: where the record and its photos were made,
+/// as an image address (the browser fetches it with the reviewer's cookie).
+pub fn record_map_address(id: &str) -> String {
+    format!("/api/review/records/{id}/map.svg")
+}
+
 /// `POST /api/review/records/{id}/actions` with one of the reviewer's decisions, as typed.
 async fn review_action(id: &str, action: serde_json::Value) -> Result<(), ApiError> {
     act("POST", &format!("/api/review/records/{id}/actions"), Some(action), Caller::Reviewer).await

@@ -191,6 +191,12 @@ pub fn bench_next_question(species: usize, rounds: usize) -> f64 {
     batches[batches.len() / 2]
 }
 
+/// The CSS classes of a reason the server's key replay gives (`supports`, `against`,
+/// `neutral`), as on the phone's own key.
+pub fn reason_class(effect: &str) -> String {
+    format!("reason {effect}")
+}
+
 #[cfg(test)]
 mod tests {
     use shared_types::{LengthKind, MeasureMethod};

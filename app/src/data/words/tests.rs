@@ -320,7 +320,7 @@ const TECHNICAL_ATTRIBUTES: [&str; 26] = [
 
 /// Literals in screen files that are not words for people: CSS classes chosen in code,
 /// the screens' `#…` addresses, element ids, values of form controls and routes.
-const TECHNICAL_LITERALS: [&str; 20] = [
+const TECHNICAL_LITERALS: [&str; 24] = [
     "#urgent",
     "#samples",
     "#people",
@@ -341,12 +341,16 @@ const TECHNICAL_LITERALS: [&str; 20] = [
     "trend-section",
     "trend-chart",
     "translate({x:.0}px, {y:.0}px) scale({:.3})",
+    "exif-file",
+    "exif-phone",
+    "exif-none",
+    "device",
 ];
 
 /// Screen files whose words are not yet in the catalogues: they show English in every
 /// language until they are moved. The test fails when a listed file has no words left,
 /// so the list only shrinks.
-const NOT_YET_IN_CATALOGUE: [&str; 3] = ["downloads.rs", "people.rs", "review/record.rs"];
+const NOT_YET_IN_CATALOGUE: [&str; 2] = ["downloads.rs", "people.rs"];
 
 /// Screen files that only draw: SVG markup, paths and colours keyed by the checklist's
 /// character and state codes, `aria-hidden`, with no words for people (a state's words

@@ -9,9 +9,12 @@
 //! right under the buttons.
 
 use leptos::prelude::*;
-use shared_types::{KeyReplay, PhotoExif, PhotoFlag, PhotoView, QueueFlag, ReviewDetail, distance_words, hours_words};
+use shared_types::{
+    KeyReplay, MeasureMethod, PhotoExif, PhotoFlag, PhotoView, QueueFlag, ReviewDetail, distance_words, hours_words,
+};
 
-use crate::data::{api, checklist, readable};
+use crate::data::words::{self, t, t_args};
+use crate::data::{api, checklist, key, labels, photos, readable};
 use crate::screens::fieldwork::on_record::RecordFieldwork;
 use crate::screens::review::duplicates::DuplicatesOf;
 use crate::screens::review::zoom::PhotoZoom;
@@ -41,9 +44,9 @@ fn exif_row(class: &str, label: String, exif: &PhotoExif) -> impl IntoView + use
     let when = exif
         .taken_at
         .map(|t| readable::time(&t))
-        .or_else(|| exif.taken_local.clone().map(|t| format!("{t} (no offset)")));
+        .or_else(|| exif.taken_local.clone().map(|local| t_args("record-no-offset", &[("time", local.into())])));
     let offset = exif.offset_source.is_some().then(|| readable::offset_words(exif).to_owned());
-    let error = exif.horizontal_error_m.map(|e| format!("within {e:.0} m"));
+    let error = exif.horizontal_error_m.map(|e| t_args("record-within", &[("metres", words::number(e, 0).into())]));
     let extra = [offset, error].into_iter().flatten().collect::<Vec<_>>().join(" · ");
     time_and_place(class, label, when, exif.latitude, exif.longitude, Some(extra))
 }
@@ -56,19 +59,20 @@ fn photo_rows(photos: &[PhotoView]) -> impl IntoView + use<> {
         .enumerate()
         .map(|(i, photo)| {
             let n = i + 1;
-            let own = says_something(&photo.exif)
-                .then(|| exif_row("exif-file", format!("photo {n} (the file's EXIF)"), &photo.exif).into_any());
+            let own = says_something(&photo.exif).then(|| {
+                exif_row("exif-file", t_args("record-photo-file-exif", &[("number", n.into())]), &photo.exif).into_any()
+            });
             let phone = photo.phone_exif.as_ref().filter(|p| says_something(p)).map(|p| {
-                exif_row("exif-phone", format!("photo {n} (the phone's reading of the original)"), p).into_any()
+                exif_row("exif-phone", t_args("record-photo-phone-exif", &[("number", n.into())]), p).into_any()
             });
             let neither = (own.is_none() && phone.is_none()).then(|| {
                 time_and_place(
                     "exif-none",
-                    format!("photo {n}"),
-                    Some("no EXIF time".into()),
+                    t_args("record-photo", &[("number", n.into())]),
+                    Some(t("record-no-exif-time")),
                     None,
                     None,
-                    Some("no EXIF place".into()),
+                    Some(t("record-no-exif-place")),
                 )
                 .into_any()
             });
@@ -88,20 +92,20 @@ fn photo_checks(photos: &[PhotoView]) -> impl IntoView + use<> {
             let reading = readable::readings_words(check);
             let gap = check.seconds_before_record.map(|s| {
                 if s >= 0.0 {
-                    format!("taken {} before the record", hours_words(s))
+                    t_args("record-taken-before", &[("gap", hours_words(s).into())])
                 } else {
-                    format!("taken {} after the record", hours_words(-s))
+                    t_args("record-taken-after", &[("gap", hours_words(-s).into())])
                 }
             });
-            let far = check.metres_from_record.map(|m| format!("{} from the record's place", distance_words(m)));
+            let far = check.metres_from_record.map(|m| t_args("record-from-place", &[("distance", distance_words(m).into())]));
             let facts = [gap, far].into_iter().flatten().collect::<Vec<_>>().join(", ");
             let flags = check.flags.iter().map(|flag| match flag {
-                PhotoFlag::TakenLongBeforeRecord => QueueFlag::TakenLongBeforeRecord.label(),
-                PhotoFlag::TakenFarFromRecord => QueueFlag::TakenFarFromRecord.label(),
-                PhotoFlag::CutShort => PhotoFlag::CutShort.label(),
+                PhotoFlag::TakenLongBeforeRecord => labels::queue_flag(QueueFlag::TakenLongBeforeRecord),
+                PhotoFlag::TakenFarFromRecord => labels::queue_flag(QueueFlag::TakenFarFromRecord),
+                PhotoFlag::CutShort => t("record-flag-cut-short"),
             });
             let flags = flags.map(|label| view! { <span class="flag">{label}</span> }).collect_view();
-            view! { <li class="photo-check">{format!("photo {} ({reading}): {facts} ", i + 1)}{flags}</li> }
+            view! { <li class="photo-check">{t_args("record-photo-check", &[("number", (i + 1).into()), ("reading", reading.into()), ("facts", facts.into())])}" "{flags}</li> }
         })
         .collect_view()
 }
@@ -109,11 +113,13 @@ fn photo_checks(photos: &[PhotoView]) -> impl IntoView + use<> {
 /// The guided key as the observer used it, replayed on the server.
 fn key_section(choice: Option<shared_types::KeyChoice>, replay: Option<KeyReplay>) -> impl IntoView + use<> {
     let choice = choice?;
-    let picked = format!(
-        "The observer picked {} ({}, {:.0}% when picked).",
-        choice.scientific_name.as_str(),
-        choice.taxon_rank,
-        choice.probability * 100.0
+    let picked = t_args(
+        "record-key-picked",
+        &[
+            ("name", choice.scientific_name.as_str().into()),
+            ("rank", choice.taxon_rank.to_string().into()),
+            ("percent", words::number(choice.probability * 100.0, 0).into()),
+        ],
     );
     let replay = replay.unwrap_or(KeyReplay { answers: Vec::new(), suggestions: Vec::new(), problem: None });
     let answers =
@@ -126,17 +132,17 @@ fn key_section(choice: Option<shared_types::KeyChoice>, replay: Option<KeyReplay
                 Some(common) => format!("{} ({common})", s.scientific_name),
                 None => s.scientific_name.clone(),
             };
-            let reasons = s.reasons.into_iter().map(|r| view! { <li class=format!("reason {}", r.effect)>{r.text}</li> }).collect_view();
+            let reasons = s.reasons.into_iter().map(|r| view! { <li class=key::reason_class(&r.effect)>{r.text}</li> }).collect_view();
             view! { <li class="key-suggestion"><b>{name}</b>{format!(" · {:.0}%", s.probability * 100.0)}<ul class="reasons">{reasons}</ul></li> }
         })
         .collect_view();
     Some(view! {
         <section class="key-replay">
-            <h4>"Guided key"</h4>
+            <h4>{t("record-key-heading")}</h4>
             <p>{picked}</p>
             <table class="key-answers">{answers}</table>
             {replay.problem.map(|p| view! { <p class="problems">{p}</p> })}
-            <p class="hint">"What the key suggests for these answers now, most likely first:"</p>
+            <p class="hint">{t("record-key-now")}</p>
             <ol class="key-suggestions">{suggestions}</ol>
         </section>
     })
@@ -169,7 +175,7 @@ pub fn RecordReview(client_id: String, back: impl Fn() + Copy + 'static) -> impl
     });
     let load = move || reloads.update(|n| *n = n.wrapping_add(1));
     let species = RwSignal::new(String::new());
-    let rank = RwSignal::new("species".to_owned());
+    let rank = RwSignal::new(shared_types::KEY_RANKS[0].to_owned());
     let remark = RwSignal::new(String::new());
     let message = RwSignal::new(String::new());
     // Each decision: send it, then clear the message and show the record as it is now.
@@ -202,7 +208,7 @@ pub fn RecordReview(client_id: String, back: impl Fn() + Copy + 'static) -> impl
     };
 
     view! {
-        <button type="button" class="small" on:click=move |_| back()>"← Back to the queue"</button>
+        <button type="button" class="small" on:click=move |_| back()>{t("record-back")}</button>
         <p class="problems" role="alert">{move || load_problem.get()}</p>
         <PhotoZoom photo=zoomed />
         {move || detail.get().map(|d| {
@@ -218,81 +224,81 @@ pub fn RecordReview(client_id: String, back: impl Fn() + Copy + 'static) -> impl
                 let sha = p.sha256.clone();
                 view! {
                     <button type="button" class="photo-open" on:click=move |_| zoomed.set(Some(sha.clone()))>
-                        <img class="review-photo" src=format!("/photos/{}", p.sha256) alt=format!("photo {} of the record: tap to open it large", i + 1) />
+                        <img class="review-photo" src=photos::served(&p.sha256) alt=t_args("record-photo-alt", &[("number", (i + 1).into())]) />
                     </button>
                 }
             }).collect_view();
-            let guess = sub.species_guess.as_ref().map(|g| g.as_str().to_owned()).unwrap_or_else(|| "no guess".into());
+            let guess = sub.species_guess.as_ref().map(|g| g.as_str().to_owned()).unwrap_or_else(|| t("record-no-guess"));
             let current = d.identifications.iter().find(|i| i.current).map(|i| match checklist::common_name(&i.taxon_name) {
                 Some(common) => format!("{common} ({})", i.taxon_name),
                 None => i.taxon_name.clone(),
             });
             let observer = d.observer.clone().map(|o| {
-                let name = o.display_name.unwrap_or_else(|| "an observer who gave no name".into());
-                let reach = o.contact.map(|c| format!(" · {c}")).unwrap_or_else(|| " · no contact given".into());
-                format!("Sent by {name}{reach}")
+                let name = o.display_name.unwrap_or_else(|| t("record-no-name"));
+                let reach = o.contact.unwrap_or_else(|| t("urgent-no-contact"));
+                t_args("record-sent-by", &[("name", name.into()), ("contact", reach.into())])
             });
             view! {
                 <article id="record-review" data-state=d.record.review_state.code()>
-                    <h3 id="record-heading">{format!("{} · {}", current.clone().unwrap_or_else(|| guess.clone()), d.record.review_state.label())}</h3>
-                    <p class="hint">{format!("Observer's guess: {guess}")}</p>
+                    <h3 id="record-heading">{format!("{} · {}", current.clone().unwrap_or_else(|| guess.clone()), labels::review_state(d.record.review_state))}</h3>
+                    <p class="hint">{t_args("record-guess", &[("guess", guess.clone().into())])}</p>
                     {d.name_reading.clone().map(|n| view! {
-                        <p id="name-reading" class=if n.resolved { "name-reading" } else { "name-reading unresolved" }>
-                            {format!("Name \u{201c}{}\u{201d} → {}. Public place: {}", n.typed, n.reading, n.public_place)}
+                        <p id="name-reading" class="name-reading" class:unresolved=!n.resolved>
+                            {t_args("record-name-reading", &[("typed", n.typed.into()), ("reading", n.reading.into()), ("place", n.public_place.into())])}
                         </p>
                     })}
-                    {observer.map(|line| view! { <p id="observer-contact" class="observer-contact">{line}<span class="hint">" (the contact is for questions about this record only; never exported)"</span></p> })}
+                    {observer.map(|line| view! { <p id="observer-contact" class="observer-contact">{line}<span class="hint">{t("record-contact-use")}</span></p> })}
                     <div class="photos">{photos}</div>
-                    <img class="place-map" src=format!("/api/review/records/{}/map.svg", sub.client_id) alt="map of where the record and its photos were made" />
+                    <img class="place-map" src=api::record_map_address(&sub.client_id.to_string()) alt=t("record-map") />
                     <table class="when-where">
-                        <tr><th></th><th>"when"</th><th>"where"</th><th></th></tr>
-                        {time_and_place("device", "device".into(), Some(readable::time(&sub.observed_at)), position.map(|p| p.latitude.get()), position.map(|p| p.longitude.get()),
-                            position.and_then(|p| p.accuracy_m).map(|a| format!("within {:.0} m", a.get())))}
+                        <tr><th></th><th>{t("record-when")}</th><th>{t("record-where")}</th><th></th></tr>
+                        {time_and_place("device", t("record-device"), Some(readable::time(&sub.observed_at)), position.map(|p| p.latitude.get()), position.map(|p| p.longitude.get()),
+                            position.and_then(|p| p.accuracy_m).map(|a| t_args("record-within", &[("metres", words::number(a.get(), 0).into())])))}
                         {photo_rows(&d.record.photos)}
                     </table>
                     <ul class="photo-checks">{photo_checks(&d.record.photos)}</ul>
                     <ul class="fields">
-                        <li>{format!("count {} · {} · {} · sex {}", sub.count.get(), sub.condition.label(), sub.setting.label(), sub.sex.dwc())}</li>
-                        {sub.length.map(|l| view! { <li>{format!("{:.1} cm {} ({:?})", l.value.centimetres(), l.kind.label(), l.method).to_lowercase()}</li> })}
-                        {(!sub.human_signs.is_empty()).then(|| view! { <li>{format!("signs: {}", sub.human_signs.iter().map(|s| s.label()).collect::<Vec<_>>().join(", "))}</li> })}
-                        {sub.notes.as_ref().map(|n| view! { <li>{format!("notes: {}", n.as_str())}</li> })}
-                        {sub.observer_name.as_ref().map(|n| view! { <li>{format!("observer: {}", n.as_str())}</li> })}
+                        <li>{t_args("record-fields", &[("count", sub.count.get().to_string().into()), ("condition", labels::condition(sub.condition).into()), ("setting", labels::setting(sub.setting).into()), ("sex", sub.sex.dwc().into())])}</li>
+                        {sub.length.map(|l| view! { <li>{t_args("record-length", &[("cm", words::number(l.value.centimetres(), 1).into()), ("kind", labels::length_kind(l.kind).into()), ("method", match l.method { MeasureMethod::Measured => t("form-measured"), MeasureMethod::Estimated => t("form-estimated") }.into())])}</li> })}
+                        {(!sub.human_signs.is_empty()).then(|| view! { <li>{t_args("record-signs", &[("signs", sub.human_signs.iter().map(|s| labels::human_sign(*s)).collect::<Vec<_>>().join(", ").into())])}</li> })}
+                        {sub.notes.as_ref().map(|n| view! { <li>{t_args("carcass-shown-notes", &[("value", n.as_str().into())])}</li> })}
+                        {sub.observer_name.as_ref().map(|n| view! { <li>{t_args("record-observer", &[("name", n.as_str().into())])}</li> })}
                     </ul>
                     {key_section(sub.key_choice.clone(), d.key.clone())}
-                    <h4>"Flags and priority"</h4>
+                    <h4>{t("record-flags-heading")}</h4>
                     <ul class="flags">{d.priority_reasons.iter().map(|r| view! { <li>{r.clone()}</li> }).collect_view()}</ul>
                     <RecordFieldwork detail=d.clone() reload=load />
                     <DuplicatesOf detail=d.clone() reloads=reloads problem=pair_problem />
                     <p id="pair-problem" class="problems" role="alert">{move || pair_problem.get()}</p>
-                    <h4>"Identifications"</h4>
+                    <h4>{t("record-identifications")}</h4>
                     <ol class="identifications">{d.identifications.iter().map(|i| view! {
-                        <li class=if i.current { "current" } else { "superseded" }>{format!("{} ({}) by {} on {} [{}]{}", i.taxon_name, i.taxon_rank.clone().unwrap_or_else(|| "rank not given".into()),
-                            i.identified_by.clone().unwrap_or_else(|| "an observer who gave no name".into()), i.identified_at.format("%Y-%m-%d"), i.basis, i.remarks.as_ref().map(|r| format!(": {r}")).unwrap_or_default())}</li>
+                        <li class:current=i.current class:superseded=!i.current>{t_args("record-identification", &[("name", i.taxon_name.clone().into()), ("rank", i.taxon_rank.clone().unwrap_or_else(|| t("record-no-rank")).into()),
+                            ("who", i.identified_by.clone().unwrap_or_else(|| t("record-no-name")).into()), ("day", readable::day(&i.identified_at).into()), ("basis", i.basis.to_string().into()), ("remarks", i.remarks.as_ref().map(|r| format!(": {r}")).unwrap_or_default().into())])}</li>
                     }).collect_view()}</ol>
-                    <h4>"Messages"</h4>
+                    <h4>{t("record-messages")}</h4>
                     <ul class="messages">{d.messages.iter().map(|m| view! { <li>{format!("{}: {}", m.author.clone().unwrap_or_else(|| m.author_role.code().into()), m.body)}</li> }).collect_view()}</ul>
-                    <h4>"History"</h4>
-                    <ol class="events">{d.events.iter().map(|e| view! { <li>{format!("{} {} → {} by {}: {}{}", e.at.format("%Y-%m-%d %H:%M"), e.from_state.label(), e.to_state.label(), e.by.clone().unwrap_or_default(),
-                        e.detail.clone().unwrap_or_default(), e.reason.as_ref().map(|r| format!(" — “{r}”")).unwrap_or_default())}</li> }).collect_view()}</ol>
+                    <h4>{t("record-history")}</h4>
+                    <ol class="events">{d.events.iter().map(|e| view! { <li>{t_args("record-event", &[("at", readable::minute(&e.at).into()), ("from", labels::review_state(e.from_state).into()), ("to", labels::review_state(e.to_state).into()), ("who", e.by.clone().unwrap_or_default().into()),
+                        ("detail", e.detail.clone().unwrap_or_default().into()), ("reason", e.reason.as_ref().map(|r| format!(" — “{r}”")).unwrap_or_default().into())])}</li> }).collect_view()}</ol>
                 </article>
             }
         })}
         <fieldset class="actions-review">
-            <legend>"Decide"</legend>
+            <legend>{t("record-decide")}</legend>
             <div class="row">
-                <label>"Scientific name" <input id="confirm-name" prop:value=move || species.get() on:input=move |ev| species.set(event_target_value(&ev)) /></label>
-                <label>"Rank" <select id="confirm-rank" on:change=move |ev| rank.set(event_target_value(&ev))>
+                <label>{t("record-scientific-name")}" "<input id="confirm-name" prop:value=move || species.get() on:input=move |ev| species.set(event_target_value(&ev)) /></label>
+                <label>{t("record-rank")}" "<select id="confirm-rank" on:change=move |ev| rank.set(event_target_value(&ev))>
                     {shared_types::KEY_RANKS.iter().map(|r| view! { <option value=*r>{*r}</option> }).collect_view()}
                 </select></label>
             </div>
-            <label>"Remark" <input id="confirm-remark" prop:value=move || remark.get() on:input=move |ev| remark.set(event_target_value(&ev)) /></label>
-            <button id="confirm" type="button" class="primary" on:click=confirm>"Confirm"</button>
-            <label>"Message to the observer, or the reason" <textarea id="review-message" rows="2" prop:value=move || message.get() on:input=move |ev| message.set(event_target_value(&ev))></textarea></label>
+            <label>{t("record-remark")}" "<input id="confirm-remark" prop:value=move || remark.get() on:input=move |ev| remark.set(event_target_value(&ev)) /></label>
+            <button id="confirm" type="button" class="primary" on:click=confirm>{t("record-confirm")}</button>
+            <label>{t("record-message")}" "<textarea id="review-message" rows="2" prop:value=move || message.get() on:input=move |ev| message.set(event_target_value(&ev))></textarea></label>
             <div class="actions">
-                <button id="ask-details" type="button" on:click=ask>"Ask the observer"</button>
-                <button id="not-confirmable" type="button" on:click=refuse>"Not confirmable"</button>
+                <button id="ask-details" type="button" on:click=ask>{t("record-ask")}</button>
+                <button id="not-confirmable" type="button" on:click=refuse>{t("record-not-confirmable")}</button>
             </div>
-            <p class="hint">"The message, or the reason for “not confirmable”, is sent to the observer's phone."</p>
+            <p class="hint">{t("record-message-hint")}</p>
             <p id="decide-problem" class="problems" role="alert">{move || problem.get()}</p>
         </fieldset>
     }
