@@ -282,3 +282,31 @@ record-message = Neges i'r sylwedydd, neu'r rheswm
 record-ask = Gofyn i'r sylwedydd
 record-not-confirmable = Methu ei gadarnhau
 record-message-hint = Caiff y neges, neu'r rheswm dros “methu ei gadarnhau”, ei hanfon i ffôn y sylwedydd.
+
+## People (desk, admins)
+
+people-hint = Does dim angen i sylwedyddion fewngofnodi: mae eu ffôn yn cael ei hunaniaeth ei hun. Nid yw cysylltiadau byth yn gadael y gweinydd.
+people-sign-in-first = { $problem } (mewngofnodwch fel gweinyddwr dan Adolygu yn gyntaf)
+people-now-role = Rôl { $who } bellach: { $role }.
+people-new-password = Mae gan { $who } gyfrinair newydd; daeth eu sesiynau i ben.
+people-turned-off = Mae mewngofnodi { $who } wedi'i ddiffodd.
+people-turned-on = Mae mewngofnodi { $who } wedi'i droi ymlaen.
+people-off-mark = { " " }· wedi'i ddiffodd
+people-role = Rôl
+people-new-password-label = Cyfrinair newydd
+people-set-password = Gosod cyfrinair
+people-turn-on = Troi ymlaen
+people-turn-off = Diffodd
+people-add-legend = Ychwanegu person
+people-name-shown = Enw a ddangosir
+people-password = Cyfrinair (10+ nod)
+people-add = Ychwanegu
+people-added = Ychwanegwyd { $who } fel { $role }. Rhowch eu cyfrinair iddyn nhw wyneb yn wyneb; maen nhw'n mewngofnodi dan Adolygu.
+people-changes = Newidiadau i fewngofnodi
+people-event = { $at } · { $who } · { $action }{ $detail } · gan { $by }
+people-command-line = llinell orchymyn y gweinydd
+people-back = ← Adolygu
+role-observer = sylwedydd
+role-reviewer = adolygydd
+role-admin = gweinyddwr
+role-responder = ymatebwr

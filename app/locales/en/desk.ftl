@@ -278,3 +278,31 @@ record-message = Message to the observer, or the reason
 record-ask = Ask the observer
 record-not-confirmable = Not confirmable
 record-message-hint = The message, or the reason for “not confirmable”, is sent to the observer's phone.
+
+## People (desk, admins)
+
+people-hint = Observers need no sign-in: their phone gets its own identity. Contacts never leave the server.
+people-sign-in-first = { $problem } (sign in as an admin under Review first)
+people-now-role = { $who } is now { $role }.
+people-new-password = { $who } has a new password; their sign-ins ended.
+people-turned-off = { $who }'s sign-in is turned off.
+people-turned-on = { $who }'s sign-in is turned on.
+people-off-mark = { " " }· turned off
+people-role = Role
+people-new-password-label = New password
+people-set-password = Set password
+people-turn-on = Turn on
+people-turn-off = Turn off
+people-add-legend = Add a person
+people-name-shown = Name shown
+people-password = Password (10+ characters)
+people-add = Add
+people-added = { $who } was added as { $role }. Give them their password in person; they sign in under Review.
+people-changes = Changes to sign-ins
+people-event = { $at } · { $who } · { $action }{ $detail } · by { $by }
+people-command-line = the server's command line
+people-back = ← Review
+role-observer = observer
+role-reviewer = reviewer
+role-admin = admin
+role-responder = responder

@@ -4,7 +4,7 @@
 
 #[cfg(feature = "desk")]
 use shared_types::{
-    BodyCondition, CarcassFate, Preservation, QueueFlag, ResponseOutcome, ReviewState, SampleKind, StomachFill,
+    BodyCondition, CarcassFate, Preservation, QueueFlag, ResponseOutcome, ReviewState, Role, SampleKind, StomachFill,
 };
 use shared_types::{Condition, HumanSign, LengthKind, LifeStage, Setting};
 
@@ -150,5 +150,18 @@ pub fn queue_flag(flag: QueueFlag) -> String {
         QueueFlag::PossibleDuplicate => t("flag-possible-duplicate"),
         QueueFlag::TakenLongBeforeRecord => t("flag-photo-older"),
         QueueFlag::TakenFarFromRecord => t("flag-photo-far"),
+    }
+}
+
+/// A person's role, as the people screen names it (desk only); a code the app does not
+/// know is shown as it is.
+#[cfg(feature = "desk")]
+pub fn role_code(code: &str) -> String {
+    match Role::from_code(code) {
+        Some(Role::Observer) => t("role-observer"),
+        Some(Role::Reviewer) => t("role-reviewer"),
+        Some(Role::Admin) => t("role-admin"),
+        Some(Role::Responder) => t("role-responder"),
+        None => code.to_owned(),
     }
 }
