@@ -310,3 +310,18 @@ role-observer = sylwedydd
 role-reviewer = adolygydd
 role-admin = gweinyddwr
 role-responder = ymatebwr
+
+## Downloads (desk)
+
+downloads-heading = Lawrlwytho cofnodion
+downloads-public-form = Mae'r ffurf gyhoeddus yn cyffredinoli rhywogaethau sensitif (Chapman 2020, GBIF): mae eu safleoedd wedi'u talgrynnu neu eu dal yn ôl, ac maen nhw'n dweud hynny. Nid yw cysylltiadau sylwedyddion byth yn cael eu cynnwys.
+downloads-format = Fformat
+downloads-dwca = Archif Darwin Core (zip)
+downloads-csv = CSV
+downloads-geojson = GeoJSON
+downloads-taxon = Tacson (gwag: y cyfan)
+downloads-full = { " " }Ffurf lawn: safleoedd fel y'u cofnodwyd, gan gynnwys rhywogaethau sensitif (adolygwyr a gweinyddwyr yn unig; peidiwch â'i rhannu)
+downloads-download = Lawrlwytho
+downloads-state-confirmed = Yn cyfrif cofnodion wedi'u cadarnhau yn unig: y rhai y mae adolygydd wedi'u gwirio.
+downloads-state-any = Yn cyfrif pob cofnod sydd wedi'i gadw, wedi'i adolygu neu beidio: gall cofnodion heb eu cadarnhau fod yn anghywir.
+downloads-state-other = Yn cyfrif cofnodion yn y cyflwr “{ $state }” yn unig.

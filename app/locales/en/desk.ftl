@@ -306,3 +306,18 @@ role-observer = observer
 role-reviewer = reviewer
 role-admin = admin
 role-responder = responder
+
+## Downloads (desk)
+
+downloads-heading = Download records
+downloads-public-form = The public form generalises sensitive species (Chapman 2020, GBIF): their positions are rounded or withheld, and say so. Observers' contacts are never included.
+downloads-format = Format
+downloads-dwca = Darwin Core Archive (zip)
+downloads-csv = CSV
+downloads-geojson = GeoJSON
+downloads-taxon = Taxon (blank: all)
+downloads-full = { " " }Full form: positions as recorded, sensitive species included (reviewers and admins only; do not pass it on)
+downloads-download = Download
+downloads-state-confirmed = Counting confirmed records only: those a reviewer has checked.
+downloads-state-any = Counting every stored record, reviewed or not: unconfirmed records may be wrong.
+downloads-state-other = Counting records in the state “{ $state }” only.

@@ -5,6 +5,7 @@
 //! server decides what the caller may have.
 
 use crate::data::api::query_part;
+use crate::data::words::{t, t_args};
 
 /// The records figures and downloads use unless the reader chooses: the confirmed ones,
 /// as the server's API and command line default (`server::assess::DEFAULT_STATE`).
@@ -13,9 +14,9 @@ pub const DEFAULT_STATE: &str = "confirmed";
 /// What a review-state choice means, said under it.
 pub fn state_words(state: &str) -> String {
     match state {
-        "confirmed" => "Counting confirmed records only: those a reviewer has checked.".to_owned(),
-        "any" => "Counting every stored record, reviewed or not: unconfirmed records may be wrong.".to_owned(),
-        other => format!("Counting records in the state “{}” only.", other.replace('_', " ")),
+        "confirmed" => t("downloads-state-confirmed"),
+        "any" => t("downloads-state-any"),
+        other => t_args("downloads-state-other", &[("state", other.replace('_', " ").into())]),
     }
 }
 

@@ -92,7 +92,8 @@ fn catalogue_for(code: &str) -> FluentBundle<FluentResource> {
     bundle.set_use_isolating(false);
     let resource = FluentResource::try_new((*source).to_owned()).unwrap_or_else(|(resource, _)| resource);
     bundle.add_resource_overriding(resource);
-    #[cfg(feature = "desk")]
+    // Native unit tests read the desk's words too, whichever bundle they are built for.
+    #[cfg(any(feature = "desk", test))]
     if let Some((_, desk)) = DESK_CATALOGUES.iter().find(|(c, _)| c == code) {
         let resource = FluentResource::try_new((*desk).to_owned()).unwrap_or_else(|(resource, _)| resource);
         bundle.add_resource_overriding(resource);

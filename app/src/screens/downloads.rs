@@ -6,6 +6,7 @@
 use leptos::prelude::*;
 
 use crate::data::downloads::ExportFilters;
+use crate::data::words::t;
 use crate::data::{api, checklist};
 
 #[component]
@@ -21,40 +22,42 @@ pub fn ExportSection() -> impl IntoView {
         .map(|(name, bbox)| view! { <option value=bbox>{name}</option> })
         .collect_view();
     let full_choice = move || {
-        staff.get().then(|| view! {
-            <label class="check"><input id="export-full" type="checkbox" prop:checked=move || filters.get().full
-                on:change=move |ev| filters.update(|f| f.full = event_target_checked(&ev)) />
-                " Full form: positions as recorded, sensitive species included (reviewers and admins only; do not pass it on)"</label>
+        staff.get().then(|| {
+            view! {
+                <label class="check"><input id="export-full" type="checkbox" prop:checked=move || filters.get().full
+                    on:change=move |ev| filters.update(|f| f.full = event_target_checked(&ev)) />
+                    {t("downloads-full")}</label>
+            }
         })
     };
     view! {
         <section class="card exports">
-            <h2>"Download records"</h2>
-            <p class="hint">"The public form generalises sensitive species (Chapman 2020, GBIF): their positions are rounded or withheld, and say so. Observers' contacts are never included."</p>
+            <h2>{t("downloads-heading")}</h2>
+            <p class="hint">{t("downloads-public-form")}</p>
             <div class="stack">
-                <label>"Format" <select id="export-format" prop:value=move || filters.get().format on:change=set(|f, v| f.format = v)>
-                    <option value="dwca">"Darwin Core Archive (zip)"</option>
-                    <option value="csv">"CSV"</option>
-                    <option value="geojson">"GeoJSON"</option>
+                <label>{t("downloads-format")}" "<select id="export-format" prop:value=move || filters.get().format on:change=set(|f, v| f.format = v)>
+                    <option value="dwca">{t("downloads-dwca")}</option>
+                    <option value="csv">{t("downloads-csv")}</option>
+                    <option value="geojson">{t("downloads-geojson")}</option>
                 </select></label>
-                <label>"Taxon (blank: all)" <input id="export-taxon" prop:value=move || filters.get().taxon on:input=set(|f, v| f.taxon = v) /></label>
+                <label>{t("downloads-taxon")}" "<input id="export-taxon" prop:value=move || filters.get().taxon on:input=set(|f, v| f.taxon = v) /></label>
                 <div class="row">
-                    <label>"From" <input id="export-from" type="date" prop:value=move || filters.get().from on:input=set(|f, v| f.from = v) /></label>
-                    <label>"To" <input id="export-to" type="date" prop:value=move || filters.get().to on:input=set(|f, v| f.to = v) /></label>
+                    <label>{t("queue-from")}" "<input id="export-from" type="date" prop:value=move || filters.get().from on:input=set(|f, v| f.from = v) /></label>
+                    <label>{t("queue-to")}" "<input id="export-to" type="date" prop:value=move || filters.get().to on:input=set(|f, v| f.to = v) /></label>
                 </div>
-                <label>"Area" <select id="export-area" prop:value=move || filters.get().area on:change=set(|f, v| f.area = v)>
-                    <option value="">"anywhere"</option>
+                <label>{t("queue-area")}" "<select id="export-area" prop:value=move || filters.get().area on:change=set(|f, v| f.area = v)>
+                    <option value="">{t("queue-anywhere")}</option>
                     {area_options}
                 </select></label>
-                <label>"Records" <select id="export-state" prop:value=move || filters.get().state on:change=set(|f, v| f.state = v)>
-                    <option value="confirmed">"confirmed only"</option>
-                    <option value="any">"all, reviewed or not"</option>
-                    <option value="awaiting_review">"awaiting review"</option>
+                <label>{t("figures-records")}" "<select id="export-state" prop:value=move || filters.get().state on:change=set(|f, v| f.state = v)>
+                    <option value="confirmed">{t("figures-confirmed-only")}</option>
+                    <option value="any">{t("figures-all-records")}</option>
+                    <option value="awaiting_review">{t("state-awaiting-review")}</option>
                 </select></label>
                 <p id="export-state-words" class="hint">{move || crate::data::downloads::state_words(&filters.with(|f| f.state.clone()))}</p>
                 {full_choice}
             </div>
-            <a id="export-download" class="button primary" href=move || filters.with(|f| f.url()) download=move || filters.with(|f| f.file_name())>"Download"</a>
+            <a id="export-download" class="button primary" href=move || filters.with(|f| f.url()) download=move || filters.with(|f| f.file_name())>{t("downloads-download")}</a>
         </section>
     }
 }

@@ -347,11 +347,6 @@ const TECHNICAL_LITERALS: [&str; 24] = [
     "device",
 ];
 
-/// Screen files whose words are not yet in the catalogues: they show English in every
-/// language until they are moved. The test fails when a listed file has no words left,
-/// so the list only shrinks.
-const NOT_YET_IN_CATALOGUE: [&str; 1] = ["downloads.rs"];
-
 /// Screen files that only draw: SVG markup, paths and colours keyed by the checklist's
 /// character and state codes, `aria-hidden`, with no words for people (a state's words
 /// come from the checklist and are shown beside its picture).
@@ -447,21 +442,9 @@ fn closing(tokens: &[Token], open: usize, open_char: char, close: char) -> usize
 #[test]
 fn no_screen_keeps_words_of_its_own() {
     let left = words_left_in_screens(&source_files());
-    let pending = |line: &String| NOT_YET_IN_CATALOGUE.iter().any(|file| line.contains(&format!("screens/{file}:")));
-    let unlisted: Vec<&String> = left.iter().filter(|line| !pending(line)).collect();
-    assert!(
-        unlisted.is_empty(),
-        "words in screen files that are not in the catalogues ({}): {unlisted:#?}",
-        unlisted.len()
-    );
+    assert!(left.is_empty(), "words in screen files that are not in the catalogues ({}): {left:#?}", left.len());
     for file in DRAWINGS {
         assert!(app_dir().join("src/screens").join(file).is_file(), "{file} is listed in DRAWINGS but is not there");
-    }
-    for file in NOT_YET_IN_CATALOGUE {
-        assert!(
-            left.iter().any(|line| line.contains(&format!("screens/{file}:"))),
-            "{file} has no words of its own left: take it off NOT_YET_IN_CATALOGUE"
-        );
     }
 }
 
