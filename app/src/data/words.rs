@@ -1,6 +1,7 @@
 //! Every word the app shows, in the person's language: the message catalogues in
-//! `app/locales/<language>/app.ftl` (Fluent syntax; the desk's own words in `desk.ftl`,
-//! compiled into the desk's bundle only) are compiled in, one is chosen at
+//! `app/locales/<language>/app.ftl` (Fluent syntax; the phone's screens' own words in
+//! `phone.ftl` and the desk's in `desk.ftl`, each compiled into its own bundle only) are
+//! compiled in, one is chosen at
 //! start — the one kept on this device by the page's language switch, else the first of
 //! the browser's languages that the app speaks, else English — and [`t`] / [`t_args`]
 //! look a message up by its id. Numbers and dates shown to people are formatted for the
@@ -28,6 +29,12 @@ pub const LANGUAGES: [(&str, &str, &str); 2] = [
 #[cfg(any(feature = "desk", test))]
 const DESK_CATALOGUES: [(&str, &str); 2] =
     [("en", include_str!("../../locales/en/desk.ftl")), ("cy", include_str!("../../locales/cy/desk.ftl"))];
+
+/// The phone's screens' own words per language (code, catalogue), added to the
+/// language's catalogue in the phone's bundle only, so the desk never downloads them.
+#[cfg(any(not(feature = "desk"), test))]
+const PHONE_CATALOGUES: [(&str, &str); 2] =
+    [("en", include_str!("../../locales/en/phone.ftl")), ("cy", include_str!("../../locales/cy/phone.ftl"))];
 
 /// Where the language chosen with the switch is kept on this device.
 const CHOSEN_KEY: &str = "wrackline.language";
@@ -92,13 +99,20 @@ fn catalogue_for(code: &str) -> FluentBundle<FluentResource> {
     bundle.set_use_isolating(false);
     let resource = FluentResource::try_new((*source).to_owned()).unwrap_or_else(|(resource, _)| resource);
     bundle.add_resource_overriding(resource);
-    // Native unit tests read the desk's words too, whichever bundle they are built for.
+    // Native unit tests read both bundles' words, whichever bundle they are built for.
     #[cfg(any(feature = "desk", test))]
-    if let Some((_, desk)) = DESK_CATALOGUES.iter().find(|(c, _)| c == code) {
-        let resource = FluentResource::try_new((*desk).to_owned()).unwrap_or_else(|(resource, _)| resource);
+    add_words(&mut bundle, &DESK_CATALOGUES, code);
+    #[cfg(any(not(feature = "desk"), test))]
+    add_words(&mut bundle, &PHONE_CATALOGUES, code);
+    bundle
+}
+
+/// Adds one bundle's own words in `code` (from `catalogues`) to `bundle`.
+fn add_words(bundle: &mut FluentBundle<FluentResource>, catalogues: &[(&str, &str)], code: &str) {
+    if let Some((_, source)) = catalogues.iter().find(|(c, _)| *c == code) {
+        let resource = FluentResource::try_new((*source).to_owned()).unwrap_or_else(|(resource, _)| resource);
         bundle.add_resource_overriding(resource);
     }
-    bundle
 }
 
 /// The message `id` in the language in use, with `args` put in its placeholders.

@@ -243,20 +243,87 @@ fn ids_used(files: &[(PathBuf, Vec<Token>)]) -> BTreeMap<String, PathBuf> {
     used
 }
 
-/// Each language's catalogue: `app.ftl` and the desk's `desk.ftl` together (an id may
-/// be in only one of them).
+/// Each language's catalogue: `app.ftl`, the desk's `desk.ftl` and the phone's
+/// `phone.ftl` together (an id may be in only one of them).
 fn catalogues() -> Vec<(&'static str, Placeholders)> {
     LANGUAGES
         .iter()
         .map(|(code, _, source)| {
             let mut messages = placeholders(code, source);
-            let (_, desk) = DESK_CATALOGUES.iter().find(|(c, _)| c == code).expect("every language has desk words");
-            for (id, names) in placeholders(code, desk) {
-                assert!(messages.insert(id.clone(), names).is_none(), "{code}: {id} is in app.ftl and desk.ftl");
+            for (file, own) in [
+                ("desk.ftl", bundle_words(&DESK_CATALOGUES, code)),
+                ("phone.ftl", bundle_words(&PHONE_CATALOGUES, code)),
+            ] {
+                for (id, names) in own {
+                    assert!(messages.insert(id.clone(), names).is_none(), "{code}: {id} is in {file} and another file");
+                }
             }
             (*code, messages)
         })
         .collect()
+}
+
+/// One bundle's own messages in `code`.
+fn bundle_words(catalogues: &[(&str, &str)], code: &str) -> Placeholders {
+    let (_, source) = catalogues.iter().find(|(c, _)| *c == code).expect("every language has each bundle's words");
+    placeholders(code, source)
+}
+
+/// Which bundle compiles a source file: a screen module `screens/mod.rs` marks
+/// `#[cfg(feature = "desk")]` is the desk's, one it marks `#[cfg(not(feature = "desk"))]`
+/// the phone's; everything else is in both.
+#[derive(Debug, Clone, Copy, PartialEq)]
+enum Bundle {
+    Phone,
+    Desk,
+    Both,
+}
+
+fn bundles_of_screens() -> BTreeMap<String, Bundle> {
+    let source = std::fs::read_to_string(app_dir().join("src/screens/mod.rs")).expect("screens/mod.rs is readable");
+    let mut marked = BTreeMap::new();
+    let mut pending = None;
+    for line in source.lines().map(str::trim) {
+        if line == r#"#[cfg(feature = "desk")]"# {
+            pending = Some(Bundle::Desk);
+        } else if line == r#"#[cfg(not(feature = "desk"))]"# {
+            pending = Some(Bundle::Phone);
+        } else if let Some(name) = line.strip_prefix("pub mod ").or_else(|| line.strip_prefix("mod ")) {
+            marked.insert(name.trim_end_matches(';').to_owned(), pending.take().unwrap_or(Bundle::Both));
+        }
+    }
+    marked
+}
+
+fn bundle_of(path: &Path, screens: &BTreeMap<String, Bundle>) -> Bundle {
+    let Ok(inside) = path.strip_prefix(app_dir().join("src/screens")) else { return Bundle::Both };
+    let first = inside.components().next().map(|c| c.as_os_str().to_string_lossy().trim_end_matches(".rs").to_owned());
+    first.and_then(|name| screens.get(&name).copied()).unwrap_or(Bundle::Both)
+}
+
+/// Each bundle carries only its own words: the phone's screens ask for none of the
+/// desk's, the desk's screens for none of the phone's, and code in both bundles for none
+/// of the phone's (the desk's words asked for by code in both bundles are for functions
+/// only the desk calls; the phone would show their ids).
+#[test]
+fn each_bundle_finds_the_words_it_asks_for_in_its_own_catalogues() {
+    let screens = bundles_of_screens();
+    assert_eq!(screens.get("review"), Some(&Bundle::Desk), "screens/mod.rs was not read: {screens:?}");
+    assert_eq!(screens.get("record"), Some(&Bundle::Phone), "screens/mod.rs was not read: {screens:?}");
+    for (code, _, _) in LANGUAGES {
+        let desk = bundle_words(&DESK_CATALOGUES, code);
+        let phone = bundle_words(&PHONE_CATALOGUES, code);
+        for (path, tokens) in source_files() {
+            let file = vec![(path.clone(), tokens)];
+            for id in ids_used(&file).keys() {
+                let wrong = match bundle_of(&path, &screens) {
+                    Bundle::Phone => desk.contains_key(id).then_some("desk.ftl"),
+                    Bundle::Desk | Bundle::Both => phone.contains_key(id).then_some("phone.ftl"),
+                };
+                assert!(wrong.is_none(), "{code}: {} asks for {id}, which is in {wrong:?} only", path.display());
+            }
+        }
+    }
 }
 
 #[test]
