@@ -230,3 +230,52 @@ def make_walks():
 
 if __name__ == "__main__":
     make_walks()
+
+
+# The demo reviewer's decisions, so the demo's public exports and figures have records in
+# them: no randomness, a rule anyone can read. A record with a measured length is
+# confirmed at species; the first basking shark with an estimated length gets a question
+# back; the rest (three of them with photos) wait for review.
+SCIENTIFIC_NAMES = {
+    "small-spotted catshark": "Scyliorhinus canicula",
+    "thornback ray": "Raja clavata",
+    "spurdog": "Squalus acanthias",
+    "tope": "Galeorhinus galeus",
+    "common stingray": "Dasyatis pastinaca",
+    "nursehound": "Scyliorhinus stellaris",
+    "blonde ray": "Raja brachyura",
+    "starry smooth-hound": "Mustelus asterias",
+    "small-eyed ray": "Raja microocellata",
+    "basking shark": "Cetorhinus maximus",
+}
+
+
+def make_reviews():
+    with open("records.json") as handle:
+        records = json.load(handle)
+    reviews = []
+    asked = False
+    for record in records:
+        sub = record["submission"]
+        measured = sub["length"]["method"] == "measured"
+        if measured:
+            evidence = "the photo and the measured length" if record["photos"] else "the measured length and the notes"
+            reviews.append({"client_id": sub["client_id"], "decision": {
+                "action": "confirm",
+                "scientific_name": SCIENTIFIC_NAMES[sub["species_guess"]],
+                "taxon_rank": "species",
+                "remark": f"Demo review: confirmed from {evidence} (an invented decision).",
+            }})
+        elif sub["species_guess"] == "basking shark" and not asked:
+            asked = True
+            reviews.append({"client_id": sub["client_id"], "decision": {
+                "action": "request_details",
+                "message": "Demo review: was the length paced out or guessed from the boat? A photo would help.",
+            }})
+    with open("reviews.json", "w") as out:
+        json.dump(reviews, out, indent=1)
+        out.write("\n")
+
+
+if __name__ == "__main__":
+    make_reviews()

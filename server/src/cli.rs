@@ -188,9 +188,15 @@ fn serve(data_dir: &std::path::Path, args: ServeArgs, with_demo: bool) -> anyhow
     let runtime = tokio::runtime::Runtime::new().context("starting the async runtime")?;
     runtime.block_on(async move {
         if with_demo {
+            let people = demo::ensure_demo_people(&state).await?;
             let loaded = demo::load_if_empty(&state).await?;
-            println!("demo: {loaded} demo records loaded into {}", data_dir.display());
-            for person in demo::ensure_demo_people(&state).await? {
+            println!(
+                "demo: {} demo records loaded into {}, {} of them confirmed by the demo reviewer",
+                loaded.records,
+                data_dir.display(),
+                loaded.confirmed
+            );
+            for person in people {
                 let (username, role) = (person.username, person.role);
                 match person.new_password {
                     Some(password) => println!("demo sign-in ({role}): username {username}, password {password}"),

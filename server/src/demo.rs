@@ -1,6 +1,8 @@
 //! The demo records: an invented recording network on the Cardigan Bay coast, built
 //! into the binary so `wrackline demo` works from any folder. They go through the same
-//! intake as a phone's submissions. See `demo-records/README.md`.
+//! intake as a phone's submissions, and part of them are then decided by the demo
+//! reviewer through the same review rules as the desk's, so the demo's public exports and
+//! figures are not empty. See `demo-records/README.md`.
 
 use chrono::Utc;
 use serde::Deserialize;
@@ -8,10 +10,11 @@ use serde::Deserialize;
 use crate::intake::received::ReceivedPhoto;
 use crate::intake::{self, Upload};
 use crate::state::AppState;
-use crate::store::observations;
+use crate::store::{observations, review as review_store};
 
 const RECORDS_JSON: &str = include_str!("../../demo-records/records.json");
 const WALKS_JSON: &str = include_str!("../../demo-records/walks.json");
+const REVIEWS_JSON: &str = include_str!("../../demo-records/reviews.json");
 
 /// The demo photos, by the file names `records.json` uses.
 const PHOTOS: &[(&str, &[u8])] = &[
@@ -29,11 +32,26 @@ struct DemoRecord {
     photos: Vec<String>,
 }
 
-/// Loads every demo record and survey walk if the database holds no observations;
-/// returns how many records.
-pub async fn load_if_empty(state: &AppState) -> anyhow::Result<usize> {
+/// One of the demo reviewer's decisions, as the desk would send it.
+#[derive(Deserialize)]
+struct DemoReview {
+    client_id: uuid::Uuid,
+    decision: shared_types::ReviewAction,
+}
+
+/// What [`load_if_empty`] loaded.
+pub struct Loaded {
+    pub records: usize,
+    /// Records the demo reviewer confirmed (public in the exports and figures).
+    pub confirmed: usize,
+}
+
+/// Loads every demo record and survey walk if the database holds no observations, and
+/// applies the demo reviewer's decisions (the demo sign-ins must exist:
+/// [`ensure_demo_people`] first).
+pub async fn load_if_empty(state: &AppState) -> anyhow::Result<Loaded> {
     if state.store.run(|conn| observations::count_observations(conn)).await? > 0 {
-        return Ok(0);
+        return Ok(Loaded { records: 0, confirmed: 0 });
     }
     let records: Vec<DemoRecord> = serde_json::from_str(RECORDS_JSON)?;
     for (index, record) in records.iter().enumerate() {
@@ -53,7 +71,33 @@ pub async fn load_if_empty(state: &AppState) -> anyhow::Result<usize> {
             .await
             .map_err(|err| anyhow::anyhow!("demo walk {}: {err}", index + 1))?;
     }
-    Ok(records.len())
+    let confirmed = apply_reviews(state).await?;
+    Ok(Loaded { records: records.len(), confirmed })
+}
+
+/// Applies `reviews.json` as the demo reviewer; returns how many records it confirmed.
+async fn apply_reviews(state: &AppState) -> anyhow::Result<usize> {
+    let reviewer = state
+        .store
+        .read(|conn| crate::store::people::staff_by_username(conn, DEMO_REVIEWER))
+        .await?
+        .ok_or_else(|| anyhow::anyhow!("the demo sign-in {DEMO_REVIEWER} is not there to review the demo records"))?
+        .0
+        .id;
+    let reviews: Vec<DemoReview> = serde_json::from_str(REVIEWS_JSON)?;
+    let mut confirmed = 0;
+    for DemoReview { client_id, decision } in reviews {
+        let is_confirm = matches!(decision, shared_types::ReviewAction::Confirm { .. });
+        let decide = move |current| crate::review::decide(current, &decision);
+        let outcome =
+            state.store.run(move |conn| review_store::apply(conn, client_id, reviewer, Utc::now(), decide)).await?;
+        match outcome {
+            Some(Ok(_)) => confirmed += usize::from(is_confirm),
+            Some(Err(refused)) => anyhow::bail!("demo review of {client_id}: {refused}"),
+            None => anyhow::bail!("demo review of {client_id}: no such demo record"),
+        }
+    }
+    Ok(confirmed)
 }
 
 fn photo_bytes(name: &str) -> anyhow::Result<&'static [u8]> {
@@ -67,7 +111,10 @@ fn photo_bytes(name: &str) -> anyhow::Result<&'static [u8]> {
 /// The demo's sign-ins: (username, role). Made only by `wrackline demo`, never by
 /// `serve`, each with a password drawn at random when it is made.
 pub const DEMO_PEOPLE: &[(&str, shared_types::Role)] =
-    &[("demo-reviewer", shared_types::Role::Reviewer), ("demo-admin", shared_types::Role::Admin)];
+    &[(DEMO_REVIEWER, shared_types::Role::Reviewer), ("demo-admin", shared_types::Role::Admin)];
+
+/// The demo sign-in whose decisions `reviews.json` holds.
+const DEMO_REVIEWER: &str = "demo-reviewer";
 
 /// A demo sign-in as made now, or found made before.
 pub struct DemoSignIn {

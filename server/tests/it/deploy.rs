@@ -306,3 +306,38 @@ async fn demo_sign_ins_get_random_passwords_shown_once_and_stored_only_as_hashes
     assert!(text.contains("printed when it was made"), "{text}");
     server.stop();
 }
+
+/// The demo's public data: the demo reviewer's decisions in `demo-records/reviews.json`
+/// are applied at load, so an anonymous visitor's export has the confirmed records, each
+/// with the reviewer's remark, and the records still waiting stay out of it.
+#[tokio::test]
+async fn the_demo_has_confirmed_records_in_its_public_export() {
+    let reviews: serde_json::Value =
+        serde_json::from_str(&std::fs::read_to_string(workspace().join("demo-records/reviews.json")).unwrap()).unwrap();
+    let confirmed: BTreeSet<String> = reviews
+        .as_array()
+        .unwrap()
+        .iter()
+        .filter(|r| r["decision"]["action"] == "confirm")
+        .map(|r| r["client_id"].as_str().unwrap().to_owned())
+        .collect();
+    assert!(confirmed.len() >= 10, "the demo confirms enough records to draw figures: {}", confirmed.len());
+    let dir = tempfile::tempdir().unwrap();
+    let mut command = wrackline();
+    command.arg("--data-dir").arg(dir.path()).args(["demo", "--bind", "127.0.0.1:0"]);
+    let (server, printed) = process::start_command(command);
+    let said_confirmed = format!("{} of them confirmed by the demo reviewer", confirmed.len());
+    assert!(printed.iter().any(|line| line.contains(&said_confirmed)), "{printed:?}");
+    let csv = reqwest::get(format!("{}/api/export?format=csv", server.base)).await.unwrap().text().await.unwrap();
+    let mut rows = csv.lines();
+    assert!(rows.next().unwrap().starts_with("occurrenceID,"), "{csv}");
+    let mut public = BTreeSet::new();
+    for row in rows {
+        // The reviewer's remark is in the row; the name is protected for the public.
+        assert!(row.contains("Demo review: confirmed") && row.contains(",confirmed,"), "{row}");
+        let id = row.split(',').next().unwrap();
+        public.insert(id.trim_start_matches("urn:uuid:").to_owned());
+    }
+    assert_eq!(public, confirmed, "the public export holds exactly the confirmed demo records");
+    server.stop();
+}
