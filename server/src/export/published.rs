@@ -8,7 +8,8 @@
 //! records come out the same (the package version, a hash of the data files, is
 //! unchanged), the entity tag and the time it was last modified stay as they were, so a
 //! harvester sees a new version only when the published data, the licence or the
-//! dataset's description changed. Only one build runs at a time.
+//! dataset's description changed. The time each version was first built is kept in the
+//! store, so a restart changes neither. Only one build runs at a time.
 
 use std::io::Read as _;
 use std::sync::Arc;
@@ -19,7 +20,7 @@ use sha2::{Digest as _, Sha256};
 use super::{Audience, ExportError, ExportRequest, Format, write_export};
 use crate::export::filters::Days;
 use crate::settings::Settings;
-use crate::store::Store;
+use crate::store::{Store, deployment};
 use crate::taxa::TaxonIndex;
 
 /// One published version.
@@ -32,7 +33,8 @@ pub struct Published {
     /// The entity tag (quoted): the package version and a hash of the settings the
     /// metadata states.
     pub etag: String,
-    /// When this version was first built by this process (whole seconds).
+    /// When this version was first built (whole seconds), kept in the store across
+    /// restarts.
     pub modified: SystemTime,
     pub archive: Vec<u8>,
     pub eml: Vec<u8>,
@@ -70,9 +72,9 @@ impl PublishedCache {
         let package_id = summary.package_id.unwrap_or_default();
         let version = package_id.rsplit('/').next().unwrap_or_default();
         let etag = format!("\"{version}-{settings_tag}\"");
-        let modified = match slot.as_ref() {
-            Some(kept) if kept.etag == etag => kept.modified,
-            _ => whole_seconds(SystemTime::now()),
+        let (modified, changes) = match slot.as_ref() {
+            Some(kept) if kept.etag == etag => (kept.modified, changes),
+            _ => first_published(store, &etag, changes).await?,
         };
         let eml = eml_of(&archive)?;
         let published = Arc::new(Published { changes, package_id, etag, modified, archive, eml });
@@ -101,6 +103,29 @@ fn published_request(settings: &Settings) -> ExportRequest {
 fn settings_fingerprint(request: &ExportRequest) -> String {
     let described = format!("{:?}\n{:?}\n{}", request.licence, request.dataset, request.base_url);
     Sha256::digest(described.as_bytes()).iter().take(4).map(|b| format!("{b:02x}")).collect()
+}
+
+/// When version `etag` was first built, kept in the store so that it survives restarts
+/// (now, for a version never built before), and the store's count of writes to keep
+/// with it: keeping the time is itself a write, which must not make the next request
+/// build again, but any other write in between must.
+async fn first_published(store: &Store, etag: &str, read_at: u64) -> Result<(SystemTime, u64), ExportError> {
+    let tag = etag.to_owned();
+    if let Some(at) = store.read(move |conn| deployment::version_published_at(conn, &tag)).await? {
+        return Ok((parse_time(&at), read_at));
+    }
+    let now = whole_seconds(SystemTime::now());
+    let at = chrono::DateTime::<chrono::Utc>::from(now).to_rfc3339_opts(chrono::SecondsFormat::Secs, true);
+    let tag = etag.to_owned();
+    let kept = store.run(move |conn| deployment::keep_version_published_at(conn, &tag, &at)).await?;
+    let changes = store.changes();
+    Ok((parse_time(&kept), if changes == read_at + 1 { changes } else { read_at }))
+}
+
+/// A kept RFC 3339 time; the start of 1970 if it cannot be read, which only makes
+/// conditional requests by date miss (the entity tag still matches).
+fn parse_time(at: &str) -> SystemTime {
+    chrono::DateTime::parse_from_rfc3339(at).map_or(SystemTime::UNIX_EPOCH, SystemTime::from)
 }
 
 fn whole_seconds(time: SystemTime) -> SystemTime {

@@ -32,6 +32,7 @@ const MIGRATIONS: &[(&str, &str)] = &[
     ("0017_current_taxon_index", include_str!("../../../migrations/0017_current_taxon_index.sql")),
     ("0018_fieldwork", include_str!("../../../migrations/0018_fieldwork.sql")),
     ("0019_imported_records", include_str!("../../../migrations/0019_imported_records.sql")),
+    ("0020_published_versions", include_str!("../../../migrations/0020_published_versions.sql")),
 ];
 
 /// Migrations that rebuild a table other tables refer to. SQLite's procedure for that

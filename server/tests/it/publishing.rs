@@ -128,3 +128,33 @@ async fn the_metadata_describes_the_dataset_as_the_operator_set_it() {
     assert!(sentence.contains("except for commercial purposes"), "{sentence}");
     assert!(!sentence.contains("This work is licensed under"), "{sentence}");
 }
+
+/// A restart keeps the published version's `Last-Modified`, so a harvester asking
+/// `If-Modified-Since` after an upgrade or a reboot gets 304, not the same archive again
+/// (RFC 9110 §13.1.3). The real binary, stopped and started on the same data folder.
+#[tokio::test]
+async fn a_restart_keeps_the_published_version_and_its_time() {
+    let dir = tempfile::tempdir().unwrap();
+    let identity = |server: &crate::process::Server| {
+        let url = format!("{}/dataset/eml.xml", server.base);
+        async move {
+            let response = reqwest::get(url).await.unwrap();
+            assert_eq!(response.status(), 200);
+            let header = |name: &str| response.headers()[name].to_str().unwrap().to_owned();
+            (header("etag"), header("last-modified"))
+        }
+    };
+    // The public address is part of the version (photo links point under it); a real
+    // installation keeps it, so both starts give the same one.
+    let flags = ["--public-url", "https://records.example.org"];
+    let server = crate::process::start(dir.path(), "127.0.0.1:0", &flags);
+    let before = identity(&server).await;
+    server.stop();
+    tokio::time::sleep(std::time::Duration::from_millis(1100)).await; // Last-Modified has whole seconds
+    let server = crate::process::start(dir.path(), "127.0.0.1:0", &flags);
+    assert_eq!(identity(&server).await, before, "the same version, first built before the restart");
+    let client = reqwest::Client::new();
+    let asked = client.get(format!("{}/dataset/archive.zip", server.base)).header("if-modified-since", &before.1);
+    assert_eq!(asked.send().await.unwrap().status(), 304);
+    server.stop();
+}
