@@ -33,10 +33,14 @@ type Entry = GeomWithData<Rectangle<[f64; 4]>, i64>;
 /// the places stored before the start are bulk-loaded into a tree that is only ever
 /// queried ([`Settled`] has no insert), and places arriving later go into a tree built
 /// by insertion alone, which stays balanced. A search asks both.
+///
+/// The index also knows the newest record id it has taken in, so a search can first take
+/// in records another process stored since (`wrackline import` beside a running server).
 #[derive(Default)]
 pub struct Index {
     settled: Settled,
     arrived: RTree<Entry>,
+    newest: i64,
 }
 
 /// A bulk-loaded tree, for queries only: it offers no way to insert.
@@ -79,12 +83,24 @@ impl Index {
     /// Builds the index of the places stored so far at once (bulk loading is much faster
     /// than one by one).
     pub fn build(points: impl IntoIterator<Item = IndexedPoint>) -> Self {
-        let settled = Settled(RTree::bulk_load(points.into_iter().filter_map(entry).collect()));
-        Self { settled, arrived: RTree::new() }
+        let mut newest = 0;
+        let entries = points.into_iter().inspect(|point| newest = newest.max(point.0)).filter_map(entry).collect();
+        Self { settled: Settled(RTree::bulk_load(entries)), arrived: RTree::new(), newest }
+    }
+
+    /// The newest record id taken in (0 when none).
+    pub fn newest(&self) -> i64 {
+        self.newest
+    }
+
+    /// Notes that every record up to `id` has been taken in, places or not.
+    pub fn taken_in_up_to(&mut self, id: i64) {
+        self.newest = self.newest.max(id);
     }
 
     /// Adds a place; adding the same place of the same record again changes nothing.
     pub fn insert(&mut self, point: IndexedPoint) {
+        self.taken_in_up_to(point.0);
         let Some(new) = entry(point) else { return };
         let envelope = new.geom().envelope();
         let known = self.settled.intersecting(&envelope).chain(self.arrived.locate_in_envelope_intersecting(&envelope));

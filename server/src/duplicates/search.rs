@@ -9,7 +9,7 @@ use std::sync::{Arc, Mutex};
 use chrono::{DateTime, Utc};
 
 use super::{Index, candidates, from_raw, index_points, raw_index_points};
-use crate::store::duplicates::{raw_records, save_candidates, searched, sharing_a_photo};
+use crate::store::duplicates::{raw_records, records_after, save_candidates, searched, sharing_a_photo};
 use crate::store::{self, Store, StoreError};
 use crate::taxa::TaxonIndex;
 
@@ -42,7 +42,8 @@ pub fn search_unless_done(
 
 /// The search for one stored record: records holding the same photo (file or original)
 /// at any time and place, and the index's neighbours of each of its places; the record's
-/// places join the index. Searches run one at a time on the store's writer thread
+/// places join the index, with those of any record stored since the index last took one in.
+/// Searches run one at a time on the store's writer thread
 /// (`Store::write`), which covers the index query and insert together, so of two
 /// arrivals of one animal the second always finds the first (the race test in
 /// `tests/it/duplicates.rs` fails when the insert moves outside it). Marks the search
@@ -62,6 +63,7 @@ pub fn search(
     let mut near = sharing_a_photo(conn, observation_id)?;
     {
         let mut index = index.lock().unwrap_or_else(|p| p.into_inner());
+        take_in_records_stored_since(conn, &mut index)?;
         for point in index_points(&new) {
             near.extend(index.possible_pairs(point.1, point.2, point.3));
         }
@@ -69,11 +71,27 @@ pub fn search(
             index.insert(point);
         }
     }
+    near.retain(|id| *id != observation_id);
     near.sort_unstable();
     near.dedup();
     let others: Vec<_> = raw_records(conn, &near)?.iter().filter_map(|r| from_raw(r, names)).collect();
     let found: Vec<_> = candidates(&new, &others).into_iter().map(|(id, c)| (id, c.score, c.reasons)).collect();
     save_candidates(conn, observation_id, &found, now)
+}
+
+/// Takes into the index the places of records stored since it last took any in: by
+/// this process, that is the record being searched (and any stored but not searched yet,
+/// which is harmless: adding a place twice changes nothing and a record is never its own
+/// candidate); by another process, such as `wrackline import` beside a running server,
+/// records this process would otherwise only learn of at its next start.
+fn take_in_records_stored_since(conn: &rusqlite::Connection, index: &mut Index) -> Result<(), StoreError> {
+    for raw in records_after(conn, index.newest())? {
+        for point in raw_index_points(&raw) {
+            index.insert(point);
+        }
+        index.taken_in_up_to(raw.observation_id);
+    }
+    Ok(())
 }
 
 /// The index of every stored record's places, merged records too (an undo brings them
@@ -82,7 +100,9 @@ pub fn search(
 /// start or resend; the server still starts.
 pub fn build_index(store: &Store, taxa: &Arc<TaxonIndex>) -> Result<Arc<Mutex<Index>>, StoreError> {
     let raws = store.run_here(|conn| store::duplicates::all_records(conn))?;
-    let index = Arc::new(Mutex::new(Index::build(raws.iter().flat_map(raw_index_points))));
+    let mut built = Index::build(raws.iter().flat_map(raw_index_points));
+    built.taken_in_up_to(raws.iter().map(|raw| raw.observation_id).max().unwrap_or(0));
+    let index = Arc::new(Mutex::new(built));
     drop(raws);
     let now = Utc::now();
     for id in store.run_here(|conn| store::duplicates::unsearched(conn))? {

@@ -149,6 +149,17 @@ pub fn all_records(conn: &Connection) -> Result<Vec<RawDup>, StoreError> {
     .collect()
 }
 
+/// The records stored after `id`, merged ones too (as [`all_records`]), for the index
+/// to take in what another process stored since it was built.
+pub fn records_after(conn: &Connection, id: i64) -> Result<Vec<RawDup>, StoreError> {
+    let mut stmt = conn.prepare_cached(&format!("{RAW} WHERE o.id > ?1 ORDER BY o.id"))?;
+    let mut out = stmt.query_map([id], raw_row)?.collect::<Result<Vec<_>, _>>()?;
+    for raw in &mut out {
+        raw.photos = photos_of(conn, raw.observation_id)?;
+    }
+    Ok(out)
+}
+
 /// Whether the search for duplicates of this record completed.
 pub fn searched(conn: &Connection, observation_id: i64) -> Result<bool, StoreError> {
     Ok(conn

@@ -282,6 +282,32 @@ async fn a_changed_row_is_reported_and_a_duplicate_of_a_stored_record_is_linked(
     assert_eq!(app.records().await.len(), 3, "the phone's record and two imported, none twice");
 }
 
+/// The other order: the import runs while the server serves, and a phone then sends the
+/// same animal. The running server's search must find the imported record, though a
+/// separate process stored it after the server built its index at start.
+#[tokio::test]
+async fn a_record_sent_after_an_import_into_the_running_server_finds_the_imported_duplicate() {
+    let app = spawn_app().await;
+    let dir = tempfile::tempdir().unwrap();
+    let sheet = dir.path().join("sheet.csv");
+    let rows = "occurrenceID,eventDate,decimalLatitude,decimalLongitude,scientificName,sex,individualCount,recordedBy\n\
+                S-1,2025-06-01T14:25:00+01:00,52.4156,-4.0832,Scyliorhinus canicula,male,1,Another Walker\n";
+    std::fs::write(&sheet, rows).unwrap();
+    let path = sheet.display().to_string();
+    let args = [path.as_str(), "--default", "setting=beach_stranding", "--default", "condition=fresh_dead"];
+    let report = import_json(&app, &args);
+    assert_eq!(report["imported"], 1, "{report}");
+    assert_eq!(app.submit(&submission(FIRST), &[]).await.status, 200);
+    let detail: Value = app.get(&format!("/api/review/records/{FIRST}")).await.json().await.unwrap();
+    let others: Vec<&str> = detail["duplicates"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .map(|d| d["other"]["submission"]["observer_name"].as_str().unwrap())
+        .collect();
+    assert_eq!(others, ["Another Walker"], "{detail}");
+}
+
 #[tokio::test]
 async fn files_that_are_not_csv_nor_zip_or_are_too_large_are_refused_by_name() {
     let app = spawn_app().await;
