@@ -54,6 +54,9 @@ test('the observer\'s screens fit a phone: record form with a photo, the key, wa
   try {
     const page = await openOnPhone(context, server);
     await checkScreen(page, 'record-form');
+    // The language switch is one of the header's links, as wide as its words, not a line of its own.
+    const switchWidth = await page.$eval('#language', (el) => el.getBoundingClientRect().width);
+    assert.ok(switchWidth < SCREEN.width / 3, `the language switch is ${switchWidth} px wide on a ${SCREEN.width} px screen`);
     await page.click('#safety-link');
     await page.waitForSelector('#safety');
     await checkScreen(page, 'safety');
