@@ -244,6 +244,13 @@ async fn an_archive_exported_by_one_server_imports_into_another_with_its_values(
     }
 }
 
+/// The observers of the records the review screen shows as possible duplicates of `client_id`.
+async fn duplicates_named(app: &TestApp, client_id: &str) -> Vec<String> {
+    let detail: Value = app.get(&format!("/api/review/records/{client_id}")).await.json().await.unwrap();
+    let duplicates = detail["duplicates"].as_array().unwrap_or_else(|| panic!("{detail}"));
+    duplicates.iter().map(|d| d["other"]["submission"]["observer_name"].as_str().unwrap().to_owned()).collect()
+}
+
 #[tokio::test]
 async fn a_changed_row_is_reported_and_a_duplicate_of_a_stored_record_is_linked() {
     let app = spawn_app().await;
@@ -262,14 +269,7 @@ async fn a_changed_row_is_reported_and_a_duplicate_of_a_stored_record_is_linked(
     assert_eq!(report["imported"], 2, "{report}");
     assert_eq!(report["absences"], 1, "individualCount 0 is an absence: {report}");
     assert_eq!(report["with_possible_duplicates"], 1, "{report}");
-    let detail: Value = app.get(&format!("/api/review/records/{FIRST}")).await.json().await.unwrap();
-    let others: Vec<&str> = detail["duplicates"]
-        .as_array()
-        .unwrap()
-        .iter()
-        .map(|d| d["other"]["submission"]["observer_name"].as_str().unwrap())
-        .collect();
-    assert_eq!(others, ["Another Walker"], "{detail}");
+    assert_eq!(duplicates_named(&app, FIRST).await, ["Another Walker"]);
 
     // The second row changed since: reported, not stored again, the stored record kept.
     std::fs::write(&sheet, rows.replace("S-2,2023-02-11,51.60", "S-2,2023-02-11,51.61")).unwrap();
@@ -298,14 +298,7 @@ async fn a_record_sent_after_an_import_into_the_running_server_finds_the_importe
     let report = import_json(&app, &args);
     assert_eq!(report["imported"], 1, "{report}");
     assert_eq!(app.submit(&submission(FIRST), &[]).await.status, 200);
-    let detail: Value = app.get(&format!("/api/review/records/{FIRST}")).await.json().await.unwrap();
-    let others: Vec<&str> = detail["duplicates"]
-        .as_array()
-        .unwrap()
-        .iter()
-        .map(|d| d["other"]["submission"]["observer_name"].as_str().unwrap())
-        .collect();
-    assert_eq!(others, ["Another Walker"], "{detail}");
+    assert_eq!(duplicates_named(&app, FIRST).await, ["Another Walker"]);
 }
 
 #[tokio::test]
