@@ -164,6 +164,11 @@ mod tests {
         let first = cache.current(&store, &taxa, &settings).await.unwrap();
         let again = cache.current(&store, &taxa, &settings).await.unwrap();
         assert!(Arc::ptr_eq(&first, &again), "nothing written: the kept archive, not a new build");
+        // A lookup on the writer's connection (as a photo's download does) writes nothing:
+        // a stranger's requests must not make the next harvest build it all again.
+        store.run(|conn| crate::store::observations::count_observations(conn)).await.unwrap();
+        let after_a_read = cache.current(&store, &taxa, &settings).await.unwrap();
+        assert!(Arc::ptr_eq(&first, &after_a_read), "a read on the writer: still the kept archive");
         // A write that changes nothing published: built again, the same identity.
         tokio::time::sleep(std::time::Duration::from_millis(1100)).await;
         unpublished_write(&store).await;

@@ -111,10 +111,12 @@ impl Store {
         })
     }
 
-    /// How many writes have finished since the store opened. Each is counted after its
-    /// commit, so a reader that notes this number before it reads sees every write up to
-    /// it: an unchanged number means nothing was written since (a cache of something
-    /// read may be kept while it stays the same).
+    /// How many writes have finished since the store opened (work on the writer that
+    /// changed no row is not counted). Each is counted after its commit, so a reader that
+    /// notes this number before it reads sees every write up to it: an unchanged number
+    /// means this process wrote nothing since (a cache of something read may be kept while
+    /// it stays the same). Other processes' writes (`wrackline import`) are not counted;
+    /// what they add waits for review, so it is not published until a reviewer here acts.
     pub fn changes(&self) -> u64 {
         self.changes.load(Ordering::SeqCst)
     }
@@ -155,8 +157,13 @@ impl Store {
         let (reply, answer) = tokio::sync::oneshot::channel();
         let changes = self.changes.clone();
         self.send(writer::Job::Alone(Box::new(move |conn| {
+            // Only work that changed rows counts as a write: a lookup run here (many
+            // handlers' are) must not make caches of what is published build again.
+            let before = conn.total_changes();
             let result = guarded(conn, work);
-            changes.fetch_add(1, Ordering::SeqCst);
+            if conn.total_changes() != before {
+                changes.fetch_add(1, Ordering::SeqCst);
+            }
             let _ = reply.send(result);
         })))?;
         answer.await.map_err(|_| StoreError::TaskGone)?
@@ -200,8 +207,13 @@ impl Store {
         let (reply, answer) = mpsc::channel();
         let changes = self.changes.clone();
         self.send(writer::Job::Alone(Box::new(move |conn| {
+            // Only work that changed rows counts as a write: a lookup run here (many
+            // handlers' are) must not make caches of what is published build again.
+            let before = conn.total_changes();
             let result = guarded(conn, work);
-            changes.fetch_add(1, Ordering::SeqCst);
+            if conn.total_changes() != before {
+                changes.fetch_add(1, Ordering::SeqCst);
+            }
             let _ = reply.send(result);
         })))?;
         answer.recv().map_err(|_| StoreError::TaskGone)?
