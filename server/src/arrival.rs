@@ -7,7 +7,7 @@
 
 use chrono::{DateTime, Utc};
 
-use crate::duplicates::search::{search_once, search_unless_done};
+use crate::duplicates::search::{search_once, search_unless_done, take_in_records_stored_elsewhere};
 use crate::intake::{self, Accepted, IntakeError, Upload};
 use crate::notify::worker::enqueue;
 use crate::state::AppState;
@@ -43,6 +43,11 @@ async fn arrive(
     now: DateTime<Utc>,
     alert: Alert,
 ) -> Result<Accepted, IntakeError> {
+    // Records another process stored (an import) join the index first, so this one's
+    // search finds them; if that fails, the search goes on with what the index has.
+    if let Err(err) = take_in_records_stored_elsewhere(&state.store, &state.duplicates).await {
+        tracing::warn!(error = %err, "could not read records stored by another process for the duplicate search");
+    }
     let (index, names) = (state.duplicates.clone(), state.taxa.clone());
     // The search runs in the commit that stores the record, in a savepoint of its own, so
     // reviewers see its candidates as soon as the receipt is out and a burst of records

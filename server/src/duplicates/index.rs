@@ -41,6 +41,7 @@ pub struct Index {
     settled: Settled,
     arrived: RTree<Entry>,
     newest: i64,
+    catching_up: bool,
 }
 
 /// A bulk-loaded tree, for queries only: it offers no way to insert.
@@ -85,12 +86,22 @@ impl Index {
     pub fn build(points: impl IntoIterator<Item = IndexedPoint>) -> Self {
         let mut newest = 0;
         let entries = points.into_iter().inspect(|point| newest = newest.max(point.0)).filter_map(entry).collect();
-        Self { settled: Settled(RTree::bulk_load(entries)), arrived: RTree::new(), newest }
+        Self { settled: Settled(RTree::bulk_load(entries)), arrived: RTree::new(), newest, catching_up: false }
     }
 
     /// The newest record id taken in (0 when none).
     pub fn newest(&self) -> i64 {
         self.newest
+    }
+
+    /// Starts taking in records stored elsewhere, unless that is under way already
+    /// (then `false`).
+    pub fn begin_catching_up(&mut self) -> bool {
+        !std::mem::replace(&mut self.catching_up, true)
+    }
+
+    pub fn end_catching_up(&mut self) {
+        self.catching_up = false;
     }
 
     /// Notes that every record up to `id` has been taken in, places or not.

@@ -42,8 +42,7 @@ pub fn search_unless_done(
 
 /// The search for one stored record: records holding the same photo (file or original)
 /// at any time and place, and the index's neighbours of each of its places; the record's
-/// places join the index, with those of any record stored since the index last took one in.
-/// Searches run one at a time on the store's writer thread
+/// places join the index. Searches run one at a time on the store's writer thread
 /// (`Store::write`), which covers the index query and insert together, so of two
 /// arrivals of one animal the second always finds the first (the race test in
 /// `tests/it/duplicates.rs` fails when the insert moves outside it). Marks the search
@@ -63,7 +62,6 @@ pub fn search(
     let mut near = sharing_a_photo(conn, observation_id)?;
     {
         let mut index = index.lock().unwrap_or_else(|p| p.into_inner());
-        take_in_records_stored_since(conn, &mut index)?;
         for point in index_points(&new) {
             near.extend(index.possible_pairs(point.1, point.2, point.3));
         }
@@ -79,14 +77,20 @@ pub fn search(
     save_candidates(conn, observation_id, &found, now)
 }
 
-/// Takes into the index the places of records stored since it last took any in: by
-/// this process, that is the record being searched (and any stored but not searched yet,
-/// which is harmless: adding a place twice changes nothing and a record is never its own
-/// candidate); by another process, such as `wrackline import` beside a running server,
-/// records this process would otherwise only learn of at its next start.
-fn take_in_records_stored_since(conn: &rusqlite::Connection, index: &mut Index) -> Result<(), StoreError> {
-    for raw in records_after(conn, index.newest())? {
-        for point in raw_index_points(&raw) {
+/// Takes into the index the places of records another process stored since it last took
+/// one in (`wrackline import` beside a running server, or the server beside an import),
+/// read on a reader, not the writer, so a large import does not hold up other writes.
+/// Called before a record is stored, so its search then finds them. Records of this
+/// process taken in early are harmless: adding a place twice changes nothing and a
+/// record is never its own candidate. While one call reads, others go on without
+/// waiting for it.
+pub async fn take_in_records_stored_elsewhere(store: &Store, index: &Arc<Mutex<Index>>) -> Result<(), StoreError> {
+    let Some(turn) = CatchingUp::begin(index) else { return Ok(()) };
+    let newest = turn.newest;
+    let stored = store.read(move |conn| records_after(conn, newest)).await?;
+    let mut index = index.lock().unwrap_or_else(|p| p.into_inner());
+    for raw in &stored {
+        for point in raw_index_points(raw) {
             index.insert(point);
         }
         index.taken_in_up_to(raw.observation_id);
@@ -94,12 +98,32 @@ fn take_in_records_stored_since(conn: &rusqlite::Connection, index: &mut Index) 
     Ok(())
 }
 
+/// One caller's turn to take in other processes' records; the turn ends when it is
+/// dropped, however the caller stops (an error, a cancelled request).
+struct CatchingUp<'a> {
+    index: &'a Mutex<Index>,
+    newest: i64,
+}
+
+impl<'a> CatchingUp<'a> {
+    fn begin(index: &'a Mutex<Index>) -> Option<Self> {
+        let mut locked = index.lock().unwrap_or_else(|p| p.into_inner());
+        locked.begin_catching_up().then(|| Self { index, newest: locked.newest() })
+    }
+}
+
+impl Drop for CatchingUp<'_> {
+    fn drop(&mut self) {
+        self.index.lock().unwrap_or_else(|p| p.into_inner()).end_catching_up();
+    }
+}
+
 /// The index of every stored record's places, merged records too (an undo brings them
 /// back), with the search run for any record stored without one (it failed after the
 /// record was stored). A search that fails again is logged and tried again at the next
 /// start or resend; the server still starts.
 pub fn build_index(store: &Store, taxa: &Arc<TaxonIndex>) -> Result<Arc<Mutex<Index>>, StoreError> {
-    let raws = store.run_here(|conn| store::duplicates::all_records(conn))?;
+    let raws = store.run_here(|conn| records_after(conn, 0))?;
     let mut built = Index::build(raws.iter().flat_map(raw_index_points));
     built.taken_in_up_to(raws.iter().map(|raw| raw.observation_id).max().unwrap_or(0));
     let index = Arc::new(Mutex::new(built));

@@ -31,7 +31,7 @@ fn refused(problem: FieldProblem) -> ApiError {
 async fn observation(state: &AppState, client_id: Uuid) -> Result<i64, ApiError> {
     state
         .store
-        .run(move |conn| review_store::observation_of(conn, client_id))
+        .look(move |conn| review_store::observation_of(conn, client_id))
         .await?
         .map(|(id, _, _)| id)
         .ok_or_else(|| ApiError::NotFound(format!("no record with id {client_id}")))
@@ -49,7 +49,7 @@ pub async fn urgent(
     let sees_finder = matches!(person.role, Role::Reviewer | Role::Admin);
     let items = state
         .store
-        .run(move |conn| {
+        .read(move |conn| {
             let mut items = Vec::new();
             for record in observations::list_records(conn)?.into_iter().filter(|r| r.submission.is_urgent()) {
                 let observation = record.observation_id;
@@ -126,7 +126,7 @@ pub async fn change_sample(
 
 /// `GET /api/samples`: every sample, oldest first (the register).
 pub async fn register(State(state): State<AppState>, Reviewer(_): Reviewer) -> Result<Json<Vec<SampleView>>, ApiError> {
-    Ok(Json(state.store.run(|conn| fieldwork::all_samples(conn)).await?))
+    Ok(Json(state.store.read(fieldwork::all_samples).await?))
 }
 
 /// `GET /api/samples/{code}`: the sample's animal, its photos and place, the animal's
@@ -137,7 +137,7 @@ pub async fn lookup(
     Path(code): Path<String>,
 ) -> Result<Json<SampleLookup>, ApiError> {
     let key = code.clone();
-    let found = state.store.run(move |conn| fieldwork::lookup(conn, &key)).await?;
+    let found = state.store.look(move |conn| fieldwork::lookup(conn, &key)).await?;
     found.map(Json).ok_or_else(|| ApiError::NotFound(format!("no sample with the id {code}")))
 }
 

@@ -60,10 +60,10 @@ pub async fn reply(
     let record = Uuid::parse_str(&client_id)
         .map_err(|_| ApiError::BadRequest(format!("`{client_id}` is not a record id (a UUID)")))?;
     // Whose record it is, before the body is read.
-    let found = state.store.run(move |conn| observations::record_by_client_id(conn, record)).await?;
+    let found = state.store.look(move |conn| observations::record_by_client_id(conn, record)).await?;
     let view = found.ok_or_else(|| ApiError::NotFound(format!("no record with id {record}")))?;
     let owner =
-        state.store.run(move |conn| review_store::observation_of(conn, record)).await?.and_then(|(_, _, owner)| owner);
+        state.store.look(move |conn| review_store::observation_of(conn, record)).await?.and_then(|(_, _, owner)| owner);
     check_owner(&me, owner, false, &format!("record {record}"))?;
     keep_pace(&state, Some(me.id), address)?;
     let _turn = upload_turn(&state).await?;

@@ -193,7 +193,7 @@ pub fn intake_error(err: IntakeError) -> ApiError {
 
 /// `GET /api/observations`: every stored record (reviewers: exact places, names).
 pub async fn list(State(state): State<AppState>, Reviewer(_): Reviewer) -> Result<Json<Vec<RecordView>>, ApiError> {
-    Ok(Json(state.store.run(|conn| observations::list_records(conn)).await?))
+    Ok(Json(state.store.read(observations::list_records).await?))
 }
 
 /// `GET /api/observations/{client_id}`.

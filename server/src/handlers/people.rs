@@ -19,12 +19,12 @@ use crate::store::people::{self, Person, RoleChange};
 
 /// `GET /api/people`.
 pub async fn list(State(state): State<AppState>, Admin(_): Admin) -> Result<Json<Vec<Person>>, ApiError> {
-    Ok(Json(state.store.run(|conn| people::list_staff(conn)).await?))
+    Ok(Json(state.store.read(people::list_staff).await?))
 }
 
 /// `GET /api/people/events`: every change to a sign-in, newest first.
 pub async fn events(State(state): State<AppState>, Admin(_): Admin) -> Result<Json<Vec<PersonEvent>>, ApiError> {
-    Ok(Json(state.store.run(|conn| people::events(conn)).await?))
+    Ok(Json(state.store.read(people::events).await?))
 }
 
 #[derive(Deserialize)]

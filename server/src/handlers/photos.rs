@@ -65,7 +65,7 @@ async fn serve(
     let path = state.photos.path_of(&sha256, rendition).ok_or_else(not_found)?;
     let key = sha256.clone();
     let (media_type, orientation) =
-        state.store.run(move |conn| observations::photo_file_facts(conn, &key)).await?.ok_or_else(not_found)?;
+        state.store.look(move |conn| observations::photo_file_facts(conn, &key)).await?.ok_or_else(not_found)?;
     if rendition != Rendition::Original && !path.exists() {
         remake_derivatives(&state, &sha256, orientation).await?;
     }

@@ -44,7 +44,7 @@ pub async fn submit(
 
 /// `GET /api/walks` (reviewers: tracks are never public).
 pub async fn list(State(state): State<AppState>, Reviewer(_): Reviewer) -> Result<Json<Vec<StoredWalk>>, ApiError> {
-    Ok(Json(state.store.run(|conn| walks::list_walks(conn)).await?))
+    Ok(Json(state.store.read(walks::list_walks).await?))
 }
 
 /// `PUT /api/observations/{client_id}/walk`: puts a stored record on a walk. Only the
@@ -59,13 +59,13 @@ pub async fn link(
 ) -> Result<Json<serde_json::Value>, ApiError> {
     let record = Uuid::parse_str(&client_id)
         .map_err(|_| ApiError::BadRequest(format!("`{client_id}` is not a record id (a UUID)")))?;
-    let owner = state.store.run(move |conn| review_store::observation_of(conn, record)).await?;
+    let owner = state.store.look(move |conn| review_store::observation_of(conn, record)).await?;
     let (_, _, record_owner) =
         owner.ok_or_else(|| ApiError::NotFound(format!("no record with id {record}; send the record first")))?;
     check_owner(&caller, record_owner, true, &format!("record {record}"))?;
     let link: WalkLink = parse_json(&body).map_err(intake_error)?;
     let walk = link.walk_client_id;
-    if let Some(Some(walk_owner)) = state.store.run(move |conn| walks::walk_observer(conn, walk)).await? {
+    if let Some(Some(walk_owner)) = state.store.look(move |conn| walks::walk_observer(conn, walk)).await? {
         check_owner(&caller, Some(walk_owner), true, &format!("walk {walk}"))?;
     }
     match state.store.run(move |conn| walks::link_record(conn, record, walk)).await? {

@@ -129,35 +129,26 @@ pub fn raw_records(conn: &Connection, ids: &[i64]) -> Result<Vec<RawDup>, StoreE
     Ok(out)
 }
 
-/// Every record, merged ones too (a merge can be undone while the server runs, and the
-/// record must then be found again), for building the index at start-up.
-pub fn all_records(conn: &Connection) -> Result<Vec<RawDup>, StoreError> {
+/// The records stored after `id`, merged ones too (a merge can be undone while the
+/// server runs, and the record must then be found again): all of them (`id` 0) to build
+/// the index at start-up, then those another process stored since.
+pub fn records_after(conn: &Connection, id: i64) -> Result<Vec<RawDup>, StoreError> {
     let mut photos: std::collections::HashMap<i64, Vec<RawPhoto>> = std::collections::HashMap::new();
-    let mut stmt = conn.prepare(&format!("{PHOTOS} ORDER BY op.observation_id, op.position"))?;
-    for row in stmt.query_map([], photo_row)? {
+    let mut stmt =
+        conn.prepare_cached(&format!("{PHOTOS} WHERE op.observation_id > ?1 ORDER BY op.observation_id, op.position"))?;
+    for row in stmt.query_map([id], photo_row)? {
         let (id, photo) = row?;
         let list = photos.entry(id).or_default();
         list.push(RawPhoto { number: list.len() + 1, ..photo });
     }
-    let mut stmt = conn.prepare(RAW)?;
-    let rows = stmt.query_map([], raw_row)?;
+    let mut stmt = conn.prepare_cached(&format!("{RAW} WHERE o.id > ?1 ORDER BY o.id"))?;
+    let rows = stmt.query_map([id], raw_row)?;
     rows.map(|raw| {
         let mut raw = raw?;
         raw.photos = photos.remove(&raw.observation_id).unwrap_or_default();
         Ok(raw)
     })
     .collect()
-}
-
-/// The records stored after `id`, merged ones too (as [`all_records`]), for the index
-/// to take in what another process stored since it was built.
-pub fn records_after(conn: &Connection, id: i64) -> Result<Vec<RawDup>, StoreError> {
-    let mut stmt = conn.prepare_cached(&format!("{RAW} WHERE o.id > ?1 ORDER BY o.id"))?;
-    let mut out = stmt.query_map([id], raw_row)?.collect::<Result<Vec<_>, _>>()?;
-    for raw in &mut out {
-        raw.photos = photos_of(conn, raw.observation_id)?;
-    }
-    Ok(out)
 }
 
 /// Whether the search for duplicates of this record completed.
