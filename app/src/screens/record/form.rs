@@ -190,7 +190,7 @@ fn beside(problems: RwSignal<Vec<Problem>>, control: Control) -> impl IntoView {
 
 fn problem_line(problems: RwSignal<Vec<Problem>>, control: Control) -> impl IntoView {
     view! {
-        <p class="field-problem" data-control=control.label() role="alert">{beside(problems, control)}</p>
+        <p class="field-problem" data-control=control.code() role="alert">{beside(problems, control)}</p>
     }
 }
 
