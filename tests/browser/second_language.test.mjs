@@ -133,6 +133,10 @@ test("a photo's time note, what the photo and the phone say, and the guided key 
     // A group to stop at names its rank in Welsh; the species' names stay as the checklist gives them.
     assert.match(await text(page, '.higher-rank[data-rank="family"]'), / teulu [A-Z][a-z]+idae/);
     assert.doesNotMatch(await text(page, '.key-panel'), /What shape|family [A-Z]/);
+    // Stopping there: the record's note names the rank in Welsh too.
+    await page.click('.higher-rank[data-rank="family"]');
+    await page.waitForSelector('#key-choice');
+    assert.match(await text(page, '#key-choice'), /\(teulu, /);
   } finally {
     await context.close();
   }

@@ -114,6 +114,13 @@ pub fn rank_name(rank: TaxonRank) -> String {
     }
 }
 
+/// The name of a rank kept as its code on a record (`KeyChoice::taxon_rank`) in the
+/// person's language; the code itself when the key knows no such rank.
+pub fn rank_name_of_code(code: &str) -> String {
+    let ranks = [TaxonRank::Species, TaxonRank::Genus, TaxonRank::Family, TaxonRank::Order, TaxonRank::Superorder];
+    ranks.into_iter().find(|rank| rank_code(*rank) == code).map_or_else(|| code.to_owned(), rank_name)
+}
+
 /// Says in words why an answer was set aside.
 pub fn set_aside_text(key: &Key, error: &AnswerError) -> String {
     match error {
