@@ -11,7 +11,7 @@ import { execFileSync } from 'node:child_process';
 import { copyFileSync, mkdtempSync, readFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
-import { startServer, launchBrowser, REVIEWER, eventually, demoPhoto } from './harness.mjs';
+import { startServer, launchBrowser, REVIEWER, eventually, demoPhoto, screenshotPath } from './harness.mjs';
 
 const checklist = JSON.parse(readFileSync(process.env.WRACKLINE_CHECKLIST, 'utf8'));
 const welshKey = checklist.translations.cy.characters;
@@ -126,6 +126,7 @@ test("a photo's time note, what the photo and the phone say, and the guided key 
     assert.equal(await text(page, '.key-question .question'), "Pa siâp yw'r corff?");
     assert.equal(await text(page, '.key-question .question'), welshKey.bodyForm.question);
     assert.equal(await text(page, '.state-choice[data-state="sharkLike"] span:last-child'), welshKey.bodyForm.states.sharkLike);
+    await page.screenshot({ path: screenshotPath('welsh-key'), fullPage: true });
     await page.click('.key-question .state-choice[data-state="sharkLike"]');
     await page.waitForFunction(() => document.querySelector('.key-question')?.dataset.character !== 'bodyForm');
     const next = await page.$eval('.key-question', (q) => q.dataset.character);
