@@ -9,6 +9,7 @@ use serde::{Deserialize, Serialize};
 
 use crate::error::ChecklistError;
 use crate::length::LengthKind;
+use crate::translations::{self, Translation};
 
 /// A checked checklist. The only way to get one is [`Checklist::from_json`], so every
 /// character, state and area a taxon names is known to exist.
@@ -24,6 +25,9 @@ pub struct Checklist {
     /// group reads a name they know beside the scientific one. Optional.
     #[serde(default, skip_serializing_if = "BTreeMap::is_empty")]
     group_names: BTreeMap<String, Vec<String>>,
+    /// The questions and answers in other languages, by BCP 47 tag. Optional.
+    #[serde(default, skip_serializing_if = "BTreeMap::is_empty")]
+    translations: BTreeMap<String, Translation>,
 }
 
 /// What the checklist is, where it applies, and how far its contents can be trusted.
@@ -36,6 +40,10 @@ pub struct Metadata {
     pub region: String,
     /// A plain statement of where the data came from and what is invented or illustrative.
     pub notice: String,
+    /// The language the checklist's own questions and answers are written in (a BCP 47
+    /// tag), when it says; other languages' words are in `translations`.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub language: Option<String>,
 }
 
 /// A regional area code that taxa's presence lists and records refer to.
@@ -282,6 +290,8 @@ struct ChecklistFile {
     taxa: Vec<serde_json::Value>,
     #[serde(default)]
     group_names: BTreeMap<String, Vec<String>>,
+    #[serde(default)]
+    translations: BTreeMap<String, Translation>,
 }
 
 impl Checklist {
@@ -304,6 +314,7 @@ impl Checklist {
             characters: file.characters,
             taxa,
             group_names: file.group_names,
+            translations: file.translations,
         };
         checklist.check()?;
         Ok(checklist)
@@ -340,6 +351,31 @@ impl Checklist {
         self.group_names.get(scientific_name).and_then(|names| names.first()).map(String::as_str)
     }
 
+    /// The checklist asking in `language` (a BCP 47 tag, matched by its primary subtag):
+    /// each question and answer label in that language where the checklist has it, else
+    /// in the checklist's own words. Species' names stay as they are.
+    pub fn in_language(&self, language: &str) -> Checklist {
+        let Some(translation) = self.translation(language) else { return self.clone() };
+        Checklist { characters: translations::translate(&self.characters, translation), ..self.clone() }
+    }
+
+    /// The questions and answers with no words in `language`, as `character.question` and
+    /// `character.state` paths: none in the checklist's own language, every one in a
+    /// language it has no words for.
+    pub fn words_missing_in(&self, language: &str) -> Vec<String> {
+        let own = self.metadata.language.as_deref().is_some_and(|own| primary(own) == primary(language));
+        if own {
+            return Vec::new();
+        }
+        translations::missing(&self.characters, self.translation(language))
+    }
+
+    fn translation(&self, language: &str) -> Option<&Translation> {
+        self.translations.get(language).or_else(|| {
+            self.translations.iter().find(|(tag, _)| primary(tag) == primary(language)).map(|(_, words)| words)
+        })
+    }
+
     /// The taxon with this scientific name, if listed.
     pub fn taxon(&self, scientific_name: &str) -> Option<&Taxon> {
         self.taxa.iter().find(|t| t.scientific_name == scientific_name)
@@ -350,6 +386,10 @@ impl Checklist {
             return Err(ChecklistError::NoTaxa);
         }
         check_characters(&self.characters)?;
+        if let Some(language) = self.metadata.language.as_ref().filter(|l| !translations::is_language_tag(l)) {
+            return Err(ChecklistError::BadLanguageTag(language.clone()));
+        }
+        translations::check(&self.translations, &self.characters)?;
         let groups: BTreeSet<&str> = self
             .taxa
             .iter()
@@ -373,6 +413,11 @@ impl Checklist {
         }
         Ok(())
     }
+}
+
+/// A language tag's primary subtag, in lower case (`cy` of `cy-GB`).
+fn primary(tag: &str) -> String {
+    tag.split(['-', '_']).next().unwrap_or_default().to_ascii_lowercase()
 }
 
 fn read_taxon(position: usize, value: serde_json::Value) -> Result<Taxon, ChecklistError> {

@@ -129,6 +129,35 @@ pub enum ChecklistError {
         /// The measure found.
         measure: String,
     },
+    /// A `translations` key or `metadata.language` is not a BCP 47 language tag.
+    #[error("{0:?} is not a language tag (such as cy or en-GB)")]
+    BadLanguageTag(String),
+    /// A language's words name a character the checklist does not define.
+    #[error("translations.{language}: {character} is not a character of this checklist")]
+    UnknownTranslatedCharacter {
+        /// The language's tag.
+        language: String,
+        /// The undefined character.
+        character: String,
+    },
+    /// A language's words name a state the character does not have.
+    #[error("translations.{language}: {character}.states has {state}, which is not one of that character's states")]
+    UnknownTranslatedState {
+        /// The language's tag.
+        language: String,
+        /// The character.
+        character: String,
+        /// The state not in the character's list.
+        state: String,
+    },
+    /// A translated question or label is blank (leave it out to fall back to the checklist's own words).
+    #[error("translations.{language}: {at} is blank (leave it out to use the checklist's own words)")]
+    BlankTranslation {
+        /// The language's tag.
+        language: String,
+        /// The question or label at fault (`bodyForm.question`, `bodyForm.states.sharkLike`).
+        at: String,
+    },
     /// A length conversion must turn fork length, precaudal length or disc width into total length.
     #[error(
         "{species}: lengthConversions has measure {measure}; only forkLength, precaudalLength and discWidth are converted to total length"

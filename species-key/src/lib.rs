@@ -55,6 +55,7 @@ pub mod likelihood;
 mod reasons;
 mod separation;
 pub mod synthetic;
+mod translations;
 
 pub use answers::{Answer, Answers, Context};
 pub use checklist::{
@@ -66,3 +67,4 @@ pub use higher_taxa::TaxonSupport;
 pub use key::{Candidate, Effect, Key, MIN_USEFUL_GAIN_BITS, QuestionChoice, Reason};
 pub use length::{LengthKind, Measurement};
 pub use separation::UnseparablePair;
+pub use translations::{CharacterWords, Translation};

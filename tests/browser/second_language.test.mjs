@@ -2,11 +2,19 @@
 // language comes from the browser's languages, the walker's path (cautions, a record
 // saved offline, sent when the connection returns, My records) shows the catalogue's
 // Welsh words with dates formatted for Welsh, the switch on the page changes the language
-// and keeps the choice on the device, and the desk's page, sign-in and safety screen
-// speak Welsh too. Each assertion fails if a screen falls back to English.
+// and keeps the choice on the device, the guided key asks the checklist's Welsh questions
+// and a photo's time note is Welsh, and the desk's page, sign-in and safety screen speak
+// Welsh too. Each assertion fails if a screen falls back to English.
 import { test, before, after } from 'node:test';
 import assert from 'node:assert/strict';
-import { startServer, launchBrowser, REVIEWER, eventually } from './harness.mjs';
+import { execFileSync } from 'node:child_process';
+import { copyFileSync, mkdtempSync, readFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import path from 'node:path';
+import { startServer, launchBrowser, REVIEWER, eventually, demoPhoto, screenshotPath } from './harness.mjs';
+
+const checklist = JSON.parse(readFileSync(process.env.WRACKLINE_CHECKLIST, 'utf8'));
+const welshKey = checklist.translations.cy.characters;
 
 const HOME = { latitude: 52.4153, longitude: -4.0829, accuracy: 7 };
 
@@ -77,6 +85,59 @@ test('a walker whose phone is set to Welsh records offline, syncs and reads My r
     const today = await page.evaluate(() => new Intl.DateTimeFormat('cy', { dateStyle: 'medium' }).format(new Date()));
     assert.doesNotMatch(await text(page, '.my-record'), /\d{4}-\d{2}-\d{2}/);
     assert.match(await text(page, '.my-record'), new RegExp(today.replace(/[.*+?^${}()|[\]\\]/g, '\\$&')));
+  } finally {
+    await context.close();
+  }
+});
+
+const scratch = mkdtempSync(path.join(tmpdir(), 'wrackline-welsh-'));
+
+// The demo catshark drawing with EXIF written by exiftool (CIPA DC-008 tags): taken at
+// 09:30 (+01:00) on 1 June 2025, 300 m north of HOME.
+function beachPhoto() {
+  const file = path.join(scratch, `beach-${Date.now()}.jpg`);
+  copyFileSync(demoPhoto('catshark.jpg'), file);
+  execFileSync('exiftool', ['-overwrite_original', '-all=', '-DateTimeOriginal=2025:06:01 09:30:00',
+    '-OffsetTimeOriginal=+01:00', '-GPSLatitude=52.4180', '-GPSLatitudeRef=N', '-GPSLongitude=4.0829',
+    '-GPSLongitudeRef=W', '-GPSHPositioningError=5', file]);
+  return file;
+}
+
+test("a photo's time note, what the photo and the phone say, and the guided key are in Welsh", async () => {
+  const context = await welshPhone();
+  try {
+    const page = await context.newPage();
+    await page.goto(server.url);
+    await page.click('#safety-ok', { timeout: 15000 });
+    await page.setInputFiles('#photo-input', beachPhoto());
+    await page.waitForSelector('#photo-time-note', { timeout: 10000 });
+    // Welsh puts the singular after a number ("3 diwrnod"); the English would say "days".
+    const note = await text(page, '#photo-time-note');
+    assert.match(note, /^Daw'r amser a'r lle o lun 1: cafodd ei dynnu 2025-06-01 09:30, \d+ diwrnod cyn amser y ffôn hwn\./);
+    assert.doesNotMatch(note, /taken from photo|days|before this phone/);
+    const says = await text(page, '.photo-says');
+    assert.match(says, /^mae'r llun yn dweud: 2025-06-01 09:30:00 \(UTC\+01:00, cylchfa amser y camera ei hun\) · .* o fewn 5 m$/);
+    assert.match(await text(page, '#device-says'), /^mae'r ffôn hwn yn dweud: /);
+
+    // The key's first question and its answers as the checklist gives them in Welsh.
+    await page.click('#open-key');
+    await page.waitForSelector('.key-question');
+    assert.equal(await page.$eval('.key-question', (q) => q.dataset.character), 'bodyForm');
+    assert.equal(await text(page, '.key-question .question'), "Pa siâp yw'r corff?");
+    assert.equal(await text(page, '.key-question .question'), welshKey.bodyForm.question);
+    assert.equal(await text(page, '.state-choice[data-state="sharkLike"] span:last-child'), welshKey.bodyForm.states.sharkLike);
+    await page.screenshot({ path: screenshotPath('welsh-key'), fullPage: true });
+    await page.click('.key-question .state-choice[data-state="sharkLike"]');
+    await page.waitForFunction(() => document.querySelector('.key-question')?.dataset.character !== 'bodyForm');
+    const next = await page.$eval('.key-question', (q) => q.dataset.character);
+    assert.equal(await text(page, '.key-question .question'), welshKey[next].question);
+    // A group to stop at names its rank in Welsh; the species' names stay as the checklist gives them.
+    assert.match(await text(page, '.higher-rank[data-rank="family"]'), / teulu [A-Z][a-z]+idae/);
+    assert.doesNotMatch(await text(page, '.key-panel'), /What shape|family [A-Z]/);
+    // Stopping there: the record's note names the rank in Welsh too.
+    await page.click('.higher-rank[data-rank="family"]');
+    await page.waitForSelector('#key-choice');
+    assert.match(await text(page, '#key-choice'), /\(teulu, /);
   } finally {
     await context.close();
   }

@@ -210,6 +210,8 @@ test('answers a refreshed checklist no longer asks are set aside with a note, an
     const changed = structuredClone(checklist);
     changed.characters = changed.characters.filter((c) => c.name !== character);
     for (const t of changed.taxa) delete t.characters[character];
+    // A checklist may not translate a character it lacks.
+    for (const words of Object.values(changed.translations ?? {})) delete words.characters[character];
     await route.fulfill({ json: changed });
   });
   try {

@@ -140,11 +140,11 @@ test('the form checks the date as the server does, and says so beside the time',
     await page.fill('#when', tomorrow);
     await fillFind(page);
     await page.click('#save-send');
-    await page.waitForFunction(() => /in the future/.test(document.querySelector('.field-problem[data-control="When"]')?.textContent));
+    await page.waitForFunction(() => /in the future/.test(document.querySelector('.field-problem[data-control="when"]')?.textContent));
     assert.match(await page.textContent('#form-problems'), /^When: this is in the future/);
     assert.equal(await page.$$eval('.outbox-entry', (items) => items.length), 0, 'nothing saved');
     // The words sit right under the time: within a screen's height of it.
-    const [when, words] = await Promise.all(['#when', '.field-problem[data-control="When"]'].map((s) => page.$eval(s, (el) => el.getBoundingClientRect().top + scrollY)));
+    const [when, words] = await Promise.all(['#when', '.field-problem[data-control="when"]'].map((s) => page.$eval(s, (el) => el.getBoundingClientRect().top + scrollY)));
     assert.ok(words - when < 120, `the problem is beside the control (${when} → ${words})`);
   } finally {
     await context.close();
@@ -172,7 +172,7 @@ test('a record the server refuses can be edited and sent again, or discarded, in
     await page.screenshot({ path: screenshotPath('walker-refused'), fullPage: true });
 
     await refused.locator('.edit-refused').click();
-    await page.waitForFunction(() => /in the future/.test(document.querySelector('.field-problem[data-control="When"]')?.textContent));
+    await page.waitForFunction(() => /in the future/.test(document.querySelector('.field-problem[data-control="when"]')?.textContent));
     assert.equal(await page.inputValue('#species'), 'fast-clock thornback', 'the record is back in the form');
     await page.fill('#when', '2025-06-01T09:30');
     await page.click('#save-send');

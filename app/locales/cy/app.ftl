@@ -161,3 +161,65 @@ fix-age-minutes = ers { $n } munud
 fix-age-hours = ers { $n } awr
 fix-age-days = ers { $n } diwrnod
 fix-within = o fewn { $metres } m, { $age }
+
+## Built in data/ (phone)
+
+# Geiriau plaen am ateb a anfonodd y gweinydd heb eiriau ei hun (yn ôl statws HTTP).
+api-not-signed-in = dydych chi ddim wedi mewngofnodi, neu mae'r mewngofnodi wedi dod i ben
+api-not-allowed = does dim hawl i wneud hyn
+api-not-known = dydy'r gweinydd ddim yn gwybod am hyn
+api-too-slow = cymerodd y gweinydd ormod o amser i ateb
+api-other-version = mae gan y gweinydd fersiwn arall o hyn
+api-too-large = mae hyn yn rhy fawr i'r gweinydd
+api-wrong-kind-of-file = dydy'r gweinydd ddim yn derbyn y math hwn o ffeil
+api-busy = mae'r gweinydd yn brysur
+api-unreachable = does dim modd cyrraedd y gweinydd ar hyn o bryd
+api-server-problem = cafodd y gweinydd broblem
+api-not-accepted = doedd y gweinydd ddim yn gallu derbyn hyn
+api-status = { $words } (cod { $status })
+api-no-connection = dim cysylltiad â'r gweinydd
+api-unreadable = doedd dim modd darllen ateb y gweinydd (tudalen mewngofnodi Wi-Fi?)
+api-unsendable = doedd dim modd ysgrifennu'r cais: { $why }
+device-unknown-error = gwall anhysbys yn y porwr
+device-no-upload-copy = ddaeth dim copi i'w anfon yn ôl
+identity-not-given = roddodd y gweinydd ddim hunaniaeth: { $error }
+identity-not-kept = doedd dim modd cadw'r hunaniaeth ar y ffôn hwn: { $error }
+identity-no-storage = dydy'r porwr hwn ddim yn cadw dim byd (dim localStorage)
+identity-storage-refused = gwrthododd y porwr ei chadw (storfa'n llawn neu wedi'i rhwystro)
+mine-not-fetched = fy nghofnodion: { $error }
+outbox-unreadable = doedd dim modd darllen cofnod a gadwyd: { $error }
+replies-unreadable = doedd dim modd darllen ateb a gadwyd: { $error }
+replies-photos-missing = dydy lluniau ateb ddim i gyd ar y ffôn hwn eto
+walks-unreadable = doedd dim modd darllen taith gerdded a gadwyd: { $error }
+sync-photos-unreadable = doedd dim modd darllen y lluniau: { $error }
+sync-photos-missing = { $found } o { $taken } llun ar gael ar y ffôn hwn
+sync-walk-not-joined = doedd dim modd ychwanegu at y daith: { $error }
+# Cymraeg: enw unigol ar ôl rhif ("3 diwrnod").
+span-minutes = { $minutes } munud
+span-hours = { $hours } awr
+span-hours-minutes = { $hours } awr { $minutes } munud
+span-days = { $days } diwrnod
+key-rank-species = rhywogaeth
+key-rank-genus = genws
+key-rank-family = teulu
+key-rank-order = urdd
+key-rank-superorder = uwchurdd
+key-set-aside-character = eich ateb am { $character } (dydy'r rhestr ddim yn gofyn hyn bellach)
+key-set-aside-state = eich ateb "{ $state }" i "{ $question }" (dydy e ddim yn un o'r atebion bellach)
+photo-unreadable = doedd dim modd darllen “{ $name }”: { $error }
+photo-not-prepared = doedd dim modd paratoi “{ $name }” i'w anfon: { $detail }
+photo-start-unreadable = doedd dim modd darllen ei ddechrau
+# Enwau dewislenni'r ffôn yn Saesneg, fel y mae'r ffôn yn eu dangos yn aml.
+photo-heic = Mae “{ $name }” yn llun HEIC, a dydy'r porwr hwn ddim yn gallu ei agor. Tynnwch y llun gydag “Ychwanegu llun” yma (mae'n cadw JPEG), neu gosodwch y camera i JPEG (ar iPhone: Settings › Camera › Formats › Most Compatible) a'i ddewis eto.
+photo-cannot-open = Doedd y porwr hwn ddim yn gallu agor “{ $name }” fel llun ({ $detail }). Dewiswch lun JPEG neu PNG yn lle hynny.
+photo-browser-too-old = Doedd dim modd paratoi “{ $name }” i'w anfon: mae'r porwr hwn yn rhy hen i newid maint lluniau ({ $detail }). Diweddarwch feddalwedd y ffôn (ar iPhone: Settings › General › Software Update) neu agorwch wrackline mewn porwr cyfoes, yna ychwanegwch y llun eto.
+photo-time-camera-zone = { $time } (UTC{ $offset }, cylchfa amser y camera ei hun)
+photo-time-phone-zone = { $time } (UTC{ $offset }, cylchfa amser y ffôn hwn ar y dyddiad hwnnw)
+photo-no-time = dim amser
+photo-no-position = dim lleoliad
+photo-place = { $lat }, { $lon }
+photo-place-within = { $lat }, { $lon } o fewn { $metres } m
+photo-says = mae'r llun yn dweud: { $when } · { $place }
+form-photo-time = Daw'r amser o lun { $number }: cafodd ei dynnu { $taken }, { $before } cyn amser y ffôn hwn. Cadwch ef os dyna pryd y gwelsoch chi'r anifail.
+form-photo-time-and-place = Daw'r amser a'r lle o lun { $number }: cafodd ei dynnu { $taken }, { $before } cyn amser y ffôn hwn. Cadwch nhw os dyna pryd y gwelsoch chi'r anifail.
+form-device-says = mae'r ffôn hwn yn dweud: { $time } ({ $offset }) · { $place }

@@ -158,3 +158,67 @@ fix-age-minutes = { $n } min old
 fix-age-hours = { $n } h old
 fix-age-days = { $n } days old
 fix-within = within { $metres } m, { $age }
+
+## Built in data/ (phone)
+
+# Plain words for an answer the server sent without words of its own (by HTTP status).
+api-not-signed-in = you are not signed in, or the sign-in has ended
+api-not-allowed = this is not allowed
+api-not-known = the server does not know this
+api-too-slow = the server took too long to answer
+api-other-version = the server has a different version of this
+api-too-large = this is too large for the server
+api-wrong-kind-of-file = the server does not take this kind of file
+api-busy = the server is busy
+api-unreachable = the server cannot be reached just now
+api-server-problem = the server had a problem
+api-not-accepted = the server could not accept this
+api-status = { $words } (code { $status })
+api-no-connection = no connection to the server
+api-unreadable = the server's answer could not be read (a Wi-Fi sign-in page?)
+api-unsendable = the request could not be written: { $why }
+device-unknown-error = unknown browser error
+device-no-upload-copy = no upload copy came back
+identity-not-given = the server gave no identity: { $error }
+identity-not-kept = could not keep the identity on this phone: { $error }
+identity-no-storage = this browser keeps nothing (no localStorage)
+identity-storage-refused = the browser refused to keep it (storage full or blocked)
+mine-not-fetched = my records: { $error }
+outbox-unreadable = a stored record could not be read: { $error }
+replies-unreadable = a stored answer could not be read: { $error }
+replies-photos-missing = an answer's photos are not all on this phone yet
+walks-unreadable = a stored walk could not be read: { $error }
+sync-photos-unreadable = photos could not be read: { $error }
+sync-photos-missing = { $found } of { $taken } photos found on this phone
+sync-walk-not-joined = could not add to the walk: { $error }
+span-minutes = { $minutes } min
+span-hours = { $hours } h
+span-hours-minutes = { $hours } h { $minutes } min
+span-days =
+    { $days ->
+        [one] { $days } day
+       *[other] { $days } days
+    }
+key-rank-species = species
+key-rank-genus = genus
+key-rank-family = family
+key-rank-order = order
+key-rank-superorder = superorder
+key-set-aside-character = your answer about { $character } (the checklist no longer asks it)
+key-set-aside-state = your answer "{ $state }" to "{ $question }" (no longer one of its answers)
+photo-unreadable = “{ $name }” could not be read: { $error }
+photo-not-prepared = “{ $name }” could not be prepared for sending: { $detail }
+photo-start-unreadable = its start could not be read
+photo-heic = “{ $name }” is a HEIC photo, which this browser cannot open. Take the photo with “Add photo” here (it saves JPEG), or set the camera to JPEG (on an iPhone: Settings › Camera › Formats › Most Compatible) and pick it again.
+photo-cannot-open = “{ $name }” could not be opened as a picture by this browser ({ $detail }). Pick a JPEG or PNG photo instead.
+photo-browser-too-old = “{ $name }” could not be prepared for sending: this browser is too old to resize photos ({ $detail }). Update the phone's software (on an iPhone: Settings › General › Software Update) or open wrackline in an up-to-date browser, then add the photo again.
+photo-time-camera-zone = { $time } (UTC{ $offset }, the camera's own time zone)
+photo-time-phone-zone = { $time } (UTC{ $offset }, this phone's time zone on that date)
+photo-no-time = no time
+photo-no-position = no position
+photo-place = { $lat }, { $lon }
+photo-place-within = { $lat }, { $lon } within { $metres } m
+photo-says = photo says: { $when } · { $place }
+form-photo-time = Time taken from photo { $number }: it was taken { $taken }, { $before } before this phone's time. Keep it if that is when you saw the animal.
+form-photo-time-and-place = Time and place taken from photo { $number }: it was taken { $taken }, { $before } before this phone's time. Keep it if that is when you saw the animal.
+form-device-says = this phone says: { $time } ({ $offset }) · { $place }

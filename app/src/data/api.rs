@@ -25,6 +25,7 @@ pub mod fieldwork;
 
 use crate::data::device::{self, Answer};
 use crate::data::local;
+use crate::data::words::{t, t_args};
 
 /// Why a call did not give what was asked for. Its `Display` is the sentence to show.
 #[derive(Debug, Clone, PartialEq)]
@@ -66,19 +67,19 @@ impl ApiError {
 
 /// A status the server sent without words of its own (a proxy's page, an empty body), in
 /// plain words (RFC 9110 §15 for what each means).
-fn status_words(status: u16) -> &'static str {
+fn status_words(status: u16) -> String {
     match status {
-        401 => "you are not signed in, or the sign-in has ended",
-        403 => "this is not allowed",
-        404 => "the server does not know this",
-        408 | 504 => "the server took too long to answer",
-        409 => "the server has a different version of this",
-        413 => "this is too large for the server",
-        415 => "the server does not take this kind of file",
-        429 => "the server is busy",
-        502 | 503 => "the server cannot be reached just now",
-        500..=599 => "the server had a problem",
-        _ => "the server could not accept this",
+        401 => t("api-not-signed-in"),
+        403 => t("api-not-allowed"),
+        404 => t("api-not-known"),
+        408 | 504 => t("api-too-slow"),
+        409 => t("api-other-version"),
+        413 => t("api-too-large"),
+        415 => t("api-wrong-kind-of-file"),
+        429 => t("api-busy"),
+        502 | 503 => t("api-unreachable"),
+        500..=599 => t("api-server-problem"),
+        _ => t("api-not-accepted"),
     }
 }
 
@@ -87,11 +88,14 @@ fn status_words(status: u16) -> &'static str {
 impl fmt::Display for ApiError {
     fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
         match self {
-            Self::NoAnswer(_) => f.write_str("no connection to the server"),
+            Self::NoAnswer(_) => f.write_str(&t("api-no-connection")),
             Self::Status { body: Some(ErrorBody { error, .. }), .. } => f.write_str(error),
-            Self::Status { status, body: None } => write!(f, "{} (code {status})", status_words(*status)),
-            Self::Unreadable(_) => f.write_str("the server's answer could not be read (a Wi-Fi sign-in page?)"),
-            Self::Unsendable(why) => write!(f, "the request could not be written: {why}"),
+            Self::Status { status, body: None } => f.write_str(&t_args(
+                "api-status",
+                &[("words", status_words(*status).into()), ("status", status.to_string().into())],
+            )),
+            Self::Unreadable(_) => f.write_str(&t("api-unreadable")),
+            Self::Unsendable(why) => f.write_str(&t_args("api-unsendable", &[("why", why.as_str().into())])),
         }
     }
 }

@@ -1,6 +1,8 @@
 //! The checklist the app carries: built in, replaced by the server's (`/api/checklist`)
 //! whenever one answers, and kept in localStorage so the guided key works in flight
-//! mode. The review queue's taxon filter and the downloads' areas read it too.
+//! mode. The review queue's taxon filter and the downloads' areas read it too. The key
+//! asks its questions in the app's language where the checklist has words for it
+//! (`translations`), else in the checklist's own; species' names stay as it gives them.
 
 use std::collections::BTreeSet;
 use std::sync::Arc;
@@ -10,6 +12,7 @@ use species_key::{Checklist, Key};
 
 use crate::data::api;
 use crate::data::local;
+use crate::data::words;
 
 const STORED_CHECKLIST: &str = "wrackline.checklist";
 const BUILT_IN_CHECKLIST: &str = include_str!("../../../demo-records/checklist.json");
@@ -23,7 +26,12 @@ fn current() -> Checklist {
 
 /// The key over the last checklist the server sent, or the built-in one.
 pub fn initial_key() -> Arc<Key> {
-    Arc::new(Key::new(&current()))
+    key_in_language(&current())
+}
+
+/// A key over `checklist` asking in the app's language.
+fn key_in_language(checklist: &Checklist) -> Arc<Key> {
+    Arc::new(Key::new(&checklist.in_language(words::language())))
 }
 
 thread_local! {
@@ -42,7 +50,7 @@ pub fn refresh_from_server(key: RwSignal<Arc<Key>>) {
         let Ok(text) = api::checklist_text().await else { return };
         let Ok(checklist) = Checklist::from_json(&text) else { return };
         local::set(STORED_CHECKLIST, &text);
-        key.set(Arc::new(Key::new(&checklist)));
+        key.set(key_in_language(&checklist));
     });
 }
 
@@ -106,6 +114,39 @@ pub(crate) mod tests {
 
     pub(crate) fn built_in() -> Checklist {
         Checklist::from_json(BUILT_IN_CHECKLIST).expect("built-in checklist is valid")
+    }
+
+    #[test]
+    fn the_key_has_words_for_every_question_and_answer_in_every_language_the_app_speaks() {
+        let checklist = built_in();
+        for (code, _, _) in words::LANGUAGES {
+            assert_eq!(checklist.words_missing_in(code), Vec::<String>::new(), "{code}: no words for these");
+            // Each language's words are its own: none is left in the checklist's English.
+            let own = checklist.in_language(code);
+            if code != "en" {
+                let english = checklist.characters().iter().zip(own.characters());
+                for (english, theirs) in english {
+                    assert_ne!(english.question, theirs.question, "{code}: {}", english.name);
+                }
+            }
+        }
+    }
+
+    #[test]
+    fn a_question_or_answer_with_no_words_in_the_language_keeps_the_checklists_own() {
+        let mut value: serde_json::Value = serde_json::from_str(BUILT_IN_CHECKLIST).unwrap();
+        let welsh = &mut value["translations"]["cy"]["characters"]["gillSlits"];
+        welsh.as_object_mut().unwrap().remove("question");
+        welsh["states"].as_object_mut().unwrap().remove("six");
+        let checklist = Checklist::from_json(&value.to_string()).unwrap();
+        let asked = checklist.in_language("cy");
+        let gills = asked.characters().iter().find(|c| c.name == "gillSlits").unwrap();
+        assert_eq!(gills.question, "How many gill openings are there on each side?");
+        let label = |state: &str| gills.states.iter().find(|s| s.name == state).unwrap().label.as_str();
+        assert_eq!((label("five"), label("six")), ("5 hollt tagell", "6 gill slits"));
+        assert_eq!(checklist.words_missing_in("cy"), ["gillSlits.question", "gillSlits.six"]);
+        // A language the checklist has no words for asks in its own.
+        assert_eq!(checklist.in_language("fr").characters(), checklist.characters());
     }
 
     #[test]

@@ -7,6 +7,8 @@ use serde::Deserialize;
 use wasm_bindgen::prelude::*;
 use wasm_bindgen_futures::JsFuture;
 
+use crate::data::words::t;
+
 #[wasm_bindgen(module = "/js/device.js")]
 extern "C" {
     #[wasm_bindgen(js_name = saveEntry)]
@@ -52,7 +54,7 @@ fn message(err: JsValue) -> String {
     err.dyn_ref::<js_sys::Error>()
         .map(|e| String::from(e.message()))
         .or_else(|| err.as_string())
-        .unwrap_or_else(|| "unknown browser error".to_owned())
+        .unwrap_or_else(|| t("device-unknown-error"))
 }
 
 async fn wait(promise: js_sys::Promise) -> Result<JsValue, String> {
@@ -273,7 +275,7 @@ pub async fn prepare_upload(file: &web_sys::Blob, long_edge: u32, quality: f64) 
     let blob = js_sys::Reflect::get(&value, &"blob".into())
         .ok()
         .filter(|b| b.is_instance_of::<web_sys::Blob>())
-        .ok_or_else(|| PrepareError::Other("no upload copy came back".into()))?;
+        .ok_or_else(|| PrepareError::Other(t("device-no-upload-copy")))?;
     let sha256 = js_sys::Reflect::get(&value, &"sha256".into()).ok().and_then(|v| v.as_string());
     Ok(UploadCopy { blob: blob.unchecked_into(), sha256 })
 }

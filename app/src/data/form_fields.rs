@@ -14,6 +14,7 @@ use shared_types::{
 };
 use uuid::Uuid;
 
+use crate::data::photos;
 use crate::data::time::{self, Zone};
 use crate::data::words::{t, t_args};
 
@@ -37,28 +38,27 @@ pub enum Control {
 }
 
 impl Control {
-    /// The label the form shows for it.
-    pub fn label(self) -> &'static str {
+    /// The control's code, the same in every language: the `data-control` of the place
+    /// its problems are shown, which tests and styles find it by.
+    pub fn code(self) -> &'static str {
         match self {
-            Self::When => "When",
-            Self::Latitude => "Latitude",
-            Self::Longitude => "Longitude",
-            Self::Accuracy => "Accuracy (metres)",
-            Self::Species => "Species",
-            Self::Length => "Length",
-            Self::Count => "How many",
-            Self::LifeStage => "Life stage",
-            Self::Condition => "Condition",
-            Self::HowFound => "How it was found",
-            Self::Signs => "Signs of fishing or people",
-            Self::Notes => "Notes",
-            Self::Photos => "Photos",
-            Self::Name => "Your name",
+            Self::When => "when",
+            Self::Latitude => "latitude",
+            Self::Longitude => "longitude",
+            Self::Accuracy => "accuracy",
+            Self::Species => "species",
+            Self::Length => "length",
+            Self::Count => "count",
+            Self::LifeStage => "life_stage",
+            Self::Condition => "condition",
+            Self::HowFound => "how_found",
+            Self::Signs => "signs",
+            Self::Notes => "notes",
+            Self::Photos => "photos",
+            Self::Name => "name",
         }
     }
 
-    /// The control a server's field path (`ErrorBody::field`) is about; `None` for a
-    /// path the form has no control for.
     /// The control's name as the form shows it, in the person's language.
     pub fn name(self) -> String {
         match self {
@@ -79,6 +79,8 @@ impl Control {
         }
     }
 
+    /// The control a server's field path (`ErrorBody::field`) is about; `None` for a
+    /// path the form has no control for.
     pub fn from_server_field(path: &str) -> Option<Self> {
         let head = path.split(['.', '[']).next().unwrap_or(path);
         Some(match head {
@@ -428,13 +430,16 @@ impl FormFields {
     pub fn time_note(&self, zone: &impl Zone) -> Option<String> {
         let WhenSource::Photo { number } = self.when_source else { return None };
         let (taken, now) = (time::parse_input(zone, &self.when)?, time::parse_input(zone, &self.device_when)?);
-        let place = if self.position_source == Some(PositionSource::Photo) { " and place" } else { "" };
-        Some(format!(
-            "Time{place} taken from photo {number}: it was taken {}, {} before this phone's time. \
-             Keep it if that is when you saw the animal.",
-            self.when.replace('T', " "),
-            time::span_words(now - taken)
-        ))
+        let args = [
+            ("number", number.into()),
+            ("taken", self.when.replace('T', " ").into()),
+            ("before", time::span_words(now - taken).into()),
+        ];
+        Some(if self.position_source == Some(PositionSource::Photo) {
+            t_args("form-photo-time-and-place", &args)
+        } else {
+            t_args("form-photo-time", &args)
+        })
     }
 
     /// A fix from this phone's location service arrived on its own (at the form's
@@ -479,14 +484,15 @@ impl FormFields {
     /// this phone's own time and fix, to set beside what each photo says.
     pub fn device_says(&self, zone: &impl Zone) -> String {
         let place = match &self.device_position {
-            Some((lat, lon, accuracy)) => format!("{lat}, {lon} within {accuracy} m"),
-            None => "no position".to_owned(),
+            Some((lat, lon, accuracy)) => photos::place_words(lat, lon, Some(accuracy.clone())),
+            None => t("photo-no-position"),
         };
-        format!(
-            "this phone says: {} ({}) · {place}",
-            self.device_when.replace('T', " "),
-            time::offset_label(zone, &self.device_when)
-        )
+        let args = [
+            ("time", self.device_when.replace('T', " ").into()),
+            ("offset", time::offset_label(zone, &self.device_when).into()),
+            ("place", place.into()),
+        ];
+        t_args("form-device-says", &args)
     }
 }
 

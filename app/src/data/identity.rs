@@ -106,10 +106,15 @@ pub async fn ensure_token() -> Result<String, String> {
     }
     let identity = api::new_identity(&profile()).await.map_err(|err| match err {
         ApiError::NoAnswer(_) => err.to_string(),
-        _ => format!("the server gave no identity: {err}"),
+        _ => t_args("identity-not-given", &[("error", err.to_string().into())]),
     })?;
-    local::try_set(TOKEN_KEY, &identity.token)
-        .map_err(|err| format!("could not keep the identity on this phone: {err}"))?;
+    local::try_set(TOKEN_KEY, &identity.token).map_err(|err| {
+        let why = match err {
+            local::NotKept::NoStorage => t("identity-no-storage"),
+            local::NotKept::Refused => t("identity-storage-refused"),
+        };
+        t_args("identity-not-kept", &[("error", why.into())])
+    })?;
     if local::get(PROFILE_KEY).as_deref() == Some("unsent") {
         local::set(PROFILE_KEY, "sent");
     }

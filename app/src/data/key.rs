@@ -14,6 +14,7 @@ use wasm_bindgen::prelude::*;
 
 use crate::data::form_fields::FormFields;
 use crate::data::nearby;
+use crate::data::words::{t, t_args};
 
 /// Below this probability for the best species, the best-supported higher taxon is
 /// marked as the suggested stop.
@@ -52,8 +53,8 @@ pub fn next_question(key: &Key, answers: &Answers, context: &Context) -> Option<
 /// and name alone when the checklist gives no common name.
 pub fn group_label(key: &Key, rank: TaxonRank, scientific_name: &str) -> String {
     match key.checklist().group_common_name(scientific_name) {
-        Some(common) => format!("{common} — {} {scientific_name}", rank_code(rank)),
-        None => format!("{} {scientific_name}", rank_code(rank)),
+        Some(common) => format!("{common} — {} {scientific_name}", rank_name(rank)),
+        None => format!("{} {scientific_name}", rank_name(rank)),
     }
 }
 
@@ -102,11 +103,29 @@ pub fn rank_code(rank: TaxonRank) -> &'static str {
     }
 }
 
+/// The rank's name in the person's language ("family").
+pub fn rank_name(rank: TaxonRank) -> String {
+    match rank {
+        TaxonRank::Species => t("key-rank-species"),
+        TaxonRank::Genus => t("key-rank-genus"),
+        TaxonRank::Family => t("key-rank-family"),
+        TaxonRank::Order => t("key-rank-order"),
+        TaxonRank::Superorder => t("key-rank-superorder"),
+    }
+}
+
+/// The name of a rank kept as its code on a record (`KeyChoice::taxon_rank`) in the
+/// person's language; the code itself when the key knows no such rank.
+pub fn rank_name_of_code(code: &str) -> String {
+    let ranks = [TaxonRank::Species, TaxonRank::Genus, TaxonRank::Family, TaxonRank::Order, TaxonRank::Superorder];
+    ranks.into_iter().find(|rank| rank_code(*rank) == code).map_or_else(|| code.to_owned(), rank_name)
+}
+
 /// Says in words why an answer was set aside.
 pub fn set_aside_text(key: &Key, error: &AnswerError) -> String {
     match error {
         AnswerError::UnknownCharacter(character) => {
-            format!("your answer about {character} (the checklist no longer asks it)")
+            t_args("key-set-aside-character", &[("character", character.as_str().into())])
         }
         AnswerError::UnknownState { character, state } => {
             let question = key
@@ -115,7 +134,7 @@ pub fn set_aside_text(key: &Key, error: &AnswerError) -> String {
                 .iter()
                 .find(|c| &c.name == character)
                 .map_or(character.as_str(), |c| c.question.as_str());
-            format!("your answer \"{state}\" to \"{question}\" (no longer one of its answers)")
+            t_args("key-set-aside-state", &[("state", state.as_str().into()), ("question", question.into())])
         }
     }
 }

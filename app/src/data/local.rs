@@ -22,10 +22,19 @@ pub fn set(key: &str, value: &str) {
     let _ = try_set(key, value);
 }
 
+/// Why a value could not be kept (the caller words it: the words module reads this one).
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum NotKept {
+    /// The browser has no localStorage (or does not let this page use it).
+    NoStorage,
+    /// The browser refused the value: storage full or blocked.
+    Refused,
+}
+
 /// Keeps `value` under `key` in localStorage; the error says why it could not.
-pub fn try_set(key: &str, value: &str) -> Result<(), String> {
-    let storage = local_storage().ok_or("this browser keeps nothing (no localStorage)")?;
-    storage.set_item(key, value).map_err(|_| "the browser refused to keep it (storage full or blocked)".to_owned())
+pub fn try_set(key: &str, value: &str) -> Result<(), NotKept> {
+    let storage = local_storage().ok_or(NotKept::NoStorage)?;
+    storage.set_item(key, value).map_err(|_| NotKept::Refused)
 }
 
 /// The value kept under `key` for this tab.

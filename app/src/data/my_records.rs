@@ -71,7 +71,8 @@ pub fn cached() -> Vec<MyRecord> {
 
 /// Asks the server for this phone's records and keeps them for offline reading.
 pub async fn fetch(token: &str) -> Result<Vec<MyRecord>, String> {
-    let records = api::my_records(token).await.map_err(|err| format!("my records: {err}"))?;
+    let records =
+        api::my_records(token).await.map_err(|err| t_args("mine-not-fetched", &[("error", err.to_string().into())]))?;
     if let Ok(text) = serde_json::to_string(&records) {
         local::set(MY_RECORDS_KEY, &text);
     }

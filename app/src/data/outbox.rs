@@ -171,8 +171,8 @@ pub async fn save(entry: &Entry, photos: Option<&[web_sys::Blob]>) -> Result<(),
 pub async fn load_all() -> Result<Vec<Entry>, String> {
     let mut entries = Vec::new();
     for json in device::list_entries(device::Store::Records).await? {
-        let entry: Entry =
-            serde_json::from_str(&json).map_err(|err| format!("a stored record could not be read: {err}"))?;
+        let entry: Entry = serde_json::from_str(&json)
+            .map_err(|err| t_args("outbox-unreadable", &[("error", err.to_string().into())]))?;
         entries.push(entry);
     }
     entries.sort_by_key(|e| std::cmp::Reverse(e.submission.observed_at));

@@ -12,6 +12,7 @@ use shared_types::exif;
 
 use crate::data::device::{self, PrepareError};
 use crate::data::time::{self, BrowserZone, Zone};
+use crate::data::words::{self, t, t_args};
 
 /// Long edge of the upload copy, pixels: enough for a reviewer to count gill slits and
 /// see spines, a fifth of a 12 MP original's bytes (common practice for evidence photos).
@@ -44,16 +45,19 @@ const EXIF_HEAD_BYTES: f64 = 256.0 * 1024.0;
 /// Reads and prepares one picked file; the error is a sentence for the observer.
 pub async fn pick(file: web_sys::File) -> Result<PickedPhoto, String> {
     let name = file.name();
-    let read = read_exif(&file).await.map_err(|err| format!("“{name}” could not be read: {err}"))?;
+    let unreadable = |err: String| t_args("photo-unreadable", &[("name", name.as_str().into()), ("error", err.into())]);
+    let read = read_exif(&file).await.map_err(unreadable)?;
     let mut exif = with_device_offset(read, &BrowserZone, &time::now().naive_local());
     // Names the original, which is never sent, so the same photo picked on two phones is
     // recognised though their upload copies differ. A browser without a digest sends none.
-    let digest = device::original_sha256(&file).await.map_err(|err| format!("“{name}” could not be read: {err}"))?;
+    let digest = device::original_sha256(&file).await.map_err(unreadable)?;
     exif.original_sha256 = digest.and_then(|hex| shared_types::Sha256Hex::parse(&hex).ok());
     let copy = device::prepare_upload(&file, UPLOAD_LONG_EDGE, UPLOAD_QUALITY).await.map_err(|err| match err {
         PrepareError::Undecodable(detail) => cannot_open(&name, &file.type_(), &detail),
         PrepareError::NoCanvas(detail) => cannot_prepare(&name, &detail),
-        PrepareError::Other(detail) => format!("“{name}” could not be prepared for sending: {detail}"),
+        PrepareError::Other(detail) => {
+            t_args("photo-not-prepared", &[("name", name.as_str().into()), ("detail", detail.into())])
+        }
     })?;
     let preview_url = web_sys::Url::create_object_url_with_blob(&copy.blob).unwrap_or_default();
     Ok(PickedPhoto { name, upload: copy.blob, upload_sha256: copy.sha256, exif, preview_url })
@@ -63,8 +67,7 @@ pub async fn pick(file: web_sys::File) -> Result<PickedPhoto, String> {
 /// the whole file (PNG and others may keep it anywhere).
 async fn read_exif(file: &web_sys::File) -> Result<PhotoExif, String> {
     if file.size() > EXIF_HEAD_BYTES {
-        let head =
-            file.slice_with_f64_and_f64(0.0, EXIF_HEAD_BYTES).map_err(|_| "its start could not be read".to_owned())?;
+        let head = file.slice_with_f64_and_f64(0.0, EXIF_HEAD_BYTES).map_err(|_| t("photo-start-unreadable"))?;
         if let Some(found) = exif::read_if_present(&device::read_bytes(&head).await?) {
             return Ok(found);
         }
@@ -100,48 +103,52 @@ fn cannot_open(name: &str, media_type: &str, detail: &str) -> String {
         || lower.ends_with(".heic")
         || lower.ends_with(".heif");
     if heic {
-        format!(
-            "“{name}” is a HEIC photo, which this browser cannot open. Take the photo with “Add photo” here \
-             (it saves JPEG), or set the camera to JPEG (on an iPhone: Settings › Camera › Formats › Most Compatible) \
-             and pick it again."
-        )
+        t_args("photo-heic", &[("name", name.into())])
     } else {
-        format!(
-            "“{name}” could not be opened as a picture by this browser ({detail}). Pick a JPEG or PNG photo instead."
-        )
+        t_args("photo-cannot-open", &[("name", name.into()), ("detail", detail.into())])
     }
 }
 
 /// What to tell the observer when this browser has no way to make the upload copy
 /// (no OffscreenCanvas and no canvas that can save a picture: very old browsers).
 fn cannot_prepare(name: &str, detail: &str) -> String {
-    format!(
-        "“{name}” could not be prepared for sending: this browser is too old to resize photos ({detail}). \
-         Update the phone's software (on an iPhone: Settings › General › Software Update) or open wrackline \
-         in an up-to-date browser, then add the photo again."
-    )
+    t_args("photo-browser-too-old", &[("name", name.into()), ("detail", detail.into())])
 }
 
 /// "photo says: 2025-06-01 14:05:09 (UTC+01:00, the camera's own time zone) · 52.41530,
 /// -4.08290 within 7 m".
 pub fn photo_says(exif: &PhotoExif) -> String {
     let when = match (&exif.taken_at, &exif.offset_source) {
-        (Some(at), Some(shared_types::OffsetSource::Photo)) => {
-            format!("{} (UTC{}, the camera's own time zone)", at.format("%Y-%m-%d %H:%M:%S"), at.offset())
+        (Some(at), source) => {
+            let time = at.format("%Y-%m-%d %H:%M:%S").to_string();
+            let args = [("time", time.into()), ("offset", at.offset().to_string().into())];
+            match source {
+                Some(shared_types::OffsetSource::Photo) => t_args("photo-time-camera-zone", &args),
+                _ => t_args("photo-time-phone-zone", &args),
+            }
         }
-        (Some(at), _) => {
-            format!("{} (UTC{}, this phone's time zone on that date)", at.format("%Y-%m-%d %H:%M:%S"), at.offset())
-        }
-        (None, _) => "no time".to_owned(),
+        (None, _) => t("photo-no-time"),
     };
     let place = match (exif.latitude, exif.longitude) {
         (Some(lat), Some(lon)) => {
-            let error = exif.horizontal_error_m.map(|e| format!(" within {e:.0} m")).unwrap_or_default();
-            format!("{lat:.5}, {lon:.5}{error}")
+            let within = exif.horizontal_error_m.map(|e| words::number(e, 0));
+            place_words(&words::number(lat, 5), &words::number(lon, 5), within)
         }
-        _ => "no position".to_owned(),
+        _ => t("photo-no-position"),
     };
-    format!("photo says: {when} · {place}")
+    t_args("photo-says", &[("when", when.into()), ("place", place.into())])
+}
+
+/// A position as people read it, "52.41530, -4.08290 within 7 m", the radius left out
+/// when there is none (each number already written for the language).
+pub fn place_words(latitude: &str, longitude: &str, within_m: Option<String>) -> String {
+    match within_m {
+        Some(metres) => t_args(
+            "photo-place-within",
+            &[("lat", latitude.into()), ("lon", longitude.into()), ("metres", metres.into())],
+        ),
+        None => t_args("photo-place", &[("lat", latitude.into()), ("lon", longitude.into())]),
+    }
 }
 
 /// Where the server serves a received photo's copy, by the original's SHA-256.

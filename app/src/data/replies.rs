@@ -11,7 +11,7 @@ use uuid::Uuid;
 use crate::data::api;
 use crate::data::device::{self, Store};
 use crate::data::photos::PickedPhoto;
-use crate::data::words::t;
+use crate::data::words::{t, t_args};
 
 /// Where an answer is on its way to the server.
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
@@ -54,7 +54,9 @@ pub async fn load_all() -> Result<Vec<ReplyEntry>, String> {
     device::list_entries(Store::Replies)
         .await?
         .iter()
-        .map(|json| serde_json::from_str(json).map_err(|err| format!("a stored answer could not be read: {err}")))
+        .map(|json| {
+            serde_json::from_str(json).map_err(|err| t_args("replies-unreadable", &[("error", err.to_string().into())]))
+        })
         .collect()
 }
 
@@ -65,7 +67,7 @@ pub async fn send_waiting(token: &str) -> Option<String> {
         let photos = match device::photos_of(&entry.reply.client_id.to_string()).await {
             Ok(photos) if photos.len() == entry.photo_count => photos,
             _ => {
-                problem.get_or_insert("an answer's photos are not all on this phone yet".to_owned());
+                problem.get_or_insert(t("replies-photos-missing"));
                 continue;
             }
         };

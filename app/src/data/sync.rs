@@ -20,6 +20,7 @@ use crate::data::my_records;
 use crate::data::outbox::{self, Entry, Outbox, SyncState};
 use crate::data::replies;
 use crate::data::walks::{self, WalkState};
+use crate::data::words::t_args;
 
 /// First retry delay; doubled after each failed round up to [`MAX_DELAY`].
 const FIRST_DELAY: Duration = Duration::from_secs(2);
@@ -201,9 +202,12 @@ async fn send_records(outbox: Outbox, token: &str, which: Which) -> Option<Strin
 
 /// A record's photos as kept on the phone; never fewer than the observer took.
 async fn photos_to_send(entry: &Entry) -> Result<Vec<web_sys::Blob>, String> {
-    let photos = device::photos_of(&entry.id()).await.map_err(|err| format!("photos could not be read: {err}"))?;
+    let photos = device::photos_of(&entry.id())
+        .await
+        .map_err(|err| t_args("sync-photos-unreadable", &[("error", err.into())]))?;
     if photos.len() != entry.photo_count {
-        return Err(format!("{} of {} photos found on this phone", photos.len(), entry.photo_count));
+        let counts = [("found", photos.len().into()), ("taken", entry.photo_count.into())];
+        return Err(t_args("sync-photos-missing", &counts));
     }
     Ok(photos)
 }
@@ -258,7 +262,7 @@ async fn send_links(outbox: Outbox, token: &str) -> Option<String> {
                 problem.get_or_insert(err.to_string());
                 continue;
             }
-            Err(err) => Some(format!("could not add to the walk: {err}")),
+            Err(err) => Some(t_args("sync-walk-not-joined", &[("error", err.to_string().into())])),
         };
         let saved = outbox::update(&entry.id(), |e| {
             e.walk_link_pending = None;

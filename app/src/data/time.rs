@@ -6,6 +6,8 @@
 
 use chrono::{DateTime, FixedOffset, NaiveDateTime, TimeZone};
 
+use crate::data::words::t_args;
+
 /// The format of a `datetime-local` input's value.
 pub const INPUT_FORMAT: &str = "%Y-%m-%dT%H:%M";
 
@@ -57,12 +59,12 @@ pub fn input_value_at(zone: &impl Zone, at: &DateTime<FixedOffset>) -> String {
 pub fn span_words(span: chrono::Duration) -> String {
     let minutes = span.num_minutes().max(0);
     match minutes {
-        0..60 => format!("{minutes} min"),
+        0..60 => t_args("span-minutes", &[("minutes", minutes.into())]),
         60..2880 => match minutes % 60 {
-            0 => format!("{} h", minutes / 60),
-            rest => format!("{} h {rest} min", minutes / 60),
+            0 => t_args("span-hours", &[("hours", (minutes / 60).into())]),
+            rest => t_args("span-hours-minutes", &[("hours", (minutes / 60).into()), ("minutes", rest.into())]),
         },
-        _ => format!("{} days", minutes / 1440),
+        _ => t_args("span-days", &[("days", (minutes / 1440).into())]),
     }
 }
 

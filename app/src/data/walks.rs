@@ -159,7 +159,8 @@ pub async fn load_all() -> Result<Vec<WalkEntry>, String> {
         .await?
         .iter()
         .map(|json| {
-            serde_json::from_str::<WalkEntry>(json).map_err(|err| format!("a stored walk could not be read: {err}"))
+            serde_json::from_str::<WalkEntry>(json)
+                .map_err(|err| t_args("walks-unreadable", &[("error", err.to_string().into())]))
         })
         .collect::<Result<Vec<_>, _>>()?;
     walks.sort_by_key(|w| std::cmp::Reverse(w.started_at));

@@ -7,3 +7,4 @@ mod questions;
 mod ranking;
 mod separation;
 mod support;
+mod translations;

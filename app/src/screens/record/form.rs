@@ -15,7 +15,7 @@ use crate::data::outbox::{self, Entry, Outbox, SyncState};
 use crate::data::photos::PickedPhoto;
 use crate::data::time::{self, BrowserZone};
 use crate::data::words::{self, t, t_args};
-use crate::data::{checklist, device, identity, labels, page, sync, walk_track};
+use crate::data::{checklist, device, identity, key, labels, page, sync, walk_track};
 use crate::screens::record::key::KeyPanel;
 use crate::screens::record::live::LivePanel;
 use crate::screens::record::photos::PhotoPicker;
@@ -190,7 +190,7 @@ fn beside(problems: RwSignal<Vec<Problem>>, control: Control) -> impl IntoView {
 
 fn problem_line(problems: RwSignal<Vec<Problem>>, control: Control) -> impl IntoView {
     view! {
-        <p class="field-problem" data-control=control.label() role="alert">{beside(problems, control)}</p>
+        <p class="field-problem" data-control=control.code() role="alert">{beside(problems, control)}</p>
     }
 }
 
@@ -327,7 +327,7 @@ pub fn RecordForm(outbox: Outbox, responders: Signal<Option<String>>) -> impl In
                         on:input=move |ev| fields.update(|f| { f.species_guess = event_target_value(&ev); f.key_choice = None; }) /></label>
                 {problem_line(problems, Control::Species)}
                 {move || fields.with(|f| f.key_choice.as_ref().map(|c| view! {
-                    <p id="key-choice" class="hint">{t_args("form-key-choice", &[("name", c.scientific_name.as_str().into()), ("rank", c.taxon_rank.to_string().into()), ("percent", words::number(c.probability * 100.0, 0).into())])}</p>
+                    <p id="key-choice" class="hint">{t_args("form-key-choice", &[("name", c.scientific_name.as_str().into()), ("rank", key::rank_name_of_code(&c.taxon_rank).into()), ("percent", words::number(c.probability * 100.0, 0).into())])}</p>
                 }))}
                 <button id="open-key" type="button" class="small" on:click=move |_| key_open.update(|o| *o = !*o)>
                     {move || if key_open.get() { t("form-hide-key") } else { t("form-open-key") }}
