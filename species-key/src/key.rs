@@ -47,8 +47,10 @@ pub struct Candidate {
 pub struct Reason {
     /// Which way it pushed.
     pub effect: Effect,
-    /// Plain words, e.g. "6 gill slits".
+    /// Plain words in English, e.g. "6 gill slits" (what [`Said::english`] makes of `said`).
     pub text: String,
+    /// What it says, as data, for a screen to put in its own language.
+    pub said: crate::reasons::Said,
 }
 
 /// Which way a reason pushed a species.

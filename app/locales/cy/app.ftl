@@ -223,3 +223,37 @@ photo-says = mae'r llun yn dweud: { $when } · { $place }
 form-photo-time = Daw'r amser o lun { $number }: cafodd ei dynnu { $taken }, { $before } cyn amser y ffôn hwn. Cadwch ef os dyna pryd y gwelsoch chi'r anifail.
 form-photo-time-and-place = Daw'r amser a'r lle o lun { $number }: cafodd ei dynnu { $taken }, { $before } cyn amser y ffôn hwn. Cadwch nhw os dyna pryd y gwelsoch chi'r anifail.
 form-device-says = mae'r ffôn hwn yn dweud: { $time } ({ $offset }) · { $place }
+
+## The guided key's reasons (both bundles: data/key_reasons.rs)
+
+key-reason-not-described = atebwyd "{ $answer }", ond does gan y rhestr ddim am hyn ar gyfer y rhywogaeth hon
+key-reason-contradicts = atebwyd "{ $answer }", ond mae gan y rhywogaeth hon { $has }
+key-reason-or = neu
+key-reason-unknown-area = nid yw'r cod ardal { $code } yn y rhestr hon, felly ni ddefnyddiwyd yr ardal
+key-reason-known-from = yn hysbys o { $area }
+key-reason-not-known-from = nid yw'n hysbys o { $area } yn y rhestr hon
+key-reason-nearby =
+    { $count ->
+        [0] dim cofnodion wedi'u cadarnhau gerllaw
+        [one] 1 cofnod wedi'i gadarnhau gerllaw
+       *[other] { $count } cofnod wedi'u cadarnhau gerllaw
+    }
+key-reason-size-not-comparable = ni ellir cymharu { $measured } ag uchafswm { $maximum } y rhywogaeth hon, felly ni ddefnyddiwyd maint
+key-reason-within = mae { $size } o fewn uchafswm hysbys y rhywogaeth hon, sef { $max } cm
+key-reason-over = mae { $size } dros uchafswm hysbys y rhywogaeth hon, sef { $max } cm
+key-reason-newborn = mae { $size } yn llai nag un newydd-anedig o'r rhywogaeth hon, sy'n tyfu i { $max } cm
+key-size =
+    { $cm } cm { $how ->
+        [estimated] (amcangyfrif)
+       *[measured] (wedi'i fesur)
+    }
+key-size-by-equation =
+    { $kind } { $cm } cm { $how ->
+        [estimated] (amcangyfrif)
+       *[measured] (wedi'i fesur)
+    } (tua { $total } cm o hyd cyfan drwy { $equation }; { $source })
+key-size-by-generic-ratio =
+    { $kind } { $cm } cm { $how ->
+        [estimated] (amcangyfrif)
+       *[measured] (wedi'i fesur)
+    } (tua { $total } cm o hyd cyfan drwy'r gymhareb gyffredinol { $equation }, arfer cyffredin: does gan y rhestr ddim hafaliad cyhoeddedig ar gyfer y rhywogaeth hon)

@@ -222,3 +222,37 @@ photo-says = photo says: { $when } · { $place }
 form-photo-time = Time taken from photo { $number }: it was taken { $taken }, { $before } before this phone's time. Keep it if that is when you saw the animal.
 form-photo-time-and-place = Time and place taken from photo { $number }: it was taken { $taken }, { $before } before this phone's time. Keep it if that is when you saw the animal.
 form-device-says = this phone says: { $time } ({ $offset }) · { $place }
+
+## The guided key's reasons (both bundles: data/key_reasons.rs)
+
+key-reason-not-described = answered "{ $answer }", but the checklist has nothing on this for this species
+key-reason-contradicts = answered "{ $answer }", but this species has { $has }
+key-reason-or = or
+key-reason-unknown-area = area code { $code } is not in this checklist, so range was not used
+key-reason-known-from = known from { $area }
+key-reason-not-known-from = not known from { $area } in this checklist
+key-reason-nearby =
+    { $count ->
+        [0] no confirmed records nearby
+        [one] 1 confirmed record nearby
+       *[other] { $count } confirmed records nearby
+    }
+key-reason-size-not-comparable = a { $measured } cannot be compared with this species' maximum { $maximum }, so size was not used
+key-reason-within = { $size } is within this species' known maximum of { $max } cm
+key-reason-over = { $size } is over this species' known maximum of { $max } cm
+key-reason-newborn = { $size } is smaller than a newborn of this species, which grows to { $max } cm
+key-size =
+    { $how ->
+        [estimated] estimated
+       *[measured] measured
+    } { $cm } cm
+key-size-by-equation =
+    { $how ->
+        [estimated] estimated
+       *[measured] measured
+    } { $kind } { $cm } cm (about { $total } cm total length by { $equation }; { $source })
+key-size-by-generic-ratio =
+    { $how ->
+        [estimated] estimated
+       *[measured] measured
+    } { $kind } { $cm } cm (about { $total } cm total length by the generic ratio { $equation }, common practice: the checklist has no published equation for this species)

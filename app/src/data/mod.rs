@@ -14,7 +14,7 @@
 //!   typed client for every server route the app calls, and its error type).
 //! - Rules and words: [`form_fields`] (the record form's fields and checks), [`photos`]
 //!   (EXIF read on the phone, the upload copy), [`time`] (local time and its offset on a
-//!   given date), [`key`] (the guided key's logic), [`figures`] and [`downloads`] (the
+//!   given date), [`key`] (the guided key's logic) and [`key_reasons`] (its reasons in words), [`figures`] and [`downloads`] (the
 //!   figures' tables and the download links), [`readable`] (times and photo readings as
 //!   people read them), [`page`] (what the page learns from the browser), [`fieldwork`]
 //!   (the forms of the people who go out: responses, samples, carcass reports).
@@ -28,6 +28,7 @@ pub mod figures;
 pub mod form_fields;
 pub mod identity;
 pub mod key;
+pub mod key_reasons;
 pub mod labels;
 pub mod local;
 pub mod my_records;

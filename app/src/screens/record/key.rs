@@ -18,6 +18,7 @@ use crate::data::key::{
     SHOWN_CANDIDATES, context_for, display_name, group_label, higher_taxa, key_choice, next_question, position_of,
     rank_code, set_aside_text, suggested_stop,
 };
+use crate::data::key_reasons::reason_words;
 use crate::data::words::{t, t_args};
 use crate::data::{checklist, nearby};
 use crate::screens::record::pictures::picture;
@@ -107,7 +108,7 @@ pub fn KeyPanel(key: RwSignal<Arc<Key>>, fields: RwSignal<FormFields>, open: RwS
                 let supports = matches!(r.effect, species_key::Effect::Supports);
                 let against = matches!(r.effect, species_key::Effect::Against);
                 let neutral = matches!(r.effect, species_key::Effect::Neutral);
-                view! { <li class="reason" class:supports=supports class:against=against class:neutral=neutral>{r.text.clone()}</li> }
+                view! { <li class="reason" class:supports=supports class:against=against class:neutral=neutral>{reason_words(r)}</li> }
             }).collect_view();
             let probability = candidate.probability;
             let pick_label = label.clone();
