@@ -185,7 +185,7 @@ pub fn trend_lines(report: &Value) -> Vec<(String, String)> {
             t_args(
                 "figures-window-chosen",
                 &[
-                    ("window", window.clone().into()),
+                    ("window", window.into()),
                     ("generation", years(number(&generation["years"])).into()),
                     ("source", generation["source"].as_str().unwrap_or("").into()),
                 ],
