@@ -389,6 +389,6 @@ sex-female = benyw
 sex-unknown = ddim yn hysbys
 people-action-added = ychwanegwyd fel { $role }
 people-action-role-changed = newidiwyd y rôl ({ $from } → { $to })
-people-action-password-reset = ailosodwyd y cyfrinair; daeth eu mewngofnodion i ben
+people-action-password-reset = ailosodwyd y cyfrinair; daeth eu sesiynau i ben
 people-action-turned-off = diffoddwyd y mewngofnodi
 people-action-turned-on = trowyd y mewngofnodi ymlaen

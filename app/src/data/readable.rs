@@ -3,6 +3,8 @@
 //! fraction — short enough for a table cell on a 390 px screen and exact enough to
 //! compare a photo with its record. A photo's time and place are shown with the reading
 //! the server compared for each (the received file's or the phone's), saying which.
+//! The words (readings, offsets, a photo's gap and distance from its record, with the
+//! same unit steps as the server's own words) are in the person's language.
 
 use chrono::{DateTime, FixedOffset, TimeZone, Utc};
 use shared_types::{ExifReading, OffsetSource, PhotoCheck, PhotoExif};
