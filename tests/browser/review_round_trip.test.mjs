@@ -116,8 +116,8 @@ test('an admin adds a reviewer, sets a new password and changes the role on the 
     const login = await fetch(`${server.url}/api/session`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ username: 'gwen', password: 'a password handed over' }) });
     assert.equal(login.status, 200);
     // Every change is in the trail, with who made it.
-    await page.waitForFunction(() => /gwen · password reset \(sessions ended\) · by browser-admin/.test(document.querySelector('#people-events')?.textContent));
-    assert.match(await page.textContent('#people-events'), /gwen · added \(as reviewer\) · by browser-admin/);
+    await page.waitForFunction(() => /gwen · password reset; their sign-ins ended · by browser-admin/.test(document.querySelector('#people-events')?.textContent));
+    assert.match(await page.textContent('#people-events'), /gwen · added as reviewer · by browser-admin/);
     const cookie = login.headers.get('set-cookie').split(';')[0];
     const people = await fetch(`${server.url}/api/people`, { headers: { cookie } });
     assert.equal(people.status, 403, 'a reviewer cannot manage people');

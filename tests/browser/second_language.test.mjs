@@ -3,8 +3,9 @@
 // saved offline, sent when the connection returns, My records) shows the catalogue's
 // Welsh words with dates formatted for Welsh, the switch on the page changes the language
 // and keeps the choice on the device, the guided key asks the checklist's Welsh questions
-// and a photo's time note is Welsh, and the desk's page, sign-in and safety screen speak
-// Welsh too. Each assertion fails if a screen falls back to English.
+// and a photo's time note is Welsh, and the desk's page, sign-in, safety screen and figures
+// (labels, units, the trend's lines, the caveat, download captions) speak Welsh too. Each
+// assertion fails if a screen falls back to English.
 import { test, before, after } from 'node:test';
 import assert from 'node:assert/strict';
 import { execFileSync } from 'node:child_process';
@@ -183,6 +184,63 @@ test("the desk's page, sign-in and safety screen speak Welsh", async () => {
     assert.match(safety, /Diogelwch ar y traeth/);
     assert.match(safety, /Mae'r pigau'n wenwynig/);
     assert.doesNotMatch(safety, /venomous/);
+  } finally {
+    await context.close();
+  }
+});
+
+// A record as a phone sends it, straight to the API (the figures need a few years of them).
+async function sendRecord(id, year, latitude, longitude) {
+  const record = {
+    client_id: id, observed_at: `${year}-06-01T09:00:00+01:00`,
+    position: { latitude, longitude, accuracy_m: 10, source: 'device' },
+    species_guess: 'small-spotted catshark', length: null, sex: 'unknown', count: 1,
+    condition: 'fresh_dead', setting: 'beach_stranding', human_signs: [], notes: null, observer_name: null,
+  };
+  const form = new FormData();
+  form.append('record', JSON.stringify(record));
+  const response = await fetch(`${server.url}/api/observations`, { method: 'POST', body: form });
+  assert.equal(response.status, 200, await response.text());
+}
+
+test("the desk's figures, their caveat and the download captions speak Welsh", async () => {
+  await sendRecord('c7000000-0000-4000-8000-000000000001', 2022, 52.41, -4.09);
+  await sendRecord('c7000000-0000-4000-8000-000000000002', 2023, 52.24, -4.26);
+  await sendRecord('c7000000-0000-4000-8000-000000000003', 2024, 52.13, -4.55);
+  const context = await browser.newContext({ viewport: { width: 1280, height: 900 }, locale: 'cy-GB' });
+  try {
+    const page = await context.newPage();
+    await page.goto(`${server.url}/desk/#figures`);
+    await page.waitForSelector('#figures-show', { timeout: 15000 });
+    await page.fill('#figures-taxon', 'Scyliorhinus canicula');
+    await page.selectOption('#figures-state', 'any');
+    await page.click('#figures-show');
+    await page.waitForSelector('#range-table', { timeout: 15000 });
+    await page.waitForSelector('#trend-figures', { timeout: 15000 });
+
+    // The caveat said once at the top, and the captions under the choices, in Welsh.
+    const caveat = await text(page, '#figures-caveat');
+    assert.match(caveat, /nid penderfyniad rhestru/);
+    assert.doesNotMatch(caveat, /listing decision/);
+    assert.match(await text(page, '#figures-state-words'), /Yn cyfrif pob cofnod sydd wedi'i gadw/);
+    assert.match(await text(page, '#export-state-words'), /Yn cyfrif cofnodion wedi'u cadarnhau yn unig/);
+
+    // The range table's labels and units, built in data/, in Welsh.
+    const labels = await page.$$eval('#range-table tbody th', (ths) => ths.map((th) => th.textContent));
+    assert.deepEqual(labels, ['Cofnodion', 'Safleoedd gwahanol', 'EOO', 'AOO', "AOO lleiaf (gridiau wedi'u symud)"]);
+    const cells = await page.$$eval('#range-table tbody td', (tds) => tds.map((td) => td.textContent));
+    assert.ok(cells.some((c) => /^[\d.,]+ km²$/.test(c)), `areas with their unit: ${cells}`);
+
+    // The trend's lines: Welsh labels, and the window too long for three years said in Welsh.
+    const trend = await page.$$eval('#trend-figures .figure-line', (lines) =>
+      Object.fromEntries(lines.map((l) => [l.querySelector('dt').textContent, l.querySelector('dd').textContent])));
+    assert.match(trend['Cyfradd newid y flwyddyn'], /cyfwng 95%/);
+    assert.match(trend['Newid dros y ffenestr asesu'], /^heb ei roi: /);
+    assert.match(trend['Gwasgariad a model'], /^Gwasgariad Pearson /);
+    assert.doesNotMatch(Object.keys(trend).join(' | '), /Rate of change|Years fitted|Dispersion/);
+    // (The generation length's source is the checklist's own text, shown as it is.)
+    const ours = Object.entries(trend).filter(([label]) => label !== 'Sut y dewiswyd y ffenestr').map(([, v]) => v);
+    assert.doesNotMatch(ours.join(' | '), /interval|not given|per year|degrees of freedom/);
   } finally {
     await context.close();
   }

@@ -303,7 +303,7 @@ people-password = Cyfrinair (10+ nod)
 people-add = Ychwanegu
 people-added = Ychwanegwyd { $who } fel { $role }. Rhowch eu cyfrinair iddyn nhw wyneb yn wyneb; maen nhw'n mewngofnodi dan Adolygu.
 people-changes = Newidiadau i fewngofnodi
-people-event = { $at } · { $who } · { $action }{ $detail } · gan { $by }
+people-event = { $at } · { $who } · { $action } · gan { $by }
 people-command-line = llinell orchymyn y gweinydd
 people-back = ← Adolygu
 role-observer = sylwedydd
@@ -325,3 +325,70 @@ downloads-download = Lawrlwytho
 downloads-state-confirmed = Yn cyfrif cofnodion wedi'u cadarnhau yn unig: y rhai y mae adolygydd wedi'u gwirio.
 downloads-state-any = Yn cyfrif pob cofnod sydd wedi'i gadw, wedi'i adolygu neu beidio: gall cofnodion heb eu cadarnhau fod yn anghywir.
 downloads-state-other = Yn cyfrif cofnodion yn y cyflwr “{ $state }” yn unig.
+
+## Built in data/ (desk)
+
+# Tabl y ffigurau (data/figures.rs). Mae EOO ac AOO yn cadw enwau'r IUCN.
+figures-row-records = Cofnodion
+figures-row-sites = Safleoedd gwahanol
+figures-row-eoo = EOO
+figures-row-aoo = AOO
+figures-row-least-aoo = AOO lleiaf (gridiau wedi'u symud)
+figures-area = { $area } km²
+figures-area-change-percent = { $area } km² ({ $percent }%)
+figures-percent = { $percent }%
+figures-percent-over = dros +{ $limit }%
+figures-percent-below = o dan −{ $limit }%
+# Llinellau'r duedd: label, yna'i destun.
+figures-rate-label = Cyfradd newid y flwyddyn
+figures-window-label = Newid dros y ffenestr asesu
+figures-years-fitted-label = Blynyddoedd a ffitiwyd
+figures-window-chosen-label = Sut y dewiswyd y ffenestr
+figures-model-label = Gwasgariad a model
+figures-mann-kendall-label = Mann–Kendall (wedi'i gywiro am gydraddoldebau)
+figures-counts-label = Anifeiliaid a gofnodwyd bob blwyddyn
+figures-change-interval = { $change } (cyfwng 95% { $lower } i { $upper })
+figures-window-change = { $change } dros { $window } o flynyddoedd
+figures-window-change-extrapolated = { $change } dros { $window } o flynyddoedd, wedi'i allosod y tu hwnt i'r blynyddoedd sydd â data
+figures-window-not-given = heb ei roi: mae'r ffenestr o { $window } o flynyddoedd yn ymestyn yn rhy bell y tu hwnt i'r { $span } o flynyddoedd a ffitiwyd ({ $first }–{ $last }) i gario'r duedd drosti. Rhoddir y newid y flwyddyn; mae angen rhagor o flynyddoedd o ddata ar gyfer y ffenestr.
+figures-years-fitted = { $first }–{ $last } (y ffenestr asesu ddiweddaraf; ni ffitiwyd blynyddoedd cynharach)
+figures-window-chosen = { $window } o flynyddoedd = yr hiraf o 10 mlynedd a 3 × hyd cenhedlaeth ({ $generation } o flynyddoedd; { $source }), maen prawf A yr IUCN
+figures-model = Gwasgariad Pearson { $dispersion }; { $model }
+figures-model-quasi-poisson-t = quasi-Poisson: gwallau wedi'u graddio yn ôl y gwasgariad, cyfyngau o ddosbarthiad t Student gyda { $df } gradd rhyddid
+figures-model-quasi-poisson = quasi-Poisson: gwallau wedi'u graddio yn ôl y gwasgariad
+figures-model-negative-binomial = binomial negatif (mae ei AIC yn is nag un y Poisson), cyfyngau o'r dosbarthiad normal
+figures-model-poisson = gwallau Poisson, cyfyngau o'r dosbarthiad normal
+figures-mann-kendall = tau = { $tau }, p = { $p }; llethr Sen { $slope } y flwyddyn
+figures-no-counts = dim
+
+# Ffurflenni a hysbysiadau'r bobl sy'n mynd allan (data/fieldwork.rs).
+fieldwork-choose-date-time = dewiswch ddyddiad ac amser
+fieldwork-choose-from-list = dewiswch un o'r rhestr
+fieldwork-channel-email = e-bost
+fieldwork-channel-webhook = webhook
+fieldwork-notification-delivered = { $channel }: wedi'i ddanfon { $at } ar ôl { $attempts } ymgais
+fieldwork-notification-failing = { $channel }: heb ei ddanfon eto ar ôl { $attempts } ymgais; methodd yr olaf: { $error }
+fieldwork-notification-waiting = { $channel }: yn aros i gael ei anfon
+
+# Darlleniadau llun, bylchau a phellteroedd ar sgrin y cofnod (data/readable.rs).
+readable-time-and-place-from = amser o { $time }, lle o { $place }
+readable-no-exif = dim EXIF
+readable-phone-reading = darlleniad y ffôn o'r gwreiddiol
+readable-file-exif = EXIF y ffeil
+readable-offset-photo = gwrthbwys y llun
+readable-offset-phone = gwrthbwys y ffôn ar y pryd
+readable-offset-record = gwrthbwys y cofnod
+readable-gap-hours = { $hours } awr
+readable-gap-days = { $days } diwrnod
+readable-distance-m = { $metres } m
+readable-distance-km = { $km } km
+
+# Rhyw'r anifail ar sgrin y cofnod, a newidiadau i fewngofnodi (data/labels.rs).
+sex-male = gwryw
+sex-female = benyw
+sex-unknown = ddim yn hysbys
+people-action-added = ychwanegwyd fel { $role }
+people-action-role-changed = newidiwyd y rôl ({ $from } → { $to })
+people-action-password-reset = ailosodwyd y cyfrinair; daeth eu sesiynau i ben
+people-action-turned-off = diffoddwyd y mewngofnodi
+people-action-turned-on = trowyd y mewngofnodi ymlaen

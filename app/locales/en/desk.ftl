@@ -299,7 +299,7 @@ people-password = Password (10+ characters)
 people-add = Add
 people-added = { $who } was added as { $role }. Give them their password in person; they sign in under Review.
 people-changes = Changes to sign-ins
-people-event = { $at } · { $who } · { $action }{ $detail } · by { $by }
+people-event = { $at } · { $who } · { $action } · by { $by }
 people-command-line = the server's command line
 people-back = ← Review
 role-observer = observer
@@ -321,3 +321,76 @@ downloads-download = Download
 downloads-state-confirmed = Counting confirmed records only: those a reviewer has checked.
 downloads-state-any = Counting every stored record, reviewed or not: unconfirmed records may be wrong.
 downloads-state-other = Counting records in the state “{ $state }” only.
+
+## Built in data/ (desk)
+
+# The figures table (data/figures.rs). EOO and AOO keep their IUCN names.
+figures-row-records = Records
+figures-row-sites = Distinct sites
+figures-row-eoo = EOO
+figures-row-aoo = AOO
+figures-row-least-aoo = Least AOO (shifted grids)
+figures-area = { $area } km²
+figures-area-change-percent = { $area } km² ({ $percent }%)
+figures-percent = { $percent }%
+figures-percent-over = over +{ $limit }%
+figures-percent-below = below −{ $limit }%
+# The trend's lines: a label, then its text.
+figures-rate-label = Rate of change per year
+figures-window-label = Change over the assessment window
+figures-years-fitted-label = Years fitted
+figures-window-chosen-label = How the window was chosen
+figures-model-label = Dispersion and model
+figures-mann-kendall-label = Mann–Kendall (tie-corrected)
+figures-counts-label = Animals recorded per year
+figures-change-interval = { $change } (95% interval { $lower } to { $upper })
+figures-window-change = { $change } over { $window } years
+figures-window-change-extrapolated = { $change } over { $window } years, extrapolated beyond the years covered
+figures-window-not-given = not given: the { $window }-year window reaches too far beyond the { $span } years fitted ({ $first }–{ $last }) to carry the trend over it. The change per year is given; more years of data are needed for the window.
+figures-years-fitted = { $first }–{ $last } (the most recent assessment window; earlier years are not fitted)
+figures-window-chosen = { $window } years = the longer of 10 years and 3 × generation length ({ $generation } years; { $source }), IUCN criterion A
+figures-model = Pearson dispersion { $dispersion }; { $model }
+figures-model-quasi-poisson-t = quasi-Poisson: errors scaled by the dispersion, intervals from Student's t with { $df } degrees of freedom
+figures-model-quasi-poisson = quasi-Poisson: errors scaled by the dispersion
+figures-model-negative-binomial = negative binomial (its AIC is lower than the Poisson's), intervals from the normal distribution
+figures-model-poisson = Poisson errors, intervals from the normal distribution
+figures-mann-kendall = tau = { $tau }, p = { $p }; Sen's slope { $slope } per year
+figures-no-counts = none
+
+# Forms and notifications of the people who go out (data/fieldwork.rs).
+fieldwork-choose-date-time = choose a date and time
+fieldwork-choose-from-list = choose one from the list
+fieldwork-channel-email = email
+fieldwork-channel-webhook = webhook
+fieldwork-notification-delivered = { $channel }: delivered { $at } after { $attempts ->
+    [one] { $attempts } attempt
+   *[other] { $attempts } attempts
+}
+fieldwork-notification-failing = { $channel }: not delivered yet after { $attempts ->
+    [one] { $attempts } attempt
+   *[other] { $attempts } attempts
+}; the last failed: { $error }
+fieldwork-notification-waiting = { $channel }: waiting to be sent
+
+# A photo's readings, gaps and distances on the record screen (data/readable.rs).
+readable-time-and-place-from = time from { $time }, place from { $place }
+readable-no-exif = no EXIF
+readable-phone-reading = the phone's reading of the original
+readable-file-exif = the file's EXIF
+readable-offset-photo = photo's offset
+readable-offset-phone = phone's offset then
+readable-offset-record = record's offset
+readable-gap-hours = { $hours } h
+readable-gap-days = { $days } days
+readable-distance-m = { $metres } m
+readable-distance-km = { $km } km
+
+# The animal's sex on the record screen, and changes to sign-ins (data/labels.rs).
+sex-male = male
+sex-female = female
+sex-unknown = not known
+people-action-added = added as { $role }
+people-action-role-changed = role changed ({ $from } → { $to })
+people-action-password-reset = password reset; their sign-ins ended
+people-action-turned-off = sign-in turned off
+people-action-turned-on = sign-in turned on

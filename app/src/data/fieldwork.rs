@@ -12,7 +12,9 @@ use shared_types::{
 };
 
 use crate::data::api::ApiError;
+use crate::data::readable;
 use crate::data::time::{self, Zone};
+use crate::data::words::{t, t_args};
 
 /// A problem with one field of a form: the field's name as the server names it, and the
 /// words to show beside its control.
@@ -63,11 +65,11 @@ fn optional_text(field: &str, value: &str) -> Result<Option<Text>, FormProblem> 
 }
 
 fn local_time(zone: &impl Zone, field: &str, value: &str) -> Result<DateTime<FixedOffset>, FormProblem> {
-    time::parse_input(zone, value).ok_or_else(|| FormProblem::at(field, "choose a date and time"))
+    time::parse_input(zone, value).ok_or_else(|| FormProblem::at(field, t("fieldwork-choose-date-time")))
 }
 
 fn chosen<T: serde::de::DeserializeOwned>(field: &str, code: &str) -> Result<T, FormProblem> {
-    from_code(code).ok_or_else(|| FormProblem::at(field, "choose one from the list"))
+    from_code(code).ok_or_else(|| FormProblem::at(field, t("fieldwork-choose-from-list")))
 }
 
 fn optional_choice<T: serde::de::DeserializeOwned>(field: &str, code: &str) -> Result<Option<T>, FormProblem> {
@@ -192,12 +194,26 @@ impl CarcassDraft {
 
 /// One channel's delivery state in words.
 pub fn notification_words(n: &NotificationView) -> String {
+    let channel = channel_words(&n.channel);
     match (&n.delivered_at, &n.last_error) {
-        (Some(at), _) => {
-            format!("{}: delivered {} after {} attempt(s)", n.channel, at.format("%Y-%m-%d %H:%M UTC"), n.attempts)
-        }
-        (None, Some(error)) => format!("{}: not delivered yet, {} attempt(s); last: {error}", n.channel, n.attempts),
-        (None, None) => format!("{}: waiting to be sent", n.channel),
+        (Some(at), _) => t_args(
+            "fieldwork-notification-delivered",
+            &[("channel", channel.into()), ("at", readable::utc_minute(at).into()), ("attempts", n.attempts.into())],
+        ),
+        (None, Some(error)) => t_args(
+            "fieldwork-notification-failing",
+            &[("channel", channel.into()), ("attempts", n.attempts.into()), ("error", error.as_str().into())],
+        ),
+        (None, None) => t_args("fieldwork-notification-waiting", &[("channel", channel.into())]),
+    }
+}
+
+/// A notification channel's name; a channel the app does not know is shown as it is.
+fn channel_words(channel: &str) -> String {
+    match channel {
+        "email" => t("fieldwork-channel-email"),
+        "webhook" => t("fieldwork-channel-webhook"),
+        other => other.to_owned(),
     }
 }
 
@@ -247,7 +263,35 @@ mod tests {
         draft.went_at = "2026-05-01T15:00".into();
         assert_eq!(draft.to_report(&Utc0, now()).unwrap_err().field, "went_at", "three hours ahead: the future");
         draft.went_at = "yesterday".into();
-        assert_eq!(draft.to_report(&Utc0, now()).unwrap_err().field, "went_at");
+        assert_eq!(
+            draft.to_report(&Utc0, now()).unwrap_err(),
+            FormProblem::at("went_at", "choose a date and time"),
+            "the English catalogue's words, beside the field"
+        );
+        draft.went_at = "2026-05-01T11:30".into();
+        draft.outcome = "swam_off".into();
+        assert_eq!(draft.to_report(&Utc0, now()).unwrap_err(), FormProblem::at("outcome", "choose one from the list"));
+    }
+
+    #[test]
+    fn a_notification_says_its_channel_its_state_and_its_attempts() {
+        let delivered = "2026-05-01T11:02:40Z".parse().ok();
+        let mut n =
+            NotificationView { channel: "webhook".into(), attempts: 1, delivered_at: delivered, last_error: None };
+        assert_eq!(notification_words(&n), "webhook: delivered 2026-05-01 11:02 UTC after 1 attempt");
+        n.attempts = 3;
+        assert_eq!(notification_words(&n), "webhook: delivered 2026-05-01 11:02 UTC after 3 attempts");
+        n.delivered_at = None;
+        n.last_error = Some("connection refused".into());
+        assert_eq!(
+            notification_words(&n),
+            "webhook: not delivered yet after 3 attempts; the last failed: connection refused"
+        );
+        n.last_error = None;
+        n.channel = "email".into();
+        assert_eq!(notification_words(&n), "email: waiting to be sent");
+        n.channel = "pager".into();
+        assert_eq!(notification_words(&n), "pager: waiting to be sent", "a channel the app does not know, as it is");
     }
 
     #[test]

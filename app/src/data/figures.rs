@@ -1,45 +1,64 @@
 //! The range and trend figures as text: the server's reports (`/api/range`,
-//! `/api/trend`) turned into the figures table's rows and the trend's lines, each
-//! number with its unit and a sensible precision, and the queries that ask for them.
-//! The figures screen only lays these out.
+//! `/api/trend`) turned into the figures table's rows and the trend's lines in the
+//! person's language, each number with its unit and a sensible precision, and the queries
+//! that ask for them. The figures screen only lays these out. Texts the server words (the
+//! criterion texts, the generation length's source) are shown as it sends them.
 
 use serde_json::Value;
 
 use crate::data::api::query_part;
+use crate::data::words::{self, t, t_args};
 
 fn number(value: &Value) -> Option<f64> {
     value.as_f64()
 }
 
+/// Shown where the report has no figure.
+const NO_FIGURE: &str = "–";
+
+/// `value` with `decimals` digits and its sign always written ("+4.0", "-8.0").
+fn signed(value: f64, decimals: u8) -> String {
+    let digits = words::number(value.abs(), decimals);
+    let is_zero = digits.chars().all(|c| !c.is_ascii_digit() || c == '0');
+    let sign = if value < 0.0 && !is_zero { "-" } else { "+" };
+    format!("{sign}{digits}")
+}
+
 /// An area in km², to a sensible precision.
 fn km2(value: Option<f64>) -> String {
     match value {
-        Some(v) if v.abs() >= 100.0 => format!("{v:.0} km²"),
-        Some(v) => format!("{v:.1} km²"),
-        None => "–".into(),
+        Some(v) => t_args("figures-area", &[("area", words::number(v, if v.abs() >= 100.0 { 0 } else { 1 }).into())]),
+        None => NO_FIGURE.into(),
     }
 }
 
 fn signed_km2(value: Option<f64>, percent: Option<f64>) -> String {
     match (value, percent) {
-        (Some(v), Some(p)) => format!("{v:+.1} km² ({p:+.0}%)"),
-        (Some(v), None) => format!("{v:+.1} km²"),
-        _ => "–".into(),
+        (Some(v), Some(p)) => {
+            t_args("figures-area-change-percent", &[("area", signed(v, 1).into()), ("percent", signed(p, 0).into())])
+        }
+        (Some(v), None) => t_args("figures-area", &[("area", signed(v, 1).into())]),
+        _ => NO_FIGURE.into(),
     }
 }
 
+/// Beyond this many per cent (a short series extrapolated) a change is said in words.
+const PERCENT_SHOWN_UP_TO: f64 = 10_000.0;
+
 /// A fraction as a signed percentage; beyond ±10,000% (a short series extrapolated) in words.
 fn percent(x: Option<f64>) -> String {
-    match x {
-        Some(x) if (100.0 * x).abs() > 10_000.0 => format!("{}10,000%", if x > 0.0 { "over +" } else { "below −" }),
-        Some(x) => format!("{:+.1}%", 100.0 * x),
-        None => "–".into(),
+    let Some(x) = x else { return NO_FIGURE.into() };
+    let limit = words::number(PERCENT_SHOWN_UP_TO, 0);
+    match 100.0 * x {
+        p if p > PERCENT_SHOWN_UP_TO => t_args("figures-percent-over", &[("limit", limit.into())]),
+        p if p < -PERCENT_SHOWN_UP_TO => t_args("figures-percent-below", &[("limit", limit.into())]),
+        p => t_args("figures-percent", &[("percent", signed(p, 1).into())]),
     }
 }
 
 /// One row of the figures table: a label and one cell per period, then the change.
 pub struct Row {
-    pub label: &'static str,
+    pub label: String,
     pub cells: Vec<String>,
     pub change: String,
 }
@@ -56,22 +75,23 @@ pub fn range_rows(taxon: &Value) -> (Vec<String>, Vec<Row>) {
     let figure = |p: &Value, path: &[&str]| path.iter().try_fold(&p["figures"], |v, key| v.get(key)).and_then(number);
     let change_of =
         |field: &str, pct: &str| change.map_or(String::new(), |c| signed_km2(number(&c[field]), number(&c[pct])));
-    let count_change = |field: &str| change.and_then(|c| c[field].as_i64()).map_or(String::new(), |v| format!("{v:+}"));
+    let count = |p: &Value, field: &str| number(&p[field]).map_or(NO_FIGURE.into(), |n| words::number(n, 0));
+    let count_change = |field: &str| change.and_then(|c| number(&c[field])).map_or(String::new(), |v| signed(v, 0));
     let rows = vec![
-        Row { label: "Records", cells: per(&|p| p["records"].to_string()), change: count_change("records") },
-        Row { label: "Distinct sites", cells: per(&|p| p["sites"].to_string()), change: count_change("sites") },
+        Row { label: t("figures-row-records"), cells: per(&|p| count(p, "records")), change: count_change("records") },
+        Row { label: t("figures-row-sites"), cells: per(&|p| count(p, "sites")), change: count_change("sites") },
         Row {
-            label: "EOO",
+            label: t("figures-row-eoo"),
             cells: per(&|p| km2(figure(p, &["eoo_km2"]))),
             change: change_of("eoo_km2", "eoo_percent"),
         },
         Row {
-            label: "AOO",
+            label: t("figures-row-aoo"),
             cells: per(&|p| km2(figure(p, &["aoo", "area_km2"]))),
             change: change_of("aoo_km2", "aoo_percent"),
         },
         Row {
-            label: "Least AOO (shifted grids)",
+            label: t("figures-row-least-aoo"),
             cells: per(&|p| km2(figure(p, &["aoo", "min_area_km2"]))),
             change: String::new(),
         },
@@ -79,82 +99,120 @@ pub fn range_rows(taxon: &Value) -> (Vec<String>, Vec<Row>) {
     (headers, rows)
 }
 
+/// A change with its 95% interval.
+fn change_words(change: &Value) -> String {
+    t_args(
+        "figures-change-interval",
+        &[
+            ("change", percent(number(&change["estimate"])).into()),
+            ("lower", percent(number(&change["lower"])).into()),
+            ("upper", percent(number(&change["upper"])).into()),
+        ],
+    )
+}
+
+/// The error model and where the intervals come from.
+fn model_words(trend: &Value) -> String {
+    match (trend["error_model"].as_str(), trend["interval"]["degrees_of_freedom"].as_u64()) {
+        (Some("QuasiPoisson"), Some(df)) => t_args("figures-model-quasi-poisson-t", &[("df", df.to_string().into())]),
+        (Some("QuasiPoisson"), None) => t("figures-model-quasi-poisson"),
+        (Some("NegativeBinomial"), _) => t("figures-model-negative-binomial"),
+        _ => t("figures-model-poisson"),
+    }
+}
+
+/// The change over the assessment window, or why none is given: the window is too far
+/// beyond the years fitted (the server then gives the change per year only).
+fn window_words(trend: &Value, window: &str) -> String {
+    if trend["window_change"].is_null() {
+        let (first, last) = (trend["first_year"].as_i64(), trend["last_year"].as_i64());
+        let span = first.zip(last).map_or(NO_FIGURE.into(), |(f, l)| words::number((l - f) as f64, 0));
+        return t_args(
+            "figures-window-not-given",
+            &[
+                ("window", window.into()),
+                ("span", span.into()),
+                ("first", year(&trend["first_year"]).into()),
+                ("last", year(&trend["last_year"]).into()),
+            ],
+        );
+    }
+    let change = change_words(&trend["window_change"]);
+    if trend["window_exceeds_data"].as_bool() == Some(true) {
+        t_args("figures-window-change-extrapolated", &[("change", change.into()), ("window", window.into())])
+    } else {
+        t_args("figures-window-change", &[("change", change.into()), ("window", window.into())])
+    }
+}
+
+/// A year as it is written (no thousands separator).
+fn year(value: &Value) -> String {
+    value.as_i64().map_or(NO_FIGURE.into(), |y| y.to_string())
+}
+
+/// A number of years: whole ones without decimals, else to a tenth.
+fn years(value: Option<f64>) -> String {
+    figure_or_dash(value, if value.is_some_and(|v| v.fract() == 0.0) { 0 } else { 1 })
+}
+
+/// `value` to `decimals` digits, or the no-figure mark.
+fn figure_or_dash(value: Option<f64>, decimals: u8) -> String {
+    value.map_or(NO_FIGURE.into(), |v| words::number(v, decimals))
+}
+
 /// The trend's figures as (label, text) pairs.
-pub fn trend_lines(report: &Value) -> Vec<(&'static str, String)> {
-    let t = &report["trend"];
-    let change = |c: &Value| {
-        format!(
-            "{} (95% interval {} to {})",
-            percent(number(&c["estimate"])),
-            percent(number(&c["lower"])),
-            percent(number(&c["upper"]))
-        )
-    };
-    let generation = &report["generation_length"];
-    let window = number(&t["window_years"]).unwrap_or(f64::NAN);
-    let model = match (t["error_model"].as_str(), t["interval"]["degrees_of_freedom"].as_u64()) {
-        (Some("QuasiPoisson"), Some(df)) => format!(
-            "quasi-Poisson: errors scaled by the dispersion, intervals from Student's t with {df} degrees of freedom"
-        ),
-        (Some("QuasiPoisson"), None) => "quasi-Poisson: errors scaled by the dispersion".into(),
-        (Some("NegativeBinomial"), _) => {
-            "negative binomial (its AIC is lower than the Poisson's), intervals from the normal distribution".into()
-        }
-        _ => "Poisson errors, intervals from the normal distribution".into(),
-    };
-    let mk = &t["mann_kendall"];
-    let sen = number(&mk["sen_slope"]).map_or("–".into(), |s| format!("{s:.4}"));
+pub fn trend_lines(report: &Value) -> Vec<(String, String)> {
+    let trend = &report["trend"];
+    let window = figure_or_dash(number(&trend["window_years"]), 0);
+    let mk = &trend["mann_kendall"];
     let counts: Vec<String> = report["yearly_counts"]
         .as_array()
-        .map(|a| a.iter().map(|y| format!("{} {}", y["year"], y["count"])).collect())
+        .map(|a| a.iter().map(|y| format!("{} {}", year(&y["year"]), figure_or_dash(number(&y["count"]), 0))).collect())
         .unwrap_or_default();
+    let generation = &report["generation_length"];
     vec![
-        ("Rate of change per year", change(&t["annual_change"])),
+        (t("figures-rate-label"), change_words(&trend["annual_change"])),
+        (t("figures-window-label"), window_words(trend, &window)),
         (
-            "Change over the assessment window",
-            if t["window_change"].is_null() {
-                // The server gives no change when the years fitted are too few for the window.
-                format!("not given over {window:.0} years: {}", t["extrapolation"].as_str().unwrap_or(""))
-            } else {
-                format!(
-                    "{} over {window:.0} years{}",
-                    change(&t["window_change"]),
-                    if t["window_exceeds_data"].as_bool() == Some(true) {
-                        ", extrapolated beyond the years covered"
-                    } else {
-                        ""
-                    }
-                )
-            },
-        ),
-        (
-            "Years fitted",
-            format!(
-                "{}–{} (the most recent assessment window; earlier years are not fitted)",
-                t["first_year"], t["last_year"]
+            t("figures-years-fitted-label"),
+            t_args(
+                "figures-years-fitted",
+                &[("first", year(&trend["first_year"]).into()), ("last", year(&trend["last_year"]).into())],
             ),
         ),
         (
-            "How the window was chosen",
-            format!(
-                "{window:.0} years = the longer of 10 years and 3 × generation length ({} years; {}), IUCN criterion A",
-                number(&generation["years"]).map_or("?".into(), |y| y.to_string()),
-                generation["source"].as_str().unwrap_or("")
+            t("figures-window-chosen-label"),
+            t_args(
+                "figures-window-chosen",
+                &[
+                    ("window", window.into()),
+                    ("generation", years(number(&generation["years"])).into()),
+                    ("source", generation["source"].as_str().unwrap_or("").into()),
+                ],
             ),
         ),
         (
-            "Dispersion and model",
-            format!("Pearson dispersion {:.2}; {model}", number(&t["fit"]["dispersion"]).unwrap_or(f64::NAN)),
-        ),
-        (
-            "Mann–Kendall (tie-corrected)",
-            format!(
-                "tau = {:.3}, p = {:.4}; Sen's slope {sen} per year",
-                number(&mk["tau"]).unwrap_or(f64::NAN),
-                number(&mk["p_value"]).unwrap_or(f64::NAN)
+            t("figures-model-label"),
+            t_args(
+                "figures-model",
+                &[
+                    ("dispersion", figure_or_dash(number(&trend["fit"]["dispersion"]), 2).into()),
+                    ("model", model_words(trend).into()),
+                ],
             ),
         ),
-        ("Animals recorded per year", if counts.is_empty() { "none".into() } else { counts.join(", ") }),
+        (
+            t("figures-mann-kendall-label"),
+            t_args(
+                "figures-mann-kendall",
+                &[
+                    ("tau", figure_or_dash(number(&mk["tau"]), 3).into()),
+                    ("p", figure_or_dash(number(&mk["p_value"]), 4).into()),
+                    ("slope", figure_or_dash(number(&mk["sen_slope"]), 4).into()),
+                ],
+            ),
+        ),
+        (t("figures-counts-label"), if counts.is_empty() { t("figures-no-counts") } else { counts.join(", ") }),
     ]
 }
 
@@ -202,8 +260,9 @@ mod tests {
         assert_eq!(signed_km2(Some(4.0), None), "+4.0 km²");
         assert_eq!(percent(Some(0.1234)), "+12.3%");
         assert_eq!(percent(Some(-0.5)), "-50.0%");
-        assert_eq!(percent(Some(150.0)), "over +10,000%");
-        assert_eq!(percent(Some(-150.0)), "below −10,000%");
+        assert_eq!(percent(Some(150.0)), "over +10000%", "natively numbers have no separators");
+        assert_eq!(percent(Some(-150.0)), "below −10000%");
+        assert_eq!(percent(Some(-0.0001)), "+0.0%", "no minus on a change that rounds to nothing");
         assert_eq!(percent(None), "–");
     }
 
@@ -219,15 +278,20 @@ mod tests {
         });
         let (headers, rows) = range_rows(&taxon);
         assert_eq!(headers, ["2015-2019", "2020-2024"]);
-        let table: Vec<(&str, Vec<String>, String)> = rows.into_iter().map(|r| (r.label, r.cells, r.change)).collect();
+        let table: Vec<(String, Vec<String>, String)> =
+            rows.into_iter().map(|r| (r.label, r.cells, r.change)).collect();
         assert_eq!(
             table,
             [
-                ("Records", vec!["12".to_owned(), "20".to_owned()], "+8".to_owned()),
-                ("Distinct sites", vec!["9".to_owned(), "14".to_owned()], "+5".to_owned()),
-                ("EOO", vec!["2450 km²".to_owned(), "3121 km²".to_owned()], "+670.7 km² (+27%)".to_owned()),
-                ("AOO", vec!["36.0 km²".to_owned(), "48.0 km²".to_owned()], "+12.0 km² (+33%)".to_owned()),
-                ("Least AOO (shifted grids)", vec!["32.0 km²".to_owned(), "44.0 km²".to_owned()], String::new()),
+                ("Records".to_owned(), vec!["12".to_owned(), "20".to_owned()], "+8".to_owned()),
+                ("Distinct sites".to_owned(), vec!["9".to_owned(), "14".to_owned()], "+5".to_owned()),
+                ("EOO".to_owned(), vec!["2450 km²".to_owned(), "3121 km²".to_owned()], "+670.7 km² (+27%)".to_owned()),
+                ("AOO".to_owned(), vec!["36.0 km²".to_owned(), "48.0 km²".to_owned()], "+12.0 km² (+33%)".to_owned()),
+                (
+                    "Least AOO (shifted grids)".to_owned(),
+                    vec!["32.0 km²".to_owned(), "44.0 km²".to_owned()],
+                    String::new()
+                ),
             ]
         );
     }
@@ -248,7 +312,7 @@ mod tests {
             "generation_length": {"years": 8, "source": "checklist"},
             "yearly_counts": [{"year": 2015, "count": 4}, {"year": 2016, "count": 3}]
         });
-        let lines: std::collections::BTreeMap<&str, String> = trend_lines(&report).into_iter().collect();
+        let lines: std::collections::BTreeMap<String, String> = trend_lines(&report).into_iter().collect();
         assert_eq!(lines["Rate of change per year"], "-8.0% (95% interval -15.0% to -1.0%)");
         assert_eq!(
             lines["Change over the assessment window"],
@@ -296,10 +360,11 @@ mod tests {
             "generation_length": {"years": 8, "source": "checklist"},
             "yearly_counts": []
         });
-        let lines: std::collections::BTreeMap<&str, String> = trend_lines(&report).into_iter().collect();
+        let lines: std::collections::BTreeMap<String, String> = trend_lines(&report).into_iter().collect();
         assert_eq!(
             lines["Change over the assessment window"],
-            "not given over 24 years: the fitted years 2022–2024 cover 2 years, and the 24-year window is more than 3 times that"
+            "not given: the 24-year window reaches too far beyond the 2 years fitted (2022–2024) to carry the trend \
+             over it. The change per year is given; more years of data are needed for the window."
         );
         assert!(lines["Dispersion and model"].contains("negative binomial"), "{}", lines["Dispersion and model"]);
         assert!(lines["Years fitted"].starts_with("2022–2024"), "{}", lines["Years fitted"]);

@@ -4,11 +4,14 @@
 
 #[cfg(feature = "desk")]
 use shared_types::{
-    BodyCondition, CarcassFate, Preservation, QueueFlag, ResponseOutcome, ReviewState, Role, SampleKind, StomachFill,
+    BodyCondition, CarcassFate, Preservation, QueueFlag, ResponseOutcome, ReviewState, Role, SampleKind, Sex,
+    StomachFill,
 };
 use shared_types::{Condition, HumanSign, LengthKind, LifeStage, Setting};
 
 use crate::data::words::t;
+#[cfg(feature = "desk")]
+use crate::data::words::t_args;
 
 pub fn length_kind(kind: LengthKind) -> String {
     match kind {
@@ -163,5 +166,65 @@ pub fn role_code(code: &str) -> String {
         Some(Role::Admin) => t("role-admin"),
         Some(Role::Responder) => t("role-responder"),
         None => code.to_owned(),
+    }
+}
+
+/// The animal's sex as the desk shows it (desk only; the phone's form has its own words).
+#[cfg(feature = "desk")]
+pub fn sex(sex: Sex) -> String {
+    match sex {
+        Sex::Male => t("sex-male"),
+        Sex::Female => t("sex-female"),
+        Sex::Unknown => t("sex-unknown"),
+    }
+}
+
+/// A change to a sign-in, as the people screen lists it (desk only): the server's action
+/// code and its detail (`added` "as reviewer", `role_changed` "reviewer → admin",
+/// `password_reset`, `turned_off`, `turned_on`) in words. An action or a detail the app
+/// cannot read is shown as the server sent it.
+#[cfg(feature = "desk")]
+pub fn person_event(action: &str, detail: Option<&str>) -> String {
+    let known = match (action, detail) {
+        ("added", Some(detail)) => {
+            detail.strip_prefix("as ").map(|role| t_args("people-action-added", &[("role", role_code(role).into())]))
+        }
+        ("role_changed", Some(detail)) => detail.split_once(" → ").map(|(from, to)| {
+            t_args("people-action-role-changed", &[("from", role_code(from).into()), ("to", role_code(to).into())])
+        }),
+        ("password_reset", _) => Some(t("people-action-password-reset")),
+        ("turned_off", None) => Some(t("people-action-turned-off")),
+        ("turned_on", None) => Some(t("people-action-turned-on")),
+        _ => None,
+    };
+    known.unwrap_or_else(|| match detail {
+        Some(detail) => format!("{action} ({detail})"),
+        None => action.to_owned(),
+    })
+}
+
+#[cfg(test)]
+#[cfg(feature = "desk")]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn a_change_to_a_sign_in_reads_as_words_and_an_unknown_one_as_sent() {
+        // The codes and details as the server's store writes them (server/src/store/people.rs).
+        assert_eq!(person_event("added", Some("as reviewer")), "added as reviewer");
+        assert_eq!(person_event("role_changed", Some("reviewer → admin")), "role changed (reviewer → admin)");
+        assert_eq!(person_event("password_reset", Some("sessions ended")), "password reset; their sign-ins ended");
+        assert_eq!(person_event("turned_off", None), "sign-in turned off");
+        assert_eq!(person_event("turned_on", None), "sign-in turned on");
+        assert_eq!(person_event("added", Some("as keeper")), "added as keeper", "an unknown role, as it is");
+        assert_eq!(person_event("renamed", Some("ann → bea")), "renamed (ann → bea)");
+        assert_eq!(person_event("role_changed", Some("odd")), "role_changed (odd)");
+    }
+
+    #[test]
+    fn the_sex_is_said_in_words_even_when_unknown() {
+        assert_eq!(sex(Sex::Male), "male");
+        assert_eq!(sex(Sex::Female), "female");
+        assert_eq!(sex(Sex::Unknown), "not known");
     }
 }

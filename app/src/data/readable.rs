@@ -3,9 +3,13 @@
 //! fraction — short enough for a table cell on a 390 px screen and exact enough to
 //! compare a photo with its record. A photo's time and place are shown with the reading
 //! the server compared for each (the received file's or the phone's), saying which.
+//! The words (readings, offsets, a photo's gap and distance from its record, with the
+//! same unit steps as the server's own words) are in the person's language.
 
 use chrono::{DateTime, FixedOffset, TimeZone, Utc};
 use shared_types::{ExifReading, OffsetSource, PhotoCheck, PhotoExif};
+
+use crate::data::words::{self, t, t_args};
 
 /// "2025-06-01 09:30 +01:00".
 pub fn time(at: &DateTime<FixedOffset>) -> String {
@@ -38,26 +42,46 @@ where
 pub fn readings_words(check: &PhotoCheck) -> String {
     match (check.time_reading, check.place_reading) {
         (Some(time), Some(place)) if time != place => {
-            format!("time from {}, place from {}", reader(Some(time)), reader(Some(place)))
+            t_args("readable-time-and-place-from", &[("time", reader(time).into()), ("place", reader(place).into())])
         }
-        (Some(which), _) | (None, Some(which)) => reader(Some(which)).to_owned(),
-        (None, None) => "no EXIF".to_owned(),
+        (Some(which), _) | (None, Some(which)) => reader(which),
+        (None, None) => t("readable-no-exif"),
     }
 }
 
-fn reader(which: Option<ExifReading>) -> &'static str {
+fn reader(which: ExifReading) -> String {
     match which {
-        Some(ExifReading::Phone) => "the phone's reading of the original",
-        _ => "the file's EXIF",
+        ExifReading::Phone => t("readable-phone-reading"),
+        ExifReading::ReceivedFile => t("readable-file-exif"),
     }
 }
 
 /// Whose UTC offset turned the photo's local time into an instant.
-pub fn offset_words(exif: &PhotoExif) -> &'static str {
+pub fn offset_words(exif: &PhotoExif) -> String {
     match exif.offset_source {
-        Some(OffsetSource::Photo) => "photo's offset",
-        Some(OffsetSource::Device) => "phone's offset then",
-        Some(OffsetSource::Record) | None => "record's offset",
+        Some(OffsetSource::Photo) => t("readable-offset-photo"),
+        Some(OffsetSource::Device) => t("readable-offset-phone"),
+        Some(OffsetSource::Record) | None => t("readable-offset-record"),
+    }
+}
+
+/// Hours a photo was taken before or after its record, as people read a gap: hours with
+/// one decimal, or days from three days up ("30.0 h", "3.2 days").
+pub fn gap(seconds: f64) -> String {
+    let hours = seconds / 3600.0;
+    if hours.abs() >= 72.0 {
+        t_args("readable-gap-days", &[("days", words::number(hours / 24.0, 1).into())])
+    } else {
+        t_args("readable-gap-hours", &[("hours", words::number(hours, 1).into())])
+    }
+}
+
+/// A distance: whole metres, or kilometres to a tenth from a kilometre up ("350 m", "2.4 km").
+pub fn distance(metres: f64) -> String {
+    if metres >= 1000.0 {
+        t_args("readable-distance-km", &[("km", words::number(metres / 1000.0, 1).into())])
+    } else {
+        t_args("readable-distance-m", &[("metres", words::number(metres, 0).into())])
     }
 }
 
@@ -103,5 +127,17 @@ mod tests {
         assert_eq!(offset_words(&with(Some(OffsetSource::Device))), "phone's offset then");
         assert_eq!(offset_words(&with(Some(OffsetSource::Record))), "record's offset");
         assert_eq!(offset_words(&with(None)), "record's offset");
+    }
+
+    #[test]
+    fn gaps_and_distances_have_their_units_and_switch_unit_where_the_server_does() {
+        // The same steps as the server's own words for the queue (shared_types::hours_words,
+        // distance_words), so the desk and the queue's reasons agree.
+        for seconds in [1800.0, 30.0 * 3600.0, 71.9 * 3600.0, 72.0 * 3600.0, 3.25 * 86400.0, -1800.0] {
+            assert_eq!(gap(seconds), shared_types::hours_words(seconds), "{seconds} s");
+        }
+        for metres in [0.4, 349.6, 999.4, 1000.0, 2440.0] {
+            assert_eq!(distance(metres), shared_types::distance_words(metres), "{metres} m");
+        }
     }
 }

@@ -142,8 +142,8 @@ pub fn PeopleScreen() -> impl IntoView {
             <h3>{t("people-changes")}</h3>
             <ol id="people-events">
                 {move || events.get().into_iter().map(|e| view! {
-                    <li>{t_args("people-event", &[("at", readable::minute(&e.at).into()), ("who", e.username.into()), ("action", e.action.replace('_', " ").into()),
-                        ("detail", e.detail.map(|d| format!(" ({d})")).unwrap_or_default().into()), ("by", e.by.unwrap_or_else(|| t("people-command-line")).into())])}</li>
+                    <li>{t_args("people-event", &[("at", readable::minute(&e.at).into()), ("who", e.username.into()), ("action", labels::person_event(&e.action, e.detail.as_deref()).into()),
+                        ("by", e.by.unwrap_or_else(|| t("people-command-line")).into())])}</li>
                 }).collect_view()}
             </ol>
             <a href="#review">{t("people-back")}</a>

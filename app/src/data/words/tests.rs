@@ -614,25 +614,10 @@ fn reads_as_words(text: &str) -> bool {
     words >= 2 || capitalised
 }
 
-/// `data/` modules whose words are still being moved into the catalogues (the list
-/// only shrinks: a listed file with nothing left to move fails the test).
-const DATA_FILES_NOT_YET_MOVED: [&str; 3] = ["fieldwork.rs", "figures.rs", "readable.rs"];
-
 #[test]
 fn no_data_module_builds_words_of_its_own() {
-    let found = words_left_in_data(&source_files());
-    let data = app_dir().join("src/data");
-    let waiting =
-        |line: &String| DATA_FILES_NOT_YET_MOVED.iter().any(|f| line.starts_with(&data.join(f).display().to_string()));
-    let left: Vec<&String> = found.iter().filter(|line| !waiting(line)).collect();
+    let left = words_left_in_data(&source_files());
     assert!(left.is_empty(), "words built in data/ that are not in the catalogues ({}): {left:#?}", left.len());
-    for file in DATA_FILES_NOT_YET_MOVED {
-        let prefix = format!("{}:", data.join(file).display());
-        assert!(
-            found.iter().any(|line| line.starts_with(&prefix)),
-            "{file} has no words left to move: take it off the list"
-        );
-    }
 }
 
 #[test]

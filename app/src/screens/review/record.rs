@@ -9,9 +9,7 @@
 //! right under the buttons.
 
 use leptos::prelude::*;
-use shared_types::{
-    KeyReplay, MeasureMethod, PhotoExif, PhotoFlag, PhotoView, QueueFlag, ReviewDetail, distance_words, hours_words,
-};
+use shared_types::{KeyReplay, MeasureMethod, PhotoExif, PhotoFlag, PhotoView, QueueFlag, ReviewDetail};
 
 use crate::data::words::{self, t, t_args};
 use crate::data::{api, checklist, key, labels, photos, readable};
@@ -45,7 +43,7 @@ fn exif_row(class: &str, label: String, exif: &PhotoExif) -> impl IntoView + use
         .taken_at
         .map(|t| readable::time(&t))
         .or_else(|| exif.taken_local.clone().map(|local| t_args("record-no-offset", &[("time", local.into())])));
-    let offset = exif.offset_source.is_some().then(|| readable::offset_words(exif).to_owned());
+    let offset = exif.offset_source.is_some().then(|| readable::offset_words(exif));
     let error = exif.horizontal_error_m.map(|e| t_args("record-within", &[("metres", words::number(e, 0).into())]));
     let extra = [offset, error].into_iter().flatten().collect::<Vec<_>>().join(" · ");
     time_and_place(class, label, when, exif.latitude, exif.longitude, Some(extra))
@@ -92,12 +90,12 @@ fn photo_checks(photos: &[PhotoView]) -> impl IntoView + use<> {
             let reading = readable::readings_words(check);
             let gap = check.seconds_before_record.map(|s| {
                 if s >= 0.0 {
-                    t_args("record-taken-before", &[("gap", hours_words(s).into())])
+                    t_args("record-taken-before", &[("gap", readable::gap(s).into())])
                 } else {
-                    t_args("record-taken-after", &[("gap", hours_words(-s).into())])
+                    t_args("record-taken-after", &[("gap", readable::gap(-s).into())])
                 }
             });
-            let far = check.metres_from_record.map(|m| t_args("record-from-place", &[("distance", distance_words(m).into())]));
+            let far = check.metres_from_record.map(|m| t_args("record-from-place", &[("distance", readable::distance(m).into())]));
             let facts = [gap, far].into_iter().flatten().collect::<Vec<_>>().join(", ");
             let flags = check.flags.iter().map(|flag| match flag {
                 PhotoFlag::TakenLongBeforeRecord => labels::queue_flag(QueueFlag::TakenLongBeforeRecord),
@@ -258,7 +256,7 @@ pub fn RecordReview(client_id: String, back: impl Fn() + Copy + 'static) -> impl
                     </table>
                     <ul class="photo-checks">{photo_checks(&d.record.photos)}</ul>
                     <ul class="fields">
-                        <li>{t_args("record-fields", &[("count", sub.count.get().to_string().into()), ("condition", labels::condition(sub.condition).into()), ("setting", labels::setting(sub.setting).into()), ("sex", sub.sex.dwc().into())])}</li>
+                        <li>{t_args("record-fields", &[("count", sub.count.get().to_string().into()), ("condition", labels::condition(sub.condition).into()), ("setting", labels::setting(sub.setting).into()), ("sex", labels::sex(sub.sex).into())])}</li>
                         {sub.length.map(|l| view! { <li>{t_args("record-length", &[("cm", words::number(l.value.centimetres(), 1).into()), ("kind", labels::length_kind(l.kind).into()), ("method", match l.method { MeasureMethod::Measured => t("form-measured"), MeasureMethod::Estimated => t("form-estimated") }.into())])}</li> })}
                         {(!sub.human_signs.is_empty()).then(|| view! { <li>{t_args("record-signs", &[("signs", sub.human_signs.iter().map(|s| labels::human_sign(*s)).collect::<Vec<_>>().join(", ").into())])}</li> })}
                         {sub.notes.as_ref().map(|n| view! { <li>{t_args("carcass-shown-notes", &[("value", n.as_str().into())])}</li> })}
