@@ -392,3 +392,9 @@ people-action-role-changed = newidiwyd y rôl ({ $from } → { $to })
 people-action-password-reset = ailosodwyd y cyfrinair; daeth eu sesiynau i ben
 people-action-turned-off = diffoddwyd y mewngofnodi
 people-action-turned-on = trowyd y mewngofnodi ymlaen
+
+## What an identification rests on (data/labels.rs)
+
+basis-observer-guess = dyfaliad y sylwedydd
+basis-observer-key = y sylwedydd, gyda'r allwedd dywys
+basis-reviewer = adolygydd

@@ -394,3 +394,9 @@ people-action-role-changed = role changed ({ $from } → { $to })
 people-action-password-reset = password reset; their sign-ins ended
 people-action-turned-off = sign-in turned off
 people-action-turned-on = sign-in turned on
+
+## What an identification rests on (data/labels.rs)
+
+basis-observer-guess = the observer's guess
+basis-observer-key = the observer, with the guided key
+basis-reviewer = a reviewer

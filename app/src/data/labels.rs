@@ -169,6 +169,18 @@ pub fn role_code(code: &str) -> String {
     }
 }
 
+/// Who or what an identification rests on, as the server records it (`basis`); a code
+/// the app does not know is shown as it is (desk only).
+#[cfg(feature = "desk")]
+pub fn identification_basis(code: &str) -> String {
+    match code {
+        "observer guess" => t("basis-observer-guess"),
+        "observer with the guided key" => t("basis-observer-key"),
+        "reviewer" => t("basis-reviewer"),
+        other => other.to_owned(),
+    }
+}
+
 /// The animal's sex as the desk shows it (desk only; the phone's form has its own words).
 #[cfg(feature = "desk")]
 pub fn sex(sex: Sex) -> String {
@@ -219,6 +231,25 @@ mod tests {
         assert_eq!(person_event("added", Some("as keeper")), "added as keeper", "an unknown role, as it is");
         assert_eq!(person_event("renamed", Some("ann → bea")), "renamed (ann → bea)");
         assert_eq!(person_event("role_changed", Some("odd")), "role_changed (odd)");
+    }
+
+    #[test]
+    fn each_basis_the_server_writes_reads_as_words_and_an_unknown_one_as_sent() {
+        // The codes as the server's store writes them into `identifications.basis`.
+        let server = [
+            include_str!("../../../server/src/store/observations.rs"),
+            include_str!("../../../server/src/store/review.rs"),
+        ]
+        .concat();
+        for (code, words) in [
+            ("observer guess", "the observer's guess"),
+            ("observer with the guided key", "the observer, with the guided key"),
+            ("reviewer", "a reviewer"),
+        ] {
+            assert!(server.contains(&format!("'{code}')")), "the server writes the basis {code:?}");
+            assert_eq!(identification_basis(code), words);
+        }
+        assert_eq!(identification_basis("imported"), "imported");
     }
 
     #[test]

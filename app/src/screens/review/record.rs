@@ -115,7 +115,7 @@ fn key_section(choice: Option<shared_types::KeyChoice>, replay: Option<KeyReplay
         "record-key-picked",
         &[
             ("name", choice.scientific_name.as_str().into()),
-            ("rank", choice.taxon_rank.to_string().into()),
+            ("rank", key::rank_name_of_code(&choice.taxon_rank.to_string()).into()),
             ("percent", words::number(choice.probability * 100.0, 0).into()),
         ],
     );
@@ -270,8 +270,8 @@ pub fn RecordReview(client_id: String, back: impl Fn() + Copy + 'static) -> impl
                     <p id="pair-problem" class="problems" role="alert">{move || pair_problem.get()}</p>
                     <h4>{t("record-identifications")}</h4>
                     <ol class="identifications">{d.identifications.iter().map(|i| view! {
-                        <li class:current=i.current class:superseded=!i.current>{t_args("record-identification", &[("name", i.taxon_name.clone().into()), ("rank", i.taxon_rank.clone().unwrap_or_else(|| t("record-no-rank")).into()),
-                            ("who", i.identified_by.clone().unwrap_or_else(|| t("record-no-name")).into()), ("day", readable::day(&i.identified_at).into()), ("basis", i.basis.to_string().into()), ("remarks", i.remarks.as_ref().map(|r| format!(": {r}")).unwrap_or_default().into())])}</li>
+                        <li class:current=i.current class:superseded=!i.current>{t_args("record-identification", &[("name", i.taxon_name.clone().into()), ("rank", i.taxon_rank.as_deref().map_or_else(|| t("record-no-rank"), key::rank_name_of_code).into()),
+                            ("who", i.identified_by.clone().unwrap_or_else(|| t("record-no-name")).into()), ("day", readable::day(&i.identified_at).into()), ("basis", labels::identification_basis(&i.basis).into()), ("remarks", i.remarks.as_ref().map(|r| format!(": {r}")).unwrap_or_default().into())])}</li>
                     }).collect_view()}</ol>
                     <h4>{t("record-messages")}</h4>
                     <ul class="messages">{d.messages.iter().map(|m| view! { <li>{format!("{}: {}", m.author.clone().unwrap_or_else(|| m.author_role.code().into()), m.body)}</li> }).collect_view()}</ul>
@@ -286,7 +286,7 @@ pub fn RecordReview(client_id: String, back: impl Fn() + Copy + 'static) -> impl
             <div class="row">
                 <label>{t("record-scientific-name")}" "<input id="confirm-name" prop:value=move || species.get() on:input=move |ev| species.set(event_target_value(&ev)) /></label>
                 <label>{t("record-rank")}" "<select id="confirm-rank" on:change=move |ev| rank.set(event_target_value(&ev))>
-                    {shared_types::KEY_RANKS.iter().map(|r| view! { <option value=*r>{*r}</option> }).collect_view()}
+                    {shared_types::KEY_RANKS.iter().map(|r| view! { <option value=*r>{key::rank_name_of_code(r)}</option> }).collect_view()}
                 </select></label>
             </div>
             <label>{t("record-remark")}" "<input id="confirm-remark" prop:value=move || remark.get() on:input=move |ev| remark.set(event_target_value(&ev)) /></label>
