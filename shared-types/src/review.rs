@@ -224,7 +224,78 @@ pub struct PersonEvent {
 pub struct QueueItem {
     pub record: RecordView,
     pub current_taxon: Option<String>,
-    pub priority_reasons: Vec<String>,
+    pub priority_reasons: Vec<PriorityReason>,
+}
+
+/// One reason a record stands where it does in the queue: what it says, as data, for the
+/// desk to put in its reviewer's language, and the server's English words for it.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct PriorityReason {
+    pub said: PrioritySaid,
+    pub text: String,
+}
+
+/// What a priority reason says.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(tag = "kind", rename_all = "snake_case")]
+pub enum PrioritySaid {
+    /// A live animal, and no responder has logged what was done.
+    LiveAnimalNoResponse,
+    /// The record's taxon is protected (`holds_species`: a higher taxon holding one that is).
+    Protected { taxon: String, holds_species: bool },
+    /// The record's taxon is sensitive: its public locations are generalised.
+    Sensitive { taxon: String, holds_species: bool },
+    /// A flag raised on arrival; its reason is the server's words alone (`text`).
+    Arrival { flag: crate::record::FlagKind },
+    /// Possibly the same animal as another report.
+    PossibleDuplicate,
+    /// Photo `photo` (from 1) was taken `seconds` before the record, over `limit_hours`.
+    PhotoOlder { photo: usize, seconds: Option<f64>, limit_hours: i64 },
+    /// Photo `photo` was taken `metres` from the record's place, over `limit_km` beyond
+    /// both uncertainties.
+    PhotoFar { photo: usize, metres: Option<f64>, limit_km: f64 },
+    /// Photo `photo`'s file ends before its picture does.
+    PhotoCutShort { photo: usize },
+}
+
+impl PriorityReason {
+    /// A reason whose English the server makes from what it says.
+    pub fn from_said(said: PrioritySaid) -> Self {
+        let text = said.english();
+        Self { said, text }
+    }
+
+    /// A flag raised on arrival, with the reason it was raised with.
+    pub fn arrival(flag: crate::record::FlagKind, reason: String) -> Self {
+        Self { said: PrioritySaid::Arrival { flag }, text: reason }
+    }
+}
+
+impl PrioritySaid {
+    /// The server's English (an arrival flag's reason is kept as it was raised).
+    fn english(&self) -> String {
+        let may_be = |holds: &bool| if *holds { " (or holds species that are)" } else { "" };
+        match self {
+            Self::LiveAnimalNoResponse => "a live animal: no response logged yet".into(),
+            Self::Protected { taxon, holds_species } => format!("{taxon} is protected{}", may_be(holds_species)),
+            Self::Sensitive { taxon, holds_species } => {
+                format!("{taxon} is sensitive{}: its public locations are generalised", may_be(holds_species))
+            }
+            Self::Arrival { flag } => format!("{flag:?}"),
+            Self::PossibleDuplicate => "possibly the same animal as another report: compare them".into(),
+            Self::PhotoOlder { photo, seconds, limit_hours } => format!(
+                "photo older than the record: photo {photo} was taken {} before it (more than {limit_hours} h): an older photo reused?",
+                seconds.map_or("long".into(), hours_words)
+            ),
+            Self::PhotoFar { photo, metres, limit_km } => format!(
+                "photo far from the record: photo {photo} was taken {} from its place (more than {limit_km:.0} km beyond both uncertainties)",
+                metres.map_or("far".into(), distance_words)
+            ),
+            Self::PhotoCutShort { photo } => {
+                format!("photo {photo}'s file is cut short: part of the picture is missing")
+            }
+        }
+    }
 }
 
 /// Everything a reviewer needs to decide.
@@ -234,7 +305,7 @@ pub struct ReviewDetail {
     pub identifications: Vec<Identification>,
     pub messages: Vec<Message>,
     pub events: Vec<ReviewEvent>,
-    pub priority_reasons: Vec<String>,
+    pub priority_reasons: Vec<PriorityReason>,
     /// Other reports that may be the same animal, best first.
     #[serde(default)]
     pub duplicates: Vec<DuplicateView>,

@@ -179,7 +179,7 @@ test('a reviewer sees two reports of one carcass side by side, merges them, and 
     assert.doesNotMatch(await page.textContent('.duplicate'), /Decided/);
     assert.equal(await page.$$eval('.duplicate .different-animals', (b) => b.length), 1);
     const queue = await server.get('/api/review/queue');
-    assert.equal(queue.filter((item) => item.priority_reasons.some((r) => /possibly the same animal/.test(r))).length, 2, 'both back in the queue as possible duplicates');
+    assert.equal(queue.filter((item) => item.priority_reasons.some((r) => /possibly the same animal/.test(r.text))).length, 2, 'both back in the queue as possible duplicates');
   } finally {
     await desk.close();
     server.stop();

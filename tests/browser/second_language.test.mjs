@@ -12,7 +12,7 @@ import { execFileSync } from 'node:child_process';
 import { copyFileSync, mkdtempSync, readFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
-import { startServer, launchBrowser, REVIEWER, eventually, demoPhoto, screenshotPath } from './harness.mjs';
+import { startServer, launchBrowser, REVIEWER, eventually, demoPhoto, screenshotPath, sendRecord as sendAsPhone, plainRecord } from './harness.mjs';
 
 const checklist = JSON.parse(readFileSync(process.env.WRACKLINE_CHECKLIST, 'utf8'));
 const welshKey = checklist.translations.cy.characters;
@@ -164,7 +164,7 @@ test('the switch on the page changes the language and the phone keeps the choice
   }
 });
 
-test("the desk's page, sign-in and safety screen speak Welsh", async () => {
+test("the desk's page, sign-in, queue and safety screen speak Welsh", async () => {
   const context = await browser.newContext({ viewport: { width: 1280, height: 900 }, locale: 'cy-GB' });
   try {
     const page = await context.newPage();
@@ -178,6 +178,14 @@ test("the desk's page, sign-in and safety screen speak Welsh", async () => {
     await page.fill('#password', REVIEWER.password);
     await page.click('#sign-in button[type=submit]');
     await page.waitForSelector('#sign-in', { state: 'detached', timeout: 15000 });
+    // Why a record is first in the queue, worded by the desk from what the server says.
+    await sendAsPhone(server, { ...plainRecord('5a1e0c3d-9b7f-4e21-8c6d-0f2e4a6b8c10', 'angelshark'), condition: 'alive' });
+    await page.goto(`${server.url}/desk/#review`);
+    await page.waitForSelector('.queue-item', { timeout: 15000 });
+    const queue = await text(page, '#queue');
+    assert.match(queue, /anifail byw: dim ymateb wedi'i gofnodi eto/);
+    assert.match(queue, /Squatina squatina wedi'i warchod/);
+    assert.doesNotMatch(queue, /no response logged|is protected|is sensitive/);
     await page.goto(`${server.url}/desk/#safety`);
     await page.waitForSelector('#safety', { timeout: 15000 });
     const safety = await text(page, '#safety');

@@ -398,3 +398,16 @@ people-action-turned-on = trowyd y mewngofnodi ymlaen
 basis-observer-guess = dyfaliad y sylwedydd
 basis-observer-key = y sylwedydd, gyda'r allwedd dywys
 basis-reviewer = adolygydd
+
+## Why a record stands where it is in the queue (data/labels.rs)
+
+priority-live-animal = anifail byw: dim ymateb wedi'i gofnodi eto
+priority-holds-species = {" "}(neu'n cynnwys rhywogaethau sydd)
+priority-protected = mae { $taxon } wedi'i warchod{ $holds }
+priority-sensitive = mae { $taxon } yn sensitif{ $holds }: caiff ei leoliadau cyhoeddus eu cyffredinoli
+priority-possible-duplicate = efallai mai'r un anifail ag adroddiad arall yw hwn: cymharwch nhw
+priority-long = amser hir
+priority-far = ymhell
+priority-photo-older = llun yn hŷn na'r cofnod: tynnwyd llun { $photo } { $gap } cyn y cofnod (mwy na { $limit } awr): hen lun wedi'i ailddefnyddio?
+priority-photo-far = llun ymhell o'r cofnod: tynnwyd llun { $photo } { $distance } o'i le (mwy na { $limit } km y tu hwnt i'r ddau ansicrwydd)
+priority-photo-cut-short = mae ffeil llun { $photo } wedi'i thorri'n fyr: mae rhan o'r llun ar goll

@@ -400,3 +400,16 @@ people-action-turned-on = sign-in turned on
 basis-observer-guess = the observer's guess
 basis-observer-key = the observer, with the guided key
 basis-reviewer = a reviewer
+
+## Why a record stands where it is in the queue (data/labels.rs)
+
+priority-live-animal = a live animal: no response logged yet
+priority-holds-species = {" "}(or holds species that are)
+priority-protected = { $taxon } is protected{ $holds }
+priority-sensitive = { $taxon } is sensitive{ $holds }: its public locations are generalised
+priority-possible-duplicate = possibly the same animal as another report: compare them
+priority-long = long
+priority-far = far
+priority-photo-older = photo older than the record: photo { $photo } was taken { $gap } before it (more than { $limit } h): an older photo reused?
+priority-photo-far = photo far from the record: photo { $photo } was taken { $distance } from its place (more than { $limit } km beyond both uncertainties)
+priority-photo-cut-short = photo { $photo }'s file is cut short: part of the picture is missing

@@ -4,14 +4,16 @@
 
 #[cfg(feature = "desk")]
 use shared_types::{
-    BodyCondition, CarcassFate, Preservation, QueueFlag, ResponseOutcome, ReviewState, Role, SampleKind, Sex,
-    StomachFill,
+    BodyCondition, CarcassFate, Preservation, PriorityReason, PrioritySaid, QueueFlag, ResponseOutcome, ReviewState,
+    Role, SampleKind, Sex, StomachFill,
 };
 use shared_types::{Condition, HumanSign, LengthKind, LifeStage, Setting};
 
+#[cfg(feature = "desk")]
+use crate::data::readable;
 use crate::data::words::t;
 #[cfg(feature = "desk")]
-use crate::data::words::t_args;
+use crate::data::words::{self, t_args};
 
 pub fn length_kind(kind: LengthKind) -> String {
     match kind {
@@ -169,6 +171,43 @@ pub fn role_code(code: &str) -> String {
     }
 }
 
+/// Why a record stands where it does in the queue, in the person's language; a flag
+/// raised on arrival keeps the server's words for its reason (desk only).
+#[cfg(feature = "desk")]
+pub fn priority_reason(reason: &PriorityReason) -> String {
+    let species_word = |holds: &bool| if *holds { t("priority-holds-species") } else { String::new() };
+    match &reason.said {
+        PrioritySaid::LiveAnimalNoResponse => t("priority-live-animal"),
+        PrioritySaid::Protected { taxon, holds_species } => t_args(
+            "priority-protected",
+            &[("taxon", taxon.as_str().into()), ("holds", species_word(holds_species).into())],
+        ),
+        PrioritySaid::Sensitive { taxon, holds_species } => t_args(
+            "priority-sensitive",
+            &[("taxon", taxon.as_str().into()), ("holds", species_word(holds_species).into())],
+        ),
+        PrioritySaid::Arrival { .. } => reason.text.clone(),
+        PrioritySaid::PossibleDuplicate => t("priority-possible-duplicate"),
+        PrioritySaid::PhotoOlder { photo, seconds, limit_hours } => t_args(
+            "priority-photo-older",
+            &[
+                ("photo", (*photo).into()),
+                ("gap", seconds.map_or_else(|| t("priority-long"), readable::gap).into()),
+                ("limit", (*limit_hours).into()),
+            ],
+        ),
+        PrioritySaid::PhotoFar { photo, metres, limit_km } => t_args(
+            "priority-photo-far",
+            &[
+                ("photo", (*photo).into()),
+                ("distance", metres.map_or_else(|| t("priority-far"), readable::distance).into()),
+                ("limit", words::number(*limit_km, 0).into()),
+            ],
+        ),
+        PrioritySaid::PhotoCutShort { photo } => t_args("priority-photo-cut-short", &[("photo", (*photo).into())]),
+    }
+}
+
 /// Who or what an identification rests on, as the server records it (`basis`); a code
 /// the app does not know is shown as it is (desk only).
 #[cfg(feature = "desk")]
@@ -250,6 +289,33 @@ mod tests {
             assert_eq!(identification_basis(code), words);
         }
         assert_eq!(identification_basis("imported"), "imported");
+    }
+
+    /// The desk's English for each priority reason is the server's English for it
+    /// (`PriorityReason::from_said`), so no reason changes its words on the way.
+    #[test]
+    fn each_priority_reason_reads_in_the_catalogue_as_the_server_says_it() {
+        let said = [
+            PrioritySaid::LiveAnimalNoResponse,
+            PrioritySaid::Protected { taxon: "Squatina squatina".into(), holds_species: false },
+            PrioritySaid::Protected { taxon: "Squatinidae".into(), holds_species: true },
+            PrioritySaid::Sensitive { taxon: "Squatina squatina".into(), holds_species: false },
+            PrioritySaid::Sensitive { taxon: "Rajidae".into(), holds_species: true },
+            PrioritySaid::PossibleDuplicate,
+            PrioritySaid::PhotoOlder { photo: 1, seconds: Some(30.0 * 3600.0), limit_hours: 24 },
+            PrioritySaid::PhotoOlder { photo: 2, seconds: Some(4.0 * 86400.0), limit_hours: 24 },
+            PrioritySaid::PhotoOlder { photo: 2, seconds: None, limit_hours: 24 },
+            PrioritySaid::PhotoFar { photo: 1, metres: Some(2440.0), limit_km: 1.0 },
+            PrioritySaid::PhotoFar { photo: 3, metres: Some(900.0), limit_km: 1.0 },
+            PrioritySaid::PhotoFar { photo: 1, metres: None, limit_km: 1.0 },
+            PrioritySaid::PhotoCutShort { photo: 2 },
+        ];
+        for said in said {
+            let reason = PriorityReason::from_said(said);
+            assert_eq!(priority_reason(&reason), reason.text, "{:?}", reason.said);
+        }
+        let raised = PriorityReason::arrival(shared_types::FlagKind::Oversize, "the server's own words".into());
+        assert_eq!(priority_reason(&raised), "the server's own words");
     }
 
     #[test]

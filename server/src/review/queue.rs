@@ -2,7 +2,7 @@
 //! then sensitive species, then each kind of flag, then age) and which records a taxon
 //! filter takes in (downward only).
 
-use shared_types::{PhotoFlag, QueueFlag, QueueItem, RecordView, distance_words, hours_words};
+use shared_types::{PhotoFlag, PriorityReason, PrioritySaid, QueueFlag, QueueItem, RecordView};
 use species_key::{Checklist, Sensitivity};
 
 use crate::intake::photo_checks::{FAR_LIMIT_M, TAKEN_BEFORE_LIMIT_HOURS};
@@ -36,25 +36,25 @@ pub fn queue_flags(record: &RecordView, possible_duplicate: bool) -> Vec<QueueFl
 }
 
 /// Each photo flag in words, with the numbers behind it.
-fn photo_reasons(record: &RecordView) -> Vec<String> {
+fn photo_reasons(record: &RecordView) -> Vec<PriorityReason> {
     let mut reasons = Vec::new();
     for (index, photo) in record.photos.iter().enumerate() {
-        let number = index + 1;
+        let photo_number = index + 1;
         for flag in &photo.check.flags {
-            reasons.push(match flag {
-                PhotoFlag::TakenLongBeforeRecord => format!(
-                    "photo older than the record: photo {number} was taken {} before it (more than {TAKEN_BEFORE_LIMIT_HOURS} h): an older photo reused?",
-                    photo.check.seconds_before_record.map_or("long".into(), hours_words)
-                ),
-                PhotoFlag::TakenFarFromRecord => format!(
-                    "photo far from the record: photo {number} was taken {} from its place (more than {:.0} km beyond both uncertainties)",
-                    photo.check.metres_from_record.map_or("far".into(), distance_words),
-                    FAR_LIMIT_M / 1000.0
-                ),
-                PhotoFlag::CutShort => {
-                    format!("photo {number}'s file is cut short: part of the picture is missing")
-                }
-            });
+            let said = match flag {
+                PhotoFlag::TakenLongBeforeRecord => PrioritySaid::PhotoOlder {
+                    photo: photo_number,
+                    seconds: photo.check.seconds_before_record,
+                    limit_hours: TAKEN_BEFORE_LIMIT_HOURS,
+                },
+                PhotoFlag::TakenFarFromRecord => PrioritySaid::PhotoFar {
+                    photo: photo_number,
+                    metres: photo.check.metres_from_record,
+                    limit_km: FAR_LIMIT_M / 1000.0,
+                },
+                PhotoFlag::CutShort => PrioritySaid::PhotoCutShort { photo: photo_number },
+            };
+            reasons.push(PriorityReason::from_said(said));
         }
     }
     reasons
@@ -77,37 +77,37 @@ pub fn priority(
     taxa: &TaxonIndex,
     possible_duplicate: bool,
     awaiting_response: bool,
-) -> (u32, Vec<String>) {
+) -> (u32, Vec<PriorityReason>) {
     let mut score = 0;
     let mut reasons = Vec::new();
     if awaiting_response {
         score += URGENT_WEIGHT;
-        reasons.push("a live animal: no response logged yet".into());
+        reasons.push(PriorityReason::from_said(PrioritySaid::LiveAnimalNoResponse));
     }
     // At any rank: a genus or family counts as protected or sensitive if any of its species is.
     if let Some(taxon) = current_taxon.and_then(|name| taxa.named(name)) {
-        let may_be = if taxon.rank == species_key::TaxonRank::Species { "" } else { " (or holds species that are)" };
+        let holds_species = taxon.rank != species_key::TaxonRank::Species;
+        let name = || taxon.scientific_name.clone();
         if taxon.protected {
             score += PROTECTED_WEIGHT;
-            reasons.push(format!("{} is protected{may_be}", taxon.scientific_name));
+            reasons.push(PriorityReason::from_said(PrioritySaid::Protected { taxon: name(), holds_species }));
         }
         if taxon.sensitivity != Sensitivity::None {
             score += SENSITIVE_WEIGHT;
-            reasons
-                .push(format!("{} is sensitive{may_be}: its public locations are generalised", taxon.scientific_name));
+            reasons.push(PriorityReason::from_said(PrioritySaid::Sensitive { taxon: name(), holds_species }));
         }
     }
     score += FLAG_WEIGHT * queue_flags(record, possible_duplicate).len() as u32;
-    reasons.extend(record.flags.iter().map(|flag| flag.reason.clone()));
+    reasons.extend(record.flags.iter().map(|flag| PriorityReason::arrival(flag.kind, flag.reason.clone())));
     if possible_duplicate {
-        reasons.push("possibly the same animal as another report: compare them".into());
+        reasons.push(PriorityReason::from_said(PrioritySaid::PossibleDuplicate));
     }
     reasons.extend(photo_reasons(record));
     (score, reasons)
 }
 
 /// Orders queue items: by score, then oldest observation first.
-pub fn order(items: &mut [(u32, RecordView, Vec<String>, Option<String>)]) {
+pub fn order(items: &mut [(u32, RecordView, Vec<PriorityReason>, Option<String>)]) {
     items.sort_by(|a, b| b.0.cmp(&a.0).then(a.1.submission.observed_at.cmp(&b.1.submission.observed_at)));
 }
 

@@ -46,7 +46,7 @@ async fn the_queue_puts_sensitive_and_flagged_records_first_then_the_oldest() {
     assert_eq!(order, [ANGELSHARK, BIG_CATSHARK, OLD_CATSHARK]);
     let reasons = queue[0]["priority_reasons"].to_string();
     assert!(reasons.contains("protected") && reasons.contains("sensitive"), "{reasons}");
-    assert!(queue[1]["priority_reasons"][0].as_str().unwrap().contains("known maximum"), "{}", queue[1]);
+    assert!(queue[1]["priority_reasons"][0]["text"].as_str().unwrap().contains("known maximum"), "{}", queue[1]);
     assert_eq!(queue[2]["priority_reasons"], json!([]));
 
     let app = &app;

@@ -111,7 +111,7 @@ pub fn Queue(role: Role, signed_out: impl Fn() + Copy + 'static) -> impl IntoVie
                         view! {
                             <li class="queue-item" data-client-id=id>
                                 <button type="button" class="link" on:click=move |_| open.set(Some(open_id.clone()))>{format!("{what} · {when} · {}", labels::review_state(item.record.review_state))}</button>
-                                <ul class="reasons">{item.priority_reasons.iter().map(|r| view! { <li>{r.clone()}</li> }).collect_view()}</ul>
+                                <ul class="reasons">{item.priority_reasons.iter().map(|r| view! { <li>{labels::priority_reason(r)}</li> }).collect_view()}</ul>
                             </li>
                         }
                     }).collect_view()}

@@ -264,7 +264,7 @@ pub fn RecordReview(client_id: String, back: impl Fn() + Copy + 'static) -> impl
                     </ul>
                     {key_section(sub.key_choice.clone(), d.key.clone())}
                     <h4>{t("record-flags-heading")}</h4>
-                    <ul class="flags">{d.priority_reasons.iter().map(|r| view! { <li>{r.clone()}</li> }).collect_view()}</ul>
+                    <ul class="flags">{d.priority_reasons.iter().map(|r| view! { <li>{labels::priority_reason(r)}</li> }).collect_view()}</ul>
                     <RecordFieldwork detail=d.clone() reload=load />
                     <DuplicatesOf detail=d.clone() reloads=reloads problem=pair_problem />
                     <p id="pair-problem" class="problems" role="alert">{move || pair_problem.get()}</p>
