@@ -1,6 +1,6 @@
 # Geiriau wrackline yn Gymraeg (Welsh).
-# FIRST DRAFT, not yet checked: written by the developers, to be read and corrected by a
-# fluent Welsh speaker who knows the shore and stranding work before use.
+# FIRST DRAFT, not yet checked: written by the developers, to be read and corrected in
+# Welsh, by someone who knows the shore and stranding work, before use.
 # The safety cautions and the live-animal instructions most of all.
 # Every id of ../en/app.ftl is here with the same placeholders (the catalogue test checks it).
 

@@ -1,6 +1,6 @@
 # Geiriau'r ddesg yn Gymraeg (Welsh), in the desk's bundle only.
-# FIRST DRAFT, not yet checked: written by the developers, to be read and corrected by a
-# fluent Welsh speaker before use. Same rules as app.ftl.
+# FIRST DRAFT, not yet checked: written by the developers, to be read and corrected in
+# Welsh before use. Same rules as app.ftl.
 
 ## The desk's page and sign-in (desk)
 

@@ -1,6 +1,6 @@
 # Geiriau'r ffôn yn Gymraeg (Welsh), in the phone's bundle only.
-# FIRST DRAFT, not yet checked: written by the developers, to be read and corrected by a
-# fluent Welsh speaker before use. Same rules as app.ftl.
+# FIRST DRAFT, not yet checked: written by the developers, to be read and corrected in
+# Welsh before use. Same rules as app.ftl.
 
 ## The phone's page
 
