@@ -153,28 +153,11 @@ fn stomach_word(stomach: StomachFill) -> &'static str {
     }
 }
 
-/// The register's columns: Darwin Core term names where one fits, plain names of our own
-/// for the rest.
-pub const REGISTER_COLUMNS: &[&str] = &[
-    "materialSampleID",
-    "sampleKind",
-    "preservation",
-    "storedAt",
-    "heldBy",
-    "sampleRemarks",
-    "sampleAddedAt",
-    "occurrenceID",
-    "organismID",
-    "scientificName",
-    "taxonRank",
-    "eventDate",
-    "decimalLatitude",
-    "decimalLongitude",
-    "coordinateUncertaintyInMeters",
-    "dataGeneralizations",
-    "disposition",
-    "identificationVerificationStatus",
-];
+/// The register's own columns for each sample, first in each row: Darwin Core term
+/// names where one fits, plain names of our own for the rest. The occurrence terms
+/// ([`REGISTER_OCCURRENCE_TERMS`]) follow them.
+const SAMPLE_COLUMNS: &[&str] =
+    &["materialSampleID", "sampleKind", "preservation", "storedAt", "heldBy", "sampleRemarks", "sampleAddedAt"];
 
 /// The occurrence terms the register repeats on each of an organism's samples.
 const REGISTER_OCCURRENCE_TERMS: &[&str] = &[
@@ -201,7 +184,7 @@ pub fn write_register<W: Write>(
     progress: &mut dyn FnMut(),
 ) -> Result<ExportSummary, ExportError> {
     let mut writer = ::csv::Writer::from_writer(out);
-    writer.write_record(REGISTER_COLUMNS)?;
+    writer.write_record(SAMPLE_COLUMNS.iter().chain(REGISTER_OCCURRENCE_TERMS))?;
     let publisher = Publisher::load(conn, names, request.audience)?;
     let mut written = 0;
     let mut summary = each_occurrence(conn, &publisher, request, progress, |o| {
